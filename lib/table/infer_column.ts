@@ -1,0 +1,306 @@
+/**
+ * One column of cell text -> one typed column.
+ *
+ * Inference order: a declared type wins; otherwise a column whose every
+ * value reads as a number (or pay amount) is numeric, a text column of level
+ * names like `L1..L9` is ordinal, a column unique per row (or named as an id
+ * and nearly unique) is an identifier, one distinct value is constant, and
+ * the rest is categorical.
+ *
+ * @module
+ */
+
+import { DataError, OptionError } from "../errors.ts";
+import { type Amount, type DecimalMark, parseAmount } from "./amount.ts";
+import { isPayName, periodFromName, settleMoney } from "./money.ts";
+import { ladderOrder } from "./ordinal.ts";
+import { nameWords } from "./protected_names.ts";
+import type { Column, ColumnType, LevelColumn, NumericColumn, PayPeriod } from "./types.ts";
+
+/** The types a user may declare for a column. */
+export type DeclaredType = Exclude<ColumnType, "constant">;
+
+/** What {@linkcode inferColumn} needs besides the cells. */
+export interface InferColumnOptions {
+  /** File name, for messages. */
+  file: string;
+  /** The file's decimal mark. */
+  decimal: DecimalMark;
+  /** Test for missing cells. */
+  isMissing: (text: string) => boolean;
+  /** A type the user declared. */
+  type?: DeclaredType;
+  /** A level order the user declared (makes the column ordinal). */
+  order?: readonly string[];
+  /** Whether the column is a protected attribute. */
+  protected: boolean;
+  /** The currency the user says pay is in. */
+  currency?: string;
+  /** The pay period the user says the column is in. */
+  period?: PayPeriod;
+  /** Hours in a working year, to annualise hourly pay. */
+  hoursPerYear?: number;
+}
+
+// A column is "numeric but for a few values" (and refused, rather than
+// silently made categorical) when at most this share of its values fail.
+const FEW_FAILURES = 0.05;
+const QUOTED_FAILURES = 5;
+const ID_WORDS = new Set(["id", "ids", "identifier", "uuid", "guid", "key", "no", "nr", "number"]);
+const NEARLY_UNIQUE = 0.95;
+const UNIQUE_MIN_ROWS = 20;
+
+const collator = new Intl.Collator("en", { numeric: true, sensitivity: "variant" });
+
+/**
+ * Types one column.
+ *
+ * @param name Header name.
+ * @param cells Trimmed cell text per row.
+ * @param lines Source line of each row, for messages.
+ *
+ * @example
+ * ```ts
+ * import { inferColumn } from "./infer_column.ts";
+ * import { missingTest } from "./missing.ts";
+ * const col = inferColumn("level", ["L2", "L10", "L1"], [2, 3, 4], {
+ *   file: "t.csv", decimal: ".", isMissing: missingTest(), protected: false,
+ * });
+ * console.assert(col.type === "ordinal");
+ * ```
+ */
+export function inferColumn(
+  name: string,
+  cells: readonly string[],
+  lines: ArrayLike<number>,
+  options: InferColumnOptions,
+): Column {
+  const { isMissing } = options;
+  let missing = 0;
+  for (const cell of cells) if (isMissing(cell)) missing++;
+  const base = { name, missing, protected: options.protected, notes: [] as string[] };
+
+  if (options.type === "identifier") return identifier(cells, base, isMissing);
+  if (options.order !== undefined || options.type === "ordinal") {
+    return levels(name, cells, lines, base, options, "ordinal");
+  }
+  if (options.type === "categorical") return levels(name, cells, lines, base, options);
+
+  const parsed = readNumbers(cells, options);
+  const present = cells.length - missing;
+  if (parsed.failures.length === 0 && present > 0) {
+    if (options.type !== "numeric" && looksLikeNumericId(name, parsed.values, present)) {
+      return identifier(cells, base, isMissing);
+    }
+    return numeric(name, parsed, lines, base, options);
+  }
+  const failureShare = parsed.failures.length / Math.max(present, 1);
+  const distinctNumbers = new Set(parsed.values.filter((v) => !Number.isNaN(v))).size;
+  if (
+    options.type === "numeric" ||
+    (present > 0 && failureShare <= FEW_FAILURES && distinctNumbers >= 5)
+  ) {
+    throw notNumbers(name, parsed.failures, lines, options, cells);
+  }
+  return levels(name, cells, lines, base, options);
+}
+
+interface ParsedNumbers {
+  values: Float64Array;
+  amounts: (Amount | undefined)[];
+  failures: number[];
+  money: boolean;
+}
+
+function readNumbers(cells: readonly string[], options: InferColumnOptions): ParsedNumbers {
+  const values = new Float64Array(cells.length);
+  const amounts: (Amount | undefined)[] = new Array(cells.length);
+  const failures: number[] = [];
+  let money = false;
+  for (let r = 0; r < cells.length; r++) {
+    if (options.isMissing(cells[r])) {
+      values[r] = NaN;
+      continue;
+    }
+    const amount = parseAmount(cells[r], options.decimal);
+    if (amount === undefined) {
+      values[r] = NaN;
+      failures.push(r);
+      continue;
+    }
+    amounts[r] = amount;
+    values[r] = amount.value;
+    if (amount.currency !== undefined || amount.period !== undefined) money = true;
+  }
+  return { values, amounts, failures, money };
+}
+
+function notNumbers(
+  name: string,
+  failures: readonly number[],
+  lines: ArrayLike<number>,
+  options: InferColumnOptions,
+  cells: readonly string[],
+): DataError {
+  const shown = failures.slice(0, QUOTED_FAILURES)
+    .map((r) => `line ${lines[r]} has "${printable(cells[r])}"`)
+    .join(", ");
+  const more = failures.length > QUOTED_FAILURES
+    ? `, and ${failures.length - QUOTED_FAILURES} more`
+    : "";
+  const otherDecimal: DecimalMark = options.decimal === "." ? "," : ".";
+  const commaHint = failures.every((r) => parseAmount(cells[r], otherDecimal) !== undefined)
+    ? `; the values read as numbers with --decimal "${otherDecimal}"`
+    : "";
+  const hint = options.type === "numeric"
+    ? ""
+    : `; if the column is not numeric, declare it with --type ${name}=categorical`;
+  return new DataError(
+    `${options.file}: ${name}: ${shown}${more}, not a number` +
+      `${commaHint}${hint} (missing values may be written as empty, NA, N/A, null or -)`,
+    { file: options.file, line: lines[failures[0]], column: name },
+  );
+}
+
+// Control characters and very long cells are shortened in messages so that
+// one line of output stays one line.
+function printable(text: string): string {
+  // deno-lint-ignore no-control-regex
+  const clean = text.replace(/[\u0000-\u001f\u007f]/g, "?");
+  return clean.length > 40 ? `${clean.slice(0, 37)}...` : clean;
+}
+
+function looksLikeNumericId(name: string, values: Float64Array, present: number): boolean {
+  if (!nameWords(name).some((w) => ID_WORDS.has(w))) return false;
+  const distinct = new Set<number>();
+  for (const v of values) {
+    if (Number.isNaN(v)) continue;
+    if (!Number.isInteger(v)) return false;
+    distinct.add(v);
+  }
+  return distinct.size >= NEARLY_UNIQUE * present;
+}
+
+type Base = { name: string; missing: number; protected: boolean; notes: string[] };
+
+function numeric(
+  name: string,
+  parsed: ParsedNumbers,
+  lines: ArrayLike<number>,
+  base: Base,
+  options: InferColumnOptions,
+): Column {
+  const distinct = new Set<number>();
+  for (const v of parsed.values) if (!Number.isNaN(v)) distinct.add(v);
+  if (distinct.size <= 1) {
+    return constant(base, distinct.size ? String([...distinct][0]) : undefined);
+  }
+  const column: NumericColumn = { ...base, type: "numeric", values: parsed.values };
+  if (parsed.money || isPayName(name) || options.period !== undefined) {
+    const settled = settleMoney(parsed.values, parsed.amounts, lines, {
+      column: name,
+      file: options.file,
+      currency: options.currency,
+      defaultPeriod: options.period ?? periodFromName(name),
+      hoursPerYear: options.hoursPerYear,
+    });
+    column.money = settled.unit;
+    column.notes.push(...settled.notes);
+  }
+  return column;
+}
+
+function constant(base: Base, value: string | undefined): Column {
+  const note = value === undefined
+    ? "every value is missing; left out of models"
+    : `every value is "${value}"; left out of models`;
+  const column: Column = { ...base, type: "constant", notes: [...base.notes, note] };
+  if (value !== undefined) column.value = value;
+  return column;
+}
+
+function identifier(cells: readonly string[], base: Base, isMissing: (t: string) => boolean) {
+  const values = cells.map((c) => (isMissing(c) ? "" : c));
+  return {
+    ...base,
+    type: "identifier" as const,
+    values,
+    notes: [...base.notes, "names rows; never used as a feature"],
+  };
+}
+
+function levels(
+  name: string,
+  cells: readonly string[],
+  lines: ArrayLike<number>,
+  base: Base,
+  options: InferColumnOptions,
+  forced?: "ordinal",
+): Column {
+  const counts = new Map<string, number>();
+  for (const cell of cells) {
+    if (!options.isMissing(cell)) counts.set(cell, (counts.get(cell) ?? 0) + 1);
+  }
+  const present = cells.length - base.missing;
+  if (forced === undefined && options.type === undefined) {
+    if (counts.size <= 1) return constant(base, [...counts.keys()][0]);
+    const idName = nameWords(name).some((w) => ID_WORDS.has(w));
+    const unique = counts.size >= NEARLY_UNIQUE * present;
+    if (unique && (idName || present >= UNIQUE_MIN_ROWS)) {
+      return identifier(cells, base, options.isMissing);
+    }
+  }
+  let order: string[];
+  let type: LevelColumn["type"] = "categorical";
+  if (options.order !== undefined) {
+    order = checkOrder(name, options.order, counts, cells, lines, options);
+    type = "ordinal";
+  } else {
+    const ladder = ladderOrder([...counts.keys()]);
+    if (ladder !== undefined && options.type !== "categorical") {
+      order = ladder;
+      type = "ordinal";
+      base.notes.push(`ordered by the number in each level: ${ladder.join(" < ")}`);
+    } else {
+      order = [...counts.keys()].sort((a, b) => collator.compare(a, b) || (a < b ? -1 : 1));
+      if (forced === "ordinal") {
+        throw new OptionError(
+          `--type ${name}=ordinal needs an order: give --order ${name}=${order.join(",")} ` +
+            `with the levels lowest first`,
+        );
+      }
+    }
+  }
+  const index = new Map(order.map((level, i) => [level, i]));
+  const codes = new Int32Array(cells.length);
+  for (let r = 0; r < cells.length; r++) {
+    codes[r] = options.isMissing(cells[r]) ? -1 : index.get(cells[r])!;
+  }
+  return { ...base, type, codes, levels: order };
+}
+
+function checkOrder(
+  name: string,
+  order: readonly string[],
+  counts: Map<string, number>,
+  cells: readonly string[],
+  lines: ArrayLike<number>,
+  options: InferColumnOptions,
+): string[] {
+  const declared = new Set(order);
+  if (declared.size !== order.length) {
+    throw new OptionError(`--order ${name}: a level is listed twice`);
+  }
+  const unknown = [...counts.keys()].filter((level) => !declared.has(level));
+  if (unknown.length > 0) {
+    const where = unknown.slice(0, 5).map((level) => {
+      const r = cells.findIndex((c) => c === level && !options.isMissing(c));
+      return `"${level}" (line ${lines[r]})`;
+    });
+    throw new OptionError(
+      `--order ${name}: the data has level${unknown.length === 1 ? "" : "s"} not in the order: ` +
+        `${where.join(", ")}${unknown.length > 5 ? ` and ${unknown.length - 5} more` : ""}`,
+    );
+  }
+  return [...order];
+}

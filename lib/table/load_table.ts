@@ -1,0 +1,225 @@
+/**
+ * CSV bytes or text -> a typed {@linkcode Table}: the one entry point of the
+ * data layer. Either the whole table loads or an error says why; nothing is
+ * half-loaded.
+ *
+ * @module
+ */
+
+import { DataError, OptionError } from "../errors.ts";
+import type { DecimalMark } from "./amount.ts";
+import { type DeclaredType, inferColumn } from "./infer_column.ts";
+import { DEFAULT_MISSING_TOKENS, missingTest } from "./missing.ts";
+import { applyFte } from "./money.ts";
+import { isProtectedName } from "./protected_names.ts";
+import { findQualityWarnings } from "./quality.ts";
+import { decodeText, describeDelimiter, readCsv } from "./read_csv.ts";
+import type { Column, PayPeriod, Table } from "./types.ts";
+
+/** What the target column must be. */
+export type TargetKind = "numeric" | "class";
+
+/** Options of {@linkcode loadTable}; every field is optional. */
+export interface LoadTableOptions {
+  /** File name used in messages. */
+  file?: string;
+  /** Field delimiter; detected among comma, semicolon and tab when not given. */
+  delimiter?: string;
+  /**
+   * Decimal mark of numbers in the file.
+   * @default {"."}
+   */
+  decimal?: DecimalMark;
+  /**
+   * Text encoding (WHATWG label) of byte input.
+   * @default {"utf-8"}
+   */
+  encoding?: string;
+  /**
+   * Cell texts meaning "missing", besides the empty cell.
+   * @default DEFAULT_MISSING_TOKENS
+   */
+  missing?: readonly string[];
+  /** Declared column types, by column name. */
+  types?: Readonly<Record<string, DeclaredType>>;
+  /** Declared level orders (lowest first), by column name; makes the column ordinal. */
+  orders?: Readonly<Record<string, readonly string[]>>;
+  /** Further columns to treat as protected attributes. */
+  protected?: readonly string[];
+  /** The column to be predicted; rows where it is missing are left out. */
+  target?: string;
+  /** What the target must be: numeric (pay) or a class (e.g. level). */
+  targetKind?: TargetKind;
+  /** ISO 4217 code of the pay columns, e.g. `"EUR"`. */
+  currency?: string;
+  /** Hours in a working year, to annualise hourly pay. */
+  hoursPerYear?: number;
+  /** Column of full-time-equivalent fractions; pay columns are divided by it. */
+  fte?: string;
+  /** Pay period of money columns whose cells do not say it, by column name. */
+  periods?: Readonly<Record<string, PayPeriod>>;
+}
+
+/**
+ * Loads a pay table from CSV bytes (decoded with `options.encoding`) or text.
+ *
+ * @throws {DataError} when the data cannot be used (the message names file,
+ * line and column).
+ * @throws {OptionError} when an option does not fit the data (e.g. an
+ * unknown column name; the message lists the columns there are).
+ *
+ * @example Loading a small table
+ * ```ts
+ * import { loadTable } from "./load_table.ts";
+ * const table = loadTable("id,level,pay\na1,L2,\"$85,000\"\na2,L1,\"$61,500\"\n", {
+ *   types: { id: "identifier" },
+ * });
+ * const pay = table.columns[2];
+ * console.assert(pay.type === "numeric" && pay.values[0] === 85000);
+ * console.assert(pay.type === "numeric" && pay.money?.currency === "USD");
+ * ```
+ */
+export function loadTable(input: Uint8Array | string, options: LoadTableOptions = {}): Table {
+  const file = options.file ?? "input";
+  const text = typeof input === "string" ? input : decodeText(input, options.encoding, file);
+  const bytes = typeof input === "string" ? new TextEncoder().encode(input).length : input.length;
+  const raw = readCsv(text, { file, delimiter: options.delimiter });
+  checkOptionColumns(raw.header, options);
+  if (options.hoursPerYear !== undefined && !(options.hoursPerYear > 0)) {
+    throw new OptionError(`--hours-per-year must be a positive number of hours`);
+  }
+  const isMissing = missingTest(options.missing ?? DEFAULT_MISSING_TOKENS);
+
+  let cells = raw.cells;
+  let lines = raw.lines;
+  const excludedLines: number[] = [];
+  if (options.target !== undefined) {
+    const t = raw.header.indexOf(options.target);
+    const keep: number[] = [];
+    for (let r = 0; r < lines.length; r++) {
+      if (isMissing(cells[t][r])) excludedLines.push(lines[r]);
+      else keep.push(r);
+    }
+    if (excludedLines.length > 0) {
+      cells = cells.map((column) => keep.map((r) => column[r]));
+      lines = keep.map((r) => lines[r]);
+    }
+    if (lines.length === 0) {
+      throw new DataError(`${file}: the target "${options.target}" is missing on every row`, {
+        file,
+        column: options.target,
+      });
+    }
+  }
+
+  const userProtected = new Set(options.protected ?? []);
+  const columns = raw.header.map((name, c) =>
+    inferColumn(name, cells[c], lines, {
+      file,
+      decimal: options.decimal ?? ".",
+      isMissing,
+      // A pay target is declared numeric so that stray text is quoted back.
+      type: options.types?.[name] ??
+        (name === options.target && options.targetKind === "numeric" ? "numeric" : undefined),
+      order: options.orders?.[name],
+      protected: userProtected.has(name) || isProtectedName(name),
+      currency: options.currency,
+      period: options.periods?.[name],
+      hoursPerYear: options.hoursPerYear,
+    })
+  );
+
+  const notes = [`delimiter: ${describeDelimiter(raw.delimiter)}`];
+  if (options.fte !== undefined) applyFteToPay(columns, options.fte, lines, file);
+  if (options.target !== undefined) {
+    checkTarget(columns[raw.header.indexOf(options.target)], options.targetKind, file);
+  }
+  const lineArray = Int32Array.from(lines);
+  const table: Table = {
+    rows: lines.length,
+    columns,
+    lines: lineArray,
+    excluded: { count: excludedLines.length, lines: excludedLines.slice(0, 10) },
+    warnings: [],
+    notes,
+    source: { file: options.file, delimiter: raw.delimiter, bytes },
+  };
+  if (options.target !== undefined) table.target = options.target;
+  if (excludedLines.length > 0) {
+    notes.push(
+      `${excludedLines.length} row${excludedLines.length === 1 ? "" : "s"} left out: ` +
+        `the target "${options.target}" is missing (first on line ${excludedLines[0]})`,
+    );
+  }
+  table.warnings = findQualityWarnings(table);
+  return table;
+}
+
+function checkOptionColumns(header: readonly string[], options: LoadTableOptions): void {
+  const known = new Set(header);
+  const named: [string, string][] = [];
+  if (options.target !== undefined) named.push(["--target", options.target]);
+  if (options.fte !== undefined) named.push(["--fte", options.fte]);
+  for (const name of Object.keys(options.types ?? {})) named.push(["--type", name]);
+  for (const name of Object.keys(options.orders ?? {})) named.push(["--order", name]);
+  for (const name of Object.keys(options.periods ?? {})) named.push(["--period", name]);
+  for (const name of options.protected ?? []) named.push(["--protected", name]);
+  for (const [option, name] of named) {
+    if (!known.has(name)) {
+      throw new OptionError(
+        `${option}: no column named "${name}"; the columns are: ${header.join(", ")}`,
+      );
+    }
+  }
+}
+
+function applyFteToPay(columns: Column[], fteName: string, lines: number[], file: string) {
+  const fte = columns.find((c) => c.name === fteName)!;
+  if (fte.type !== "numeric") {
+    throw new OptionError(`--fte ${fteName}: the column is ${fte.type}, not numeric fractions`);
+  }
+  const pay = columns.filter((c) => c.type === "numeric" && c.money && c !== fte);
+  if (pay.length === 0) {
+    throw new OptionError(
+      `--fte ${fteName}: no pay column found to adjust (name one with pay, salary or wage in ` +
+        `its name, or write amounts with a currency)`,
+    );
+  }
+  for (const column of pay) {
+    if (column.type !== "numeric") continue;
+    const result = applyFte(column.values, fte.values, lines, {
+      pay: column.name,
+      fte: fteName,
+      file,
+    });
+    column.missing += result.madeMissing;
+    column.notes.push(
+      `made full-time-equivalent: divided by "${fteName}"${result.percent ? " / 100" : ""}` +
+        (result.madeMissing > 0 ? ` (${result.madeMissing} left missing: no fraction)` : ""),
+    );
+  }
+}
+
+function checkTarget(column: Column, kind: TargetKind | undefined, file: string): void {
+  const where = { file, column: column.name };
+  if (column.type === "constant") {
+    throw new DataError(
+      `${file}: the target "${column.name}" has fewer than 2 distinct values; there is nothing ` +
+        `to predict`,
+      where,
+    );
+  }
+  if (column.type === "identifier") {
+    throw new DataError(
+      `${file}: the target "${column.name}" is an identifier (a different value on every row)`,
+      where,
+    );
+  }
+  if (kind === "numeric" && column.type !== "numeric") {
+    throw new DataError(
+      `${file}: the target "${column.name}" must be numeric pay, but it is ${column.type} ` +
+        `(levels such as "${column.levels.slice(0, 3).join('", "')}")`,
+      where,
+    );
+  }
+}

@@ -1,0 +1,43 @@
+/**
+ * Loading a pay table from a file path.
+ *
+ * @module
+ */
+
+import { DataError } from "../errors.ts";
+import { loadTable, type LoadTableOptions } from "./load_table.ts";
+import type { Table } from "./types.ts";
+
+/**
+ * Reads a CSV file and loads it with {@linkcode loadTable}; the path names
+ * the file in every message.
+ *
+ * @throws {DataError} when the file cannot be read or its data cannot be used.
+ *
+ * @example
+ * ```ts ignore
+ * import { loadTableFile } from "./load_table_file.ts";
+ * const table = await loadTableFile("fixtures/cps1988.csv", { target: "wage" });
+ * ```
+ */
+export async function loadTableFile(
+  path: string,
+  options: Omit<LoadTableOptions, "file"> = {},
+): Promise<Table> {
+  let bytes: Uint8Array;
+  try {
+    bytes = await Deno.readFile(path);
+  } catch (error) {
+    throw new DataError(readProblem(path, error), { file: path });
+  }
+  return loadTable(bytes, { ...options, file: path });
+}
+
+function readProblem(path: string, error: unknown): string {
+  if (error instanceof Deno.errors.NotFound) return `${path}: no such file`;
+  if (error instanceof Deno.errors.IsADirectory) return `${path} is a folder, not a CSV file`;
+  if (error instanceof Deno.errors.PermissionDenied || error instanceof Deno.errors.NotCapable) {
+    return `${path}: not allowed to read it (${(error as Error).message.split("\n")[0]})`;
+  }
+  return `${path}: cannot read it (${(error as Error).message})`;
+}

@@ -1,0 +1,17 @@
+/**
+ * The data layer: CSV text -> typed, columnar pay table.
+ *
+ * @module
+ */
+
+export * from "./types.ts";
+export { type Amount, type DecimalMark, parseAmount, parseNumber } from "./amount.ts";
+export { DEFAULT_MISSING_TOKENS, missingTest } from "./missing.ts";
+export { isProtectedName, nameWords } from "./protected_names.ts";
+export { ladderOrder } from "./ordinal.ts";
+export { isPayName, periodFromName } from "./money.ts";
+export type { DeclaredType } from "./infer_column.ts";
+export { loadTable, type LoadTableOptions, type TargetKind } from "./load_table.ts";
+export { loadTableFile } from "./load_table_file.ts";
+export { type ColumnSummary, describeSchema, type SchemaSummary } from "./describe_schema.ts";
+export { quantile } from "./quality.ts";

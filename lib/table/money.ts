@@ -1,0 +1,242 @@
+/**
+ * Money columns: one currency, one pay period, and the conversions people
+ * ask for (hourly to annual, part-time to full-time-equivalent).
+ *
+ * @module
+ */
+
+import { DataError, OptionError } from "../errors.ts";
+import type { Amount } from "./amount.ts";
+import type { MoneyUnit, PayPeriod } from "./types.ts";
+import { nameWords } from "./protected_names.ts";
+
+/** Words in a column name that mark it as pay. */
+const PAY_WORDS = new Set([
+  "pay",
+  "salary",
+  "salaries",
+  "wage",
+  "wages",
+  "compensation",
+  "comp",
+  "earnings",
+  "income",
+  "bonus",
+  "remuneration",
+]);
+
+/** Words in a pay column's name that say its period. */
+const NAME_PERIODS: Record<string, PayPeriod> = {
+  hourly: "hour",
+  hour: "hour",
+  weekly: "week",
+  week: "week",
+  monthly: "month",
+  month: "month",
+  annual: "year",
+  yearly: "year",
+};
+
+/**
+ * Weeks and months in a year, used to put mixed periods on a yearly basis
+ * (52 weeks: common practice; 12 months: exact).
+ */
+export const PERIODS_PER_YEAR: Readonly<Record<Exclude<PayPeriod, "hour">, number>> = {
+  week: 52,
+  month: 12,
+  year: 1,
+};
+
+/**
+ * True when a column's name says it holds pay (`base_pay`, `Salary`,
+ * `hourlyWage`).
+ *
+ * @example
+ * ```ts
+ * import { isPayName } from "./money.ts";
+ * console.assert(isPayName("base_pay") && !isPayName("payroll_id"));
+ * console.assert(!isPayName("years_experience"));
+ * ```
+ */
+export function isPayName(name: string): boolean {
+  return nameWords(name).some((w) => PAY_WORDS.has(w));
+}
+
+/**
+ * The pay period a column's name states (`hourly_rate` -> `"hour"`), if any.
+ *
+ * @example
+ * ```ts
+ * import { periodFromName } from "./money.ts";
+ * console.assert(periodFromName("monthly_salary") === "month");
+ * ```
+ */
+export function periodFromName(name: string): PayPeriod | undefined {
+  for (const word of nameWords(name)) {
+    const period = NAME_PERIODS[word];
+    if (period) return period;
+  }
+  return undefined;
+}
+
+/** How to settle a money column's unit; see {@linkcode settleMoney}. */
+export interface SettleMoneyOptions {
+  /** Column name, for messages. */
+  column: string;
+  /** File name, for messages. */
+  file: string;
+  /** The currency the user says the table is in. */
+  currency?: string;
+  /** The period the values are for when no cell says. */
+  defaultPeriod?: PayPeriod;
+  /** Hours in a working year, to annualise hourly pay. */
+  hoursPerYear?: number;
+}
+
+/** A money column's settled unit and what was done to reach it. */
+export interface SettledMoney {
+  /** The unit of the converted values. */
+  unit: MoneyUnit;
+  /** Sentences for the schema's notes. */
+  notes: string[];
+}
+
+/**
+ * Checks that a money column uses one currency, and puts its values on one
+ * pay period, converting in place: mixed periods go to per-year (months x12,
+ * weeks x52, hours x `hoursPerYear`), and hourly pay is annualised when
+ * `hoursPerYear` is given. Refuses mixed currencies (no exchange rates are
+ * known here) and hours mixed with other periods without `hoursPerYear`.
+ *
+ * @param values Parsed values, converted in place; `NaN` where missing.
+ * @param amounts The parsed cell for each row (undefined where missing).
+ * @param lines Source line of each row, for messages.
+ */
+export function settleMoney(
+  values: Float64Array,
+  amounts: readonly (Amount | undefined)[],
+  lines: ArrayLike<number>,
+  options: SettleMoneyOptions,
+): SettledMoney {
+  const { column, file } = options;
+  const notes: string[] = [];
+  const currencies = new Map<string, number[]>();
+  let ambiguous = false;
+  const periods = new Map<PayPeriod, number[]>();
+  for (let r = 0; r < amounts.length; r++) {
+    const amount = amounts[r];
+    if (amount === undefined) continue;
+    if (amount.currency !== undefined) {
+      const at = currencies.get(amount.currency) ?? [];
+      at.push(lines[r]);
+      currencies.set(amount.currency, at);
+      if (amount.currencyAmbiguous) ambiguous = true;
+    }
+    const period = amount.period ?? options.defaultPeriod;
+    if (period !== undefined) {
+      const at = periods.get(period) ?? [];
+      at.push(lines[r]);
+      periods.set(period, at);
+    }
+  }
+  if (currencies.size > 1) {
+    const listed = [...currencies].map(([code, at]) => `${code} on ${lineList(at)}`).join("; ");
+    throw new DataError(
+      `${file}: "${column}" mixes currencies (${listed}); pay in different currencies ` +
+        `cannot be compared without exchange rates: convert it to one currency first`,
+      { file, column, line: [...currencies.values()][1][0] },
+    );
+  }
+  let currency = [...currencies.keys()][0];
+  if (options.currency !== undefined) {
+    const wanted = options.currency.toUpperCase();
+    if (currency !== undefined && currency !== wanted && !ambiguous) {
+      throw new OptionError(
+        `--currency ${wanted}: "${column}" is written in ${currency} (${
+          lineList(currencies.get(currency)!)
+        })`,
+      );
+    }
+    currency = wanted;
+  } else if (ambiguous && currency !== undefined) {
+    notes.push(`"${column}": the symbol was read as ${currency}; give --currency to say otherwise`);
+  }
+
+  let period: PayPeriod | undefined = periods.size === 1 ? [...periods.keys()][0] : undefined;
+  const hours = periods.get("hour");
+  if (periods.size > 1 || (hours && options.hoursPerYear !== undefined)) {
+    if (hours && options.hoursPerYear === undefined) {
+      const others = [...periods].filter(([p]) => p !== "hour");
+      throw new DataError(
+        `${file}: "${column}" mixes hourly pay (${lineList(hours)}) with pay per ${others[0][0]} (${
+          lineList(others[0][1])
+        }); give --hours-per-year to annualise the hourly values`,
+        { file, column, line: hours[0] },
+      );
+    }
+    for (let r = 0; r < amounts.length; r++) {
+      const amount = amounts[r];
+      if (amount === undefined) continue;
+      const from = amount.period ?? options.defaultPeriod;
+      if (from === undefined || from === "year") continue;
+      values[r] *= from === "hour" ? options.hoursPerYear! : PERIODS_PER_YEAR[from];
+    }
+    const converted = [...periods.keys()].filter((p) => p !== "year");
+    const how = converted.map((p) =>
+      p === "hour" ? `hourly x ${options.hoursPerYear} hours` : `per ${p} x ${PERIODS_PER_YEAR[p]}`
+    );
+    notes.push(`"${column}": annualised (${how.join(", ")})`);
+    period = "year";
+  }
+  const unit: MoneyUnit = {};
+  if (currency !== undefined) unit.currency = currency;
+  if (period !== undefined) unit.period = period;
+  return { unit, notes };
+}
+
+/**
+ * Divides pay by a full-time-equivalent fraction in place. Fractions must lie
+ * in (0, 1]; a column whose values all lie in (0, 100] with some above 1 is
+ * read as percentages. A missing or invalid fraction makes the pay missing.
+ *
+ * @returns How the fractions were read and how many pay values became missing.
+ */
+export function applyFte(
+  pay: Float64Array,
+  fte: Float64Array,
+  lines: ArrayLike<number>,
+  names: { pay: string; fte: string; file: string },
+): { percent: boolean; madeMissing: number } {
+  let max = 0;
+  for (let r = 0; r < fte.length; r++) if (fte[r] > max) max = fte[r];
+  const percent = max > 1 && max <= 100;
+  const limit = percent ? 100 : 1;
+  for (let r = 0; r < fte.length; r++) {
+    const f = fte[r];
+    if (!Number.isNaN(f) && (f <= 0 || f > limit)) {
+      throw new DataError(
+        `${names.file} line ${lines[r]}: "${names.fte}" is ${f}, not a full-time-equivalent ` +
+          `fraction between 0 and 1 (or a percentage up to 100)`,
+        { file: names.file, line: lines[r], column: names.fte },
+      );
+    }
+  }
+  let madeMissing = 0;
+  for (let r = 0; r < pay.length; r++) {
+    const f = fte[r];
+    if (Number.isNaN(f)) {
+      if (!Number.isNaN(pay[r])) madeMissing++;
+      pay[r] = NaN;
+    } else {
+      pay[r] /= percent ? f / 100 : f;
+    }
+  }
+  return { percent, madeMissing };
+}
+
+/** Formats up to four line numbers: "lines 3, 8, 12 and 2 more". */
+export function lineList(lines: readonly number[], shown = 4): string {
+  const head = lines.slice(0, shown).join(", ");
+  const more = lines.length > shown ? ` and ${lines.length - shown} more` : "";
+  return `line${lines.length === 1 ? "" : "s"} ${head}${more}`;
+}

@@ -1,0 +1,234 @@
+/**
+ * Data-quality findings: duplicate identifiers and rows, pay that looks like
+ * a unit slip, pay that is zero or negative, far-out values. They are
+ * warnings with line numbers, never reasons to refuse a table.
+ *
+ * @module
+ */
+
+import { lineList } from "./money.ts";
+import type { Column, NumericColumn, QualityWarning, Table } from "./types.ts";
+
+const SHOWN_LINES = 5;
+// A pay value is a likely unit slip when the column's median is about
+// 1,000 times it (thousands typed as units: 85 among 85,000s) or about
+// 12 times it (a monthly figure among annual ones). The windows are wide
+// enough for rounding and narrow enough to stay clear of ordinary spread.
+const THOUSANDS_SLIP: [number, number] = [500, 2000];
+const MONTHLY_SLIP: [number, number] = [9, 16];
+// Tukey's far-out fence (common practice): beyond 3 interquartile ranges.
+const FAR_OUT = 3;
+
+/**
+ * Finds the data-quality warnings of a loaded table.
+ *
+ * @example
+ * ```ts
+ * import { loadTable } from "./load_table.ts";
+ * const rows = Array.from({ length: 20 }, (_, i) => `${60000 + i * 1000}`);
+ * rows.push("85");
+ * const table = loadTable("salary\n" + rows.join("\n"));
+ * console.assert(table.warnings.some((w) => w.kind === "unit-slip"));
+ * ```
+ */
+export function findQualityWarnings(table: Table): QualityWarning[] {
+  const warnings: QualityWarning[] = [];
+  for (const column of table.columns) {
+    if (column.type === "identifier") {
+      warnings.push(...duplicateIds(column.name, column.values, table));
+    }
+    if (column.type === "numeric") {
+      if (column.money) warnings.push(...payChecks(column, table));
+      const outliers = farOut(column, table);
+      if (outliers) warnings.push(outliers);
+    }
+  }
+  const duplicates = duplicateRows(table);
+  if (duplicates) warnings.push(duplicates);
+  return warnings;
+}
+
+function duplicateIds(name: string, values: readonly string[], table: Table): QualityWarning[] {
+  const first = new Map<string, number>();
+  const lines: number[] = [];
+  let count = 0;
+  for (let r = 0; r < values.length; r++) {
+    if (values[r] === "") continue;
+    const earlier = first.get(values[r]);
+    if (earlier === undefined) {
+      first.set(values[r], r);
+    } else {
+      count++;
+      if (lines.length < SHOWN_LINES) lines.push(table.lines[r]);
+    }
+  }
+  if (count === 0) return [];
+  return [{
+    kind: "duplicate-identifier",
+    column: name,
+    count,
+    lines,
+    message: `"${name}": ${count} identifier${count === 1 ? " repeats" : "s repeat"} an earlier ` +
+      `row (${lineList(lines)})`,
+  }];
+}
+
+function payChecks(column: NumericColumn, table: Table): QualityWarning[] {
+  const warnings: QualityWarning[] = [];
+  const sorted = present(column.values);
+  if (sorted.length === 0) return warnings;
+  const median = quantile(sorted, 0.5);
+  const [lowLog] = logFences(sorted);
+  const nonPositive: number[] = [];
+  const slips: number[] = [];
+  let slipCount = 0;
+  let nonPositiveCount = 0;
+  for (let r = 0; r < column.values.length; r++) {
+    const v = column.values[r];
+    if (Number.isNaN(v)) continue;
+    if (v <= 0) {
+      nonPositiveCount++;
+      if (nonPositive.length < SHOWN_LINES) nonPositive.push(table.lines[r]);
+      continue;
+    }
+    // A slip is both at the right distance from the median and far out on the
+    // log scale, so wide but ordinary spread (part-time weekly pay) is not flagged.
+    const ratio = median / v;
+    const slip = (ratio >= THOUSANDS_SLIP[0] && ratio <= THOUSANDS_SLIP[1]) ||
+      (ratio >= MONTHLY_SLIP[0] && ratio <= MONTHLY_SLIP[1]);
+    if (median > 0 && slip && Math.log(v) < lowLog) {
+      slipCount++;
+      if (slips.length < SHOWN_LINES) slips.push(table.lines[r]);
+    }
+  }
+  if (nonPositiveCount > 0) {
+    warnings.push({
+      kind: "non-positive-pay",
+      column: column.name,
+      count: nonPositiveCount,
+      lines: nonPositive,
+      message: `"${column.name}": ${nonPositiveCount} value${
+        nonPositiveCount === 1 ? " is" : "s are"
+      } zero or negative (${lineList(nonPositive)})`,
+    });
+  }
+  if (slipCount > 0) {
+    warnings.push({
+      kind: "unit-slip",
+      column: column.name,
+      count: slipCount,
+      lines: slips,
+      message: `"${column.name}": ${slipCount} value${slipCount === 1 ? " is" : "s are"} about ` +
+        `1,000x or 12x below the median ${formatPlain(median)}: thousands typed as units, or ` +
+        `monthly pay among annual? (${lineList(slips)})`,
+    });
+  }
+  return warnings;
+}
+
+// Far-out fences of the logs of the positive values; pay is right-skewed, so
+// its fences are set on the log scale.
+function logFences(sorted: Float64Array): [number, number] {
+  const logs = sorted.filter((v) => v > 0).map(Math.log);
+  if (logs.length === 0) return [-Infinity, Infinity];
+  const q1 = quantile(logs, 0.25);
+  const q3 = quantile(logs, 0.75);
+  return [q1 - FAR_OUT * (q3 - q1), q3 + FAR_OUT * (q3 - q1)];
+}
+
+function farOut(column: NumericColumn, table: Table): QualityWarning | undefined {
+  const sorted = present(column.values);
+  if (sorted.length < 20) return undefined;
+  let low: number;
+  let high: number;
+  const logScale = column.money !== undefined && sorted[0] > 0;
+  if (logScale) {
+    [low, high] = logFences(sorted).map(Math.exp);
+  } else {
+    const q1 = quantile(sorted, 0.25);
+    const q3 = quantile(sorted, 0.75);
+    low = q1 - FAR_OUT * (q3 - q1);
+    high = q3 + FAR_OUT * (q3 - q1);
+  }
+  if (!(high > low)) return undefined;
+  const lines: number[] = [];
+  let count = 0;
+  for (let r = 0; r < column.values.length; r++) {
+    const v = column.values[r];
+    if (v < low || v > high) {
+      count++;
+      if (lines.length < SHOWN_LINES) lines.push(table.lines[r]);
+    }
+  }
+  if (count === 0) return undefined;
+  return {
+    kind: "outlier",
+    column: column.name,
+    count,
+    lines,
+    message: `"${column.name}": ${count} value${count === 1 ? " lies" : "s lie"} outside ` +
+      `[${formatPlain(low)}, ${formatPlain(high)}], 3 interquartile ranges beyond the quartiles` +
+      `${logScale ? " of the logs" : ""} (${lineList(lines)})`,
+  };
+}
+
+function duplicateRows(table: Table): QualityWarning | undefined {
+  if (table.columns.length === 0) return undefined;
+  const seen = new Map<string, number>();
+  const lines: number[] = [];
+  let count = 0;
+  for (let r = 0; r < table.rows; r++) {
+    const key = table.columns.map((c) => cellKey(c, r)).join("\u0001");
+    if (seen.has(key)) {
+      count++;
+      if (lines.length < SHOWN_LINES) lines.push(table.lines[r]);
+    } else {
+      seen.set(key, r);
+    }
+  }
+  if (count === 0) return undefined;
+  return {
+    kind: "duplicate-row",
+    count,
+    lines,
+    message: `${count} row${count === 1 ? " repeats" : "s repeat"} an earlier row in every ` +
+      `column (${lineList(lines)})` +
+      (table.columns.some((c) => c.type === "identifier")
+        ? ""
+        : "; with no identifier column, different people with the same record look alike"),
+  };
+}
+
+function cellKey(column: Column, r: number): string {
+  switch (column.type) {
+    case "numeric":
+      return String(column.values[r]);
+    case "categorical":
+    case "ordinal":
+      return String(column.codes[r]);
+    case "identifier":
+      return column.values[r];
+    case "constant":
+      return "";
+  }
+}
+
+function present(values: Float64Array): Float64Array {
+  return values.filter((v) => !Number.isNaN(v)).sort();
+}
+
+/**
+ * The q-quantile of sorted values by linear interpolation between order
+ * statistics (the default of R's `quantile`, type 7).
+ */
+export function quantile(sorted: ArrayLike<number>, q: number): number {
+  if (sorted.length === 0) throw new RangeError("quantile of no values");
+  const h = (sorted.length - 1) * q;
+  const lo = Math.floor(h);
+  const hi = Math.min(lo + 1, sorted.length - 1);
+  return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+}
+
+function formatPlain(value: number): string {
+  return Number(value.toPrecision(6)).toLocaleString("en-US");
+}

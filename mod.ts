@@ -1,0 +1,18 @@
+/**
+ * paygrove's public library API: everything the terminal layer and outside
+ * users import. The library never prints, never reads the terminal and
+ * never exits.
+ *
+ * @example Load a pay table and read its schema
+ * ```ts
+ * import { describeSchema, loadTable } from "./mod.ts";
+ * const table = loadTable("level,pay\nL1,50000\nL2,61000\nL1,52000\n", { target: "pay" });
+ * console.assert(describeSchema(table).columns[0].type === "ordinal");
+ * ```
+ *
+ * @module
+ */
+
+export * from "./lib/table/mod.ts";
+export { DataError, type DataErrorLocation, OptionError } from "./lib/errors.ts";
+export { VERSION } from "./lib/version.ts";

@@ -1,0 +1,141 @@
+// End-to-end checks of the paygrove command: exit statuses, messages and the
+// JSON schema document, run as a user runs it.
+import assert from "node:assert/strict";
+import { paygrove, ROOT, taskArgs } from "./_cli.ts";
+
+// deno-lint-ignore no-control-regex
+const ANSI = /\x1b\[/;
+
+Deno.test("schema --json prints one document with rows and typed columns", async () => {
+  const result = await paygrove(["schema", "fixtures/cps1988.csv", "--target", "wage", "--json"]);
+  assert.equal(result.code, 0, result.stderr);
+  assert.equal(result.stderr, "");
+  const doc = JSON.parse(result.stdout);
+  assert.equal(doc.rows, 28155);
+  assert.deepEqual(
+    doc.columns.map((c: { name: string; type: string }) => `${c.name}:${c.type}`),
+    [
+      "wage:numeric",
+      "education:numeric",
+      "experience:numeric",
+      "ethnicity:categorical",
+      "smsa:categorical",
+      "region:categorical",
+      "parttime:categorical",
+    ],
+  );
+  const region = doc.columns[5];
+  assert.deepEqual(region.levels, ["midwest", "northeast", "south", "west"]);
+  assert.equal(region.protected, false);
+  assert.equal(doc.columns[3].protected, true);
+  assert.equal(doc.columns[1].min, 0);
+  assert.equal(doc.columns[1].max, 18);
+  assert.equal(doc.columns[0].missing, 0);
+});
+
+Deno.test("schema prints a readable table without colour when piped", async () => {
+  const result = await paygrove(["schema", "fixtures/cps1985.csv", "--currency", "USD"]);
+  assert.equal(result.code, 0, result.stderr);
+  assert.doesNotMatch(result.stdout, ANSI);
+  const lines = result.stdout.split("\n");
+  assert.equal(lines[0], "fixtures/cps1985.csv: 534 rows, 11 columns");
+  const wage = lines.find((l) => l.startsWith("│ wage "));
+  assert.ok(wage?.includes("$1.00 to $44.50 (USD)"), wage);
+  const gender = lines.find((l) => l.startsWith("│ gender "));
+  assert.match(gender ?? "", /2 levels: female, male\s+│ yes/);
+  assert.ok(result.stdout.includes("Protected attributes (age, ethnicity, gender, married)"));
+});
+
+Deno.test("--version and --help succeed", async () => {
+  const version = await paygrove(["--version"]);
+  assert.equal(version.code, 0);
+  const config = JSON.parse(await Deno.readTextFile(`${ROOT}deno.json`));
+  assert.equal(version.stdout.trim(), config.version);
+  const help = await paygrove(["--help"]);
+  assert.equal(help.code, 0);
+  assert.match(help.stdout, /schema \[options\] <table>/);
+  const schemaHelp = await paygrove(["schema", "--help"]);
+  assert.equal(schemaHelp.code, 0);
+  assert.match(schemaHelp.stdout, /--target <column>/);
+});
+
+Deno.test("bad usage exits 2 with a hint", async () => {
+  const unknown = await paygrove(["schema", "--bogus"]);
+  assert.equal(unknown.code, 2);
+  assert.equal(unknown.stderr, "error: unknown option '--bogus'\n(add --help for usage)\n");
+  const missingArg = await paygrove(["schema"]);
+  assert.equal(missingArg.code, 2);
+  const badValue = await paygrove(["schema", "fixtures/cps1985.csv", "--type", "wage=money"]);
+  assert.equal(badValue.code, 2);
+  assert.match(badValue.stderr, /a type must be one of numeric, categorical, ordinal, identifier/);
+  const column = await paygrove(["schema", "fixtures/cps1985.csv", "--target", "salary"]);
+  assert.equal(column.code, 2);
+  assert.equal(
+    column.stderr,
+    'paygrove: --target: no column named "salary"; the columns are: wage, education, ' +
+      "experience, age, ethnicity, region, gender, occupation, sector, union, married\n",
+  );
+});
+
+Deno.test("bad data exits 1 with one line and no stack trace", async () => {
+  const dir = await Deno.makeTempDir({ prefix: "paygrove-e2e-" });
+  try {
+    const ragged = `${dir}/ragged.csv`;
+    await Deno.writeTextFile(ragged, "site,pay\nA,1\nB,2,3\n");
+    const cases: [string[], string][] = [
+      [["schema", `${dir}/none.csv`], `paygrove: ${dir}/none.csv: no such file\n`],
+      [["schema", dir], `paygrove: ${dir} is a folder, not a CSV file\n`],
+      [
+        ["schema", ragged],
+        `paygrove: ${ragged}: 1 row does not have the 2 fields of the header: line 3 (3) ` +
+        `(delimiter detected: comma)\n`,
+      ],
+    ];
+    for (const [args, message] of cases) {
+      const result = await paygrove(args);
+      assert.equal(result.code, 1, args.join(" "));
+      assert.equal(result.stderr, message);
+      assert.equal(result.stdout, "");
+    }
+  } finally {
+    await Deno.remove(dir, { recursive: true });
+  }
+});
+
+// `script` (util-linux) gives the command a pseudo-terminal, so colour
+// switches on unless NO_COLOR is set.
+Deno.test("colour on a terminal, none with NO_COLOR", async () => {
+  const hasScript = await new Deno.Command("script", {
+    args: ["--version"],
+    stdout: "null",
+    stderr: "null",
+  })
+    .output().then((o) => o.success, () => false);
+  if (!hasScript) return;
+  const command = ["deno", ...taskArgs("paygrove"), "schema", "fixtures/cps1985.csv"]
+    .map((w) => `'${w}'`).join(" ");
+  const inPty = async (noColor: boolean) => {
+    const env: Record<string, string> = {
+      PATH: `${Deno.execPath().replace(/\/[^/]+$/, "")}:${Deno.env.get("PATH")}`,
+    };
+    const output = await new Deno.Command("script", {
+      args: ["-qec", noColor ? `NO_COLOR=1 ${command}` : `env -u NO_COLOR ${command}`, "/dev/null"],
+      cwd: ROOT,
+      env,
+      stdout: "piped",
+      stderr: "piped",
+    }).output();
+    return new TextDecoder().decode(output.stdout);
+  };
+  assert.match(await inPty(false), ANSI);
+  assert.doesNotMatch(await inPty(true), ANSI);
+});
+
+Deno.test("every task runs without network permission", async () => {
+  const config = JSON.parse(await Deno.readTextFile(`${ROOT}deno.json`));
+  for (const [name, command] of Object.entries(config.tasks as Record<string, string>)) {
+    if (!/^deno (run|test|bench)/.test(command)) continue;
+    assert.match(command, /--deny-net/, name);
+    assert.doesNotMatch(command, /--allow-net|--allow-all|\s-A\b/, name);
+  }
+});

@@ -1,0 +1,344 @@
+import assert from "node:assert/strict";
+import { DataError, loadTable, type LoadTableOptions, OptionError } from "../../../mod.ts";
+import type { Column } from "../../../lib/table/types.ts";
+
+function column(csv: string, name: string, options: LoadTableOptions = {}): Column {
+  const table = loadTable(csv, options);
+  const found = table.columns.find((c) => c.name === name);
+  assert.ok(found, `no column ${name}`);
+  return found;
+}
+
+function dataFails(fn: () => unknown, message: string, line?: number) {
+  assert.throws(fn, (error: unknown) => {
+    assert.ok(error instanceof DataError, String(error));
+    assert.equal(error.message, message);
+    if (line !== undefined) assert.equal(error.location.line, line);
+    return true;
+  });
+}
+
+function optionFails(fn: () => unknown, message: string) {
+  assert.throws(fn, (error: unknown) => {
+    assert.ok(error instanceof OptionError, String(error));
+    assert.equal(error.message, message);
+    return true;
+  });
+}
+
+const rows = (header: string, values: string[]) => [header, ...values].join("\n") + "\n";
+const quoted = (...values: string[]) => values.map((v) => `"${v}"`);
+const range = (n: number, f: (i: number) => string) => Array.from({ length: n }, (_, i) => f(i));
+
+Deno.test("columns are stored as typed arrays", () => {
+  const table = loadTable("family,level,pay\nSales,L1,50000\nOps,L2,61000\nSales,L1,\n");
+  const [family, level, pay] = table.columns;
+  assert.equal(family.type, "categorical");
+  assert.ok(family.type === "categorical" && family.codes instanceof Int32Array);
+  assert.deepEqual(family.type === "categorical" && [...family.codes], [1, 0, 1]);
+  assert.deepEqual(family.type === "categorical" && family.levels, ["Ops", "Sales"]);
+  assert.equal(level.type, "ordinal");
+  assert.ok(pay.type === "numeric" && pay.values instanceof Float64Array);
+  assert.deepEqual(pay.type === "numeric" && [...pay.values], [50000, 61000, NaN]);
+  assert.equal(pay.missing, 1);
+  assert.deepEqual([...table.lines], [2, 3, 4]);
+});
+
+Deno.test("type inference: numeric, categorical, identifier, constant", () => {
+  const csv = rows(
+    "employee,site,years,remote,country",
+    range(
+      30,
+      (i) =>
+        `E${1000 + i},${["North", "South", "Harbor"][i % 3]},${i % 7},${
+          i % 2 ? "yes" : "no"
+        },Ruritania`,
+    ),
+  );
+  const table = loadTable(csv);
+  assert.deepEqual(table.columns.map((c) => c.type), [
+    "identifier",
+    "categorical",
+    "numeric",
+    "categorical",
+    "constant",
+  ]);
+  const constant = table.columns[4];
+  assert.ok(constant.type === "constant" && constant.value === "Ruritania");
+});
+
+Deno.test("a numeric column named as an id and unique per row is an identifier", () => {
+  const csv = rows("emp_id,pay", range(10, (i) => `${100 + i},${50000 + i}`));
+  assert.equal(column(csv, "emp_id").type, "identifier");
+  // The same numbers under another name stay numeric.
+  assert.equal(column(csv.replace("emp_id", "floor"), "floor").type, "numeric");
+});
+
+Deno.test("ordinal levels like L1..L10 are ordered by their number", () => {
+  const level = column(rows("level", ["L2", "L10", "L1", "L2", "L3"]), "level");
+  assert.equal(level.type, "ordinal");
+  assert.ok(level.type === "ordinal");
+  assert.deepEqual(level.levels, ["L1", "L2", "L3", "L10"]);
+  assert.deepEqual([...level.codes], [1, 3, 0, 1, 2]);
+  const p = column(rows("grade", ["P 3", "P 1", "P 2"]), "grade");
+  assert.ok(p.type === "ordinal" && p.levels.join() === "P 1,P 2,P 3");
+});
+
+Deno.test("a declared order makes a column ordinal in that order", () => {
+  const csv = rows("title", ["Senior", "Associate", "Staff", "Senior", "Principal"]);
+  const order = ["Associate", "Senior", "Staff", "Principal"];
+  const title = column(csv, "title", { orders: { title: order } });
+  assert.ok(title.type === "ordinal");
+  assert.deepEqual(title.levels, order);
+  assert.deepEqual([...title.codes], [1, 0, 2, 1, 3]);
+  optionFails(
+    () => loadTable(csv, { orders: { title: ["Associate", "Senior", "Staff"] } }),
+    '--order title: the data has level not in the order: "Principal" (line 6)',
+  );
+  optionFails(
+    () => loadTable(csv, { types: { title: "ordinal" } }),
+    "--type title=ordinal needs an order: give --order title=Associate,Principal,Senior,Staff " +
+      "with the levels lowest first",
+  );
+});
+
+Deno.test("missing values: the default tokens, case-insensitive, and a custom list", () => {
+  const csv = rows("pay,site", ["50000,A", "NA,B", "n/a,null", "-,A", ",B", "61000,?"]);
+  const pay = column(csv, "pay");
+  assert.ok(pay.type === "numeric");
+  assert.deepEqual([...pay.values], [50000, NaN, NaN, NaN, NaN, 61000]);
+  assert.equal(pay.missing, 4);
+  const site = column(csv, "site");
+  assert.ok(site.type === "categorical");
+  assert.equal(site.missing, 1);
+  assert.deepEqual(site.levels, ["?", "A", "B"]);
+  assert.equal(site.codes[2], -1);
+  const custom = column(csv, "site", { missing: ["?"] });
+  assert.ok(custom.type === "categorical");
+  assert.deepEqual(custom.levels, ["A", "B", "null"]);
+  assert.equal(custom.missing, 1);
+});
+
+Deno.test("a missing target excludes the row and is counted", () => {
+  const table = loadTable(rows("site,pay", ["A,50000", "B,", "A,NA", "B,61000"]), {
+    target: "pay",
+  });
+  assert.equal(table.rows, 2);
+  assert.deepEqual(table.excluded, { count: 2, lines: [3, 4] });
+  assert.deepEqual([...table.lines], [2, 5]);
+  assert.ok(table.notes.includes('2 rows left out: the target "pay" is missing (first on line 3)'));
+});
+
+Deno.test("pay as people export it: currency, grouping, k, decimal comma", () => {
+  const dollars = column(rows("base_pay", ['"$85,000"', '"$61,500"', "$99k"]), "base_pay");
+  assert.ok(dollars.type === "numeric");
+  assert.deepEqual([...dollars.values], [85000, 61500, 99000]);
+  assert.deepEqual(dollars.money, { currency: "USD" });
+  const euros = column(rows("salary", quoted("85.000,00 €", "61.500,50 €")), "salary", {
+    decimal: ",",
+  });
+  assert.ok(euros.type === "numeric");
+  assert.deepEqual([...euros.values], [85000, 61500.5]);
+  assert.deepEqual(euros.money, { currency: "EUR" });
+  const semicolon = loadTable("site;salary\nA;85.000,00\nB;61.500,50\n", { decimal: "," });
+  assert.equal(semicolon.source.delimiter, ";");
+  const pay = semicolon.columns[1];
+  assert.ok(pay.type === "numeric" && pay.values[1] === 61500.5);
+});
+
+Deno.test("a pay column that mixes currencies is refused with the lines", () => {
+  dataFails(
+    () =>
+      loadTable(rows("pay", quoted("$85,000", "€70,000", "$61,000", "€64,000")), { file: "t.csv" }),
+    't.csv: "pay" mixes currencies (USD on lines 2, 4; EUR on lines 3, 5); pay in different ' +
+      "currencies cannot be compared without exchange rates: convert it to one currency first",
+    3,
+  );
+});
+
+Deno.test("--currency names the currency, and cannot contradict the data", () => {
+  const pay = column(rows("pay", quoted("$85,000", "$61,000")), "pay", { currency: "CAD" });
+  assert.ok(pay.type === "numeric");
+  assert.deepEqual(pay.money, { currency: "CAD" });
+  optionFails(
+    () => loadTable(rows("pay", quoted("€85,000", "€61,000")), { currency: "USD" }),
+    '--currency USD: "pay" is written in EUR (lines 2, 3)',
+  );
+});
+
+Deno.test("hourly pay is annualised with --hours-per-year; mixed periods go to per year", () => {
+  const hourly = column(rows("hourly_wage", ["20", "30.5"]), "hourly_wage", { hoursPerYear: 2000 });
+  assert.ok(hourly.type === "numeric");
+  assert.deepEqual([...hourly.values], [40000, 61000]);
+  assert.deepEqual(hourly.money, { period: "year" });
+  assert.deepEqual(hourly.notes, ['"hourly_wage": annualised (hourly x 2000 hours)']);
+  const kept = column(rows("hourly_wage", ["20", "30.5"]), "hourly_wage");
+  assert.ok(kept.type === "numeric");
+  assert.deepEqual(kept.money, { period: "hour" });
+  const mixed = column(rows("pay", quoted("5,000/month", "70,000/year", "1,000 per week")), "pay");
+  assert.ok(mixed.type === "numeric");
+  assert.deepEqual([...mixed.values], [60000, 70000, 52000]);
+  dataFails(
+    () => loadTable(rows("pay", quoted("25/hour", "70,000/year")), { file: "t.csv" }),
+    't.csv: "pay" mixes hourly pay (line 2) with pay per year (line 3); give --hours-per-year ' +
+      "to annualise the hourly values",
+    2,
+  );
+  const declared = column(rows("wage", ["5.1", "4.95"]), "wage", {
+    periods: { wage: "hour" },
+    hoursPerYear: 2080,
+  });
+  assert.ok(declared.type === "numeric");
+  assert.equal(declared.values[0], 5.1 * 2080);
+});
+
+Deno.test("--fte makes part-time pay full-time-equivalent", () => {
+  const csv = rows("pay,fte", ["40000,0.5", "60000,1", "30000,", "45000,0.75"]);
+  const table = loadTable(csv, { fte: "fte" });
+  const pay = table.columns[0];
+  assert.ok(pay.type === "numeric");
+  assert.deepEqual([...pay.values], [80000, 60000, NaN, 60000]);
+  assert.equal(pay.missing, 1);
+  const percent = loadTable(rows("pay,fte", ["40000,50", "60000,100"]), { fte: "fte" });
+  assert.ok(percent.columns[0].type === "numeric");
+  assert.deepEqual([...percent.columns[0].values], [80000, 60000]);
+  dataFails(
+    () => loadTable(rows("pay,fte", ["40000,0.5", "60000,-1"]), { fte: "fte", file: "t.csv" }),
+    't.csv line 3: "fte" is -1, not a full-time-equivalent fraction between 0 and 1 (or a ' +
+      "percentage up to 100)",
+    3,
+  );
+});
+
+Deno.test("a column numeric but for a few values is refused, quoting them", () => {
+  const values = range(40, (i) => String(50000 + 1000 * i));
+  values[3] = "abc";
+  values[20] = "tbd";
+  dataFails(
+    () => loadTable(rows("pay", values), { file: "t.csv" }),
+    't.csv: pay: line 5 has "abc", line 22 has "tbd", not a number; if the column is not ' +
+      "numeric, declare it with --type pay=categorical (missing values may be written as " +
+      "empty, NA, N/A, null or -)",
+    5,
+  );
+  // Declared categorical, the same column loads.
+  assert.equal(
+    column(rows("pay", values), "pay", { types: { pay: "categorical" } }).type,
+    "categorical",
+  );
+});
+
+Deno.test("a column declared numeric must hold numbers", () => {
+  dataFails(
+    () =>
+      loadTable(rows("site,pay", ["A,1", "B,x", "C,3"]), {
+        file: "t.csv",
+        types: { pay: "numeric" },
+      }),
+    't.csv: pay: line 3 has "x", not a number (missing values may be written as empty, NA, ' +
+      "N/A, null or -)",
+    3,
+  );
+});
+
+Deno.test("comma-decimal numbers read without --decimal get a hint", () => {
+  const values = range(20, (i) => `${i},5`);
+  dataFails(
+    () =>
+      loadTable(rows("rating", values), {
+        file: "t.csv",
+        delimiter: ";",
+        types: { rating: "numeric" },
+      }),
+    't.csv: rating: line 2 has "0,5", line 3 has "1,5", line 4 has "2,5", line 5 has "3,5", ' +
+      'line 6 has "4,5", and 15 more, not a number; the values read as numbers with --decimal "," ' +
+      "(missing values may be written as empty, NA, N/A, null or -)",
+  );
+});
+
+Deno.test("the target must be usable", () => {
+  dataFails(
+    () => loadTable(rows("site,pay", ["A,50000", "B,50000"]), { file: "t.csv", target: "pay" }),
+    't.csv: the target "pay" has fewer than 2 distinct values; there is nothing to predict',
+  );
+  dataFails(
+    () => loadTable(rows("site,pay", ["A,", "B,NA"]), { file: "t.csv", target: "pay" }),
+    't.csv: the target "pay" is missing on every row',
+  );
+  dataFails(
+    () =>
+      loadTable(rows("site,pay", ["A,high", "B,low", "C,high"]), {
+        file: "t.csv",
+        target: "pay",
+        targetKind: "numeric",
+      }),
+    't.csv: pay: line 2 has "high", line 3 has "low", line 4 has "high", not a number ' +
+      "(missing values may be written as empty, NA, N/A, null or -)",
+    2,
+  );
+  dataFails(
+    () =>
+      loadTable(rows("site,level", ["A,L1", "B,L2"]), {
+        file: "t.csv",
+        target: "level",
+        targetKind: "numeric",
+        types: { level: "ordinal" },
+        orders: { level: ["L1", "L2"] },
+      }),
+    't.csv: the target "level" must be numeric pay, but it is ordinal (levels such as "L1", "L2")',
+  );
+  // A class target (e.g. level) is fine.
+  const table = loadTable(rows("site,level", ["A,L1", "B,L2"]), {
+    target: "level",
+    targetKind: "class",
+  });
+  assert.equal(table.columns[1].type, "ordinal");
+});
+
+Deno.test("unknown column names in options list the columns", () => {
+  const csv = rows("site,pay", ["A,1", "B,2"]);
+  const listed = "the columns are: site, pay";
+  optionFails(
+    () => loadTable(csv, { target: "salary" }),
+    `--target: no column named "salary"; ${listed}`,
+  );
+  optionFails(
+    () => loadTable(csv, { types: { wage: "numeric" } }),
+    `--type: no column named "wage"; ${listed}`,
+  );
+  optionFails(
+    () => loadTable(csv, { orders: { level: ["a"] } }),
+    `--order: no column named "level"; ${listed}`,
+  );
+  optionFails(
+    () => loadTable(csv, { protected: ["sex"] }),
+    `--protected: no column named "sex"; ${listed}`,
+  );
+  optionFails(() => loadTable(csv, { fte: "fte" }), `--fte: no column named "fte"; ${listed}`);
+  optionFails(
+    () => loadTable(csv, { periods: { w: "hour" } }),
+    `--period: no column named "w"; ${listed}`,
+  );
+});
+
+Deno.test("protected attributes are flagged by name and by option", () => {
+  const table = loadTable(
+    rows("gender,age_band,Essex_site,wage,team", ["F,30-39,A,1,x", "M,40-49,B,2,y"]),
+    {
+      protected: ["team"],
+    },
+  );
+  assert.deepEqual(table.columns.map((c) => c.protected), [true, true, false, false, true]);
+});
+
+Deno.test("bytes are decoded with the given encoding", () => {
+  const bytes = new Uint8Array([
+    ...new TextEncoder().encode("site,pay\nZ"),
+    0xfc,
+    ...new TextEncoder().encode("rich,1\nBern,2\n"),
+  ]);
+  const table = loadTable(bytes, { encoding: "windows-1252" });
+  const site = table.columns[0];
+  assert.ok(site.type === "categorical");
+  assert.deepEqual(site.levels, ["Bern", "Zürich"]);
+});

@@ -1,0 +1,64 @@
+import assert from "node:assert/strict";
+import { loadTable, quantile } from "../../../mod.ts";
+
+const rows = (header: string, values: string[]) => [header, ...values].join("\n") + "\n";
+const range = (n: number, f: (i: number) => string) => Array.from({ length: n }, (_, i) => f(i));
+
+function warning(csv: string, kind: string) {
+  const types = csv.startsWith("id,") ? { id: "identifier" as const } : undefined;
+  return loadTable(csv, { types }).warnings.find((w) => w.kind === kind);
+}
+
+// R's quantile(c(1, 2, 4, 8), 0.25) is 1.75 (type 7, R's default).
+Deno.test("quantile interpolates like R's default (type 7)", () => {
+  assert.equal(quantile([1, 2, 4, 8], 0.25), 1.75);
+  assert.equal(quantile([1, 2, 4, 8], 0.5), 3);
+  assert.equal(quantile([5], 0.9), 5);
+});
+
+Deno.test("duplicate identifiers are reported with their lines", () => {
+  const csv = rows("id,salary", ["a1,50000", "a2,51000", "a1,52000", "a3,53000", "a2,54000"]);
+  const found = warning(csv, "duplicate-identifier");
+  assert.deepEqual(found?.lines, [4, 6]);
+  assert.equal(found?.count, 2);
+  assert.equal(found?.message, '"id": 2 identifiers repeat an earlier row (lines 4, 6)');
+});
+
+Deno.test("duplicate rows are reported", () => {
+  const csv = rows("site,salary", ["A,50000", "B,51000", "A,50000", "C,52000"]);
+  const found = warning(csv, "duplicate-row");
+  assert.deepEqual(found?.lines, [4]);
+  assert.equal(found?.count, 1);
+});
+
+Deno.test("a pay value 1,000x or 12x below the median is flagged as a unit slip", () => {
+  const values = range(40, (i) => String(80000 + 500 * i));
+  values.push("85", "7200");
+  const found = warning(rows("salary", values), "unit-slip");
+  assert.equal(found?.count, 2);
+  assert.deepEqual(found?.lines, [42, 43]);
+  // Weekly pay with a wide but ordinary spread has no slip.
+  const weekly = range(40, (i) => String(60 + 25 * i));
+  assert.equal(warning(rows("wage", weekly), "unit-slip"), undefined);
+});
+
+Deno.test("zero or negative pay is flagged", () => {
+  const found = warning(rows("salary", ["50000", "0", "61000", "-10"]), "non-positive-pay");
+  assert.deepEqual(found?.lines, [3, 5]);
+  assert.equal(found?.message, '"salary": 2 values are zero or negative (lines 3, 5)');
+});
+
+Deno.test("far-out values are flagged beyond 3 IQR of the quartiles", () => {
+  // Values 1..20, 47, 60: quartiles 6.25 and 16.75 (type 7), IQR 10.5,
+  // fences -25.25 and 48.25: only 60 lies beyond.
+  const values = range(20, (i) => String(i + 1));
+  values.push("47", "60");
+  const found = warning(rows("tenure", values), "outlier");
+  assert.equal(found?.count, 1);
+  assert.deepEqual(found?.lines, [23]);
+});
+
+Deno.test("clean data has no warnings", () => {
+  const csv = rows("id,salary", range(30, (i) => `e${i},${60000 + 1000 * i}`));
+  assert.deepEqual(loadTable(csv).warnings, []);
+});

@@ -1,0 +1,43 @@
+/**
+ * `paygrove schema TABLE`: prints the inferred schema of a pay table.
+ *
+ * @module
+ */
+
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
+import { describeSchema, loadTableFile } from "../../mod.ts";
+import { renderSchema } from "../render/schema_view.ts";
+import type { Terminal } from "../terminal.ts";
+import { loadOptions, withTableFlags } from "../table_flags.ts";
+
+/**
+ * Builds the `schema` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function schemaCommand(terminal: Terminal): CommandUnknownOpts {
+  return withTableFlags(
+    new Command("schema")
+      .description(
+        "Read a pay table (CSV) and show each column's type, missing values, levels or range, " +
+          "and protected flag, with data-quality warnings",
+      )
+      .argument("<table>", "CSV file to read"),
+  )
+    .option("--json", "print one JSON document on stdout instead of text")
+    .action(async (file, flags) => {
+      const table = await loadTableFile(file, loadOptions(flags, file));
+      const summary = describeSchema(table);
+      if (flags.json) {
+        terminal.out(JSON.stringify({ file, ...summary }, null, 2));
+        return;
+      }
+      const lines = renderSchema(summary, {
+        file,
+        style: terminal.style,
+        width: terminal.width,
+        numbers: { locale: flags.locale, currency: flags.currency },
+      });
+      terminal.out(lines.join("\n"));
+    });
+}

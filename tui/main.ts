@@ -1,0 +1,96 @@
+/**
+ * The `paygrove` command: argument parsing, exit statuses, and turning
+ * errors into one clear message.
+ *
+ * Exit statuses: 0 success; 1 the data cannot be used; 2 bad usage (an
+ * unknown option, a bad option value, a column that does not exist);
+ * 70 an internal error (a bug in paygrove).
+ *
+ * @module
+ */
+
+// The root program has no options of its own to type, so it uses commander's
+// plain types; subcommands use extra-typings for typed option values.
+import { Command, CommanderError } from "commander";
+import { DataError, OptionError, VERSION } from "../mod.ts";
+import { schemaCommand } from "./commands/schema.ts";
+import { processTerminal, type Terminal } from "./terminal.ts";
+
+/** Exit statuses of the `paygrove` command. */
+export const EXIT = { ok: 0, data: 1, usage: 2, internal: 70 } as const;
+
+/**
+ * Builds the program with all its subcommands.
+ *
+ * @param terminal Where output goes.
+ */
+export function buildProgram(terminal: Terminal): Command {
+  const program = new Command("paygrove")
+    .description(
+      "Pay what-if analysis from your own pay table, on the command line. " +
+        "Pay data never leaves this machine.",
+    )
+    .version(VERSION, "-V, --version", "print paygrove's version");
+  // Until the guided flow exists, the bare command explains itself.
+  program.action(() => program.outputHelp());
+  configure(program, terminal);
+  const schema = schemaCommand(terminal) as unknown as Command;
+  configure(schema, terminal);
+  program.addCommand(schema);
+  return program;
+}
+
+// Settings every command needs; subcommands added with addCommand do not
+// inherit them from the program.
+function configure(command: Command, terminal: Terminal): void {
+  command
+    .helpOption("-h, --help", "show help")
+    .showHelpAfterError("(add --help for usage)")
+    .configureOutput({
+      writeOut: (text) => terminal.out(text.replace(/\n$/, "")),
+      writeErr: (text) => terminal.err(text.replace(/\n$/, "")),
+    })
+    .exitOverride();
+}
+
+/**
+ * Runs paygrove with the given arguments and returns the exit status.
+ * Never throws: every error becomes a message on standard error.
+ *
+ * @param args Arguments after the program name.
+ * @param terminal Where output goes.
+ */
+export async function run(args: string[], terminal: Terminal): Promise<number> {
+  const program = buildProgram(terminal);
+  try {
+    await program.parseAsync(args, { from: "user" });
+    return EXIT.ok;
+  } catch (error) {
+    return report(error, terminal);
+  }
+}
+
+function report(error: unknown, terminal: Terminal): number {
+  const style = terminal.errStyle;
+  if (error instanceof CommanderError) {
+    // Commander has already printed its message (and help where asked).
+    return error.exitCode === 0 ? EXIT.ok : EXIT.usage;
+  }
+  if (error instanceof OptionError) {
+    terminal.err(`${style.bold("paygrove:")} ${error.message}`);
+    return EXIT.usage;
+  }
+  if (error instanceof DataError) {
+    terminal.err(`${style.bold("paygrove:")} ${error.message}`);
+    return EXIT.data;
+  }
+  terminal.err(
+    `${style.bold("paygrove: internal error")} (a bug in paygrove; please report it ` +
+      `with the command you ran)\n${error instanceof Error ? error.stack : String(error)}`,
+  );
+  return EXIT.internal;
+}
+
+if (import.meta.main) {
+  run(Deno.args, processTerminal()).then((code) => (Deno.exitCode = code));
+}

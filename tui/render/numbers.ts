@@ -1,0 +1,75 @@
+/**
+ * Formatting numbers and money for people, with `Intl.NumberFormat`.
+ *
+ * @module
+ */
+
+import type { MoneyUnit } from "../../mod.ts";
+
+/** How to format money and numbers. */
+export interface NumberStyle {
+  /**
+   * BCP 47 locale for digit grouping and decimal marks.
+   * @default {"en-US"}
+   */
+  locale?: string;
+  /** ISO 4217 currency to show money in, overriding the column's. */
+  currency?: string;
+}
+
+const PERIOD_WORDS: Record<string, string> = {
+  hour: "an hour",
+  week: "a week",
+  month: "a month",
+  year: "a year",
+};
+
+/**
+ * Formats a plain number with grouping and at most `digits` decimals.
+ *
+ * @example
+ * ```ts
+ * import { formatNumber } from "./numbers.ts";
+ * console.assert(formatNumber(18777.2) === "18,777.2");
+ * console.assert(formatNumber(1234.5, { locale: "de-DE" }) === "1.234,5");
+ * ```
+ */
+export function formatNumber(value: number, style: NumberStyle = {}, digits = 4): string {
+  return new Intl.NumberFormat(style.locale ?? "en-US", { maximumFractionDigits: digits })
+    .format(value);
+}
+
+/**
+ * Formats an amount of money in a currency; with no currency known, as a
+ * number with at most two decimals.
+ *
+ * @example
+ * ```ts
+ * import { formatMoney } from "./numbers.ts";
+ * console.assert(formatMoney(85000, { currency: "USD" }) === "$85,000.00");
+ * console.assert(formatMoney(85000, { currency: "EUR", locale: "de-DE" }) === "85.000,00\u00a0€");
+ * console.assert(formatMoney(522.3, {}) === "522.3");
+ * ```
+ */
+export function formatMoney(value: number, style: NumberStyle): string {
+  if (style.currency === undefined) return formatNumber(value, style, 2);
+  return new Intl.NumberFormat(style.locale ?? "en-US", {
+    style: "currency",
+    currency: style.currency,
+  }).format(value);
+}
+
+/**
+ * Describes a money unit in words: `"USD a week"`, `"money"`.
+ *
+ * @example
+ * ```ts
+ * import { describeUnit } from "./numbers.ts";
+ * console.assert(describeUnit({ currency: "EUR", period: "year" }) === "EUR a year");
+ * ```
+ */
+export function describeUnit(unit: MoneyUnit, currency?: string): string {
+  const parts = [currency ?? unit.currency ?? "money"];
+  if (unit.period) parts.push(PERIOD_WORDS[unit.period]);
+  return parts.join(" ");
+}

@@ -1,0 +1,128 @@
+/**
+ * The schema of a table as lines of text: a summary line, a table of
+ * columns, then notes, data-quality warnings and the protected-attribute
+ * caution.
+ *
+ * @module
+ */
+
+import Table from "cli-table3";
+import type { ColumnSummary, SchemaSummary } from "../../mod.ts";
+import { describeUnit, formatMoney, formatNumber, type NumberStyle } from "./numbers.ts";
+import type { Style } from "./style.ts";
+
+/** What {@linkcode renderSchema} needs besides the summary. */
+export interface SchemaViewOptions {
+  /** The file name shown in the first line. */
+  file: string;
+  /** Styling (colour on or off). */
+  style: Style;
+  /** Width of the terminal in characters. */
+  width: number;
+  /** Locale and currency for numbers and money. */
+  numbers: NumberStyle;
+}
+
+/**
+ * Renders a schema summary.
+ *
+ * @example
+ * ```ts
+ * import { describeSchema, loadTable } from "../../mod.ts";
+ * import { renderSchema } from "./schema_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const summary = describeSchema(loadTable("level,pay\nL1,50000\nL2,61000\n"));
+ * const lines = renderSchema(summary, { file: "t.csv", style: makeStyle(false), width: 80, numbers: {} });
+ * console.assert(lines[0].startsWith("t.csv: 2 rows, 2 columns"));
+ * ```
+ */
+export function renderSchema(summary: SchemaSummary, options: SchemaViewOptions): string[] {
+  const { style } = options;
+  const lines: string[] = [];
+  const columnCount = summary.columns.length;
+  lines.push(
+    style.bold(
+      `${options.file}: ${formatNumber(summary.rows, options.numbers)} rows, ${columnCount} ` +
+        `column${columnCount === 1 ? "" : "s"}`,
+    ),
+  );
+  if (summary.target !== undefined) lines.push(`target: ${summary.target}`);
+  lines.push("");
+
+  // Fixed columns take what they need; "levels or range" takes the rest.
+  const fixed = [
+    Math.max(6, ...summary.columns.map((c) => c.name.length)),
+    11,
+    7,
+    9,
+  ];
+  const rest = Math.max(16, options.width - fixed.reduce((a, b) => a + b, 0) - 3 * 5 - 1);
+  const table = new Table({
+    head: ["column", "type", "missing", "levels or range", "protected"].map(style.bold),
+    colWidths: [fixed[0] + 2, fixed[1] + 2, fixed[2] + 2, rest + 2, fixed[3] + 2],
+    colAligns: ["left", "left", "right", "left", "left"],
+    style: { head: [], border: [], compact: true },
+    wordWrap: true,
+  });
+  for (const column of summary.columns) {
+    table.push([
+      column.name,
+      column.type,
+      formatNumber(column.missing, options.numbers),
+      // Long level lists wrap over at most three lines, then are cut.
+      clip(describeValues(column, options.numbers), rest * 3 - 6),
+      column.protected ? style.caution("yes") : "",
+    ]);
+  }
+  lines.push(...table.toString().split("\n"));
+
+  const notes = [
+    ...summary.notes,
+    ...summary.columns.flatMap((c) => c.notes.map((n) => `${c.name}: ${n}`)),
+  ];
+  if (notes.length > 0) {
+    lines.push("", style.bold("Notes"));
+    for (const note of notes) lines.push(style.dim(`  - ${note}`));
+  }
+  if (summary.warnings.length > 0) {
+    lines.push("", style.bold(style.warn("Data-quality warnings")));
+    for (const warning of summary.warnings) lines.push(style.warn(`  ! ${warning.message}`));
+  }
+  const protectedNames = summary.columns.filter((c) => c.protected).map((c) => c.name);
+  if (protectedNames.length > 0) {
+    lines.push(
+      "",
+      style.caution(
+        `Protected attributes (${protectedNames.join(", ")}) are kept out of pay estimates ` +
+          `by default; they belong in the pay-gap check only.`,
+      ),
+    );
+  }
+  return lines;
+}
+
+function describeValues(column: ColumnSummary, numbers: NumberStyle): string {
+  switch (column.type) {
+    case "numeric": {
+      if (column.min === undefined || column.max === undefined) return "";
+      if (column.unit) {
+        const money = { ...numbers, currency: numbers.currency ?? column.unit.currency };
+        return `${formatMoney(column.min, money)} to ${formatMoney(column.max, money)} ` +
+          `(${describeUnit(column.unit, money.currency)})`;
+      }
+      return `${formatNumber(column.min, numbers)} to ${formatNumber(column.max, numbers)}`;
+    }
+    case "ordinal":
+      return `${column.levels!.length} levels: ${column.levels!.join(" < ")}`;
+    case "categorical":
+      return `${column.levels!.length} levels: ${column.levels!.join(", ")}`;
+    case "identifier":
+      return "one per row";
+    case "constant":
+      return column.value === undefined ? "all missing" : `always "${column.value}"`;
+  }
+}
+
+function clip(text: string, width: number): string {
+  return text.length <= width ? text : `${text.slice(0, width - 3)}...`;
+}

@@ -1,0 +1,190 @@
+/**
+ * The command-line options that say how to read a pay table, shared by every
+ * command that loads one, and their translation into the library's
+ * {@linkcode LoadTableOptions}.
+ *
+ * @module
+ */
+
+import { type Command, InvalidArgumentError, Option } from "@commander-js/extra-typings";
+import type { DeclaredType, LoadTableOptions, PayPeriod } from "../mod.ts";
+
+const DELIMITERS: Record<string, string> = {
+  ",": ",",
+  comma: ",",
+  ";": ";",
+  semicolon: ";",
+  "\\t": "\t",
+  "\t": "\t",
+  tab: "\t",
+  "|": "|",
+  pipe: "|",
+};
+const TYPES: readonly DeclaredType[] = ["numeric", "categorical", "ordinal", "identifier"];
+const PERIODS: readonly PayPeriod[] = ["hour", "week", "month", "year"];
+
+/** Splits `COL=VALUE`, refusing text without `=` or with an empty side. */
+function pair(text: string): [string, string] {
+  const at = text.indexOf("=");
+  if (at <= 0 || at === text.length - 1) {
+    throw new InvalidArgumentError(`expected COLUMN=VALUE, got "${text}"`);
+  }
+  return [text.slice(0, at).trim(), text.slice(at + 1).trim()];
+}
+
+/** Splits a comma-separated list, trimming items and dropping empty ones. */
+export function list(text: string): string[] {
+  return text.split(",").map((s) => s.trim()).filter((s) => s !== "");
+}
+
+function collectPair<V>(check: (value: string, column: string) => V) {
+  return (text: string, previous: Record<string, V> = {}): Record<string, V> => {
+    const [column, value] = pair(text);
+    return { ...previous, [column]: check(value, column) };
+  };
+}
+
+function oneOf<T extends string>(allowed: readonly T[], what: string) {
+  return (value: string): T => {
+    if (!(allowed as readonly string[]).includes(value)) {
+      throw new InvalidArgumentError(
+        `${what} must be one of ${allowed.join(", ")}, got "${value}"`,
+      );
+    }
+    return value as T;
+  };
+}
+
+function positiveNumber(text: string): number {
+  const value = Number(text);
+  if (!Number.isFinite(value) || value <= 0) {
+    throw new InvalidArgumentError(`expected a positive number, got "${text}"`);
+  }
+  return value;
+}
+
+function currencyCode(text: string): string {
+  const code = text.trim().toUpperCase();
+  if (!/^[A-Z]{3}$/.test(code)) {
+    throw new InvalidArgumentError(`expected a 3-letter ISO 4217 code such as USD or EUR`);
+  }
+  return code;
+}
+
+function localeTag(text: string): string {
+  try {
+    return new Intl.Locale(text).toString();
+  } catch {
+    throw new InvalidArgumentError(`"${text}" is not a locale tag such as en-US or de-DE`);
+  }
+}
+
+/**
+ * Adds the table-reading options to a command.
+ *
+ * @example
+ * ```ts
+ * import { Command } from "@commander-js/extra-typings";
+ * import { withTableFlags } from "./table_flags.ts";
+ * const command = withTableFlags(new Command("x")).exitOverride();
+ * command.parse(["--decimal", ","], { from: "user" });
+ * console.assert(command.opts().decimal === ",");
+ * ```
+ */
+export function withTableFlags<A extends unknown[], O extends Record<string, unknown>>(
+  command: Command<A, O>,
+) {
+  return command
+    .option("--target <column>", "the column to predict; rows where it is missing are left out")
+    .option(
+      "--delimiter <char>",
+      "field delimiter: comma, semicolon, tab or pipe (default: detected)",
+      (text: string) => {
+        const delimiter = DELIMITERS[text];
+        if (!delimiter) {
+          throw new InvalidArgumentError(`use comma, semicolon, tab or pipe, got "${text}"`);
+        }
+        return delimiter;
+      },
+    )
+    .addOption(
+      new Option("--decimal <mark>", "decimal mark of numbers in the file")
+        .choices([".", ","] as const)
+        .default("." as const),
+    )
+    .option("--encoding <label>", "text encoding of the file, e.g. windows-1252", "utf-8")
+    .option(
+      "--missing <list>",
+      "comma-separated texts that mean missing (default: NA,N/A,null,-; an empty cell always does)",
+      list,
+    )
+    .option(
+      "--type <column=type>",
+      "declare a column's type: numeric, categorical, ordinal or identifier (repeatable)",
+      collectPair(oneOf(TYPES, "a type")),
+    )
+    .option(
+      "--order <column=levels>",
+      "declare an ordinal column's levels, lowest first, e.g. level=Junior,Senior,Lead (repeatable)",
+      collectPair((value) => list(value)),
+    )
+    .option("--protected <columns>", "further protected attributes, comma-separated", list)
+    .option("--currency <code>", "ISO 4217 currency of pay columns, e.g. EUR", currencyCode)
+    .option("--locale <tag>", "locale for numbers and money in output, e.g. de-DE", localeTag)
+    .option("--hours-per-year <n>", "annualise hourly pay with this many hours", positiveNumber)
+    .option(
+      "--fte <column>",
+      "column of full-time-equivalent fractions; pay is divided by it",
+    )
+    .option(
+      "--period <column=period>",
+      "pay period of a column whose cells do not say it: hour, week, month or year (repeatable)",
+      collectPair(oneOf(PERIODS, "a period")),
+    );
+}
+
+/** The parsed values of {@linkcode withTableFlags}' options. */
+export interface TableFlags {
+  target?: string;
+  delimiter?: string;
+  decimal: "." | ",";
+  encoding: string;
+  missing?: string[];
+  type?: Record<string, DeclaredType>;
+  order?: Record<string, string[]>;
+  protected?: string[];
+  currency?: string;
+  locale?: string;
+  hoursPerYear?: number;
+  fte?: string;
+  period?: Record<string, PayPeriod>;
+}
+
+/**
+ * Translates parsed flags into the library's load options.
+ *
+ * @example
+ * ```ts
+ * import { loadOptions } from "./table_flags.ts";
+ * const options = loadOptions({ decimal: ",", encoding: "utf-8", target: "pay" }, "t.csv");
+ * console.assert(options.decimal === "," && options.target === "pay" && options.file === "t.csv");
+ * ```
+ */
+export function loadOptions(flags: TableFlags, file: string): LoadTableOptions {
+  const options: LoadTableOptions = {
+    file,
+    decimal: flags.decimal,
+    encoding: flags.encoding,
+  };
+  if (flags.target !== undefined) options.target = flags.target;
+  if (flags.delimiter !== undefined) options.delimiter = flags.delimiter;
+  if (flags.missing !== undefined) options.missing = flags.missing;
+  if (flags.type !== undefined) options.types = flags.type;
+  if (flags.order !== undefined) options.orders = flags.order;
+  if (flags.protected !== undefined) options.protected = flags.protected;
+  if (flags.currency !== undefined) options.currency = flags.currency;
+  if (flags.hoursPerYear !== undefined) options.hoursPerYear = flags.hoursPerYear;
+  if (flags.fte !== undefined) options.fte = flags.fte;
+  if (flags.period !== undefined) options.periods = flags.period;
+  return options;
+}

@@ -1,0 +1,87 @@
+/**
+ * The terminal as the commands see it: two output streams, a style and a
+ * width. Tests pass their own to capture output.
+ *
+ * @module
+ */
+
+import { makeStyle, type Style, styleFor } from "./render/style.ts";
+
+/** Output streams and their properties. */
+export interface Terminal {
+  /** Writes a line (or lines) to standard output. */
+  out(text: string): void;
+  /** Writes a line (or lines) to standard error. */
+  err(text: string): void;
+  /** Styling for standard output. */
+  style: Style;
+  /** Styling for standard error. */
+  errStyle: Style;
+  /** Width of standard output in characters. */
+  width: number;
+}
+
+// Width used when output is not a terminal (a pipe or a file).
+const DEFAULT_WIDTH = 100;
+
+/**
+ * The process's own terminal.
+ *
+ * @example
+ * ```ts ignore
+ * import { processTerminal } from "./terminal.ts";
+ * processTerminal().out("hello");
+ * ```
+ */
+export function processTerminal(): Terminal {
+  const encoder = new TextEncoder();
+  const write = (stream: { writeSync(b: Uint8Array): number }, text: string) => {
+    const bytes = encoder.encode(text.endsWith("\n") ? text : `${text}\n`);
+    let written = 0;
+    while (written < bytes.length) written += stream.writeSync(bytes.subarray(written));
+  };
+  let width = DEFAULT_WIDTH;
+  if (Deno.stdout.isTerminal()) {
+    try {
+      width = Deno.consoleSize().columns;
+    } catch {
+      // Keep the default when the size cannot be read.
+    }
+  }
+  return {
+    out: (text) => write(Deno.stdout, text),
+    err: (text) => write(Deno.stderr, text),
+    style: styleFor(Deno.stdout),
+    errStyle: styleFor(Deno.stderr),
+    width,
+  };
+}
+
+/**
+ * A terminal that records what is written, for tests.
+ *
+ * @example
+ * ```ts
+ * import { recordingTerminal } from "./terminal.ts";
+ * const t = recordingTerminal();
+ * t.out("a");
+ * console.assert(t.stdout.join("") === "a\n");
+ * ```
+ */
+export function recordingTerminal(width = DEFAULT_WIDTH): Terminal & {
+  stdout: string[];
+  stderr: string[];
+} {
+  const stdout: string[] = [];
+  const stderr: string[] = [];
+  const line = (text: string) => (text.endsWith("\n") ? text : `${text}\n`);
+  return {
+    stdout,
+    stderr,
+    out: (text) => stdout.push(line(text)),
+    err: (text) => stderr.push(line(text)),
+    style: makeStyle(false),
+    errStyle: makeStyle(false),
+    width,
+  };
+}
