@@ -39,6 +39,8 @@ const SYMBOLS: Record<string, { code: string; ambiguous?: boolean }> = {
   "€": { code: "EUR" },
   "£": { code: "GBP" },
   "¥": { code: "JPY", ambiguous: true },
+  "￥": { code: "JPY", ambiguous: true },
+  "R$": { code: "BRL" },
   "₹": { code: "INR" },
   "₩": { code: "KRW" },
   "zł": { code: "PLN" },
@@ -80,10 +82,12 @@ const CURRENCY_SUFFIX = new RegExp(`\\s*(${ESCAPED_SYMBOLS.join("|")}|[A-Z]{3})$
 const MULTIPLIER = /([0-9])\s*([kKmM])$/;
 
 const GROUP_SEPARATORS: Record<DecimalMark, string> = {
-  // space, no-break space, narrow no-break space, apostrophe (Swiss)
-  ".": ", \u00a0\u202f'",
-  ",": ". \u00a0\u202f'",
+  // space, no-break space, narrow no-break space, apostrophes (Swiss)
+  ".": ", \u00a0\u202f'\u2019",
+  ",": ". \u00a0\u202f'\u2019",
 };
+
+const HAS_DIGIT = /\d/;
 
 /** Matches a plain JavaScript-style number: `12`, `-3.5`, `1e6`, `.5`. */
 const PLAIN = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
@@ -120,17 +124,20 @@ export function parseNumber(text: string, decimal: DecimalMark): number | undefi
 }
 
 // Removes digit-group separators, or returns undefined when the grouping is
-// not the regular 1-3 digits followed by groups of exactly three.
+// irregular. Accepted: 1-3 digits then groups of three (1,234,567), and the
+// Indian lakh grouping, 1-2 digits then groups of two and a last group of
+// three (12,34,567).
 function ungroup(whole: string, separators: string): string | undefined {
   if (/^\d*$/.test(whole)) return whole;
   const separator = [...separators].find((s) => whole.includes(s));
   if (separator === undefined) return undefined;
   const groups = whole.split(separator);
-  if (!/^\d{1,3}$/.test(groups[0])) return undefined;
-  for (let i = 1; i < groups.length; i++) {
-    if (!/^\d{3}$/.test(groups[i])) return undefined;
-  }
-  return groups.join("");
+  const last = groups.length - 1;
+  const thousands = /^\d{1,3}$/.test(groups[0]) &&
+    groups.slice(1).every((g) => /^\d{3}$/.test(g));
+  const lakh = /^\d{1,2}$/.test(groups[0]) && /^\d{3}$/.test(groups[last]) &&
+    groups.slice(1, last).every((g) => /^\d{2}$/.test(g));
+  return thousands || lakh ? groups.join("") : undefined;
 }
 
 /**
@@ -151,6 +158,8 @@ function ungroup(whole: string, separators: string): string | undefined {
  * ```
  */
 export function parseAmount(text: string, decimal: DecimalMark): Amount | undefined {
+  // Most text cells (levels, names) hold no digit: refuse them at once.
+  if (!HAS_DIGIT.test(text)) return undefined;
   if (decimal === "." && PLAIN.test(text)) {
     const value = Number(text);
     return Number.isFinite(value) ? { value } : undefined;

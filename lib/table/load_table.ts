@@ -7,14 +7,14 @@
  */
 
 import { DataError, OptionError } from "../errors.ts";
-import type { DecimalMark } from "./amount.ts";
+import { type DecimalMark, parseAmount } from "./amount.ts";
 import { type DeclaredType, inferColumn } from "./infer_column.ts";
 import { DEFAULT_MISSING_TOKENS, missingTest } from "./missing.ts";
-import { applyFte } from "./money.ts";
+import { applyFte, isPayName } from "./money.ts";
 import { isProtectedName } from "./protected_names.ts";
 import { findQualityWarnings } from "./quality.ts";
 import { decodeText, describeDelimiter, readCsv } from "./read_csv.ts";
-import type { Column, PayPeriod, Table } from "./types.ts";
+import type { Column, PayPeriod, QualityWarning, Table } from "./types.ts";
 
 /** What the target column must be. */
 export type TargetKind = "numeric" | "class";
@@ -112,6 +112,10 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
     }
   }
 
+  // A target named as pay must be numeric, so stray text is quoted back
+  // rather than turning the column into levels.
+  const targetKind = options.targetKind ??
+    (options.target !== undefined && isPayName(options.target) ? "numeric" : undefined);
   const userProtected = new Set(options.protected ?? []);
   const columns = raw.header.map((name, c) =>
     inferColumn(name, cells[c], lines, {
@@ -120,7 +124,7 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
       isMissing,
       // A pay target is declared numeric so that stray text is quoted back.
       type: options.types?.[name] ??
-        (name === options.target && options.targetKind === "numeric" ? "numeric" : undefined),
+        (name === options.target && targetKind === "numeric" ? "numeric" : undefined),
       order: options.orders?.[name],
       protected: userProtected.has(name) || isProtectedName(name),
       currency: options.currency,
@@ -132,7 +136,7 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
   const notes = [`delimiter: ${describeDelimiter(raw.delimiter)}`];
   if (options.fte !== undefined) applyFteToPay(columns, options.fte, lines, file);
   if (options.target !== undefined) {
-    checkTarget(columns[raw.header.indexOf(options.target)], options.targetKind, file);
+    checkTarget(columns[raw.header.indexOf(options.target)], targetKind, file);
   }
   const lineArray = Int32Array.from(lines);
   const table: Table = {
@@ -152,6 +156,8 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
     );
   }
   table.warnings = findQualityWarnings(table);
+  const misread = decimalMarkWarning(columns, options.decimal ?? ".");
+  if (misread) table.warnings.unshift(misread);
   return table;
 }
 
@@ -222,4 +228,30 @@ function checkTarget(column: Column, kind: TargetKind | undefined, file: string)
       where,
     );
   }
+}
+
+// Columns read as text that would all be numbers under the other decimal
+// mark: the usual sign of a decimal-comma file read without --decimal ",".
+// Not guessed automatically: "85,000" reads under both marks, and a wrong
+// guess would silently divide pay by a thousand.
+function decimalMarkWarning(columns: Column[], decimal: DecimalMark): QualityWarning | undefined {
+  const other: DecimalMark = decimal === "." ? "," : ".";
+  const names = columns
+    .filter((c) =>
+      c.type === "categorical" &&
+      c.levels.every((level) => parseAmount(level, other) !== undefined) &&
+      c.levels.some((level) => parseAmount(level, decimal) === undefined)
+    )
+    .map((c) => c.name);
+  if (names.length === 0) return undefined;
+  return {
+    kind: "decimal-mark",
+    count: names.length,
+    lines: [],
+    message: `${names.map((n) => `"${n}"`).join(", ")} ${
+      names.length === 1 ? "reads" : "read"
+    } as numbers only with --decimal "${other}"; without it ${
+      names.length === 1 ? "it is" : "they are"
+    } treated as text`,
+  };
 }

@@ -28,8 +28,15 @@ export function missingTest(
   tokens: readonly string[] = DEFAULT_MISSING_TOKENS,
 ): (text: string) => boolean {
   const set = new Set(tokens.map((t) => t.trim().toLowerCase()));
+  let longest = 0;
+  for (const token of set) longest = Math.max(longest, token.length);
+  // Called for every cell, often more than once: most cells are longer than
+  // any token or hold no space to trim, so they are decided without copying.
   return (text) => {
-    const t = text.trim();
-    return t === "" || set.has(t.toLowerCase());
+    if (text.length === 0) return true;
+    const padded = text.charCodeAt(0) <= 32 || text.charCodeAt(text.length - 1) <= 32;
+    const t = padded ? text.trim() : text;
+    if (t.length === 0) return true;
+    return t.length <= longest && set.has(t.toLowerCase());
   };
 }

@@ -38,8 +38,9 @@ export function findQualityWarnings(table: Table): QualityWarning[] {
       warnings.push(...duplicateIds(column.name, column.values, table));
     }
     if (column.type === "numeric") {
-      if (column.money) warnings.push(...payChecks(column, table));
-      const outliers = farOut(column, table);
+      const sorted = present(column.values);
+      if (column.money) warnings.push(...payChecks(column, sorted, table));
+      const outliers = farOut(column, sorted, table);
       if (outliers) warnings.push(outliers);
     }
   }
@@ -73,9 +74,8 @@ function duplicateIds(name: string, values: readonly string[], table: Table): Qu
   }];
 }
 
-function payChecks(column: NumericColumn, table: Table): QualityWarning[] {
+function payChecks(column: NumericColumn, sorted: Float64Array, table: Table): QualityWarning[] {
   const warnings: QualityWarning[] = [];
-  const sorted = present(column.values);
   if (sorted.length === 0) return warnings;
   const median = quantile(sorted, 0.5);
   const [lowLog] = logFences(sorted);
@@ -136,8 +136,11 @@ function logFences(sorted: Float64Array): [number, number] {
   return [q1 - FAR_OUT * (q3 - q1), q3 + FAR_OUT * (q3 - q1)];
 }
 
-function farOut(column: NumericColumn, table: Table): QualityWarning | undefined {
-  const sorted = present(column.values);
+function farOut(
+  column: NumericColumn,
+  sorted: Float64Array,
+  table: Table,
+): QualityWarning | undefined {
   if (sorted.length < 20) return undefined;
   let low: number;
   let high: number;
@@ -174,16 +177,21 @@ function farOut(column: NumericColumn, table: Table): QualityWarning | undefined
 
 function duplicateRows(table: Table): QualityWarning | undefined {
   if (table.columns.length === 0) return undefined;
-  const seen = new Map<string, number>();
+  // Rows are bucketed by a hash of their cells and compared cell by cell
+  // only within a bucket, so no per-row key strings are built.
+  const hashes = rowHashes(table);
+  const buckets = new Map<number, number[]>();
   const lines: number[] = [];
   let count = 0;
   for (let r = 0; r < table.rows; r++) {
-    const key = table.columns.map((c) => cellKey(c, r)).join("\u0001");
-    if (seen.has(key)) {
+    const bucket = buckets.get(hashes[r]);
+    if (bucket === undefined) {
+      buckets.set(hashes[r], [r]);
+    } else if (bucket.some((earlier) => sameRow(table.columns, earlier, r))) {
       count++;
       if (lines.length < SHOWN_LINES) lines.push(table.lines[r]);
     } else {
-      seen.set(key, r);
+      bucket.push(r);
     }
   }
   if (count === 0) return undefined;
@@ -199,18 +207,61 @@ function duplicateRows(table: Table): QualityWarning | undefined {
   };
 }
 
-function cellKey(column: Column, r: number): string {
-  switch (column.type) {
-    case "numeric":
-      return String(column.values[r]);
-    case "categorical":
-    case "ordinal":
-      return String(column.codes[r]);
-    case "identifier":
-      return column.values[r];
-    case "constant":
-      return "";
+// FNV-1a-style 32-bit hash of each row's cells (numbers by their bits,
+// level codes, identifier text).
+function rowHashes(table: Table): Uint32Array {
+  const hashes = new Uint32Array(table.rows).fill(0x811c9dc5);
+  const mix = (r: number, word: number) => {
+    hashes[r] = Math.imul(hashes[r] ^ word, 0x01000193);
+  };
+  const bits = new Float64Array(1);
+  const words = new Uint32Array(bits.buffer);
+  for (const column of table.columns) {
+    for (let r = 0; r < table.rows; r++) {
+      switch (column.type) {
+        case "numeric":
+          bits[0] = column.values[r];
+          mix(r, words[0]);
+          mix(r, words[1]);
+          break;
+        case "categorical":
+        case "ordinal":
+          mix(r, column.codes[r]);
+          break;
+        case "identifier": {
+          const text = column.values[r];
+          for (let i = 0; i < text.length; i++) mix(r, text.charCodeAt(i));
+          break;
+        }
+        case "constant":
+          break;
+      }
+    }
   }
+  return hashes;
+}
+
+function sameRow(columns: readonly Column[], a: number, b: number): boolean {
+  for (const column of columns) {
+    switch (column.type) {
+      case "numeric": {
+        const x = column.values[a];
+        const y = column.values[b];
+        if (x !== y && !(Number.isNaN(x) && Number.isNaN(y))) return false;
+        break;
+      }
+      case "categorical":
+      case "ordinal":
+        if (column.codes[a] !== column.codes[b]) return false;
+        break;
+      case "identifier":
+        if (column.values[a] !== column.values[b]) return false;
+        break;
+      case "constant":
+        break;
+    }
+  }
+  return true;
 }
 
 function present(values: Float64Array): Float64Array {

@@ -79,7 +79,8 @@ export type QualityKind =
   | "duplicate-row"
   | "unit-slip"
   | "non-positive-pay"
-  | "outlier";
+  | "outlier"
+  | "decimal-mark";
 
 /** A data-quality finding: worth a look, not a reason to stop. */
 export interface QualityWarning {

@@ -60,7 +60,7 @@ export function formatMoney(value: number, style: NumberStyle): string {
 }
 
 /**
- * Describes a money unit in words: `"USD a week"`, `"money"`.
+ * Describes a money unit in words: `"USD a week"`, `"pay, currency not stated"`.
  *
  * @example
  * ```ts
@@ -69,7 +69,7 @@ export function formatMoney(value: number, style: NumberStyle): string {
  * ```
  */
 export function describeUnit(unit: MoneyUnit, currency?: string): string {
-  const parts = [currency ?? unit.currency ?? "money"];
+  const parts = [currency ?? unit.currency ?? "pay, currency not stated"];
   if (unit.period) parts.push(PERIOD_WORDS[unit.period]);
   return parts.join(" ");
 }

@@ -7,6 +7,7 @@
  */
 
 import Table from "cli-table3";
+import wrapAnsi from "wrap-ansi";
 import type { ColumnSummary, SchemaSummary } from "../../mod.ts";
 import { describeUnit, formatMoney, formatNumber, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
@@ -80,25 +81,31 @@ export function renderSchema(summary: SchemaSummary, options: SchemaViewOptions)
     ...summary.notes,
     ...summary.columns.flatMap((c) => c.notes.map((n) => `${c.name}: ${n}`)),
   ];
+  const width = options.width;
   if (notes.length > 0) {
     lines.push("", style.bold("Notes"));
-    for (const note of notes) lines.push(style.dim(`  - ${note}`));
+    for (const note of notes) lines.push(...bullet("-", note, width).map(style.dim));
   }
   if (summary.warnings.length > 0) {
     lines.push("", style.bold(style.warn("Data-quality warnings")));
-    for (const warning of summary.warnings) lines.push(style.warn(`  ! ${warning.message}`));
+    for (const warning of summary.warnings) {
+      lines.push(...bullet("!", warning.message, width).map(style.warn));
+    }
   }
   const protectedNames = summary.columns.filter((c) => c.protected).map((c) => c.name);
   if (protectedNames.length > 0) {
-    lines.push(
-      "",
-      style.caution(
-        `Protected attributes (${protectedNames.join(", ")}) are kept out of pay estimates ` +
-          `by default; they belong in the pay-gap check only.`,
-      ),
-    );
+    const caution = `Protected attributes (${protectedNames.join(", ")}) are kept out of pay ` +
+      `estimates by default; they belong in the pay-gap check only.`;
+    lines.push("", ...wrapAnsi(caution, width, { hard: true }).split("\n").map(style.caution));
   }
   return lines;
+}
+
+// A list item wrapped to the width, continuation lines indented under its text.
+function bullet(mark: string, text: string, width: number): string[] {
+  const indent = "    ";
+  const wrapped = wrapAnsi(text, Math.max(20, width - indent.length), { hard: true }).split("\n");
+  return wrapped.map((line, i) => (i === 0 ? `  ${mark} ${line}` : `${indent}${line}`));
 }
 
 function describeValues(column: ColumnSummary, numbers: NumberStyle): string {

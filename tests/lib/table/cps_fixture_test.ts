@@ -79,3 +79,15 @@ Deno.test("CPS1985 loads with the documented rows and flags its protected column
   const occupation = schema.columns.find((c) => c.name === "occupation");
   assert.equal(occupation?.levels?.length, 6);
 });
+
+Deno.test("duplicate rows in CPS1988 match R's duplicated()", async () => {
+  // R 4.2.2, AER 1.2-10: sum(duplicated(CPS1988)) is 2128 and the first
+  // duplicated rows are 349, 505, 633, 659, 664 (file lines one more, for the
+  // header); CPS1985 has none.
+  const table = await loadTableFile(fixture("cps1988.csv"));
+  const duplicates = table.warnings.find((w) => w.kind === "duplicate-row");
+  assert.equal(duplicates?.count, 2128);
+  assert.deepEqual(duplicates?.lines, [350, 506, 634, 660, 665]);
+  const cps1985 = await loadTableFile(fixture("cps1985.csv"));
+  assert.equal(cps1985.warnings.find((w) => w.kind === "duplicate-row"), undefined);
+});

@@ -342,3 +342,28 @@ Deno.test("bytes are decoded with the given encoding", () => {
   assert.ok(site.type === "categorical");
   assert.deepEqual(site.levels, ["Bern", "Zürich"]);
 });
+
+Deno.test("a decimal-comma file read without --decimal gets a warning, not a guess", () => {
+  const csv = 'site;years;salary\nA;5,5;"72.500,00 €"\nB;2;61.000,00 €\nC;9;95.250,00 €\n';
+  const table = loadTable(csv);
+  assert.equal(table.columns[2].type, "categorical");
+  const found = table.warnings.find((w) => w.kind === "decimal-mark");
+  assert.equal(
+    found?.message,
+    '"years", "salary" read as numbers only with --decimal ","; without it they are treated as text',
+  );
+  const declared = loadTable(csv, { decimal: "," });
+  assert.equal(declared.warnings.find((w) => w.kind === "decimal-mark"), undefined);
+  const salary = declared.columns[2];
+  assert.ok(salary.type === "numeric");
+  assert.deepEqual([...salary.values], [72500, 61000, 95250]);
+});
+
+Deno.test("a target named as pay must be numeric even without a declared kind", () => {
+  dataFails(
+    () => loadTable(rows("site,salary", ["A,high", "B,low"]), { file: "t.csv", target: "salary" }),
+    't.csv: salary: line 2 has "high", line 3 has "low", not a number (missing values may be ' +
+      "written as empty, NA, N/A, null or -)",
+    2,
+  );
+});
