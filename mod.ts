@@ -16,3 +16,12 @@
 export * from "./lib/table/mod.ts";
 export { DataError, type DataErrorLocation, OptionError } from "./lib/errors.ts";
 export { VERSION } from "./lib/version.ts";
+export * from "./lib/dataset/types.ts";
+export {
+  type DatasetResult,
+  type DroppedColumn,
+  makeDataset,
+  type MakeDatasetOptions,
+} from "./lib/dataset/make_dataset.ts";
+export * from "./lib/tree/mod.ts";
+export { makeRng, type Rng, shuffle } from "./lib/random.ts";

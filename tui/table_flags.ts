@@ -93,8 +93,11 @@ function localeTag(text: string): string {
  */
 export function withTableFlags<A extends unknown[], O extends Record<string, unknown>>(
   command: Command<A, O>,
-) {
-  return command
+): Command<A, O & TableFlags> {
+  // The explicit return type matters: left to inference, the type of this
+  // chain of options is deep enough that type checking it together with
+  // other modules could take minutes.
+  const chained = command
     .option("--target <column>", "the column to predict; rows where it is missing are left out")
     .option(
       "--delimiter <char>",
@@ -141,6 +144,7 @@ export function withTableFlags<A extends unknown[], O extends Record<string, unk
       "pay period of a column whose cells do not say it: hour, week, month or year (repeatable)",
       collectPair(oneOf(PERIODS, "a period")),
     );
+  return chained as unknown as Command<A, O & TableFlags>;
 }
 
 /** The parsed values of {@linkcode withTableFlags}' options. */

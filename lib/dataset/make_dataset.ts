@@ -1,0 +1,171 @@
+/**
+ * Table -> Dataset: choosing the target and the features, and encoding them.
+ *
+ * @module
+ */
+
+import { OptionError } from "../errors.ts";
+import type { Column, Table } from "../table/types.ts";
+import type { Dataset, Feature } from "./types.ts";
+
+/** Options of {@linkcode makeDataset}. */
+export interface MakeDatasetOptions {
+  /** The column to predict. */
+  target: string;
+  /** The feature columns; by default every usable column but the target. */
+  features?: readonly string[];
+  /** Columns to leave out of the default features. */
+  drop?: readonly string[];
+  /**
+   * Allow protected attributes as features.
+   * @default {false}
+   */
+  allowProtected?: boolean;
+}
+
+/** Why a column is not a feature. */
+export interface DroppedColumn {
+  /** Column name. */
+  name: string;
+  /** One phrase for the user. */
+  reason: string;
+}
+
+/** A dataset and what was left out of it. */
+export interface DatasetResult {
+  /** The encoded data. */
+  dataset: Dataset;
+  /** Columns that are not features, with the reason. */
+  dropped: DroppedColumn[];
+  /** Rows of the table used (all rows whose target is present). */
+  rowIndex: Int32Array;
+}
+
+/**
+ * Encodes a table for the learner. By default every column except the
+ * target becomes a feature, but for identifiers, constants and protected
+ * attributes (kept out unless `allowProtected`). Rows whose target is
+ * missing are left out.
+ *
+ * @throws {OptionError} for an unknown column, an identifier or constant
+ * target, or a protected feature named without `allowProtected`.
+ *
+ * @example
+ * ```ts
+ * import { loadTable } from "../table/load_table.ts";
+ * import { makeDataset } from "./make_dataset.ts";
+ * const table = loadTable("gender,level,pay\nF,L1,50\nM,L2,60\nF,L2,61\n");
+ * const { dataset, dropped } = makeDataset(table, { target: "pay" });
+ * console.assert(dataset.features.map((f) => f.name).join() === "level");
+ * console.assert(dropped[0].name === "gender");
+ * ```
+ */
+export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetResult {
+  const byName = new Map(table.columns.map((c) => [c.name, c]));
+  const known = table.columns.map((c) => c.name).join(", ");
+  const column = (name: string, option: string): Column => {
+    const found = byName.get(name);
+    if (!found) {
+      throw new OptionError(`${option}: no column named "${name}"; the columns are: ${known}`);
+    }
+    return found;
+  };
+  const targetColumn = column(options.target, "--target");
+  for (const name of options.drop ?? []) column(name, "--drop");
+
+  const dropped: DroppedColumn[] = [];
+  let chosen: Column[];
+  if (options.features !== undefined) {
+    chosen = options.features.map((name) => column(name, "--features"));
+    for (const c of chosen) {
+      if (c === targetColumn) throw new OptionError(`--features: "${c.name}" is the target`);
+      if (c.type === "identifier" || c.type === "constant") {
+        throw new OptionError(
+          `--features: "${c.name}" is ${
+            c.type === "identifier" ? "an identifier" : "constant"
+          } and cannot be a feature`,
+        );
+      }
+      if (c.protected && !options.allowProtected) {
+        throw new OptionError(
+          `--features: "${c.name}" is a protected attribute; it is kept out of pay estimates ` +
+            `unless you pass --allow-protected`,
+        );
+      }
+    }
+    for (const c of table.columns) {
+      if (c !== targetColumn && !chosen.includes(c)) {
+        dropped.push({ name: c.name, reason: "not chosen" });
+      }
+    }
+  } else {
+    const drop = new Set(options.drop ?? []);
+    chosen = [];
+    for (const c of table.columns) {
+      if (c === targetColumn) continue;
+      const reason = drop.has(c.name)
+        ? "dropped by --drop"
+        : c.type === "identifier"
+        ? "identifier"
+        : c.type === "constant"
+        ? "constant"
+        : c.protected && !options.allowProtected
+        ? "protected attribute"
+        : undefined;
+      if (reason) dropped.push({ name: c.name, reason });
+      else chosen.push(c);
+    }
+  }
+
+  const keep: number[] = [];
+  for (let r = 0; r < table.rows; r++) if (!targetMissing(targetColumn, r)) keep.push(r);
+  const rowIndex = Int32Array.from(keep);
+  const features = chosen.map((c) => encodeFeature(c, rowIndex));
+  let target: Dataset["target"];
+  if (targetColumn.type === "numeric") {
+    target = {
+      kind: "regression",
+      name: targetColumn.name,
+      values: Float64Array.from(rowIndex, (r) => targetColumn.values[r]),
+    };
+  } else if (targetColumn.type === "categorical" || targetColumn.type === "ordinal") {
+    target = {
+      kind: "classification",
+      name: targetColumn.name,
+      classes: [...targetColumn.levels],
+      values: Int32Array.from(rowIndex, (r) => targetColumn.codes[r]),
+    };
+  } else {
+    throw new OptionError(
+      `--target: "${targetColumn.name}" is ${
+        targetColumn.type === "identifier" ? "an identifier" : "constant"
+      }; there is nothing to predict`,
+    );
+  }
+  return { dataset: { rows: rowIndex.length, features, target }, dropped, rowIndex };
+}
+
+function targetMissing(column: Column, r: number): boolean {
+  if (column.type === "numeric") return Number.isNaN(column.values[r]);
+  if (column.type === "categorical" || column.type === "ordinal") return column.codes[r] < 0;
+  return false;
+}
+
+function encodeFeature(column: Column, rows: Int32Array): Feature {
+  if (column.type === "numeric") {
+    return {
+      name: column.name,
+      kind: "numeric",
+      values: Float64Array.from(rows, (r) => column.values[r]),
+    };
+  }
+  if (column.type === "categorical" || column.type === "ordinal") {
+    return {
+      name: column.name,
+      kind: column.type,
+      levels: [...column.levels],
+      values: Float64Array.from(rows, (r) => (column.codes[r] < 0 ? NaN : column.codes[r])),
+    };
+  }
+  throw new TypeError(`column "${column.name}" (${column.type}) cannot be a feature`);
+}

@@ -1,0 +1,53 @@
+/**
+ * Seeded randomness. The library never calls `Math.random`: every random
+ * choice comes from a generator made from a seed the user can state, so the
+ * same seed gives the same result.
+ *
+ * @module
+ */
+
+import { uniformInt } from "pure-rand/distribution/uniformInt";
+import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
+
+/** A seeded random generator (xoroshiro128+, from pure-rand). */
+export type Rng = ReturnType<typeof xoroshiro128plus>;
+
+/**
+ * Makes a generator from an integer seed.
+ *
+ * @example
+ * ```ts
+ * import { makeRng, randomInt } from "./random.ts";
+ * const a = makeRng(42);
+ * const b = makeRng(42);
+ * console.assert(randomInt(a, 0, 99) === randomInt(b, 0, 99));
+ * ```
+ */
+export function makeRng(seed: number): Rng {
+  return xoroshiro128plus(seed | 0);
+}
+
+/** A uniform integer in `[low, high]` (both included), advancing `rng`. */
+export function randomInt(rng: Rng, low: number, high: number): number {
+  return uniformInt(rng, low, high);
+}
+
+/**
+ * Shuffles an array in place (Fisher-Yates) and returns it.
+ *
+ * @example
+ * ```ts
+ * import { makeRng, shuffle } from "./random.ts";
+ * const order = shuffle([0, 1, 2, 3], makeRng(1));
+ * console.assert(order.slice().sort().join() === "0,1,2,3");
+ * ```
+ */
+export function shuffle<T extends { length: number; [i: number]: unknown }>(array: T, rng: Rng): T {
+  for (let i = array.length - 1; i > 0; i--) {
+    const j = randomInt(rng, 0, i);
+    const t = array[i];
+    array[i] = array[j];
+    array[j] = t;
+  }
+  return array;
+}

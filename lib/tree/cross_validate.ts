@@ -1,0 +1,252 @@
+/**
+ * Choosing the size of a tree by k-fold cross-validation over its
+ * cost-complexity pruning path (Breiman et al. 1984, ch. 3.4, 8.5 and 11).
+ *
+ * The full tree grown on all rows gives the path alpha_0 = 0 < alpha_1 <
+ * ... ; each candidate subtree T_j is scored at the geometric mean
+ * sqrt(alpha_j * alpha_(j+1)) of its interval, by growing a tree on each
+ * training fold, pruning it at that alpha and predicting the held-out fold.
+ * The error is the mean squared error (regression) or the misclassification
+ * rate (classification) over all rows, with the standard error of that mean
+ * from the per-row losses. The 1-SE rule takes the smallest tree whose error
+ * is within one standard error of the minimum.
+ *
+ * @module
+ */
+
+import type { Dataset } from "../dataset/types.ts";
+import { makeRng, shuffle } from "../random.ts";
+import { binFeatures, type FeatureBins } from "./bins.ts";
+import { type FlatTree, pathOfRow } from "./flat_tree.ts";
+import { type GrowOptions, growTree } from "./grow_tree.ts";
+import { PRUNE_TOLERANCE, pruningPath, sameAlpha, subtreeAfter } from "./prune.ts";
+
+/** How to choose the tree size. */
+export interface CrossValidateOptions {
+  /**
+   * Number of folds.
+   * @default {10}
+   */
+  folds?: number;
+  /**
+   * Seed of the fold assignment.
+   * @default {1}
+   */
+  seed?: number;
+  /**
+   * `"one-se"`: smallest tree within one standard error of the best; `"min"`: the best.
+   * @default {"one-se"}
+   */
+  rule?: "one-se" | "min";
+  /** Stopping rules of every tree grown. */
+  grow?: GrowOptions;
+}
+
+/** One candidate subtree of the full tree's path. */
+export interface AlphaCandidate {
+  /** The path's alpha at which this subtree appears. */
+  alpha: number;
+  /** Where it was scored: the geometric mean of its alpha interval. */
+  scoredAt: number;
+  /** Leaves of the subtree of the full tree. */
+  leaves: number;
+  /** Risk (training) of the subtree of the full tree. */
+  risk: number;
+  /** Cross-validated error: mean squared error or misclassification rate. */
+  cvError: number;
+  /** Standard error of `cvError`. */
+  cvSe: number;
+}
+
+/** The result of {@linkcode crossValidateTree}. */
+export interface CrossValidatedTree {
+  /** The tree grown on all rows to the stopping rules. */
+  fullTree: FlatTree;
+  /** Candidates in order of growing alpha (shrinking trees); distinct alphas only. */
+  candidates: AlphaCandidate[];
+  /** Index of the chosen candidate. */
+  chosen: number;
+  /** Index of the candidate with the lowest error. */
+  best: number;
+  /** The reference tree: the full tree pruned at the chosen alpha. */
+  tree: FlatTree;
+  /** The fold of each row. */
+  fold: Int32Array;
+}
+
+/**
+ * Grows the full tree, cross-validates its pruning path and returns the
+ * reference tree at the chosen alpha.
+ *
+ * @example
+ * ```ts ignore
+ * const result = crossValidateTree(dataset, { folds: 10, seed: 7 });
+ * const { alpha, cvError, cvSe } = result.candidates[result.chosen];
+ * ```
+ */
+export function crossValidateTree(
+  dataset: Dataset,
+  options: CrossValidateOptions = {},
+  bins: FeatureBins[] = binFeatures(dataset),
+): CrossValidatedTree {
+  const folds = options.folds ?? 10;
+  const rule = options.rule ?? "one-se";
+  if (!(folds >= 2) || folds > dataset.rows || !Number.isInteger(folds)) {
+    throw new RangeError(`folds must be a whole number from 2 to the row count, got ${folds}`);
+  }
+  const fullTree = growTree({ dataset, bins }, options.grow);
+  const path = pruningPath(fullTree);
+  // Distinct alphas: of a run of equal alphas keep the last step.
+  const steps: number[] = [];
+  for (let s = 0; s < path.alphas.length; s++) {
+    const next = path.alphas[s + 1];
+    const a = path.alphas[s];
+    if (next !== undefined && sameAlpha(next, a, path.risks[path.risks.length - 1])) continue;
+    steps.push(s);
+  }
+  const alphas = steps.map((s) => path.alphas[s]);
+  const scoredAt = alphas.map((a, j) => (j + 1 < alphas.length ? Math.sqrt(a * alphas[j + 1]) : a));
+
+  const fold = assignFolds(dataset, folds, options.seed ?? 1);
+  const sum = new Float64Array(alphas.length);
+  const sumSq = new Float64Array(alphas.length);
+  const weights = new Float64Array(dataset.rows);
+  for (let k = 0; k < folds; k++) {
+    for (let r = 0; r < dataset.rows; r++) weights[r] = fold[r] === k ? 0 : 1;
+    const foldTree = growTree({ dataset, bins, weights }, options.grow);
+    scoreFold(foldTree, dataset, fold, k, scoredAt, sum, sumSq);
+  }
+  const n = dataset.rows;
+  const candidates: AlphaCandidate[] = alphas.map((alpha, j) => {
+    const mean = sum[j] / n;
+    const variance = n > 1 ? Math.max(0, (sumSq[j] - n * mean * mean) / (n - 1)) : 0;
+    return {
+      alpha,
+      scoredAt: scoredAt[j],
+      leaves: path.leaves[steps[j]],
+      risk: path.risks[steps[j]],
+      cvError: mean,
+      cvSe: Math.sqrt(variance / n),
+    };
+  });
+  let best = 0;
+  for (let j = 1; j < candidates.length; j++) {
+    if (candidates[j].cvError < candidates[best].cvError) best = j;
+  }
+  let chosen = best;
+  if (rule === "one-se") {
+    const limit = candidates[best].cvError + candidates[best].cvSe;
+    for (let j = candidates.length - 1; j > best; j--) {
+      if (candidates[j].cvError <= limit) {
+        chosen = j;
+        break;
+      }
+    }
+  }
+  const tree = subtreeAfter(fullTree, path, steps[chosen]);
+  return { fullTree, candidates, chosen, best, tree, fold };
+}
+
+// Adds the held-out losses of one fold at every scored alpha. Rather than
+// building a subtree per alpha, each held-out row walks the fold tree once;
+// the node that is its leaf in a subtree is the first node on its path that
+// the pruning has collapsed by then, which moves up the path as alpha grows.
+function scoreFold(
+  foldTree: FlatTree,
+  dataset: Dataset,
+  fold: Int32Array,
+  k: number,
+  scoredAt: number[],
+  sum: Float64Array,
+  sumSq: Float64Array,
+): void {
+  const path = pruningPath(foldTree);
+  const never = path.nodes.length;
+  const collapsedAt = new Int32Array(foldTree.nodeCount);
+  for (let i = 0; i < foldTree.nodeCount; i++) collapsedAt[i] = foldTree.left[i] === -1 ? 0 : never;
+  for (let s = 1; s < path.nodes.length; s++) collapsedAt[path.nodes[s]] = s;
+  // Steps of the fold's path taken at each scored alpha.
+  const stepAt = new Int32Array(scoredAt.length);
+  for (let j = 0, s = 0; j < scoredAt.length; j++) {
+    const rootRisk = path.risks[path.risks.length - 1];
+    while (
+      s + 1 < path.alphas.length &&
+      (path.alphas[s + 1] <= scoredAt[j] ||
+        sameAlpha(path.alphas[s + 1], scoredAt[j], rootRisk, PRUNE_TOLERANCE))
+    ) s++;
+    stepAt[j] = s;
+  }
+  const target = dataset.target;
+  const width = foldTree.width;
+  const earliest: number[] = [];
+  for (let r = 0; r < dataset.rows; r++) {
+    if (fold[r] !== k) continue;
+    const nodes = pathOfRow(foldTree, dataset.features, r);
+    // earliest[i]: the first step at which some node of path[0..i] is a leaf.
+    earliest.length = nodes.length;
+    for (let i = 0; i < nodes.length; i++) {
+      earliest[i] = Math.min(i > 0 ? earliest[i - 1] : never, collapsedAt[nodes[i]]);
+    }
+    let at = nodes.length - 1;
+    for (let j = 0; j < scoredAt.length; j++) {
+      while (at > 0 && earliest[at - 1] <= stepAt[j]) at--;
+      const leaf = nodes[at];
+      let lossValue: number;
+      if (target.kind === "regression") {
+        const d = target.values[r] - foldTree.value[leaf];
+        lossValue = d * d;
+      } else {
+        let best = 0;
+        for (let c = 1; c < width; c++) {
+          if (foldTree.value[leaf * width + c] > foldTree.value[leaf * width + best]) best = c;
+        }
+        lossValue = best === target.values[r] ? 0 : 1;
+      }
+      sum[j] += lossValue;
+      sumSq[j] += lossValue * lossValue;
+    }
+  }
+}
+
+/** The most probable class at a leaf (lowest class code among ties). */
+export function predictedClass(tree: FlatTree, leaf: number): number {
+  let best = 0;
+  for (let c = 1; c < tree.width; c++) {
+    if (tree.value[leaf * tree.width + c] > tree.value[leaf * tree.width + best]) best = c;
+  }
+  return best;
+}
+
+/**
+ * Stratified fold labels: rows are sorted by target (regression) or by
+ * class, in blocks of `folds` consecutive rows, and each block's rows get
+ * the fold labels in a random order. Every fold then spans the target's
+ * range.
+ *
+ * @example
+ * ```ts
+ * import { assignFolds } from "./cross_validate.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [],
+ *   target: { kind: "regression" as const, name: "y", values: new Float64Array([5, 1, 4, 2, 6, 3]) },
+ * };
+ * const fold = assignFolds(dataset, 3, 1);
+ * console.assert([0, 1, 2].every((k) => fold.filter((f) => f === k).length === 2));
+ * ```
+ */
+export function assignFolds(dataset: Dataset, folds: number, seed: number): Int32Array {
+  const rng = makeRng(seed);
+  const n = dataset.rows;
+  const values = dataset.target.values;
+  const order = Array.from({ length: n }, (_, i) => i);
+  // Ties in the target are ordered at random, so equal values spread over folds.
+  const tieBreak = shuffle(Array.from({ length: n }, (_, i) => i), rng);
+  order.sort((a, b) => values[a] - values[b] || tieBreak[a] - tieBreak[b]);
+  const fold = new Int32Array(n);
+  for (let start = 0; start < n; start += folds) {
+    const labels = shuffle(Array.from({ length: folds }, (_, i) => i), rng);
+    for (let i = start; i < Math.min(n, start + folds); i++) fold[order[i]] = labels[i - start];
+  }
+  return fold;
+}

@@ -1,0 +1,112 @@
+/**
+ * The decision path of one profile through a tree, in words.
+ *
+ * @module
+ */
+
+import type { Feature } from "../dataset/types.ts";
+import { type FlatTree, goesLeft } from "./flat_tree.ts";
+
+/** One step of a decision path. */
+export interface PathStep {
+  /** The feature tested at this node. */
+  feature: string;
+  /** The condition the profile met, e.g. `years <= 8.5`, `family in {Sales, Support}`. */
+  condition: string;
+  /** Node reached after the step. */
+  node: number;
+  /** Distinct training rows in the node reached. */
+  rows: number;
+  /** Mean of the node reached (regression) or its most frequent class's share. */
+  value: number;
+  /** Most frequent class of the node reached (classification only). */
+  className?: string;
+}
+
+/**
+ * Walks a profile (one value per feature, `NaN` for missing, level codes for
+ * ordinal and categorical features) from the root to its leaf.
+ *
+ * @example
+ * ```ts ignore
+ * const steps = explainPath(tree, dataset.features, [8, 2, NaN], ["L1", "L2"]);
+ * ```
+ */
+export function explainPath(
+  tree: FlatTree,
+  features: readonly Pick<Feature, "name" | "kind" | "levels">[],
+  profile: ArrayLike<number>,
+  classes?: readonly string[],
+): PathStep[] {
+  const steps: PathStep[] = [];
+  let node = 0;
+  while (tree.left[node] !== -1) {
+    const f = tree.feature[node];
+    const feature = features[f];
+    const x = profile[f];
+    const left = goesLeft(tree, node, x);
+    const next = left ? tree.left[node] : tree.right[node];
+    const step: PathStep = {
+      feature: feature.name,
+      condition: describeCondition(tree, node, feature, x, left),
+      node: next,
+      rows: tree.rows[next],
+      value: tree.value[next * tree.width],
+    };
+    if (tree.task === "classification") {
+      let best = 0;
+      for (let c = 1; c < tree.width; c++) {
+        if (tree.value[next * tree.width + c] > tree.value[next * tree.width + best]) best = c;
+      }
+      step.value = tree.value[next * tree.width + best];
+      step.className = classes?.[best] ?? String(best);
+    }
+    steps.push(step);
+    node = next;
+  }
+  return steps;
+}
+
+/**
+ * The condition of a split in words, for the side taken.
+ *
+ * @example
+ * ```ts ignore
+ * describeCondition(tree, 0, { name: "years", kind: "numeric" }, 3, true); // "years <= 8.5"
+ * ```
+ */
+export function describeCondition(
+  tree: FlatTree,
+  node: number,
+  feature: Pick<Feature, "name" | "kind" | "levels">,
+  x: number,
+  left: boolean,
+): string {
+  const side = left ? "left" : "right";
+  if (Number.isNaN(x)) return `${feature.name} is missing -> ${side}`;
+  if (feature.kind === "categorical") {
+    const levels = feature.levels ?? [];
+    const inMask: string[] = [];
+    const offset = tree.maskOffset[node];
+    for (let code = 0; code < levels.length; code++) {
+      const bit = (tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1;
+      if ((bit === 1) === left) inMask.push(levels[code]);
+    }
+    const level = levels[x] ?? String(x);
+    if (!inMask.includes(level)) return `${feature.name} = ${level} (not seen here) -> ${side}`;
+    return `${feature.name} in {${inMask.join(", ")}}`;
+  }
+  const t = tree.threshold[node];
+  if (feature.kind === "ordinal") {
+    const levels = feature.levels ?? [];
+    const lastLeft = Math.floor(t);
+    return left
+      ? `${feature.name} <= ${levels[lastLeft] ?? lastLeft}`
+      : `${feature.name} >= ${levels[lastLeft + 1] ?? lastLeft + 1}`;
+  }
+  return `${feature.name} ${left ? "<=" : ">"} ${formatThreshold(t)}`;
+}
+
+function formatThreshold(t: number): string {
+  return String(Number(t.toPrecision(6)));
+}

@@ -1,0 +1,146 @@
+/**
+ * A fitted tree as flat typed arrays, one entry per node, and the walks over
+ * it: the leaf a row lands in, predictions, the decision path.
+ *
+ * Node 0 is the root. A leaf has `left = right = -1` and `feature = -1`.
+ * Children always have larger ids than their parent, so every walk ends.
+ *
+ * @module
+ */
+
+import type { Feature } from "../dataset/types.ts";
+
+/** A fitted classification or regression tree. */
+export interface FlatTree {
+  /** Regression (one value per node) or classification (class shares). */
+  task: "regression" | "classification";
+  /** Values per node: 1 for regression, the number of classes otherwise. */
+  width: number;
+  /** Number of nodes. */
+  nodeCount: number;
+  /** Feature index split on; -1 at a leaf. */
+  feature: Int32Array;
+  /** `x <= threshold` goes left (numeric and ordinal splits); NaN otherwise. */
+  threshold: Float64Array;
+  /** Offset into `masks` of the left levels (categorical splits); -1 otherwise. */
+  maskOffset: Int32Array;
+  /** Bit sets of left levels, `maskWords[f]` 32-bit words each. */
+  masks: Uint32Array;
+  /** Words per level mask, per feature. */
+  maskWords: Int32Array;
+  /** Left child; -1 at a leaf. */
+  left: Int32Array;
+  /** Right child; -1 at a leaf. */
+  right: Int32Array;
+  /** 1 when missing values (and levels the node never saw) go left. */
+  missingLeft: Uint8Array;
+  /** `width` values per node: the mean, or the class shares. */
+  value: Float64Array;
+  /** Distinct training rows (with nonzero weight) in the node. */
+  rows: Int32Array;
+  /** Training weight in the node. */
+  weight: Float64Array;
+  /** Impurity of the node: variance (regression) or Gini index. */
+  impurity: Float64Array;
+}
+
+/**
+ * The leaf a row lands in.
+ *
+ * @param features The dataset's features (values read at `row`).
+ * @param row Row index into the feature arrays.
+ *
+ * @example
+ * ```ts ignore
+ * const leaf = applyRow(tree, dataset.features, 0);
+ * const prediction = tree.value[leaf];
+ * ```
+ */
+export function applyRow(tree: FlatTree, features: readonly Feature[], row: number): number {
+  let node = 0;
+  while (tree.left[node] !== -1) {
+    node = goesLeft(tree, node, features[tree.feature[node]].values[row])
+      ? tree.left[node]
+      : tree.right[node];
+  }
+  return node;
+}
+
+/**
+ * Whether a value goes to the left child at an internal node. Missing
+ * values, and at a categorical split levels outside the node's mask that it
+ * never saw, follow the node's missing direction.
+ */
+export function goesLeft(tree: FlatTree, node: number, x: number): boolean {
+  if (Number.isNaN(x)) return tree.missingLeft[node] === 1;
+  const offset = tree.maskOffset[node];
+  if (offset < 0) return x <= tree.threshold[node];
+  const word = tree.masks[offset + (x >>> 5)];
+  return ((word >>> (x & 31)) & 1) === 1;
+}
+
+/**
+ * The leaf of every row.
+ *
+ * @example
+ * ```ts ignore
+ * const leaves = applyRows(tree, dataset.features, dataset.rows);
+ * ```
+ */
+export function applyRows(tree: FlatTree, features: readonly Feature[], rows: number): Int32Array {
+  const out = new Int32Array(rows);
+  for (let r = 0; r < rows; r++) out[r] = applyRow(tree, features, r);
+  return out;
+}
+
+/**
+ * Regression predictions for every row (`value[apply(x)]`).
+ *
+ * @example
+ * ```ts ignore
+ * const predictions = predictRows(tree, dataset.features, dataset.rows);
+ * ```
+ */
+export function predictRows(
+  tree: FlatTree,
+  features: readonly Feature[],
+  rows: number,
+  out: Float64Array = new Float64Array(rows),
+): Float64Array {
+  if (tree.task !== "regression") throw new TypeError("predictRows needs a regression tree");
+  for (let r = 0; r < rows; r++) out[r] = tree.value[applyRow(tree, features, r)];
+  return out;
+}
+
+/** Number of leaves. */
+export function leafCount(tree: FlatTree): number {
+  let leaves = 0;
+  for (let n = 0; n < tree.nodeCount; n++) if (tree.left[n] === -1) leaves++;
+  return leaves;
+}
+
+/** Depth of the deepest leaf (the root alone has depth 0). */
+export function treeDepth(tree: FlatTree): number {
+  const depth = new Int32Array(tree.nodeCount);
+  let deepest = 0;
+  for (let n = 0; n < tree.nodeCount; n++) {
+    if (tree.left[n] === -1) continue;
+    depth[tree.left[n]] = depth[n] + 1;
+    depth[tree.right[n]] = depth[n] + 1;
+    deepest = Math.max(deepest, depth[n] + 1);
+  }
+  return deepest;
+}
+
+/** The node ids from the root to the leaf a row lands in. */
+export function pathOfRow(tree: FlatTree, features: readonly Feature[], row: number): number[] {
+  const path = [0];
+  let node = 0;
+  while (tree.left[node] !== -1) {
+    node = goesLeft(tree, node, features[tree.feature[node]].values[row])
+      ? tree.left[node]
+      : tree.right[node];
+    path.push(node);
+  }
+  return path;
+}

@@ -1,0 +1,693 @@
+/**
+ * Growing one classification or regression tree (Breiman et al. 1984,
+ * ch. 2-4) on binned features, depth first with an explicit stack.
+ *
+ * The split search ranks a node's candidate splits with the same cheap
+ * proxies as scikit-learn's criteria (sklearn/tree/_criterion.pyx), so that
+ * equal data gives equal trees: for squared error `sL^2/wL + sR^2/wR`
+ * (s = weighted sum of y, w = weight), for Gini `-wL*giniL - wR*giniR`.
+ * Each feature's rows are gathered into per-bin sums (a histogram, or a sort
+ * of the node's bin ids when the node has far fewer rows than the feature
+ * has bins) and scanned in bin order.
+ *
+ * Categorical features split by a subset of levels. For a numeric target
+ * the best subset is found exactly by ordering the levels by mean response
+ * and scanning that order (Fisher 1958; Breiman et al. 1984, Thm 4.5); for
+ * two classes likewise by the share of the second class. For three or more
+ * classes every subset is tried when the node holds at most 12 levels;
+ * beyond that, levels are ordered by the share of the node's most frequent
+ * class (a heuristic, not guaranteed optimal).
+ *
+ * Missing values: each split sends them to the side that gives the better
+ * split; when the node has none, to the heavier child. Levels a categorical
+ * split never saw follow the same direction.
+ *
+ * Ties between equally good splits go to the lowest feature index, then the
+ * lowest threshold (the first found in the scan).
+ *
+ * @module
+ */
+
+import type { Dataset } from "../dataset/types.ts";
+import type { FeatureBins } from "./bins.ts";
+import type { FlatTree } from "./flat_tree.ts";
+
+/** Stopping rules. */
+export interface GrowOptions {
+  /**
+   * Minimum distinct rows (with nonzero weight) in a leaf.
+   * @default {5}
+   */
+  minLeaf?: number;
+  /**
+   * Minimum distinct rows in a node for a split to be tried.
+   * @default twice minLeaf
+   */
+  minSplit?: number;
+  /**
+   * Maximum depth (the root has depth 0).
+   * @default {Infinity}
+   */
+  maxDepth?: number;
+  /**
+   * A split must decrease the weighted impurity by at least this much.
+   * @default {0}
+   */
+  minImpurityDecrease?: number;
+}
+
+/** The data a tree is grown on. */
+export interface GrowInput {
+  /** Encoded rows. */
+  dataset: Dataset;
+  /** Bins of the dataset's features, from `binFeatures`. */
+  bins: FeatureBins[];
+  /** Weight per row (e.g. bootstrap counts); rows of weight 0 are left out. Default 1. */
+  weights?: Float64Array;
+}
+
+// A node whose impurity is at most this is pure (scikit-learn's EPSILON,
+// the double-precision machine epsilon).
+const EPSILON = 2.220446049250313e-16;
+const EXHAUSTIVE_LEVELS = 12;
+// Sort a node's bin ids rather than fill a histogram when the feature has
+// more than this many bins per row of the node.
+const SPARSE_RATIO = 8;
+
+/**
+ * Grows a tree to the stopping rules.
+ *
+ * @example
+ * ```ts
+ * import { binFeatures } from "./bins.ts";
+ * import { growTree } from "./grow_tree.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4]) }],
+ *   target: { kind: "regression" as const, name: "y", values: new Float64Array([10, 10, 20, 20]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * console.assert(tree.threshold[0] === 2.5 && tree.nodeCount === 3);
+ * ```
+ */
+export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree {
+  const minLeaf = options.minLeaf ?? 5;
+  const minSplit = options.minSplit ?? 2 * minLeaf;
+  const maxDepth = options.maxDepth ?? Infinity;
+  const minDecrease = options.minImpurityDecrease ?? 0;
+  if (!(minLeaf >= 1) || !(minSplit >= 2)) {
+    throw new RangeError(`minLeaf must be >= 1 and minSplit >= 2, got ${minLeaf} and ${minSplit}`);
+  }
+  const grower = new Grower(input, { minLeaf, minSplit, maxDepth, minDecrease });
+  return grower.grow();
+}
+
+interface Settings {
+  minLeaf: number;
+  minSplit: number;
+  maxDepth: number;
+  minDecrease: number;
+}
+
+interface Best {
+  proxy: number;
+  feature: number;
+  threshold: number;
+  /** Bin ids going left (categorical), or the last left bin (threshold splits). */
+  leftBins: number[];
+  lastLeftBin: number;
+  missingLeft: number; // 1 left, 0 right, -1 decide by weight
+  leftN: number;
+  rightN: number;
+  leftW: number;
+  rightW: number;
+  leftImpurity: number;
+  rightImpurity: number;
+}
+
+class Grower {
+  private readonly data: GrowInput;
+  private readonly s: Settings;
+  private readonly regression: boolean;
+  private readonly k: number; // values per node
+  private readonly y: Float64Array;
+  private readonly cls: Int32Array;
+  private readonly w: Float64Array;
+  private readonly index: Int32Array;
+  private readonly scratch: Int32Array;
+  private readonly totalWeight: number;
+  // Per-feature dense histograms (bins + 1 for missing), reused by every node.
+  private readonly histN: Int32Array[];
+  private readonly histW: Float64Array[];
+  private readonly histS: Float64Array[]; // regression: sum w*y; classification: K per bin
+  private readonly histQ: Float64Array[]; // regression: sum w*y^2
+  // Compact list of the non-empty bins of the feature being scanned.
+  private cBin: Int32Array;
+  private cN: Int32Array;
+  private cW: Float64Array;
+  private cS: Float64Array; // regression: 1 per bin; classification: K per bin
+  private cQ: Float64Array;
+  private order: Int32Array;
+  private readonly leftS: Float64Array;
+  private readonly missS: Float64Array;
+  private readonly totS: Float64Array;
+  // Growing node arrays.
+  private readonly nodes = {
+    feature: [] as number[],
+    threshold: [] as number[],
+    maskOffset: [] as number[],
+    masks: [] as number[],
+    left: [] as number[],
+    right: [] as number[],
+    missingLeft: [] as number[],
+    value: [] as number[],
+    rows: [] as number[],
+    weight: [] as number[],
+    impurity: [] as number[],
+  };
+  private readonly maskWords: Int32Array;
+
+  constructor(data: GrowInput, settings: Settings) {
+    this.data = data;
+    this.s = settings;
+    const { dataset } = data;
+    const n = dataset.rows;
+    this.regression = dataset.target.kind === "regression";
+    this.k = dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
+    this.y = dataset.target.kind === "regression" ? dataset.target.values : new Float64Array(0);
+    this.cls = dataset.target.kind === "classification" ? dataset.target.values : new Int32Array(0);
+    this.w = data.weights ?? new Float64Array(n).fill(1);
+    if (this.w.length !== n) {
+      throw new RangeError(`weights has ${this.w.length} entries for ${n} rows`);
+    }
+    let kept = 0;
+    let total = 0;
+    for (let r = 0; r < n; r++) {
+      if (this.w[r] > 0) kept++;
+      else if (!(this.w[r] === 0)) throw new RangeError(`weight of row ${r} is ${this.w[r]}`);
+    }
+    this.index = new Int32Array(kept);
+    for (let r = 0, i = 0; r < n; r++) {
+      if (this.w[r] > 0) {
+        this.index[i++] = r;
+        total += this.w[r];
+      }
+    }
+    this.totalWeight = total;
+    this.scratch = new Int32Array(kept);
+    const k = this.k;
+    this.histN = data.bins.map((b) => new Int32Array(b.count + 1));
+    this.histW = data.bins.map((b) => new Float64Array(b.count + 1));
+    this.histS = data.bins.map((b) => new Float64Array((b.count + 1) * k));
+    this.histQ = data.bins.map((b) => new Float64Array(this.regression ? b.count + 1 : 0));
+    const widest = Math.max(1, ...data.bins.map((b) => b.count + 1));
+    const compact = Math.min(widest, kept + 1);
+    this.cBin = new Int32Array(compact);
+    this.cN = new Int32Array(compact);
+    this.cW = new Float64Array(compact);
+    this.cS = new Float64Array(compact * k);
+    this.cQ = new Float64Array(compact);
+    this.order = new Int32Array(compact);
+    this.leftS = new Float64Array(k);
+    this.missS = new Float64Array(k);
+    this.totS = new Float64Array(k);
+    this.maskWords = Int32Array.from(
+      dataset.features,
+      (f) => (f.kind === "categorical" ? Math.ceil(f.levels!.length / 32) : 0),
+    );
+  }
+
+  grow(): FlatTree {
+    if (this.index.length === 0) {
+      throw new RangeError("no rows with positive weight to grow a tree on");
+    }
+    // Stack entries: start, end, depth, parent, isLeft (1) / right (0) / root (-1).
+    const stack: number[] = [0, this.index.length, 0, -1, -1];
+    while (stack.length > 0) {
+      const side = stack.pop()!;
+      const parent = stack.pop()!;
+      const depth = stack.pop()!;
+      const end = stack.pop()!;
+      const start = stack.pop()!;
+      const id = this.addNode(start, end);
+      if (parent >= 0) {
+        if (side === 1) this.nodes.left[parent] = id;
+        else this.nodes.right[parent] = id;
+      }
+      const impurity = this.nodes.impurity[id];
+      const rows = end - start;
+      if (
+        depth >= this.s.maxDepth || rows < this.s.minSplit || rows < 2 * this.s.minLeaf ||
+        impurity <= EPSILON
+      ) continue;
+      const best = this.findSplit(start, end);
+      if (best === undefined) continue;
+      const weight = this.nodes.weight[id];
+      const improvement = (weight / this.totalWeight) *
+        (impurity - (best.rightW / weight) * best.rightImpurity -
+          (best.leftW / weight) * best.leftImpurity);
+      if (improvement + EPSILON < this.s.minDecrease) continue;
+      const missingLeft = best.missingLeft >= 0
+        ? best.missingLeft
+        : best.leftW >= best.rightW
+        ? 1
+        : 0;
+      const mid = this.partition(start, end, best, missingLeft);
+      this.setSplit(id, best, missingLeft);
+      stack.push(mid, end, depth + 1, id, 0);
+      stack.push(start, mid, depth + 1, id, 1);
+    }
+    return this.finish();
+  }
+
+  private addNode(start: number, end: number): number {
+    const { index, w, k } = this;
+    const values = new Float64Array(k);
+    let weight = 0;
+    let impurity: number;
+    if (this.regression) {
+      let sum = 0;
+      let sq = 0;
+      for (let i = start; i < end; i++) {
+        const r = index[i];
+        const wy = w[r] * this.y[r];
+        weight += w[r];
+        sum += wy;
+        sq += wy * this.y[r];
+      }
+      const mean = sum / weight;
+      values[0] = mean;
+      impurity = sq / weight - mean * mean;
+    } else {
+      for (let i = start; i < end; i++) {
+        const r = index[i];
+        values[this.cls[r]] += w[r];
+        weight += w[r];
+      }
+      let sq = 0;
+      for (let c = 0; c < k; c++) sq += values[c] * values[c];
+      impurity = 1 - sq / (weight * weight);
+      for (let c = 0; c < k; c++) values[c] /= weight;
+    }
+    const nodes = this.nodes;
+    const id = nodes.feature.length;
+    nodes.feature.push(-1);
+    nodes.threshold.push(NaN);
+    nodes.maskOffset.push(-1);
+    nodes.left.push(-1);
+    nodes.right.push(-1);
+    nodes.missingLeft.push(0);
+    for (let c = 0; c < k; c++) nodes.value.push(values[c]);
+    nodes.rows.push(end - start);
+    nodes.weight.push(weight);
+    nodes.impurity.push(impurity);
+    return id;
+  }
+
+  private setSplit(id: number, best: Best, missingLeft: number): void {
+    const nodes = this.nodes;
+    nodes.feature[id] = best.feature;
+    nodes.missingLeft[id] = missingLeft;
+    const words = this.maskWords[best.feature];
+    if (words > 0) {
+      nodes.maskOffset[id] = nodes.masks.length;
+      const mask = new Array<number>(words).fill(0);
+      for (const bin of best.leftBins) mask[bin >>> 5] |= 1 << (bin & 31);
+      for (const word of mask) nodes.masks.push(word >>> 0);
+    } else {
+      nodes.threshold[id] = best.threshold;
+    }
+  }
+
+  /** Gathers the node's rows of one feature into the compact bin list; returns its length. */
+  private collect(f: number, start: number, end: number): number {
+    const bins = this.data.bins[f];
+    const ids = bins.ids;
+    const { index, w, k } = this;
+    const missingBin = bins.count;
+    const rows = end - start;
+    const hn = this.histN[f];
+    const hw = this.histW[f];
+    const hs = this.histS[f];
+    const hq = this.histQ[f];
+    this.missS.fill(0);
+    let m = 0;
+    if (bins.count <= SPARSE_RATIO * rows) {
+      for (let i = start; i < end; i++) {
+        const r = index[i];
+        const b = ids[r];
+        const wr = w[r];
+        hn[b]++;
+        hw[b] += wr;
+        if (this.regression) {
+          const wy = wr * this.y[r];
+          hs[b] += wy;
+          hq[b] += wy * this.y[r];
+        } else {
+          hs[b * k + this.cls[r]] += wr;
+        }
+      }
+      for (let b = 0; b < missingBin; b++) {
+        if (hn[b] === 0) continue;
+        m = this.pushCompact(m, b, hn[b], hw[b], hs, hq, b);
+      }
+      this.missingTotals(hn[missingBin], hw[missingBin], hs, hq, missingBin);
+      // Reset only what this node touched.
+      for (let i = start; i < end; i++) {
+        const b = ids[index[i]];
+        hn[b] = 0;
+        hw[b] = 0;
+        if (this.regression) {
+          hs[b] = 0;
+          hq[b] = 0;
+        } else {
+          for (let c = 0; c < k; c++) hs[b * k + c] = 0;
+        }
+      }
+      return m;
+    }
+    // Few rows, many bins: sort the node's (bin, position) keys instead.
+    const keys = new Float64Array(rows);
+    for (let i = 0; i < rows; i++) keys[i] = ids[index[start + i]] * rows + i;
+    keys.sort();
+    let i = 0;
+    let missN = 0;
+    let missW = 0;
+    let missQ = 0;
+    while (i < rows) {
+      const b = Math.floor(keys[i] / rows);
+      let n = 0;
+      let wsum = 0;
+      let q = 0;
+      const at = m;
+      if (b !== missingBin) {
+        this.cBin[at] = b;
+        for (let c = 0; c < k; c++) this.cS[at * k + c] = 0;
+      }
+      while (i < rows && Math.floor(keys[i] / rows) === b) {
+        const r = index[start + (keys[i] - b * rows)];
+        const wr = w[r];
+        n++;
+        wsum += wr;
+        if (this.regression) {
+          const wy = wr * this.y[r];
+          if (b === missingBin) this.missS[0] += wy;
+          else this.cS[at] += wy;
+          q += wy * this.y[r];
+        } else if (b === missingBin) {
+          this.missS[this.cls[r]] += wr;
+        } else {
+          this.cS[at * k + this.cls[r]] += wr;
+        }
+        i++;
+      }
+      if (b === missingBin) {
+        missN = n;
+        missW = wsum;
+        missQ = q;
+      } else {
+        this.cN[at] = n;
+        this.cW[at] = wsum;
+        this.cQ[at] = q;
+        m++;
+      }
+    }
+    this.missN = missN;
+    this.missW = missW;
+    this.missQ = missQ;
+    return m;
+  }
+
+  private missN = 0;
+  private missW = 0;
+  private missQ = 0;
+
+  private pushCompact(
+    m: number,
+    bin: number,
+    n: number,
+    wsum: number,
+    hs: Float64Array,
+    hq: Float64Array,
+    b: number,
+  ): number {
+    const k = this.k;
+    this.cBin[m] = bin;
+    this.cN[m] = n;
+    this.cW[m] = wsum;
+    for (let c = 0; c < k; c++) this.cS[m * k + c] = hs[b * k + c];
+    this.cQ[m] = this.regression ? hq[b] : 0;
+    return m + 1;
+  }
+
+  private missingTotals(n: number, wsum: number, hs: Float64Array, hq: Float64Array, b: number) {
+    this.missN = n;
+    this.missW = wsum;
+    this.missQ = this.regression ? hq[b] : 0;
+    for (let c = 0; c < this.k; c++) this.missS[c] = hs[b * this.k + c];
+  }
+
+  private findSplit(start: number, end: number): Best | undefined {
+    let best: Best | undefined;
+    const features = this.data.dataset.features;
+    for (let f = 0; f < features.length; f++) {
+      const m = this.collect(f, start, end);
+      if (m < 2) continue;
+      const kind = features[f].kind;
+      if (kind === "categorical") {
+        if (!this.regression && this.k > 2 && m <= EXHAUSTIVE_LEVELS) {
+          best = this.exhaustive(f, m, best);
+          continue;
+        }
+        this.orderLevels(m);
+      } else {
+        for (let i = 0; i < m; i++) this.order[i] = i;
+      }
+      best = this.scan(f, m, kind === "categorical", best);
+    }
+    return best;
+  }
+
+  // Orders the compact bins for a categorical scan: by mean response, by
+  // the second class's share (two classes), or by the share of the node's
+  // most frequent class; ties by level code.
+  private orderLevels(m: number): void {
+    const k = this.k;
+    const key = new Float64Array(m);
+    let cls = 1;
+    if (!this.regression && k > 2) {
+      const totals = new Float64Array(k);
+      for (let i = 0; i < m; i++) for (let c = 0; c < k; c++) totals[c] += this.cS[i * k + c];
+      cls = 0;
+      for (let c = 1; c < k; c++) if (totals[c] > totals[cls]) cls = c;
+    }
+    for (let i = 0; i < m; i++) {
+      key[i] = this.regression ? this.cS[i] / this.cW[i] : this.cS[i * k + cls] / this.cW[i];
+      this.order[i] = i;
+    }
+    const order = Array.from(this.order.subarray(0, m));
+    order.sort((a, b) => key[a] - key[b] || this.cBin[a] - this.cBin[b]);
+    this.order.set(order);
+  }
+
+  private scan(
+    f: number,
+    m: number,
+    categorical: boolean,
+    best: Best | undefined,
+  ): Best | undefined {
+    const { k, cN, cW, cS, cQ, order, leftS } = this;
+    this.totals(m);
+    let leftN = 0;
+    let leftW = 0;
+    let leftQ = 0;
+    leftS.fill(0);
+    for (let i = 0; i < m - 1; i++) {
+      const e = order[i];
+      leftN += cN[e];
+      leftW += cW[e];
+      leftQ += cQ[e];
+      for (let c = 0; c < k; c++) leftS[c] += cS[e * k + c];
+      const found = this.evaluate(leftN, leftW, leftQ, best);
+      if (found !== undefined) {
+        best = found;
+        best.feature = f;
+        const lastLeft = this.cBin[order[i]];
+        best.lastLeftBin = lastLeft;
+        if (categorical) {
+          best.leftBins = Array.from(order.subarray(0, i + 1), (j) => this.cBin[j]);
+        } else {
+          // As scikit-learn: the midpoint, computed as a/2 + b/2.
+          const bins = this.data.bins[f];
+          const a = bins.upper[lastLeft];
+          const b = bins.lower[this.cBin[order[i + 1]]];
+          let threshold = a / 2 + b / 2;
+          if (threshold === b || !Number.isFinite(threshold)) threshold = a;
+          best.threshold = threshold;
+        }
+      }
+    }
+    return best;
+  }
+
+  private totN = 0;
+  private totW = 0;
+  private totQ = 0;
+
+  // Sums over the compact bins (missing values not included).
+  private totals(m: number): void {
+    const { k, cN, cW, cS, cQ, totS } = this;
+    let n = 0;
+    let w = 0;
+    let q = 0;
+    totS.fill(0);
+    for (let i = 0; i < m; i++) {
+      n += cN[i];
+      w += cW[i];
+      q += cQ[i];
+      for (let c = 0; c < k; c++) totS[c] += cS[i * k + c];
+    }
+    this.totN = n;
+    this.totW = w;
+    this.totQ = q;
+  }
+
+  /**
+   * Scores the split whose left side holds the current left sums, with the
+   * node's missing values sent left, then right (left wins ties); returns a
+   * new best (without feature and threshold filled in) when one beats `best`.
+   */
+  private evaluate(
+    leftN: number,
+    leftW: number,
+    leftQ: number,
+    best: Best | undefined,
+  ): Best | undefined {
+    const { k, leftS, missS, totS } = this;
+    const minLeaf = this.s.minLeaf;
+    const missN = this.missN;
+    let found: Best | undefined;
+    const sides = missN > 0 ? [1, 0] : [-1];
+    for (const side of sides) {
+      const withLeft = side === 1;
+      const nl = leftN + (withLeft ? missN : 0);
+      const nr = this.totN + missN - nl;
+      if (nl < minLeaf || nr < minLeaf) continue;
+      const wl = leftW + (withLeft ? this.missW : 0);
+      const wr = this.totW + this.missW - wl;
+      let proxy: number;
+      let leftImpurity: number;
+      let rightImpurity: number;
+      if (this.regression) {
+        const sl = leftS[0] + (withLeft ? missS[0] : 0);
+        const sr = totS[0] + missS[0] - sl;
+        proxy = (sl * sl) / wl + (sr * sr) / wr;
+        if (!(best === undefined || proxy > best.proxy)) continue;
+        const ql = leftQ + (withLeft ? this.missQ : 0);
+        const qr = this.totQ + this.missQ - ql;
+        leftImpurity = ql / wl - (sl / wl) * (sl / wl);
+        rightImpurity = qr / wr - (sr / wr) * (sr / wr);
+      } else {
+        let sqL = 0;
+        let sqR = 0;
+        for (let c = 0; c < k; c++) {
+          const l = leftS[c] + (withLeft ? missS[c] : 0);
+          const r = totS[c] + missS[c] - l;
+          sqL += l * l;
+          sqR += r * r;
+        }
+        leftImpurity = 1 - sqL / (wl * wl);
+        rightImpurity = 1 - sqR / (wr * wr);
+        proxy = -wr * rightImpurity - wl * leftImpurity;
+        if (!(best === undefined || proxy > best.proxy)) continue;
+      }
+      found = best = {
+        proxy,
+        feature: -1,
+        threshold: NaN,
+        leftBins: [],
+        lastLeftBin: -1,
+        missingLeft: side,
+        leftN: nl,
+        rightN: nr,
+        leftW: wl,
+        rightW: wr,
+        leftImpurity,
+        rightImpurity,
+      };
+    }
+    return found;
+  }
+
+  private exhaustive(f: number, m: number, best: Best | undefined): Best | undefined {
+    const { k, cN, cW, cS, leftS } = this;
+    this.totals(m);
+    // Subsets of the first m-1 levels; the last level stays right, so each
+    // partition is tried once.
+    for (let mask = 1; mask < 1 << (m - 1); mask++) {
+      let leftN = 0;
+      let leftW = 0;
+      leftS.fill(0);
+      for (let i = 0; i < m - 1; i++) {
+        if (!((mask >>> i) & 1)) continue;
+        leftN += cN[i];
+        leftW += cW[i];
+        for (let c = 0; c < k; c++) leftS[c] += cS[i * k + c];
+      }
+      const found = this.evaluate(leftN, leftW, 0, best);
+      if (found !== undefined) {
+        best = found;
+        best.feature = f;
+        for (let i = 0; i < m - 1; i++) if ((mask >>> i) & 1) best.leftBins.push(this.cBin[i]);
+      }
+    }
+    return best;
+  }
+
+  /** Stable in-place partition of [start, end): left rows first; returns the first right position. */
+  private partition(start: number, end: number, best: Best, missingLeft: number): number {
+    const { index, scratch } = this;
+    const bins = this.data.bins[best.feature];
+    const ids = bins.ids;
+    const missingBin = bins.count;
+    const categorical = this.maskWords[best.feature] > 0;
+    const inLeft = categorical ? new Uint8Array(bins.count) : undefined;
+    if (inLeft) { for (const b of best.leftBins) inLeft[b] = 1; }
+    let l = start;
+    let r = 0;
+    for (let i = start; i < end; i++) {
+      const row = index[i];
+      const b = ids[row];
+      const left = b === missingBin
+        ? missingLeft === 1
+        : inLeft
+        ? inLeft[b] === 1
+        : b <= best.lastLeftBin;
+      if (left) index[l++] = row;
+      else scratch[r++] = row;
+    }
+    index.set(scratch.subarray(0, r), l);
+    return l;
+  }
+
+  private finish(): FlatTree {
+    const n = this.nodes;
+    return {
+      task: this.regression ? "regression" : "classification",
+      width: this.k,
+      nodeCount: n.feature.length,
+      feature: Int32Array.from(n.feature),
+      threshold: Float64Array.from(n.threshold),
+      maskOffset: Int32Array.from(n.maskOffset),
+      masks: Uint32Array.from(n.masks),
+      maskWords: this.maskWords,
+      left: Int32Array.from(n.left),
+      right: Int32Array.from(n.right),
+      missingLeft: Uint8Array.from(n.missingLeft),
+      value: Float64Array.from(n.value),
+      rows: Int32Array.from(n.rows),
+      weight: Float64Array.from(n.weight),
+      impurity: Float64Array.from(n.impurity),
+    };
+  }
+}

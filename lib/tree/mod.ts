@@ -1,0 +1,44 @@
+/**
+ * Classification and regression trees: growing, cost-complexity pruning,
+ * cross-validated size selection, prediction and explanation.
+ *
+ * @module
+ */
+
+export { binFeatures, FEATURE_TOLERANCE, type FeatureBins } from "./bins.ts";
+export {
+  applyRow,
+  applyRows,
+  type FlatTree,
+  goesLeft,
+  leafCount,
+  pathOfRow,
+  predictRows,
+  treeDepth,
+} from "./flat_tree.ts";
+export { type GrowInput, type GrowOptions, growTree } from "./grow_tree.ts";
+export {
+  PRUNE_TOLERANCE,
+  pruneTree,
+  type PruningPath,
+  pruningPath,
+  SAME_ALPHA,
+  sameAlpha,
+  subtreeAfter,
+} from "./prune.ts";
+export {
+  type AlphaCandidate,
+  assignFolds,
+  type CrossValidatedTree,
+  type CrossValidateOptions,
+  crossValidateTree,
+  predictedClass,
+} from "./cross_validate.ts";
+export {
+  type ClassificationMetrics,
+  classificationMetrics,
+  constantBaseline,
+  type RegressionMetrics,
+  regressionMetrics,
+} from "./metrics.ts";
+export { describeCondition, explainPath, type PathStep } from "./explain.ts";

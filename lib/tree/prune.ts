@@ -1,0 +1,292 @@
+/**
+ * Cost-complexity (weakest-link) pruning (Breiman et al. 1984, ch. 3 and
+ * 10), as a pass over a fitted tree that never touches the grower.
+ *
+ * The risk of a node is R(t) = p(t) * impurity(t), p(t) its share of the
+ * root's weight; the risk of a tree is the sum over its leaves. This is the
+ * normalisation of scikit-learn's `cost_complexity_pruning_path`, and the
+ * loop below follows the same order (one node per step, the lowest node id
+ * among equal alphas), so the two paths agree number for number.
+ *
+ * @module
+ */
+
+import type { FlatTree } from "./flat_tree.ts";
+
+/**
+ * Alphas closer than this, relative to the larger alpha, plus this much of
+ * the root's risk, count as one alpha. The path is computed from floating-point sums, so the
+ * alpha at which a node is collapsed is known only to rounding; a subtree
+ * requested at a path alpha must include that step whichever way the last
+ * bits fall, and alphas of splits that reduce the risk by nothing but
+ * rounding count as zero.
+ */
+export const SAME_ALPHA = 1e-12;
+
+/**
+ * Whether two alphas of a tree whose root has risk `rootRisk` count as one.
+ *
+ * @example
+ * ```ts
+ * import { sameAlpha } from "./prune.ts";
+ * console.assert(sameAlpha(0, 1e-18, 0.5) && !sameAlpha(0.01, 0.0101, 0.5));
+ * ```
+ */
+export function sameAlpha(a: number, b: number, rootRisk: number, tolerance = SAME_ALPHA): boolean {
+  return Math.abs(a - b) <= tolerance * Math.max(Math.abs(a), Math.abs(b)) + SAME_ALPHA * rootRisk;
+}
+
+/**
+ * How far above a requested alpha a link's alpha may lie and still be
+ * collapsed. Risks near the root are differences of large sums, so two
+ * correct implementations agree on alphas to about 1e-11 (relative) on a
+ * table of 28,000 rows; a subtree requested at an alpha read from another
+ * implementation's path must not depend on those last digits.
+ */
+export const PRUNE_TOLERANCE = 1e-9;
+
+/** The weakest-link sequence of a tree. */
+export interface PruningPath {
+  /** Effective alpha of each step; entry 0 is 0 (the full tree). */
+  alphas: Float64Array;
+  /** Risk of the subtree after each step; entry 0 is the full tree's. */
+  risks: Float64Array;
+  /** Leaves of the subtree after each step. */
+  leaves: Int32Array;
+  /** Node collapsed at each step; entry 0 is -1. */
+  nodes: Int32Array;
+}
+
+/**
+ * The full weakest-link pruning path, down to the root alone.
+ *
+ * @example
+ * ```ts ignore
+ * const path = pruningPath(tree);
+ * const last = path.alphas.length - 1;
+ * console.assert(path.leaves[last] === 1);
+ * ```
+ */
+export function pruningPath(tree: FlatTree): PruningPath {
+  return weakestLinks(tree, Infinity);
+}
+
+/**
+ * The subtree for complexity `alpha`: every weakest link whose effective
+ * alpha is at most `alpha` is collapsed (as scikit-learn's `ccp_alpha`).
+ * Returns a new, compact tree; `tree` is not changed.
+ *
+ * @example
+ * ```ts ignore
+ * const small = pruneTree(tree, 0.01);
+ * ```
+ */
+export function pruneTree(tree: FlatTree, alpha: number): FlatTree {
+  if (!(alpha >= 0)) throw new RangeError(`alpha must be >= 0, got ${alpha}`);
+  // At alpha 0 the tree is kept whole, as scikit-learn's ccp_alpha=0 does.
+  if (alpha === 0) return collapse(tree, []);
+  const path = weakestLinks(tree, alpha);
+  return collapse(tree, path.nodes);
+}
+
+/**
+ * The subtree after the first `steps` steps of a path (step 0: the full
+ * tree). Faster than {@linkcode pruneTree} when many subtrees of one path
+ * are needed.
+ */
+export function subtreeAfter(tree: FlatTree, path: PruningPath, steps: number): FlatTree {
+  if (steps < 0 || steps >= path.nodes.length) {
+    throw new RangeError(`steps must lie in [0, ${path.nodes.length}), got ${steps}`);
+  }
+  return collapse(tree, path.nodes.subarray(0, steps + 1));
+}
+
+function weakestLinks(tree: FlatTree, limit: number): PruningPath {
+  const n = tree.nodeCount;
+  const parent = new Int32Array(n).fill(-1);
+  for (let i = 0; i < n; i++) {
+    if (tree.left[i] !== -1) {
+      parent[tree.left[i]] = i;
+      parent[tree.right[i]] = i;
+    }
+  }
+  const total = tree.weight[0];
+  const rNode = new Float64Array(n);
+  for (let i = 0; i < n; i++) rNode[i] = (tree.weight[i] * tree.impurity[i]) / total;
+  const rBranch = new Float64Array(n);
+  const leaves = new Int32Array(n);
+  // Children have larger ids, so a backward pass sees them first.
+  for (let i = n - 1; i >= 0; i--) {
+    if (tree.left[i] === -1) {
+      rBranch[i] = rNode[i];
+      leaves[i] = 1;
+    } else {
+      rBranch[i] = rBranch[tree.left[i]] + rBranch[tree.right[i]];
+      leaves[i] = leaves[tree.left[i]] + leaves[tree.right[i]];
+    }
+  }
+  // Internal nodes still in the subtree.
+  const candidate = new Uint8Array(n);
+  for (let i = 0; i < n; i++) candidate[i] = tree.left[i] === -1 ? 0 : 1;
+
+  const alphas = [0];
+  const risks = [rBranch[0]];
+  const leafCounts = [leaves[0]];
+  const nodes = [-1];
+  // Candidates in a heap keyed by (alpha, node id): the lowest id wins among
+  // equal alphas, as in a scan in id order. An entry is stale when its node
+  // has been collapsed or its alpha has changed since (version).
+  const version = new Int32Array(n);
+  const heap = new AlphaHeap();
+  const alphaOf = (i: number) => (rNode[i] - rBranch[i]) / (leaves[i] - 1);
+  for (let i = 0; i < n; i++) if (candidate[i]) heap.push(alphaOf(i), i, 0);
+  const stack: number[] = [];
+  while (candidate[0] === 1) {
+    let weakest = -1;
+    let effective = Infinity;
+    while (heap.size > 0) {
+      const [a, i, v] = heap.pop();
+      if (candidate[i] === 1 && version[i] === v) {
+        weakest = i;
+        effective = a;
+        break;
+      }
+    }
+    if (weakest < 0) break;
+    if (effective > limit && !sameAlpha(effective, limit, rNode[0], PRUNE_TOLERANCE)) break;
+    // Collapse the weakest link: its descendants leave the subtree.
+    stack.push(weakest);
+    while (stack.length > 0) {
+      const i = stack.pop()!;
+      candidate[i] = 0;
+      if (tree.left[i] !== -1) stack.push(tree.left[i], tree.right[i]);
+    }
+    const prunedLeaves = leaves[weakest] - 1;
+    const rise = rNode[weakest] - rBranch[weakest];
+    leaves[weakest] = 1;
+    rBranch[weakest] = rNode[weakest];
+    for (let a = parent[weakest]; a !== -1; a = parent[a]) {
+      leaves[a] -= prunedLeaves;
+      rBranch[a] += rise;
+      heap.push(alphaOf(a), a, ++version[a]);
+    }
+    alphas.push(effective);
+    risks.push(rBranch[0]);
+    leafCounts.push(leaves[0]);
+    nodes.push(weakest);
+  }
+  return {
+    alphas: Float64Array.from(alphas),
+    risks: Float64Array.from(risks),
+    leaves: Int32Array.from(leafCounts),
+    nodes: Int32Array.from(nodes),
+  };
+}
+
+// A binary min-heap of (alpha, node, version), ordered by alpha, then node.
+class AlphaHeap {
+  private alpha: number[] = [];
+  private node: number[] = [];
+  private version: number[] = [];
+
+  get size(): number {
+    return this.alpha.length;
+  }
+
+  push(alpha: number, node: number, version: number): void {
+    this.alpha.push(alpha);
+    this.node.push(node);
+    this.version.push(version);
+    let i = this.alpha.length - 1;
+    while (i > 0) {
+      const up = (i - 1) >> 1;
+      if (!this.less(i, up)) break;
+      this.swap(i, up);
+      i = up;
+    }
+  }
+
+  pop(): [number, number, number] {
+    const top: [number, number, number] = [this.alpha[0], this.node[0], this.version[0]];
+    const last = this.alpha.length - 1;
+    this.swap(0, last);
+    this.alpha.pop();
+    this.node.pop();
+    this.version.pop();
+    let i = 0;
+    for (;;) {
+      const l = 2 * i + 1;
+      const r = l + 1;
+      let m = i;
+      if (l < this.alpha.length && this.less(l, m)) m = l;
+      if (r < this.alpha.length && this.less(r, m)) m = r;
+      if (m === i) break;
+      this.swap(i, m);
+      i = m;
+    }
+    return top;
+  }
+
+  private less(a: number, b: number): boolean {
+    return this.alpha[a] < this.alpha[b] ||
+      (this.alpha[a] === this.alpha[b] && this.node[a] < this.node[b]);
+  }
+
+  private swap(a: number, b: number): void {
+    [this.alpha[a], this.alpha[b]] = [this.alpha[b], this.alpha[a]];
+    [this.node[a], this.node[b]] = [this.node[b], this.node[a]];
+    [this.version[a], this.version[b]] = [this.version[b], this.version[a]];
+  }
+}
+
+// A compact copy of the tree with the given nodes made leaves (entries of -1 ignored).
+function collapse(tree: FlatTree, collapsed: ArrayLike<number>): FlatTree {
+  const n = tree.nodeCount;
+  const isCollapsed = new Uint8Array(n);
+  for (let i = 0; i < collapsed.length; i++) if (collapsed[i] >= 0) isCollapsed[collapsed[i]] = 1;
+  // Keep nodes reachable without passing below a collapsed node, in id order.
+  const keep = new Uint8Array(n);
+  keep[0] = 1;
+  for (let i = 0; i < n; i++) {
+    if (!keep[i] || isCollapsed[i] || tree.left[i] === -1) continue;
+    keep[tree.left[i]] = 1;
+    keep[tree.right[i]] = 1;
+  }
+  const newId = new Int32Array(n).fill(-1);
+  let count = 0;
+  for (let i = 0; i < n; i++) if (keep[i]) newId[i] = count++;
+  const width = tree.width;
+  const out: FlatTree = {
+    task: tree.task,
+    width,
+    nodeCount: count,
+    feature: new Int32Array(count),
+    threshold: new Float64Array(count),
+    maskOffset: new Int32Array(count),
+    masks: tree.masks,
+    maskWords: tree.maskWords,
+    left: new Int32Array(count),
+    right: new Int32Array(count),
+    missingLeft: new Uint8Array(count),
+    value: new Float64Array(count * width),
+    rows: new Int32Array(count),
+    weight: new Float64Array(count),
+    impurity: new Float64Array(count),
+  };
+  for (let i = 0; i < n; i++) {
+    const j = newId[i];
+    if (j < 0) continue;
+    const leaf = isCollapsed[i] === 1 || tree.left[i] === -1;
+    out.feature[j] = leaf ? -1 : tree.feature[i];
+    out.threshold[j] = leaf ? NaN : tree.threshold[i];
+    out.maskOffset[j] = leaf ? -1 : tree.maskOffset[i];
+    out.left[j] = leaf ? -1 : newId[tree.left[i]];
+    out.right[j] = leaf ? -1 : newId[tree.right[i]];
+    out.missingLeft[j] = leaf ? 0 : tree.missingLeft[i];
+    for (let c = 0; c < width; c++) out.value[j * width + c] = tree.value[i * width + c];
+    out.rows[j] = tree.rows[i];
+    out.weight[j] = tree.weight[i];
+    out.impurity[j] = tree.impurity[i];
+  }
+  return out;
+}
