@@ -18,7 +18,7 @@ import type { Dataset } from "../dataset/types.ts";
 import { makeRng, shuffle } from "../random.ts";
 import { binFeatures, type FeatureBins } from "./bins.ts";
 import { type FlatTree, pathOfRow } from "./flat_tree.ts";
-import { type GrowOptions, growTree } from "./grow_tree.ts";
+import { canonicalRowOrder, type GrowOptions, growTree } from "./grow_tree.ts";
 import { PRUNE_TOLERANCE, pruningPath, sameAlpha, subtreeAfter } from "./prune.ts";
 
 /** How to choose the tree size. */
@@ -94,7 +94,8 @@ export function crossValidateTree(
   if (!(folds >= 2) || folds > dataset.rows || !Number.isInteger(folds)) {
     throw new RangeError(`folds must be a whole number from 2 to the row count, got ${folds}`);
   }
-  const fullTree = growTree({ dataset, bins }, options.grow);
+  const order = canonicalRowOrder(dataset);
+  const fullTree = growTree({ dataset, bins, order }, options.grow);
   const path = pruningPath(fullTree);
   // Distinct alphas: of a run of equal alphas keep the last step.
   const steps: number[] = [];
@@ -113,7 +114,7 @@ export function crossValidateTree(
   const weights = new Float64Array(dataset.rows);
   for (let k = 0; k < folds; k++) {
     for (let r = 0; r < dataset.rows; r++) weights[r] = fold[r] === k ? 0 : 1;
-    const foldTree = growTree({ dataset, bins, weights }, options.grow);
+    const foldTree = growTree({ dataset, bins, weights, order }, options.grow);
     scoreFold(foldTree, dataset, fold, k, scoredAt, sum, sumSq);
   }
   const n = dataset.rows;

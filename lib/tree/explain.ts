@@ -86,15 +86,16 @@ export function describeCondition(
   if (Number.isNaN(x)) return `${feature.name} is missing -> ${side}`;
   if (feature.kind === "categorical") {
     const levels = feature.levels ?? [];
-    const inMask: string[] = [];
-    const offset = tree.maskOffset[node];
+    const words = tree.maskWords[tree.feature[node]];
+    // The set for the side taken: left levels at the offset, right ones after.
+    const offset = tree.maskOffset[node] + (left ? 0 : words);
+    const inSet: string[] = [];
     for (let code = 0; code < levels.length; code++) {
-      const bit = (tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1;
-      if ((bit === 1) === left) inMask.push(levels[code]);
+      if ((tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1) inSet.push(levels[code]);
     }
     const level = levels[x] ?? String(x);
-    if (!inMask.includes(level)) return `${feature.name} = ${level} (not seen here) -> ${side}`;
-    return `${feature.name} in {${inMask.join(", ")}}`;
+    if (!inSet.includes(level)) return `${feature.name} = ${level} (not seen here) -> ${side}`;
+    return `${feature.name} in {${inSet.join(", ")}}`;
   }
   const t = tree.threshold[node];
   if (feature.kind === "ordinal") {

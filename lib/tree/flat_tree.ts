@@ -22,9 +22,13 @@ export interface FlatTree {
   feature: Int32Array;
   /** `x <= threshold` goes left (numeric and ordinal splits); NaN otherwise. */
   threshold: Float64Array;
-  /** Offset into `masks` of the left levels (categorical splits); -1 otherwise. */
+  /**
+   * Offset into `masks` of a categorical split's level sets; -1 otherwise.
+   * At the offset: the levels sent left, then the levels sent right, each
+   * `maskWords[f]` 32-bit words.
+   */
   maskOffset: Int32Array;
-  /** Bit sets of left levels, `maskWords[f]` 32-bit words each. */
+  /** Bit sets of the levels of categorical splits. */
   masks: Uint32Array;
   /** Words per level mask, per feature. */
   maskWords: Int32Array;
@@ -75,8 +79,11 @@ export function goesLeft(tree: FlatTree, node: number, x: number): boolean {
   if (Number.isNaN(x)) return tree.missingLeft[node] === 1;
   const offset = tree.maskOffset[node];
   if (offset < 0) return x <= tree.threshold[node];
-  const word = tree.masks[offset + (x >>> 5)];
-  return ((word >>> (x & 31)) & 1) === 1;
+  const words = tree.maskWords[tree.feature[node]];
+  if (x >= 32 * words) return tree.missingLeft[node] === 1;
+  if (((tree.masks[offset + (x >>> 5)] >>> (x & 31)) & 1) === 1) return true;
+  if (((tree.masks[offset + words + (x >>> 5)] >>> (x & 31)) & 1) === 1) return false;
+  return tree.missingLeft[node] === 1;
 }
 
 /**

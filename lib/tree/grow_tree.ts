@@ -64,6 +64,45 @@ export interface GrowInput {
   bins: FeatureBins[];
   /** Weight per row (e.g. bootstrap counts); rows of weight 0 are left out. Default 1. */
   weights?: Float64Array;
+  /** The dataset's `canonicalRowOrder`, when already computed (saves a sort per tree). */
+  order?: Int32Array;
+}
+
+/**
+ * An order of the rows that does not depend on where they stand in the
+ * table: by target, then by each feature's value (missing last), then by
+ * position only among rows equal in all of these. Sums are accumulated in
+ * this order, so that shuffling the table's rows gives a bit-identical tree.
+ *
+ * @example
+ * ```ts
+ * import { canonicalRowOrder } from "./grow_tree.ts";
+ * const order = canonicalRowOrder({
+ *   rows: 3,
+ *   features: [],
+ *   target: { kind: "regression", name: "y", values: new Float64Array([3, 1, 2]) },
+ * });
+ * console.assert(order.join() === "1,2,0");
+ * ```
+ */
+export function canonicalRowOrder(dataset: Dataset): Int32Array {
+  const y = dataset.target.values;
+  const features = dataset.features.map((f) => f.values);
+  const order = Array.from({ length: dataset.rows }, (_, i) => i);
+  const compare = (a: number, b: number) => {
+    if (y[a] !== y[b]) return y[a] - y[b];
+    for (const values of features) {
+      const x = values[a];
+      const z = values[b];
+      if (x === z || (x !== x && z !== z)) continue;
+      if (x !== x) return 1;
+      if (z !== z) return -1;
+      return x - z;
+    }
+    return a - b;
+  };
+  order.sort(compare);
+  return Int32Array.from(order);
 }
 
 // A node whose impurity is at most this is pure (scikit-learn's EPSILON,
@@ -113,8 +152,9 @@ interface Best {
   proxy: number;
   feature: number;
   threshold: number;
-  /** Bin ids going left (categorical), or the last left bin (threshold splits). */
+  /** Bin ids going left and right (categorical splits; levels absent from the node in neither). */
   leftBins: number[];
+  rightBins: number[];
   lastLeftBin: number;
   missingLeft: number; // 1 left, 0 right, -1 decide by weight
   leftN: number;
@@ -186,8 +226,11 @@ class Grower {
       if (this.w[r] > 0) kept++;
       else if (!(this.w[r] === 0)) throw new RangeError(`weight of row ${r} is ${this.w[r]}`);
     }
+    const order = data.order ?? canonicalRowOrder(dataset);
+    if (order.length !== n) throw new RangeError(`order has ${order.length} entries for ${n} rows`);
     this.index = new Int32Array(kept);
-    for (let r = 0, i = 0; r < n; r++) {
+    for (let j = 0, i = 0; j < n; j++) {
+      const r = order[j];
       if (this.w[r] > 0) {
         this.index[i++] = r;
         total += this.w[r];
@@ -267,17 +310,22 @@ class Grower {
     let impurity: number;
     if (this.regression) {
       let sum = 0;
-      let sq = 0;
       for (let i = start; i < end; i++) {
         const r = index[i];
-        const wy = w[r] * this.y[r];
         weight += w[r];
-        sum += wy;
-        sq += wy * this.y[r];
+        sum += w[r] * this.y[r];
       }
       const mean = sum / weight;
+      // Two passes, so that a node whose targets are all equal has impurity
+      // exactly 0 (the one-pass form leaves rounding of about 1e-14).
+      let ss = 0;
+      for (let i = start; i < end; i++) {
+        const r = index[i];
+        const d = this.y[r] - mean;
+        ss += w[r] * d * d;
+      }
       values[0] = mean;
-      impurity = sq / weight - mean * mean;
+      impurity = ss / weight;
     } else {
       for (let i = start; i < end; i++) {
         const r = index[i];
@@ -310,9 +358,12 @@ class Grower {
     nodes.missingLeft[id] = missingLeft;
     const words = this.maskWords[best.feature];
     if (words > 0) {
+      // Two bit sets: the levels sent left, then those sent right. A level in
+      // neither was absent from the node and follows the missing direction.
       nodes.maskOffset[id] = nodes.masks.length;
-      const mask = new Array<number>(words).fill(0);
+      const mask = new Array<number>(2 * words).fill(0);
       for (const bin of best.leftBins) mask[bin >>> 5] |= 1 << (bin & 31);
+      for (const bin of best.rightBins) mask[words + (bin >>> 5)] |= 1 << (bin & 31);
       for (const word of mask) nodes.masks.push(word >>> 0);
     } else {
       nodes.threshold[id] = best.threshold;
@@ -516,6 +567,7 @@ class Grower {
         best.lastLeftBin = lastLeft;
         if (categorical) {
           best.leftBins = Array.from(order.subarray(0, i + 1), (j) => this.cBin[j]);
+          best.rightBins = Array.from(order.subarray(i + 1, m), (j) => this.cBin[j]);
         } else {
           // As scikit-learn: the midpoint, computed as a/2 + b/2.
           const bins = this.data.bins[f];
@@ -606,6 +658,7 @@ class Grower {
         feature: -1,
         threshold: NaN,
         leftBins: [],
+        rightBins: [],
         lastLeftBin: -1,
         missingLeft: side,
         leftN: nl,
@@ -638,7 +691,10 @@ class Grower {
       if (found !== undefined) {
         best = found;
         best.feature = f;
-        for (let i = 0; i < m - 1; i++) if ((mask >>> i) & 1) best.leftBins.push(this.cBin[i]);
+        for (let i = 0; i < m; i++) {
+          if (i < m - 1 && (mask >>> i) & 1) best.leftBins.push(this.cBin[i]);
+          else best.rightBins.push(this.cBin[i]);
+        }
       }
     }
     return best;

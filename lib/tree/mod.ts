@@ -16,7 +16,7 @@ export {
   predictRows,
   treeDepth,
 } from "./flat_tree.ts";
-export { type GrowInput, type GrowOptions, growTree } from "./grow_tree.ts";
+export { canonicalRowOrder, type GrowInput, type GrowOptions, growTree } from "./grow_tree.ts";
 export {
   PRUNE_TOLERANCE,
   pruneTree,
