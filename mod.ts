@@ -5,9 +5,10 @@
  *
  * @example Load a pay table and read its schema
  * ```ts
+ * import assert from "node:assert/strict";
  * import { describeSchema, loadTable } from "./mod.ts";
  * const table = loadTable("level,pay\nL1,50000\nL2,61000\nL1,52000\n", { target: "pay" });
- * console.assert(describeSchema(table).columns[0].type === "ordinal");
+ * assert(describeSchema(table).columns[0].type === "ordinal");
  * ```
  *
  * @module
@@ -25,3 +26,10 @@ export {
 } from "./lib/dataset/make_dataset.ts";
 export * from "./lib/tree/mod.ts";
 export { makeRng, type Rng, shuffle } from "./lib/random.ts";
+export { bootstrapCounts, treeSeed } from "./lib/ensemble/bootstrap.ts";
+export {
+  type Ensemble,
+  type EnsembleOptions,
+  fitEnsemble,
+  type PruneMode,
+} from "./lib/ensemble/fit_ensemble.ts";

@@ -25,9 +25,10 @@ export interface DataErrorLocation {
  *
  * @example Raising and reading a data error
  * ```ts
+ * import assert from "node:assert/strict";
  * import { DataError } from "./errors.ts";
  * const error = new DataError('line 12 has "n/a", not a number', { line: 12, column: "pay" });
- * console.assert(error.location.line === 12);
+ * assert(error.location.line === 12);
  * ```
  */
 export class DataError extends Error {
@@ -51,9 +52,10 @@ export class DataError extends Error {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { OptionError } from "./errors.ts";
  * const error = new OptionError("--target: no column named \"salry\"");
- * console.assert(error.name === "OptionError");
+ * assert(error.name === "OptionError");
  * ```
  */
 export class OptionError extends Error {

@@ -17,14 +17,18 @@ export type Rng = ReturnType<typeof xoroshiro128plus>;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { makeRng, randomInt } from "./random.ts";
  * const a = makeRng(42);
  * const b = makeRng(42);
- * console.assert(randomInt(a, 0, 99) === randomInt(b, 0, 99));
+ * assert(randomInt(a, 0, 99) === randomInt(b, 0, 99));
  * ```
  */
 export function makeRng(seed: number): Rng {
-  return xoroshiro128plus(seed | 0);
+  if (!Number.isInteger(seed) || seed < -(2 ** 31) || seed >= 2 ** 31) {
+    throw new RangeError(`a seed must be a whole number from -2^31 to 2^31 - 1, got ${seed}`);
+  }
+  return xoroshiro128plus(seed);
 }
 
 /** A uniform integer in `[low, high]` (both included), advancing `rng`. */
@@ -37,9 +41,10 @@ export function randomInt(rng: Rng, low: number, high: number): number {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { makeRng, shuffle } from "./random.ts";
  * const order = shuffle([0, 1, 2, 3], makeRng(1));
- * console.assert(order.slice().sort().join() === "0,1,2,3");
+ * assert(order.slice().sort().join() === "0,1,2,3");
  * ```
  */
 export function shuffle<T extends { length: number; [i: number]: unknown }>(array: T, rng: Rng): T {

@@ -31,8 +31,6 @@ export function buildProgram(terminal: Terminal): Command {
         "Pay data never leaves this machine.",
     )
     .version(VERSION, "-V, --version", "print paygrove's version");
-  // Until the guided flow exists, the bare command explains itself.
-  program.action(() => program.outputHelp());
   configure(program, terminal);
   const schema = schemaCommand(terminal) as unknown as Command;
   configure(schema, terminal);
@@ -49,6 +47,10 @@ function configure(command: Command, terminal: Terminal): void {
     .configureOutput({
       writeOut: (text) => terminal.out(text.replace(/\n$/, "")),
       writeErr: (text) => terminal.err(text.replace(/\n$/, "")),
+      // Our own decision, so that commander does not probe a dozen
+      // environment variables (each a Deno permission prompt on a terminal).
+      getOutHasColors: () => terminal.style.enabled,
+      getErrHasColors: () => terminal.errStyle.enabled,
     })
     .exitOverride();
 }
@@ -62,6 +64,11 @@ function configure(command: Command, terminal: Terminal): void {
  */
 export async function run(args: string[], terminal: Terminal): Promise<number> {
   const program = buildProgram(terminal);
+  // Until the guided flow exists, the bare command explains itself.
+  if (args.length === 0) {
+    program.outputHelp();
+    return EXIT.ok;
+  }
   try {
     await program.parseAsync(args, { from: "user" });
     return EXIT.ok;

@@ -84,11 +84,12 @@ function localeTag(text: string): string {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { Command } from "@commander-js/extra-typings";
  * import { withTableFlags } from "./table_flags.ts";
  * const command = withTableFlags(new Command("x")).exitOverride();
  * command.parse(["--decimal", ","], { from: "user" });
- * console.assert(command.opts().decimal === ",");
+ * assert(command.opts().decimal === ",");
  * ```
  */
 export function withTableFlags<A extends unknown[], O extends Record<string, unknown>>(
@@ -118,7 +119,7 @@ export function withTableFlags<A extends unknown[], O extends Record<string, unk
     .option("--encoding <label>", "text encoding of the file, e.g. windows-1252", "utf-8")
     .option(
       "--missing <list>",
-      "comma-separated texts that mean missing (default: NA,N/A,null,-; an empty cell always does)",
+      "comma-separated texts that mean missing (default: NA,N/A,#N/A,NaN,null,-; an empty cell always does)",
       list,
     )
     .option(
@@ -169,9 +170,10 @@ export interface TableFlags {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { loadOptions } from "./table_flags.ts";
  * const options = loadOptions({ decimal: ",", encoding: "utf-8", target: "pay" }, "t.csv");
- * console.assert(options.decimal === "," && options.target === "pay" && options.file === "t.csv");
+ * assert(options.decimal === "," && options.target === "pay" && options.file === "t.csv");
  * ```
  */
 export function loadOptions(flags: TableFlags, file: string): LoadTableOptions {

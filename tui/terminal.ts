@@ -62,10 +62,11 @@ export function processTerminal(): Terminal {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { recordingTerminal } from "./terminal.ts";
  * const t = recordingTerminal();
  * t.out("a");
- * console.assert(t.stdout.join("") === "a\n");
+ * assert(t.stdout.join("") === "a\n");
  * ```
  */
 export function recordingTerminal(width = DEFAULT_WIDTH): Terminal & {

@@ -52,12 +52,13 @@ export interface DatasetResult {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { loadTable } from "../table/load_table.ts";
  * import { makeDataset } from "./make_dataset.ts";
  * const table = loadTable("gender,level,pay\nF,L1,50\nM,L2,60\nF,L2,61\n");
  * const { dataset, dropped } = makeDataset(table, { target: "pay" });
- * console.assert(dataset.features.map((f) => f.name).join() === "level");
- * console.assert(dropped[0].name === "gender");
+ * assert(dataset.features.map((f) => f.name).join() === "level");
+ * assert(dropped[0].name === "gender");
  * ```
  */
 export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetResult {

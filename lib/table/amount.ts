@@ -98,10 +98,11 @@ const PLAIN = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { parseNumber } from "./amount.ts";
- * console.assert(parseNumber("1,234.5", ".") === 1234.5);
- * console.assert(parseNumber("1.234,5", ",") === 1234.5);
- * console.assert(parseNumber("1,5", ".") === undefined);
+ * assert(parseNumber("1,234.5", ".") === 1234.5);
+ * assert(parseNumber("1.234,5", ",") === 1234.5);
+ * assert(parseNumber("1,5", ".") === undefined);
  * ```
  */
 export function parseNumber(text: string, decimal: DecimalMark): number | undefined {
@@ -150,11 +151,12 @@ function ungroup(whole: string, separators: string): string | undefined {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { parseAmount } from "./amount.ts";
  * const a = parseAmount("85 000 €", ".");
- * console.assert(a?.value === 85000 && a.currency === "EUR");
- * console.assert(parseAmount("85k", ".")?.value === 85000);
- * console.assert(parseAmount("$42.50/hour", ".")?.period === "hour");
+ * assert(a?.value === 85000 && a.currency === "EUR");
+ * assert(parseAmount("85k", ".")?.value === 85000);
+ * assert(parseAmount("$42.50/hour", ".")?.period === "hour");
  * ```
  */
 export function parseAmount(text: string, decimal: DecimalMark): Amount | undefined {

@@ -52,10 +52,11 @@ export interface SchemaSummary {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { loadTable } from "./load_table.ts";
  * import { describeSchema } from "./describe_schema.ts";
  * const summary = describeSchema(loadTable("level,pay\nL1,50000\nL2,NA\nL1,52000\n"));
- * console.assert(summary.columns[1].missing === 1 && summary.columns[1].max === 52000);
+ * assert(summary.columns[1].missing === 1 && summary.columns[1].max === 52000);
  * ```
  */
 export function describeSchema(table: Table): SchemaSummary {

@@ -13,6 +13,7 @@
 import { DataError, OptionError } from "../errors.ts";
 import { type Amount, type DecimalMark, parseAmount } from "./amount.ts";
 import { isPayName, periodFromName, settleMoney } from "./money.ts";
+import { DEFAULT_MISSING_TOKENS } from "./missing.ts";
 import { ladderOrder } from "./ordinal.ts";
 import { nameWords } from "./protected_names.ts";
 import type { Column, ColumnType, LevelColumn, NumericColumn, PayPeriod } from "./types.ts";
@@ -28,6 +29,8 @@ export interface InferColumnOptions {
   decimal: DecimalMark;
   /** Test for missing cells. */
   isMissing: (text: string) => boolean;
+  /** The texts that mean missing (for messages). */
+  missingTokens?: readonly string[];
   /** A type the user declared. */
   type?: DeclaredType;
   /** A level order the user declared (makes the column ordinal). */
@@ -61,12 +64,13 @@ const collator = new Intl.Collator("en", { numeric: true, sensitivity: "variant"
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { inferColumn } from "./infer_column.ts";
  * import { missingTest } from "./missing.ts";
  * const col = inferColumn("level", ["L2", "L10", "L1"], [2, 3, 4], {
  *   file: "t.csv", decimal: ".", isMissing: missingTest(), protected: false,
  * });
- * console.assert(col.type === "ordinal");
+ * assert(col.type === "ordinal");
  * ```
  */
 export function inferColumn(
@@ -96,8 +100,11 @@ export function inferColumn(
   }
   const failureShare = parsed.failures.length / Math.max(present, 1);
   const distinctNumbers = new Set(parsed.values.filter((v) => !Number.isNaN(v))).size;
+  // A column named as pay that is mostly numbers must be numbers: its stray
+  // text is quoted back rather than the pay becoming levels or identifiers.
+  const payLike = options.type === undefined && isPayName(name) && failureShare < 0.5;
   if (
-    options.type === "numeric" ||
+    options.type === "numeric" || payLike ||
     (present > 0 && failureShare <= FEW_FAILURES && distinctNumbers >= 5)
   ) {
     throw notNumbers(name, parsed.failures, lines, options, cells);
@@ -152,12 +159,20 @@ function notNumbers(
   const commaHint = failures.every((r) => parseAmount(cells[r], otherDecimal) !== undefined)
     ? `; the values read as numbers with --decimal "${otherDecimal}"`
     : "";
-  const hint = options.type === "numeric"
+  // A letter O or l among digits is a common typing slip ("85,0OO").
+  const slip = failures.some((r) => /\d[oOlI]|[oOlI]\d/.test(cells[r]))
+    ? "; a letter O or l typed for a digit?"
+    : "";
+  const hint = options.type === "numeric" || isPayName(name)
     ? ""
     : `; if the column is not numeric, declare it with --type ${name}=categorical`;
+  const tokens = ["empty", ...(options.missingTokens ?? DEFAULT_MISSING_TOKENS)];
+  const said = tokens.length > 1
+    ? `${tokens.slice(0, -1).join(", ")} or ${tokens[tokens.length - 1]}`
+    : tokens[0];
   return new DataError(
     `${options.file}: ${name}: ${shown}${more}, not a number` +
-      `${commaHint}${hint} (missing values may be written as empty, NA, N/A, null or -)`,
+      `${commaHint}${slip}${hint} (missing values may be written as ${said})`,
     { file: options.file, line: lines[failures[0]], column: name },
   );
 }

@@ -70,13 +70,14 @@ export interface LoadTableOptions {
  *
  * @example Loading a small table
  * ```ts
+ * import assert from "node:assert/strict";
  * import { loadTable } from "./load_table.ts";
  * const table = loadTable("id,level,pay\na1,L2,\"$85,000\"\na2,L1,\"$61,500\"\n", {
  *   types: { id: "identifier" },
  * });
  * const pay = table.columns[2];
- * console.assert(pay.type === "numeric" && pay.values[0] === 85000);
- * console.assert(pay.type === "numeric" && pay.money?.currency === "USD");
+ * assert(pay.type === "numeric" && pay.values[0] === 85000);
+ * assert(pay.type === "numeric" && pay.money?.currency === "USD");
  * ```
  */
 export function loadTable(input: Uint8Array | string, options: LoadTableOptions = {}): Table {
@@ -122,6 +123,7 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
       file,
       decimal: options.decimal ?? ".",
       isMissing,
+      missingTokens: options.missing ?? DEFAULT_MISSING_TOKENS,
       // A pay target is declared numeric so that stray text is quoted back.
       type: options.types?.[name] ??
         (name === options.target && targetKind === "numeric" ? "numeric" : undefined),

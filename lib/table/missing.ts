@@ -5,10 +5,11 @@
  */
 
 /**
- * The texts read as missing unless the user gives a list of their own.
- * An empty (or all-space) cell is always missing.
+ * The texts read as missing unless the user gives a list of their own:
+ * R's `NA`, spreadsheet `N/A` and `#N/A`, `NaN` as pandas writes it, `null`
+ * and a dash. An empty (or all-space) cell is always missing.
  */
-export const DEFAULT_MISSING_TOKENS: readonly string[] = ["NA", "N/A", "null", "-"];
+export const DEFAULT_MISSING_TOKENS: readonly string[] = ["NA", "N/A", "#N/A", "NaN", "null", "-"];
 
 /**
  * Builds a test for missing cells. Matching ignores case and surrounding
@@ -19,9 +20,10 @@ export const DEFAULT_MISSING_TOKENS: readonly string[] = ["NA", "N/A", "null", "
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { missingTest } from "./missing.ts";
  * const isMissing = missingTest();
- * console.assert(isMissing("n/a") && isMissing("") && !isMissing("0"));
+ * assert(isMissing("n/a") && isMissing("") && !isMissing("0"));
  * ```
  */
 export function missingTest(

@@ -53,13 +53,17 @@ export const PERIODS_PER_YEAR: Readonly<Record<Exclude<PayPeriod, "hour">, numbe
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { isPayName } from "./money.ts";
- * console.assert(isPayName("base_pay") && !isPayName("payroll_id"));
- * console.assert(!isPayName("years_experience"));
+ * assert(isPayName("base_pay") && !isPayName("payroll_id"));
+ * assert(!isPayName("years_experience"));
  * ```
  */
 export function isPayName(name: string): boolean {
-  return nameWords(name).some((w) => PAY_WORDS.has(w));
+  const words = nameWords(name);
+  if (words.some((w) => PAY_WORDS.has(w))) return true;
+  // "hourly_rate", "day rate", "monthly rate": a rate paid per period.
+  return words.includes("rate") && words.some((w) => w in NAME_PERIODS || w === "day");
 }
 
 /**
@@ -67,8 +71,9 @@ export function isPayName(name: string): boolean {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { periodFromName } from "./money.ts";
- * console.assert(periodFromName("monthly_salary") === "month");
+ * assert(periodFromName("monthly_salary") === "month");
  * ```
  */
 export function periodFromName(name: string): PayPeriod | undefined {
@@ -159,11 +164,29 @@ export function settleMoney(
     }
     currency = wanted;
   } else if (ambiguous && currency !== undefined) {
-    notes.push(`"${column}": the symbol was read as ${currency}; give --currency to say otherwise`);
+    notes.push(`the symbol was read as ${currency}; give --currency to say otherwise`);
   }
 
   let period: PayPeriod | undefined = periods.size === 1 ? [...periods.keys()][0] : undefined;
   const hours = periods.get("hour");
+  if (periods.size > 1 && options.defaultPeriod === undefined) {
+    const unstated: number[] = [];
+    let unstatedCount = 0;
+    for (let r = 0; r < amounts.length; r++) {
+      if (amounts[r] !== undefined && amounts[r]!.period === undefined) {
+        unstatedCount++;
+        if (unstated.length < 5) unstated.push(lines[r]);
+      }
+    }
+    if (unstatedCount > 0) {
+      throw new DataError(
+        `${file}: "${column}" mixes pay periods (${[...periods.keys()].join(", ")}), and ` +
+          `${lineList(unstated, unstatedCount)} state none; give --period ${column}=PERIOD ` +
+          `for the values that do not say`,
+        { file, column, line: unstated[0] },
+      );
+    }
+  }
   if (periods.size > 1 || (hours && options.hoursPerYear !== undefined)) {
     if (hours && options.hoursPerYear === undefined) {
       const others = [...periods].filter(([p]) => p !== "hour");
@@ -185,7 +208,7 @@ export function settleMoney(
     const how = converted.map((p) =>
       p === "hour" ? `hourly x ${options.hoursPerYear} hours` : `per ${p} x ${PERIODS_PER_YEAR[p]}`
     );
-    notes.push(`"${column}": annualised (${how.join(", ")})`);
+    notes.push(`annualised (${how.join(", ")})`);
     period = "year";
   }
   const unit: MoneyUnit = {};
@@ -209,7 +232,9 @@ export function applyFte(
 ): { percent: boolean; madeMissing: number } {
   let max = 0;
   for (let r = 0; r < fte.length; r++) if (fte[r] > max) max = fte[r];
-  const percent = max > 1 && max <= 100;
+  // Percentages when the largest value is about full time (90-100); a column
+  // of weekly hours (up to 40, say) is neither fractions nor percentages.
+  const percent = max >= 90 && max <= 100;
   const limit = percent ? 100 : 1;
   for (let r = 0; r < fte.length; r++) {
     const f = fte[r];
@@ -234,9 +259,20 @@ export function applyFte(
   return { percent, madeMissing };
 }
 
-/** Formats up to four line numbers: "lines 3, 8, 12 and 2 more". */
-export function lineList(lines: readonly number[], shown = 4): string {
+/**
+ * Formats line numbers: "lines 3, 8, 12 and 2 more". `total` is the number
+ * of lines concerned when `lines` holds only the first few.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { lineList } from "./money.ts";
+ * assert(lineList([3, 8], 166) === "lines 3, 8 and 164 more");
+ * ```
+ */
+export function lineList(lines: readonly number[], total = lines.length, shown = 5): string {
   const head = lines.slice(0, shown).join(", ");
-  const more = lines.length > shown ? ` and ${lines.length - shown} more` : "";
-  return `line${lines.length === 1 ? "" : "s"} ${head}${more}`;
+  const listed = Math.min(lines.length, shown);
+  const more = total > listed ? ` and ${total - listed} more` : "";
+  return `line${total === 1 ? "" : "s"} ${head}${more}`;
 }

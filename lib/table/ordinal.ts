@@ -13,9 +13,10 @@ const LADDER = /^([A-Za-z]{1,3})[ _-]?(\d{1,2})$/;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { ladderOrder } from "./ordinal.ts";
- * console.assert(ladderOrder(["L10", "L2", "L1"])?.join() === "L1,L2,L10");
- * console.assert(ladderOrder(["Sales", "Support"]) === undefined);
+ * assert(ladderOrder(["L10", "L2", "L1"])?.join() === "L1,L2,L10");
+ * assert(ladderOrder(["Sales", "Support"]) === undefined);
  * ```
  */
 export function ladderOrder(levels: readonly string[]): string[] | undefined {

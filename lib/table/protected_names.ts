@@ -50,8 +50,9 @@ const PHRASES = ["national origin", "country of origin", "sexual orientation"];
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { nameWords } from "./protected_names.ts";
- * console.assert(nameWords("employeeAge_band").join(" ") === "employee age band");
+ * assert(nameWords("employeeAge_band").join(" ") === "employee age band");
  * ```
  */
 export function nameWords(name: string): string[] {
@@ -68,10 +69,11 @@ export function nameWords(name: string): string[] {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { isProtectedName } from "./protected_names.ts";
- * console.assert(isProtectedName("Gender"));
- * console.assert(isProtectedName("date_of_birth"));
- * console.assert(!isProtectedName("wage") && !isProtectedName("Essex_site"));
+ * assert(isProtectedName("Gender"));
+ * assert(isProtectedName("date_of_birth"));
+ * assert(!isProtectedName("wage") && !isProtectedName("Essex_site"));
  * ```
  */
 export function isProtectedName(name: string): boolean {

@@ -24,11 +24,12 @@ const FAR_OUT = 3;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { loadTable } from "./load_table.ts";
  * const rows = Array.from({ length: 20 }, (_, i) => `${60000 + i * 1000}`);
  * rows.push("85");
  * const table = loadTable("salary\n" + rows.join("\n"));
- * console.assert(table.warnings.some((w) => w.kind === "unit-slip"));
+ * assert(table.warnings.some((w) => w.kind === "unit-slip"));
  * ```
  */
 export function findQualityWarnings(table: Table): QualityWarning[] {
@@ -70,7 +71,7 @@ function duplicateIds(name: string, values: readonly string[], table: Table): Qu
     count,
     lines,
     message: `"${name}": ${count} identifier${count === 1 ? " repeats" : "s repeat"} an earlier ` +
-      `row (${lineList(lines)})`,
+      `row (${lineList(lines, count)})`,
   }];
 }
 
@@ -109,7 +110,7 @@ function payChecks(column: NumericColumn, sorted: Float64Array, table: Table): Q
       lines: nonPositive,
       message: `"${column.name}": ${nonPositiveCount} value${
         nonPositiveCount === 1 ? " is" : "s are"
-      } zero or negative (${lineList(nonPositive)})`,
+      } zero or negative (${lineList(nonPositive, nonPositiveCount)})`,
     });
   }
   if (slipCount > 0) {
@@ -120,7 +121,7 @@ function payChecks(column: NumericColumn, sorted: Float64Array, table: Table): Q
       lines: slips,
       message: `"${column.name}": ${slipCount} value${slipCount === 1 ? " is" : "s are"} about ` +
         `1,000x or 12x below the median ${formatPlain(median)}: thousands typed as units, or ` +
-        `monthly pay among annual? (${lineList(slips)})`,
+        `monthly pay among annual? (${lineList(slips, slipCount)}); they are kept as they are`,
     });
   }
   return warnings;
@@ -169,9 +170,12 @@ function farOut(
     column: column.name,
     count,
     lines,
-    message: `"${column.name}": ${count} value${count === 1 ? " lies" : "s lie"} outside ` +
-      `[${formatPlain(low)}, ${formatPlain(high)}], 3 interquartile ranges beyond the quartiles` +
-      `${logScale ? " of the logs" : ""} (${lineList(lines)})`,
+    message: `"${column.name}": ${count} value${count === 1 ? " is" : "s are"} far from the ` +
+      `rest, below ${formatPlain(low)} or above ${formatPlain(high)} (${
+        lineList(lines, count)
+      }); ` +
+      `worth a check, they are kept (bounds: 3 interquartile ranges beyond the quartiles` +
+      `${logScale ? " of log pay" : ""})`,
   };
 }
 
@@ -200,7 +204,7 @@ function duplicateRows(table: Table): QualityWarning | undefined {
     count,
     lines,
     message: `${count} row${count === 1 ? " repeats" : "s repeat"} an earlier row in every ` +
-      `column (${lineList(lines)})` +
+      `column (${lineList(lines, count)})` +
       (table.columns.some((c) => c.type === "identifier")
         ? ""
         : "; with no identifier column, different people with the same record look alike"),
@@ -281,5 +285,5 @@ export function quantile(sorted: ArrayLike<number>, q: number): number {
 }
 
 function formatPlain(value: number): string {
-  return Number(value.toPrecision(6)).toLocaleString("en-US");
+  return Number(value.toPrecision(4)).toLocaleString("en-US");
 }

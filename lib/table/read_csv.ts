@@ -7,7 +7,7 @@
  */
 
 import { CsvError, parse } from "csv-parse/sync";
-import { DataError } from "../errors.ts";
+import { DataError, OptionError } from "../errors.ts";
 
 /** Options for {@linkcode readCsv}. */
 export interface ReadCsvOptions {
@@ -43,9 +43,10 @@ const RAGGED_SHOWN = 5;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { decodeText } from "./read_csv.ts";
  * const bytes = new Uint8Array([0xef, 0xbb, 0xbf, 0x61]);
- * console.assert(decodeText(bytes) === "a");
+ * assert(decodeText(bytes) === "a");
  * ```
  */
 export function decodeText(bytes: Uint8Array, encoding = "utf-8", file = "input"): string {
@@ -66,7 +67,9 @@ export function decodeText(bytes: Uint8Array, encoding = "utf-8", file = "input"
   try {
     decoder = new TextDecoder(encoding, { fatal: true, ignoreBOM: false });
   } catch {
-    throw new DataError(`unknown text encoding "${encoding}"`, { file });
+    throw new OptionError(
+      `--encoding: unknown text encoding "${encoding}" (e.g. utf-8, windows-1252, iso-8859-15)`,
+    );
   }
   try {
     return decoder.decode(bytes);
@@ -94,8 +97,9 @@ function countLines(text: string, end: number): number {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { detectDelimiter } from "./read_csv.ts";
- * console.assert(detectDelimiter("a;b;c\n1,5;2;3\n") === ";");
+ * assert(detectDelimiter("a;b;c\n1,5;2;3\n") === ";");
  * ```
  */
 export function detectDelimiter(text: string): string {
@@ -136,9 +140,10 @@ export function detectDelimiter(text: string): string {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { readCsv } from "./read_csv.ts";
  * const raw = readCsv('id,pay\n1,"85,000"\n');
- * console.assert(raw.cells[1][0] === "85,000" && raw.lines[0] === 2);
+ * assert(raw.cells[1][0] === "85,000" && raw.lines[0] === 2);
  * ```
  */
 export function readCsv(text: string, options: ReadCsvOptions = {}): RawColumns {
@@ -180,12 +185,16 @@ export function readCsv(text: string, options: ReadCsvOptions = {}): RawColumns 
   }
   if (header === undefined) throw new DataError(`${file} is empty`, { file });
   if (raggedCount > 0) {
-    const shown = ragged.map((r) => `line ${r.line} (${r.fields})`).join(", ");
+    const shown = ragged.map((r) => `line ${r.line} has ${r.fields}`).join(", ");
     const more = raggedCount > ragged.length ? `, and ${raggedCount - ragged.length} more` : "";
+    const fields = `${header.length} field${header.length === 1 ? "" : "s"}`;
     throw new DataError(
       `${file}: ${raggedCount} row${raggedCount === 1 ? " does" : "s do"} not have the ` +
-        `${header.length} fields of the header: ${shown}${more}` +
-        (options.delimiter ? "" : ` (delimiter detected: ${describeDelimiter(delimiter)})`),
+        `${fields} of the header: ${shown}${more}` +
+        (options.delimiter
+          ? ""
+          : ` (delimiter detected: ${describeDelimiter(delimiter)}; give --delimiter if the ` +
+            `file uses another)`),
       { file, line: ragged[0].line },
     );
   }

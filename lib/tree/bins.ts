@@ -33,13 +33,14 @@ export interface FeatureBins {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { binFeatures } from "./bins.ts";
  * const bins = binFeatures({
  *   rows: 4,
  *   features: [{ name: "x", kind: "numeric", values: new Float64Array([3, 1, NaN, 3]) }],
  *   target: { kind: "regression", name: "y", values: new Float64Array(4) },
  * });
- * console.assert(bins[0].count === 2 && [...bins[0].ids].join() === "1,0,2,1");
+ * assert(bins[0].count === 2 && [...bins[0].ids].join() === "1,0,2,1");
  * ```
  */
 export function binFeatures(dataset: Dataset): FeatureBins[] {

@@ -17,7 +17,7 @@
 import type { Dataset } from "../dataset/types.ts";
 import { makeRng, shuffle } from "../random.ts";
 import { binFeatures, type FeatureBins } from "./bins.ts";
-import { type FlatTree, pathOfRow } from "./flat_tree.ts";
+import { type FlatTree, pathOfRow, predictedClass } from "./flat_tree.ts";
 import { canonicalRowOrder, type GrowOptions, growTree } from "./grow_tree.ts";
 import { PRUNE_TOLERANCE, pruningPath, sameAlpha, subtreeAfter } from "./prune.ts";
 
@@ -56,6 +56,10 @@ export interface AlphaCandidate {
   cvError: number;
   /** Standard error of `cvError`. */
   cvSe: number;
+  /** Regression: the root of `cvError` (the cross-validated RMSE). */
+  cvRmse: number;
+  /** Regression: its standard error by the delta method, `cvSe / (2 cvRmse)`. */
+  cvRmseSe: number;
 }
 
 /** The result of {@linkcode crossValidateTree}. */
@@ -79,9 +83,21 @@ export interface CrossValidatedTree {
  * reference tree at the chosen alpha.
  *
  * @example
- * ```ts ignore
- * const result = crossValidateTree(dataset, { folds: 10, seed: 7 });
- * const { alpha, cvError, cvSe } = result.candidates[result.chosen];
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { crossValidateTree, leafCount } from "../../mod.ts";
+ * const years = Array.from({ length: 40 }, (_, i) => i % 20);
+ * const dataset = {
+ *   rows: 40,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: {
+ *     kind: "regression" as const,
+ *     name: "pay",
+ *     values: Float64Array.from(years, (y, i) => (y < 10 ? 50 : 80) + (i % 3)),
+ *   },
+ * };
+ * const result = crossValidateTree(dataset, { folds: 5, seed: 7, grow: { minLeaf: 2 } });
+ * assert(leafCount(result.tree) === 2); // the one real step in pay
  * ```
  */
 export function crossValidateTree(
@@ -115,7 +131,7 @@ export function crossValidateTree(
   for (let k = 0; k < folds; k++) {
     for (let r = 0; r < dataset.rows; r++) weights[r] = fold[r] === k ? 0 : 1;
     const foldTree = growTree({ dataset, bins, weights, order }, options.grow);
-    scoreFold(foldTree, dataset, fold, k, scoredAt, sum, sumSq);
+    scoreSubtrees(foldTree, dataset, (r) => fold[r] === k, scoredAt, sum, sumSq);
   }
   const n = dataset.rows;
   const candidates: AlphaCandidate[] = alphas.map((alpha, j) => {
@@ -128,6 +144,8 @@ export function crossValidateTree(
       risk: path.risks[steps[j]],
       cvError: mean,
       cvSe: Math.sqrt(variance / n),
+      cvRmse: Math.sqrt(mean),
+      cvRmseSe: mean > 0 ? Math.sqrt(variance / n) / (2 * Math.sqrt(mean)) : 0,
     };
   });
   let best = 0;
@@ -148,16 +166,21 @@ export function crossValidateTree(
   return { fullTree, candidates, chosen, best, tree, fold };
 }
 
-// Adds the held-out losses of one fold at every scored alpha. Rather than
-// building a subtree per alpha, each held-out row walks the fold tree once;
-// the node that is its leaf in a subtree is the first node on its path that
-// the pruning has collapsed by then, which moves up the path as alpha grows.
-function scoreFold(
+/**
+ * Adds the losses of held-out rows under the subtrees of `foldTree` at each
+ * scored alpha to `sum` and `sumSq` (squared error, or 0/1 for classes).
+ * Rather than building a subtree per alpha, each held-out row walks the tree
+ * once: its leaf in a subtree is the first node on its path that the pruning
+ * has collapsed by then, which moves up the path as alpha grows.
+ *
+ * @param heldOut Whether a row is scored.
+ * @param scoredAt Alphas in increasing order.
+ */
+export function scoreSubtrees(
   foldTree: FlatTree,
   dataset: Dataset,
-  fold: Int32Array,
-  k: number,
-  scoredAt: number[],
+  heldOut: (row: number) => boolean,
+  scoredAt: ArrayLike<number>,
   sum: Float64Array,
   sumSq: Float64Array,
 ): void {
@@ -178,10 +201,9 @@ function scoreFold(
     stepAt[j] = s;
   }
   const target = dataset.target;
-  const width = foldTree.width;
   const earliest: number[] = [];
   for (let r = 0; r < dataset.rows; r++) {
-    if (fold[r] !== k) continue;
+    if (!heldOut(r)) continue;
     const nodes = pathOfRow(foldTree, dataset.features, r);
     // earliest[i]: the first step at which some node of path[0..i] is a leaf.
     earliest.length = nodes.length;
@@ -197,25 +219,12 @@ function scoreFold(
         const d = target.values[r] - foldTree.value[leaf];
         lossValue = d * d;
       } else {
-        let best = 0;
-        for (let c = 1; c < width; c++) {
-          if (foldTree.value[leaf * width + c] > foldTree.value[leaf * width + best]) best = c;
-        }
-        lossValue = best === target.values[r] ? 0 : 1;
+        lossValue = predictedClass(foldTree, leaf) === target.values[r] ? 0 : 1;
       }
       sum[j] += lossValue;
       sumSq[j] += lossValue * lossValue;
     }
   }
-}
-
-/** The most probable class at a leaf (lowest class code among ties). */
-export function predictedClass(tree: FlatTree, leaf: number): number {
-  let best = 0;
-  for (let c = 1; c < tree.width; c++) {
-    if (tree.value[leaf * tree.width + c] > tree.value[leaf * tree.width + best]) best = c;
-  }
-  return best;
 }
 
 /**
@@ -226,6 +235,7 @@ export function predictedClass(tree: FlatTree, leaf: number): number {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { assignFolds } from "./cross_validate.ts";
  * const dataset = {
  *   rows: 6,
@@ -233,7 +243,7 @@ export function predictedClass(tree: FlatTree, leaf: number): number {
  *   target: { kind: "regression" as const, name: "y", values: new Float64Array([5, 1, 4, 2, 6, 3]) },
  * };
  * const fold = assignFolds(dataset, 3, 1);
- * console.assert([0, 1, 2].every((k) => fold.filter((f) => f === k).length === 2));
+ * assert([0, 1, 2].every((k) => fold.filter((f) => f === k).length === 2));
  * ```
  */
 export function assignFolds(dataset: Dataset, folds: number, seed: number): Int32Array {

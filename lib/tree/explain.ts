@@ -5,7 +5,7 @@
  */
 
 import type { Feature } from "../dataset/types.ts";
-import { type FlatTree, goesLeft } from "./flat_tree.ts";
+import { type FlatTree, goesLeft, predictedClass } from "./flat_tree.ts";
 
 /** One step of a decision path. */
 export interface PathStep {
@@ -28,8 +28,17 @@ export interface PathStep {
  * ordinal and categorical features) from the root to its leaf.
  *
  * @example
- * ```ts ignore
- * const steps = explainPath(tree, dataset.features, [8, 2, NaN], ["L1", "L2"]);
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, explainPath, growTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "years", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 52, 54, 80, 82, 84]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * const steps = explainPath(tree, dataset.features, [9]);
+ * assert(steps[0].condition === "years > 5.5" && steps[0].value === 82);
  * ```
  */
 export function explainPath(
@@ -54,10 +63,7 @@ export function explainPath(
       value: tree.value[next * tree.width],
     };
     if (tree.task === "classification") {
-      let best = 0;
-      for (let c = 1; c < tree.width; c++) {
-        if (tree.value[next * tree.width + c] > tree.value[next * tree.width + best]) best = c;
-      }
+      const best = predictedClass(tree, next);
       step.value = tree.value[next * tree.width + best];
       step.className = classes?.[best] ?? String(best);
     }
@@ -71,8 +77,16 @@ export function explainPath(
  * The condition of a split in words, for the side taken.
  *
  * @example
- * ```ts ignore
- * describeCondition(tree, 0, { name: "years", kind: "numeric" }, 3, true); // "years <= 8.5"
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, describeCondition, growTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "years", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 52, 54, 80, 82, 84]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * assert(describeCondition(tree, 0, dataset.features[0], 2, true) === "years <= 5.5");
  * ```
  */
 export function describeCondition(
@@ -98,6 +112,8 @@ export function describeCondition(
     return `${feature.name} in {${inSet.join(", ")}}`;
   }
   const t = tree.threshold[node];
+  // A split on whether the value is known: every known value goes left.
+  if (t === Infinity) return `${feature.name} is known`;
   if (feature.kind === "ordinal") {
     const levels = feature.levels ?? [];
     const lastLeft = Math.floor(t);

@@ -55,9 +55,16 @@ export interface FlatTree {
  * @param row Row index into the feature arrays.
  *
  * @example
- * ```ts ignore
- * const leaf = applyRow(tree, dataset.features, 0);
- * const prediction = tree.value[leaf];
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { applyRow, binFeatures, growTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "years", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 52, 54, 80, 82, 84]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * assert(tree.value[applyRow(tree, dataset.features, 4)] === 82);
  * ```
  */
 export function applyRow(tree: FlatTree, features: readonly Feature[], row: number): number {
@@ -90,8 +97,16 @@ export function goesLeft(tree: FlatTree, node: number, x: number): boolean {
  * The leaf of every row.
  *
  * @example
- * ```ts ignore
- * const leaves = applyRows(tree, dataset.features, dataset.rows);
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { applyRows, binFeatures, growTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "years", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 52, 54, 80, 82, 84]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * assert(applyRows(tree, dataset.features, 6).join() === "1,1,1,2,2,2");
  * ```
  */
 export function applyRows(tree: FlatTree, features: readonly Feature[], rows: number): Int32Array {
@@ -101,25 +116,80 @@ export function applyRows(tree: FlatTree, features: readonly Feature[], rows: nu
 }
 
 /**
- * Regression predictions for every row (`value[apply(x)]`).
+ * Predictions for every row (`value[apply(x)]`): one value per row for
+ * regression, the class shares (`width` values per row) for classification.
  *
  * @example
- * ```ts ignore
- * const predictions = predictRows(tree, dataset.features, dataset.rows);
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, predictRows } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "years", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 52, 54, 80, 82, 84]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * assert(predictRows(tree, dataset.features, 6).join() === "52,52,52,82,82,82");
  * ```
  */
 export function predictRows(
   tree: FlatTree,
   features: readonly Feature[],
   rows: number,
-  out: Float64Array = new Float64Array(rows),
+  out: Float64Array = new Float64Array(rows * tree.width),
 ): Float64Array {
-  if (tree.task !== "regression") throw new TypeError("predictRows needs a regression tree");
-  for (let r = 0; r < rows; r++) out[r] = tree.value[applyRow(tree, features, r)];
+  const width = tree.width;
+  if (out.length !== rows * width) {
+    throw new RangeError(`out has ${out.length} entries, need ${rows * width}`);
+  }
+  for (let r = 0; r < rows; r++) {
+    const leaf = applyRow(tree, features, r);
+    for (let c = 0; c < width; c++) out[r * width + c] = tree.value[leaf * width + c];
+  }
   return out;
 }
 
-/** Number of leaves. */
+/**
+ * The most probable class at a node of a classification tree (the lowest
+ * class code among ties).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, predictedClass } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4]) }],
+ *   target: { kind: "classification" as const, name: "level", classes: ["L1", "L2"], values: new Int32Array([0, 1, 1, 1]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 2 });
+ * assert(predictedClass(tree, 0) === 1);
+ * ```
+ */
+export function predictedClass(tree: FlatTree, node: number): number {
+  let best = 0;
+  for (let c = 1; c < tree.width; c++) {
+    if (tree.value[node * tree.width + c] > tree.value[node * tree.width + best]) best = c;
+  }
+  return best;
+}
+
+/**
+ * Number of leaves.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, leafCount, treeDepth } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([1, 2, 3, 4]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * assert(leafCount(tree) === 4 && treeDepth(tree) === 2);
+ * ```
+ */
 export function leafCount(tree: FlatTree): number {
   let leaves = 0;
   for (let n = 0; n < tree.nodeCount; n++) if (tree.left[n] === -1) leaves++;
@@ -139,7 +209,22 @@ export function treeDepth(tree: FlatTree): number {
   return deepest;
 }
 
-/** The node ids from the root to the leaf a row lands in. */
+/**
+ * The node ids from the root to the leaf a row lands in.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, pathOfRow } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([1, 1, 5, 5]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * assert.deepEqual(pathOfRow(tree, dataset.features, 3), [0, 2]);
+ * ```
+ */
 export function pathOfRow(tree: FlatTree, features: readonly Feature[], row: number): number[] {
   const path = [0];
   let node = 0;

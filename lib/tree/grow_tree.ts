@@ -76,13 +76,14 @@ export interface GrowInput {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { canonicalRowOrder } from "./grow_tree.ts";
  * const order = canonicalRowOrder({
  *   rows: 3,
  *   features: [],
  *   target: { kind: "regression", name: "y", values: new Float64Array([3, 1, 2]) },
  * });
- * console.assert(order.join() === "1,2,0");
+ * assert(order.join() === "1,2,0");
  * ```
  */
 export function canonicalRowOrder(dataset: Dataset): Int32Array {
@@ -118,6 +119,7 @@ const SPARSE_RATIO = 8;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { binFeatures } from "./bins.ts";
  * import { growTree } from "./grow_tree.ts";
  * const dataset = {
@@ -126,7 +128,7 @@ const SPARSE_RATIO = 8;
  *   target: { kind: "regression" as const, name: "y", values: new Float64Array([10, 10, 20, 20]) },
  * };
  * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
- * console.assert(tree.threshold[0] === 2.5 && tree.nodeCount === 3);
+ * assert(tree.threshold[0] === 2.5 && tree.nodeCount === 3);
  * ```
  */
 export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree {
@@ -134,8 +136,16 @@ export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree 
   const minSplit = options.minSplit ?? 2 * minLeaf;
   const maxDepth = options.maxDepth ?? Infinity;
   const minDecrease = options.minImpurityDecrease ?? 0;
-  if (!(minLeaf >= 1) || !(minSplit >= 2)) {
-    throw new RangeError(`minLeaf must be >= 1 and minSplit >= 2, got ${minLeaf} and ${minSplit}`);
+  if (!Number.isInteger(minLeaf) || minLeaf < 1 || !Number.isInteger(minSplit) || minSplit < 2) {
+    throw new RangeError(
+      `minLeaf must be a whole number >= 1 and minSplit >= 2, got ${minLeaf} and ${minSplit}`,
+    );
+  }
+  if (!(maxDepth >= 0) || (maxDepth !== Infinity && !Number.isInteger(maxDepth))) {
+    throw new RangeError(`maxDepth must be a whole number >= 0 or Infinity, got ${maxDepth}`);
+  }
+  if (!(minDecrease >= 0)) {
+    throw new RangeError(`minImpurityDecrease must be >= 0, got ${minDecrease}`);
   }
   const grower = new Grower(input, { minLeaf, minSplit, maxDepth, minDecrease });
   return grower.grow();
@@ -157,8 +167,6 @@ interface Best {
   rightBins: number[];
   lastLeftBin: number;
   missingLeft: number; // 1 left, 0 right, -1 decide by weight
-  leftN: number;
-  rightN: number;
   leftW: number;
   rightW: number;
   leftImpurity: number;
@@ -187,7 +195,7 @@ class Grower {
   private cW: Float64Array;
   private cS: Float64Array; // regression: 1 per bin; classification: K per bin
   private cQ: Float64Array;
-  private order: Int32Array;
+  private binOrder: Int32Array;
   private readonly leftS: Float64Array;
   private readonly missS: Float64Array;
   private readonly totS: Float64Array;
@@ -223,8 +231,11 @@ class Grower {
     let kept = 0;
     let total = 0;
     for (let r = 0; r < n; r++) {
-      if (this.w[r] > 0) kept++;
-      else if (!(this.w[r] === 0)) throw new RangeError(`weight of row ${r} is ${this.w[r]}`);
+      const wr = this.w[r];
+      if (!(wr >= 0) || wr === Infinity) throw new RangeError(`weight of row ${r} is ${wr}`);
+      if (wr > 0) kept++;
+      const target = dataset.target.values[r];
+      if (!Number.isFinite(target)) throw new RangeError(`target of row ${r} is ${target}`);
     }
     const order = data.order ?? canonicalRowOrder(dataset);
     if (order.length !== n) throw new RangeError(`order has ${order.length} entries for ${n} rows`);
@@ -250,7 +261,7 @@ class Grower {
     this.cW = new Float64Array(compact);
     this.cS = new Float64Array(compact * k);
     this.cQ = new Float64Array(compact);
-    this.order = new Int32Array(compact);
+    this.binOrder = new Int32Array(compact);
     this.leftS = new Float64Array(k);
     this.missS = new Float64Array(k);
     this.totS = new Float64Array(k);
@@ -400,7 +411,7 @@ class Grower {
       }
       for (let b = 0; b < missingBin; b++) {
         if (hn[b] === 0) continue;
-        m = this.pushCompact(m, b, hn[b], hw[b], hs, hq, b);
+        m = this.pushCompact(m, b, hn[b], hw[b], hs, hq);
       }
       this.missingTotals(hn[missingBin], hw[missingBin], hs, hq, missingBin);
       // Reset only what this node touched.
@@ -475,15 +486,14 @@ class Grower {
 
   private pushCompact(
     m: number,
-    bin: number,
+    b: number,
     n: number,
     wsum: number,
     hs: Float64Array,
     hq: Float64Array,
-    b: number,
   ): number {
     const k = this.k;
-    this.cBin[m] = bin;
+    this.cBin[m] = b;
     this.cN[m] = n;
     this.cW[m] = wsum;
     for (let c = 0; c < k; c++) this.cS[m * k + c] = hs[b * k + c];
@@ -503,18 +513,16 @@ class Grower {
     const features = this.data.dataset.features;
     for (let f = 0; f < features.length; f++) {
       const m = this.collect(f, start, end);
-      if (m < 2) continue;
+      if (m < 2 && !(m === 1 && this.missN > 0)) continue;
       const kind = features[f].kind;
-      if (kind === "categorical") {
-        if (!this.regression && this.k > 2 && m <= EXHAUSTIVE_LEVELS) {
-          best = this.exhaustive(f, m, best);
-          continue;
-        }
-        this.orderLevels(m);
+      if (kind === "categorical" && !this.regression && this.k > 2 && m <= EXHAUSTIVE_LEVELS) {
+        best = this.exhaustive(f, m, best);
       } else {
-        for (let i = 0; i < m; i++) this.order[i] = i;
+        if (kind === "categorical") this.orderLevels(m);
+        else for (let i = 0; i < m; i++) this.binOrder[i] = i;
+        best = this.scan(f, m, kind === "categorical", best);
       }
-      best = this.scan(f, m, kind === "categorical", best);
+      best = this.knownVersusMissing(f, m, kind === "categorical", best);
     }
     return best;
   }
@@ -534,11 +542,11 @@ class Grower {
     }
     for (let i = 0; i < m; i++) {
       key[i] = this.regression ? this.cS[i] / this.cW[i] : this.cS[i * k + cls] / this.cW[i];
-      this.order[i] = i;
+      this.binOrder[i] = i;
     }
-    const order = Array.from(this.order.subarray(0, m));
+    const order = Array.from(this.binOrder.subarray(0, m));
     order.sort((a, b) => key[a] - key[b] || this.cBin[a] - this.cBin[b]);
-    this.order.set(order);
+    this.binOrder.set(order);
   }
 
   private scan(
@@ -547,7 +555,8 @@ class Grower {
     categorical: boolean,
     best: Best | undefined,
   ): Best | undefined {
-    const { k, cN, cW, cS, cQ, order, leftS } = this;
+    const { k, cN, cW, cS, cQ, leftS } = this;
+    const order = this.binOrder;
     this.totals(m);
     let leftN = 0;
     let leftW = 0;
@@ -582,6 +591,29 @@ class Grower {
     return best;
   }
 
+  // Every known value on the left, the missing ones on the right: a split on
+  // whether the value is known at all.
+  private knownVersusMissing(
+    f: number,
+    m: number,
+    categorical: boolean,
+    best: Best | undefined,
+  ): Best | undefined {
+    if (this.missN === 0) return best;
+    this.totals(m);
+    const found = this.evaluate(this.totN, this.totW, this.totQ, best, true);
+    if (found === undefined) return best;
+    found.feature = f;
+    if (categorical) {
+      found.leftBins = Array.from(this.cBin.subarray(0, m));
+      found.rightBins = [];
+    } else {
+      found.lastLeftBin = this.cBin[m - 1];
+      found.threshold = Infinity;
+    }
+    return found;
+  }
+
   private totN = 0;
   private totW = 0;
   private totQ = 0;
@@ -614,12 +646,14 @@ class Grower {
     leftW: number,
     leftQ: number,
     best: Best | undefined,
+    knownLeft = false,
   ): Best | undefined {
     const { k, leftS, missS, totS } = this;
+    if (knownLeft) leftS.set(totS);
     const minLeaf = this.s.minLeaf;
     const missN = this.missN;
     let found: Best | undefined;
-    const sides = missN > 0 ? [1, 0] : [-1];
+    const sides = knownLeft ? [0] : missN > 0 ? [1, 0] : [-1];
     for (const side of sides) {
       const withLeft = side === 1;
       const nl = leftN + (withLeft ? missN : 0);
@@ -661,8 +695,6 @@ class Grower {
         rightBins: [],
         lastLeftBin: -1,
         missingLeft: side,
-        leftN: nl,
-        rightN: nr,
         leftW: wl,
         rightW: wr,
         leftImpurity,

@@ -19,9 +19,10 @@ export interface RegressionMetrics {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { regressionMetrics } from "./metrics.ts";
  * const m = regressionMetrics([1, 2, 3], [1, 2, 4]);
- * console.assert(m.mae === 1 / 3 && m.r2 === 0.5);
+ * assert(m.mae === 1 / 3 && m.r2 === 0.5);
  * ```
  */
 export function regressionMetrics(
@@ -53,8 +54,9 @@ export function regressionMetrics(
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { constantBaseline } from "./metrics.ts";
- * console.assert(constantBaseline([2, 4, 4, 4, 5, 5, 7, 9]).rmse === 2);
+ * assert(constantBaseline([2, 4, 4, 4, 5, 5, 7, 9]).rmse === 2);
  * ```
  */
 export function constantBaseline(actual: ArrayLike<number>): RegressionMetrics {
@@ -81,9 +83,10 @@ export interface ClassificationMetrics {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { classificationMetrics } from "./metrics.ts";
  * const m = classificationMetrics([0, 0, 1, 1], [0, 1, 1, 1], 2);
- * console.assert(m.accuracy === 0.75 && m.recall[0] === 0.5 && m.precision[1] === 2 / 3);
+ * assert(m.accuracy === 0.75 && m.recall[0] === 0.5 && m.precision[1] === 2 / 3);
  * ```
  */
 export function classificationMetrics(
@@ -91,8 +94,20 @@ export function classificationMetrics(
   predicted: ArrayLike<number>,
   classes: number,
 ): ClassificationMetrics {
+  if (actual.length === 0 || predicted.length !== actual.length) {
+    throw new RangeError(
+      `need equal, non-empty arrays, got ${actual.length} and ${predicted.length}`,
+    );
+  }
   const confusion = Array.from({ length: classes }, () => new Array<number>(classes).fill(0));
   let right = 0;
+  for (let i = 0; i < actual.length; i++) {
+    for (const code of [actual[i], predicted[i]]) {
+      if (!Number.isInteger(code) || code < 0 || code >= classes) {
+        throw new RangeError(`class code ${code} at ${i} is not in [0, ${classes})`);
+      }
+    }
+  }
   for (let i = 0; i < actual.length; i++) {
     confusion[actual[i]][predicted[i]]++;
     if (actual[i] === predicted[i]) right++;

@@ -13,6 +13,7 @@ export {
   goesLeft,
   leafCount,
   pathOfRow,
+  predictedClass,
   predictRows,
   treeDepth,
 } from "./flat_tree.ts";
@@ -32,7 +33,7 @@ export {
   type CrossValidatedTree,
   type CrossValidateOptions,
   crossValidateTree,
-  predictedClass,
+  scoreSubtrees,
 } from "./cross_validate.ts";
 export {
   type ClassificationMetrics,

@@ -28,8 +28,9 @@ export const SAME_ALPHA = 1e-12;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { sameAlpha } from "./prune.ts";
- * console.assert(sameAlpha(0, 1e-18, 0.5) && !sameAlpha(0.01, 0.0101, 0.5));
+ * assert(sameAlpha(0, 1e-18, 0.5) && !sameAlpha(0.01, 0.0101, 0.5));
  * ```
  */
 export function sameAlpha(a: number, b: number, rootRisk: number, tolerance = SAME_ALPHA): boolean {
@@ -61,10 +62,20 @@ export interface PruningPath {
  * The full weakest-link pruning path, down to the root alone.
  *
  * @example
- * ```ts ignore
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, pruningPath } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "years", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 52, 54, 80, 82, 84]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
  * const path = pruningPath(tree);
- * const last = path.alphas.length - 1;
- * console.assert(path.leaves[last] === 1);
+ * assert(path.alphas[0] === 0 && path.leaves[path.leaves.length - 1] === 1);
+ * // The last step removes the split between the two pay groups: its alpha
+ * // is the fall in risk, 225 (variance 227.67 at the root, 2.67 within groups).
+ * assert(Math.abs(path.alphas[path.alphas.length - 1] - 225) < 1e-9);
  * ```
  */
 export function pruningPath(tree: FlatTree): PruningPath {
@@ -72,13 +83,23 @@ export function pruningPath(tree: FlatTree): PruningPath {
 }
 
 /**
- * The subtree for complexity `alpha`: every weakest link whose effective
- * alpha is at most `alpha` is collapsed (as scikit-learn's `ccp_alpha`).
- * Returns a new, compact tree; `tree` is not changed.
+ * The subtree for complexity `alpha`: weakest links are collapsed in path
+ * order until one's effective alpha exceeds `alpha` by more than
+ * {@linkcode PRUNE_TOLERANCE} (relative), as scikit-learn's `ccp_alpha` does
+ * up to that tolerance; at alpha 0 the tree is kept whole. Returns a new,
+ * compact tree; `tree` is not changed.
  *
  * @example
- * ```ts ignore
- * const small = pruneTree(tree, 0.01);
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, leafCount, pruneTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "years", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 52, 54, 80, 82, 84]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * assert(leafCount(tree) === 6 && leafCount(pruneTree(tree, 10)) === 2);
  * ```
  */
 export function pruneTree(tree: FlatTree, alpha: number): FlatTree {
@@ -93,6 +114,20 @@ export function pruneTree(tree: FlatTree, alpha: number): FlatTree {
  * The subtree after the first `steps` steps of a path (step 0: the full
  * tree). Faster than {@linkcode pruneTree} when many subtrees of one path
  * are needed.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, leafCount, pruningPath, subtreeAfter } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([1, 2, 9, 10]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * const path = pruningPath(tree);
+ * assert(leafCount(subtreeAfter(tree, path, path.nodes.length - 2)) === 2);
+ * ```
  */
 export function subtreeAfter(tree: FlatTree, path: PruningPath, steps: number): FlatTree {
   if (steps < 0 || steps >= path.nodes.length) {

@@ -87,8 +87,8 @@ Deno.test("bad data exits 1 with one line and no stack trace", async () => {
       [["schema", dir], `paygrove: ${dir} is a folder, not a CSV file\n`],
       [
         ["schema", ragged],
-        `paygrove: ${ragged}: 1 row does not have the 2 fields of the header: line 3 (3) ` +
-        `(delimiter detected: comma)\n`,
+        `paygrove: ${ragged}: 1 row does not have the 2 fields of the header: line 3 has 3 ` +
+        `(delimiter detected: comma; give --delimiter if the file uses another)\n`,
       ],
     ];
     for (const [args, message] of cases) {
@@ -129,6 +129,52 @@ Deno.test("colour on a terminal, none with NO_COLOR", async () => {
   };
   assert.match(await inPty(false), ANSI);
   assert.doesNotMatch(await inPty(true), ANSI);
+});
+
+Deno.test("help on a terminal needs no permission beyond the task's", async () => {
+  const hasScript = await new Deno.Command("script", {
+    args: ["--version"],
+    stdout: "null",
+    stderr: "null",
+  })
+    .output().then((o) => o.success, () => false);
+  if (!hasScript) return;
+  const command = ["deno", ...taskArgs("paygrove"), "--help"].map((w) => `'${w}'`).join(" ");
+  const env: Record<string, string> = {
+    PATH: `${Deno.execPath().replace(/\/[^/]+$/, "")}:${Deno.env.get("PATH")}`,
+    TERM: "xterm-256color",
+  };
+  const output = await new Deno.Command("script", {
+    args: ["-qec", `env -u NO_COLOR ${command}`, "/dev/null"],
+    cwd: ROOT,
+    env,
+    stdout: "piped",
+    stderr: "piped",
+  }).output();
+  const screen = new TextDecoder().decode(output.stdout);
+  assert.equal(output.code, 0, screen);
+  assert.match(screen, /Usage: paygrove/);
+  assert.doesNotMatch(screen, /NotCapable|requests env access|internal error/);
+});
+
+Deno.test("a misspelled command is named, with a suggestion", async () => {
+  const result = await paygrove(["shema", "fixtures/cps1985.csv"]);
+  assert.equal(result.code, 2);
+  assert.match(result.stderr, /unknown command 'shema'/);
+  assert.match(result.stderr, /Did you mean schema\?/);
+  const bare = await paygrove([]);
+  assert.equal(bare.code, 0);
+  assert.match(bare.stdout, /Usage: paygrove/);
+});
+
+Deno.test("an unknown encoding is bad usage", async () => {
+  const result = await paygrove(["schema", "fixtures/cps1985.csv", "--encoding", "latin-9x"]);
+  assert.equal(result.code, 2);
+  assert.equal(
+    result.stderr,
+    'paygrove: --encoding: unknown text encoding "latin-9x" (e.g. utf-8, windows-1252, ' +
+      "iso-8859-15)\n",
+  );
 });
 
 Deno.test("every task runs without network permission", async () => {

@@ -56,7 +56,7 @@ Deno.test("hourly pay is annualised from the command line", async () => {
   assert.equal(doc.columns[0].min, 2080);
   assert.equal(doc.columns[0].max, 44.5 * 2080);
   assert.deepEqual(doc.columns[0].unit, { period: "year" });
-  assert.deepEqual(doc.columns[0].notes, ['"wage": annualised (hourly x 2080 hours)']);
+  assert.deepEqual(doc.columns[0].notes, ["annualised (hourly x 2080 hours)"]);
 });
 
 Deno.test("the library's version is the one in deno.json", async () => {

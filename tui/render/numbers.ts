@@ -29,9 +29,10 @@ const PERIOD_WORDS: Record<string, string> = {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { formatNumber } from "./numbers.ts";
- * console.assert(formatNumber(18777.2) === "18,777.2");
- * console.assert(formatNumber(1234.5, { locale: "de-DE" }) === "1.234,5");
+ * assert(formatNumber(18777.2) === "18,777.2");
+ * assert(formatNumber(1234.5, { locale: "de-DE" }) === "1.234,5");
  * ```
  */
 export function formatNumber(value: number, style: NumberStyle = {}, digits = 4): string {
@@ -45,10 +46,11 @@ export function formatNumber(value: number, style: NumberStyle = {}, digits = 4)
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { formatMoney } from "./numbers.ts";
- * console.assert(formatMoney(85000, { currency: "USD" }) === "$85,000.00");
- * console.assert(formatMoney(85000, { currency: "EUR", locale: "de-DE" }) === "85.000,00\u00a0€");
- * console.assert(formatMoney(522.3, {}) === "522.3");
+ * assert(formatMoney(85000, { currency: "USD" }) === "$85,000.00");
+ * assert(formatMoney(85000, { currency: "EUR", locale: "de-DE" }) === "85.000,00\u00a0€");
+ * assert(formatMoney(522.3, {}) === "522.3");
  * ```
  */
 export function formatMoney(value: number, style: NumberStyle): string {
@@ -60,16 +62,17 @@ export function formatMoney(value: number, style: NumberStyle): string {
 }
 
 /**
- * Describes a money unit in words: `"USD a week"`, `"pay, currency not stated"`.
+ * Describes a money unit in words: `"USD a week"`, `"pay a year, currency not stated"`.
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { describeUnit } from "./numbers.ts";
- * console.assert(describeUnit({ currency: "EUR", period: "year" }) === "EUR a year");
+ * assert(describeUnit({ currency: "EUR", period: "year" }) === "EUR a year");
  * ```
  */
 export function describeUnit(unit: MoneyUnit, currency?: string): string {
-  const parts = [currency ?? unit.currency ?? "pay, currency not stated"];
-  if (unit.period) parts.push(PERIOD_WORDS[unit.period]);
-  return parts.join(" ");
+  const code = currency ?? unit.currency;
+  const per = unit.period ? ` ${PERIOD_WORDS[unit.period]}` : "";
+  return code === undefined ? `pay${per}, currency not stated` : `${code}${per}`;
 }

@@ -29,12 +29,13 @@ export interface SchemaViewOptions {
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { describeSchema, loadTable } from "../../mod.ts";
  * import { renderSchema } from "./schema_view.ts";
  * import { makeStyle } from "./style.ts";
  * const summary = describeSchema(loadTable("level,pay\nL1,50000\nL2,61000\n"));
  * const lines = renderSchema(summary, { file: "t.csv", style: makeStyle(false), width: 80, numbers: {} });
- * console.assert(lines[0].startsWith("t.csv: 2 rows, 2 columns"));
+ * assert(lines[0].startsWith("t.csv: 2 rows, 2 columns"));
  * ```
  */
 export function renderSchema(summary: SchemaSummary, options: SchemaViewOptions): string[] {
@@ -120,14 +121,19 @@ function describeValues(column: ColumnSummary, numbers: NumberStyle): string {
       return `${formatNumber(column.min, numbers)} to ${formatNumber(column.max, numbers)}`;
     }
     case "ordinal":
-      return `${column.levels!.length} levels: ${column.levels!.join(" < ")}`;
+      return `${column.levels!.length} levels: ${column.levels!.map(quoted).join(" < ")}`;
     case "categorical":
-      return `${column.levels!.length} levels: ${column.levels!.join(", ")}`;
+      return `${column.levels!.length} levels: ${column.levels!.map(quoted).join(", ")}`;
     case "identifier":
       return "one per row";
     case "constant":
       return column.value === undefined ? "all missing" : `always "${column.value}"`;
   }
+}
+
+// A level holding the list's separator is quoted: "Austin, TX".
+function quoted(level: string): string {
+  return /[,<]/.test(level) ? `"${level}"` : level;
 }
 
 function clip(text: string, width: number): string {

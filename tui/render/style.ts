@@ -30,9 +30,10 @@ const same = (text: string) => text;
  *
  * @example
  * ```ts
+ * import assert from "node:assert/strict";
  * import { makeStyle } from "./style.ts";
- * console.assert(makeStyle(false).bold("x") === "x");
- * console.assert(makeStyle(true).bold("x") === "\x1b[1mx\x1b[22m");
+ * assert(makeStyle(false).bold("x") === "x");
+ * assert(makeStyle(true).bold("x") === "\x1b[1mx\x1b[22m");
  * ```
  */
 export function makeStyle(enabled: boolean): Style {

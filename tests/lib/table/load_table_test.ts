@@ -171,7 +171,7 @@ Deno.test("hourly pay is annualised with --hours-per-year; mixed periods go to p
   assert.ok(hourly.type === "numeric");
   assert.deepEqual([...hourly.values], [40000, 61000]);
   assert.deepEqual(hourly.money, { period: "year" });
-  assert.deepEqual(hourly.notes, ['"hourly_wage": annualised (hourly x 2000 hours)']);
+  assert.deepEqual(hourly.notes, ["annualised (hourly x 2000 hours)"]);
   const kept = column(rows("hourly_wage", ["20", "30.5"]), "hourly_wage");
   assert.ok(kept.type === "numeric");
   assert.deepEqual(kept.money, { period: "hour" });
@@ -216,9 +216,8 @@ Deno.test("a column numeric but for a few values is refused, quoting them", () =
   values[20] = "tbd";
   dataFails(
     () => loadTable(rows("pay", values), { file: "t.csv" }),
-    't.csv: pay: line 5 has "abc", line 22 has "tbd", not a number; if the column is not ' +
-      "numeric, declare it with --type pay=categorical (missing values may be written as " +
-      "empty, NA, N/A, null or -)",
+    't.csv: pay: line 5 has "abc", line 22 has "tbd", not a number (missing values may be ' +
+      "written as empty, NA, N/A, #N/A, NaN, null or -)",
     5,
   );
   // Declared categorical, the same column loads.
@@ -236,7 +235,7 @@ Deno.test("a column declared numeric must hold numbers", () => {
         types: { pay: "numeric" },
       }),
     't.csv: pay: line 3 has "x", not a number (missing values may be written as empty, NA, ' +
-      "N/A, null or -)",
+      "N/A, #N/A, NaN, null or -)",
     3,
   );
 });
@@ -252,7 +251,7 @@ Deno.test("comma-decimal numbers read without --decimal get a hint", () => {
       }),
     't.csv: rating: line 2 has "0,5", line 3 has "1,5", line 4 has "2,5", line 5 has "3,5", ' +
       'line 6 has "4,5", and 15 more, not a number; the values read as numbers with --decimal "," ' +
-      "(missing values may be written as empty, NA, N/A, null or -)",
+      "(missing values may be written as empty, NA, N/A, #N/A, NaN, null or -)",
   );
 });
 
@@ -273,7 +272,7 @@ Deno.test("the target must be usable", () => {
         targetKind: "numeric",
       }),
     't.csv: pay: line 2 has "high", line 3 has "low", line 4 has "high", not a number ' +
-      "(missing values may be written as empty, NA, N/A, null or -)",
+      "(missing values may be written as empty, NA, N/A, #N/A, NaN, null or -)",
     2,
   );
   dataFails(
@@ -363,7 +362,73 @@ Deno.test("a target named as pay must be numeric even without a declared kind", 
   dataFails(
     () => loadTable(rows("site,salary", ["A,high", "B,low"]), { file: "t.csv", target: "salary" }),
     't.csv: salary: line 2 has "high", line 3 has "low", not a number (missing values may be ' +
-      "written as empty, NA, N/A, null or -)",
+      "written as empty, NA, N/A, #N/A, NaN, null or -)",
     2,
+  );
+});
+
+Deno.test("a pay column with stray text is refused, not made into levels", () => {
+  const values = range(28, (i) => String(41000 + 1500 * i));
+  values[6] = "TBD";
+  values[19] = "TBD";
+  dataFails(
+    () => loadTable(rows("base_pay", values), { file: "t.csv" }),
+    't.csv: base_pay: line 8 has "TBD", line 21 has "TBD", not a number (missing values may be ' +
+      "written as empty, NA, N/A, #N/A, NaN, null or -)",
+    8,
+  );
+  // A typed letter O among digits gets a hint.
+  values[6] = '"85,0OO"';
+  values[19] = "61000";
+  assert.throws(() => loadTable(rows("base_pay", values)), /a letter O or l typed for a digit\?/);
+  // A pay-named column of words stays categorical.
+  assert.equal(column(rows("pay_band", ["A", "B", "A", "C"]), "pay_band").type, "categorical");
+});
+
+Deno.test("spreadsheet and pandas missing markers are missing", () => {
+  const pay = column(rows("salary", ["51000", "#N/A", "NaN", "nan", "62000"]), "salary");
+  assert.ok(pay.type === "numeric");
+  assert.equal(pay.missing, 3);
+});
+
+Deno.test("a column of weekly hours is not taken for FTE percentages", () => {
+  dataFails(
+    () => loadTable(rows("pay,hours", ["40000,20", "60000,40"]), { fte: "hours", file: "t.csv" }),
+    't.csv line 2: "hours" is 20, not a full-time-equivalent fraction between 0 and 1 (or a ' +
+      "percentage up to 100)",
+    2,
+  );
+});
+
+Deno.test("mixed pay periods with values that state none are refused", () => {
+  dataFails(
+    () =>
+      loadTable(rows("pay", quoted("4,000/month", "52,000", "61,000", "70,000/year")), {
+        file: "t.csv",
+      }),
+    't.csv: "pay" mixes pay periods (month, year), and lines 3, 4 state none; give --period ' +
+      "pay=PERIOD for the values that do not say",
+    3,
+  );
+});
+
+Deno.test("rates paid per period are pay", () => {
+  const rate = column(rows("hourly_rate", ["20.5", "31"]), "hourly_rate");
+  assert.ok(rate.type === "numeric");
+  assert.deepEqual(rate.money, { period: "hour" });
+  assert.equal(column(rows("attrition_rate", ["0.1", "0.2"]), "attrition_rate").type, "numeric");
+  const attrition = column(rows("attrition_rate", ["0.1", "0.2"]), "attrition_rate");
+  assert.ok(attrition.type === "numeric" && attrition.money === undefined);
+});
+
+Deno.test("warnings count every line concerned, listing the first five", () => {
+  const values = range(30, (i) => `e${i},${50000 + i}`);
+  for (const i of [3, 9, 12, 15, 20, 25, 28]) values[i] = `e${i - 1},${50000 + i}`;
+  const table = loadTable(rows("id,salary", values), { types: { id: "identifier" } });
+  const found = table.warnings.find((w) => w.kind === "duplicate-identifier");
+  assert.equal(found?.count, 7);
+  assert.equal(
+    found?.message,
+    '"id": 7 identifiers repeat an earlier row (lines 5, 11, 14, 17, 22 and 2 more)',
   );
 });

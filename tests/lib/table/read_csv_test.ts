@@ -70,8 +70,8 @@ Deno.test("ragged rows are refused with the first few line numbers", () => {
   for (let i = 0; i < 6; i++) rows.push("9");
   fails(
     () => readCsv(rows.join("\n"), { file: "t.csv", delimiter: "," }),
-    "t.csv: 8 rows do not have the 3 fields of the header: line 3 (2), line 5 (4), " +
-      "line 6 (1), line 7 (1), line 8 (1), and 3 more",
+    "t.csv: 8 rows do not have the 3 fields of the header: line 3 has 2, line 5 has 4, " +
+      "line 6 has 1, line 7 has 1, line 8 has 1, and 3 more",
     3,
   );
 });

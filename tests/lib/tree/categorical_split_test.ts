@@ -4,7 +4,7 @@
 // every subset of levels, computed here by independent code.
 import assert from "node:assert/strict";
 import fc from "fast-check";
-import { binFeatures, growTree } from "../../../mod.ts";
+import { applyRow, binFeatures, growTree } from "../../../mod.ts";
 import { classification, levels, regression } from "./_small.ts";
 
 // Weighted impurity sums, written directly from the definitions.
@@ -96,5 +96,35 @@ Deno.test("three classes, up to 12 levels: the exhaustive search finds the best 
       assert.ok(Math.abs(rootDecrease(tree) - expected) <= 1e-9 * Math.max(1, expected));
     }),
     { numRuns: 200, seed: 13 },
+  );
+});
+
+Deno.test("many levels: masks over several words route rows as the split said", () => {
+  // 70 levels (three 32-bit mask words), numeric target; every leaf's value
+  // must be the mean of the rows that land in it, computed independently.
+  fc.assert(
+    fc.property(
+      fc.array(fc.tuple(fc.integer({ min: 0, max: 69 }), fc.integer({ min: 0, max: 1000 })), {
+        minLength: 30,
+        maxLength: 200,
+      }),
+      (rows) => {
+        const codes = rows.map((r) => r[0]);
+        const ys = rows.map((r) => r[1]);
+        const dataset = regression([levels("site", codes, 70)], ys);
+        const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 2 });
+        const sums = new Map<number, [number, number]>();
+        for (let r = 0; r < dataset.rows; r++) {
+          const leaf = applyRow(tree, dataset.features, r);
+          const [s, n] = sums.get(leaf) ?? [0, 0];
+          sums.set(leaf, [s + ys[r], n + 1]);
+        }
+        for (const [leaf, [s, n]] of sums) {
+          assert.ok(Math.abs(tree.value[leaf] - s / n) <= 1e-9 * Math.max(1, s / n));
+          assert.equal(tree.rows[leaf], n);
+        }
+      },
+    ),
+    { numRuns: 100, seed: 14 },
   );
 });

@@ -7,6 +7,8 @@ import {
   growTree,
   loadTable,
   makeDataset,
+  makeRng,
+  predictRows,
   regressionMetrics,
 } from "../../../mod.ts";
 import { levels, numeric, regression } from "./_small.ts";
@@ -86,4 +88,56 @@ Deno.test("makeDataset keeps identifiers, constants and protected attributes out
   );
   const levelTarget = makeDataset(table, { target: "level" });
   assert.equal(levelTarget.dataset.target.kind, "classification");
+});
+
+Deno.test("bad arguments are refused with a RangeError", () => {
+  assert.throws(
+    () => classificationMetrics([0, 3], [0, 1], 3),
+    /class code 3 at 1 is not in \[0, 3\)/,
+  );
+  assert.throws(() => classificationMetrics([], [], 2), /non-empty/);
+  assert.throws(() => makeRng(1.5), /whole number/);
+  assert.throws(() => makeRng(2 ** 31), /whole number/);
+  const dataset = regression([numeric("x", [1, 2, 3])], [1, NaN, 3]);
+  assert.throws(() => growTree({ dataset, bins: binFeatures(dataset) }), /target of row 1 is NaN/);
+  const ok = regression([numeric("x", [1, 2, 3])], [1, 2, 3]);
+  const bins = binFeatures(ok);
+  assert.throws(
+    () => growTree({ dataset: ok, bins, weights: new Float64Array([1, Infinity, 1]) }),
+    /weight of row 1/,
+  );
+  assert.throws(
+    () => growTree({ dataset: ok, bins }, { minLeaf: 1.5 }),
+    /minLeaf must be a whole number/,
+  );
+  assert.throws(() => growTree({ dataset: ok, bins }, { maxDepth: -1 }), /maxDepth/);
+});
+
+Deno.test("batch predictions give class shares for a classification tree", () => {
+  const dataset = {
+    rows: 6,
+    features: [numeric("years", [1, 2, 3, 8, 9, 10])],
+    target: {
+      kind: "classification" as const,
+      name: "level",
+      classes: ["L1", "L2"],
+      values: Int32Array.from([0, 0, 1, 1, 1, 1]),
+    },
+  };
+  const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+  // Split at 5.5: left {L1, L1, L2}, right {L2, L2, L2}.
+  assert.deepEqual([...predictRows(tree, dataset.features, 6)], [
+    2 / 3,
+    1 / 3,
+    2 / 3,
+    1 / 3,
+    2 / 3,
+    1 / 3,
+    0,
+    1,
+    0,
+    1,
+    0,
+    1,
+  ]);
 });

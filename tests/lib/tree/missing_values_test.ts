@@ -62,3 +62,25 @@ Deno.test("missing rows count towards the minimum leaf size", () => {
   assert.equal(tree.rows[tree.left[0]], 3);
   assert.equal(tree.value[tree.left[0]], 0);
 });
+
+Deno.test("a split on whether a value is known at all", () => {
+  // Every known x is 1 and every row without x earns 9: the only useful split
+  // is known | missing.
+  const dataset = regression([numeric("x", [1, 1, 1, NaN, NaN, NaN])], [1, 1, 1, 9, 9, 9]);
+  const tree = fit(dataset);
+  assert.equal(tree.nodeCount, 3);
+  assert.equal(tree.threshold[0], Infinity);
+  assert.equal(tree.missingLeft[0], 0);
+  assert.equal(tree.value[tree.left[0]], 1);
+  assert.equal(tree.value[tree.right[0]], 9);
+  assert.deepEqual(explainPath(tree, dataset.features, [3]).map((s) => s.condition), [
+    "x is known",
+  ]);
+  assert.deepEqual(explainPath(tree, dataset.features, [NaN]).map((s) => s.condition), [
+    "x is missing -> right",
+  ]);
+  // The same for a categorical feature, and for a three-class target.
+  const site = regression([levels("site", [0, 0, 0, NaN, NaN, NaN], 2)], [1, 1, 1, 9, 9, 9]);
+  const siteTree = fit(site);
+  assert.equal(siteTree.value[siteTree.right[0]], 9);
+});

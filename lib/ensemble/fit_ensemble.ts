@@ -1,0 +1,153 @@
+/**
+ * A bagged ensemble of pruned trees (Breiman 1996, *Machine Learning* 24):
+ * each tree is grown on a bootstrap resample, given as integer weights (the
+ * table is never copied), then pruned; out-of-bag rows (those a tree never
+ * saw) give honest predictions for every row (Breiman 1996b).
+ *
+ * @module
+ */
+
+import type { Dataset } from "../dataset/types.ts";
+import { binFeatures, type FeatureBins } from "../tree/bins.ts";
+import { scoreSubtrees } from "../tree/cross_validate.ts";
+import { applyRow, type FlatTree } from "../tree/flat_tree.ts";
+import { canonicalRowOrder, type GrowOptions, growTree } from "../tree/grow_tree.ts";
+import { pruneTree, pruningPath, sameAlpha } from "../tree/prune.ts";
+import { bootstrapCounts, treeSeed } from "./bootstrap.ts";
+
+/**
+ * How each tree is pruned: at one alpha for all (`"alpha"`, e.g. the one the
+ * reference tree's cross-validation chose), at the alpha that minimises the
+ * tree's own out-of-bag error (`"oob"`), or not at all (`"none"`).
+ */
+export type PruneMode = "alpha" | "oob" | "none";
+
+/** Options of {@linkcode fitEnsemble}. */
+export interface EnsembleOptions {
+  /**
+   * Number of trees.
+   * @default {200}
+   */
+  trees?: number;
+  /**
+   * Seed of the resamples; the same seed gives the same ensemble.
+   * @default {1}
+   */
+  seed?: number;
+  /** Stopping rules of every tree. */
+  grow?: GrowOptions;
+  /**
+   * How trees are pruned.
+   * @default {"alpha"}
+   */
+  prune?: PruneMode;
+  /** The alpha of `prune: "alpha"`. */
+  alpha?: number;
+  /** Called after each tree with the number done and the total. */
+  onProgress?: (done: number, total: number) => void;
+}
+
+/** A fitted ensemble with its out-of-bag predictions. */
+export interface Ensemble {
+  /** The pruned trees. */
+  trees: FlatTree[];
+  /** The seed of each tree's resample (see `bootstrapCounts`). */
+  seeds: Int32Array;
+  /** The alpha each tree was pruned at (0 when not pruned). */
+  alphas: Float64Array;
+  /** Values per prediction: 1 (regression) or the number of classes. */
+  width: number;
+  /**
+   * Out-of-bag prediction per row (`width` values each): the mean over the
+   * trees that did not draw the row; NaN where every tree drew it.
+   */
+  oob: Float64Array;
+  /** How many trees each row was out of bag for. */
+  oobTrees: Int32Array;
+}
+
+/**
+ * Fits a bagged ensemble.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble } from "./fit_ensemble.ts";
+ * const years = Array.from({ length: 60 }, (_, i) => i % 30);
+ * const dataset = {
+ *   rows: 60,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(years, (y) => 40 + y) },
+ * };
+ * const ensemble = fitEnsemble(dataset, { trees: 20, seed: 3, prune: "none" });
+ * assert(ensemble.trees.length === 20 && ensemble.oobTrees.every((n) => n > 0));
+ * ```
+ */
+export function fitEnsemble(
+  dataset: Dataset,
+  options: EnsembleOptions = {},
+  bins: FeatureBins[] = binFeatures(dataset),
+): Ensemble {
+  const count = options.trees ?? 200;
+  const seed = options.seed ?? 1;
+  const mode = options.prune ?? "alpha";
+  if (!Number.isInteger(count) || count < 1) {
+    throw new RangeError(`trees must be a whole number >= 1, got ${count}`);
+  }
+  if (mode === "alpha" && !(options.alpha !== undefined && options.alpha >= 0)) {
+    throw new RangeError(`prune "alpha" needs an alpha >= 0`);
+  }
+  const width = dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
+  const order = canonicalRowOrder(dataset);
+  const trees: FlatTree[] = [];
+  const seeds = new Int32Array(count);
+  const alphas = new Float64Array(count);
+  const oobSum = new Float64Array(dataset.rows * width);
+  const oobTrees = new Int32Array(dataset.rows);
+  for (let b = 0; b < count; b++) {
+    seeds[b] = treeSeed(seed, b);
+    const weights = bootstrapCounts(dataset.rows, seeds[b]);
+    const grown = growTree({ dataset, bins, weights, order }, options.grow);
+    const alpha = mode === "none"
+      ? 0
+      : mode === "alpha"
+      ? options.alpha!
+      : oobAlpha(grown, dataset, weights);
+    const tree = alpha > 0 ? pruneTree(grown, alpha) : grown;
+    trees.push(tree);
+    alphas[b] = alpha;
+    for (let r = 0; r < dataset.rows; r++) {
+      if (weights[r] !== 0) continue;
+      const leaf = applyRow(tree, dataset.features, r);
+      for (let c = 0; c < width; c++) oobSum[r * width + c] += tree.value[leaf * width + c];
+      oobTrees[r]++;
+    }
+    options.onProgress?.(b + 1, count);
+  }
+  const oob = new Float64Array(dataset.rows * width);
+  for (let r = 0; r < dataset.rows; r++) {
+    for (let c = 0; c < width; c++) {
+      oob[r * width + c] = oobTrees[r] > 0 ? oobSum[r * width + c] / oobTrees[r] : NaN;
+    }
+  }
+  return { trees, seeds, alphas, width, oob, oobTrees };
+}
+
+// The alpha of the tree's own path whose subtree has the lowest error on the
+// tree's out-of-bag rows (the larger alpha among equal errors).
+function oobAlpha(tree: FlatTree, dataset: Dataset, weights: Float64Array): number {
+  const path = pruningPath(tree);
+  const rootRisk = path.risks[path.risks.length - 1];
+  const alphas: number[] = [];
+  for (let s = 0; s < path.alphas.length; s++) {
+    const next = path.alphas[s + 1];
+    if (next !== undefined && sameAlpha(next, path.alphas[s], rootRisk)) continue;
+    alphas.push(path.alphas[s]);
+  }
+  const sum = new Float64Array(alphas.length);
+  const sumSq = new Float64Array(alphas.length);
+  scoreSubtrees(tree, dataset, (r) => weights[r] === 0, alphas, sum, sumSq);
+  let best = 0;
+  for (let j = 1; j < alphas.length; j++) if (sum[j] <= sum[best]) best = j;
+  return alphas[best];
+}

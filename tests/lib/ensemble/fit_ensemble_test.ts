@@ -1,0 +1,77 @@
+import assert from "node:assert/strict";
+import {
+  applyRow,
+  binFeatures,
+  bootstrapCounts,
+  fitEnsemble,
+  growTree,
+  treeSeed,
+} from "../../../mod.ts";
+import { levels, numeric, regression } from "../tree/_small.ts";
+
+// Invented table: pay by years and site, with noise from a fixed sequence.
+function invented(rows: number) {
+  const years = Array.from({ length: rows }, (_, i) => (i * 7) % 25);
+  const site = Array.from({ length: rows }, (_, i) => i % 3);
+  const pay = years.map((y, i) => 45000 + 1800 * y + 6000 * site[i] + ((i * 7919) % 4001) - 2000);
+  return regression([numeric("years", years), levels("site", site, 3)], pay);
+}
+
+Deno.test("the same seed gives a bit-identical ensemble", () => {
+  const dataset = invented(120);
+  const a = fitEnsemble(dataset, { trees: 15, seed: 42, prune: "none" });
+  const b = fitEnsemble(dataset, { trees: 15, seed: 42, prune: "none" });
+  assert.deepEqual(a.seeds, b.seeds);
+  assert.deepEqual(a.oob, b.oob);
+  for (let t = 0; t < a.trees.length; t++) assert.deepEqual(a.trees[t], b.trees[t]);
+  const c = fitEnsemble(dataset, { trees: 15, seed: 43, prune: "none" });
+  assert.notDeepEqual(a.oob, c.oob);
+});
+
+Deno.test("each tree is the tree grown on its regenerated bootstrap counts", () => {
+  const dataset = invented(90);
+  const ensemble = fitEnsemble(dataset, { trees: 5, seed: 9, prune: "none", grow: { minLeaf: 3 } });
+  const bins = binFeatures(dataset);
+  for (let t = 0; t < 5; t++) {
+    assert.equal(ensemble.seeds[t], treeSeed(9, t));
+    const weights = bootstrapCounts(dataset.rows, ensemble.seeds[t]);
+    assert.equal(weights.reduce((x, y) => x + y, 0), dataset.rows);
+    const alone = growTree({ dataset, bins, weights }, { minLeaf: 3 });
+    assert.deepEqual(ensemble.trees[t].value, alone.value);
+  }
+});
+
+Deno.test("out-of-bag predictions average only the trees that did not draw the row", () => {
+  const dataset = invented(80);
+  const ensemble = fitEnsemble(dataset, { trees: 12, seed: 5, prune: "none" });
+  for (let r = 0; r < dataset.rows; r++) {
+    let sum = 0;
+    let n = 0;
+    for (let t = 0; t < 12; t++) {
+      if (bootstrapCounts(dataset.rows, ensemble.seeds[t])[r] !== 0) continue;
+      const tree = ensemble.trees[t];
+      sum += tree.value[applyRow(tree, dataset.features, r)];
+      n++;
+    }
+    assert.equal(ensemble.oobTrees[r], n);
+    if (n > 0) assert.ok(Math.abs(ensemble.oob[r] - sum / n) <= 1e-9 * Math.abs(sum / n));
+    else assert.ok(Number.isNaN(ensemble.oob[r]));
+  }
+  // About (1 - 1/n)^n ~ 36.8% of draws leave a row out: 12 trees -> ~4.4 each.
+  const mean = ensemble.oobTrees.reduce((a, b) => a + b, 0) / dataset.rows;
+  assert.ok(mean > 3 && mean < 6, `mean out-of-bag trees ${mean}`);
+});
+
+Deno.test("pruning modes: one alpha for all, each tree's own out-of-bag alpha, none", () => {
+  const dataset = invented(150);
+  const none = fitEnsemble(dataset, { trees: 8, seed: 2, prune: "none" });
+  const fixed = fitEnsemble(dataset, { trees: 8, seed: 2, prune: "alpha", alpha: 1e6 });
+  const own = fitEnsemble(dataset, { trees: 8, seed: 2, prune: "oob" });
+  for (let t = 0; t < 8; t++) {
+    assert.equal(none.alphas[t], 0);
+    assert.equal(fixed.alphas[t], 1e6);
+    assert.ok(fixed.trees[t].nodeCount <= none.trees[t].nodeCount);
+    assert.ok(own.trees[t].nodeCount <= none.trees[t].nodeCount);
+  }
+  assert.throws(() => fitEnsemble(dataset, { prune: "alpha" }), /needs an alpha/);
+});
