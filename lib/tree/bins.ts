@@ -96,3 +96,30 @@ function binNumeric(values: Float64Array): FeatureBins {
   }
   return { ids, count, lower: Float64Array.from(lower), upper: Float64Array.from(upper) };
 }
+
+const rowMajorCache = new WeakMap<FeatureBins[], Uint32Array>();
+
+/**
+ * Every row's bins for all features side by side (`rows x features`), each
+ * shifted by its feature's offset into one flat histogram. Built once per
+ * set of bins and cached, since every tree of an ensemble reads it.
+ *
+ * @param offsets `offsets[f]`: where feature f's bins start in the flat histogram.
+ */
+export function rowMajorBins(
+  bins: FeatureBins[],
+  rows: number,
+  offsets: Int32Array,
+): Uint32Array {
+  const cached = rowMajorCache.get(bins);
+  if (cached !== undefined && cached.length === rows * bins.length) return cached;
+  const features = bins.length;
+  const out = new Uint32Array(rows * features);
+  for (let f = 0; f < features; f++) {
+    const ids = bins[f].ids;
+    const offset = offsets[f];
+    for (let r = 0; r < rows; r++) out[r * features + f] = offset + ids[r];
+  }
+  rowMajorCache.set(bins, out);
+  return out;
+}

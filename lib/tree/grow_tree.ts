@@ -29,7 +29,7 @@
  */
 
 import type { Dataset } from "../dataset/types.ts";
-import type { FeatureBins } from "./bins.ts";
+import { type FeatureBins, rowMajorBins } from "./bins.ts";
 import type { FlatTree } from "./flat_tree.ts";
 
 /** Stopping rules. */
@@ -184,11 +184,17 @@ class Grower {
   private readonly index: Int32Array;
   private readonly scratch: Int32Array;
   private readonly totalWeight: number;
-  // Per-feature dense histograms (bins + 1 for missing), reused by every node.
-  private readonly histN: Int32Array[];
-  private readonly histW: Float64Array[];
-  private readonly histS: Float64Array[]; // regression: sum w*y; classification: K per bin
-  private readonly histQ: Float64Array[]; // regression: sum w*y^2
+  // Histograms: one flat buffer per node for all features, `stride` numbers
+  // per bin, interleaved so that one update touches one cache line:
+  // regression [rows, w, sum w*y, sum w*y^2], classification
+  // [rows, w, w of class 0, ..., w of class K-1]. A feature's bins start at
+  // offsets[f] (its missing bin is the last).
+  private readonly stride: number;
+  private readonly offsets: Int32Array;
+  private readonly histLength: number;
+  private readonly pool: Float64Array[] = [];
+  private readonly globalBins: Uint32Array;
+  private readonly rowData: Float64Array;
   // Compact list of the non-empty bins of the feature being scanned.
   private cBin: Int32Array;
   private cN: Int32Array;
@@ -250,10 +256,22 @@ class Grower {
     this.totalWeight = total;
     this.scratch = new Int32Array(kept);
     const k = this.k;
-    this.histN = data.bins.map((b) => new Int32Array(b.count + 1));
-    this.histW = data.bins.map((b) => new Float64Array(b.count + 1));
-    this.histS = data.bins.map((b) => new Float64Array((b.count + 1) * k));
-    this.histQ = data.bins.map((b) => new Float64Array(this.regression ? b.count + 1 : 0));
+    const offsets = new Int32Array(data.bins.length + 1);
+    for (let f = 0; f < data.bins.length; f++) offsets[f + 1] = offsets[f] + data.bins[f].count + 1;
+    this.offsets = offsets;
+    this.stride = this.regression ? 4 : 2 + k;
+    this.histLength = offsets[data.bins.length] * this.stride;
+    this.globalBins = rowMajorBins(data.bins, n, offsets);
+    // Each row's weight, weight * y and weight * y^2 side by side.
+    this.rowData = new Float64Array(this.regression ? 3 * n : 0);
+    if (this.regression) {
+      for (let r = 0; r < n; r++) {
+        const wy = this.w[r] * this.y[r];
+        this.rowData[3 * r] = this.w[r];
+        this.rowData[3 * r + 1] = wy;
+        this.rowData[3 * r + 2] = wy * this.y[r];
+      }
+    }
     const widest = Math.max(1, ...data.bins.map((b) => b.count + 1));
     const compact = Math.min(widest, kept + 1);
     this.cBin = new Int32Array(compact);
@@ -275,9 +293,12 @@ class Grower {
     if (this.index.length === 0) {
       throw new RangeError("no rows with positive weight to grow a tree on");
     }
-    // Stack entries: start, end, depth, parent, isLeft (1) / right (0) / root (-1).
+    // Stack entries: start, end, depth, parent, isLeft (1) / right (0) / root
+    // (-1); beside it, each pending node's histogram (null: fill when needed).
     const stack: number[] = [0, this.index.length, 0, -1, -1];
+    const histograms: (Float64Array | null)[] = [null];
     while (stack.length > 0) {
+      let hist = histograms.pop()!;
       const side = stack.pop()!;
       const parent = stack.pop()!;
       const depth = stack.pop()!;
@@ -293,14 +314,23 @@ class Grower {
       if (
         depth >= this.s.maxDepth || rows < this.s.minSplit || rows < 2 * this.s.minLeaf ||
         impurity <= EPSILON
-      ) continue;
-      const best = this.findSplit(start, end);
-      if (best === undefined) continue;
+      ) {
+        this.release(hist);
+        continue;
+      }
+      if (hist === null && this.anyDense(rows)) {
+        hist = this.acquire(rows);
+        this.fill(hist, start, end, rows);
+      }
+      const best = this.findSplit(start, end, hist);
       const weight = this.nodes.weight[id];
-      const improvement = (weight / this.totalWeight) *
+      const improvement = best === undefined ? -Infinity : (weight / this.totalWeight) *
         (impurity - (best.rightW / weight) * best.rightImpurity -
           (best.leftW / weight) * best.leftImpurity);
-      if (improvement + EPSILON < this.s.minDecrease) continue;
+      if (best === undefined || improvement + EPSILON < this.s.minDecrease) {
+        this.release(hist);
+        continue;
+      }
       const missingLeft = best.missingLeft >= 0
         ? best.missingLeft
         : best.leftW >= best.rightW
@@ -308,10 +338,110 @@ class Grower {
         : 0;
       const mid = this.partition(start, end, best, missingLeft);
       this.setSplit(id, best, missingLeft);
+      // The smaller child's histogram is filled from its rows; the larger
+      // child's is the parent's minus the smaller's.
+      const [leftHist, rightHist] = this.childHistograms(hist, start, mid, end);
       stack.push(mid, end, depth + 1, id, 0);
+      histograms.push(rightHist);
       stack.push(start, mid, depth + 1, id, 1);
+      histograms.push(leftHist);
     }
     return this.finish();
+  }
+
+  private childHistograms(
+    parent: Float64Array | null,
+    start: number,
+    mid: number,
+    end: number,
+  ): [Float64Array | null, Float64Array | null] {
+    const leftRows = mid - start;
+    const rightRows = end - mid;
+    const largerRows = Math.max(leftRows, rightRows);
+    if (parent === null || !this.anyDense(largerRows)) {
+      this.release(parent);
+      return [null, null];
+    }
+    const leftSmaller = leftRows <= rightRows;
+    const small = this.acquire(largerRows);
+    if (leftSmaller) this.fill(small, start, mid, largerRows);
+    else this.fill(small, mid, end, largerRows);
+    this.subtract(parent, small, largerRows);
+    return leftSmaller ? [small, parent] : [parent, small];
+  }
+
+  // Whether a feature uses the histogram in a node of this many rows (else
+  // the node's bin ids are sorted).
+  private isDense(f: number, rows: number): boolean {
+    return this.data.bins[f].count <= SPARSE_RATIO * rows;
+  }
+
+  private anyDense(rows: number): boolean {
+    for (let f = 0; f < this.data.bins.length; f++) if (this.isDense(f, rows)) return true;
+    return false;
+  }
+
+  /** A histogram buffer with the ranges of features dense at `rows` zeroed. */
+  private acquire(rows: number): Float64Array {
+    const hist = this.pool.pop() ?? new Float64Array(this.histLength);
+    for (let f = 0; f < this.data.bins.length; f++) {
+      if (!this.isDense(f, rows)) continue;
+      hist.fill(0, this.offsets[f] * this.stride, this.offsets[f + 1] * this.stride);
+    }
+    return hist;
+  }
+
+  private release(hist: Float64Array | null): void {
+    if (hist !== null) this.pool.push(hist);
+  }
+
+  // One pass over the rows adds every dense feature's sums: each row's
+  // global bin ids and its weight data are read once.
+  private fill(hist: Float64Array, start: number, end: number, denseRows: number): void {
+    const features = this.data.bins.length;
+    const dense: number[] = [];
+    for (let f = 0; f < features; f++) if (this.isDense(f, denseRows)) dense.push(f);
+    const { index, globalBins, stride } = this;
+    const nd = dense.length;
+    if (this.regression) {
+      const data = this.rowData;
+      for (let i = start; i < end; i++) {
+        const r = index[i];
+        const wr = data[3 * r];
+        const wy = data[3 * r + 1];
+        const wyy = data[3 * r + 2];
+        const base = r * features;
+        for (let j = 0; j < nd; j++) {
+          const b = globalBins[base + dense[j]] * 4;
+          hist[b]++;
+          hist[b + 1] += wr;
+          hist[b + 2] += wy;
+          hist[b + 3] += wyy;
+        }
+      }
+    } else {
+      const { w, cls } = this;
+      for (let i = start; i < end; i++) {
+        const r = index[i];
+        const wr = w[r];
+        const c = 2 + cls[r];
+        const base = r * features;
+        for (let j = 0; j < nd; j++) {
+          const b = globalBins[base + dense[j]] * stride;
+          hist[b]++;
+          hist[b + 1] += wr;
+          hist[b + c] += wr;
+        }
+      }
+    }
+  }
+
+  private subtract(target: Float64Array, other: Float64Array, denseRows: number): void {
+    for (let f = 0; f < this.data.bins.length; f++) {
+      if (!this.isDense(f, denseRows)) continue;
+      const to = this.offsets[f + 1] * this.stride;
+      for (let i = this.offsets[f] * this.stride; i < to; i++) target[i] -= other[i];
+    }
   }
 
   private addNode(start: number, end: number): number {
@@ -382,49 +512,42 @@ class Grower {
   }
 
   /** Gathers the node's rows of one feature into the compact bin list; returns its length. */
-  private collect(f: number, start: number, end: number): number {
+  private collect(f: number, start: number, end: number, hist: Float64Array | null): number {
     const bins = this.data.bins[f];
     const ids = bins.ids;
     const { index, w, k } = this;
     const missingBin = bins.count;
     const rows = end - start;
-    const hn = this.histN[f];
-    const hw = this.histW[f];
-    const hs = this.histS[f];
-    const hq = this.histQ[f];
     this.missS.fill(0);
     let m = 0;
-    if (bins.count <= SPARSE_RATIO * rows) {
-      for (let i = start; i < end; i++) {
-        const r = index[i];
-        const b = ids[r];
-        const wr = w[r];
-        hn[b]++;
-        hw[b] += wr;
-        if (this.regression) {
-          const wy = wr * this.y[r];
-          hs[b] += wy;
-          hq[b] += wy * this.y[r];
-        } else {
-          hs[b * k + this.cls[r]] += wr;
-        }
-      }
+    if (hist !== null && this.isDense(f, rows)) {
+      const stride = this.stride;
+      const first = this.offsets[f] * stride;
       for (let b = 0; b < missingBin; b++) {
-        if (hn[b] === 0) continue;
-        m = this.pushCompact(m, b, hn[b], hw[b], hs, hq);
-      }
-      this.missingTotals(hn[missingBin], hw[missingBin], hs, hq, missingBin);
-      // Reset only what this node touched.
-      for (let i = start; i < end; i++) {
-        const b = ids[index[i]];
-        hn[b] = 0;
-        hw[b] = 0;
+        const at = first + b * stride;
+        // Counts are exact integers, also after subtraction.
+        if (hist[at] === 0) continue;
+        this.cBin[m] = b;
+        this.cN[m] = hist[at];
+        this.cW[m] = hist[at + 1];
         if (this.regression) {
-          hs[b] = 0;
-          hq[b] = 0;
+          this.cS[m] = hist[at + 2];
+          this.cQ[m] = hist[at + 3];
         } else {
-          for (let c = 0; c < k; c++) hs[b * k + c] = 0;
+          for (let c = 0; c < k; c++) this.cS[m * k + c] = hist[at + 2 + c];
+          this.cQ[m] = 0;
         }
+        m++;
+      }
+      const at = first + missingBin * stride;
+      this.missN = hist[at];
+      this.missW = hist[at + 1];
+      if (this.regression) {
+        this.missS[0] = hist[at + 2];
+        this.missQ = hist[at + 3];
+      } else {
+        for (let c = 0; c < k; c++) this.missS[c] = hist[at + 2 + c];
+        this.missQ = 0;
       }
       return m;
     }
@@ -484,35 +607,11 @@ class Grower {
   private missW = 0;
   private missQ = 0;
 
-  private pushCompact(
-    m: number,
-    b: number,
-    n: number,
-    wsum: number,
-    hs: Float64Array,
-    hq: Float64Array,
-  ): number {
-    const k = this.k;
-    this.cBin[m] = b;
-    this.cN[m] = n;
-    this.cW[m] = wsum;
-    for (let c = 0; c < k; c++) this.cS[m * k + c] = hs[b * k + c];
-    this.cQ[m] = this.regression ? hq[b] : 0;
-    return m + 1;
-  }
-
-  private missingTotals(n: number, wsum: number, hs: Float64Array, hq: Float64Array, b: number) {
-    this.missN = n;
-    this.missW = wsum;
-    this.missQ = this.regression ? hq[b] : 0;
-    for (let c = 0; c < this.k; c++) this.missS[c] = hs[b * this.k + c];
-  }
-
-  private findSplit(start: number, end: number): Best | undefined {
+  private findSplit(start: number, end: number, hist: Float64Array | null): Best | undefined {
     let best: Best | undefined;
     const features = this.data.dataset.features;
     for (let f = 0; f < features.length; f++) {
-      const m = this.collect(f, start, end);
+      const m = this.collect(f, start, end, hist);
       if (m < 2 && !(m === 1 && this.missN > 0)) continue;
       const kind = features[f].kind;
       if (kind === "categorical" && !this.regression && this.k > 2 && m <= EXHAUSTIVE_LEVELS) {
