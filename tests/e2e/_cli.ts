@@ -40,3 +40,36 @@ export async function paygrove(
 
 /** The project root, with a trailing slash. */
 export const ROOT = root;
+
+/** Whether util-linux's `script` is here to give a command a pseudo-terminal. */
+export const HAS_SCRIPT = await new Deno.Command("script", {
+  args: ["--version"],
+  stdout: "null",
+  stderr: "null",
+}).output().then((o) => o.success, () => false);
+
+/**
+ * Runs `paygrove ARGS` on a pseudo-terminal (through `script`), as a person
+ * at a terminal would, and returns the exit status and the screen text.
+ */
+export async function paygroveOnTerminal(
+  args: string[],
+  options: { noColor?: boolean } = {},
+): Promise<{ code: number; screen: string }> {
+  const command = ["deno", ...taskArgs("paygrove"), ...args].map((w) => `'${w}'`).join(" ");
+  const output = await new Deno.Command("script", {
+    args: [
+      "-qec",
+      options.noColor ? `NO_COLOR=1 ${command}` : `env -u NO_COLOR ${command}`,
+      "/dev/null",
+    ],
+    cwd: root,
+    env: {
+      PATH: `${Deno.execPath().replace(/\/[^/]+$/, "")}:${Deno.env.get("PATH")}`,
+      TERM: "xterm-256color",
+    },
+    stdout: "piped",
+    stderr: "piped",
+  }).output();
+  return { code: output.code, screen: new TextDecoder().decode(output.stdout) };
+}

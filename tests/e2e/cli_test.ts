@@ -1,7 +1,7 @@
 // End-to-end checks of the paygrove command: exit statuses, messages and the
 // JSON schema document, run as a user runs it.
 import assert from "node:assert/strict";
-import { paygrove, ROOT, taskArgs } from "./_cli.ts";
+import { HAS_SCRIPT, paygrove, paygroveOnTerminal, ROOT } from "./_cli.ts";
 
 // deno-lint-ignore no-control-regex
 const ANSI = /\x1b\[/;
@@ -104,57 +104,26 @@ Deno.test("bad data exits 1 with one line and no stack trace", async () => {
 
 // `script` (util-linux) gives the command a pseudo-terminal, so colour
 // switches on unless NO_COLOR is set.
-Deno.test("colour on a terminal, none with NO_COLOR", async () => {
-  const hasScript = await new Deno.Command("script", {
-    args: ["--version"],
-    stdout: "null",
-    stderr: "null",
-  })
-    .output().then((o) => o.success, () => false);
-  if (!hasScript) return;
-  const command = ["deno", ...taskArgs("paygrove"), "schema", "fixtures/cps1985.csv"]
-    .map((w) => `'${w}'`).join(" ");
-  const inPty = async (noColor: boolean) => {
-    const env: Record<string, string> = {
-      PATH: `${Deno.execPath().replace(/\/[^/]+$/, "")}:${Deno.env.get("PATH")}`,
-    };
-    const output = await new Deno.Command("script", {
-      args: ["-qec", noColor ? `NO_COLOR=1 ${command}` : `env -u NO_COLOR ${command}`, "/dev/null"],
-      cwd: ROOT,
-      env,
-      stdout: "piped",
-      stderr: "piped",
-    }).output();
-    return new TextDecoder().decode(output.stdout);
-  };
-  assert.match(await inPty(false), ANSI);
-  assert.doesNotMatch(await inPty(true), ANSI);
+Deno.test({
+  name: "colour on a terminal, none with NO_COLOR",
+  ignore: !HAS_SCRIPT,
+  fn: async () => {
+    const coloured = await paygroveOnTerminal(["schema", "fixtures/cps1985.csv"]);
+    assert.match(coloured.screen, ANSI);
+    const plain = await paygroveOnTerminal(["schema", "fixtures/cps1985.csv"], { noColor: true });
+    assert.doesNotMatch(plain.screen, ANSI);
+  },
 });
 
-Deno.test("help on a terminal needs no permission beyond the task's", async () => {
-  const hasScript = await new Deno.Command("script", {
-    args: ["--version"],
-    stdout: "null",
-    stderr: "null",
-  })
-    .output().then((o) => o.success, () => false);
-  if (!hasScript) return;
-  const command = ["deno", ...taskArgs("paygrove"), "--help"].map((w) => `'${w}'`).join(" ");
-  const env: Record<string, string> = {
-    PATH: `${Deno.execPath().replace(/\/[^/]+$/, "")}:${Deno.env.get("PATH")}`,
-    TERM: "xterm-256color",
-  };
-  const output = await new Deno.Command("script", {
-    args: ["-qec", `env -u NO_COLOR ${command}`, "/dev/null"],
-    cwd: ROOT,
-    env,
-    stdout: "piped",
-    stderr: "piped",
-  }).output();
-  const screen = new TextDecoder().decode(output.stdout);
-  assert.equal(output.code, 0, screen);
-  assert.match(screen, /Usage: paygrove/);
-  assert.doesNotMatch(screen, /NotCapable|requests env access|internal error/);
+Deno.test({
+  name: "help on a terminal needs no permission beyond the task's",
+  ignore: !HAS_SCRIPT,
+  fn: async () => {
+    const { code, screen } = await paygroveOnTerminal(["--help"]);
+    assert.equal(code, 0, screen);
+    assert.match(screen, /Usage: paygrove/);
+    assert.doesNotMatch(screen, /NotCapable|requests env access|internal error/);
+  },
 });
 
 Deno.test("a misspelled command is named, with a suggestion", async () => {

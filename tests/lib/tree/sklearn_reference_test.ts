@@ -161,9 +161,14 @@ for (const name of ["diabetes", "iris", "cps1988"]) {
         `${unmatched} alphas unmatched (of ${theirs.length}); the reference's own random states ` +
           `differ by ${c.path_seed_difference}`,
       );
-      if (c.path_seed_difference === 0) assert.equal(tieRegion, -Infinity);
-      // Most of the path lies above the tie region.
-      assert.ok(matchedAbove >= 0.5 * theirs.length, `${matchedAbove} of ${theirs.length} above`);
+      if (c.path_seed_difference === 0) {
+        assert.equal(tieRegion, -Infinity);
+        assert.equal(matchedAbove, theirs.length);
+      }
+      // At most path_seed_difference alphas of theirs lack a partner in ours,
+      // and most of the path lies above the tie region (CPS1988 fully grown:
+      // 3,838 of 4,352; diabetes fully grown: all 394 match, none above a tie).
+      assert.ok(matchedAbove >= 0.85 * theirs.length || tieRegion === -Infinity);
     });
 
     Deno.test(`${name} ${c.name}: the subtree at each path alpha has the reference's leaf count`, () => {
