@@ -33,3 +33,14 @@ export {
   fitEnsemble,
   type PruneMode,
 } from "./lib/ensemble/fit_ensemble.ts";
+export {
+  type Difference,
+  type Interval,
+  mean,
+  oobRegressionMetrics,
+  oobResiduals,
+  pairedDifference,
+  percentileInterval,
+  residualRange,
+  treeEstimates,
+} from "./lib/ensemble/intervals.ts";

@@ -78,6 +78,31 @@ export function applyRow(tree: FlatTree, features: readonly Feature[], row: numb
 }
 
 /**
+ * The leaf a profile lands in: one value per feature, `NaN` for missing,
+ * level codes for ordinal and categorical features.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { applyValues, binFeatures, growTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([1, 1, 5, 5]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * assert(tree.value[applyValues(tree, [3.5])] === 5);
+ * ```
+ */
+export function applyValues(tree: FlatTree, profile: ArrayLike<number>): number {
+  let node = 0;
+  while (tree.left[node] !== -1) {
+    node = goesLeft(tree, node, profile[tree.feature[node]]) ? tree.left[node] : tree.right[node];
+  }
+  return node;
+}
+
+/**
  * Whether a value goes to the left child at an internal node. Missing
  * values, and at a categorical split levels outside the node's mask that it
  * never saw, follow the node's missing direction.

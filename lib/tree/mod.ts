@@ -9,6 +9,7 @@ export { binFeatures, FEATURE_TOLERANCE, type FeatureBins } from "./bins.ts";
 export {
   applyRow,
   applyRows,
+  applyValues,
   type FlatTree,
   goesLeft,
   leafCount,

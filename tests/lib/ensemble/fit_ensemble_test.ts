@@ -5,6 +5,10 @@ import {
   bootstrapCounts,
   fitEnsemble,
   growTree,
+  oobRegressionMetrics,
+  pairedDifference,
+  percentileInterval,
+  treeEstimates,
   treeSeed,
 } from "../../../mod.ts";
 import { levels, numeric, regression } from "../tree/_small.ts";
@@ -74,4 +78,35 @@ Deno.test("pruning modes: one alpha for all, each tree's own out-of-bag alpha, n
     assert.ok(own.trees[t].nodeCount <= none.trees[t].nodeCount);
   }
   assert.throws(() => fitEnsemble(dataset, { prune: "alpha" }), /needs an alpha/);
+});
+
+Deno.test("out-of-bag metrics are those of the out-of-bag predictions", () => {
+  const dataset = invented(150);
+  const ensemble = fitEnsemble(dataset, { trees: 30, seed: 4, prune: "none" });
+  const y = dataset.target.values;
+  const metrics = oobRegressionMetrics(ensemble, y);
+  let sse = 0;
+  let n = 0;
+  for (let r = 0; r < dataset.rows; r++) {
+    if (ensemble.oobTrees[r] === 0) continue;
+    sse += (y[r] - ensemble.oob[r]) ** 2;
+    n++;
+  }
+  assert.equal(metrics.rows, n);
+  assert.ok(Math.abs(metrics.rmse - Math.sqrt(sse / n)) < 1e-9 * metrics.rmse);
+  // Out of bag, the ensemble beats the constant model on this structured table.
+  assert.ok(metrics.r2 > 0.5, `OOB R^2 ${metrics.r2}`);
+});
+
+Deno.test("a paired what-if difference is narrower than the gap between two intervals", () => {
+  const dataset = invented(300);
+  const ensemble = fitEnsemble(dataset, { trees: 60, seed: 8, prune: "none" });
+  const base = [5, 0];
+  const changed = [5, 2]; // same years, site 2 instead of 0: +12,000 in the invented rule
+  const d = pairedDifference(ensemble, base, changed, 0.9);
+  const a = percentileInterval(treeEstimates(ensemble, base), 0.9);
+  const b = percentileInterval(treeEstimates(ensemble, changed), 0.9);
+  assert.ok(d.high - d.low < (b.high - a.low) - (b.low - a.high));
+  assert.ok(d.estimate > 9000 && d.estimate < 15000, `difference ${d.estimate}`);
+  assert.ok(d.low <= d.estimate && d.estimate <= d.high);
 });
