@@ -44,3 +44,10 @@ export {
   residualRange,
   treeEstimates,
 } from "./lib/ensemble/intervals.ts";
+export {
+  crossValidateLinear,
+  type Design,
+  designOf,
+  fitLeastSquares,
+  type LinearFit,
+} from "./lib/linear/least_squares.ts";

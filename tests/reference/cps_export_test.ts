@@ -52,3 +52,26 @@ Deno.test({
     }
   },
 });
+
+Deno.test({
+  name: "the lm fixture equals a fresh fit by R's lm()",
+  ignore: !available && !inCi,
+  fn: async () => {
+    assert.ok(available, "CI must install r-base-core and r-cran-aer (see .ci/run)");
+    const out = await Deno.makeTempDir({ prefix: "paygrove-lm-" });
+    try {
+      const run = await new Deno.Command("Rscript", {
+        args: [`${root}tests/reference/lm_cps1988.R`, `${out}/lm_cps1988.json`],
+        stdout: "piped",
+        stderr: "piped",
+        signal: AbortSignal.timeout(60_000),
+      }).output();
+      assert.ok(run.success, new TextDecoder().decode(run.stderr));
+      const fresh = await Deno.readTextFile(`${out}/lm_cps1988.json`);
+      const committed = await Deno.readTextFile(`${root}fixtures/reference/lm_cps1988.json`);
+      assert.equal(fresh, committed);
+    } finally {
+      await Deno.remove(out, { recursive: true });
+    }
+  },
+});

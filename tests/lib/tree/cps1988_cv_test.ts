@@ -5,7 +5,13 @@
 // constant model, and the unpruned trees must do worse than the pruned one
 // (overfitting visible). The figures are in the test names.
 import assert from "node:assert/strict";
-import { constantBaseline, crossValidateTree, loadTableFile, makeDataset } from "../../../mod.ts";
+import {
+  constantBaseline,
+  crossValidateLinear,
+  crossValidateTree,
+  loadTableFile,
+  makeDataset,
+} from "../../../mod.ts";
 
 const table = await loadTableFile(
   new URL("../../../fixtures/cps1988.csv", import.meta.url).pathname,
@@ -66,5 +72,17 @@ Deno.test(
     assert.ok(unpruned.cvError > chosen.cvError + chosen.cvSe);
     assert.ok(fullyGrown.cvError > unpruned.cvError);
     assert.ok(cv.chosen >= cv.best, "the 1-SE tree is no larger than the best one");
+  },
+);
+
+const linearCvRmse = crossValidateLinear(dataset, cv.fold);
+
+Deno.test(
+  `CPS1988 log wage: the linear baseline's CV RMSE on the same folds is ${linearCvRmse.toFixed(4)}`,
+  () => {
+    // Trees beat a straight line here: experience acts on log wage as a
+    // curve, which the linear baseline (no square term) cannot bend to.
+    assert.ok(Math.sqrt(chosen.cvError) < linearCvRmse);
+    assert.ok(linearCvRmse < constantCvRmse);
   },
 );
