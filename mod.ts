@@ -51,3 +51,4 @@ export {
   fitLeastSquares,
   type LinearFit,
 } from "./lib/linear/least_squares.ts";
+export { fitEnsembleParallel, type ParallelOptions } from "./lib/ensemble/fit_parallel.ts";

@@ -88,41 +88,94 @@ export function fitEnsemble(
   options: EnsembleOptions = {},
   bins: FeatureBins[] = binFeatures(dataset),
 ): Ensemble {
+  checkEnsembleOptions(options);
   const count = options.trees ?? 200;
   const seed = options.seed ?? 1;
-  const mode = options.prune ?? "alpha";
+  const order = canonicalRowOrder(dataset);
+  const trees: FlatTree[] = [];
+  const alphas = new Float64Array(count);
+  const oobValues: Float64Array[] = [];
+  for (let b = 0; b < count; b++) {
+    const fitted = fitOneTree(dataset, bins, order, treeSeed(seed, b), options);
+    trees.push(fitted.tree);
+    alphas[b] = fitted.alpha;
+    oobValues.push(fitted.oob);
+    options.onProgress?.(b + 1, count);
+  }
+  return assembleEnsemble(dataset, trees, alphas, oobValues, seed);
+}
+
+/**
+ * Checks ensemble options, throwing a RangeError for bad ones.
+ */
+export function checkEnsembleOptions(options: EnsembleOptions): void {
+  const count = options.trees ?? 200;
   if (!Number.isInteger(count) || count < 1) {
     throw new RangeError(`trees must be a whole number >= 1, got ${count}`);
   }
-  if (mode === "alpha" && !(options.alpha !== undefined && options.alpha >= 0)) {
+  if (
+    (options.prune ?? "alpha") === "alpha" && !(options.alpha !== undefined && options.alpha >= 0)
+  ) {
     throw new RangeError(`prune "alpha" needs an alpha >= 0`);
   }
+}
+
+/**
+ * Grows and prunes the tree whose resample comes from `treeSeed`; the same
+ * arguments give the same tree in any thread.
+ */
+export function fitOneTree(
+  dataset: Dataset,
+  bins: FeatureBins[],
+  order: Int32Array,
+  seedOfTree: number,
+  options: EnsembleOptions,
+): { tree: FlatTree; alpha: number; oob: Float64Array } {
+  const mode = options.prune ?? "alpha";
+  const weights = bootstrapCounts(dataset.rows, seedOfTree);
+  const grown = growTree({ dataset, bins, weights, order }, options.grow);
+  const alpha = mode === "none"
+    ? 0
+    : mode === "alpha"
+    ? options.alpha!
+    : oobAlpha(grown, dataset, weights);
+  const tree = alpha > 0 ? pruneTree(grown, alpha) : grown;
+  // The tree's prediction for each row it did not draw (NaN for the others).
+  const width = tree.width;
+  const oob = new Float64Array(dataset.rows * width).fill(NaN);
+  for (let r = 0; r < dataset.rows; r++) {
+    if (weights[r] !== 0) continue;
+    const leaf = applyRow(tree, dataset.features, r);
+    for (let c = 0; c < width; c++) oob[r * width + c] = tree.value[leaf * width + c];
+  }
+  return { tree, alpha, oob };
+}
+
+/**
+ * Puts fitted trees together with their out-of-bag predictions, summed in
+ * tree order so the result does not depend on which thread grew which tree.
+ *
+ * @param oobValues Per tree, its prediction for each row it did not draw
+ * (`width` values per row; NaN for rows it drew), from `fitOneTree`.
+ */
+export function assembleEnsemble(
+  dataset: Dataset,
+  trees: FlatTree[],
+  alphas: Float64Array,
+  oobValues: Float64Array[],
+  seed: number,
+): Ensemble {
   const width = dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
-  const order = canonicalRowOrder(dataset);
-  const trees: FlatTree[] = [];
-  const seeds = new Int32Array(count);
-  const alphas = new Float64Array(count);
+  const seeds = Int32Array.from(trees, (_, b) => treeSeed(seed, b));
   const oobSum = new Float64Array(dataset.rows * width);
   const oobTrees = new Int32Array(dataset.rows);
-  for (let b = 0; b < count; b++) {
-    seeds[b] = treeSeed(seed, b);
-    const weights = bootstrapCounts(dataset.rows, seeds[b]);
-    const grown = growTree({ dataset, bins, weights, order }, options.grow);
-    const alpha = mode === "none"
-      ? 0
-      : mode === "alpha"
-      ? options.alpha!
-      : oobAlpha(grown, dataset, weights);
-    const tree = alpha > 0 ? pruneTree(grown, alpha) : grown;
-    trees.push(tree);
-    alphas[b] = alpha;
+  for (let b = 0; b < trees.length; b++) {
+    const values = oobValues[b];
     for (let r = 0; r < dataset.rows; r++) {
-      if (weights[r] !== 0) continue;
-      const leaf = applyRow(tree, dataset.features, r);
-      for (let c = 0; c < width; c++) oobSum[r * width + c] += tree.value[leaf * width + c];
+      if (Number.isNaN(values[r * width])) continue;
+      for (let c = 0; c < width; c++) oobSum[r * width + c] += values[r * width + c];
       oobTrees[r]++;
     }
-    options.onProgress?.(b + 1, count);
   }
   const oob = new Float64Array(dataset.rows * width);
   for (let r = 0; r < dataset.rows; r++) {

@@ -4,6 +4,7 @@ import {
   binFeatures,
   bootstrapCounts,
   fitEnsemble,
+  fitEnsembleParallel,
   growTree,
   oobRegressionMetrics,
   pairedDifference,
@@ -109,4 +110,25 @@ Deno.test("a paired what-if difference is narrower than the gap between two inte
   assert.ok(d.high - d.low < (b.high - a.low) - (b.low - a.high));
   assert.ok(d.estimate > 9000 && d.estimate < 15000, `difference ${d.estimate}`);
   assert.ok(d.low <= d.estimate && d.estimate <= d.high);
+});
+
+Deno.test("the same seed gives a bit-identical model with 1, 2 or 3 workers", async () => {
+  const dataset = invented(200);
+  const options = { trees: 12, seed: 77, prune: "oob" as const };
+  const progress: number[] = [];
+  const results = [
+    await fitEnsembleParallel(dataset, { ...options, workers: 1 }),
+    await fitEnsembleParallel(dataset, {
+      ...options,
+      workers: 2,
+      onProgress: (d) => progress.push(d),
+    }),
+    await fitEnsembleParallel(dataset, { ...options, workers: 3 }),
+  ];
+  for (const other of results.slice(1)) {
+    assert.deepEqual(other.oob, results[0].oob);
+    assert.deepEqual(other.alphas, results[0].alphas);
+    for (let t = 0; t < 12; t++) assert.deepEqual(other.trees[t], results[0].trees[t]);
+  }
+  assert.deepEqual(progress, Array.from({ length: 12 }, (_, i) => i + 1));
 });

@@ -1,0 +1,72 @@
+/**
+ * A worker that grows the trees it is asked for. It receives the shared
+ * data once, then tree indices; it answers each with the fitted tree, whose
+ * arrays are transferred, not copied.
+ *
+ * @module
+ */
+
+import { treeSeed } from "./bootstrap.ts";
+import { datasetOf, type SharedData } from "./_shared_data.ts";
+import { type EnsembleOptions, fitOneTree } from "./fit_ensemble.ts";
+import type { FlatTree } from "../tree/flat_tree.ts";
+
+/** Messages to the worker. */
+export type ToWorker =
+  | { kind: "data"; data: SharedData; options: EnsembleOptions; seed: number }
+  | { kind: "tree"; index: number }
+  | { kind: "stop" };
+
+/** Messages from the worker. */
+export type FromWorker =
+  | { kind: "tree"; index: number; tree: FlatTree; alpha: number; oob: Float64Array }
+  | { kind: "error"; message: string };
+
+// deno-lint-ignore no-explicit-any
+const scope = self as any;
+let data: SharedData | undefined;
+let options: EnsembleOptions = {};
+let seed = 1;
+
+scope.onmessage = (event: MessageEvent<ToWorker>) => {
+  const message = event.data;
+  try {
+    if (message.kind === "data") {
+      data = message.data;
+      options = message.options;
+      seed = message.seed;
+      return;
+    }
+    if (message.kind === "stop") {
+      scope.close();
+      return;
+    }
+    if (data === undefined) throw new Error("tree requested before data");
+    const dataset = datasetOf(data);
+    const { tree, alpha, oob } = fitOneTree(
+      dataset,
+      data.bins,
+      data.order,
+      treeSeed(seed, message.index),
+      options,
+    );
+    const reply: FromWorker = { kind: "tree", index: message.index, tree, alpha, oob };
+    const buffers = [
+      tree.feature,
+      tree.threshold,
+      tree.maskOffset,
+      tree.left,
+      tree.right,
+      tree.missingLeft,
+      tree.value,
+      tree.rows,
+      tree.weight,
+      tree.impurity,
+      oob,
+    ].map((a) => a.buffer);
+    scope.postMessage(reply, buffers);
+  } catch (error) {
+    const reply: FromWorker = { kind: "error", message: (error as Error).stack ?? String(error) };
+    scope.postMessage(reply);
+  }
+};
