@@ -52,3 +52,4 @@ export {
   type LinearFit,
 } from "./lib/linear/least_squares.ts";
 export { fitEnsembleParallel, type ParallelOptions } from "./lib/ensemble/fit_parallel.ts";
+export { DEFAULT_PRUNING } from "./lib/ensemble/defaults.ts";
