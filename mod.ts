@@ -53,3 +53,8 @@ export {
 } from "./lib/linear/least_squares.ts";
 export { fitEnsembleParallel, type ParallelOptions } from "./lib/ensemble/fit_parallel.ts";
 export { DEFAULT_PRUNING } from "./lib/ensemble/defaults.ts";
+export {
+  type FeatureImportance,
+  featureImportance,
+  type ImportanceOptions,
+} from "./lib/ensemble/importance.ts";
