@@ -58,3 +58,9 @@ export {
   featureImportance,
   type ImportanceOptions,
 } from "./lib/ensemble/importance.ts";
+export {
+  partialDependence,
+  sweepGrid,
+  type SweepPoint,
+  sweepProfile,
+} from "./lib/ensemble/sweep.ts";

@@ -1,0 +1,126 @@
+/**
+ * What-if sweeps: estimates over a grid of one attribute with the others
+ * held fixed, and the averaged version over a table's rows (partial
+ * dependence, Friedman 2001, *Annals of Statistics* 29). Both assume the
+ * other attributes can be held fixed; with correlated attributes (level and
+ * tenure) they visit profiles that may never occur.
+ *
+ * @module
+ */
+
+import type { Dataset, Feature } from "../dataset/types.ts";
+import { quantile } from "../table/quality.ts";
+import {
+  type Interval,
+  mean,
+  percentileInterval,
+  residualRange,
+  treeEstimates,
+} from "./intervals.ts";
+import type { Ensemble } from "./fit_ensemble.ts";
+
+/**
+ * The grid of a feature: every level of an ordinal or categorical feature
+ * (as codes); for a numeric one `steps` evenly spaced values from `from` to
+ * `to`, by default the 5% and 95% quantiles of the data.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { sweepGrid } from "./sweep.ts";
+ * const years = { name: "years", kind: "numeric" as const, values: Float64Array.from({ length: 101 }, (_, i) => i) };
+ * assert.deepEqual(sweepGrid(years, { steps: 3 }), [5, 50, 95]);
+ * ```
+ */
+export function sweepGrid(
+  feature: Feature,
+  options: { from?: number; to?: number; steps?: number } = {},
+): number[] {
+  if (feature.kind !== "numeric") return (feature.levels ?? []).map((_, i) => i);
+  const known = feature.values.filter((v) => !Number.isNaN(v)).sort();
+  if (known.length === 0) throw new RangeError(`"${feature.name}" has no values to sweep over`);
+  const from = options.from ?? quantile(known, 0.05);
+  const to = options.to ?? quantile(known, 0.95);
+  const steps = options.steps ?? 20;
+  if (!Number.isInteger(steps) || steps < 2) {
+    throw new RangeError(`steps must be >= 2, got ${steps}`);
+  }
+  return Array.from({ length: steps }, (_, i) => from + ((to - from) * i) / (steps - 1));
+}
+
+/** One point of a sweep. */
+export interface SweepPoint {
+  /** The feature's value (a level code for ordinal and categorical features). */
+  value: number;
+  /** The ensemble's estimate. */
+  estimate: number;
+  /** How sure the estimate is: percentile interval of the trees' estimates. */
+  confidence: Interval;
+  /** Range comparable people's pay falls in (out-of-bag residuals). */
+  range: Interval;
+}
+
+/**
+ * Estimates and both intervals for one profile as one feature runs over a grid.
+ *
+ * @param residuals Out-of-bag residuals, from `oobResiduals`.
+ */
+export function sweepProfile(
+  ensemble: Ensemble,
+  profile: ArrayLike<number>,
+  feature: number,
+  grid: readonly number[],
+  residuals: ArrayLike<number>,
+  coverage = 0.9,
+): SweepPoint[] {
+  const values = Float64Array.from(profile);
+  return grid.map((value) => {
+    values[feature] = value;
+    const estimates = treeEstimates(ensemble, values);
+    const estimate = mean(estimates);
+    return {
+      value,
+      estimate,
+      confidence: percentileInterval(estimates, coverage),
+      range: residualRange(estimate, residuals, coverage),
+    };
+  });
+}
+
+/**
+ * Partial dependence: at each grid value, the ensemble's estimate averaged
+ * over the dataset's rows with the feature set to that value.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble, partialDependence } from "../../mod.ts";
+ * const years = Array.from({ length: 60 }, (_, i) => i % 30);
+ * const dataset = {
+ *   rows: 60,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(years, (y) => 40 + y) },
+ * };
+ * const ensemble = fitEnsemble(dataset, { trees: 10, prune: "none", grow: { minLeaf: 2 } });
+ * const curve = partialDependence(ensemble, dataset, 0, [2, 27]);
+ * assert(curve[1] - curve[0] > 15);
+ * ```
+ */
+export function partialDependence(
+  ensemble: Ensemble,
+  dataset: Dataset,
+  feature: number,
+  grid: readonly number[],
+): number[] {
+  const features = dataset.features.length;
+  const profile = new Float64Array(features);
+  return grid.map((value) => {
+    let sum = 0;
+    for (let r = 0; r < dataset.rows; r++) {
+      for (let f = 0; f < features; f++) profile[f] = dataset.features[f].values[r];
+      profile[feature] = value;
+      sum += mean(treeEstimates(ensemble, profile));
+    }
+    return sum / dataset.rows;
+  });
+}
