@@ -35,8 +35,11 @@ export {
 } from "./lib/ensemble/fit_ensemble.ts";
 export {
   type Difference,
+  infinitesimalJackknife,
   type Interval,
+  type JackknifeError,
   mean,
+  oobClassificationMetrics,
   oobRegressionMetrics,
   oobResiduals,
   pairedDifference,

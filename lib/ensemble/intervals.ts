@@ -7,7 +7,13 @@
  */
 
 import { applyValues } from "../tree/flat_tree.ts";
-import { type RegressionMetrics, regressionMetrics } from "../tree/metrics.ts";
+import {
+  type ClassificationMetrics,
+  classificationMetrics,
+  type RegressionMetrics,
+  regressionMetrics,
+} from "../tree/metrics.ts";
+import { bootstrapCounts } from "./bootstrap.ts";
 import { quantile } from "../table/quality.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 
@@ -162,6 +168,75 @@ export function oobRegressionMetrics(
     predicted.push(ensemble.oob[r]);
   }
   return { ...regressionMetrics(actual, predicted), rows: actual.length };
+}
+
+/**
+ * Out-of-bag accuracy of a classification ensemble: the class with the
+ * largest averaged share per row, against the row's class.
+ *
+ * @param classes Each row's class code.
+ */
+export function oobClassificationMetrics(
+  ensemble: Ensemble,
+  classes: ArrayLike<number>,
+): ClassificationMetrics & { rows: number } {
+  const width = ensemble.width;
+  const actual: number[] = [];
+  const predicted: number[] = [];
+  for (let r = 0; r < classes.length; r++) {
+    if (ensemble.oobTrees[r] === 0) continue;
+    let best = 0;
+    for (let c = 1; c < width; c++) {
+      if (ensemble.oob[r * width + c] > ensemble.oob[r * width + best]) best = c;
+    }
+    actual.push(classes[r]);
+    predicted.push(best);
+  }
+  return { ...classificationMetrics(actual, predicted, width), rows: actual.length };
+}
+
+/** The infinitesimal jackknife's standard error of an ensemble mean. */
+export interface JackknifeError {
+  /** Standard error after the bias correction (0 when the correction overshoots). */
+  se: number;
+  /** True when the bias-corrected variance came out negative and was set to 0. */
+  clamped: boolean;
+  /** Standard error without the bias correction. */
+  uncorrectedSe: number;
+}
+
+/**
+ * The bias-corrected infinitesimal jackknife standard error of the
+ * ensemble's estimate for a profile (Wager, Hastie & Efron 2014, *JMLR* 15):
+ * V_IJ = sum over rows i of Cov_i^2, Cov_i = (1/B) sum over trees b of
+ * (N_bi - 1)(t_b - tbar), minus (n / B^2) sum_b (t_b - tbar)^2. It is the
+ * uncertainty of the typical pay for such a profile, not the spread of one
+ * person's pay; its correction needs B of the order of n to be stable.
+ */
+export function infinitesimalJackknife(
+  ensemble: Ensemble,
+  rows: number,
+  profile: ArrayLike<number>,
+): JackknifeError {
+  const estimates = treeEstimates(ensemble, profile);
+  const trees = estimates.length;
+  const average = mean(estimates);
+  const cov = new Float64Array(rows);
+  let spread = 0;
+  for (let b = 0; b < trees; b++) {
+    const d = estimates[b] - average;
+    spread += d * d;
+    const counts = bootstrapCounts(rows, ensemble.seeds[b]);
+    for (let i = 0; i < rows; i++) cov[i] += (counts[i] - 1) * d;
+  }
+  let v = 0;
+  for (let i = 0; i < rows; i++) v += (cov[i] / trees) ** 2;
+  const corrected = v - (rows / (trees * trees)) * spread;
+  return {
+    se: Math.sqrt(Math.max(0, corrected)),
+    clamped: corrected < 0,
+    uncorrectedSe: Math.sqrt(v),
+  };
 }
 
 function checkCoverage(coverage: number): void {

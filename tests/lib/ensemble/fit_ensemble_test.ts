@@ -6,6 +6,8 @@ import {
   fitEnsemble,
   fitEnsembleParallel,
   growTree,
+  infinitesimalJackknife,
+  oobClassificationMetrics,
   oobRegressionMetrics,
   pairedDifference,
   percentileInterval,
@@ -131,4 +133,56 @@ Deno.test("the same seed gives a bit-identical model with 1, 2 or 3 workers", as
     for (let t = 0; t < 12; t++) assert.deepEqual(other.trees[t], results[0].trees[t]);
   }
   assert.deepEqual(progress, Array.from({ length: 12 }, (_, i) => i + 1));
+});
+
+Deno.test("classification: out-of-bag class shares and accuracy", () => {
+  // Invented: level by years; one row in seven has the other level, spread
+  // over every number of years, so it cannot be learnt.
+  const years = Array.from({ length: 280 }, (_, i) => i % 20);
+  const level = years.map((y, i) => (i % 7 === 0 ? (y < 10 ? 1 : 0) : y < 10 ? 0 : 1));
+  const dataset = {
+    rows: 280,
+    features: [numeric("years", years)],
+    target: {
+      kind: "classification" as const,
+      name: "level",
+      classes: ["L1", "L2"],
+      values: Int32Array.from(level),
+    },
+  };
+  const ensemble = fitEnsemble(dataset, { trees: 20, seed: 6, prune: "none" });
+  assert.equal(ensemble.width, 2);
+  for (let r = 0; r < dataset.rows; r++) {
+    if (ensemble.oobTrees[r] === 0) continue;
+    assert.ok(Math.abs(ensemble.oob[2 * r] + ensemble.oob[2 * r + 1] - 1) < 1e-12);
+  }
+  const metrics = oobClassificationMetrics(ensemble, dataset.target.values);
+  // The odd seventh cannot be predicted (accuracy at most 6/7); the rest is easy.
+  assert.ok(
+    metrics.accuracy > 0.8 && metrics.accuracy <= 6 / 7 + 1e-12,
+    `accuracy ${metrics.accuracy}`,
+  );
+  assert.equal(metrics.confusion.flat().reduce((a, b) => a + b, 0), metrics.rows);
+});
+
+Deno.test("infinitesimal jackknife by its definition", () => {
+  const dataset = invented(60);
+  const ensemble = fitEnsemble(dataset, { trees: 40, seed: 12, prune: "none" });
+  const profile = [7, 1];
+  const ij = infinitesimalJackknife(ensemble, dataset.rows, profile);
+  // Direct computation of V_IJ (Wager, Hastie & Efron 2014, eq. 5 and 7).
+  const t = treeEstimates(ensemble, profile);
+  const tbar = t.reduce((a, b) => a + b, 0) / t.length;
+  let v = 0;
+  for (let i = 0; i < dataset.rows; i++) {
+    let c = 0;
+    for (let b = 0; b < t.length; b++) {
+      c += (bootstrapCounts(dataset.rows, ensemble.seeds[b])[i] - 1) * (t[b] - tbar);
+    }
+    v += (c / t.length) ** 2;
+  }
+  const bias = (dataset.rows / t.length ** 2) * t.reduce((a, x) => a + (x - tbar) ** 2, 0);
+  assert.ok(Math.abs(ij.uncorrectedSe - Math.sqrt(v)) < 1e-9 * Math.sqrt(v));
+  assert.equal(ij.clamped, v - bias < 0);
+  assert.ok(Math.abs(ij.se - Math.sqrt(Math.max(0, v - bias))) < 1e-9 * Math.max(1, ij.se));
 });
