@@ -25,7 +25,7 @@ export {
   type MakeDatasetOptions,
 } from "./lib/dataset/make_dataset.ts";
 export * from "./lib/tree/mod.ts";
-export { makeRng, type Rng, shuffle } from "./lib/random.ts";
+export { makeRng, randomInt, type Rng, shuffle } from "./lib/random.ts";
 export { bootstrapCounts, treeSeed } from "./lib/ensemble/bootstrap.ts";
 export {
   type Ensemble,
@@ -55,7 +55,7 @@ export {
   type LinearFit,
 } from "./lib/linear/least_squares.ts";
 export { fitEnsembleParallel, type ParallelOptions } from "./lib/ensemble/fit_parallel.ts";
-export { DEFAULT_PRUNING } from "./lib/ensemble/defaults.ts";
+export { DEFAULT_PRUNING, DEFAULT_RANGE } from "./lib/ensemble/defaults.ts";
 export {
   type FeatureImportance,
   featureImportance,
@@ -67,3 +67,4 @@ export {
   type SweepPoint,
   sweepProfile,
 } from "./lib/ensemble/sweep.ts";
+export { groupedRange, groupResiduals, type ResidualGroups } from "./lib/ensemble/grouped_range.ts";
