@@ -68,3 +68,8 @@ export {
   sweepProfile,
 } from "./lib/ensemble/sweep.ts";
 export { groupedRange, groupResiduals, type ResidualGroups } from "./lib/ensemble/grouped_range.ts";
+export {
+  type DefaultEnsemble,
+  type DefaultEnsembleOptions,
+  fitDefaultEnsemble,
+} from "./lib/ensemble/fit_default.ts";

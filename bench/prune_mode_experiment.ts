@@ -12,37 +12,14 @@
 import {
   crossValidateTree,
   fitEnsembleParallel,
-  loadTableFile,
-  makeDataset,
-  makeRng,
   oobRegressionMetrics,
-  shuffle,
   treeEstimates,
 } from "../mod.ts";
-import type { Dataset, PruneMode } from "../mod.ts";
+import type { PruneMode } from "../mod.ts";
+import { cps1988LogWage, heldOutSplit } from "../tests/lib/_cps1988.ts";
 
 const root = new URL("../", import.meta.url).pathname;
-const table = await loadTableFile(`${root}fixtures/cps1988.csv`, { target: "wage" });
-const { dataset } = makeDataset(table, { target: "wage" });
-if (dataset.target.kind !== "regression") throw new Error("regression expected");
-const logWage = dataset.target.values.map(Math.log);
-
-const order = shuffle(Array.from({ length: dataset.rows }, (_, i) => i), makeRng(20261202));
-const cut = Math.floor(dataset.rows * 0.8);
-const subset = (rows: number[]): Dataset => ({
-  rows: rows.length,
-  features: dataset.features.map((f) => ({
-    ...f,
-    values: Float64Array.from(rows, (r) => f.values[r]),
-  })),
-  target: {
-    kind: "regression",
-    name: "log wage",
-    values: Float64Array.from(rows, (r) => logWage[r]),
-  },
-});
-const train = subset(order.slice(0, cut));
-const test = subset(order.slice(cut));
+const { train, test } = heldOutSplit(await cps1988LogWage(), 20261202);
 
 const cv = crossValidateTree(train, { folds: 10, seed: 1 });
 const settings: { name: string; prune: PruneMode; alpha?: number }[] = [

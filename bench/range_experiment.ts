@@ -6,60 +6,14 @@
 // (a) one set of out-of-bag residuals for everyone and (b) residuals grouped
 // by the size of the estimate. Writes tests/results/range_coverage_sim.json.
 // Run: deno run --allow-read --allow-write=tests/results bench/range_experiment.ts
-import {
-  crossValidateTree,
-  DEFAULT_PRUNING,
-  fitEnsembleParallel,
-  groupedRange,
-  groupResiduals,
-  mean,
-  oobResiduals,
-  residualRange,
-  treeEstimates,
-} from "../mod.ts";
-import { simulatePay } from "../tests/lib/ensemble/_simulated_pay.ts";
+import { coverageByLevel, simulatePay } from "../tests/lib/ensemble/_simulated_pay.ts";
 
 const train = simulatePay(300, 101);
 const test = simulatePay(300, 202);
 const results: Record<string, unknown>[] = [];
 for (const scale of ["raw", "log"] as const) {
-  const forward = scale === "log" ? Math.log : (x: number) => x;
-  const back = scale === "log" ? Math.exp : (x: number) => x;
-  const dataset = {
-    ...train.dataset,
-    target: { kind: "regression" as const, name: "pay", values: train.pay.map(forward) },
-  };
-  // Trees pruned as the shipped default says (the reference tree's CV alpha).
-  const cv = crossValidateTree(dataset, {
-    folds: 10,
-    seed: 1,
-    rule: DEFAULT_PRUNING.alphaRule === "min" ? "min" : "one-se",
-  });
-  const alpha = cv.candidates[cv.chosen].alpha;
-  const ensemble = await fitEnsembleParallel(dataset, {
-    trees: 200,
-    seed: 3,
-    prune: DEFAULT_PRUNING.mode,
-    alpha,
-    workers: 2,
-  });
-  const residuals = oobResiduals(ensemble, dataset.target.values);
-  const groups = groupResiduals(ensemble.oob, dataset.target.values, 10);
   for (const method of ["one-set", "grouped"] as const) {
-    const hits = new Float64Array(8);
-    const counts = new Float64Array(8);
-    for (let r = 0; r < test.dataset.rows; r++) {
-      const profile = test.dataset.features.map((f) => f.values[r]);
-      const estimate = mean(treeEstimates(ensemble, profile));
-      const range = method === "one-set"
-        ? residualRange(estimate, residuals, 0.9)
-        : groupedRange(estimate, groups, 0.9);
-      const inside = test.pay[r] >= back(range.low) && test.pay[r] <= back(range.high);
-      hits[test.level[r]] += inside ? 1 : 0;
-      counts[test.level[r]]++;
-    }
-    const perLevel = Array.from({ length: 7 }, (_, i) => hits[i + 1] / counts[i + 1]);
-    const overall = hits.reduce((a, b) => a + b, 0) / counts.reduce((a, b) => a + b, 0);
+    const { overall, perLevel } = await coverageByLevel(train, test, scale, method);
     const worst = Math.max(...perLevel.map((c) => Math.abs(c - 0.9)));
     results.push({ scale, method, overall, perLevel, worstLevelGap: worst });
     console.log(scale, method, overall.toFixed(3), perLevel.map((c) => c.toFixed(3)).join(" "));

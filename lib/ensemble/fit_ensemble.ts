@@ -12,7 +12,14 @@ import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import { scoreSubtrees } from "../tree/cross_validate.ts";
 import { applyRow, type FlatTree } from "../tree/flat_tree.ts";
 import { canonicalRowOrder, type GrowOptions, growTree } from "../tree/grow_tree.ts";
-import { pruneTree, pruningPath, sameAlpha } from "../tree/prune.ts";
+import {
+  distinctSteps,
+  pruneTree,
+  type PruningPath,
+  pruningPath,
+  stepAt,
+  subtreeAfter,
+} from "../tree/prune.ts";
 import { bootstrapCounts, treeSeed } from "./bootstrap.ts";
 
 /**
@@ -134,12 +141,17 @@ export function fitOneTree(
   const mode = options.prune ?? "alpha";
   const weights = bootstrapCounts(dataset.rows, seedOfTree);
   const grown = growTree({ dataset, bins, weights, order }, options.grow);
-  const alpha = mode === "none"
-    ? 0
-    : mode === "alpha"
-    ? options.alpha!
-    : oobAlpha(grown, dataset, weights);
-  const tree = alpha > 0 ? pruneTree(grown, alpha) : grown;
+  let alpha = mode === "alpha" ? options.alpha! : 0;
+  let tree = grown;
+  if (mode === "oob") {
+    // One pruning path serves both the choice of alpha and the subtree.
+    const path = pruningPath(grown);
+    alpha = oobAlpha(path, grown, dataset, weights);
+    // At alpha 0 the tree stays whole, as pruneTree keeps it.
+    if (alpha > 0) tree = subtreeAfter(grown, path, stepAt(path, alpha));
+  } else if (alpha > 0) {
+    tree = pruneTree(grown, alpha);
+  }
   // The tree's prediction for each row it did not draw (NaN for the others).
   const width = tree.width;
   const oob = new Float64Array(dataset.rows * width).fill(NaN);
@@ -188,15 +200,13 @@ export function assembleEnsemble(
 
 // The alpha of the tree's own path whose subtree has the lowest error on the
 // tree's out-of-bag rows (the larger alpha among equal errors).
-function oobAlpha(tree: FlatTree, dataset: Dataset, weights: Float64Array): number {
-  const path = pruningPath(tree);
-  const rootRisk = path.risks[path.risks.length - 1];
-  const alphas: number[] = [];
-  for (let s = 0; s < path.alphas.length; s++) {
-    const next = path.alphas[s + 1];
-    if (next !== undefined && sameAlpha(next, path.alphas[s], rootRisk)) continue;
-    alphas.push(path.alphas[s]);
-  }
+function oobAlpha(
+  path: PruningPath,
+  tree: FlatTree,
+  dataset: Dataset,
+  weights: Float64Array,
+): number {
+  const alphas = distinctSteps(path).map((s) => path.alphas[s]);
   const sum = new Float64Array(alphas.length);
   const sumSq = new Float64Array(alphas.length);
   scoreSubtrees(tree, dataset, (r) => weights[r] === 0, alphas, sum, sumSq);

@@ -19,7 +19,7 @@ import { makeRng, shuffle } from "../random.ts";
 import { binFeatures, type FeatureBins } from "./bins.ts";
 import { type FlatTree, pathOfRow, predictedClass } from "./flat_tree.ts";
 import { canonicalRowOrder, type GrowOptions, growTree } from "./grow_tree.ts";
-import { PRUNE_TOLERANCE, pruningPath, sameAlpha, subtreeAfter } from "./prune.ts";
+import { collapsedWithin, distinctSteps, pruningPath, subtreeAfter } from "./prune.ts";
 
 /** How to choose the tree size. */
 export interface CrossValidateOptions {
@@ -114,13 +114,7 @@ export function crossValidateTree(
   const fullTree = growTree({ dataset, bins, order }, options.grow);
   const path = pruningPath(fullTree);
   // Distinct alphas: of a run of equal alphas keep the last step.
-  const steps: number[] = [];
-  for (let s = 0; s < path.alphas.length; s++) {
-    const next = path.alphas[s + 1];
-    const a = path.alphas[s];
-    if (next !== undefined && sameAlpha(next, a, path.risks[path.risks.length - 1])) continue;
-    steps.push(s);
-  }
+  const steps = distinctSteps(path);
   const alphas = steps.map((s) => path.alphas[s]);
   const scoredAt = alphas.map((a, j) => (j + 1 < alphas.length ? Math.sqrt(a * alphas[j + 1]) : a));
 
@@ -191,13 +185,14 @@ export function scoreSubtrees(
   for (let s = 1; s < path.nodes.length; s++) collapsedAt[path.nodes[s]] = s;
   // Steps of the fold's path taken at each scored alpha.
   const stepAt = new Int32Array(scoredAt.length);
+  const rootRisk = path.risks[path.risks.length - 1];
+  // scoredAt grows, so the step only moves forward (stepAt's rule, one pass).
   for (let j = 0, s = 0; j < scoredAt.length; j++) {
-    const rootRisk = path.risks[path.risks.length - 1];
     while (
-      s + 1 < path.alphas.length &&
-      (path.alphas[s + 1] <= scoredAt[j] ||
-        sameAlpha(path.alphas[s + 1], scoredAt[j], rootRisk, PRUNE_TOLERANCE))
-    ) s++;
+      s + 1 < path.alphas.length && collapsedWithin(path.alphas[s + 1], scoredAt[j], rootRisk)
+    ) {
+      s++;
+    }
     stepAt[j] = s;
   }
   const target = dataset.target;

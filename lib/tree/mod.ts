@@ -20,12 +20,15 @@ export {
 } from "./flat_tree.ts";
 export { canonicalRowOrder, type GrowInput, type GrowOptions, growTree } from "./grow_tree.ts";
 export {
+  collapsedWithin,
+  distinctSteps,
   PRUNE_TOLERANCE,
   pruneTree,
   type PruningPath,
   pruningPath,
   SAME_ALPHA,
   sameAlpha,
+  stepAt,
   subtreeAfter,
 } from "./prune.ts";
 export {

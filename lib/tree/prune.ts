@@ -46,6 +46,58 @@ export function sameAlpha(a: number, b: number, rootRisk: number, tolerance = SA
  */
 export const PRUNE_TOLERANCE = 1e-9;
 
+/**
+ * Whether a path step whose alpha is `step` is collapsed in the subtree for
+ * `limit`: at or below it, or above it by no more than
+ * {@linkcode PRUNE_TOLERANCE}. The one rule behind {@linkcode pruneTree},
+ * {@linkcode stepAt} and cross-validation.
+ */
+export function collapsedWithin(step: number, limit: number, rootRisk: number): boolean {
+  return step <= limit || sameAlpha(step, limit, rootRisk, PRUNE_TOLERANCE);
+}
+
+/**
+ * The steps of a path at which its distinct alphas end: of a run of equal
+ * alphas (see {@linkcode sameAlpha}) the last step, whose subtree has
+ * collapsed every link of the run.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { distinctSteps } from "./prune.ts";
+ * const path = {
+ *   alphas: new Float64Array([0, 2, 2, 5]),
+ *   risks: new Float64Array([0, 1, 2, 9]),
+ *   leaves: new Int32Array([4, 3, 2, 1]),
+ *   nodes: new Int32Array([-1, 3, 4, 0]),
+ * };
+ * assert.deepEqual(distinctSteps(path), [0, 2, 3]);
+ * ```
+ */
+export function distinctSteps(path: PruningPath): number[] {
+  const rootRisk = path.risks[path.risks.length - 1];
+  const steps: number[] = [];
+  for (let s = 0; s < path.alphas.length; s++) {
+    const next = path.alphas[s + 1];
+    if (next !== undefined && sameAlpha(next, path.alphas[s], rootRisk)) continue;
+    steps.push(s);
+  }
+  return steps;
+}
+
+/**
+ * How many steps of a path the subtree for `alpha` takes: up to the first
+ * step whose alpha is not {@linkcode collapsedWithin} it. With
+ * {@linkcode subtreeAfter} this gives the same tree as
+ * {@linkcode pruneTree}(tree, alpha) from a path computed once.
+ */
+export function stepAt(path: PruningPath, alpha: number): number {
+  const rootRisk = path.risks[path.risks.length - 1];
+  let s = 0;
+  while (s + 1 < path.alphas.length && collapsedWithin(path.alphas[s + 1], alpha, rootRisk)) s++;
+  return s;
+}
+
 /** The weakest-link sequence of a tree. */
 export interface PruningPath {
   /** Effective alpha of each step; entry 0 is 0 (the full tree). */
@@ -188,7 +240,7 @@ function weakestLinks(tree: FlatTree, limit: number): PruningPath {
       }
     }
     if (weakest < 0) break;
-    if (effective > limit && !sameAlpha(effective, limit, rNode[0], PRUNE_TOLERANCE)) break;
+    if (!collapsedWithin(effective, limit, rNode[0])) break;
     // Collapse the weakest link: its descendants leave the subtree.
     stack.push(weakest);
     while (stack.length > 0) {

@@ -23,55 +23,45 @@ const available = await rWithAer();
 const inCi = Deno.env.get("CI") === "true";
 if (!available) console.warn("cps_export_test: Rscript with AER not found; rerun skipped");
 
+// Runs an R script into a temporary folder (within the suite's time budget)
+// and requires each file it writes to equal the committed one byte for byte.
+async function rerunR(script: string, args: (out: string) => string[], files: [string, string][]) {
+  assert.ok(available, "CI must install r-base-core and r-cran-aer (see .ci/run)");
+  const out = await Deno.makeTempDir({ prefix: "paygrove-r-" });
+  try {
+    const run = await new Deno.Command("Rscript", {
+      args: [`${root}tests/reference/${script}`, ...args(out)],
+      stdout: "piped",
+      stderr: "piped",
+      signal: AbortSignal.timeout(60_000),
+    }).output();
+    assert.ok(run.success, new TextDecoder().decode(run.stderr));
+    for (const [written, committed] of files) {
+      const fresh = await Deno.readFile(`${out}/${written}`);
+      const kept = await Deno.readFile(`${root}${committed}`);
+      assert.ok(fresh.length === kept.length && fresh.every((b, i) => b === kept[i]), committed);
+    }
+  } finally {
+    await Deno.remove(out, { recursive: true });
+  }
+}
+
+// In CI a missing R is a failure, not a skip.
 Deno.test({
   name: "the CPS fixtures equal a fresh export from R's AER package",
-  // In CI a missing R is a failure, not a skip.
   ignore: !available && !inCi,
-  fn: async () => {
-    assert.ok(available, "CI must install r-base-core and r-cran-aer (see .ci/run)");
-    const out = await Deno.makeTempDir({ prefix: "paygrove-cps-" });
-    try {
-      const run = await new Deno.Command("Rscript", {
-        args: [`${root}tests/reference/export_cps.R`, out],
-        stdout: "piped",
-        stderr: "piped",
-        // The suite's time budget.
-        signal: AbortSignal.timeout(60_000),
-      }).output();
-      assert.ok(run.success, new TextDecoder().decode(run.stderr));
-      for (const name of ["cps1988.csv", "cps1985.csv"]) {
-        const fresh = await Deno.readFile(`${out}/${name}`);
-        const committed = await Deno.readFile(`${root}fixtures/${name}`);
-        assert.ok(
-          fresh.length === committed.length && fresh.every((b, i) => b === committed[i]),
-          name,
-        );
-      }
-    } finally {
-      await Deno.remove(out, { recursive: true });
-    }
-  },
+  fn: () =>
+    rerunR("export_cps.R", (out) => [out], [
+      ["cps1988.csv", "fixtures/cps1988.csv"],
+      ["cps1985.csv", "fixtures/cps1985.csv"],
+    ]),
 });
 
 Deno.test({
   name: "the lm fixture equals a fresh fit by R's lm()",
   ignore: !available && !inCi,
-  fn: async () => {
-    assert.ok(available, "CI must install r-base-core and r-cran-aer (see .ci/run)");
-    const out = await Deno.makeTempDir({ prefix: "paygrove-lm-" });
-    try {
-      const run = await new Deno.Command("Rscript", {
-        args: [`${root}tests/reference/lm_cps1988.R`, `${out}/lm_cps1988.json`],
-        stdout: "piped",
-        stderr: "piped",
-        signal: AbortSignal.timeout(60_000),
-      }).output();
-      assert.ok(run.success, new TextDecoder().decode(run.stderr));
-      const fresh = await Deno.readTextFile(`${out}/lm_cps1988.json`);
-      const committed = await Deno.readTextFile(`${root}fixtures/reference/lm_cps1988.json`);
-      assert.equal(fresh, committed);
-    } finally {
-      await Deno.remove(out, { recursive: true });
-    }
-  },
+  fn: () =>
+    rerunR("lm_cps1988.R", (out) => [`${out}/lm_cps1988.json`], [
+      ["lm_cps1988.json", "fixtures/reference/lm_cps1988.json"],
+    ]),
 });

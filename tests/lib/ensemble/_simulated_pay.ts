@@ -6,7 +6,17 @@
  * @module
  */
 
-import { makeRng, randomInt } from "../../../mod.ts";
+import {
+  fitDefaultEnsemble,
+  groupedRange,
+  groupResiduals,
+  makeRng,
+  mean,
+  oobResiduals,
+  randomInt,
+  residualRange,
+  treeEstimates,
+} from "../../../mod.ts";
 import type { Dataset } from "../../../mod.ts";
 
 /** The simulated rows: dataset on the chosen scale, plus the truth. */
@@ -53,4 +63,48 @@ export function simulatePay(perLevel: number, seed: number): SimulatedPay {
     target: { kind: "regression", name: "pay", values: pay },
   };
   return { dataset, level, pay, meanLogPay };
+}
+
+/** Coverage of a 90% range overall and per level (index 0 = level 1). */
+export interface LevelCoverage {
+  overall: number;
+  perLevel: number[];
+}
+
+/**
+ * Fits the default ensemble (200 trees, seed 3, two workers) on `train`'s
+ * pay on the given scale and measures how often the 90% range of `method`
+ * holds `test`'s pay, overall and per level.
+ */
+export async function coverageByLevel(
+  train: SimulatedPay,
+  test: SimulatedPay,
+  scale: "log" | "raw",
+  method: "grouped" | "one-set",
+): Promise<LevelCoverage> {
+  const forward = scale === "log" ? Math.log : (x: number) => x;
+  const back = scale === "log" ? Math.exp : (x: number) => x;
+  const dataset: Dataset = {
+    ...train.dataset,
+    target: { kind: "regression", name: "pay", values: train.pay.map(forward) },
+  };
+  const { ensemble } = await fitDefaultEnsemble(dataset, { trees: 200, seed: 3, workers: 2 });
+  const residuals = oobResiduals(ensemble, dataset.target.values);
+  const groups = groupResiduals(ensemble.oob, dataset.target.values, 10);
+  const hits = new Float64Array(8);
+  const counts = new Float64Array(8);
+  for (let r = 0; r < test.dataset.rows; r++) {
+    const estimate = mean(treeEstimates(ensemble, test.dataset.features.map((f) => f.values[r])));
+    const range = method === "grouped"
+      ? groupedRange(estimate, groups, 0.9)
+      : residualRange(estimate, residuals, 0.9);
+    hits[test.level[r]] += test.pay[r] >= back(range.low) && test.pay[r] <= back(range.high)
+      ? 1
+      : 0;
+    counts[test.level[r]]++;
+  }
+  return {
+    overall: hits.reduce((a, b) => a + b, 0) / counts.reduce((a, b) => a + b, 0),
+    perLevel: Array.from({ length: 7 }, (_, i) => hits[i + 1] / counts[i + 1]),
+  };
 }

@@ -6,52 +6,18 @@
 // test name.
 import assert from "node:assert/strict";
 import {
-  crossValidateTree,
-  DEFAULT_PRUNING,
   DEFAULT_RANGE,
-  fitEnsembleParallel,
+  fitDefaultEnsemble,
   groupedRange,
   groupResiduals,
-  loadTableFile,
-  makeDataset,
-  makeRng,
   mean,
-  shuffle,
   treeEstimates,
 } from "../../../mod.ts";
-import type { Dataset } from "../../../mod.ts";
+import { cps1988LogWage, heldOutSplit } from "../_cps1988.ts";
 
-const table = await loadTableFile(
-  new URL("../../../fixtures/cps1988.csv", import.meta.url).pathname,
-  { target: "wage" },
-);
-const { dataset } = makeDataset(table, { target: "wage" });
-const wage = dataset.target.values as Float64Array;
-const order = shuffle(Array.from({ length: dataset.rows }, (_, i) => i), makeRng(1988));
-const cut = Math.floor(0.8 * dataset.rows);
-const subset = (rows: number[]): Dataset => ({
-  rows: rows.length,
-  features: dataset.features.map((f) => ({
-    ...f,
-    values: Float64Array.from(rows, (r) => f.values[r]),
-  })),
-  target: {
-    kind: "regression",
-    name: "log wage",
-    values: Float64Array.from(rows, (r) => Math.log(wage[r])),
-  },
-});
-const train = subset(order.slice(0, cut));
-const test = subset(order.slice(cut));
+const { train, test } = heldOutSplit(await cps1988LogWage(), 1988);
 if (DEFAULT_RANGE.scale !== "log") throw new Error("this check assumes the log scale");
-const cv = crossValidateTree(train, { folds: 10, seed: 1, rule: DEFAULT_PRUNING.alphaRule });
-const ensemble = await fitEnsembleParallel(train, {
-  trees: 200,
-  seed: 5,
-  prune: DEFAULT_PRUNING.mode,
-  alpha: cv.candidates[cv.chosen].alpha,
-  workers: 2,
-});
+const { ensemble } = await fitDefaultEnsemble(train, { trees: 200, seed: 5, workers: 2 });
 const groups = groupResiduals(ensemble.oob, train.target.values, 10);
 let inside = 0;
 for (let r = 0; r < test.rows; r++) {

@@ -11,6 +11,7 @@ import {
   oobRegressionMetrics,
   pairedDifference,
   percentileInterval,
+  pruneTree,
   treeEstimates,
   treeSeed,
 } from "../../../mod.ts";
@@ -185,4 +186,17 @@ Deno.test("infinitesimal jackknife by its definition", () => {
   assert.ok(Math.abs(ij.uncorrectedSe - Math.sqrt(v)) < 1e-9 * Math.sqrt(v));
   assert.equal(ij.clamped, v - bias < 0);
   assert.ok(Math.abs(ij.se - Math.sqrt(Math.max(0, v - bias))) < 1e-9 * Math.max(1, ij.se));
+});
+
+Deno.test("out-of-bag pruning gives the subtree pruneTree gives at the chosen alpha", () => {
+  const dataset = invented(150);
+  const own = fitEnsemble(dataset, { trees: 8, seed: 2, prune: "oob" });
+  const bins = binFeatures(dataset);
+  for (let t = 0; t < 8; t++) {
+    const weights = bootstrapCounts(dataset.rows, own.seeds[t]);
+    const grown = growTree({ dataset, bins, weights });
+    const expected = own.alphas[t] > 0 ? pruneTree(grown, own.alphas[t]) : grown;
+    assert.deepEqual(own.trees[t].value, expected.value);
+    assert.deepEqual(own.trees[t].left, expected.left);
+  }
 });

@@ -5,22 +5,11 @@
 // constant model, and the unpruned trees must do worse than the pruned one
 // (overfitting visible). The figures are in the test names.
 import assert from "node:assert/strict";
-import {
-  constantBaseline,
-  crossValidateLinear,
-  crossValidateTree,
-  loadTableFile,
-  makeDataset,
-} from "../../../mod.ts";
+import { constantBaseline, crossValidateLinear, crossValidateTree } from "../../../mod.ts";
+import { cps1988LogWage } from "../_cps1988.ts";
 
-const table = await loadTableFile(
-  new URL("../../../fixtures/cps1988.csv", import.meta.url).pathname,
-  { target: "wage" },
-);
-const { dataset } = makeDataset(table, { target: "wage" });
-if (dataset.target.kind !== "regression") throw new Error("regression expected");
-const logWage = dataset.target.values.map(Math.log);
-dataset.target.values = logWage;
+const dataset = await cps1988LogWage();
+const logWage = dataset.target.values as Float64Array;
 
 const cv = crossValidateTree(dataset, { folds: 10, seed: 1988 });
 const grown = crossValidateTree(dataset, {
