@@ -232,18 +232,23 @@ function checkTarget(column: Column, kind: TargetKind | undefined, file: string)
   }
 }
 
-// Columns read as text that would all be numbers under the other decimal
-// mark: the usual sign of a decimal-comma file read without --decimal ",".
+// Columns read as text that would be numbers under the other decimal mark
+// (more than half of their levels, and more than under the current mark; a
+// stray "TBD" must not hide a pay column): the usual sign of a decimal-comma
+// file read without --decimal ",".
 // Not guessed automatically: "85,000" reads under both marks, and a wrong
 // guess would silently divide pay by a thousand.
 function decimalMarkWarning(columns: Column[], decimal: DecimalMark): QualityWarning | undefined {
   const other: DecimalMark = decimal === "." ? "," : ".";
   const names = columns
-    .filter((c) =>
-      c.type === "categorical" &&
-      c.levels.every((level) => parseAmount(level, other) !== undefined) &&
-      c.levels.some((level) => parseAmount(level, decimal) === undefined)
-    )
+    .filter((c) => {
+      if (c.type !== "categorical") return false;
+      const underOther = c.levels.filter((level) => parseAmount(level, other) !== undefined).length;
+      const underThis = c.levels.filter((level) =>
+        parseAmount(level, decimal) !== undefined
+      ).length;
+      return 2 * underOther > c.levels.length && underOther > underThis;
+    })
     .map((c) => c.name);
   if (names.length === 0) return undefined;
   return {

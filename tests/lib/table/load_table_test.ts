@@ -432,3 +432,15 @@ Deno.test("warnings count every line concerned, listing the first five", () => {
     '"id": 7 identifiers repeat an earlier row (lines 5, 11, 14, 17, 22 and 2 more)',
   );
 });
+
+Deno.test("a decimal-comma pay column with stray text still gets the decimal hint", () => {
+  const csv = "site;base_salary\nA;72.500,00 €\nB;61.000,00 €\nC;95.250,00 €\nD;TBD\n";
+  const found = loadTable(csv).warnings.find((w) => w.kind === "decimal-mark");
+  assert.equal(
+    found?.message,
+    '"base_salary" reads as numbers only with --decimal ","; without it it is treated as text',
+  );
+  // A column of words that happen to contain one number is no such column.
+  const words = loadTable("site;team\nA;red\nB;blue\nC;1,5\n");
+  assert.equal(words.warnings.find((w) => w.kind === "decimal-mark"), undefined);
+});
