@@ -35,6 +35,8 @@ export {
 } from "./lib/ensemble/fit_ensemble.ts";
 export {
   type Difference,
+  type InBagCounts,
+  inBagCounts,
   infinitesimalJackknife,
   type Interval,
   type JackknifeError,
@@ -55,7 +57,7 @@ export {
   type LinearFit,
 } from "./lib/linear/least_squares.ts";
 export { fitEnsembleParallel, type ParallelOptions } from "./lib/ensemble/fit_parallel.ts";
-export { DEFAULT_PRUNING, DEFAULT_RANGE } from "./lib/ensemble/defaults.ts";
+export { DEFAULT_HOW_SURE, DEFAULT_PRUNING, DEFAULT_RANGE } from "./lib/ensemble/defaults.ts";
 export {
   type FeatureImportance,
   featureImportance,
@@ -73,3 +75,8 @@ export {
   type DefaultEnsembleOptions,
   fitDefaultEnsemble,
 } from "./lib/ensemble/fit_default.ts";
+export {
+  type LeafMembers,
+  leafMembers,
+  quantileForestRange,
+} from "./lib/ensemble/quantile_forest.ts";

@@ -3,8 +3,9 @@
 // level, levels 1-7; tests/lib/ensemble/_simulated_pay.ts), 300 training and
 // 300 held-out rows per level, fit 200 trees on raw pay and on log pay, and
 // measure the 90% range's coverage of held-out rows overall and per level for
-// (a) one set of out-of-bag residuals for everyone and (b) residuals grouped
-// by the size of the estimate. Writes tests/results/range_coverage_sim.json.
+// (a) one set of out-of-bag residuals for everyone, (b) residuals grouped
+// by the size of the estimate and (c) quantile regression forest weights
+// (Meinshausen 2006). Writes tests/results/range_coverage_sim.json.
 // Run: deno run --allow-read --allow-write=tests/results bench/range_experiment.ts
 import { coverageByLevel, simulatePay } from "../tests/lib/ensemble/_simulated_pay.ts";
 
@@ -12,7 +13,7 @@ const train = simulatePay(300, 101);
 const test = simulatePay(300, 202);
 const results: Record<string, unknown>[] = [];
 for (const scale of ["raw", "log"] as const) {
-  for (const method of ["one-set", "grouped"] as const) {
+  for (const method of ["one-set", "grouped", "quantile-forest"] as const) {
     const { overall, perLevel } = await coverageByLevel(train, test, scale, method);
     const worst = Math.max(...perLevel.map((c) => Math.abs(c - 0.9)));
     results.push({ scale, method, overall, perLevel, worstLevelGap: worst });

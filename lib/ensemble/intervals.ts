@@ -206,31 +206,80 @@ export interface JackknifeError {
 }
 
 /**
+ * Every tree's bootstrap counts, regenerated once from the trees' seeds so
+ * that many jackknife queries need not redraw them (tree-major: tree b's
+ * count of row i is `counts[b * rows + i]`).
+ */
+export interface InBagCounts {
+  /** Training rows. */
+  rows: number;
+  /** Tree-major counts (a row is drawn at most a few times, so 8 bits hold it). */
+  counts: Uint8Array;
+}
+
+/**
+ * Regenerates the bootstrap counts of every tree of an ensemble fitted on
+ * `rows` rows.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bootstrapCounts, fitEnsemble, inBagCounts } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 30,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.from({ length: 30 }, (_, i) => i) }],
+ *   target: { kind: "regression" as const, name: "y", values: Float64Array.from({ length: 30 }, (_, i) => i) },
+ * };
+ * const ensemble = fitEnsemble(dataset, { trees: 3, prune: "none" });
+ * const bag = inBagCounts(ensemble, 30);
+ * assert.deepEqual(Array.from(bag.counts.subarray(30, 60)), Array.from(bootstrapCounts(30, ensemble.seeds[1])));
+ * ```
+ */
+export function inBagCounts(ensemble: Ensemble, rows: number): InBagCounts {
+  const counts = new Uint8Array(ensemble.trees.length * rows);
+  for (let b = 0; b < ensemble.trees.length; b++) {
+    counts.set(bootstrapCounts(rows, ensemble.seeds[b]), b * rows);
+  }
+  return { rows, counts };
+}
+
+/**
  * The bias-corrected infinitesimal jackknife standard error of the
- * ensemble's estimate for a profile (Wager, Hastie & Efron 2014, *JMLR* 15):
- * V_IJ = sum over rows i of Cov_i^2, Cov_i = (1/B) sum over trees b of
- * (N_bi - 1)(t_b - tbar), minus (n / B^2) sum_b (t_b - tbar)^2. It is the
- * uncertainty of the typical pay for such a profile, not the spread of one
- * person's pay; its correction needs B of the order of n to be stable.
+ * ensemble's estimate for a profile (Wager, Hastie & Efron 2014, *JMLR* 15,
+ * eq. 5 and 7): V_IJ = sum over rows i of Cov_i^2, Cov_i = (1/B) sum over
+ * trees b of (N_bi - 1)(t_b - tbar), minus (n / B^2) sum_b (t_b - tbar)^2.
+ * It is the uncertainty of the typical pay for such a profile, not the
+ * spread of one person's pay; its correction needs B of the order of n to
+ * be stable (see {@linkcode DEFAULT_HOW_SURE} for the measured cut-off).
+ *
+ * @param bag The trees' counts from {@linkcode inBagCounts}, to reuse
+ * across profiles (regenerated when omitted).
  */
 export function infinitesimalJackknife(
   ensemble: Ensemble,
   rows: number,
   profile: ArrayLike<number>,
+  bag: InBagCounts = inBagCounts(ensemble, rows),
 ): JackknifeError {
+  if (bag.rows !== rows) throw new RangeError(`counts are for ${bag.rows} rows, not ${rows}`);
   const estimates = treeEstimates(ensemble, profile);
   const trees = estimates.length;
   const average = mean(estimates);
   const cov = new Float64Array(rows);
   let spread = 0;
+  let sumD = 0;
+  const counts = bag.counts;
   for (let b = 0; b < trees; b++) {
     const d = estimates[b] - average;
     spread += d * d;
-    const counts = bootstrapCounts(rows, ensemble.seeds[b]);
-    for (let i = 0; i < rows; i++) cov[i] += (counts[i] - 1) * d;
+    sumD += d;
+    if (d === 0) continue;
+    const offset = b * rows;
+    for (let i = 0; i < rows; i++) cov[i] += counts[offset + i] * d;
   }
   let v = 0;
-  for (let i = 0; i < rows; i++) v += (cov[i] / trees) ** 2;
+  // Cov_i * B = sum_b N_bi d_b - sum_b d_b (the -1 of (N_bi - 1)).
+  for (let i = 0; i < rows; i++) v += ((cov[i] - sumD) / trees) ** 2;
   const corrected = v - (rows / (trees * trees)) * spread;
   return {
     se: Math.sqrt(Math.max(0, corrected)),

@@ -10,9 +10,11 @@ import {
   fitDefaultEnsemble,
   groupedRange,
   groupResiduals,
+  leafMembers,
   makeRng,
   mean,
   oobResiduals,
+  quantileForestRange,
   randomInt,
   residualRange,
   treeEstimates,
@@ -71,6 +73,9 @@ export interface LevelCoverage {
   perLevel: number[];
 }
 
+/** The ranges compared: one residual set, grouped residuals, forest weights. */
+export type RangeMethod = "one-set" | "grouped" | "quantile-forest";
+
 /**
  * Fits the default ensemble (200 trees, seed 3, two workers) on `train`'s
  * pay on the given scale and measures how often the 90% range of `method`
@@ -80,7 +85,7 @@ export async function coverageByLevel(
   train: SimulatedPay,
   test: SimulatedPay,
   scale: "log" | "raw",
-  method: "grouped" | "one-set",
+  method: RangeMethod,
 ): Promise<LevelCoverage> {
   const forward = scale === "log" ? Math.log : (x: number) => x;
   const back = scale === "log" ? Math.exp : (x: number) => x;
@@ -91,12 +96,16 @@ export async function coverageByLevel(
   const { ensemble } = await fitDefaultEnsemble(dataset, { trees: 200, seed: 3, workers: 2 });
   const residuals = oobResiduals(ensemble, dataset.target.values);
   const groups = groupResiduals(ensemble.oob, dataset.target.values, 10);
+  const members = method === "quantile-forest" ? leafMembers(ensemble, dataset) : undefined;
   const hits = new Float64Array(8);
   const counts = new Float64Array(8);
   for (let r = 0; r < test.dataset.rows; r++) {
-    const estimate = mean(treeEstimates(ensemble, test.dataset.features.map((f) => f.values[r])));
+    const profile = test.dataset.features.map((f) => f.values[r]);
+    const estimate = mean(treeEstimates(ensemble, profile));
     const range = method === "grouped"
       ? groupedRange(estimate, groups, 0.9)
+      : method === "quantile-forest"
+      ? quantileForestRange(ensemble, members!, profile, 0.9)
       : residualRange(estimate, residuals, 0.9);
     hits[test.level[r]] += test.pay[r] >= back(range.low) && test.pay[r] <= back(range.high)
       ? 1
