@@ -80,3 +80,10 @@ export {
   leafMembers,
   quantileForestRange,
 } from "./lib/ensemble/quantile_forest.ts";
+export {
+  accuracyInMoney,
+  type PayScale,
+  type ScaledAccuracy,
+  toFitScale,
+  toMoney,
+} from "./lib/ensemble/pay_scale.ts";
