@@ -87,3 +87,23 @@ export {
   toFitScale,
   toMoney,
 } from "./lib/ensemble/pay_scale.ts";
+export {
+  compareProfiles,
+  type ProfileReader,
+  profileReader,
+  type ProfileReading,
+  readProfile,
+  type WhatIf,
+} from "./lib/ensemble/read_profile.ts";
+export {
+  DEMO_COLUMNS,
+  DEMO_COMPANY,
+  demoCompanyCsv,
+  type DemoOptions,
+  EDUCATION,
+  FAMILY_PREMIUM,
+  GAP,
+  LEVEL_BASE,
+  LEVEL_TITLES,
+  SITE_ZONE,
+} from "./lib/demo/demo_company.ts";

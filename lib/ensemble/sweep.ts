@@ -10,13 +10,8 @@
 
 import type { Dataset, Feature } from "../dataset/types.ts";
 import { quantile } from "../table/quality.ts";
-import {
-  type Interval,
-  mean,
-  percentileInterval,
-  residualRange,
-  treeEstimates,
-} from "./intervals.ts";
+import { mean, treeEstimates } from "./intervals.ts";
+import { type ProfileReader, type ProfileReading, readProfile } from "./read_profile.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 
 /**
@@ -48,42 +43,27 @@ export function sweepGrid(
   return Array.from({ length: steps }, (_, i) => from + ((to - from) * i) / (steps - 1));
 }
 
-/** One point of a sweep. */
-export interface SweepPoint {
+/** One point of a sweep: the feature's value and the reading there. */
+export interface SweepPoint extends ProfileReading {
   /** The feature's value (a level code for ordinal and categorical features). */
   value: number;
-  /** The ensemble's estimate. */
-  estimate: number;
-  /** How sure the estimate is: percentile interval of the trees' estimates. */
-  confidence: Interval;
-  /** Range comparable people's pay falls in (out-of-bag residuals). */
-  range: Interval;
 }
 
 /**
- * Estimates and both intervals for one profile as one feature runs over a grid.
- *
- * @param residuals Out-of-bag residuals, from `oobResiduals`.
+ * Readings of one profile (estimate, how sure, range, all in money) as one
+ * feature runs over a grid with the others held fixed.
  */
 export function sweepProfile(
-  ensemble: Ensemble,
+  reader: ProfileReader,
   profile: ArrayLike<number>,
   feature: number,
   grid: readonly number[],
-  residuals: ArrayLike<number>,
   coverage = 0.9,
 ): SweepPoint[] {
   const values = Float64Array.from(profile);
   return grid.map((value) => {
     values[feature] = value;
-    const estimates = treeEstimates(ensemble, values);
-    const estimate = mean(estimates);
-    return {
-      value,
-      estimate,
-      confidence: percentileInterval(estimates, coverage),
-      range: residualRange(estimate, residuals, coverage),
-    };
+    return { value, ...readProfile(reader, values, coverage) };
   });
 }
 

@@ -197,6 +197,7 @@ class Grower {
   private readonly rowData: Float64Array;
   // Compact list of the non-empty bins of the feature being scanned.
   private cBin: Int32Array;
+  private sortKeys: Uint32Array;
   private cN: Int32Array;
   private cW: Float64Array;
   private cS: Float64Array; // regression: 1 per bin; classification: K per bin
@@ -274,6 +275,7 @@ class Grower {
     }
     const widest = Math.max(1, ...data.bins.map((b) => b.count + 1));
     const compact = Math.min(widest, kept + 1);
+    this.sortKeys = new Uint32Array(kept);
     this.cBin = new Int32Array(compact);
     this.cN = new Int32Array(compact);
     this.cW = new Float64Array(compact);
@@ -450,23 +452,29 @@ class Grower {
     let weight = 0;
     let impurity: number;
     if (this.regression) {
+      // One pass, with sums taken about the first row's target so that
+      // they do not cancel (as raw sums of y^2 would, by ~1e-13 on log
+      // pay); a node whose targets are all equal gets impurity exactly 0.
+      const y = this.y;
+      const shift = y[index[start]];
       let sum = 0;
+      let sq = 0;
+      let low = Infinity;
+      let high = -Infinity;
       for (let i = start; i < end; i++) {
         const r = index[i];
+        const v = y[r];
+        const d = v - shift;
+        const wd = w[r] * d;
         weight += w[r];
-        sum += w[r] * this.y[r];
+        sum += wd;
+        sq += wd * d;
+        if (v < low) low = v;
+        if (v > high) high = v;
       }
-      const mean = sum / weight;
-      // Two passes, so that a node whose targets are all equal has impurity
-      // exactly 0 (the one-pass form leaves rounding of about 1e-14).
-      let ss = 0;
-      for (let i = start; i < end; i++) {
-        const r = index[i];
-        const d = this.y[r] - mean;
-        ss += w[r] * d * d;
-      }
-      values[0] = mean;
-      impurity = ss / weight;
+      const offset = sum / weight;
+      values[0] = shift + offset;
+      impurity = low === high ? 0 : Math.max(0, sq / weight - offset * offset);
     } else {
       for (let i = start; i < end; i++) {
         const r = index[i];
@@ -552,7 +560,11 @@ class Grower {
       return m;
     }
     // Few rows, many bins: sort the node's (bin, position) keys instead.
-    const keys = new Float64Array(rows);
+    // Keys fit 32 bits for all but huge nodes of many-valued features, and a
+    // reused Uint32Array sorts faster than a fresh Float64Array.
+    const keys = (missingBin + 1) * rows <= 0xffffffff
+      ? this.sortKeys.subarray(0, rows)
+      : new Float64Array(rows);
     for (let i = 0; i < rows; i++) keys[i] = ids[index[start + i]] * rows + i;
     keys.sort();
     let i = 0;
@@ -561,6 +573,8 @@ class Grower {
     let missQ = 0;
     while (i < rows) {
       const b = Math.floor(keys[i] / rows);
+      const first = b * rows;
+      const limit = first + rows;
       let n = 0;
       let wsum = 0;
       let q = 0;
@@ -569,8 +583,8 @@ class Grower {
         this.cBin[at] = b;
         for (let c = 0; c < k; c++) this.cS[at * k + c] = 0;
       }
-      while (i < rows && Math.floor(keys[i] / rows) === b) {
-        const r = index[start + (keys[i] - b * rows)];
+      while (i < rows && keys[i] < limit) {
+        const r = index[start + (keys[i] - first)];
         const wr = w[r];
         n++;
         wsum += wr;

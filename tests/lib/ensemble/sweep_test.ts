@@ -1,10 +1,12 @@
 import assert from "node:assert/strict";
 import {
   fitEnsemble,
+  groupedRange,
+  groupResiduals,
   mean,
-  oobResiduals,
   partialDependence,
   percentileInterval,
+  profileReader,
   sweepGrid,
   sweepProfile,
   treeEstimates,
@@ -27,19 +29,19 @@ Deno.test("a sweep walks one attribute and keeps the others fixed", () => {
     prune: "none",
     grow: { minLeaf: 3 },
   });
-  const residuals = oobResiduals(ensemble, dataset.target.values);
+  const reader = profileReader(ensemble, dataset, "raw");
+  const groups = groupResiduals(ensemble.oob, dataset.target.values, 10);
   const grid = sweepGrid(dataset.features[0], { from: 0, to: 29, steps: 30 });
-  const points = sweepProfile(ensemble, [10, 1], 0, grid, residuals, 0.9);
+  const points = sweepProfile(reader, [10, 1], 0, grid, 0.9);
   assert.equal(points.length, 30);
   for (const p of points) {
     // Each point is the ensemble at that profile, with its intervals: the
-    // trees' 5%-95% estimates, and the estimate plus residual quantiles.
+    // trees' 5%-95% estimates, and the estimate plus its group's residual
+    // quantiles.
     const estimates = treeEstimates(ensemble, [p.value, 1]);
     assert.equal(p.estimate, mean(estimates));
-    assert.deepEqual(p.confidence, percentileInterval(estimates, 0.9));
-    const spread = percentileInterval(residuals, 0.9);
-    assert.ok(Math.abs(p.range.low - (p.estimate + spread.low)) < 1e-9 * p.estimate);
-    assert.ok(Math.abs(p.range.high - (p.estimate + spread.high)) < 1e-9 * p.estimate);
+    assert.deepEqual(p.howSure, percentileInterval(estimates, 0.9));
+    assert.deepEqual(p.range, groupedRange(p.estimate, groups, 0.9));
   }
   // The invented rule: +1,000 a year to 15, flat after.
   assert.ok(points[15].estimate - points[0].estimate > 12000);

@@ -1,0 +1,203 @@
+/**
+ * What the model says about one profile, with the measured defaults
+ * applied and every figure back in money: the estimate, how sure it is,
+ * the range comparable people's pay falls in, and what-if differences.
+ * This is the one place the terminal layer asks; it adds no method of its
+ * own to those in intervals.ts, grouped_range.ts and quantile_forest.ts.
+ *
+ * @module
+ */
+
+import normalQuantile from "@stdlib/stats-base-dists-normal-quantile";
+import type { Dataset } from "../dataset/types.ts";
+import { DEFAULT_HOW_SURE } from "./defaults.ts";
+import type { Ensemble } from "./fit_ensemble.ts";
+import { groupedRange, groupResiduals, type ResidualGroups } from "./grouped_range.ts";
+import {
+  type InBagCounts,
+  inBagCounts,
+  infinitesimalJackknife,
+  type Interval,
+  mean,
+  percentileInterval,
+  treeEstimates,
+} from "./intervals.ts";
+import { type PayScale, toMoney } from "./pay_scale.ts";
+import { type LeafMembers, leafMembers, quantileForestRange } from "./quantile_forest.ts";
+
+/** The z value of a central interval of `coverage` (standard normal quantile). */
+function zOf(coverage: number): number {
+  return normalQuantile(1 - (1 - coverage) / 2, 0, 1);
+}
+
+/** A regression ensemble with what its readings need, built once per model. */
+export interface ProfileReader {
+  /** The ensemble (fitted on `scale`). */
+  ensemble: Ensemble;
+  /** The scale the ensemble was fitted on. */
+  scale: PayScale;
+  /** Out-of-bag residuals grouped by estimate (the default range). */
+  groups: ResidualGroups;
+  /** Training rows (the jackknife needs their count). */
+  trainingRows: number;
+  /** The trees' bootstrap counts, when the jackknife is shown. */
+  bag: InBagCounts | null;
+  /** Training rows by leaf, when the table is at hand (the forest range). */
+  members: LeafMembers | null;
+}
+
+/**
+ * Prepares readings of a regression ensemble.
+ *
+ * @param dataset The training table on the fitting scale. With
+ * `withTable`, the range comes from quantile regression forest weights,
+ * which need everyone's pay; otherwise from out-of-bag residuals grouped by
+ * estimate, which is what a saved model (keeping no one's pay) can give.
+ */
+export function profileReader(
+  ensemble: Ensemble,
+  dataset: Dataset,
+  scale: PayScale,
+  options: { withTable?: boolean } = {},
+): ProfileReader {
+  if (dataset.target.kind !== "regression" || ensemble.width !== 1) {
+    throw new TypeError("profile readings need a regression ensemble");
+  }
+  const rows = dataset.rows;
+  const jackknife = ensemble.trees.length >= DEFAULT_HOW_SURE.jackknifeFromTreesPerRow * rows;
+  return {
+    ensemble,
+    scale,
+    groups: groupResiduals(ensemble.oob, dataset.target.values, 10),
+    trainingRows: rows,
+    bag: jackknife ? inBagCounts(ensemble, rows) : null,
+    members: options.withTable ? leafMembers(ensemble, dataset) : null,
+  };
+}
+
+/** What the model says about one profile, in money. */
+export interface ProfileReading {
+  /** The estimate: the trees' mean (its exp, the median pay, on the log scale). */
+  estimate: number;
+  /**
+   * How sure the estimate is: the percentile interval of the trees'
+   * estimates (it measures how much one tree moves between resamples).
+   */
+  howSure: Interval;
+  /**
+   * The infinitesimal jackknife interval (estimate +/- z SE on the fitting
+   * scale) and SE, where there are enough trees per row for it; else null.
+   */
+  jackknife: { se: number; interval: Interval } | null;
+  /** The range comparable people's pay falls in. */
+  range: Interval;
+  /** How the range was made. */
+  rangeMethod: "grouped-residuals" | "quantile-forest";
+  /** Every tree's estimate in money, in tree order. */
+  trees: Float64Array;
+  /** The trees' estimates on the fitting scale. */
+  fitted: Float64Array;
+}
+
+/**
+ * Reads one profile.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble, profileReader, readProfile } from "../../mod.ts";
+ * const years = Array.from({ length: 200 }, (_, i) => i % 20);
+ * const pay = years.map((y, i) => Math.log(40000 + 2000 * y + (i % 5) * 500));
+ * const dataset = {
+ *   rows: 200,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(pay) },
+ * };
+ * const ensemble = fitEnsemble(dataset, { trees: 30, prune: "none", grow: { minLeaf: 5 } });
+ * const reading = readProfile(profileReader(ensemble, dataset, "log"), [10], 0.9);
+ * assert(reading.estimate > 59000 && reading.estimate < 63000);
+ * assert(reading.range.low < reading.estimate && reading.estimate < reading.range.high);
+ * ```
+ */
+export function readProfile(
+  reader: ProfileReader,
+  profile: ArrayLike<number>,
+  coverage = 0.9,
+): ProfileReading {
+  const { ensemble, scale } = reader;
+  const fitted = treeEstimates(ensemble, profile);
+  const center = mean(fitted);
+  const spread = percentileInterval(fitted, coverage);
+  let jackknife: ProfileReading["jackknife"] = null;
+  if (reader.bag !== null) {
+    const ij = infinitesimalJackknife(ensemble, reader.trainingRows, profile, reader.bag);
+    const z = zOf(coverage);
+    jackknife = {
+      se: ij.se,
+      interval: {
+        low: toMoney(center - z * ij.se, scale),
+        high: toMoney(center + z * ij.se, scale),
+        coverage,
+      },
+    };
+  }
+  const range = reader.members !== null
+    ? quantileForestRange(ensemble, reader.members, profile, coverage)
+    : groupedRange(center, reader.groups, coverage);
+  return {
+    estimate: toMoney(center, scale),
+    howSure: { low: toMoney(spread.low, scale), high: toMoney(spread.high, scale), coverage },
+    jackknife,
+    range: { low: toMoney(range.low, scale), high: toMoney(range.high, scale), coverage },
+    rangeMethod: reader.members !== null ? "quantile-forest" : "grouped-residuals",
+    trees: fitted.map((v) => toMoney(v, scale)),
+    fitted,
+  };
+}
+
+/** A what-if: base and changed readings with the paired change between them. */
+export interface WhatIf {
+  /** The base profile's reading. */
+  base: ProfileReading;
+  /** The changed profile's reading. */
+  changed: ProfileReading;
+  /**
+   * The change in money (changed estimate minus base estimate) with the
+   * percentile interval of the trees' paired changes in money.
+   */
+  difference: Interval & { estimate: number };
+  /**
+   * The change as a share of the base (0.1 = +10%), with the percentile
+   * interval of the trees' paired relative changes; on the log scale this
+   * is exp(per-tree log change) - 1.
+   */
+  relative: Interval & { estimate: number };
+}
+
+/**
+ * Base vs changed profile, with the per-tree paired differences: each tree
+ * estimates both, so their shared errors cancel and the interval of the
+ * change is far narrower than the two profiles' intervals suggest.
+ */
+export function compareProfiles(
+  reader: ProfileReader,
+  base: ArrayLike<number>,
+  changed: ArrayLike<number>,
+  coverage = 0.9,
+): WhatIf {
+  const a = readProfile(reader, base, coverage);
+  const b = readProfile(reader, changed, coverage);
+  const money = b.trees.map((v, t) => v - a.trees[t]);
+  const ratio = reader.scale === "log"
+    ? b.fitted.map((v, t) => Math.expm1(v - a.fitted[t]))
+    : b.trees.map((v, t) => v / a.trees[t] - 1);
+  const relativeEstimate = reader.scale === "log"
+    ? Math.expm1(mean(b.fitted) - mean(a.fitted))
+    : b.estimate / a.estimate - 1;
+  return {
+    base: a,
+    changed: b,
+    difference: { estimate: b.estimate - a.estimate, ...percentileInterval(money, coverage) },
+    relative: { estimate: relativeEstimate, ...percentileInterval(ratio, coverage) },
+  };
+}
