@@ -50,6 +50,7 @@ export {
   treeEstimates,
 } from "./lib/ensemble/intervals.ts";
 export {
+  crossValidatedLinearPredictions,
   crossValidateLinear,
   type Design,
   designOf,
@@ -62,6 +63,7 @@ export {
   type FeatureImportance,
   featureImportance,
   type ImportanceOptions,
+  impurityDecrease,
 } from "./lib/ensemble/importance.ts";
 export {
   partialDependence,
@@ -69,7 +71,12 @@ export {
   type SweepPoint,
   sweepProfile,
 } from "./lib/ensemble/sweep.ts";
-export { groupedRange, groupResiduals, type ResidualGroups } from "./lib/ensemble/grouped_range.ts";
+export {
+  groupedRange,
+  groupResiduals,
+  type ResidualGroups,
+  summarizeResidualGroups,
+} from "./lib/ensemble/grouped_range.ts";
 export {
   type DefaultEnsemble,
   type DefaultEnsembleOptions,
@@ -92,18 +99,44 @@ export {
   type ProfileReader,
   profileReader,
   type ProfileReading,
+  readerFromParts,
   readProfile,
+  residualGroupCount,
   type WhatIf,
 } from "./lib/ensemble/read_profile.ts";
 export {
+  BAND_HIGH,
+  BAND_LOW,
   DEMO_COLUMNS,
   DEMO_COMPANY,
   demoCompanyCsv,
   type DemoOptions,
+  type DemoPerson,
   EDUCATION,
   FAMILY_PREMIUM,
   GAP,
   LEVEL_BASE,
   LEVEL_TITLES,
+  logPayRule,
+  noiseSd,
+  REMOTE_ZONE,
   SITE_ZONE,
 } from "./lib/demo/demo_company.ts";
+export { type AtomicWriteOptions, writeFileAtomic } from "./lib/io/atomic_write.ts";
+export * from "./lib/model/types.ts";
+export {
+  fitModel,
+  type FitModelOptions,
+  PRIVACY_FLOOR,
+  rowKey,
+  typicalValue,
+} from "./lib/model/fit_model.ts";
+export {
+  modelFromText,
+  modelToText,
+  readModelFile,
+  writeModelFile,
+} from "./lib/model/model_file.ts";
+export * from "./lib/model/profile.ts";
+export * from "./lib/model/model_table.ts";
+export * from "./lib/model/answers.ts";

@@ -14,6 +14,7 @@
 import { Command, CommanderError } from "commander";
 import { DataError, OptionError, VERSION } from "../mod.ts";
 import { schemaCommand } from "./commands/schema.ts";
+import { fitCommand } from "./commands/fit.ts";
 import { processTerminal, type Terminal } from "./terminal.ts";
 
 /** Exit statuses of the `paygrove` command. */
@@ -32,9 +33,11 @@ export function buildProgram(terminal: Terminal): Command {
     )
     .version(VERSION, "-V, --version", "print paygrove's version");
   configure(program, terminal);
-  const schema = schemaCommand(terminal) as unknown as Command;
-  configure(schema, terminal);
-  program.addCommand(schema);
+  for (const make of [schemaCommand, fitCommand]) {
+    const command = make(terminal) as unknown as Command;
+    configure(command, terminal);
+    program.addCommand(command);
+  }
   return program;
 }
 

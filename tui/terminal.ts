@@ -19,6 +19,11 @@ export interface Terminal {
   errStyle: Style;
   /** Width of standard output in characters. */
   width: number;
+  /**
+   * Redraws one progress line in place on standard error; undefined when
+   * standard error is not a terminal (progress is then not shown at all).
+   */
+  progress?: (text: string) => void;
 }
 
 // Width used when output is not a terminal (a pipe or a file).
@@ -48,13 +53,22 @@ export function processTerminal(): Terminal {
       // Keep the default when the size cannot be read.
     }
   }
-  return {
+  const terminal: Terminal = {
     out: (text) => write(Deno.stdout, text),
     err: (text) => write(Deno.stderr, text),
     style: styleFor(Deno.stdout),
     errStyle: styleFor(Deno.stderr),
     width,
   };
+  if (Deno.stderr.isTerminal()) {
+    terminal.progress = (text) => {
+      // Carriage return and erase-line, so each update replaces the last.
+      const bytes = encoder.encode(`\r\x1b[K${text}`);
+      let written = 0;
+      while (written < bytes.length) written += Deno.stderr.writeSync(bytes.subarray(written));
+    };
+  }
+  return terminal;
 }
 
 /**

@@ -3,24 +3,29 @@
  * paygrove's demo: it stands for no real company and no real person. A
  * seeded generator, so the same seed gives the same table.
  *
- * The pay rule behind it (log of yearly base pay in EUR):
+ * The pay rule behind it ({@linkcode logPayRule}; log of yearly base pay in
+ * EUR, with level index k = 0 for G1 ... 6 for G7):
  *
- *     log pay = log(LEVEL_BASE[level])          level dominates
- *             + FAMILY_PREMIUM[family]          job family premium
- *             + SITE_ZONE[site]                 pay zone of the site
- *             + 0.09 * log(1 + experience)      concave returns to experience
- *             - 0.004 * tenure                  tenure compression: long-serving
- *                                               people fall behind new hires
- *             + 0.015 * (rating - 3)            small performance effect
- *                                               (0 when there is no rating)
- *             + 0.01 * [remote]                 remote roles
- *             + (0.035 + 0.008 * level) * z     noise, wider at higher levels
- *             - GAP * [woman in Field Service]  the deliberate unexplained gap
+ *     log pay = log(LEVEL_BASE[level])               level dominates (with a big
+ *                                                    step at G5, where people
+ *                                                    start to manage)
+ *             + FAMILY_PREMIUM[family] * (1 + k / 2) family premiums grow with level
+ *             + zone                                 SITE_ZONE[site] on site; remote
+ *                                                    people are paid on REMOTE_ZONE
+ *             + 0.09 * log(1 + experience)           concave returns to experience
+ *             - 0.004 * tenure                       tenure compression: long-serving
+ *                                                    people fall behind new hires
+ *             + 0.015 * (rating - 3)                 small performance effect
+ *                                                    (0 when there is no rating)
+ *             - GAP * [woman in Field Service]       the deliberate unexplained gap
+ *             + (0.035 + 0.008 * (k + 1)) * z        noise, wider at higher levels
  *
- * with z standard normal. Education has no direct effect: it only shifts
- * which level people reach, so a model that credits it is picking up
- * level. The gap (6% in log points, in one job family) is there for the
- * pay-gap check to find.
+ * with z standard normal; then pay is held within its level's band
+ * (BAND_LOW to BAND_HIGH times LEVEL_BASE) and rounded to 50 EUR. The
+ * interactions and the bands are what a straight line cannot follow.
+ * Education has no direct effect: it only shifts which level people reach,
+ * so a model that credits it is picking up level. The gap (6% in log
+ * points, in one job family) is there for the pay-gap check to find.
  *
  * @module
  */
@@ -33,12 +38,12 @@ export const DEMO_COMPANY = "Fernhollow Instruments (invented)";
 /** Job levels, lowest first, with their base pay (EUR a year). */
 export const LEVEL_BASE: Readonly<Record<string, number>> = {
   G1: 34000,
-  G2: 41000,
-  G3: 50000,
-  G4: 61000,
-  G5: 75000,
-  G6: 93000,
-  G7: 118000,
+  G2: 39000,
+  G3: 46000,
+  G4: 54000,
+  G5: 74000,
+  G6: 88000,
+  G7: 124000,
 };
 
 /** What each level is called in the company's own ladder. */
@@ -70,6 +75,60 @@ export const SITE_ZONE: Readonly<Record<string, number>> = {
   "Cinder Hill": -0.09,
 };
 
+/** The pay zone of remote people, whatever their site (log points). */
+export const REMOTE_ZONE = -0.02;
+
+/** Pay bands: pay is held between these multiples of the level's base. */
+export const BAND_LOW = 0.97;
+
+/** Pay bands: pay is held between these multiples of the level's base. */
+export const BAND_HIGH = 1.55;
+
+/** One person's attributes as the pay rule reads them. */
+export interface DemoPerson {
+  /** Level index, 0 (G1) to 6 (G7). */
+  level: number;
+  /** Job family. */
+  family: string;
+  /** Site. */
+  site: string;
+  /** Years of experience. */
+  experience: number;
+  /** Years at the company. */
+  tenure: number;
+  /** Performance rating 1-5, NaN when none. */
+  rating: number;
+  /** Remote role. */
+  remote: boolean;
+  /** Gender (the rule uses it only for the deliberate gap). */
+  gender: string;
+}
+
+/**
+ * The rule's log pay for a person before noise and bands.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { logPayRule } from "./demo_company.ts";
+ * const p = { level: 0, family: "Field Service", site: "Eastgate", experience: 0, tenure: 0,
+ *   rating: NaN, remote: false, gender: "Man" };
+ * assert(Math.abs(logPayRule(p) - Math.log(34000)) < 1e-12);
+ * ```
+ */
+export function logPayRule(p: DemoPerson): number {
+  const levels = Object.keys(LEVEL_BASE);
+  return Math.log(LEVEL_BASE[levels[p.level]]) + FAMILY_PREMIUM[p.family] * (1 + p.level / 2) +
+    (p.remote ? REMOTE_ZONE : SITE_ZONE[p.site]) + 0.09 * Math.log1p(p.experience) -
+    0.004 * p.tenure + (Number.isNaN(p.rating) ? 0 : 0.015 * (p.rating - 3)) -
+    (p.family === GAP.family && p.gender === GAP.group ? GAP.logPoints : 0);
+}
+
+/** Standard deviation of the noise at level index k. */
+export function noiseSd(level: number): number {
+  return 0.035 + 0.008 * (level + 1);
+}
+
 /** Education, lowest first (no direct pay effect; see the module notes). */
 export const EDUCATION = ["Secondary", "Vocational", "Bachelor", "Master", "Doctorate"] as const;
 
@@ -84,6 +143,11 @@ const SITE_SHARE = [0.34, 0.27, 0.24, 0.15];
 
 /** Options of {@linkcode demoCompanyCsv}. */
 export interface DemoOptions {
+  /**
+   * Hold pay within the level bands (off only to check the rule itself).
+   * @default {true}
+   */
+  bands?: boolean;
   /**
    * People in the table.
    * @default {2000}
@@ -165,13 +229,14 @@ export function demoCompanyCsv(options: DemoOptions = {}): string {
     const remote = uniform() < 0.18;
     const g = uniform();
     const gender = g < 0.47 ? "Woman" : g < 0.98 ? "Man" : "Non-binary";
-    const logPay = Math.log(LEVEL_BASE[levels[level]]) + FAMILY_PREMIUM[family] +
-      SITE_ZONE[site] + 0.09 * Math.log1p(experience) - 0.004 * tenure +
-      (newHire ? 0 : 0.015 * (rating - 3)) + (remote ? 0.01 : 0) +
-      (0.035 + 0.008 * (level + 1)) * normal() -
-      (family === GAP.family && gender === GAP.group ? GAP.logPoints : 0);
-    // Pay is set in steps of 50 EUR.
-    const pay = Math.round(Math.exp(logPay) / 50) * 50;
+    const person = { level, family, site, experience, tenure, rating, remote, gender };
+    const base = LEVEL_BASE[levels[level]];
+    const raw = Math.exp(logPayRule(person) + noiseSd(level) * normal());
+    // Held within the level's band, then set in steps of 50 EUR.
+    const held = options.bands === false
+      ? raw
+      : Math.min(BAND_HIGH * base, Math.max(BAND_LOW * base, raw));
+    const pay = Math.round(held / 50) * 50;
     lines.push(
       [
         `FH${String(10001 + i)}`,

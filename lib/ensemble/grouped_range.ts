@@ -75,3 +75,36 @@ export function groupedRange(estimate: number, groups: ResidualGroups, coverage:
     coverage,
   };
 }
+
+/**
+ * The groups with each group's residuals replaced by their quantiles at
+ * 0, 1/steps, ..., 1 (R's type 7), the two ends clamped to the next grid
+ * points so that no one row's residual is kept. Ranges at coverages on the
+ * grid (0.9, 0.8, 0.95, ...) equal those of the full residuals; between grid
+ * points they interpolate. This is what a saved model keeps.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { groupedRange, groupResiduals, summarizeResidualGroups } from "./grouped_range.ts";
+ * const est = Float64Array.from({ length: 1000 }, (_, i) => i % 100);
+ * const y = est.map((e, i) => e + Math.sin(i) * (1 + e / 10));
+ * const full = groupResiduals(est, y, 4);
+ * const kept = summarizeResidualGroups(full);
+ * const a = groupedRange(80, full, 0.9);
+ * const b = groupedRange(80, kept, 0.9);
+ * assert(Math.abs(a.low - b.low) < 1e-9 && Math.abs(a.high - b.high) < 1e-9);
+ * assert(kept.residuals[0].length === 201);
+ * ```
+ */
+export function summarizeResidualGroups(groups: ResidualGroups, steps = 200): ResidualGroups {
+  return {
+    edges: groups.edges,
+    residuals: groups.residuals.map((sorted) => {
+      const grid = Float64Array.from({ length: steps + 1 }, (_, k) => quantile(sorted, k / steps));
+      grid[0] = grid[1];
+      grid[steps] = grid[steps - 1];
+      return grid;
+    }),
+  };
+}

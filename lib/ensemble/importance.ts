@@ -122,8 +122,14 @@ export function featureImportance(
   });
 }
 
-// Weighted impurity decrease of each feature's splits, summed over trees.
-function impurityDecrease(ensemble: Ensemble, features: number): Float64Array {
+/**
+ * Weighted impurity decrease of each feature's splits, summed over the
+ * trees (any task): the impurity view of importance, before normalising.
+ */
+export function impurityDecrease(
+  ensemble: Pick<Ensemble, "trees">,
+  features: number,
+): Float64Array {
   const out = new Float64Array(features);
   for (const tree of ensemble.trees) {
     for (let n = 0; n < tree.nodeCount; n++) {

@@ -12,7 +12,12 @@ import normalQuantile from "@stdlib/stats-base-dists-normal-quantile";
 import type { Dataset } from "../dataset/types.ts";
 import { DEFAULT_HOW_SURE } from "./defaults.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
-import { groupedRange, groupResiduals, type ResidualGroups } from "./grouped_range.ts";
+import {
+  groupedRange,
+  groupResiduals,
+  type ResidualGroups,
+  summarizeResidualGroups,
+} from "./grouped_range.ts";
 import {
   type InBagCounts,
   inBagCounts,
@@ -36,7 +41,10 @@ export interface ProfileReader {
   ensemble: Ensemble;
   /** The scale the ensemble was fitted on. */
   scale: PayScale;
-  /** Out-of-bag residuals grouped by estimate (the default range). */
+  /**
+   * Out-of-bag residuals grouped by estimate (the default range), kept as
+   * quantile grids (`summarizeResidualGroups`), as a saved model keeps them.
+   */
   groups: ResidualGroups;
   /** Training rows (the jackknife needs their count). */
   trainingRows: number;
@@ -63,15 +71,48 @@ export function profileReader(
   if (dataset.target.kind !== "regression" || ensemble.width !== 1) {
     throw new TypeError("profile readings need a regression ensemble");
   }
-  const rows = dataset.rows;
+  const reader = readerFromParts({
+    ensemble,
+    scale,
+    groups: summarizeResidualGroups(
+      groupResiduals(ensemble.oob, dataset.target.values, residualGroupCount(dataset.rows)),
+    ),
+    trainingRows: dataset.rows,
+  });
+  if (options.withTable) reader.members = leafMembers(ensemble, dataset);
+  return reader;
+}
+
+/**
+ * How many groups of similar estimates the range uses: 10, fewer for small
+ * tables so that each group keeps at least 50 rows (a 90% range from fewer
+ * residuals rests on two or three people at each end).
+ */
+export function residualGroupCount(rows: number): number {
+  return Math.max(1, Math.min(10, Math.floor(rows / 50)));
+}
+
+/**
+ * A reader from a saved model's parts (no table): trees with their seeds,
+ * the grouped residual quantiles and the training row count. The trees'
+ * bootstrap counts are regenerated when the jackknife is shown.
+ */
+export function readerFromParts(parts: {
+  ensemble: Pick<Ensemble, "trees" | "seeds">;
+  scale: PayScale;
+  groups: ResidualGroups;
+  trainingRows: number;
+}): ProfileReader {
+  const rows = parts.trainingRows;
+  const ensemble = parts.ensemble as Ensemble;
   const jackknife = ensemble.trees.length >= DEFAULT_HOW_SURE.jackknifeFromTreesPerRow * rows;
   return {
     ensemble,
-    scale,
-    groups: groupResiduals(ensemble.oob, dataset.target.values, 10),
+    scale: parts.scale,
+    groups: parts.groups,
     trainingRows: rows,
     bag: jackknife ? inBagCounts(ensemble, rows) : null,
-    members: options.withTable ? leafMembers(ensemble, dataset) : null,
+    members: null,
   };
 }
 

@@ -159,13 +159,26 @@ export function designOf(dataset: Dataset): Design {
  * @param fold The fold of each row, 0..k-1.
  */
 export function crossValidateLinear(dataset: Dataset, fold: Int32Array): number {
+  const predicted = crossValidatedLinearPredictions(dataset, fold);
+  const y = dataset.target.values;
+  let sse = 0;
+  for (let r = 0; r < dataset.rows; r++) sse += (y[r] - predicted[r]) ** 2;
+  return Math.sqrt(sse / dataset.rows);
+}
+
+/**
+ * Each row's prediction by the least-squares fit on the other folds.
+ *
+ * @param fold The fold of each row, 0..k-1.
+ */
+export function crossValidatedLinearPredictions(dataset: Dataset, fold: Int32Array): Float64Array {
   if (dataset.target.kind !== "regression") {
     throw new TypeError("the linear baseline needs a numeric target");
   }
   const y = dataset.target.values;
   const design = designOf(dataset);
   const folds = Math.max(...fold) + 1;
-  let sse = 0;
+  const out = new Float64Array(dataset.rows);
   for (let k = 0; k < folds; k++) {
     const train: number[] = [];
     for (let r = 0; r < dataset.rows; r++) if (fold[r] !== k) train.push(r);
@@ -182,8 +195,8 @@ export function crossValidateLinear(dataset: Dataset, fold: Int32Array): number 
       for (let j = 0; j < design.columns.length; j++) {
         predicted += fit.coefficients[j + 1] * design.columns[j][r];
       }
-      sse += (y[r] - predicted) ** 2;
+      out[r] = predicted;
     }
   }
-  return Math.sqrt(sse / dataset.rows);
+  return out;
 }

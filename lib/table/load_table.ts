@@ -6,6 +6,7 @@
  * @module
  */
 
+import { createHash } from "node:crypto";
 import { DataError, OptionError } from "../errors.ts";
 import { type DecimalMark, parseAmount } from "./amount.ts";
 import { type DeclaredType, inferColumn } from "./infer_column.ts";
@@ -83,7 +84,10 @@ export interface LoadTableOptions {
 export function loadTable(input: Uint8Array | string, options: LoadTableOptions = {}): Table {
   const file = options.file ?? "input";
   const text = typeof input === "string" ? input : decodeText(input, options.encoding, file);
-  const bytes = typeof input === "string" ? new TextEncoder().encode(input).length : input.length;
+  const raw8 = typeof input === "string" ? new TextEncoder().encode(input) : input;
+  const bytes = raw8.length;
+  // The fingerprint that ties a saved model and every output to this input.
+  const sha256 = createHash("sha256").update(raw8).digest("hex");
   const raw = readCsv(text, { file, delimiter: options.delimiter });
   checkOptionColumns(raw.header, options);
   if (options.hoursPerYear !== undefined && !(options.hoursPerYear > 0)) {
@@ -148,7 +152,7 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
     excluded: { count: excludedLines.length, lines: excludedLines.slice(0, 10) },
     warnings: [],
     notes,
-    source: { file: options.file, delimiter: raw.delimiter, bytes },
+    source: { file: options.file, delimiter: raw.delimiter, bytes, sha256 },
   };
   if (options.target !== undefined) table.target = options.target;
   if (excludedLines.length > 0) {

@@ -113,5 +113,11 @@ export interface Table {
   /** What loading did: delimiter, conversions, dropped columns. */
   notes: string[];
   /** Where the table came from. */
-  source: { file?: string; delimiter: string; bytes: number };
+  source: {
+    file?: string;
+    delimiter: string;
+    bytes: number;
+    /** SHA-256 of the input bytes (hex): the table's fingerprint. */
+    sha256: string;
+  };
 }

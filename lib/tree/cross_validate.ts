@@ -40,6 +40,13 @@ export interface CrossValidateOptions {
   rule?: "one-se" | "min";
   /** Stopping rules of every tree grown. */
   grow?: GrowOptions;
+  /**
+   * Further losses of a held-out row (regression), averaged per candidate
+   * into `cvExtra`: e.g. squared error in money when the fit is on log pay.
+   */
+  extraLosses?: readonly ((actual: number, predicted: number) => number)[];
+  /** Called after the full tree and after each fold, with steps done and the total. */
+  onProgress?: (done: number, total: number) => void;
 }
 
 /** One candidate subtree of the full tree's path. */
@@ -60,6 +67,8 @@ export interface AlphaCandidate {
   cvRmse: number;
   /** Regression: its standard error by the delta method, `cvSe / (2 cvRmse)`. */
   cvRmseSe: number;
+  /** The mean held-out value of each of the options' `extraLosses`. */
+  cvExtra: number[];
 }
 
 /** The result of {@linkcode crossValidateTree}. */
@@ -112,6 +121,7 @@ export function crossValidateTree(
   }
   const order = canonicalRowOrder(dataset);
   const fullTree = growTree({ dataset, bins, order }, options.grow);
+  options.onProgress?.(1, folds + 1);
   const path = pruningPath(fullTree);
   // Distinct alphas: of a run of equal alphas keep the last step.
   const steps = distinctSteps(path);
@@ -122,10 +132,16 @@ export function crossValidateTree(
   const sum = new Float64Array(alphas.length);
   const sumSq = new Float64Array(alphas.length);
   const weights = new Float64Array(dataset.rows);
+  const extraLosses = options.extraLosses ?? [];
+  const extraSums = extraLosses.map(() => new Float64Array(alphas.length));
   for (let k = 0; k < folds; k++) {
     for (let r = 0; r < dataset.rows; r++) weights[r] = fold[r] === k ? 0 : 1;
     const foldTree = growTree({ dataset, bins, weights, order }, options.grow);
-    scoreSubtrees(foldTree, dataset, (r) => fold[r] === k, scoredAt, sum, sumSq);
+    scoreSubtrees(foldTree, dataset, (r) => fold[r] === k, scoredAt, sum, sumSq, {
+      losses: extraLosses,
+      sums: extraSums,
+    });
+    options.onProgress?.(k + 2, folds + 1);
   }
   const n = dataset.rows;
   const candidates: AlphaCandidate[] = alphas.map((alpha, j) => {
@@ -140,6 +156,7 @@ export function crossValidateTree(
       cvSe: Math.sqrt(variance / n),
       cvRmse: Math.sqrt(mean),
       cvRmseSe: mean > 0 ? Math.sqrt(variance / n) / (2 * Math.sqrt(mean)) : 0,
+      cvExtra: extraSums.map((s) => s[j] / n),
     };
   });
   let best = 0;
@@ -169,6 +186,7 @@ export function crossValidateTree(
  *
  * @param heldOut Whether a row is scored.
  * @param scoredAt Alphas in increasing order.
+ * @param extra Further regression losses, each added into its own sums.
  */
 export function scoreSubtrees(
   foldTree: FlatTree,
@@ -177,6 +195,10 @@ export function scoreSubtrees(
   scoredAt: ArrayLike<number>,
   sum: Float64Array,
   sumSq: Float64Array,
+  extra: {
+    losses: readonly ((actual: number, predicted: number) => number)[];
+    sums: Float64Array[];
+  } = { losses: [], sums: [] },
 ): void {
   const path = pruningPath(foldTree);
   const never = path.nodes.length;
@@ -197,6 +219,7 @@ export function scoreSubtrees(
   }
   const target = dataset.target;
   const earliest: number[] = [];
+  const cached = new Float64Array(extra.losses.length);
   for (let r = 0; r < dataset.rows; r++) {
     if (!heldOut(r)) continue;
     const nodes = pathOfRow(foldTree, dataset.features, r);
@@ -206,6 +229,8 @@ export function scoreSubtrees(
       earliest[i] = Math.min(i > 0 ? earliest[i - 1] : never, collapsedAt[nodes[i]]);
     }
     let at = nodes.length - 1;
+    // The extra losses change only when the leaf does (a few times per row).
+    let lastLeaf = -1;
     for (let j = 0; j < scoredAt.length; j++) {
       while (at > 0 && earliest[at - 1] <= stepAt[j]) at--;
       const leaf = nodes[at];
@@ -213,6 +238,13 @@ export function scoreSubtrees(
       if (target.kind === "regression") {
         const d = target.values[r] - foldTree.value[leaf];
         lossValue = d * d;
+        if (leaf !== lastLeaf) {
+          for (let e = 0; e < extra.losses.length; e++) {
+            cached[e] = extra.losses[e](target.values[r], foldTree.value[leaf]);
+          }
+          lastLeaf = leaf;
+        }
+        for (let e = 0; e < extra.losses.length; e++) extra.sums[e][j] += cached[e];
       } else {
         lossValue = predictedClass(foldTree, leaf) === target.values[r] ? 0 : 1;
       }

@@ -76,3 +76,47 @@ export function describeUnit(unit: MoneyUnit, currency?: string): string {
   const per = unit.period ? ` ${PERIOD_WORDS[unit.period]}` : "";
   return code === undefined ? `pay${per}, currency not stated` : `${code}${per}`;
 }
+
+/**
+ * Formats an estimate of pay: whole units from 100 up (pay estimates are
+ * not precise to the cent), two decimals below (hourly rates).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { formatPay } from "./numbers.ts";
+ * assert(formatPay(61234.56, { currency: "EUR" }) === "€61,235");
+ * assert(formatPay(23.456, { currency: "USD" }) === "$23.46");
+ * assert(formatPay(512.4, {}) === "512");
+ * ```
+ */
+export function formatPay(value: number, style: NumberStyle): string {
+  const digits = Math.abs(value) >= 100 ? 0 : 2;
+  if (style.currency === undefined) return formatNumber(value, style, digits);
+  return new Intl.NumberFormat(style.locale ?? "en-US", {
+    style: "currency",
+    currency: style.currency,
+    minimumFractionDigits: digits,
+    maximumFractionDigits: digits,
+  }).format(value);
+}
+
+/**
+ * A share as a percentage with one decimal.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { formatPercent } from "./numbers.ts";
+ * assert(formatPercent(0.1234) === "12.3%" && formatPercent(-0.05, true) === "-5.0%");
+ * assert(formatPercent(0.05, true) === "+5.0%");
+ * ```
+ */
+export function formatPercent(share: number, signed = false, style: NumberStyle = {}): string {
+  return new Intl.NumberFormat(style.locale ?? "en-US", {
+    style: "percent",
+    minimumFractionDigits: 1,
+    maximumFractionDigits: 1,
+    signDisplay: signed ? "exceptZero" : "auto",
+  }).format(share);
+}

@@ -1,15 +1,16 @@
-// The demo table follows the pay rule written in its generator: least
-// squares (itself checked against R's lm()) on a large generated copy
-// recovers every premium of the rule within 4 standard errors.
+// The demo table follows the pay rule written in its generator: without
+// the pay bands, log pay minus the rule is noise with mean 0 and the stated
+// spread per level, unrelated to experience; with them (the default), pay is
+// the same but held within each level's band.
 import assert from "node:assert/strict";
 import {
+  BAND_HIGH,
+  BAND_LOW,
   demoCompanyCsv,
-  FAMILY_PREMIUM,
-  fitLeastSquares,
-  GAP,
   LEVEL_BASE,
   loadTable,
-  SITE_ZONE,
+  logPayRule,
+  noiseSd,
 } from "../../../mod.ts";
 
 const text = demoCompanyCsv({ rows: 20000, seed: 7 });
@@ -40,54 +41,63 @@ Deno.test("the demo table reads with the types its users will see", () => {
   }
 });
 
-Deno.test("least squares on the demo table recovers the written pay rule", () => {
-  const cells = text.trim().split("\n").slice(1).map((line) => line.split(","));
-  const families = Object.keys(FAMILY_PREMIUM).filter((f) => f !== "Field Service");
-  const sites = Object.keys(SITE_ZONE).filter((s) => s !== "Eastgate");
-  const levels = Object.keys(LEVEL_BASE).slice(1);
-  const names = [
-    ...families.map((f) => `family ${f}`),
-    ...sites.map((s) => `site ${s}`),
-    ...levels.map((l) => `level ${l}`),
-    "log1p experience",
-    "tenure",
-    "rating - 3",
-    "remote",
-    "gap",
-  ];
-  const columns = names.map(() => new Float64Array(cells.length));
-  const y = new Float64Array(cells.length);
-  cells.forEach((c, r) => {
+Deno.test("log pay minus the written rule is noise of the stated size", () => {
+  const levels = Object.keys(LEVEL_BASE);
+  const cells = demoCompanyCsv({ rows: 20000, seed: 7, bands: false }).trim().split("\n").slice(1)
+    .map((line) => line.split(","));
+  const residuals: number[][] = levels.map(() => []);
+  // Correlation of the residual with experience, as a check that no
+  // attribute's effect is missing from the rule.
+  const pairs: [number, number][] = [];
+  for (const c of cells) {
     const [, family, level, experience, tenure, site, rating, , remote, gender, pay] = c;
-    let k = 0;
-    for (const f of families) columns[k++][r] = family === f ? 1 : 0;
-    for (const s of sites) columns[k++][r] = site === s ? 1 : 0;
-    for (const l of levels) columns[k++][r] = level === l ? 1 : 0;
-    columns[k++][r] = Math.log1p(Number(experience));
-    columns[k++][r] = Number(tenure);
-    columns[k++][r] = rating === "" ? 0 : Number(rating) - 3;
-    columns[k++][r] = remote === "yes" ? 1 : 0;
-    columns[k++][r] = family === GAP.family && gender === GAP.group ? 1 : 0;
-    y[r] = Math.log(Number(pay));
+    const k = levels.indexOf(level);
+    const amount = Number(pay);
+    const rule = logPayRule({
+      level: k,
+      family,
+      site,
+      experience: Number(experience),
+      tenure: Number(tenure),
+      rating: rating === "" ? NaN : Number(rating),
+      remote: remote === "yes",
+      gender,
+    });
+    const r = Math.log(amount) - rule;
+    residuals[k].push(r);
+    pairs.push([Number(experience), r]);
+  }
+  residuals.forEach((rs, k) => {
+    const m = rs.reduce((a, b) => a + b, 0) / rs.length;
+    const sd = Math.sqrt(rs.reduce((a, b) => a + (b - m) ** 2, 0) / (rs.length - 1));
+    // Rounding to 50 EUR adds at most 25 / pay (< 0.001) to a residual.
+    assert.ok(Math.abs(m) < 4 * noiseSd(k) / Math.sqrt(rs.length) + 0.001, `level ${k}: mean ${m}`);
+    assert.ok(Math.abs(sd / noiseSd(k) - 1) < 0.06, `level ${k}: sd ${sd} vs ${noiseSd(k)}`);
   });
-  const fit = fitLeastSquares({ names, columns }, y);
-  const expected: Record<string, number> = {
-    "(Intercept)": Math.log(LEVEL_BASE.G1) + FAMILY_PREMIUM["Field Service"] + SITE_ZONE.Eastgate,
-    ...Object.fromEntries(families.map((f) => [`family ${f}`, FAMILY_PREMIUM[f]])),
-    ...Object.fromEntries(sites.map((s) => [`site ${s}`, SITE_ZONE[s] - SITE_ZONE.Eastgate])),
-    ...Object.fromEntries(
-      levels.map((l) => [`level ${l}`, Math.log(LEVEL_BASE[l] / LEVEL_BASE.G1)]),
-    ),
-    "log1p experience": 0.09,
-    "tenure": -0.004,
-    "rating - 3": 0.015,
-    "remote": 0.01,
-    "gap": -GAP.logPoints,
-  };
-  fit.names.forEach((name, i) => {
-    const z = (fit.coefficients[i] - expected[name]) / fit.standardErrors[i];
-    assert.ok(Math.abs(z) < 4, `${name}: ${fit.coefficients[i]} vs ${expected[name]} (z ${z})`);
-  });
+  const n = pairs.length;
+  const mx = pairs.reduce((a, p) => a + p[0], 0) / n;
+  const my = pairs.reduce((a, p) => a + p[1], 0) / n;
+  const cov = pairs.reduce((a, p) => a + (p[0] - mx) * (p[1] - my), 0);
+  const vx = pairs.reduce((a, p) => a + (p[0] - mx) ** 2, 0);
+  const vy = pairs.reduce((a, p) => a + (p[1] - my) ** 2, 0);
+  assert.ok(Math.abs(cov / Math.sqrt(vx * vy)) < 0.05);
+});
+
+Deno.test("pay bands hold pay within each level's band and change nothing else", () => {
+  const free = demoCompanyCsv({ rows: 5000, seed: 3, bands: false }).trim().split("\n");
+  const held = demoCompanyCsv({ rows: 5000, seed: 3 }).trim().split("\n");
+  let moved = 0;
+  for (let i = 1; i < free.length; i++) {
+    const a = free[i].split(",");
+    const b = held[i].split(",");
+    assert.deepEqual(a.slice(0, 10), b.slice(0, 10));
+    const base = LEVEL_BASE[a[2]];
+    // Both are rounded to 50 EUR after holding, so allow 25 either way.
+    const expected = Math.min(BAND_HIGH * base, Math.max(BAND_LOW * base, Number(a[10])));
+    assert.ok(Math.abs(Number(b[10]) - expected) <= 25, held[i]);
+    if (a[10] !== b[10]) moved++;
+  }
+  assert.ok(moved > 0 && moved < 0.12 * free.length, `${moved} held at a band edge`);
 });
 
 Deno.test("the committed demo table is the generator's default output", async () => {

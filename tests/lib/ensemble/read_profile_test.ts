@@ -13,6 +13,7 @@ import {
   quantileForestRange,
   randomInt,
   readProfile,
+  summarizeResidualGroups,
   treeEstimates,
 } from "../../../mod.ts";
 import { levels, numeric, regression } from "../tree/_small.ts";
@@ -46,7 +47,8 @@ Deno.test("a log-scale reading is the exp of the fitted-scale figures", () => {
   assert.equal(r.estimate, Math.exp(mean(t)));
   const p = percentileInterval(t, 0.8);
   assert.deepEqual(r.howSure, { low: Math.exp(p.low), high: Math.exp(p.high), coverage: 0.8 });
-  const g = groupedRange(mean(t), groupResiduals(ensemble.oob, dataset.target.values, 10), 0.8);
+  const groups = summarizeResidualGroups(groupResiduals(ensemble.oob, dataset.target.values, 8));
+  const g = groupedRange(mean(t), groups, 0.8);
   assert.deepEqual(r.range, { low: Math.exp(g.low), high: Math.exp(g.high), coverage: 0.8 });
   assert.equal(r.rangeMethod, "grouped-residuals");
   assert.deepEqual(Array.from(r.trees), Array.from(t, Math.exp));

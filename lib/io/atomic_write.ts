@@ -1,0 +1,74 @@
+/**
+ * Writing an output file so that it is either whole or absent: the bytes
+ * go to a temporary file beside the target, which is then renamed over it
+ * (a rename within one folder is atomic on POSIX file systems). An existing
+ * file is not replaced unless `force` says so.
+ *
+ * @module
+ */
+
+import { DataError, OptionError } from "../errors.ts";
+
+/** Options of {@linkcode writeFileAtomic}. */
+export interface AtomicWriteOptions {
+  /**
+   * Replace an existing file.
+   * @default {false}
+   */
+  force?: boolean;
+  /** The option that named the path, for messages (e.g. `--out`). */
+  option?: string;
+}
+
+/**
+ * Writes `data` to `path` atomically.
+ *
+ * @throws {OptionError} when the file exists and `force` is not set.
+ * @throws {DataError} when the folder cannot be written.
+ *
+ * @example
+ * ```ts ignore
+ * import { writeFileAtomic } from "./atomic_write.ts";
+ * await writeFileAtomic("model.json", "{}", { force: true });
+ * ```
+ */
+export async function writeFileAtomic(
+  path: string,
+  data: string | Uint8Array,
+  options: AtomicWriteOptions = {},
+): Promise<void> {
+  const option = options.option ?? "--out";
+  if (!options.force && await exists(path)) {
+    throw new OptionError(`${option}: ${path} already exists; add --force to replace it`);
+  }
+  const slash = path.lastIndexOf("/");
+  const folder = slash >= 0 ? path.slice(0, slash + 1) : "";
+  const temporary = `${folder}.${path.slice(slash + 1)}.${crypto.randomUUID()}.tmp`;
+  const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
+  try {
+    const file = await Deno.open(temporary, { write: true, createNew: true });
+    try {
+      let written = 0;
+      while (written < bytes.length) written += await file.write(bytes.subarray(written));
+      await file.sync();
+    } finally {
+      file.close();
+    }
+    await Deno.rename(temporary, path);
+  } catch (error) {
+    await Deno.remove(temporary).catch(() => {});
+    throw new DataError(
+      `${option}: cannot write ${path} (${(error as Error).message.split("\n")[0]})`,
+    );
+  }
+}
+
+async function exists(path: string): Promise<boolean> {
+  try {
+    await Deno.lstat(path);
+    return true;
+  } catch (error) {
+    if (error instanceof Deno.errors.NotFound) return false;
+    throw new DataError(`cannot check ${path} (${(error as Error).message.split("\n")[0]})`);
+  }
+}

@@ -1,0 +1,623 @@
+/**
+ * The answers the commands and the guided flow give from a model: one
+ * profile's estimate with how sure it is, the range for comparable people,
+ * the decision path and the support behind it; a what-if comparison; a
+ * sweep; and batch scoring. Plain data, ready for JSON or for rendering;
+ * every amount in money.
+ *
+ * @module
+ */
+
+import type { Ensemble } from "../ensemble/fit_ensemble.ts";
+import { bootstrapCounts } from "../ensemble/bootstrap.ts";
+import { toMoney } from "../ensemble/pay_scale.ts";
+import {
+  compareProfiles,
+  type ProfileReader,
+  type ProfileReading,
+  readerFromParts,
+  readProfile,
+} from "../ensemble/read_profile.ts";
+import { applyValues } from "../tree/flat_tree.ts";
+import { explainPath } from "../tree/explain.ts";
+import { OptionError } from "../errors.ts";
+import { rowKey } from "./fit_model.ts";
+import { describeProfile, type Profile, type ProfileWarning, rangeWarnings } from "./profile.ts";
+import type { ModelRows } from "./model_table.ts";
+import type { Model, Provenance } from "./types.ts";
+
+/** An interval with its coverage and how it was made. */
+export interface NamedInterval {
+  /** Nominal coverage, e.g. 0.9. */
+  coverage: number;
+  /** Lower end (money). */
+  low: number;
+  /** Upper end (money). */
+  high: number;
+  /** The method, in words. */
+  method: string;
+}
+
+/** One step of the reference tree's decision path. */
+export interface PathAnswer {
+  /** The feature tested. */
+  feature: string;
+  /** The condition the profile met. */
+  condition: string;
+  /** Training rows in the node reached. */
+  rows: number;
+  /** Typical pay of the node reached (money; null for fewer rows than the privacy minimum). */
+  value: number | null;
+}
+
+/** How much the training data supports a profile. */
+export interface SupportAnswer {
+  /** Training rows in the reference tree's leaf. */
+  rows: number;
+  /** Training rows that share the profile's levels of the two most important level features. */
+  peers: { features: string[]; levels: string[]; rows: number } | null;
+  /** Whether the profile is unusual for the data. */
+  unusual: boolean;
+  /** Why, one sentence each. */
+  reasons: string[];
+}
+
+/** The answer for one profile (the `estimate --json` document). */
+export interface EstimateAnswer {
+  /** The profile in words. */
+  profile: Record<string, string | number | null>;
+  /** The target and its unit. */
+  target: { name: string; scale: string; currency: string | null; period: string | null };
+  /**
+   * The estimate in money (regression): the ensemble's, or the reference
+   * tree's leaf without an ensemble. Classification: the likeliest class's share.
+   */
+  estimate: number;
+  /** Classification: the likeliest class and every class's share. */
+  classes?: { predicted: string; shares: Record<string, number> };
+  /** The reference tree's own estimate (its leaf). */
+  referenceTree: number;
+  /** How sure the estimate is (null without an ensemble). */
+  confidence: NamedInterval | null;
+  /** The jackknife's interval and standard error (fitting scale), where shown. */
+  jackknife: (NamedInterval & { se: number }) | null;
+  /** The range comparable people's pay falls in (null without an ensemble). */
+  range: NamedInterval | null;
+  /** The reference tree's decision path. */
+  path: PathAnswer[];
+  /** The leaf the path ends in. */
+  leaf: { rows: number; value: number | null };
+  /** Support. */
+  support: SupportAnswer;
+  /** Each tree's estimate (money), for the chart. */
+  trees: number[];
+  /** Warnings for the user. */
+  warnings: string[];
+  /** Where it came from. */
+  provenance: Provenance;
+}
+
+/** A prepared model: the reader of its ensemble, built once. */
+export interface ModelSession {
+  /** The model. */
+  model: Model;
+  /** The ensemble's reader (regression with an ensemble), else null. */
+  reader: ProfileReader | null;
+}
+
+/** Prepares a model for answers (regenerates what the jackknife needs). */
+export function openModel(model: Model): ModelSession {
+  const reader = model.ensemble !== null && model.residuals !== null &&
+      model.target.kind === "regression"
+    ? readerFromParts({
+      ensemble: model.ensemble,
+      scale: model.target.scale,
+      groups: model.residuals,
+      trainingRows: model.rows.used,
+    })
+    : null;
+  return { model, reader };
+}
+
+const CONFIDENCE_METHOD = "percentile interval of the trees' estimates (how much one tree's " +
+  "estimate moves between resamples)";
+const JACKKNIFE_METHOD = "bias-corrected infinitesimal jackknife (Wager, Hastie & Efron 2014); " +
+  "leaves the model's bias out";
+const RANGE_METHOD = "out-of-bag residual quantiles of people with similar estimates";
+
+/** Checks a coverage option. */
+export function checkCoverage(coverage: number): void {
+  if (!(coverage >= 0.5 && coverage <= 0.99)) {
+    throw new OptionError(`--coverage must be between 0.5 and 0.99, got ${coverage}`);
+  }
+}
+
+/**
+ * The answer for one profile.
+ *
+ * @param extraWarnings Warnings from building the profile (e.g. `--set`).
+ */
+export function estimateProfile(
+  session: ModelSession,
+  profile: Profile,
+  coverage = 0.9,
+  extraWarnings: ProfileWarning[] = [],
+): EstimateAnswer {
+  checkCoverage(coverage);
+  const { model, reader } = session;
+  const scale = model.target.scale;
+  const privacy = model.settings.privacyMin;
+  const tree = model.reference.tree;
+  const classes = model.target.classes;
+  const steps = explainPath(tree, model.features, profile, classes);
+  const shown = (rows: number, value: number) =>
+    rows >= privacy ? (model.target.kind === "regression" ? toMoney(value, scale) : value) : null;
+  const path = steps.map((s) => ({
+    feature: s.feature,
+    condition: s.condition,
+    rows: s.rows,
+    value: shown(s.rows, s.value),
+  }));
+  const leafNode = applyValues(tree, profile);
+  const leafRows = tree.rows[leafNode];
+  const warnings = [...extraWarnings.map((w) => w.message)];
+  for (const w of rangeWarnings(model, profile)) {
+    if (!warnings.includes(w.message)) warnings.push(w.message);
+  }
+  const support = supportOf(model, profile, leafRows);
+  if (support.unusual) {
+    warnings.push(
+      `unusual profile for this data: ${support.reasons.join("; ")}. Estimates for it rest on ` +
+        `few comparable people; treat them with care`,
+    );
+  }
+  const base = {
+    profile: describeProfile(model, profile),
+    target: {
+      name: model.target.name,
+      scale,
+      currency: model.target.money?.currency ?? null,
+      period: model.target.money?.period ?? null,
+    },
+    path,
+    leaf: { rows: leafRows, value: shown(leafRows, tree.value[leafNode * tree.width]) },
+    support,
+    provenance: model.provenance,
+  };
+  if (model.target.kind === "classification") {
+    const width = tree.width;
+    const shares = new Float64Array(width);
+    const trees = model.ensemble?.trees ?? [tree];
+    for (const t of trees) {
+      const leaf = applyValues(t, profile);
+      for (let c = 0; c < width; c++) shares[c] += t.value[leaf * width + c] / trees.length;
+    }
+    let best = 0;
+    for (let c = 1; c < width; c++) if (shares[c] > shares[best]) best = c;
+    if (model.ensemble === null) warnings.push(NO_ENSEMBLE);
+    return {
+      ...base,
+      estimate: shares[best],
+      classes: {
+        predicted: classes![best],
+        shares: Object.fromEntries(classes!.map((name, c) => [name, shares[c]])),
+      },
+      referenceTree: tree.value[leafNode * width + best],
+      confidence: null,
+      jackknife: null,
+      range: null,
+      trees: [],
+      warnings,
+    };
+  }
+  const referenceTree = toMoney(tree.value[leafNode], scale);
+  if (reader === null) {
+    warnings.push(NO_ENSEMBLE);
+    return {
+      ...base,
+      estimate: referenceTree,
+      referenceTree,
+      confidence: null,
+      jackknife: null,
+      range: null,
+      trees: [],
+      warnings,
+    };
+  }
+  const reading = readProfile(reader, profile, coverage);
+  return { ...base, ...fromReading(reading), referenceTree, warnings };
+}
+
+const NO_ENSEMBLE = "this model has no ensemble (fitted with --trees 0): the estimate is the " +
+  "reference tree's leaf and carries no interval";
+
+function fromReading(reading: ProfileReading) {
+  return {
+    estimate: reading.estimate,
+    confidence: { ...reading.howSure, method: CONFIDENCE_METHOD },
+    jackknife: reading.jackknife === null
+      ? null
+      : { ...reading.jackknife.interval, method: JACKKNIFE_METHOD, se: reading.jackknife.se },
+    range: { ...reading.range, method: RANGE_METHOD },
+    trees: Array.from(reading.trees),
+  };
+}
+
+function supportOf(model: Model, profile: Profile, leafRows: number): SupportAnswer {
+  const reasons: string[] = [];
+  const privacy = model.settings.privacyMin;
+  const byName = new Map(model.features.map((f, i) => [f.name, i]));
+  let peers: SupportAnswer["peers"] = null;
+  const p = model.support.peers;
+  if (p !== null) {
+    const [a, b] = p.features.map((n) => byName.get(n)!);
+    const la = model.features[a].levels![profile[a]];
+    const lb = model.features[b].levels![profile[b]];
+    if (la !== undefined && lb !== undefined) {
+      const rows = p.counts[`${la}\u0000${lb}`] ?? 0;
+      peers = { features: [...p.features], levels: [la, lb], rows };
+      if (rows < privacy) {
+        reasons.push(
+          `${rows === 0 ? "no one" : `only ${rows} ${rows === 1 ? "person" : "people"}`} in the ` +
+            `training data ${rows === 1 ? "has" : "have"} ${p.features[0]} ${la} and ` +
+            `${p.features[1]} ${lb}`,
+        );
+      }
+    }
+  }
+  for (const group of model.support.levelRanges) {
+    const f = byName.get(group.feature)!;
+    if (model.features[f].levels![profile[f]] !== group.level) continue;
+    for (const range of group.ranges) {
+      const g = byName.get(range.feature)!;
+      const x = profile[g];
+      if (Number.isNaN(x)) continue;
+      if (x > range.p99) {
+        reasons.push(
+          `${range.feature} ${x} is above what 99% of people at ${group.feature} ${group.level} ` +
+            `have (up to ${round(range.p99)})`,
+        );
+      } else if (x < range.p01) {
+        reasons.push(
+          `${range.feature} ${x} is below what 99% of people at ${group.feature} ${group.level} ` +
+            `have (from ${round(range.p01)})`,
+        );
+      }
+    }
+  }
+  for (const w of rangeWarnings(model, profile)) reasons.push(`${w.feature} is outside the data`);
+  return { rows: leafRows, peers, unusual: reasons.length > 0, reasons };
+}
+
+function round(x: number): number {
+  return Number(x.toPrecision(4));
+}
+
+/** The `compare --json` document. */
+export interface CompareAnswer {
+  /** The base profile's answer. */
+  base: EstimateAnswer;
+  /** The changed profile's answer. */
+  changed: EstimateAnswer;
+  /** What changed. */
+  changes: { feature: string; from: string | number | null; to: string | number | null }[];
+  /**
+   * The change in money (changed minus base), with the interval of the
+   * trees' paired changes, and the same as a share of the base.
+   */
+  difference: {
+    estimate: number;
+    low: number | null;
+    high: number | null;
+    coverage: number;
+    relative: { estimate: number; low: number | null; high: number | null };
+    method: string;
+  };
+  /** The first step of the decision path that differs (1-based), or null if the paths agree. */
+  pathChange: { step: number; base: string | null; changed: string | null } | null;
+  /** Where it came from. */
+  provenance: Provenance;
+}
+
+/** Base vs changed profile. */
+export function compareAnswer(
+  session: ModelSession,
+  base: Profile,
+  changed: Profile,
+  coverage = 0.9,
+  warnings: ProfileWarning[] = [],
+): CompareAnswer {
+  const { model, reader } = session;
+  if (model.target.kind !== "regression") {
+    throw new OptionError(
+      `compare needs a model of pay (a numeric target); "${model.target.name}" is a class`,
+    );
+  }
+  const a = estimateProfile(session, base, coverage, warnings);
+  const b = estimateProfile(session, changed, coverage, warnings);
+  const changes = model.features
+    .map((f, i) => ({ f, i }))
+    .filter(({ i }) => !Object.is(base[i], changed[i]))
+    .map(({ f }) => ({ feature: f.name, from: a.profile[f.name], to: b.profile[f.name] }));
+  let difference: CompareAnswer["difference"];
+  if (reader !== null) {
+    const w = compareProfiles(reader, base, changed, coverage);
+    difference = {
+      estimate: w.difference.estimate,
+      low: w.difference.low,
+      high: w.difference.high,
+      coverage,
+      relative: { estimate: w.relative.estimate, low: w.relative.low, high: w.relative.high },
+      method: "percentile interval of the trees' paired differences",
+    };
+  } else {
+    difference = {
+      estimate: b.estimate - a.estimate,
+      low: null,
+      high: null,
+      coverage,
+      relative: { estimate: b.estimate / a.estimate - 1, low: null, high: null },
+      method: "reference tree only (no ensemble): no interval",
+    };
+  }
+  let pathChange: CompareAnswer["pathChange"] = null;
+  const steps = Math.max(a.path.length, b.path.length);
+  for (let s = 0; s < steps; s++) {
+    if (a.path[s]?.condition !== b.path[s]?.condition) {
+      pathChange = {
+        step: s + 1,
+        base: a.path[s]?.condition ?? null,
+        changed: b.path[s]?.condition ?? null,
+      };
+      break;
+    }
+  }
+  return { base: a, changed: b, changes, difference, pathChange, provenance: model.provenance };
+}
+
+/** One point of a sweep. */
+export interface SweepAnswerPoint {
+  /** The value (a level name or a number). */
+  value: string | number;
+  /** The estimate in money. */
+  estimate: number;
+  /** How sure (null without an ensemble). */
+  confidence: { low: number; high: number } | null;
+  /** The range for comparable people (null without an ensemble). */
+  range: { low: number; high: number } | null;
+  /** Partial dependence (with `--average`): the estimate averaged over the table's rows. */
+  average?: number;
+}
+
+/** The `sweep --json` document. */
+export interface SweepAnswer {
+  /** The attribute swept. */
+  feature: string;
+  /** The rest of the profile. */
+  profile: Record<string, string | number | null>;
+  /** Coverage of the intervals. */
+  coverage: number;
+  /** The points. */
+  points: SweepAnswerPoint[];
+  /** Warnings. */
+  warnings: string[];
+  /** Where it came from. */
+  provenance: Provenance;
+}
+
+/**
+ * The grid of a sweep: every level, or `steps` values from `from` to `to`
+ * (default: the training data's 1% to 99% quantiles).
+ */
+export function sweepValues(
+  model: Model,
+  feature: number,
+  options: { from?: number; to?: number; steps?: number } = {},
+): number[] {
+  const f = model.features[feature];
+  if (f.kind !== "numeric") return f.levels!.map((_, i) => i);
+  const steps = options.steps ?? 20;
+  if (!Number.isInteger(steps) || steps < 2 || steps > 500) {
+    throw new OptionError(`--steps must be a whole number from 2 to 500, got ${steps}`);
+  }
+  const from = options.from ?? f.range!.p01;
+  const to = options.to ?? f.range!.p99;
+  if (!(to > from)) throw new OptionError(`--to must be above --from (got ${from} to ${to})`);
+  return Array.from({ length: steps }, (_, i) => from + ((to - from) * i) / (steps - 1));
+}
+
+/**
+ * Estimates over one attribute with the rest of the profile held fixed;
+ * with `averageOver`, also the estimate averaged over those rows with the
+ * attribute set (partial dependence).
+ */
+export function sweepAnswer(
+  session: ModelSession,
+  profile: Profile,
+  feature: number,
+  grid: readonly number[],
+  coverage = 0.9,
+  averageOver: ModelRows | null = null,
+  warnings: ProfileWarning[] = [],
+): SweepAnswer {
+  checkCoverage(coverage);
+  const { model } = session;
+  if (model.target.kind !== "regression") {
+    throw new OptionError(`sweep needs a model of pay (a numeric target)`);
+  }
+  const f = model.features[feature];
+  const values = Float64Array.from(profile);
+  const points = grid.map((v): SweepAnswerPoint => {
+    values[feature] = v;
+    const answer = estimateProfile(session, values, coverage);
+    const point: SweepAnswerPoint = {
+      value: f.kind === "numeric" ? v : f.levels![v],
+      estimate: answer.estimate,
+      confidence: answer.confidence && { low: answer.confidence.low, high: answer.confidence.high },
+      range: answer.range && { low: answer.range.low, high: answer.range.high },
+    };
+    if (averageOver !== null) point.average = averageEstimate(session, averageOver, feature, v);
+    return point;
+  });
+  values[feature] = profile[feature];
+  return {
+    feature: f.name,
+    profile: describeProfile(model, profile),
+    coverage,
+    points,
+    warnings: [...warnings.map((w) => w.message)],
+    provenance: model.provenance,
+  };
+}
+
+function averageEstimate(session: ModelSession, rows: ModelRows, feature: number, v: number) {
+  const { model } = session;
+  const trees = model.ensemble?.trees ?? [model.reference.tree];
+  const profile = new Float64Array(model.features.length);
+  let sum = 0;
+  for (let r = 0; r < rows.rows; r++) {
+    for (let g = 0; g < profile.length; g++) profile[g] = rows.features[g][r];
+    profile[feature] = v;
+    let s = 0;
+    for (const t of trees) s += t.value[applyValues(t, profile)];
+    sum += toMoney(s / trees.length, model.target.scale);
+  }
+  return sum / rows.rows;
+}
+
+/** One scored row of `batch`. */
+export interface BatchRow {
+  /** The estimate in money (out-of-bag for training rows). */
+  estimate: number;
+  /** Where the estimate came from. */
+  estimateSource: "out-of-bag" | "ensemble" | "reference-tree";
+  /** The reference tree's leaf value. */
+  referenceTree: number;
+  /** How sure. */
+  ciLow: number | null;
+  /** How sure. */
+  ciHigh: number | null;
+  /** Range. */
+  rangeLow: number | null;
+  /** Range. */
+  rangeHigh: number | null;
+  /** With an offer: offer / estimate. */
+  offerToEstimate?: number | null;
+  /** With an offer: (offer - range_low) / (range_high - range_low). */
+  rangePosition?: number | null;
+  /** With an offer: under, within or over the range. */
+  offerPosition?: "under" | "within" | "over" | null;
+}
+
+/**
+ * Scores every row of a table. Rows that are the model's own training rows
+ * (same identifier and feature values) get their out-of-bag estimate: the
+ * mean of the trees that never saw them, as at fitting time.
+ *
+ * @param offers Each row's offer in money (NaN where none), or null.
+ */
+export function batchAnswer(
+  session: ModelSession,
+  rows: ModelRows,
+  coverage = 0.9,
+  offers: Float64Array | null = null,
+): BatchRow[] {
+  checkCoverage(coverage);
+  const { model, reader } = session;
+  if (model.target.kind !== "regression") {
+    throw new OptionError(`batch needs a model of pay (a numeric target)`);
+  }
+  const scale = model.target.scale;
+  const training = trainingIndex(model);
+  const ensemble = model.ensemble;
+  const counts = ensemble !== null && training.size > 0
+    ? Array.from(ensemble.seeds, (seed) => bootstrapCounts(model.rows.used, seed))
+    : [];
+  const out: BatchRow[] = [];
+  const profile = new Float64Array(model.features.length);
+  for (let r = 0; r < rows.rows; r++) {
+    for (let g = 0; g < profile.length; g++) profile[g] = rows.features[g][r];
+    const tree = model.reference.tree;
+    const referenceTree = toMoney(tree.value[applyValues(tree, profile)], scale);
+    let row: BatchRow;
+    if (reader === null || ensemble === null) {
+      row = {
+        estimate: referenceTree,
+        estimateSource: "reference-tree",
+        referenceTree,
+        ciLow: null,
+        ciHigh: null,
+        rangeLow: null,
+        rangeHigh: null,
+      };
+    } else {
+      const reading = readProfile(reader, profile, coverage);
+      row = {
+        estimate: reading.estimate,
+        estimateSource: "ensemble",
+        referenceTree,
+        ciLow: reading.howSure.low,
+        ciHigh: reading.howSure.high,
+        rangeLow: reading.range.low,
+        rangeHigh: reading.range.high,
+      };
+      const index = rows.ids[r] === "" ? undefined : training.get(rowKey(rows.ids[r], profile));
+      if (index !== undefined) {
+        const oob = outOfBag(ensemble as unknown as Ensemble, counts, index, profile);
+        if (oob !== null) {
+          row.estimate = toMoney(oob, scale);
+          row.estimateSource = "out-of-bag";
+        }
+      }
+    }
+    if (offers !== null) {
+      const offer = offers[r];
+      if (Number.isNaN(offer) || row.rangeLow === null || row.rangeHigh === null) {
+        row.offerToEstimate = Number.isNaN(offer) ? null : offer / row.estimate;
+        row.rangePosition = null;
+        row.offerPosition = null;
+      } else {
+        row.offerToEstimate = offer / row.estimate;
+        row.rangePosition = (offer - row.rangeLow) / (row.rangeHigh - row.rangeLow);
+        row.offerPosition = offer < row.rangeLow
+          ? "under"
+          : offer > row.rangeHigh
+          ? "over"
+          : "within";
+      }
+    }
+    out.push(row);
+  }
+  return out;
+}
+
+// Training row keys -> training row index.
+function trainingIndex(model: Model): Map<string, number> {
+  const map = new Map<string, number>();
+  const keys = model.rowKeys;
+  if (keys === null) return map;
+  // Each key is 12 characters of base64 (8 bytes).
+  for (let i = 0; i * 12 < keys.length; i++) {
+    const key = keys.slice(12 * i, 12 * i + 12);
+    // A key seen twice (duplicate rows) cannot say which row it is.
+    map.set(key, map.has(key) ? -1 : i);
+  }
+  for (const [key, i] of map) if (i < 0) map.delete(key);
+  return map;
+}
+
+function outOfBag(
+  ensemble: Pick<Ensemble, "trees">,
+  counts: Float64Array[],
+  row: number,
+  profile: Profile,
+): number | null {
+  let sum = 0;
+  let n = 0;
+  ensemble.trees.forEach((tree, b) => {
+    if (counts[b][row] !== 0) return;
+    sum += tree.value[applyValues(tree, profile)];
+    n++;
+  });
+  return n > 0 ? sum / n : null;
+}

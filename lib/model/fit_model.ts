@@ -1,0 +1,562 @@
+/**
+ * Fitting a whole model from a loaded table: rows chosen, target on its
+ * scale, the cross-validated reference tree, the ensemble, accuracy of the
+ * constant model, the linear baseline, the reference tree and the ensemble
+ * side by side, importance, and the support figures. The one library call
+ * behind `paygrove fit` and the guided flow.
+ *
+ * @module
+ */
+
+import { createHash } from "node:crypto";
+import type { Dataset } from "../dataset/types.ts";
+import { makeDataset } from "../dataset/make_dataset.ts";
+import { OptionError } from "../errors.ts";
+import { VERSION } from "../version.ts";
+import { filterRows } from "../table/filter_rows.ts";
+import { isPayName } from "../table/money.ts";
+import { quantile } from "../table/quality.ts";
+import type { LoadTableOptions } from "../table/load_table.ts";
+import type { Table } from "../table/types.ts";
+import type { DeclaredType } from "../table/infer_column.ts";
+import { binFeatures } from "../tree/bins.ts";
+import { crossValidateTree } from "../tree/cross_validate.ts";
+import { leafCount, treeDepth } from "../tree/flat_tree.ts";
+import { crossValidatedLinearPredictions } from "../linear/least_squares.ts";
+import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
+import type { Ensemble } from "../ensemble/fit_ensemble.ts";
+import { groupResiduals, summarizeResidualGroups } from "../ensemble/grouped_range.ts";
+import { featureImportance, impurityDecrease } from "../ensemble/importance.ts";
+import { oobClassificationMetrics } from "../ensemble/intervals.ts";
+import { accuracyInMoney, type PayScale, toFitScale, toMoney } from "../ensemble/pay_scale.ts";
+import { residualGroupCount } from "../ensemble/read_profile.ts";
+import {
+  type Accuracy,
+  type FeatureSchema,
+  type ImportanceFigure,
+  type Model,
+  MODEL_FORMAT,
+  type ReadSettings,
+  type SupportFigures,
+} from "./types.ts";
+
+/** The smallest privacy minimum allowed. */
+export const PRIVACY_FLOOR = 3;
+
+/** Options of {@linkcode fitModel}. */
+export interface FitModelOptions {
+  /** The column to predict. */
+  target: string;
+  /** The feature columns (default: every usable column). */
+  features?: string[];
+  /** Columns to leave out. */
+  drop?: string[];
+  /** Keep only rows matching these (values of one column are alternatives). */
+  where?: Record<string, string[]>;
+  /**
+   * Allow protected attributes as features.
+   * @default {false}
+   */
+  allowProtected?: boolean;
+  /** Fitting scale of a numeric target (default: log for money, else raw). */
+  scale?: PayScale;
+  /**
+   * Trees in the ensemble; 0 fits the reference tree alone.
+   * @default {200}
+   */
+  trees?: number;
+  /**
+   * Minimum distinct rows in a leaf (never below the privacy minimum).
+   * @default {5}
+   */
+  minLeaf?: number;
+  /**
+   * Cross-validation folds.
+   * @default {10}
+   */
+  folds?: number;
+  /**
+   * Rule for the reference tree's size.
+   * @default {"one-se"}
+   */
+  rule?: "one-se" | "min";
+  /**
+   * Pruning of the ensemble's trees: at the minimum-CV alpha, or none.
+   * @default {"alpha-min"}
+   */
+  prune?: "alpha-min" | "none";
+  /**
+   * Seed of folds, resamples and shuffles.
+   * @default {1}
+   */
+  seed?: number;
+  /** Workers (default: one per core). */
+  workers?: number;
+  /**
+   * Smallest group whose mean is shown (at least 3).
+   * @default {5}
+   */
+  privacyMin?: number;
+  /** The options the table was loaded with, kept to read other tables alike. */
+  loadOptions?: LoadTableOptions;
+  /** Progress: the stage, steps done and the total. */
+  onProgress?: (
+    stage: "cross-validation" | "trees" | "importance",
+    done: number,
+    total: number,
+  ) => void;
+  /** The clock, for tests (ISO 8601 of now). */
+  now?: () => string;
+}
+
+/**
+ * Fits a model.
+ *
+ * @throws {OptionError} for options that do not fit the table.
+ * @throws {DataError} for data the scale cannot take (pay at or below 0 on logs).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 300, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 20, folds: 5, workers: 1 });
+ * assert(model.target.scale === "log" && model.ensemble?.trees.length === 20);
+ * assert(model.features.every((f) => f.name !== "gender")); // protected: left out
+ * ```
+ */
+export async function fitModel(table: Table, options: FitModelOptions): Promise<Model> {
+  const started = performance.now();
+  const trees = options.trees ?? 200;
+  const minLeaf = options.minLeaf ?? 5;
+  const folds = options.folds ?? 10;
+  const seed = options.seed ?? 1;
+  const privacyMin = options.privacyMin ?? 5;
+  const rule = options.rule ?? "one-se";
+  const prune = options.prune ?? "alpha-min";
+  const where = options.where ?? {};
+  checkSettings(trees, minLeaf, privacyMin, folds);
+
+  const filtered = filterRows(table, where);
+  const { dataset: encoded, dropped, rowIndex } = makeDataset(filtered, {
+    target: options.target,
+    features: options.features,
+    drop: options.drop,
+    allowProtected: options.allowProtected,
+  });
+  if (encoded.rows < 2 * minLeaf) {
+    throw new OptionError(
+      `only ${encoded.rows} rows have "${options.target}"; at least ${2 * minLeaf} are needed ` +
+        `for one split with --min-leaf ${minLeaf}`,
+    );
+  }
+  if (folds > encoded.rows) {
+    throw new OptionError(`--folds ${folds} is more than the ${encoded.rows} rows`);
+  }
+  const targetColumn = filtered.columns.find((c) => c.name === options.target)!;
+  const money = targetColumn.type === "numeric" ? targetColumn.money : undefined;
+  let scale: PayScale = "raw";
+  let dataset: Dataset = encoded;
+  if (encoded.target.kind === "regression") {
+    const isMoney = money !== undefined || isPayName(options.target);
+    scale = options.scale ?? (isMoney ? "log" : "raw");
+    if (scale === "log") {
+      dataset = {
+        ...encoded,
+        target: {
+          ...encoded.target,
+          values: toFitScale(encoded.target.values, "log", options.target),
+        },
+      };
+    }
+  } else if (options.scale === "log") {
+    throw new OptionError(`--scale log needs a numeric target; "${options.target}" is a class`);
+  }
+  const regression = dataset.target.kind === "regression";
+  const y = dataset.target.values;
+
+  const bins = binFeatures(dataset);
+  const back = (v: number) => toMoney(v, scale);
+  const cv = crossValidateTree(dataset, {
+    folds,
+    seed,
+    rule,
+    grow: { minLeaf },
+    extraLosses: regression
+      ? [
+        (a, p) => (back(a) - back(p)) ** 2,
+        (a, p) => Math.abs(back(a) - back(p)),
+        (a, p) => Math.abs(a - p),
+      ]
+      : [],
+    onProgress: (done, total) => options.onProgress?.("cross-validation", done, total),
+  }, bins);
+  const minAlpha = cv.candidates[cv.best].alpha;
+
+  let ensemble: Ensemble | null = null;
+  if (trees > 0) {
+    ensemble = await fitEnsembleParallel(dataset, {
+      trees,
+      seed,
+      prune: prune === "none" ? "none" : "alpha",
+      alpha: prune === "none" ? undefined : minAlpha,
+      grow: { minLeaf },
+      workers: options.workers,
+      onProgress: (done, total) => options.onProgress?.("trees", done, total),
+    }, bins);
+  }
+
+  // Accuracy side by side, all from the same folds (and out-of-bag rows).
+  const root = cv.candidates[cv.candidates.length - 1];
+  const chosen = cv.candidates[cv.chosen];
+  let quality: Model["quality"];
+  if (regression) {
+    const moneyY = Float64Array.from(y, back);
+    const varMoney = variance(moneyY);
+    const varFit = variance(y);
+    const fromCv = (c: typeof root): Accuracy => {
+      const mseMoney = c.cvExtra[0];
+      const out: Accuracy = {
+        measuredBy: "cross-validation",
+        money: { rmse: Math.sqrt(mseMoney), mae: c.cvExtra[1], r2: 1 - mseMoney / varMoney },
+        rmseSe: c.cvRmseSe,
+      };
+      if (scale === "log") {
+        out.log = { rmse: c.cvRmse, mae: c.cvExtra[2], r2: 1 - c.cvError / varFit };
+      }
+      return out;
+    };
+    // The constant model on the same folds: each fold's held-out rows get
+    // the mean (on the fitting scale) of the other folds.
+    const constant = constantPredictions(y as Float64Array, cv.fold, folds);
+    const constantAccuracy = accuracyInMoney(y, constant, scale);
+    const overall = (y as Float64Array).reduce((a, b) => a + b, 0) / y.length;
+    const inSample = accuracyInMoney(y, new Float64Array(y.length).fill(overall), scale);
+    const linear = crossValidatedLinearPredictions(dataset, cv.fold);
+    const linearAccuracy = accuracyInMoney(y, linear, scale);
+    const oobAccuracy = ensemble === null ? null : accuracyInMoney(y, ensemble.oob, scale);
+    quality = {
+      constantInSample: {
+        measuredBy: "in-sample",
+        money: inSample.money,
+        ...(inSample.log ? { log: inSample.log } : {}),
+      },
+      constant: {
+        measuredBy: "cross-validation",
+        money: constantAccuracy.money,
+        ...(constantAccuracy.log ? { log: constantAccuracy.log } : {}),
+      },
+      linear: {
+        measuredBy: "cross-validation",
+        money: linearAccuracy.money,
+        ...(linearAccuracy.log ? { log: linearAccuracy.log } : {}),
+      },
+      reference: fromCv(chosen),
+      ensemble: oobAccuracy === null ? null : {
+        measuredBy: "out-of-bag",
+        money: oobAccuracy.money,
+        ...(oobAccuracy.log ? { log: oobAccuracy.log } : {}),
+      },
+    };
+  } else {
+    const oob = ensemble === null ? null : oobClassificationMetrics(ensemble, y);
+    const counts = new Map<number, number>();
+    for (const c of y) counts.set(c, (counts.get(c) ?? 0) + 1);
+    quality = {
+      constantInSample: {
+        measuredBy: "in-sample",
+        accuracy: Math.max(...counts.values()) / y.length,
+      },
+      constant: { measuredBy: "cross-validation", accuracy: 1 - root.cvError },
+      linear: null,
+      reference: { measuredBy: "cross-validation", accuracy: 1 - chosen.cvError },
+      ensemble: oob === null ? null : {
+        measuredBy: "out-of-bag",
+        accuracy: oob.accuracy,
+        classes: { precision: oob.precision, recall: oob.recall, confusion: oob.confusion },
+      },
+    };
+  }
+
+  const residuals = regression && ensemble !== null
+    ? summarizeResidualGroups(groupResiduals(ensemble.oob, y, residualGroupCount(dataset.rows)))
+    : null;
+
+  options.onProgress?.("importance", 0, 1);
+  const importance = importanceOf(dataset, ensemble, cv.tree, seed);
+  options.onProgress?.("importance", 1, 1);
+
+  const features = dataset.features.map((f): FeatureSchema => {
+    const column = filtered.columns.find((c) => c.name === f.name)!;
+    return {
+      name: f.name,
+      kind: f.kind,
+      ...(f.levels ? { levels: f.levels } : {}),
+      typical: typicalValue(f.values, f.kind),
+      ...(f.kind === "numeric" ? { range: numericRange(f.values) } : {}),
+      missing: f.values.reduce((n, v) => n + (Number.isNaN(v) ? 1 : 0), 0),
+      protected: column.protected,
+    };
+  });
+  const identifier = filtered.columns.find((c) => c.type === "identifier");
+
+  return {
+    provenance: {
+      paygrove: VERSION,
+      format: MODEL_FORMAT,
+      created: options.now?.() ?? new Date().toISOString(),
+      table: {
+        file: table.source.file ?? "input",
+        sha256: table.source.sha256,
+        rows: table.rows + table.excluded.count,
+      },
+      seed,
+    },
+    target: {
+      name: options.target,
+      kind: dataset.target.kind,
+      ...(dataset.target.kind === "classification" ? { classes: dataset.target.classes } : {}),
+      ...(money ? { money } : {}),
+      scale,
+    },
+    features,
+    dropped,
+    read: readSettings(filtered, options, dataset, identifier?.name),
+    settings: {
+      trees,
+      minLeaf,
+      folds,
+      rule,
+      prune,
+      seed,
+      privacyMin,
+      where,
+      allowProtected: options.allowProtected ?? false,
+    },
+    rows: {
+      used: dataset.rows,
+      dropped: table.rows + table.excluded.count - dataset.rows,
+    },
+    reference: {
+      tree: cv.tree,
+      alpha: chosen.alpha,
+      leaves: leafCount(cv.tree),
+      depth: treeDepth(cv.tree),
+      pruningPath: cv.candidates.map((c) => ({
+        alpha: c.alpha,
+        leaves: c.leaves,
+        risk: c.risk,
+        cvError: c.cvError,
+        cvSe: c.cvSe,
+      })),
+    },
+    ensemble: ensemble === null ? null : {
+      trees: ensemble.trees,
+      seeds: ensemble.seeds,
+      alpha: prune === "none" ? 0 : minAlpha,
+    },
+    residuals,
+    quality,
+    importance,
+    support: supportOf(dataset, importance, privacyMin),
+    rowKeys: identifier && identifier.type === "identifier"
+      ? rowKeysOf(rowIndex, identifier.values, dataset)
+      : null,
+    seconds: (performance.now() - started) / 1000,
+  };
+}
+
+function checkSettings(trees: number, minLeaf: number, privacyMin: number, folds: number): void {
+  if (!Number.isInteger(trees) || trees < 0) {
+    throw new OptionError(`--trees must be a whole number >= 0, got ${trees}`);
+  }
+  if (!Number.isInteger(privacyMin) || privacyMin < PRIVACY_FLOOR) {
+    throw new OptionError(
+      `--privacy-min must be a whole number of at least ${PRIVACY_FLOOR}, got ${privacyMin}`,
+    );
+  }
+  if (!Number.isInteger(minLeaf) || minLeaf < 1) {
+    throw new OptionError(`--min-leaf must be a whole number >= 1, got ${minLeaf}`);
+  }
+  if (minLeaf < privacyMin) {
+    throw new OptionError(
+      `--min-leaf ${minLeaf} is below the privacy minimum ${privacyMin}: a leaf of fewer people ` +
+        `would keep their pay in the model file (lower --privacy-min to ${PRIVACY_FLOOR} at most)`,
+    );
+  }
+  if (!Number.isInteger(folds) || folds < 2) {
+    throw new OptionError(`--folds must be a whole number >= 2, got ${folds}`);
+  }
+}
+
+/** Each row's prediction by the mean of the other folds' targets. */
+function constantPredictions(y: Float64Array, fold: Int32Array, folds: number): Float64Array {
+  const sum = new Float64Array(folds);
+  const count = new Float64Array(folds);
+  let total = 0;
+  for (let r = 0; r < y.length; r++) {
+    sum[fold[r]] += y[r];
+    count[fold[r]]++;
+    total += y[r];
+  }
+  return Float64Array.from(y, (_, r) => (total - sum[fold[r]]) / (y.length - count[fold[r]]));
+}
+
+/** Population variance. */
+function variance(values: ArrayLike<number>): number {
+  let mean = 0;
+  for (let i = 0; i < values.length; i++) mean += values[i];
+  mean /= values.length;
+  let ss = 0;
+  for (let i = 0; i < values.length; i++) ss += (values[i] - mean) ** 2;
+  return ss / values.length;
+}
+
+/** Median of the known values (numeric) or the most common level code. */
+export function typicalValue(values: Float64Array, kind: FeatureSchema["kind"]): number {
+  const known = values.filter((v) => !Number.isNaN(v));
+  if (known.length === 0) return NaN;
+  if (kind === "numeric") return quantile(known.sort(), 0.5);
+  const counts = new Map<number, number>();
+  for (const v of known) counts.set(v, (counts.get(v) ?? 0) + 1);
+  let best = known[0];
+  for (const [code, n] of counts) {
+    const bestCount = counts.get(best)!;
+    if (n > bestCount || (n === bestCount && code < best)) best = code;
+  }
+  return best;
+}
+
+function numericRange(values: Float64Array): FeatureSchema["range"] {
+  const known = values.filter((v) => !Number.isNaN(v)).sort();
+  if (known.length === 0) return { min: NaN, max: NaN, p01: NaN, p99: NaN };
+  return {
+    min: known[0],
+    max: known[known.length - 1],
+    p01: quantile(known, 0.01),
+    p99: quantile(known, 0.99),
+  };
+}
+
+function importanceOf(
+  dataset: Dataset,
+  ensemble: Ensemble | null,
+  reference: Ensemble["trees"][number],
+  seed: number,
+): ImportanceFigure[] {
+  if (ensemble !== null && dataset.target.kind === "regression") {
+    return featureImportance(ensemble, dataset, { repeats: 3, seed });
+  }
+  const decrease = impurityDecrease(
+    { trees: ensemble?.trees ?? [reference] },
+    dataset.features.length,
+  );
+  const total = decrease.reduce((a, b) => a + b, 0);
+  return dataset.features.map((f, i) => ({
+    feature: f.name,
+    permutation: NaN,
+    permutationSd: NaN,
+    impurity: total > 0 ? decrease[i] / total : 0,
+  }));
+}
+
+function supportOf(
+  dataset: Dataset,
+  importance: ImportanceFigure[],
+  privacyMin: number,
+): SupportFigures {
+  const score = (i: number) =>
+    Number.isNaN(importance[i].permutation) ? importance[i].impurity : importance[i].permutation;
+  const levelFeatures = dataset.features
+    .map((f, i) => ({ f, i }))
+    .filter(({ f }) => f.kind !== "numeric")
+    .sort((a, b) => score(b.i) - score(a.i));
+  let peers: SupportFigures["peers"] = null;
+  if (levelFeatures.length >= 2) {
+    const [a, b] = [levelFeatures[0].f, levelFeatures[1].f];
+    const counts: Record<string, number> = {};
+    for (let r = 0; r < dataset.rows; r++) {
+      if (Number.isNaN(a.values[r]) || Number.isNaN(b.values[r])) continue;
+      const key = `${a.levels![a.values[r]]}\u0000${b.levels![b.values[r]]}`;
+      counts[key] = (counts[key] ?? 0) + 1;
+    }
+    peers = { features: [a.name, b.name], counts };
+  }
+  const levelRanges: SupportFigures["levelRanges"] = [];
+  const numeric = dataset.features.filter((f) => f.kind === "numeric");
+  for (const f of dataset.features) {
+    if (f.kind !== "ordinal") continue;
+    f.levels!.forEach((level, code) => {
+      const rows: number[] = [];
+      for (let r = 0; r < dataset.rows; r++) if (f.values[r] === code) rows.push(r);
+      if (rows.length < privacyMin) return;
+      const ranges = numeric.map((g) => {
+        const known = Float64Array.from(rows, (r) => g.values[r]).filter((v) => !Number.isNaN(v))
+          .sort();
+        return known.length < privacyMin
+          ? { feature: g.name, p01: NaN, p99: NaN }
+          : { feature: g.name, p01: quantile(known, 0.01), p99: quantile(known, 0.99) };
+      }).filter((r) => !Number.isNaN(r.p01));
+      levelRanges.push({ feature: f.name, level, ranges });
+    });
+  }
+  return { peers, levelRanges };
+}
+
+/**
+ * The key of a training row: the first 8 bytes (base64) of the SHA-256 of
+ * its identifier and feature values, so `batch` can tell a training row
+ * from a new one without the model keeping the rows.
+ */
+export function rowKey(identifier: string, values: ArrayLike<number>): string {
+  const text = `${identifier}\u0001${
+    Array.from(values, (v) => (Number.isNaN(v) ? "NA" : String(v))).join("\u0001")
+  }`;
+  return createHash("sha256").update(text).digest().subarray(0, 8).toString("base64");
+}
+
+function rowKeysOf(rowIndex: Int32Array, ids: string[], dataset: Dataset): string {
+  const profile = new Float64Array(dataset.features.length);
+  const keys: string[] = [];
+  for (let r = 0; r < dataset.rows; r++) {
+    for (let f = 0; f < profile.length; f++) profile[f] = dataset.features[f].values[r];
+    keys.push(rowKey(ids[rowIndex[r]], profile));
+  }
+  return keys.join("");
+}
+
+function readSettings(
+  table: Table,
+  options: FitModelOptions,
+  dataset: Dataset,
+  identifier: string | undefined,
+): ReadSettings {
+  const load = options.loadOptions ?? {};
+  const types: Record<string, DeclaredType> = {};
+  const orders: Record<string, string[]> = {};
+  for (const f of dataset.features) {
+    types[f.name] = f.kind;
+    if (f.kind === "ordinal") orders[f.name] = f.levels!;
+  }
+  const target = table.columns.find((c) => c.name === options.target)!;
+  if (target.type === "numeric") types[target.name] = "numeric";
+  else if (target.type === "categorical" || target.type === "ordinal") {
+    types[target.name] = target.type;
+    if (target.type === "ordinal") orders[target.name] = target.levels;
+  }
+  if (identifier !== undefined) types[identifier] = "identifier";
+  return {
+    ...(load.delimiter ? { delimiter: load.delimiter } : {}),
+    decimal: load.decimal ?? ".",
+    encoding: load.encoding ?? "utf-8",
+    ...(load.missing ? { missing: [...load.missing] } : {}),
+    types,
+    orders,
+    ...(load.currency ? { currency: load.currency } : {}),
+    ...(load.hoursPerYear ? { hoursPerYear: load.hoursPerYear } : {}),
+    ...(load.fte ? { fte: load.fte } : {}),
+    ...(load.periods ? { periods: { ...load.periods } } : {}),
+    ...(load.protected ? { protected: [...load.protected] } : {}),
+    ...(identifier !== undefined ? { identifier } : {}),
+  };
+}

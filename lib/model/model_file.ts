@@ -1,0 +1,467 @@
+/**
+ * The model file: one JSON document whose tree arrays are base64 of their
+ * little-endian bytes (compact, and exact to the last bit), with a SHA-256
+ * checksum of the rest. Reading checks, in order: that it is JSON, that it
+ * is a paygrove model of a format this version reads, the checksum, the
+ * document's shape (zod), and every tree's structure (children after their
+ * parent and in range, features and level masks in range, finite numbers),
+ * so that a truncated, edited or foreign file gets a clear message and a
+ * walk down a tree can never loop.
+ *
+ * @module
+ */
+
+import { createHash } from "node:crypto";
+import { z } from "zod";
+import { DataError } from "../errors.ts";
+import type { FlatTree } from "../tree/flat_tree.ts";
+import { VERSION } from "../version.ts";
+import { writeFileAtomic } from "../io/atomic_write.ts";
+import { type Model, MODEL_FORMAT } from "./types.ts";
+
+/** The marker every paygrove model file starts with. */
+const MARKER = "paygrove-model";
+
+type Typed = Int32Array | Float64Array | Uint8Array | Uint32Array;
+
+function toBase64(array: Typed): string {
+  const bytes = new Uint8Array(array.buffer, array.byteOffset, array.byteLength);
+  let text = "";
+  for (let i = 0; i < bytes.length; i += 0x8000) {
+    text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  }
+  return btoa(text);
+}
+
+function fromBase64<T extends Typed>(
+  text: string,
+  Ctor: { new (buffer: ArrayBuffer): T; BYTES_PER_ELEMENT: number },
+  length: number,
+  what: string,
+): T {
+  let binary: string;
+  try {
+    binary = atob(text);
+  } catch {
+    throw damaged(`${what} is not base64`);
+  }
+  if (binary.length !== length * Ctor.BYTES_PER_ELEMENT) {
+    throw damaged(
+      `${what} has ${binary.length} bytes, expected ${length * Ctor.BYTES_PER_ELEMENT}`,
+    );
+  }
+  const bytes = new Uint8Array(binary.length);
+  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
+  return new Ctor(bytes.buffer);
+}
+
+let currentFile = "model";
+function damaged(detail: string): DataError {
+  return new DataError(`${currentFile} is damaged or was edited: ${detail}`, { file: currentFile });
+}
+
+function encodeTree(tree: FlatTree, full: boolean) {
+  return {
+    task: tree.task,
+    width: tree.width,
+    nodeCount: tree.nodeCount,
+    maskWords: Array.from(tree.maskWords),
+    feature: toBase64(tree.feature),
+    threshold: toBase64(tree.threshold),
+    maskOffset: toBase64(tree.maskOffset),
+    masks: toBase64(tree.masks),
+    masksLength: tree.masks.length,
+    left: toBase64(tree.left),
+    right: toBase64(tree.right),
+    missingLeft: toBase64(tree.missingLeft),
+    value: toBase64(tree.value),
+    rows: toBase64(tree.rows),
+    // Weight and impurity serve the reference tree's outline; ensemble
+    // trees need neither to estimate, so they are left out to save space.
+    ...(full ? { weight: toBase64(tree.weight), impurity: toBase64(tree.impurity) } : {}),
+  };
+}
+
+const treeShape = z.object({
+  task: z.enum(["regression", "classification"]),
+  width: z.number().int().min(1),
+  nodeCount: z.number().int().min(1),
+  maskWords: z.array(z.number().int().min(0)),
+  feature: z.string(),
+  threshold: z.string(),
+  maskOffset: z.string(),
+  masks: z.string(),
+  masksLength: z.number().int().min(0),
+  left: z.string(),
+  right: z.string(),
+  missingLeft: z.string(),
+  value: z.string(),
+  rows: z.string(),
+  weight: z.string().optional(),
+  impurity: z.string().optional(),
+});
+
+const finite = z.number().refine(Number.isFinite, "must be a finite number");
+const maybeNumber = z.union([z.number(), z.null()]).transform((v) => (v === null ? NaN : v));
+const metrics = z.object({ rmse: maybeNumber, mae: maybeNumber, r2: maybeNumber });
+const accuracy = z.object({
+  measuredBy: z.enum(["cross-validation", "out-of-bag", "in-sample"]),
+  money: metrics.optional(),
+  log: metrics.optional(),
+  rmseSe: maybeNumber.optional(),
+  accuracy: maybeNumber.optional(),
+  classes: z.object({
+    precision: z.array(maybeNumber),
+    recall: z.array(maybeNumber),
+    confusion: z.array(z.array(z.number())),
+  }).optional(),
+});
+const moneyUnit = z.object({
+  currency: z.string().optional(),
+  period: z.enum(["hour", "week", "month", "year"]).optional(),
+});
+
+const documentShape = z.object({
+  kind: z.literal(MARKER),
+  format: z.number().int(),
+  provenance: z.object({
+    paygrove: z.string(),
+    format: z.number().int(),
+    created: z.string(),
+    table: z.object({ file: z.string(), sha256: z.string(), rows: z.number().int() }),
+    seed: z.number(),
+  }),
+  target: z.object({
+    name: z.string(),
+    kind: z.enum(["regression", "classification"]),
+    classes: z.array(z.string()).optional(),
+    money: moneyUnit.optional(),
+    scale: z.enum(["log", "raw"]),
+  }),
+  features: z.array(z.object({
+    name: z.string(),
+    kind: z.enum(["numeric", "ordinal", "categorical"]),
+    levels: z.array(z.string()).optional(),
+    typical: maybeNumber,
+    range: z.object({ min: maybeNumber, max: maybeNumber, p01: maybeNumber, p99: maybeNumber })
+      .optional(),
+    missing: z.number().int().min(0),
+    protected: z.boolean(),
+  })).min(1),
+  dropped: z.array(z.object({ name: z.string(), reason: z.string() })),
+  read: z.object({
+    delimiter: z.string().optional(),
+    decimal: z.enum([".", ","]),
+    encoding: z.string(),
+    missing: z.array(z.string()).optional(),
+    types: z.record(z.string(), z.enum(["numeric", "categorical", "ordinal", "identifier"])),
+    orders: z.record(z.string(), z.array(z.string())),
+    currency: z.string().optional(),
+    hoursPerYear: z.number().optional(),
+    fte: z.string().optional(),
+    periods: z.record(z.string(), z.enum(["hour", "week", "month", "year"])).optional(),
+    protected: z.array(z.string()).optional(),
+    identifier: z.string().optional(),
+  }),
+  settings: z.object({
+    trees: z.number().int().min(0),
+    minLeaf: z.number().int().min(1),
+    folds: z.number().int().min(2),
+    rule: z.enum(["one-se", "min"]),
+    prune: z.enum(["alpha-min", "none"]),
+    seed: z.number(),
+    privacyMin: z.number().int().min(3),
+    where: z.record(z.string(), z.array(z.string())),
+    allowProtected: z.boolean(),
+  }),
+  rows: z.object({ used: z.number().int().min(1), dropped: z.number().int().min(0) }),
+  reference: z.object({
+    tree: treeShape,
+    alpha: finite,
+    leaves: z.number().int().min(1),
+    depth: z.number().int().min(0),
+    pruningPath: z.array(z.object({
+      alpha: finite,
+      leaves: z.number().int(),
+      risk: finite,
+      cvError: finite,
+      cvSe: finite,
+    })),
+  }),
+  ensemble: z.object({ trees: z.array(treeShape), seeds: z.string(), alpha: finite }).nullable(),
+  residuals: z.object({ edges: z.array(maybeNumber), quantiles: z.array(z.string()) }).nullable(),
+  quality: z.object({
+    constantInSample: accuracy,
+    constant: accuracy,
+    linear: accuracy.nullable(),
+    reference: accuracy,
+    ensemble: accuracy.nullable(),
+  }),
+  importance: z.array(z.object({
+    feature: z.string(),
+    permutation: maybeNumber,
+    permutationSd: maybeNumber,
+    impurity: maybeNumber,
+  })),
+  support: z.object({
+    peers: z.object({
+      features: z.tuple([z.string(), z.string()]),
+      counts: z.record(z.string(), z.number().int()),
+    }).nullable(),
+    levelRanges: z.array(z.object({
+      feature: z.string(),
+      level: z.string(),
+      ranges: z.array(z.object({ feature: z.string(), p01: finite, p99: finite })),
+    })),
+  }),
+  rowKeys: z.string().nullable(),
+  seconds: z.number(),
+});
+
+/** Steps of a residual group's quantile grid (201 points: 0, 0.005, ..., 1). */
+const GRID = 201;
+
+/**
+ * The model as the file's text (compact JSON with a checksum).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, modelFromText, modelToText } from "../../mod.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 2 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 5, folds: 4, workers: 1 });
+ * const again = modelFromText(modelToText(model), "m.json");
+ * assert.deepEqual(again.ensemble!.trees[3].value, model.ensemble!.trees[3].value);
+ * ```
+ */
+export function modelToText(model: Model): string {
+  const body = {
+    kind: MARKER,
+    format: MODEL_FORMAT,
+    provenance: model.provenance,
+    target: model.target,
+    features: model.features,
+    dropped: model.dropped,
+    read: model.read,
+    settings: model.settings,
+    rows: model.rows,
+    reference: { ...model.reference, tree: encodeTree(model.reference.tree, true) },
+    ensemble: model.ensemble === null ? null : {
+      trees: model.ensemble.trees.map((t) => encodeTree(t, false)),
+      seeds: toBase64(model.ensemble.seeds),
+      alpha: model.ensemble.alpha,
+    },
+    residuals: model.residuals === null ? null : {
+      edges: Array.from(model.residuals.edges, (e) => (Number.isFinite(e) ? e : null)),
+      quantiles: model.residuals.residuals.map((q) => toBase64(Float64Array.from(q))),
+    },
+    quality: model.quality,
+    importance: model.importance,
+    support: model.support,
+    rowKeys: model.rowKeys,
+    seconds: model.seconds,
+  };
+  // NaN is not JSON: it is written as null and read back as NaN.
+  const text = JSON.stringify(
+    body,
+    (_k, v) => (typeof v === "number" && Number.isNaN(v) ? null : v),
+  );
+  const checksum = createHash("sha256").update(text).digest("hex");
+  return `${text.slice(0, -1)},"checksum":"${checksum}"}`;
+}
+
+/**
+ * Reads a model from its file's text, checking everything listed in the
+ * module notes.
+ *
+ * @param file The file's name, for messages.
+ * @throws {DataError} naming what is wrong.
+ */
+export function modelFromText(text: string, file: string): Model {
+  currentFile = file;
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch {
+    throw new DataError(
+      `${file} is not a complete paygrove model: it is not valid JSON (cut short, or not a model file)`,
+      { file },
+    );
+  }
+  if (typeof raw !== "object" || raw === null || (raw as { kind?: unknown }).kind !== MARKER) {
+    throw new DataError(`${file} is not a paygrove model file`, { file });
+  }
+  const format = (raw as { format?: unknown }).format;
+  if (typeof format !== "number" || format > MODEL_FORMAT) {
+    throw new DataError(
+      `${file} was written in model format ${format} by a newer paygrove; this paygrove ` +
+        `(${VERSION}) reads format ${MODEL_FORMAT}. Refit the model or upgrade paygrove`,
+      { file },
+    );
+  }
+  const { checksum, ...rest } = raw as { checksum?: unknown };
+  const body = JSON.stringify(rest);
+  if (
+    typeof checksum !== "string" || createHash("sha256").update(body).digest("hex") !== checksum
+  ) {
+    throw damaged("its checksum does not match its contents");
+  }
+  const parsed = documentShape.safeParse(rest);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw damaged(`${issue.path.join(".") || "the document"}: ${issue.message}`);
+  }
+  const doc = parsed.data;
+  const features = doc.features.length;
+  const maskWords = doc.features.map((f) =>
+    f.kind === "categorical" ? Math.ceil((f.levels?.length ?? 0) / 32) : 0
+  );
+  const width = doc.target.kind === "regression" ? 1 : (doc.target.classes?.length ?? 0);
+  const decodeTree = (shape: z.infer<typeof treeShape>, where: string): FlatTree => {
+    const n = shape.nodeCount;
+    if (shape.width !== width) {
+      throw damaged(`${where} has width ${shape.width}, expected ${width}`);
+    }
+    if (shape.maskWords.length !== features || shape.maskWords.some((w, f) => w !== maskWords[f])) {
+      throw damaged(`${where} does not match the model's features`);
+    }
+    const tree: FlatTree = {
+      task: shape.task,
+      width: shape.width,
+      nodeCount: n,
+      maskWords: Int32Array.from(shape.maskWords),
+      feature: fromBase64(shape.feature, Int32Array, n, `${where}.feature`),
+      threshold: fromBase64(shape.threshold, Float64Array, n, `${where}.threshold`),
+      maskOffset: fromBase64(shape.maskOffset, Int32Array, n, `${where}.maskOffset`),
+      masks: fromBase64(shape.masks, Uint32Array, shape.masksLength, `${where}.masks`),
+      left: fromBase64(shape.left, Int32Array, n, `${where}.left`),
+      right: fromBase64(shape.right, Int32Array, n, `${where}.right`),
+      missingLeft: fromBase64(shape.missingLeft, Uint8Array, n, `${where}.missingLeft`),
+      value: fromBase64(shape.value, Float64Array, n * width, `${where}.value`),
+      rows: fromBase64(shape.rows, Int32Array, n, `${where}.rows`),
+      weight: shape.weight
+        ? fromBase64(shape.weight, Float64Array, n, `${where}.weight`)
+        : new Float64Array(n),
+      impurity: shape.impurity
+        ? fromBase64(shape.impurity, Float64Array, n, `${where}.impurity`)
+        : new Float64Array(n),
+    };
+    checkTree(tree, doc.features, where);
+    return tree;
+  };
+  const reference = decodeTree(doc.reference.tree, "reference tree");
+  let ensemble: Model["ensemble"] = null;
+  if (doc.ensemble !== null) {
+    const trees = doc.ensemble.trees.map((t, b) => decodeTree(t, `tree ${b + 1}`));
+    if (trees.length !== doc.settings.trees) {
+      throw damaged(`it has ${trees.length} trees, its settings say ${doc.settings.trees}`);
+    }
+    ensemble = {
+      trees,
+      seeds: fromBase64(doc.ensemble.seeds, Int32Array, trees.length, "seeds"),
+      alpha: doc.ensemble.alpha,
+    };
+  }
+  let residuals: Model["residuals"] = null;
+  if (doc.residuals !== null) {
+    const groups = doc.residuals.quantiles.length;
+    if (groups === 0 || doc.residuals.edges.length !== groups) {
+      throw damaged("its residual groups are inconsistent");
+    }
+    residuals = {
+      edges: Float64Array.from(doc.residuals.edges, (e, g) => (g === groups - 1 ? Infinity : e)),
+      residuals: doc.residuals.quantiles.map((q, g) => {
+        const grid = fromBase64(q, Float64Array, GRID, `residual group ${g + 1}`);
+        for (let k = 1; k < GRID; k++) {
+          if (!(grid[k] >= grid[k - 1])) throw damaged(`residual group ${g + 1} is not sorted`);
+        }
+        return grid;
+      }),
+    };
+  }
+  return {
+    provenance: doc.provenance,
+    target: doc.target,
+    features: doc.features,
+    dropped: doc.dropped,
+    read: doc.read,
+    settings: doc.settings,
+    rows: doc.rows,
+    reference: { ...doc.reference, tree: reference },
+    ensemble,
+    residuals,
+    quality: doc.quality,
+    importance: doc.importance,
+    support: doc.support,
+    rowKeys: doc.rowKeys,
+    seconds: doc.seconds,
+  } as Model;
+}
+
+// Every node's children come after it and within the tree, so a walk from
+// the root only moves forward and ends; splits name real features, finite
+// thresholds (Infinity splits known from missing) or level masks within the
+// mask array; values are finite.
+function checkTree(
+  tree: FlatTree,
+  features: { kind: string; levels?: string[] }[],
+  where: string,
+): void {
+  for (let i = 0; i < tree.nodeCount; i++) {
+    const l = tree.left[i];
+    const r = tree.right[i];
+    const f = tree.feature[i];
+    for (let c = 0; c < tree.width; c++) {
+      if (!Number.isFinite(tree.value[i * tree.width + c])) {
+        throw damaged(`${where}: node ${i} has no finite value`);
+      }
+    }
+    if (l === -1 && r === -1 && f === -1) continue;
+    if (!(l > i && r > i && l < tree.nodeCount && r < tree.nodeCount && l !== r)) {
+      throw damaged(
+        `${where}: node ${i} has children ${l} and ${r}, which are out of order or range`,
+      );
+    }
+    if (!(f >= 0 && f < features.length)) {
+      throw damaged(`${where}: node ${i} splits on feature ${f}, which does not exist`);
+    }
+    if (features[f].kind === "categorical") {
+      const off = tree.maskOffset[i];
+      if (!(off >= 0 && off + 2 * tree.maskWords[f] <= tree.masks.length)) {
+        throw damaged(`${where}: node ${i}'s level sets are out of range`);
+      }
+    } else if (Number.isNaN(tree.threshold[i])) {
+      // Infinity is a real threshold: the split of known against missing values.
+      throw damaged(`${where}: node ${i} has no threshold`);
+    }
+  }
+}
+
+/**
+ * Reads and checks a model file.
+ *
+ * @throws {DataError} when it cannot be read or is not a sound model.
+ */
+export async function readModelFile(path: string): Promise<Model> {
+  let text: string;
+  try {
+    text = await Deno.readTextFile(path);
+  } catch (error) {
+    if (error instanceof Deno.errors.NotFound) {
+      throw new DataError(`${path}: no such model file`, { file: path });
+    }
+    throw new DataError(`${path}: cannot read it (${(error as Error).message.split("\n")[0]})`, {
+      file: path,
+    });
+  }
+  return modelFromText(text, path);
+}
+
+/**
+ * Writes a model file atomically; an existing file is kept unless `force`.
+ */
+export async function writeModelFile(path: string, model: Model, force = false): Promise<number> {
+  const text = modelToText(model);
+  await writeFileAtomic(path, text, { force, option: "--out" });
+  return new TextEncoder().encode(text).length;
+}

@@ -1,0 +1,157 @@
+/**
+ * Reading a table for a saved model: read as the training table was read
+ * (declared types and level orders, decimal mark, currency), checked against
+ * the model's schema (columns, types, levels) with every difference listed,
+ * and encoded into the model's feature codes.
+ *
+ * @module
+ */
+
+import { DataError } from "../errors.ts";
+import { loadTable, type LoadTableOptions } from "../table/load_table.ts";
+import { decodeText, readCsv } from "../table/read_csv.ts";
+import type { Table } from "../table/types.ts";
+import type { Model } from "./types.ts";
+
+/** A table encoded for a model. */
+export interface ModelRows {
+  /** The table as read. */
+  table: Table;
+  /** Rows. */
+  rows: number;
+  /** Per model feature, one value per row (level codes in the model's order). */
+  features: Float64Array[];
+  /** The identifier of each row ("" without an identifier column). */
+  ids: string[];
+  /** The target in money per row, when the table has it (NaN where missing). */
+  target: Float64Array | null;
+}
+
+/**
+ * Reads CSV bytes (or text) for a model and encodes them.
+ *
+ * @param file The file's name, for messages.
+ * @param requireTarget Whether the target column must be there.
+ * @throws {DataError} listing the schema differences.
+ */
+export function readForModel(
+  model: Model,
+  input: Uint8Array | string,
+  file: string,
+  requireTarget = false,
+): ModelRows {
+  const read = model.read;
+  const text = typeof input === "string" ? input : decodeText(input, read.encoding, file);
+  const header = readCsv(text, { file, delimiter: read.delimiter }).header;
+  const present = new Set(header);
+  const needed = model.features.map((f) => f.name);
+  const missingColumns = needed.filter((n) => !present.has(n));
+  if (requireTarget && !present.has(model.target.name)) missingColumns.push(model.target.name);
+  if (missingColumns.length > 0) {
+    throw new DataError(
+      `${file} does not match the model: it lacks the column${
+        missingColumns.length > 1 ? "s" : ""
+      } ` +
+        `${missingColumns.map((n) => `"${n}"`).join(", ")} (the model was fitted on ` +
+        `${[...needed, model.target.name].join(", ")})`,
+      { file },
+    );
+  }
+  const only = <V>(record: Record<string, V> | undefined) =>
+    Object.fromEntries(Object.entries(record ?? {}).filter(([name]) => present.has(name)));
+  const options: LoadTableOptions = {
+    file,
+    decimal: read.decimal,
+    encoding: read.encoding,
+    types: only(read.types),
+    orders: only(read.orders),
+  };
+  if (read.delimiter !== undefined) options.delimiter = read.delimiter;
+  if (read.missing !== undefined) options.missing = read.missing;
+  if (read.currency !== undefined) options.currency = read.currency;
+  if (read.hoursPerYear !== undefined) options.hoursPerYear = read.hoursPerYear;
+  if (read.fte !== undefined && present.has(read.fte)) options.fte = read.fte;
+  if (read.periods !== undefined) options.periods = only(read.periods);
+  if (read.protected !== undefined) {
+    options.protected = read.protected.filter((n) => present.has(n));
+  }
+  const table = loadTable(text, options);
+
+  const differences: string[] = [];
+  const features = model.features.map((f) => {
+    const column = table.columns.find((c) => c.name === f.name)!;
+    if (f.kind === "numeric") {
+      if (column.type !== "numeric") {
+        differences.push(`"${f.name}" is ${column.type} here, numeric in the model`);
+        return new Float64Array(table.rows);
+      }
+      return Float64Array.from(column.values);
+    }
+    if (column.type !== "categorical" && column.type !== "ordinal") {
+      // A column of one level reads as constant; its level may still be known.
+      if (column.type === "constant") {
+        const code = column.value === undefined ? NaN : f.levels!.indexOf(column.value);
+        if (code < 0) {
+          differences.push(`"${f.name}" has the level "${column.value}", unknown to the model`);
+        }
+        return new Float64Array(table.rows).fill(code);
+      }
+      differences.push(`"${f.name}" is ${column.type} here, ${f.kind} in the model`);
+      return new Float64Array(table.rows);
+    }
+    const map = column.levels.map((level) => f.levels!.indexOf(level));
+    const unseen = column.levels.filter((_, i) => map[i] < 0);
+    if (unseen.length > 0) {
+      differences.push(
+        `"${f.name}" has level${unseen.length > 1 ? "s" : ""} ${
+          unseen.map((l) => `"${l}"`).join(", ")
+        } ` +
+          `the model never saw (it knows ${f.levels!.join(", ")})`,
+      );
+    }
+    return Float64Array.from(column.codes, (code) => (code < 0 ? NaN : map[code]));
+  });
+  if (differences.length > 0) {
+    throw new DataError(
+      `${file} does not match the model's schema:\n  - ${differences.join("\n  - ")}`,
+      { file },
+    );
+  }
+  const idColumn = read.identifier === undefined
+    ? undefined
+    : table.columns.find((c) => c.name === read.identifier);
+  const ids = idColumn?.type === "identifier"
+    ? idColumn.values
+    : idColumn?.type === "categorical" || idColumn?.type === "ordinal"
+    ? Array.from(idColumn.codes, (c) => (c < 0 ? "" : idColumn.levels[c]))
+    : new Array<string>(table.rows).fill("");
+  const targetColumn = table.columns.find((c) => c.name === model.target.name);
+  const target = targetColumn?.type === "numeric" ? Float64Array.from(targetColumn.values) : null;
+  return { table, rows: table.rows, features, ids, target };
+}
+
+/** The profile of row `r`. */
+export function rowProfile(rows: ModelRows, r: number): Float64Array {
+  return Float64Array.from(rows.features, (values) => values[r]);
+}
+
+/**
+ * The index of the row whose identifier is `id`.
+ *
+ * @throws {DataError} when the table has no identifier column or no such row.
+ */
+export function findRow(model: Model, rows: ModelRows, id: string, file: string): number {
+  if (model.read.identifier === undefined) {
+    throw new DataError(
+      `--row: the model's table had no identifier column, so rows cannot be named; use --set`,
+      { file },
+    );
+  }
+  const r = rows.ids.indexOf(id);
+  if (r < 0) {
+    throw new DataError(`--row: ${file} has no row with ${model.read.identifier} "${id}"`, {
+      file,
+    });
+  }
+  return r;
+}

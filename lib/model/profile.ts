@@ -1,0 +1,228 @@
+/**
+ * Profiles in a model's terms: the typical person, `--set COLUMN=VALUE`
+ * edits checked against the model's schema, `--change` edits (with `+1` /
+ * `-1` steps of an ordinal), and the profile back in words.
+ *
+ * @module
+ */
+
+import { OptionError } from "../errors.ts";
+import type { FeatureSchema, Model } from "./types.ts";
+
+/** A profile: one value per model feature (level codes for level features, NaN for missing). */
+export type Profile = Float64Array;
+
+/** A warning about a profile, for the user. */
+export interface ProfileWarning {
+  /** The feature concerned. */
+  feature: string;
+  /** One sentence. */
+  message: string;
+}
+
+/**
+ * The typical profile: each numeric feature at its median, each level
+ * feature at its most common level.
+ */
+export function typicalProfile(model: Model): Profile {
+  return Float64Array.from(model.features, (f) => f.typical);
+}
+
+/**
+ * The distance between two words in edits (Levenshtein), for "did you mean".
+ */
+export function editDistance(a: string, b: string): number {
+  const row = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    let previous = row[0];
+    row[0] = i;
+    for (let j = 1; j <= b.length; j++) {
+      const saved = row[j];
+      row[j] = Math.min(
+        row[j] + 1,
+        row[j - 1] + 1,
+        previous + (a[i - 1].toLowerCase() === b[j - 1].toLowerCase() ? 0 : 1),
+      );
+      previous = saved;
+    }
+  }
+  return row[b.length];
+}
+
+/** The closest of `options` to `word`, if it is close enough to be a slip. */
+export function nearest(word: string, options: readonly string[]): string | undefined {
+  let best: string | undefined;
+  let bestDistance = Infinity;
+  for (const option of options) {
+    const d = editDistance(word, option);
+    if (d < bestDistance) {
+      best = option;
+      bestDistance = d;
+    }
+  }
+  return best !== undefined && bestDistance <= Math.max(2, Math.floor(word.length / 3))
+    ? best
+    : undefined;
+}
+
+/** The feature named `name`, or an OptionError listing the model's features. */
+export function findFeature(model: Model, name: string, option: string): number {
+  const index = model.features.findIndex((f) => f.name === name);
+  if (index >= 0) return index;
+  const names = model.features.map((f) => f.name);
+  if (name === model.target.name) {
+    throw new OptionError(`${option}: "${name}" is what the model estimates, not an attribute`);
+  }
+  const dropped = model.dropped.find((d) => d.name === name);
+  if (dropped !== undefined) {
+    throw new OptionError(
+      `${option}: "${name}" is not used by this model (${dropped.reason}); its attributes are: ` +
+        names.join(", "),
+    );
+  }
+  const guess = nearest(name, names);
+  throw new OptionError(
+    `${option}: the model has no attribute "${name}"${
+      guess ? ` (did you mean "${guess}"?)` : ""
+    }; ` +
+      `its attributes are: ${names.join(", ")}`,
+  );
+}
+
+/**
+ * The code of a value of a feature: a level's code, or the number.
+ *
+ * @throws {OptionError} for an unseen level (listing the levels, suggesting
+ * the nearest) or a value that is not a number for a numeric feature.
+ */
+export function valueOf(feature: FeatureSchema, text: string, option: string): number {
+  if (text === "" || text.toUpperCase() === "NA") return NaN;
+  if (feature.kind === "numeric") {
+    const value = Number(text.replace(/_/g, ""));
+    if (!Number.isFinite(value)) {
+      throw new OptionError(`${option}: "${feature.name}" is a number, and "${text}" is not one`);
+    }
+    return value;
+  }
+  const levels = feature.levels ?? [];
+  const code = levels.indexOf(text);
+  if (code >= 0) return code;
+  const folded = levels.findIndex((l) => l.toLowerCase() === text.toLowerCase());
+  if (folded >= 0) return folded;
+  const guess = nearest(text, levels);
+  throw new OptionError(
+    `${option}: "${feature.name}" has no level "${text}"${
+      guess ? ` (did you mean "${guess}"?)` : ""
+    }; ` +
+      `its levels are: ${levels.join(", ")}`,
+  );
+}
+
+/** Splits `COLUMN=VALUE`. */
+export function splitAssignment(text: string, option: string): [string, string] {
+  const at = text.indexOf("=");
+  if (at <= 0) throw new OptionError(`${option}: expected COLUMN=VALUE, got "${text}"`);
+  return [text.slice(0, at).trim(), text.slice(at + 1).trim()];
+}
+
+/**
+ * Refuses a protected attribute as a lever of a pay estimate unless the
+ * model was fitted with protected attributes allowed.
+ */
+function checkLever(model: Model, feature: FeatureSchema, option: string): void {
+  if (feature.protected && !model.settings.allowProtected) {
+    throw new OptionError(
+      `${option}: "${feature.name}" is a protected attribute and cannot be changed in a pay ` +
+        `estimate`,
+    );
+  }
+}
+
+/**
+ * Applies `--set COLUMN=VALUE` edits to a profile (a copy is returned).
+ *
+ * @returns The profile and warnings (values outside the training range).
+ */
+export function applySets(
+  model: Model,
+  profile: Profile,
+  sets: readonly string[],
+  option = "--set",
+): { profile: Profile; warnings: ProfileWarning[] } {
+  const out = Float64Array.from(profile);
+  for (const text of sets) {
+    const [name, value] = splitAssignment(text, option);
+    const f = findFeature(model, name, option);
+    checkLever(model, model.features[f], option);
+    out[f] = valueOf(model.features[f], value, option);
+  }
+  return { profile: out, warnings: rangeWarnings(model, out) };
+}
+
+/**
+ * Applies `--change COLUMN=VALUE` edits; for an ordinal, `+N` / `-N` moves
+ * N steps up or down its order (a promotion is `level=+1`).
+ */
+export function applyChanges(
+  model: Model,
+  profile: Profile,
+  changes: readonly string[],
+): { profile: Profile; warnings: ProfileWarning[] } {
+  const out = Float64Array.from(profile);
+  for (const text of changes) {
+    const [name, value] = splitAssignment(text, "--change");
+    const f = findFeature(model, name, "--change");
+    const feature = model.features[f];
+    checkLever(model, feature, "--change");
+    const step = /^[+-]\d+$/.exec(value);
+    if (step !== null && feature.kind === "ordinal") {
+      const levels = feature.levels!;
+      if (Number.isNaN(out[f])) {
+        throw new OptionError(`--change: "${name}" is missing in the base profile; set it first`);
+      }
+      const to = out[f] + Number(value);
+      if (to < 0 || to >= levels.length) {
+        throw new OptionError(
+          `--change: ${name}=${value} moves ${levels[out[f]]} beyond the ladder ` +
+            `(${levels[0]} to ${levels[levels.length - 1]})`,
+        );
+      }
+      out[f] = to;
+    } else if (step !== null && feature.kind === "numeric") {
+      out[f] = out[f] + Number(value);
+    } else {
+      out[f] = valueOf(feature, value, "--change");
+    }
+  }
+  return { profile: out, warnings: rangeWarnings(model, out) };
+}
+
+/** Warnings for numeric values outside the range the model saw. */
+export function rangeWarnings(model: Model, profile: Profile): ProfileWarning[] {
+  const warnings: ProfileWarning[] = [];
+  model.features.forEach((f, i) => {
+    const x = profile[i];
+    if (f.range === undefined || Number.isNaN(x)) return;
+    if (x < f.range.min || x > f.range.max) {
+      warnings.push({
+        feature: f.name,
+        message: `${f.name} ${x} is outside the training data (${f.range.min} to ` +
+          `${f.range.max}); trees give the same estimate beyond the data's edge as at it`,
+      });
+    }
+  });
+  return warnings;
+}
+
+/** The profile in words: feature name -> value (level name, number, or null for missing). */
+export function describeProfile(
+  model: Model,
+  profile: Profile,
+): Record<string, string | number | null> {
+  const out: Record<string, string | number | null> = {};
+  model.features.forEach((f, i) => {
+    const x = profile[i];
+    out[f.name] = Number.isNaN(x) ? null : f.kind === "numeric" ? x : (f.levels![x] ?? String(x));
+  });
+  return out;
+}

@@ -1,0 +1,233 @@
+/**
+ * `paygrove fit TABLE --target COL --out MODEL`: fits the reference tree and
+ * the ensemble, prints the model summary and writes the model file.
+ *
+ * @module
+ */
+
+import {
+  Command,
+  type CommandUnknownOpts,
+  InvalidArgumentError,
+  Option,
+} from "@commander-js/extra-typings";
+import { fitModel, loadTableFile, type Model, writeModelFile } from "../../mod.ts";
+import { progressBar } from "../progress.ts";
+import { renderModelSummary } from "../render/model_view.ts";
+import { formatNumber } from "../render/numbers.ts";
+import type { Terminal } from "../terminal.ts";
+import { list, loadOptions, withTableFlags } from "../table_flags.ts";
+import { cautionLines, provenanceLine } from "../render/cautions.ts";
+
+/** Parses a whole number of at least `min`. */
+export function wholeNumber(min: number) {
+  return (text: string): number => {
+    const value = Number(text);
+    if (!Number.isInteger(value) || value < min) {
+      throw new InvalidArgumentError(`expected a whole number >= ${min}, got "${text}"`);
+    }
+    return value;
+  };
+}
+
+/** Collects repeated `COLUMN=VALUE` options into alternatives per column. */
+function collectWhere(text: string, previous: Record<string, string[]> = {}) {
+  const at = text.indexOf("=");
+  if (at <= 0 || at === text.length - 1) {
+    throw new InvalidArgumentError(`expected COLUMN=VALUE, got "${text}"`);
+  }
+  const column = text.slice(0, at).trim();
+  const value = text.slice(at + 1).trim();
+  return { ...previous, [column]: [...(previous[column] ?? []), value] };
+}
+
+/** The `fit --json` document. */
+export function fitJson(model: Model, out: string, bytes: number): Record<string, unknown> {
+  const q = model.quality;
+  const regression = model.target.kind === "regression";
+  const chosen = model.reference.pruningPath.find((p) => p.alpha === model.reference.alpha);
+  return {
+    target: model.target.name,
+    kind: model.target.kind,
+    scale: model.target.scale,
+    currency: model.target.money?.currency ?? null,
+    period: model.target.money?.period ?? null,
+    rows: model.rows.used,
+    rowsDropped: model.rows.dropped,
+    features: model.features.map((f) => ({ name: f.name, kind: f.kind, levels: f.levels ?? null })),
+    dropped: model.dropped,
+    referenceTree: {
+      leaves: model.reference.leaves,
+      depth: model.reference.depth,
+      alpha: model.reference.alpha,
+      ...(regression
+        ? {
+          cvRmse: q.reference.money!.rmse,
+          cvMae: q.reference.money!.mae,
+          cvRmseLog: q.reference.log?.rmse ?? null,
+          cvRmseSe: q.reference.rmseSe ?? null,
+        }
+        : { cvAccuracy: q.reference.accuracy, cvError: chosen?.cvError ?? null }),
+    },
+    pruningPath: model.reference.pruningPath.map((p) => ({
+      alpha: p.alpha,
+      leaves: p.leaves,
+      risk: p.risk,
+      cvError: p.cvError,
+    })),
+    ensemble: model.ensemble === null ? null : {
+      trees: model.ensemble.trees.length,
+      alpha: model.ensemble.alpha,
+      ...(regression
+        ? {
+          oobRmse: q.ensemble!.money!.rmse,
+          oobMae: q.ensemble!.money!.mae,
+          oobR2: q.ensemble!.money!.r2,
+          oobRmseLog: q.ensemble!.log?.rmse ?? null,
+          oobR2Log: q.ensemble!.log?.r2 ?? null,
+        }
+        : { oobAccuracy: q.ensemble!.accuracy, classes: q.ensemble!.classes }),
+    },
+    baselines: regression
+      ? {
+        constantRmse: q.constantInSample.money!.rmse,
+        constantCvRmse: q.constant.money!.rmse,
+        linearCvRmse: q.linear!.money!.rmse,
+        constantCvRmseLog: q.constant.log?.rmse ?? null,
+        linearCvRmseLog: q.linear!.log?.rmse ?? null,
+      }
+      : { constantAccuracy: q.constantInSample.accuracy, constantCvAccuracy: q.constant.accuracy },
+    quality: q,
+    importance: model.importance,
+    model: { path: out, bytes },
+    seconds: model.seconds,
+    provenance: model.provenance,
+  };
+}
+
+/**
+ * Builds the `fit` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function fitCommand(terminal: Terminal): CommandUnknownOpts {
+  return withTableFlags(
+    new Command("fit")
+      .description(
+        "Fit the reference tree and the ensemble on a pay table, print the model summary and " +
+          "write the model file",
+      )
+      .argument("<table>", "CSV file to learn from"),
+  )
+    .option(
+      "--features <columns>",
+      "the attributes to use, comma-separated (default: all usable)",
+      list,
+    )
+    .option("--drop <columns>", "attributes to leave out, comma-separated", list)
+    .option(
+      "--where <column=value>",
+      "keep only rows with this value (repeat: values of one column are alternatives)",
+      collectWhere,
+    )
+    .option("--allow-protected", "allow protected attributes (sex, race, age...) as features")
+    .addOption(
+      new Option("--scale <scale>", "fit pay on its log (default for money) or raw scale")
+        .choices(["log", "raw"] as const),
+    )
+    .option(
+      "--trees <n>",
+      "trees in the ensemble; 0 fits the reference tree alone",
+      wholeNumber(0),
+      200,
+    )
+    .option("--min-leaf <n>", "fewest people in a leaf", wholeNumber(1), 5)
+    .option("--folds <k>", "cross-validation folds for the reference tree", wholeNumber(2), 10)
+    .addOption(
+      new Option("--rule <rule>", "how the reference tree's size is chosen")
+        .choices(["one-se", "min"] as const)
+        .default("one-se" as const),
+    )
+    .addOption(
+      new Option("--prune <how>", "'none' grows the ensemble's trees without pruning")
+        .choices(["none"] as const),
+    )
+    .option("--seed <s>", "seed of folds, resamples and shuffles", wholeNumber(0), 1)
+    .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
+    .option(
+      "--privacy-min <n>",
+      "smallest group whose mean pay is ever shown (at least 3)",
+      wholeNumber(1),
+      5,
+    )
+    .requiredOption("--out <model>", "where to write the model file")
+    .option("--force", "replace an existing model file")
+    .option("--json", "print one JSON document on stdout instead of text")
+    .action(async (file, flags) => {
+      const options = loadOptions(flags, file);
+      const table = await loadTableFile(file, options);
+      if (flags.target === undefined) {
+        throw new InvalidArgumentError("--target is required: the column to predict");
+      }
+      if (flags.allowProtected) {
+        terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
+      }
+      const progress = progressBar(terminal);
+      let model: Model;
+      try {
+        model = await fitModel(table, {
+          target: flags.target,
+          features: flags.features,
+          drop: flags.drop,
+          where: flags.where,
+          allowProtected: flags.allowProtected,
+          scale: flags.scale,
+          trees: flags.trees,
+          minLeaf: flags.minLeaf,
+          folds: flags.folds,
+          rule: flags.rule,
+          prune: flags.prune === "none" ? "none" : "alpha-min",
+          seed: flags.seed,
+          workers: flags.workers,
+          privacyMin: flags.privacyMin,
+          loadOptions: options,
+          onProgress: (stage, done, total) => progress.update(stage, done, total),
+        });
+      } finally {
+        progress.finish();
+      }
+      const bytes = await writeModelFile(flags.out, model, flags.force ?? false);
+      if (flags.json) {
+        terminal.out(JSON.stringify(fitJson(model, flags.out, bytes), jsonNumbers, 2));
+        return;
+      }
+      const style = terminal.style;
+      const view = {
+        style,
+        width: terminal.width,
+        numbers: { locale: flags.locale, currency: flags.currency },
+      };
+      terminal.out(
+        [
+          style.bold(
+            `paygrove fit: ${file} -> ${flags.out} (${formatNumber(bytes / 1e6, {}, 1)} MB) in ` +
+              `${formatNumber(model.seconds, {}, 1)} s`,
+          ),
+          ...renderModelSummary(model, view),
+          "",
+          ...cautionLines(style, terminal.width),
+          style.dim(provenanceLine(model.provenance)),
+        ].join("\n"),
+      );
+    });
+}
+
+/** The caution printed whenever protected attributes are allowed. */
+export const PROTECTED_CAUTION = "Caution: --allow-protected lets sex, race, age and other " +
+  "protected attributes shape pay estimates. Setting pay on them risks unlawful discrimination; " +
+  "use such a model only to study gaps, with counsel.";
+
+/** JSON.stringify replacer: NaN and infinities become null. */
+export function jsonNumbers(_key: string, value: unknown): unknown {
+  return typeof value === "number" && !Number.isFinite(value) ? null : value;
+}

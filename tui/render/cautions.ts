@@ -1,0 +1,36 @@
+/**
+ * The cautions every pay answer carries, and the provenance line.
+ *
+ * @module
+ */
+
+import wrapAnsi from "wrap-ansi";
+import type { Provenance } from "../../mod.ts";
+import type { Style } from "./style.ts";
+
+/** The usual cautions, wrapped to the width. */
+export function cautionLines(style: Style, width: number): string[] {
+  const text = "These figures describe what your current pay structure does, not what anyone " +
+    "should be paid. Protected attributes are kept out of estimates unless you allowed them. " +
+    "Defer to local law, counsel and licensed practice before acting on any figure.";
+  return wrapAnsi(style.dim(text), width).split("\n");
+}
+
+/**
+ * One line naming where a result came from.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { provenanceLine } from "./cautions.ts";
+ * const line = provenanceLine({
+ *   paygrove: "0.1.0", format: 1, created: "2026-12-02T10:00:00Z",
+ *   table: { file: "pay.csv", sha256: "ab".repeat(32), rows: 10 }, seed: 1,
+ * });
+ * assert(line === "paygrove 0.1.0, model format 1, fitted 2026-12-02T10:00:00Z on pay.csv (sha256 abababababab...), seed 1");
+ * ```
+ */
+export function provenanceLine(p: Provenance): string {
+  return `paygrove ${p.paygrove}, model format ${p.format}, fitted ${p.created} on ` +
+    `${p.table.file} (sha256 ${p.table.sha256.slice(0, 12)}...), seed ${p.seed}`;
+}

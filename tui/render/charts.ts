@@ -1,0 +1,121 @@
+/**
+ * Small text charts: horizontal bars for importance, intervals drawn on a
+ * common axis, and a histogram of the trees' estimates. Plain characters
+ * only, so they survive any SSH session and copy-paste.
+ *
+ * @module
+ */
+
+/**
+ * Horizontal bars, one per item, scaled to the largest value.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { barChart } from "./charts.ts";
+ * const lines = barChart([{ label: "level", value: 2, text: "2.0" }, { label: "site", value: 1, text: "1.0" }], 20);
+ * assert(lines[0] === "level  ########## 2.0" && lines[1] === "site   #####      1.0");
+ * ```
+ */
+export function barChart(
+  items: readonly { label: string; value: number; text: string }[],
+  barWidth: number,
+): string[] {
+  const labelWidth = Math.max(...items.map((i) => i.label.length));
+  const top = Math.max(...items.map((i) => i.value), 0);
+  const cells = Math.max(4, Math.floor(barWidth / 2));
+  return items.map((item) => {
+    const n = top > 0 ? Math.round((Math.max(0, item.value) / top) * cells) : 0;
+    return `${item.label.padEnd(labelWidth)}  ${"#".repeat(n).padEnd(cells)} ${item.text}`;
+  });
+}
+
+/** One interval to draw. */
+export interface IntervalRow {
+  /** Label on the left. */
+  label: string;
+  /** Lower end. */
+  low: number;
+  /** Upper end. */
+  high: number;
+  /** Text on the right (e.g. the two ends formatted). */
+  text: string;
+}
+
+/**
+ * Intervals on one axis, with the estimate marked `|`: each line shows
+ * where its interval lies relative to the others.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { intervalChart } from "./charts.ts";
+ * const lines = intervalChart([
+ *   { label: "sure", low: 45, high: 55, text: "45-55" },
+ *   { label: "range", low: 0, high: 100, text: "0-100" },
+ * ], 50, 21);
+ * assert(lines[0] === "sure            [|]           45-55");
+ * assert(lines[1] === "range  [=========|=========]  0-100");
+ * ```
+ */
+export function intervalChart(
+  rows: readonly IntervalRow[],
+  estimate: number,
+  axisWidth: number,
+): string[] {
+  const low = Math.min(...rows.map((r) => r.low), estimate);
+  const high = Math.max(...rows.map((r) => r.high), estimate);
+  const span = high - low || 1;
+  const at = (x: number) => Math.round(((x - low) / span) * (axisWidth - 1));
+  const labelWidth = Math.max(...rows.map((r) => r.label.length));
+  return rows.map((r) => {
+    const cells = new Array(axisWidth).fill(" ");
+    const a = at(r.low);
+    const b = at(r.high);
+    for (let i = a; i <= b; i++) cells[i] = "=";
+    cells[a] = "[";
+    cells[b] = "]";
+    const e = at(estimate);
+    if (e > a && e < b) cells[e] = "|";
+    return `${r.label.padEnd(labelWidth)}  ${cells.join("")}  ${r.text}`;
+  });
+}
+
+/**
+ * A histogram of values in `bins` columns of height `height`, with the
+ * lowest and highest value under it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { histogram } from "./charts.ts";
+ * const lines = histogram([1, 2, 2, 3, 3, 3], 3, 3, (x) => String(x));
+ * assert(lines[0] === "    #" && lines[2] === "  ###" && lines[3].startsWith("1"));
+ * ```
+ */
+export function histogram(
+  values: readonly number[],
+  bins: number,
+  height: number,
+  format: (x: number) => string,
+): string[] {
+  if (values.length === 0) return [];
+  const low = Math.min(...values);
+  const high = Math.max(...values);
+  const counts = new Array(bins).fill(0);
+  for (const v of values) {
+    const k = high > low ? Math.min(bins - 1, Math.floor(((v - low) / (high - low)) * bins)) : 0;
+    counts[k]++;
+  }
+  const top = Math.max(...counts);
+  const lines: string[] = [];
+  for (let level = height; level >= 1; level--) {
+    const line = counts.map((c) => (c / top) * height >= level - 0.5 ? "#" : " ").join("");
+    lines.push(`  ${line}`.replace(/\s+$/, ""));
+  }
+  const left = format(low);
+  const right = format(high);
+  const gap = Math.max(1, bins + 2 - left.length - right.length);
+  lines.push(`${left}${" ".repeat(gap)}${right}`);
+  return lines;
+}

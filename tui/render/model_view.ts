@@ -1,0 +1,259 @@
+/**
+ * A fitted model as text: the summary `fit` prints and the model card
+ * `inspect` prints (with the reference tree as an indented outline).
+ *
+ * @module
+ */
+
+import Table from "cli-table3";
+import wrapAnsi from "wrap-ansi";
+import type { Accuracy, Model } from "../../mod.ts";
+import { barChart } from "./charts.ts";
+import {
+  describeUnit,
+  formatNumber,
+  formatPay,
+  formatPercent,
+  type NumberStyle,
+} from "./numbers.ts";
+import type { Style } from "./style.ts";
+
+/** What the views need besides the model. */
+export interface ModelViewOptions {
+  /** Styling. */
+  style: Style;
+  /** Terminal width. */
+  width: number;
+  /** Locale (and a currency overriding the model's). */
+  numbers: NumberStyle;
+}
+
+/** The currency the model's money is shown in. */
+export function moneyStyle(model: Model, numbers: NumberStyle): NumberStyle {
+  return { locale: numbers.locale, currency: numbers.currency ?? model.target.money?.currency };
+}
+
+/** The target's unit and scale in words. */
+export function describeTarget(model: Model, numbers: NumberStyle): string {
+  if (model.target.kind === "classification") {
+    return `${model.target.name} (a class: ${model.target.classes!.join(", ")})`;
+  }
+  const unit = describeUnit(model.target.money ?? {}, numbers.currency);
+  const scale = model.target.scale === "log"
+    ? "fitted on the log scale: estimates are typical (median) pay"
+    : "fitted on the raw scale: estimates are mean pay";
+  return `${model.target.name} (${unit}), ${scale}`;
+}
+
+/**
+ * The summary after fitting: rows, features, accuracy side by side,
+ * importance as bars, and what the figures mean.
+ */
+export function renderModelSummary(model: Model, options: ModelViewOptions): string[] {
+  const { style } = options;
+  const wrap = (text: string) => wrapAnsi(text, options.width, { hard: true }).split("\n");
+  const lines: string[] = [];
+  lines.push(...wrap(`${style.bold("Target:")} ${describeTarget(model, options.numbers)}`));
+  const where = Object.entries(model.settings.where);
+  lines.push(
+    ...wrap(
+      `${style.bold("Rows:")} ${formatNumber(model.rows.used, options.numbers)} used, ` +
+        `${formatNumber(model.rows.dropped, options.numbers)} left out (missing target` +
+        `${where.length > 0 ? " or not matching --where" : ""})`,
+    ),
+  );
+  lines.push(
+    ...wrap(
+      `${style.bold("Features")} (${model.features.length}): ${
+        model.features.map((f) => f.name).join(", ")
+      }`,
+    ),
+  );
+  if (model.dropped.length > 0) {
+    lines.push(
+      ...wrap(
+        `${style.bold("Left out:")} ${
+          model.dropped.map((d) => `${d.name} (${d.reason})`).join(", ")
+        }`,
+      ),
+    );
+  }
+  lines.push("", ...renderAccuracy(model, options));
+  lines.push("", ...renderImportance(model, options));
+  lines.push("", ...wrap(style.dim(pruningLine(model))));
+  return lines;
+}
+
+function pruningLine(model: Model): string {
+  const ref = model.reference;
+  const rule = model.settings.rule === "one-se" ? "1-SE rule" : "minimum CV error";
+  const full = ref.pruningPath[0]?.leaves ?? ref.leaves;
+  const ensemble = model.ensemble === null
+    ? "No ensemble (--trees 0): estimates carry no intervals."
+    : model.settings.prune === "none"
+    ? `The ensemble's ${model.ensemble.trees.length} trees are not pruned (--prune none).`
+    : `The ensemble's ${model.ensemble.trees.length} trees are pruned at the minimum-CV alpha ` +
+      `(${model.ensemble.alpha.toPrecision(3)}).`;
+  return `Reference tree: ${ref.leaves} leaves, depth ${ref.depth}, pruned from ${full} leaves ` +
+    `at alpha ${
+      ref.alpha.toPrecision(3)
+    } (${model.settings.folds}-fold cross-validation, ${rule}). ` +
+    ensemble;
+}
+
+/** The accuracy table with one line on what it means. */
+export function renderAccuracy(model: Model, options: ModelViewOptions): string[] {
+  const { style } = options;
+  const q = model.quality;
+  const rows: [string, Accuracy | null][] = [
+    ["constant (one figure for all)", q.constant],
+    ["linear (least squares)", q.linear],
+    [`reference tree (${model.reference.leaves} leaves)`, q.reference],
+    [
+      model.ensemble ? `ensemble (${model.ensemble.trees.length} trees)` : "ensemble (none)",
+      q.ensemble,
+    ],
+  ];
+  const money = moneyStyle(model, options.numbers);
+  if (model.target.kind === "classification") {
+    const table = new Table({
+      head: ["model", "accuracy", "measured by"].map(style.bold),
+      colAligns: ["left", "right", "left"],
+      style: { head: [], border: [], compact: true },
+    });
+    for (const [name, a] of rows) {
+      if (a === null) continue;
+      table.push([name, formatPercent(a.accuracy ?? NaN), a.measuredBy]);
+    }
+    return [style.bold("Accuracy (share classified correctly)"), ...table.toString().split("\n")];
+  }
+  const log = model.target.scale === "log";
+  const head = ["model", "RMSE", "MAE", "R²", ...(log ? ["RMSE (log)"] : []), "measured by"];
+  const table = new Table({
+    head: head.map(style.bold),
+    colAligns: ["left", "right", "right", "right", ...(log ? ["right" as const] : []), "left"],
+    style: { head: [], border: [], compact: true },
+  });
+  for (const [name, a] of rows) {
+    if (a === null || a.money === undefined) continue;
+    table.push([
+      name,
+      formatPay(a.money.rmse, money),
+      formatPay(a.money.mae, money),
+      formatNumber(a.money.r2, options.numbers, 3),
+      ...(log ? [formatNumber(a.log?.rmse ?? NaN, options.numbers, 4)] : []),
+      a.measuredBy,
+    ]);
+  }
+  const lines = [
+    style.bold(
+      `Accuracy (RMSE and MAE in ${money.currency ?? "the target's units"}, on pay itself)`,
+    ),
+    ...table.toString().split("\n"),
+  ];
+  const best = q.ensemble ?? q.reference;
+  const line = q.linear?.money;
+  if (best.money && line) {
+    const gain = 1 - best.money.rmse / line.rmse;
+    const who = q.ensemble ? "The ensemble" : "The reference tree";
+    const verdict = gain > 0.01
+      ? `${who}'s typical error is ${formatPercent(gain)} below the straight line's: ` +
+        `the data has steps or interactions a line misses.`
+      : gain < -0.01
+      ? `${who}'s typical error is ${formatPercent(-gain)} above the straight line's: ` +
+        `pay here follows a straight line; prefer the linear figures.`
+      : `${who} and the straight line err about equally: pay here is close to a straight line.`;
+    lines.push(
+      ...wrapAnsi(
+        style.dim(
+          `RMSE: the typical size of an error in ${money.currency ?? "units"} (MAE: the average ` +
+            `size). ${verdict}`,
+        ),
+        options.width,
+      ).split("\n"),
+    );
+  }
+  return lines;
+}
+
+// Two significant digits: importance figures span orders of magnitude.
+function significant(x: number): string {
+  return x === 0 ? "0" : String(Number(x.toPrecision(2)));
+}
+
+/** Importance as horizontal bars. */
+export function renderImportance(model: Model, options: ModelViewOptions): string[] {
+  const { style } = options;
+  const permutation = model.importance.some((i) => !Number.isNaN(i.permutation));
+  const items = [...model.importance]
+    .map((i) => ({
+      label: i.feature,
+      value: permutation ? i.permutation : i.impurity,
+      text: permutation
+        ? `${significant(i.permutation)} (sd ${significant(i.permutationSd)})`
+        : formatPercent(i.impurity),
+    }))
+    .sort((a, b) => b.value - a.value);
+  const title = permutation
+    ? "Importance (rise in out-of-bag squared error when the attribute is shuffled)"
+    : "Importance (share of the trees' impurity decrease; favours many-valued attributes)";
+  return [
+    style.bold(title),
+    ...barChart(items, Math.max(10, Math.min(40, options.width - 40))),
+  ];
+}
+
+/**
+ * The reference tree as an indented outline: each node's condition, rows
+ * and typical pay (hidden below the privacy minimum).
+ */
+export function renderTreeOutline(model: Model, options: ModelViewOptions): string[] {
+  const tree = model.reference.tree;
+  const money = moneyStyle(model, options.numbers);
+  const lines: string[] = [];
+  const privacy = model.settings.privacyMin;
+  const valueText = (node: number) => {
+    if (tree.rows[node] < privacy) return `fewer than ${privacy} people`;
+    if (model.target.kind === "classification") {
+      const width = tree.width;
+      let best = 0;
+      for (let c = 1; c < width; c++) {
+        if (tree.value[node * width + c] > tree.value[node * width + best]) best = c;
+      }
+      return `${model.target.classes![best]} ${formatPercent(tree.value[node * width + best])}`;
+    }
+    const v = tree.value[node];
+    return formatPay(model.target.scale === "log" ? Math.exp(v) : v, money);
+  };
+  const conditionText = (node: number, left: boolean) => {
+    const f = model.features[tree.feature[node]];
+    const t = tree.threshold[node];
+    if (f.kind === "categorical") {
+      const words = tree.maskWords[tree.feature[node]];
+      const offset = tree.maskOffset[node] + (left ? 0 : words);
+      const set = f.levels!.filter((_, code) =>
+        ((tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1) === 1
+      );
+      return `${f.name} in {${set.join(", ")}}`;
+    }
+    if (t === Infinity) return left ? `${f.name} is known` : `${f.name} is missing`;
+    if (f.kind === "ordinal") {
+      const last = Math.floor(t);
+      return left ? `${f.name} <= ${f.levels![last]}` : `${f.name} >= ${f.levels![last + 1]}`;
+    }
+    return `${f.name} ${left ? "<=" : ">"} ${Number(t.toPrecision(6))}`;
+  };
+  const visit = (node: number, depth: number, label: string) => {
+    const indent = "  ".repeat(depth);
+    const leaf = tree.left[node] === -1;
+    lines.push(
+      `${indent}${label}${leaf ? " -> " : ": "}${valueText(node)} ` +
+        options.style.dim(`(${formatNumber(tree.rows[node], options.numbers)} rows)`),
+    );
+    if (leaf) return;
+    visit(tree.left[node], depth + 1, conditionText(node, true));
+    visit(tree.right[node], depth + 1, conditionText(node, false));
+  };
+  visit(0, 0, "all");
+  return lines;
+}
