@@ -15,6 +15,11 @@ import { Command, CommanderError } from "commander";
 import { DataError, OptionError, VERSION } from "../mod.ts";
 import { schemaCommand } from "./commands/schema.ts";
 import { fitCommand } from "./commands/fit.ts";
+import { estimateCommand } from "./commands/estimate.ts";
+import { compareCommand } from "./commands/compare.ts";
+import { sweepCommand } from "./commands/sweep.ts";
+import { batchCommand } from "./commands/batch.ts";
+import { inspectCommand } from "./commands/inspect.ts";
 import { processTerminal, type Terminal } from "./terminal.ts";
 
 /** Exit statuses of the `paygrove` command. */
@@ -33,7 +38,17 @@ export function buildProgram(terminal: Terminal): Command {
     )
     .version(VERSION, "-V, --version", "print paygrove's version");
   configure(program, terminal);
-  for (const make of [schemaCommand, fitCommand]) {
+  for (
+    const make of [
+      schemaCommand,
+      fitCommand,
+      estimateCommand,
+      compareCommand,
+      sweepCommand,
+      batchCommand,
+      inspectCommand,
+    ]
+  ) {
     const command = make(terminal) as unknown as Command;
     configure(command, terminal);
     program.addCommand(command);

@@ -104,7 +104,16 @@ export function readerFromParts(parts: {
   trainingRows: number;
 }): ProfileReader {
   const rows = parts.trainingRows;
-  const ensemble = parts.ensemble as Ensemble;
+  // Readings need only the trees and their seeds; a saved model keeps no
+  // out-of-bag predictions.
+  const ensemble: Ensemble = {
+    trees: parts.ensemble.trees,
+    seeds: parts.ensemble.seeds,
+    width: 1,
+    alphas: new Float64Array(parts.ensemble.trees.length),
+    oob: new Float64Array(0),
+    oobTrees: new Int32Array(0),
+  };
   const jackknife = ensemble.trees.length >= DEFAULT_HOW_SURE.jackknifeFromTreesPerRow * rows;
   return {
     ensemble,

@@ -423,7 +423,11 @@ export function sweepValues(
   const from = options.from ?? f.range!.p01;
   const to = options.to ?? f.range!.p99;
   if (!(to > from)) throw new OptionError(`--to must be above --from (got ${from} to ${to})`);
-  return Array.from({ length: steps }, (_, i) => from + ((to - from) * i) / (steps - 1));
+  // Rounded to 10 significant digits, so that 1.1 + 7.0755 reads 8.1755.
+  return Array.from(
+    { length: steps },
+    (_, i) => Number((from + ((to - from) * i) / (steps - 1)).toPrecision(10)),
+  );
 }
 
 /**

@@ -238,7 +238,7 @@ export function modelToText(model: Model): string {
   const body = {
     kind: MARKER,
     format: MODEL_FORMAT,
-    provenance: model.provenance,
+    provenance: { ...model.provenance, modelFile: undefined },
     target: model.target,
     features: model.features,
     dropped: model.dropped,
@@ -454,7 +454,12 @@ export async function readModelFile(path: string): Promise<Model> {
       file: path,
     });
   }
-  return modelFromText(text, path);
+  const model = modelFromText(text, path);
+  model.provenance.modelFile = {
+    path,
+    sha256: createHash("sha256").update(text).digest("hex"),
+  };
+  return model;
 }
 
 /**

@@ -25,6 +25,8 @@ export interface ModelRows {
   ids: string[];
   /** The target in money per row, when the table has it (NaN where missing). */
   target: Float64Array | null;
+  /** The file's header and cell texts as read (`cells[c][r]`), to echo input back. */
+  raw: { header: string[]; cells: string[][] };
 }
 
 /**
@@ -32,6 +34,7 @@ export interface ModelRows {
  *
  * @param file The file's name, for messages.
  * @param requireTarget Whether the target column must be there.
+ * @param amounts Further columns to read as numbers (e.g. offers), when present.
  * @throws {DataError} listing the schema differences.
  */
 export function readForModel(
@@ -39,10 +42,12 @@ export function readForModel(
   input: Uint8Array | string,
   file: string,
   requireTarget = false,
+  amounts: readonly string[] = [],
 ): ModelRows {
   const read = model.read;
   const text = typeof input === "string" ? input : decodeText(input, read.encoding, file);
-  const header = readCsv(text, { file, delimiter: read.delimiter }).header;
+  const raw = readCsv(text, { file, delimiter: read.delimiter });
+  const header = raw.header;
   const present = new Set(header);
   const needed = model.features.map((f) => f.name);
   const missingColumns = needed.filter((n) => !present.has(n));
@@ -63,7 +68,12 @@ export function readForModel(
     file,
     decimal: read.decimal,
     encoding: read.encoding,
-    types: only(read.types),
+    types: {
+      ...only(read.types),
+      ...Object.fromEntries(
+        amounts.filter((n) => present.has(n)).map((n) => [n, "numeric" as const]),
+      ),
+    },
     orders: only(read.orders),
   };
   if (read.delimiter !== undefined) options.delimiter = read.delimiter;
@@ -127,7 +137,14 @@ export function readForModel(
     : new Array<string>(table.rows).fill("");
   const targetColumn = table.columns.find((c) => c.name === model.target.name);
   const target = targetColumn?.type === "numeric" ? Float64Array.from(targetColumn.values) : null;
-  return { table, rows: table.rows, features, ids, target };
+  return {
+    table,
+    rows: table.rows,
+    features,
+    ids,
+    target,
+    raw: { header: raw.header, cells: raw.cells },
+  };
 }
 
 /** The profile of row `r`. */

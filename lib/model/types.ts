@@ -174,6 +174,8 @@ export interface Provenance {
   table: { file: string; sha256: string; rows: number };
   /** The model's seed. */
   seed: number;
+  /** The model file read (path and SHA-256 of its bytes); set when read, never saved. */
+  modelFile?: { path: string; sha256: string };
 }
 
 /** A fitted model. */

@@ -207,7 +207,9 @@ function numeric(
 ): Column {
   const distinct = new Set<number>();
   for (const v of parsed.values) if (!Number.isNaN(v)) distinct.add(v);
-  if (distinct.size <= 1) {
+  // A column declared numeric stays numeric even with one value (a file of
+  // one profile, or offers that are all the same).
+  if (distinct.size <= 1 && options.type !== "numeric") {
     return constant(base, distinct.size ? String([...distinct][0]) : undefined);
   }
   const column: NumericColumn = { ...base, type: "numeric", values: parsed.values };

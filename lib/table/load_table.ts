@@ -214,7 +214,10 @@ function applyFteToPay(columns: Column[], fteName: string, lines: number[], file
 
 function checkTarget(column: Column, kind: TargetKind | undefined, file: string): void {
   const where = { file, column: column.name };
-  if (column.type === "constant") {
+  const distinct = column.type === "numeric"
+    ? new Set(Array.from(column.values).filter((v) => !Number.isNaN(v))).size
+    : 2;
+  if (column.type === "constant" || distinct < 2) {
     throw new DataError(
       `${file}: the target "${column.name}" has fewer than 2 distinct values; there is nothing ` +
         `to predict`,

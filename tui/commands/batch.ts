@@ -1,0 +1,169 @@
+/**
+ * `paygrove batch MODEL PROFILES.csv`: scores every row of a CSV, with the
+ * offer's position in the range when an offer column is named.
+ *
+ * @module
+ */
+
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
+import {
+  batchAnswer,
+  type BatchRow,
+  type Model,
+  openModel,
+  OptionError,
+  readModelFile,
+  writeFileAtomic,
+} from "../../mod.ts";
+import type { Terminal } from "../terminal.ts";
+import { readTableForModel } from "../profile_flags.ts";
+import { jsonNumbers } from "./fit.ts";
+
+/** The columns batch adds, in order. */
+export const BATCH_COLUMNS = [
+  "estimate",
+  "estimate_source",
+  "reference_tree",
+  "ci_low",
+  "ci_high",
+  "range_low",
+  "range_high",
+] as const;
+
+/** The columns added with `--offer`. */
+export const OFFER_COLUMNS = ["offer_to_estimate", "range_position", "offer_position"] as const;
+
+function provenanceText(model: Model): string {
+  const p = model.provenance;
+  return `paygrove ${p.paygrove}; model format ${p.format}; model sha256 ` +
+    `${p.modelFile?.sha256 ?? "unknown"}; table sha256 ${p.table.sha256}; seed ${p.seed}`;
+}
+
+// RFC 4180 quoting: fields with a delimiter, quote or line break are quoted.
+function csvField(text: string): string {
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+function money(x: number | null | undefined): string {
+  return x === null || x === undefined || !Number.isFinite(x) ? "" : x.toFixed(2);
+}
+
+function share(x: number | null | undefined): string {
+  return x === null || x === undefined || !Number.isFinite(x) ? "" : String(Number(x.toFixed(6)));
+}
+
+/**
+ * Builds the `batch` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function batchCommand(terminal: Terminal): CommandUnknownOpts {
+  return new Command("batch")
+    .description(
+      "Score every row of a CSV with the model's columns: estimate, intervals and, with --offer, " +
+        "where each offer sits in the range",
+    )
+    .argument("<model>", "model file written by paygrove fit")
+    .argument("<profiles>", "CSV with the model's attribute columns")
+    .option("--offer <column>", "column of offers (pay amounts) to place in the range")
+    .option(
+      "--coverage <share>",
+      "coverage of the intervals, from 0.5 to 0.99",
+      (t: string) => Number(t),
+      0.9,
+    )
+    .option("--out <file>", "write the scored CSV here instead of standard output")
+    .option("--force", "replace an existing --out file")
+    .option("--json", "print one JSON document on stdout instead of CSV")
+    .action(async (modelFile, profilesFile, flags) => {
+      const model = await readModelFile(modelFile);
+      const session = openModel(model);
+      const rows = await readTableForModel(
+        model,
+        profilesFile,
+        flags.offer === undefined ? [] : [flags.offer],
+      );
+      let offers: Float64Array | null = null;
+      if (flags.offer !== undefined) {
+        const column = rows.table.columns.find((c) => c.name === flags.offer);
+        if (column === undefined) {
+          throw new OptionError(
+            `--offer: ${profilesFile} has no column "${flags.offer}"; its columns are: ` +
+              rows.raw.header.join(", "),
+          );
+        }
+        if (column.type !== "numeric") {
+          throw new OptionError(
+            `--offer: "${flags.offer}" must hold amounts; it reads as ${column.type}`,
+          );
+        }
+        offers = column.values;
+      }
+      const scored = batchAnswer(session, rows, flags.coverage, offers);
+      const counts = {
+        scored: scored.length,
+        outOfBag: scored.filter((r) => r.estimateSource === "out-of-bag").length,
+      };
+      if (flags.json) {
+        terminal.out(
+          JSON.stringify(
+            {
+              rows: scored.map((r, i) => ({ input: inputRow(rows.raw, i), ...r })),
+              ...counts,
+              provenance: model.provenance,
+            },
+            jsonNumbers,
+            2,
+          ),
+        );
+        return;
+      }
+      const csv = toCsv(rows.raw, scored, offers !== null, provenanceText(model));
+      if (flags.out !== undefined) {
+        await writeFileAtomic(flags.out, csv, { force: flags.force ?? false, option: "--out" });
+        terminal.err(
+          `paygrove batch: ${counts.scored} rows scored (${counts.outOfBag} training rows given ` +
+            `their out-of-bag estimate) -> ${flags.out}`,
+        );
+      } else {
+        terminal.out(csv.replace(/\n$/, ""));
+      }
+    });
+}
+
+function inputRow(raw: { header: string[]; cells: string[][] }, r: number): Record<string, string> {
+  return Object.fromEntries(raw.header.map((h, c) => [h, raw.cells[c][r]]));
+}
+
+function toCsv(
+  raw: { header: string[]; cells: string[][] },
+  scored: BatchRow[],
+  withOffer: boolean,
+  provenance: string,
+): string {
+  const header = [
+    ...raw.header,
+    ...BATCH_COLUMNS,
+    ...(withOffer ? OFFER_COLUMNS : []),
+    "provenance",
+  ];
+  const lines = [header.map(csvField).join(",")];
+  scored.forEach((row, r) => {
+    const cells = [
+      ...raw.header.map((_, c) => raw.cells[c][r]),
+      money(row.estimate),
+      row.estimateSource,
+      money(row.referenceTree),
+      money(row.ciLow),
+      money(row.ciHigh),
+      money(row.rangeLow),
+      money(row.rangeHigh),
+      ...(withOffer
+        ? [share(row.offerToEstimate), share(row.rangePosition), row.offerPosition ?? ""]
+        : []),
+      provenance,
+    ];
+    lines.push(cells.map(csvField).join(","));
+  });
+  return lines.join("\n") + "\n";
+}

@@ -1,0 +1,66 @@
+/**
+ * `paygrove compare MODEL --change COLUMN=VALUE`: a profile before and
+ * after a change, with the paired difference.
+ *
+ * @module
+ */
+
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
+import { applyChanges, compareAnswer, openModel, OptionError, readModelFile } from "../../mod.ts";
+import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
+import { renderCompare } from "../render/answer_view.ts";
+import { cautionLines, provenanceLine } from "../render/cautions.ts";
+import { moneyStyle } from "../render/model_view.ts";
+import type { Terminal } from "../terminal.ts";
+import { jsonNumbers } from "./fit.ts";
+
+/**
+ * Builds the `compare` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function compareCommand(terminal: Terminal): CommandUnknownOpts {
+  return withProfileFlags(
+    new Command("compare")
+      .description(
+        "Compare a profile before and after a change (level=+1 is a promotion): the change in " +
+          "pay with its interval, and where the decision path changes",
+      )
+      .argument("<model>", "model file written by paygrove fit"),
+  )
+    .option(
+      "--change <column=value>",
+      "the change to make; +N or -N moves an ordinal N steps (repeatable)",
+      (text: string, previous: string[] = []) => [...previous, text],
+    )
+    .action(async (file, flags) => {
+      if (flags.change === undefined || flags.change.length === 0) {
+        throw new OptionError("compare needs at least one --change COLUMN=VALUE");
+      }
+      const model = await readModelFile(file);
+      const session = openModel(model);
+      const { profile, warnings } = await profileFromFlags(model, flags, terminal);
+      const changed = applyChanges(model, profile, flags.change);
+      const answer = compareAnswer(session, profile, changed.profile, flags.coverage, [
+        ...warnings,
+        ...changed.warnings,
+      ]);
+      if (flags.json) {
+        terminal.out(JSON.stringify(answer, jsonNumbers, 2));
+        return;
+      }
+      const style = terminal.style;
+      terminal.out(
+        [
+          ...renderCompare(answer, {
+            style,
+            width: terminal.width,
+            money: moneyStyle(model, { locale: flags.locale, currency: flags.currency }),
+          }),
+          "",
+          ...cautionLines(style, terminal.width),
+          style.dim(provenanceLine(model.provenance)),
+        ].join("\n"),
+      );
+    });
+}

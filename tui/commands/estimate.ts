@@ -1,0 +1,53 @@
+/**
+ * `paygrove estimate MODEL`: what the model says about one profile.
+ *
+ * @module
+ */
+
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
+import { estimateProfile, openModel, readModelFile } from "../../mod.ts";
+import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
+import { renderEstimate } from "../render/answer_view.ts";
+import { cautionLines, provenanceLine } from "../render/cautions.ts";
+import { moneyStyle } from "../render/model_view.ts";
+import type { Terminal } from "../terminal.ts";
+import { jsonNumbers } from "./fit.ts";
+
+/**
+ * Builds the `estimate` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
+  return withProfileFlags(
+    new Command("estimate")
+      .description(
+        "Estimate pay for one profile: how sure the estimate is, the range for comparable " +
+          "people, the decision path and how many people support it",
+      )
+      .argument("<model>", "model file written by paygrove fit"),
+  ).action(async (file, flags) => {
+    const model = await readModelFile(file);
+    const session = openModel(model);
+    const { profile, warnings, start } = await profileFromFlags(model, flags, terminal);
+    const answer = estimateProfile(session, profile, flags.coverage, warnings);
+    if (flags.json) {
+      terminal.out(JSON.stringify({ start, ...answer }, jsonNumbers, 2));
+      return;
+    }
+    const style = terminal.style;
+    terminal.out(
+      [
+        ...renderEstimate(answer, {
+          style,
+          width: terminal.width,
+          money: moneyStyle(model, { locale: flags.locale, currency: flags.currency }),
+        }),
+        style.dim(`Started from ${start}.`),
+        "",
+        ...cautionLines(style, terminal.width),
+        style.dim(provenanceLine(model.provenance)),
+      ].join("\n"),
+    );
+  });
+}

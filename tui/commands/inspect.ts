@@ -1,0 +1,154 @@
+/**
+ * `paygrove inspect MODEL`: the model card.
+ *
+ * @module
+ */
+
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
+import wrapAnsi from "wrap-ansi";
+import { type Model, readModelFile } from "../../mod.ts";
+import {
+  describeTarget,
+  renderAccuracy,
+  renderImportance,
+  renderTreeOutline,
+} from "../render/model_view.ts";
+import { provenanceLine } from "../render/cautions.ts";
+import { formatNumber } from "../render/numbers.ts";
+import type { Terminal } from "../terminal.ts";
+import { jsonNumbers } from "./fit.ts";
+
+/** A tree node for JSON: condition, rows, value, children. */
+interface OutlineNode {
+  rows: number;
+  value: number | null;
+  split?: { feature: string; threshold?: number; left?: string[]; right?: string[] };
+  children?: OutlineNode[];
+}
+
+function outline(model: Model): OutlineNode {
+  const tree = model.reference.tree;
+  const privacy = model.settings.privacyMin;
+  const visit = (node: number): OutlineNode => {
+    const raw = tree.value[node * tree.width];
+    const value = tree.rows[node] < privacy
+      ? null
+      : model.target.kind === "regression" && model.target.scale === "log"
+      ? Math.exp(raw)
+      : raw;
+    const out: OutlineNode = { rows: tree.rows[node], value };
+    if (tree.left[node] === -1) return out;
+    const f = model.features[tree.feature[node]];
+    if (f.kind === "categorical") {
+      const words = tree.maskWords[tree.feature[node]];
+      const set = (offset: number) =>
+        f.levels!.filter((_, code) =>
+          ((tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1) === 1
+        );
+      out.split = {
+        feature: f.name,
+        left: set(tree.maskOffset[node]),
+        right: set(tree.maskOffset[node] + words),
+      };
+    } else {
+      out.split = { feature: f.name, threshold: tree.threshold[node] };
+    }
+    out.children = [visit(tree.left[node]), visit(tree.right[node])];
+    return out;
+  };
+  return visit(0);
+}
+
+/**
+ * Builds the `inspect` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
+  return new Command("inspect")
+    .description("Show a model's card: where it came from, its settings, accuracy and importance")
+    .argument("<model>", "model file written by paygrove fit")
+    .option("--tree", "also draw the reference tree as an outline")
+    .option("--importance", "also show importance as bars")
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--json", "print one JSON document on stdout instead of text")
+    .action(async (file, flags) => {
+      const model = await readModelFile(file);
+      if (flags.json) {
+        terminal.out(JSON.stringify(
+          {
+            provenance: model.provenance,
+            target: model.target,
+            features: model.features,
+            dropped: model.dropped,
+            settings: model.settings,
+            rows: model.rows,
+            referenceTree: {
+              leaves: model.reference.leaves,
+              depth: model.reference.depth,
+              alpha: model.reference.alpha,
+              ...(flags.tree ? { outline: outline(model) } : {}),
+            },
+            pruningPath: model.reference.pruningPath,
+            ensemble: model.ensemble === null
+              ? null
+              : { trees: model.ensemble.trees.length, alpha: model.ensemble.alpha },
+            quality: model.quality,
+            importance: model.importance,
+            contents: CONTENTS,
+          },
+          jsonNumbers,
+          2,
+        ));
+        return;
+      }
+      const style = terminal.style;
+      const view = { style, width: terminal.width, numbers: { locale: flags.locale } };
+      const p = model.provenance;
+      const card = [
+        `  fitted ${p.created} by paygrove ${p.paygrove} (model format ${p.format})`,
+        `  on ${p.table.file}: ${formatNumber(p.table.rows, {})} rows read, ` +
+        `${formatNumber(model.rows.used, {})} used; table sha256 ${p.table.sha256}`,
+        `  target: ${describeTarget(model, {})}`,
+        `  features: ${model.features.map((f) => `${f.name} (${f.kind})`).join(", ")}`,
+        `  left out: ${
+          model.dropped.map((d) => `${d.name} (${d.reason})`).join(", ") || "nothing"
+        }`,
+        `  settings: ${model.settings.trees} trees, min leaf ${model.settings.minLeaf}, ` +
+        `${model.settings.folds} folds, ${model.settings.rule} rule, ` +
+        `${model.settings.prune === "none" ? "unpruned" : "pruned at the minimum-CV alpha"}, ` +
+        `seed ${model.settings.seed}, privacy minimum ${model.settings.privacyMin}` +
+        (model.settings.allowProtected ? style.caution(", protected attributes allowed") : ""),
+        `  reference tree: ${model.reference.leaves} leaves, depth ${model.reference.depth}`,
+      ];
+      const lines = [
+        style.bold(`Model ${file}`),
+        ...card.flatMap((line) =>
+          wrapAnsi(line.trimStart(), terminal.width - 4, { hard: true }).split("\n").map((l, i) =>
+            i === 0 ? `  ${l}` : `    ${l}`
+          )
+        ),
+        "",
+        ...renderAccuracy(model, view),
+      ];
+      if (flags.importance) lines.push("", ...renderImportance(model, view));
+      if (flags.tree) {
+        lines.push(
+          "",
+          style.bold("Reference tree (typical pay and people in each node)"),
+          ...renderTreeOutline(model, view),
+        );
+      }
+      lines.push(
+        "",
+        ...wrapAnsi(style.dim(CONTENTS), terminal.width).split("\n"),
+        style.dim(provenanceLine(p)),
+      );
+      terminal.out(lines.join("\n"));
+    });
+}
+
+/** What a model file holds, in one sentence. */
+export const CONTENTS = "The model file holds the schema, settings, trees (node means over at " +
+  "least the privacy minimum of people), out-of-bag residual quantiles by estimate group, " +
+  "accuracy, importance, level-pair head counts and 8-byte hashes of training rows; no one's pay.";

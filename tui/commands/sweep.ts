@@ -1,0 +1,103 @@
+/**
+ * `paygrove sweep MODEL --vary COLUMN`: estimates and intervals over one
+ * attribute, as a line chart and a table.
+ *
+ * @module
+ */
+
+import {
+  Command,
+  type CommandUnknownOpts,
+  InvalidArgumentError,
+} from "@commander-js/extra-typings";
+import {
+  findFeature,
+  openModel,
+  OptionError,
+  readModelFile,
+  sweepAnswer,
+  sweepValues,
+} from "../../mod.ts";
+import { profileFromFlags, readTableForModel, withProfileFlags } from "../profile_flags.ts";
+import { renderSweep } from "../render/answer_view.ts";
+import { cautionLines, provenanceLine } from "../render/cautions.ts";
+import { moneyStyle } from "../render/model_view.ts";
+import type { Terminal } from "../terminal.ts";
+import { jsonNumbers, wholeNumber } from "./fit.ts";
+
+function finiteNumber(text: string): number {
+  const value = Number(text);
+  if (!Number.isFinite(value)) throw new InvalidArgumentError(`expected a number, got "${text}"`);
+  return value;
+}
+
+/**
+ * Builds the `sweep` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
+  return withProfileFlags(
+    new Command("sweep")
+      .description(
+        "Walk one attribute over a range (or every level) with the rest of the profile fixed, " +
+          "and chart the estimate with both intervals",
+      )
+      .argument("<model>", "model file written by paygrove fit"),
+  )
+    .requiredOption("--vary <column>", "the attribute to vary")
+    .option("--from <a>", "first value of a numeric attribute (default: 1% quantile)", finiteNumber)
+    .option("--to <b>", "last value of a numeric attribute (default: 99% quantile)", finiteNumber)
+    .option("--steps <n>", "points of a numeric attribute", wholeNumber(2), 20)
+    .option("--average", "also average the estimate over the rows of --table (partial dependence)")
+    .action(async (file, flags) => {
+      const model = await readModelFile(file);
+      const session = openModel(model);
+      const feature = findFeature(model, flags.vary, "--vary");
+      if (
+        model.features[feature].kind !== "numeric" &&
+        (flags.from !== undefined || flags.to !== undefined)
+      ) {
+        throw new OptionError(
+          `--from and --to apply to numeric attributes; "${flags.vary}" has levels`,
+        );
+      }
+      if (flags.average && flags.table === undefined) {
+        throw new OptionError(
+          "--average needs --table: the model file keeps no rows to average over",
+        );
+      }
+      const { profile, warnings, rows } = await profileFromFlags(model, flags, terminal);
+      const grid = sweepValues(model, feature, {
+        from: flags.from,
+        to: flags.to,
+        steps: flags.steps,
+      });
+      const answer = sweepAnswer(
+        session,
+        profile,
+        feature,
+        grid,
+        flags.coverage,
+        flags.average ? rows ?? await readTableForModel(model, flags.table!) : null,
+        warnings,
+      );
+      if (flags.json) {
+        terminal.out(JSON.stringify(answer, jsonNumbers, 2));
+        return;
+      }
+      const style = terminal.style;
+      terminal.out(
+        [
+          ...renderSweep(answer, {
+            style,
+            width: terminal.width,
+            money: moneyStyle(model, { locale: flags.locale, currency: flags.currency }),
+          }),
+          "",
+          ...cautionLines(style, terminal.width),
+          style.dim(provenanceLine(model.provenance)),
+        ].join("\n"),
+      );
+    });
+}

@@ -1,0 +1,112 @@
+/**
+ * The options that build a profile from a saved model, shared by
+ * `estimate`, `compare` and `sweep`: `--table TABLE --row ID` to start
+ * from a person in a table, `--set COLUMN=VALUE` edits, `--coverage`.
+ *
+ * @module
+ */
+
+import { type Command, InvalidArgumentError } from "@commander-js/extra-typings";
+import {
+  applySets,
+  findRow,
+  type Model,
+  type ModelRows,
+  OptionError,
+  type Profile,
+  type ProfileWarning,
+  readForModel,
+  rowProfile,
+  typicalProfile,
+} from "../mod.ts";
+import { PROTECTED_CAUTION } from "./commands/fit.ts";
+import type { Terminal } from "./terminal.ts";
+
+/** Parsed profile options. */
+export type ProfileFlags = {
+  table?: string;
+  row?: string;
+  set?: string[];
+  coverage: number;
+  json?: true;
+  locale?: string;
+  currency?: string;
+};
+
+function collect(text: string, previous: string[] = []): string[] {
+  return [...previous, text];
+}
+
+function coverage(text: string): number {
+  const value = Number(text);
+  if (!(value >= 0.5 && value <= 0.99)) {
+    throw new InvalidArgumentError(`expected a share from 0.5 to 0.99, such as 0.9, got "${text}"`);
+  }
+  return value;
+}
+
+/** Adds the profile options to a command. */
+export function withProfileFlags<A extends unknown[], O extends Record<string, unknown>>(
+  command: Command<A, O>,
+): Command<A, O & ProfileFlags> {
+  // An explicit return type keeps type checking of the option chain fast.
+  return command
+    .option("--table <table>", "a table with the model's columns, to start from one of its rows")
+    .option("--row <id>", "the identifier of the row of --table to start from")
+    .option("--set <column=value>", "set an attribute of the profile (repeatable)", collect)
+    .option("--coverage <share>", "coverage of the intervals", coverage, 0.9)
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--currency <code>", "show money in this currency code instead of the model's")
+    .option("--json", "print one JSON document on stdout instead of text") as unknown as Command<
+      A,
+      O & ProfileFlags
+    >;
+}
+
+/** Reads a table for a model from a path. */
+export async function readTableForModel(
+  model: Model,
+  path: string,
+  amounts: readonly string[] = [],
+): Promise<ModelRows> {
+  let bytes: Uint8Array;
+  try {
+    bytes = await Deno.readFile(path);
+  } catch (error) {
+    throw new OptionError(
+      `--table: cannot read ${path} (${(error as Error).message.split("\n")[0]})`,
+    );
+  }
+  return readForModel(model, bytes, path, false, amounts);
+}
+
+/**
+ * The profile the options describe: a row of `--table` or the typical
+ * person, with `--set` applied.
+ */
+export async function profileFromFlags(
+  model: Model,
+  flags: ProfileFlags,
+  terminal: Terminal,
+): Promise<
+  { profile: Profile; warnings: ProfileWarning[]; rows: ModelRows | null; start: string }
+> {
+  if (model.settings.allowProtected) {
+    terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
+  }
+  let base = typicalProfile(model);
+  let rows: ModelRows | null = null;
+  let start = "the typical person (median of each number, most common level)";
+  if (flags.row !== undefined && flags.table === undefined) {
+    throw new OptionError("--row needs --table: the model file keeps no one's row");
+  }
+  if (flags.table !== undefined) {
+    rows = await readTableForModel(model, flags.table);
+    if (flags.row !== undefined) {
+      base = rowProfile(rows, findRow(model, rows, flags.row, flags.table));
+      start = `row ${flags.row} of ${flags.table}`;
+    }
+  }
+  const { profile, warnings } = applySets(model, base, flags.set ?? []);
+  return { profile, warnings, rows, start };
+}

@@ -1,0 +1,325 @@
+/**
+ * Answers as text for a terminal: one profile's estimate, a what-if
+ * comparison and a sweep (an asciichart line chart with the interval bands).
+ *
+ * @module
+ */
+
+import asciichart from "asciichart";
+import Table from "cli-table3";
+import wrapAnsi from "wrap-ansi";
+import type { CompareAnswer, EstimateAnswer, SweepAnswer } from "../../mod.ts";
+import { histogram, intervalChart } from "./charts.ts";
+import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
+import type { Style } from "./style.ts";
+
+/** What the views need. */
+export interface AnswerViewOptions {
+  /** Styling. */
+  style: Style;
+  /** Terminal width. */
+  width: number;
+  /** Locale and currency of money. */
+  money: NumberStyle;
+}
+
+const PERIOD: Record<string, string> = {
+  hour: "an hour",
+  week: "a week",
+  month: "a month",
+  year: "a year",
+};
+
+function unitText(answer: EstimateAnswer, money: NumberStyle): string {
+  const currency = money.currency ?? answer.target.currency;
+  const period = answer.target.period ? ` ${PERIOD[answer.target.period]}` : "";
+  return `${currency ?? "units"}${period}`;
+}
+
+function profileText(profile: Record<string, string | number | null>): string {
+  return Object.entries(profile)
+    .map(([k, v]) =>
+      `${k} ${
+        v === null ? "(missing)" : typeof v === "number" ? String(Number(v.toPrecision(6))) : v
+      }`
+    )
+    .join(", ");
+}
+
+/** The estimate screen. */
+export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOptions): string[] {
+  const { style, money } = options;
+  const pay = (x: number) => formatPay(x, money);
+  const wrap = (text: string, indent = "") =>
+    wrapAnsi(text, options.width - indent.length, { hard: true }).split("\n").map((l) =>
+      indent + l
+    );
+  const lines: string[] = [];
+  if (answer.classes) {
+    lines.push(
+      `${style.bold(`Most likely ${answer.target.name}:`)} ${answer.classes.predicted} ` +
+        `(${formatPercent(answer.estimate)} of the trees' votes)`,
+    );
+    const shares = Object.entries(answer.classes.shares).sort((a, b) => b[1] - a[1]);
+    lines.push(...wrap(shares.map(([c, s]) => `${c} ${formatPercent(s)}`).join(", "), "  "));
+  } else {
+    const what = answer.target.scale === "log" ? "typical (median) pay" : "mean pay";
+    lines.push(
+      `${style.bold(`Estimate of ${answer.target.name}`)} (${unitText(answer, money)}, ${what}): ` +
+        style.bold(pay(answer.estimate)),
+    );
+  }
+  lines.push(...wrap(style.dim(`for: ${profileText(answer.profile)}`), "  "));
+  if (answer.confidence && answer.range) {
+    const c = answer.confidence;
+    const r = answer.range;
+    const pct = formatPercent(c.coverage).replace(".0", "");
+    lines.push(
+      "",
+      `${style.bold(`How sure (${pct}):`)} ${pay(c.low)} to ${pay(c.high)}` +
+        style.dim("  where the typical pay of such a profile lies"),
+      `${style.bold(`Range for comparable people (${pct}):`)} ${pay(r.low)} to ${pay(r.high)}` +
+        style.dim("  where one such person's pay falls"),
+    );
+    const axis = Math.max(20, Math.min(50, options.width - 40));
+    lines.push(
+      ...intervalChart(
+        [
+          { label: "how sure", low: c.low, high: c.high, text: `${pay(c.low)} - ${pay(c.high)}` },
+          { label: "range", low: r.low, high: r.high, text: `${pay(r.low)} - ${pay(r.high)}` },
+        ],
+        answer.estimate,
+        axis,
+      ).map((l) => `  ${l}`),
+    );
+    if (answer.jackknife) {
+      lines.push(
+        ...wrap(
+          style.dim(
+            `Jackknife (leaves bias out): ${pay(answer.jackknife.low)} to ${
+              pay(answer.jackknife.high)
+            }`,
+          ),
+          "  ",
+        ),
+      );
+    }
+  }
+  lines.push("", style.bold(`Decision path of the reference tree`));
+  if (answer.path.length === 0) lines.push("  (the tree has one leaf: everyone)");
+  const table = new Table({
+    chars: NO_BORDERS,
+    style: { head: [], border: [], "padding-left": 0, "padding-right": 2 },
+    colAligns: ["right", "left", "right", "right"],
+  });
+  answer.path.forEach((step, i) => {
+    table.push([
+      `${i + 1}.`,
+      step.condition,
+      `${formatNumber(step.rows, money)} people`,
+      step.value === null
+        ? "too few to show"
+        : answer.classes
+        ? formatPercent(step.value)
+        : pay(step.value),
+    ]);
+  });
+  if (answer.path.length > 0) lines.push(...table.toString().split("\n").map((l) => `  ${l}`));
+  if (!answer.classes) {
+    lines.push(
+      `  ${style.dim("reference tree's own estimate:")} ${pay(answer.referenceTree)}` +
+        style.dim(` (its leaf holds ${formatNumber(answer.leaf.rows, money)} people)`),
+    );
+  }
+  const s = answer.support;
+  const peers = s.peers
+    ? `; ${formatNumber(s.peers.rows, money)} share ${s.peers.features[0]} ${s.peers.levels[0]} ` +
+      `and ${s.peers.features[1]} ${s.peers.levels[1]}`
+    : "";
+  lines.push(
+    "",
+    ...wrap(
+      `${style.bold("Support:")} ${
+        formatNumber(s.rows, money)
+      } people in the reference leaf${peers}.`,
+    ),
+  );
+  if (answer.trees.length > 1) {
+    lines.push("", style.bold(`The ${answer.trees.length} trees' estimates`));
+    lines.push(
+      ...histogram(answer.trees, Math.min(40, options.width - 10), 4, pay).map((l) => `  ${l}`),
+    );
+  }
+  for (const w of answer.warnings) lines.push(...wrap(style.warn(`! ${w}`)));
+  return lines;
+}
+
+const NO_BORDERS = {
+  top: "",
+  "top-mid": "",
+  "top-left": "",
+  "top-right": "",
+  bottom: "",
+  "bottom-mid": "",
+  "bottom-left": "",
+  "bottom-right": "",
+  left: "",
+  "left-mid": "",
+  mid: "",
+  "mid-mid": "",
+  right: "",
+  "right-mid": "",
+  middle: " ",
+};
+
+/** The what-if screen: base vs changed, the paired change, the path step that changed. */
+export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions): string[] {
+  const { style, money } = options;
+  const pay = (x: number) => formatPay(x, money);
+  const wrap = (text: string) => wrapAnsi(text, options.width, { hard: true }).split("\n");
+  const d = answer.difference;
+  const pct = formatPercent(d.coverage).replace(".0", "");
+  const lines: string[] = [];
+  lines.push(
+    ...wrap(
+      style.bold("What-if: ") +
+        answer.changes.map((c) => `${c.feature} ${c.from ?? "(missing)"} -> ${c.to ?? "(missing)"}`)
+          .join(", "),
+    ),
+  );
+  const table = new Table({
+    head: ["", "estimate", `how sure (${pct})`, `range (${pct})`].map(style.bold),
+    colAligns: ["left", "right", "right", "right"],
+    style: { head: [], border: [], compact: true },
+  });
+  for (const [name, a] of [["base", answer.base], ["changed", answer.changed]] as const) {
+    table.push([
+      name,
+      pay(a.estimate),
+      a.confidence ? `${pay(a.confidence.low)} - ${pay(a.confidence.high)}` : "-",
+      a.range ? `${pay(a.range.low)} - ${pay(a.range.high)}` : "-",
+    ]);
+  }
+  lines.push(...table.toString().split("\n"));
+  const sign = d.estimate >= 0 ? "+" : "-";
+  const interval = d.low !== null && d.high !== null
+    ? ` (${pct}: ${signed(d.low, pay)} to ${signed(d.high, pay)}; ` +
+      `${formatPercent(d.relative.low!, true)} to ${formatPercent(d.relative.high!, true)})`
+    : " (no interval: the model has no ensemble)";
+  lines.push(
+    "",
+    ...wrap(
+      `${style.bold("Change:")} ${sign}${pay(Math.abs(d.estimate))} ` +
+        `(${formatPercent(d.relative.estimate, true)})${interval}`,
+    ),
+    ...wrap(
+      style.dim(
+        "The interval comes from each tree's paired estimates of both profiles, so errors the " +
+          "two share cancel; it is narrower than the two intervals above suggest.",
+      ),
+    ),
+  );
+  const p = answer.pathChange;
+  lines.push(
+    "",
+    ...wrap(
+      p === null
+        ? "Decision path: the same leaf for both; the reference tree sees no difference."
+        : `Decision path: step ${p.step} changes from "${p.base ?? "(the leaf)"}" to ` +
+          `"${p.changed ?? "(the leaf)"}".`,
+    ),
+  );
+  const warnings = [...new Set([...answer.base.warnings, ...answer.changed.warnings])];
+  for (const w of warnings) lines.push(...wrap(style.warn(`! ${w}`)));
+  return lines;
+}
+
+function signed(x: number, pay: (x: number) => string): string {
+  return `${x >= 0 ? "+" : "-"}${pay(Math.abs(x))}`;
+}
+
+/** The sweep screen: a line chart of the estimate and both intervals, then a table. */
+export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): string[] {
+  const { style, money } = options;
+  const pay = (x: number) => formatPay(x, money);
+  const points = answer.points;
+  const lines: string[] = [];
+  const pct = formatPercent(answer.coverage).replace(".0", "");
+  lines.push(
+    style.bold(`Estimate as ${answer.feature} varies`) +
+      style.dim(` (the rest held at the profile)`),
+  );
+  const hasIntervals = points.every((p) => p.range !== null);
+  const series = [points.map((p) => p.estimate)];
+  if (hasIntervals) {
+    series.push(points.map((p) => p.range!.low), points.map((p) => p.range!.high));
+    series.push(points.map((p) => p.confidence!.low), points.map((p) => p.confidence!.high));
+  }
+  if (points.some((p) => p.average !== undefined)) series.push(points.map((p) => p.average ?? NaN));
+  // asciichart draws one column per point: stretch short grids to the width.
+  const width = Math.max(20, Math.min(60, options.width - 16));
+  const stretch = (values: number[]) =>
+    Array.from(
+      { length: Math.max(values.length, width) },
+      (_, i) =>
+        values[
+          Math.min(
+            values.length - 1,
+            Math.floor((i * values.length) / Math.max(values.length, width)),
+          )
+        ],
+    );
+  const chart = asciichart.plot(series.map(stretch), {
+    height: 10,
+    format: (x: number) => pay(x).padStart(10),
+    colors: style.enabled
+      ? [
+        asciichart.default,
+        asciichart.blue,
+        asciichart.blue,
+        asciichart.green,
+        asciichart.green,
+        asciichart.magenta,
+      ]
+      : undefined,
+  });
+  lines.push(...chart.split("\n"));
+  const label = (v: string | number) => typeof v === "number" ? formatNumber(v, money, 2) : v;
+  const first = label(points[0].value);
+  const last = label(points[points.length - 1].value);
+  lines.push(
+    `${" ".repeat(12)}${first}${
+      " ".repeat(Math.max(1, width - first.length - last.length))
+    }${last}`,
+  );
+  lines.push(
+    style.dim(
+      hasIntervals
+        ? `middle line: estimate; outer lines: range for comparable people (${pct}); inner: how sure`
+        : "estimate only (the model has no ensemble)",
+    ),
+  );
+  const table = new Table({
+    head: [
+      answer.feature,
+      "estimate",
+      `how sure (${pct})`,
+      `range (${pct})`,
+      ...(points[0].average !== undefined ? ["averaged over table"] : []),
+    ].map(style.bold),
+    colAligns: ["left", "right", "right", "right", "right"],
+    style: { head: [], border: [], compact: true },
+  });
+  for (const p of points) {
+    table.push([
+      typeof p.value === "number" ? formatNumber(p.value, money, 2) : p.value,
+      pay(p.estimate),
+      p.confidence ? `${pay(p.confidence.low)} - ${pay(p.confidence.high)}` : "-",
+      p.range ? `${pay(p.range.low)} - ${pay(p.range.high)}` : "-",
+      ...(p.average !== undefined ? [pay(p.average)] : []),
+    ]);
+  }
+  lines.push("", ...table.toString().split("\n"));
+  for (const w of answer.warnings) lines.push(style.warn(`! ${w}`));
+  return lines;
+}
