@@ -104,11 +104,13 @@ const treeShape = z.object({
 const finite = z.number().refine(Number.isFinite, "must be a finite number");
 const maybeNumber = z.union([z.number(), z.null()]).transform((v) => (v === null ? NaN : v));
 const metrics = z.object({ rmse: maybeNumber, mae: maybeNumber, r2: maybeNumber });
+// Keys in the order fitModel writes them, so a reloaded model saves to the
+// same text.
 const accuracy = z.object({
   measuredBy: z.enum(["cross-validation", "out-of-bag", "in-sample"]),
   money: metrics.optional(),
-  log: metrics.optional(),
   rmseSe: maybeNumber.optional(),
+  log: metrics.optional(),
   accuracy: maybeNumber.optional(),
   classes: z.object({
     precision: z.array(maybeNumber),

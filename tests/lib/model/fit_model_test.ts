@@ -1,0 +1,136 @@
+// fitModel's figures, each recomputed here by another route: the constant
+// and linear baselines from the folds, the ensemble's out-of-bag accuracy
+// from a separately fitted ensemble, the reference tree's log CV RMSE from
+// crossValidateTree; and the privacy rules.
+import assert from "node:assert/strict";
+import {
+  crossValidatedLinearPredictions,
+  crossValidateTree,
+  fitEnsembleParallel,
+  fitModel,
+  loadTable,
+  makeDataset,
+  OptionError,
+} from "../../../mod.ts";
+import { demoModel } from "./_demo_model.ts";
+
+const { table, model } = await demoModel();
+const { dataset } = makeDataset(table, { target: "base_pay_eur" });
+if (dataset.target.kind !== "regression") throw new Error("regression expected");
+const pay = dataset.target.values;
+const logData = { ...dataset, target: { ...dataset.target, values: pay.map(Math.log) } };
+
+function rmse(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += (a[i] - b[i]) ** 2;
+  return Math.sqrt(s / a.length);
+}
+
+Deno.test("a money target is fitted on logs, protected and identifier columns left out", () => {
+  assert.equal(model.target.scale, "log");
+  assert.deepEqual(model.target.money, { currency: "EUR", period: "year" });
+  assert.deepEqual(model.dropped.map((d) => d.name).sort(), ["employee_id", "gender"]);
+  assert.equal(model.rows.used, 2000);
+  assert.equal(model.read.identifier, "employee_id");
+});
+
+Deno.test("the baselines and the reference tree's figures match their own computations", () => {
+  const cv = crossValidateTree(logData, { folds: 5, seed: 3, grow: { minLeaf: 5 } });
+  const chosen = cv.candidates[cv.chosen];
+  assert.ok(Math.abs(model.quality.reference.log!.rmse - chosen.cvRmse) < 1e-12);
+  assert.equal(model.reference.leaves, chosen.leaves);
+  // Constant: each fold predicted by the mean log pay of the other folds.
+  const y = logData.target.values;
+  const constant = Float64Array.from(y, (_, r) => {
+    let s = 0;
+    let n = 0;
+    for (let i = 0; i < y.length; i++) {
+      if (cv.fold[i] !== cv.fold[r]) {
+        s += y[i];
+        n++;
+      }
+    }
+    return s / n;
+  });
+  assert.ok(Math.abs(model.quality.constant.log!.rmse - rmse(y, constant)) < 1e-12);
+  assert.ok(
+    Math.abs(model.quality.constant.money!.rmse - rmse(pay, constant.map(Math.exp))) < 1e-6,
+  );
+  const linear = crossValidatedLinearPredictions(logData, cv.fold);
+  assert.ok(Math.abs(model.quality.linear!.money!.rmse - rmse(pay, linear.map(Math.exp))) < 1e-6);
+  // Money CV RMSE of the reference tree: the square root of the mean
+  // squared money error, which cannot be below the money RMSE of the best
+  // constant; and the trees beat the line on this table.
+  assert.ok(model.quality.reference.money!.rmse < model.quality.constant.money!.rmse);
+  assert.ok(model.quality.ensemble!.money!.rmse < model.quality.linear!.money!.rmse);
+});
+
+Deno.test("the ensemble's out-of-bag accuracy is that of the same ensemble fitted directly", async () => {
+  const cv = crossValidateTree(logData, { folds: 5, seed: 3, grow: { minLeaf: 5 } });
+  const ensemble = await fitEnsembleParallel(logData, {
+    trees: 60,
+    seed: 3,
+    prune: "alpha",
+    alpha: cv.candidates[cv.best].alpha,
+    grow: { minLeaf: 5 },
+    workers: 1,
+  });
+  assert.equal(model.ensemble!.alpha, cv.candidates[cv.best].alpha);
+  for (let b = 0; b < 60; b++) {
+    assert.deepEqual(model.ensemble!.trees[b].value, ensemble.trees[b].value);
+  }
+  const rows: number[] = [];
+  for (let r = 0; r < pay.length; r++) if (ensemble.oobTrees[r] > 0) rows.push(r);
+  const expected = rmse(rows.map((r) => pay[r]), rows.map((r) => Math.exp(ensemble.oob[r])));
+  assert.ok(Math.abs(model.quality.ensemble!.money!.rmse - expected) < 1e-6);
+});
+
+Deno.test("no node of any tree holds fewer people than the privacy minimum", () => {
+  for (const tree of [model.reference.tree, ...model.ensemble!.trees]) {
+    for (let n = 0; n < tree.nodeCount; n++) assert.ok(tree.rows[n] >= model.settings.privacyMin);
+  }
+});
+
+Deno.test("privacy and size options are checked before fitting", async () => {
+  const small = loadTable("level,pay\nL1,50\nL2,60\nL1,52\nL2,61\nL1,49\nL2,63\n", {
+    target: "pay",
+  });
+  await assert.rejects(
+    () => fitModel(small, { target: "pay", minLeaf: 2 }),
+    (e) =>
+      e instanceof OptionError && /--min-leaf 2 is below the privacy minimum 5/.test(e.message),
+  );
+  await assert.rejects(
+    () => fitModel(small, { target: "pay", privacyMin: 2, minLeaf: 2 }),
+    (e) =>
+      e instanceof OptionError &&
+      /--privacy-min must be a whole number of at least 3/.test(e.message),
+  );
+  await assert.rejects(
+    () => fitModel(small, { target: "pay", privacyMin: 3, minLeaf: 3 }),
+    (e) => e instanceof OptionError && e.message === "--folds 10 is more than the 6 rows",
+  );
+  await assert.rejects(
+    () => fitModel(small, { target: "pay", privacyMin: 3, minLeaf: 4, folds: 2 }),
+    (e) =>
+      e instanceof OptionError &&
+      e.message === 'only 6 rows have "pay"; at least 8 are needed for one split with --min-leaf 4',
+  );
+});
+
+Deno.test("--where keeps only the matching rows", async () => {
+  const sub = await fitModel(table, {
+    target: "base_pay_eur",
+    trees: 5,
+    folds: 3,
+    workers: 1,
+    where: { job_family: ["Engineering", "Sales"] },
+  });
+  const family = table.columns.find((c) => c.name === "job_family")!;
+  if (family.type !== "categorical") throw new Error("categorical expected");
+  const expected =
+    Array.from(family.codes).filter((c) => ["Engineering", "Sales"].includes(family.levels[c]))
+      .length;
+  assert.equal(sub.rows.used, expected);
+  assert.equal(sub.rows.dropped, 2000 - expected);
+});
