@@ -13,7 +13,7 @@
 
 import type { Dataset } from "../dataset/types.ts";
 import { makeRng, shuffle } from "../random.ts";
-import { applyValues } from "../tree/flat_tree.ts";
+import { goesLeft } from "../tree/flat_tree.ts";
 import { bootstrapCounts } from "./bootstrap.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 
@@ -79,28 +79,40 @@ export function featureImportance(
   const y = dataset.target.values;
   const features = dataset.features.length;
   const increases = Array.from({ length: features }, () => new Float64Array(repeats));
-  const profile = new Float64Array(features);
+  const columns = dataset.features.map((f) => f.values);
   for (let b = 0; b < ensemble.trees.length; b++) {
     const tree = ensemble.trees[b];
     const counts = bootstrapCounts(dataset.rows, ensemble.seeds[b]);
     const oob: number[] = [];
     for (let r = 0; r < dataset.rows; r++) if (counts[r] === 0) oob.push(r);
     if (oob.length === 0) continue;
+    const used = new Uint8Array(features);
+    for (let n = 0; n < tree.nodeCount; n++) if (tree.feature[n] >= 0) used[tree.feature[n]] = 1;
+    // Walks row r with feature f read from the donor row instead (no copy).
     const errorWith = (f: number, donor: number[] | undefined) => {
       let sse = 0;
       for (let i = 0; i < oob.length; i++) {
         const r = oob[i];
-        for (let g = 0; g < features; g++) profile[g] = dataset.features[g].values[r];
-        if (donor !== undefined) profile[f] = dataset.features[f].values[donor[i]];
-        const d = y[r] - tree.value[applyValues(tree, profile)];
-        sse += d * d;
+        const d = donor === undefined ? -1 : donor[i];
+        let node = 0;
+        while (tree.left[node] !== -1) {
+          const g = tree.feature[node];
+          const x = g === f && d >= 0 ? columns[g][d] : columns[g][r];
+          node = goesLeft(tree, node, x) ? tree.left[node] : tree.right[node];
+        }
+        const e = y[r] - tree.value[node];
+        sse += e * e;
       }
       return sse / oob.length;
     };
-    const base = errorWith(0, undefined);
+    const base = errorWith(-1, undefined);
     for (let f = 0; f < features; f++) {
       for (let k = 0; k < repeats; k++) {
+        // Shuffled even when unused, so every feature's draws stay the same
+        // whichever features a tree happens to use.
         const donor = shuffle(oob.slice(), rng);
+        // A feature the tree never splits on changes no prediction: 0 exactly.
+        if (used[f] === 0) continue;
         increases[f][k] += (errorWith(f, donor) - base) / ensemble.trees.length;
       }
     }

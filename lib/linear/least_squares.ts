@@ -6,7 +6,7 @@
  * @module
  */
 
-import { Matrix, QrDecomposition } from "ml-matrix";
+import { CholeskyDecomposition, Matrix, QrDecomposition } from "ml-matrix";
 import type { Dataset } from "../dataset/types.ts";
 
 /** A design matrix: named columns of equal length. */
@@ -180,23 +180,72 @@ export function crossValidatedLinearPredictions(dataset: Dataset, fold: Int32Arr
   const folds = Math.max(...fold) + 1;
   const out = new Float64Array(dataset.rows);
   for (let k = 0; k < folds; k++) {
-    const train: number[] = [];
-    for (let r = 0; r < dataset.rows; r++) if (fold[r] !== k) train.push(r);
-    const fit = fitLeastSquares(
-      {
-        names: design.names,
-        columns: design.columns.map((c) => Float64Array.from(train, (r) => c[r])),
-      },
-      Float64Array.from(train, (r) => y[r]),
-    );
+    const beta = centredNormalSolve(design.columns, y, fold, k);
     for (let r = 0; r < dataset.rows; r++) {
       if (fold[r] !== k) continue;
-      let predicted = fit.coefficients[0];
+      let predicted = beta[0];
       for (let j = 0; j < design.columns.length; j++) {
-        predicted += fit.coefficients[j + 1] * design.columns[j][r];
+        predicted += beta[j + 1] * design.columns[j][r];
       }
       out[r] = predicted;
     }
   }
   return out;
+}
+
+// Least squares on the rows outside fold `k` by the normal equations of the
+// centred columns (centring keeps X'X well conditioned; the intercept is
+// recovered from the means). Cholesky on the small p x p system; ten such
+// fits take milliseconds where ten QR fits of the full design take seconds.
+function centredNormalSolve(
+  columns: Float64Array[],
+  y: ArrayLike<number>,
+  fold: Int32Array,
+  k: number,
+): Float64Array {
+  const p = columns.length;
+  const means = new Float64Array(p);
+  let yMean = 0;
+  let n = 0;
+  for (let r = 0; r < y.length; r++) {
+    if (fold[r] === k) continue;
+    n++;
+    yMean += y[r];
+    for (let j = 0; j < p; j++) means[j] += columns[j][r];
+  }
+  yMean /= n;
+  for (let j = 0; j < p; j++) means[j] /= n;
+  const xtx = new Matrix(p, p);
+  const xty = new Matrix(p, 1);
+  const row = new Float64Array(p);
+  const a = xtx.to2DArray();
+  const b = new Float64Array(p);
+  for (let r = 0; r < y.length; r++) {
+    if (fold[r] === k) continue;
+    for (let j = 0; j < p; j++) row[j] = columns[j][r] - means[j];
+    const yc = y[r] - yMean;
+    for (let i = 0; i < p; i++) {
+      b[i] += row[i] * yc;
+      for (let j = 0; j <= i; j++) a[i][j] += row[i] * row[j];
+    }
+  }
+  for (let i = 0; i < p; i++) {
+    xty.set(i, 0, b[i]);
+    for (let j = 0; j <= i; j++) {
+      xtx.set(i, j, a[i][j]);
+      xtx.set(j, i, a[i][j]);
+    }
+  }
+  const cholesky = new CholeskyDecomposition(xtx);
+  if (!cholesky.isPositiveDefinite()) {
+    throw new RangeError("the design is rank deficient (a column is a combination of others)");
+  }
+  const slope = cholesky.solve(xty);
+  const beta = new Float64Array(p + 1);
+  beta[0] = yMean;
+  for (let j = 0; j < p; j++) {
+    beta[j + 1] = slope.get(j, 0);
+    beta[0] -= beta[j + 1] * means[j];
+  }
+  return beta;
 }

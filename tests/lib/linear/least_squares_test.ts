@@ -3,7 +3,14 @@
 // experience^2 + education + ethnicity. Fixture written by
 // tests/reference/lm_cps1988.R (R 4.2.2, AER 1.2-10).
 import assert from "node:assert/strict";
-import { designOf, fitLeastSquares, loadTableFile } from "../../../mod.ts";
+import {
+  assignFolds,
+  crossValidatedLinearPredictions,
+  designOf,
+  fitLeastSquares,
+  loadTableFile,
+} from "../../../mod.ts";
+import { cps1988LogWage } from "../_cps1988.ts";
 
 const reference = JSON.parse(
   await Deno.readTextFile(new URL("../../../fixtures/reference/lm_cps1988.json", import.meta.url)),
@@ -65,4 +72,30 @@ Deno.test("the design dummy-codes levels against the most frequent one and marks
   assert.deepEqual([...design.columns[2]], [0, 0, 0, 0, 1]);
   assert.deepEqual([...design.columns[3]], [1, 4, 3, 5, 7]);
   assert.deepEqual([...design.columns[4]], [0, 1, 0, 0, 0]);
+});
+
+Deno.test("cross-validated predictions by the normal equations equal QR fits per fold", async () => {
+  const dataset = await cps1988LogWage();
+  const fold = assignFolds(dataset, 4, 11);
+  const fast = crossValidatedLinearPredictions(dataset, fold);
+  const design = designOf(dataset);
+  const y = dataset.target.values;
+  for (let k = 0; k < 4; k++) {
+    const train: number[] = [];
+    for (let r = 0; r < dataset.rows; r++) if (fold[r] !== k) train.push(r);
+    // The QR route, itself checked against R's lm() above.
+    const fit = fitLeastSquares(
+      {
+        names: design.names,
+        columns: design.columns.map((c) => Float64Array.from(train, (r) => c[r])),
+      },
+      Float64Array.from(train, (r) => y[r]),
+    );
+    for (let r = 0; r < dataset.rows; r++) {
+      if (fold[r] !== k) continue;
+      let expected = fit.coefficients[0];
+      design.columns.forEach((c, j) => (expected += fit.coefficients[j + 1] * c[r]));
+      assert.ok(Math.abs(fast[r] - expected) < 1e-9, `row ${r}: ${fast[r]} vs ${expected}`);
+    }
+  }
 });
