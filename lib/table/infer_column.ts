@@ -92,6 +92,11 @@ export function inferColumn(
 
   const parsed = readNumbers(cells, options);
   const present = cells.length - missing;
+  // Declared numeric and nothing but numbers or missing cells (possibly
+  // every cell missing, as for new hires' ratings in a file of candidates).
+  if (parsed.failures.length === 0 && options.type === "numeric") {
+    return numeric(name, parsed, lines, base, options);
+  }
   if (parsed.failures.length === 0 && present > 0) {
     if (options.type !== "numeric" && looksLikeNumericId(name, parsed.values, present)) {
       return identifier(cells, base, isMissing);

@@ -5,6 +5,7 @@
  * @module
  */
 
+import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import { applyChanges, compareAnswer, openModel, OptionError, readModelFile } from "../../mod.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
@@ -59,7 +60,8 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
           }),
           "",
           ...cautionLines(style, terminal.width),
-          style.dim(provenanceLine(model.provenance)),
+          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+            .split("\n"),
         ].join("\n"),
       );
     });

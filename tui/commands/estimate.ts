@@ -4,6 +4,7 @@
  * @module
  */
 
+import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import { estimateProfile, openModel, readModelFile } from "../../mod.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
@@ -46,7 +47,8 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
         style.dim(`Started from ${start}.`),
         "",
         ...cautionLines(style, terminal.width),
-        style.dim(provenanceLine(model.provenance)),
+        ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+          .split("\n"),
       ].join("\n"),
     );
   });

@@ -5,6 +5,7 @@
  * @module
  */
 
+import wrapAnsi from "wrap-ansi";
 import {
   Command,
   type CommandUnknownOpts,
@@ -216,7 +217,8 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           ...renderModelSummary(model, view),
           "",
           ...cautionLines(style, terminal.width),
-          style.dim(provenanceLine(model.provenance)),
+          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+            .split("\n"),
         ].join("\n"),
       );
     });

@@ -142,7 +142,7 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
       lines.push(
         "",
         ...wrapAnsi(style.dim(CONTENTS), terminal.width).split("\n"),
-        style.dim(provenanceLine(p)),
+        ...wrapAnsi(style.dim(provenanceLine(p)), terminal.width, { hard: true }).split("\n"),
       );
       terminal.out(lines.join("\n"));
     });

@@ -5,6 +5,7 @@
  * @module
  */
 
+import wrapAnsi from "wrap-ansi";
 import {
   Command,
   type CommandUnknownOpts,
@@ -96,7 +97,8 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
           }),
           "",
           ...cautionLines(style, terminal.width),
-          style.dim(provenanceLine(model.provenance)),
+          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+            .split("\n"),
         ].join("\n"),
       );
     });

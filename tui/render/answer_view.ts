@@ -76,10 +76,14 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
     const pct = formatPercent(c.coverage).replace(".0", "");
     lines.push(
       "",
-      `${style.bold(`How sure (${pct}):`)} ${pay(c.low)} to ${pay(c.high)}` +
-        style.dim("  where the typical pay of such a profile lies"),
-      `${style.bold(`Range for comparable people (${pct}):`)} ${pay(r.low)} to ${pay(r.high)}` +
-        style.dim("  where one such person's pay falls"),
+      ...wrap(
+        `${style.bold(`How sure (${pct}):`)} ${pay(c.low)} to ${pay(c.high)}` +
+          style.dim("  where the typical pay of such a profile lies"),
+      ),
+      ...wrap(
+        `${style.bold(`Range for comparable people (${pct}):`)} ${pay(r.low)} to ${pay(r.high)}` +
+          style.dim("  where one such person's pay falls"),
+      ),
     );
     const axis = Math.max(20, Math.min(50, options.width - 40));
     lines.push(

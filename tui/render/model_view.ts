@@ -106,14 +106,17 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
   const { style } = options;
   const q = model.quality;
   const rows: [string, Accuracy | null][] = [
-    ["constant (one figure for all)", q.constant],
-    ["linear (least squares)", q.linear],
-    [`reference tree (${model.reference.leaves} leaves)`, q.reference],
-    [
-      model.ensemble ? `ensemble (${model.ensemble.trees.length} trees)` : "ensemble (none)",
-      q.ensemble,
-    ],
+    ["constant", q.constant],
+    ["straight line", q.linear],
+    [`tree, ${model.reference.leaves} leaves`, q.reference],
+    [model.ensemble ? `ensemble, ${model.ensemble.trees.length} trees` : "ensemble", q.ensemble],
   ];
+  const by = (a: Accuracy) =>
+    a.measuredBy === "cross-validation"
+      ? `${model.settings.folds}-fold CV`
+      : a.measuredBy === "out-of-bag"
+      ? "out-of-bag"
+      : "in-sample";
   const money = moneyStyle(model, options.numbers);
   if (model.target.kind === "classification") {
     const table = new Table({
@@ -123,12 +126,12 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     });
     for (const [name, a] of rows) {
       if (a === null) continue;
-      table.push([name, formatPercent(a.accuracy ?? NaN), a.measuredBy]);
+      table.push([name, formatPercent(a.accuracy ?? NaN), by(a)]);
     }
     return [style.bold("Accuracy (share classified correctly)"), ...table.toString().split("\n")];
   }
   const log = model.target.scale === "log";
-  const head = ["model", "RMSE", "MAE", "R²", ...(log ? ["RMSE (log)"] : []), "measured by"];
+  const head = ["model", "RMSE", "MAE", "R²", ...(log ? ["log RMSE"] : []), "measured by"];
   const table = new Table({
     head: head.map(style.bold),
     colAligns: ["left", "right", "right", "right", ...(log ? ["right" as const] : []), "left"],
@@ -142,7 +145,7 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
       formatPay(a.money.mae, money),
       formatNumber(a.money.r2, options.numbers, 3),
       ...(log ? [formatNumber(a.log?.rmse ?? NaN, options.numbers, 4)] : []),
-      a.measuredBy,
+      by(a),
     ]);
   }
   const lines = [
@@ -176,27 +179,27 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
   return lines;
 }
 
-// Two significant digits: importance figures span orders of magnitude.
-function significant(x: number): string {
-  return x === 0 ? "0" : String(Number(x.toPrecision(2)));
-}
-
 /** Importance as horizontal bars. */
 export function renderImportance(model: Model, options: ModelViewOptions): string[] {
   const { style } = options;
   const permutation = model.importance.some((i) => !Number.isNaN(i.permutation));
+  // Shares of the total make figures of very different sizes readable.
+  const total = model.importance.reduce(
+    (sum, i) => sum + Math.max(0, permutation ? i.permutation : i.impurity),
+    0,
+  );
+  const shareText = (x: number) =>
+    x <= 0 ? "0%" : x / total < 0.001 ? "<0.1%" : formatPercent(x / total);
   const items = [...model.importance]
     .map((i) => ({
       label: i.feature,
       value: permutation ? i.permutation : i.impurity,
-      text: permutation
-        ? `${significant(i.permutation)} (sd ${significant(i.permutationSd)})`
-        : formatPercent(i.impurity),
+      text: permutation ? shareText(i.permutation) : formatPercent(i.impurity),
     }))
     .sort((a, b) => b.value - a.value);
   const title = permutation
-    ? "Importance (rise in out-of-bag squared error when the attribute is shuffled)"
-    : "Importance (share of the trees' impurity decrease; favours many-valued attributes)";
+    ? "Importance: each attribute's share of the rise in out-of-bag error when shuffled"
+    : "Importance: share of the trees' impurity decrease (favours many-valued attributes)";
   return [
     style.bold(title),
     ...barChart(items, Math.max(10, Math.min(40, options.width - 40))),

@@ -444,3 +444,14 @@ Deno.test("a decimal-comma pay column with stray text still gets the decimal hin
   const words = loadTable("site;team\nA;red\nB;blue\nC;1,5\n");
   assert.equal(words.warnings.find((w) => w.kind === "decimal-mark"), undefined);
 });
+
+Deno.test("a column declared numeric stays numeric when every cell is missing or equal", () => {
+  const table = loadTable("id,rating,offer\na,,50000\nb,,50000\n", {
+    types: { rating: "numeric", offer: "numeric" },
+  });
+  const [, rating, offer] = table.columns;
+  assert.ok(rating.type === "numeric" && rating.values.every(Number.isNaN));
+  assert.ok(offer.type === "numeric" && offer.values.every((v) => v === 50000));
+  // Undeclared, the same columns are constant and left out of models.
+  assert.equal(loadTable("id,rating,offer\na,,50000\nb,,50000\n").columns[2].type, "constant");
+});
