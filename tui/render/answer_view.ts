@@ -255,9 +255,10 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
   );
   const hasIntervals = points.every((p) => p.range !== null);
   const series = [points.map((p) => p.estimate)];
+  // The chart carries the estimate and the range; "how sure" is in the
+  // table below (five lines would blur together on a monochrome terminal).
   if (hasIntervals) {
     series.push(points.map((p) => p.range!.low), points.map((p) => p.range!.high));
-    series.push(points.map((p) => p.confidence!.low), points.map((p) => p.confidence!.high));
   }
   if (points.some((p) => p.average !== undefined)) series.push(points.map((p) => p.average ?? NaN));
   // asciichart draws one column per point: stretch short grids to the width.
@@ -299,7 +300,7 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
   lines.push(
     style.dim(
       hasIntervals
-        ? `middle line: estimate; outer lines: range for comparable people (${pct}); inner: how sure`
+        ? `middle line: estimate; outer lines: range for comparable people (${pct})`
         : "estimate only (the model has no ensemble)",
     ),
   );
