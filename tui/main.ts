@@ -21,6 +21,8 @@ import { sweepCommand } from "./commands/sweep.ts";
 import { batchCommand } from "./commands/batch.ts";
 import { inspectCommand } from "./commands/inspect.ts";
 import { processTerminal, type Terminal } from "./terminal.ts";
+import { startFlow } from "./flow/start_flow.ts";
+import { demoDataCommand } from "./commands/demo_data.ts";
 
 /** Exit statuses of the `paygrove` command. */
 export const EXIT = { ok: 0, data: 1, usage: 2, internal: 70 } as const;
@@ -47,6 +49,7 @@ export function buildProgram(terminal: Terminal): Command {
       sweepCommand,
       batchCommand,
       inspectCommand,
+      demoDataCommand,
     ]
   ) {
     const command = make(terminal) as unknown as Command;
@@ -82,10 +85,14 @@ function configure(command: Command, terminal: Terminal): void {
  */
 export async function run(args: string[], terminal: Terminal): Promise<number> {
   const program = buildProgram(terminal);
-  // Until the guided flow exists, the bare command explains itself.
-  if (args.length === 0) {
-    program.outputHelp();
-    return EXIT.ok;
+  // No subcommand: the guided flow (its own few options only).
+  const first = args[0];
+  if (first === undefined || (first.startsWith("--") && !["--help", "--version"].includes(first))) {
+    try {
+      return await startFlow(args, terminal);
+    } catch (error) {
+      return report(error, terminal);
+    }
   }
   try {
     await program.parseAsync(args, { from: "user" });

@@ -31,6 +31,7 @@ export async function paygrove(
     args: [...taskArgs("paygrove"), ...args],
     cwd: root,
     env: { NO_COLOR: "", ...env },
+    stdin: "null",
     stdout: "piped",
     stderr: "piped",
   }).output();

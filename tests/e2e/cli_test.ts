@@ -131,9 +131,16 @@ Deno.test("a misspelled command is named, with a suggestion", async () => {
   assert.equal(result.code, 2);
   assert.match(result.stderr, /unknown command 'shema'/);
   assert.match(result.stderr, /Did you mean schema\?/);
+});
+
+Deno.test("without a terminal the guided flow points to the subcommands and exits 2", async () => {
   const bare = await paygrove([]);
-  assert.equal(bare.code, 0);
-  assert.match(bare.stdout, /Usage: paygrove/);
+  assert.equal(bare.code, 2);
+  assert.match(
+    bare.stderr,
+    /the guided flow needs a terminal to ask its questions, and standard input is not one\. In scripts use the subcommands: paygrove fit, estimate/,
+  );
+  assert.equal(bare.stdout, "");
 });
 
 Deno.test("an unknown encoding is bad usage", async () => {

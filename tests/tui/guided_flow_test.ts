@@ -1,0 +1,128 @@
+// The guided flow through injected streams: each step's screen shows the
+// figures the library gives for the same model and profile.
+import assert from "node:assert/strict";
+import {
+  applyChanges,
+  compareAnswer,
+  estimateProfile,
+  fitModel,
+  loadTable,
+  openModel,
+  typicalProfile,
+} from "../../mod.ts";
+import { DEMO_READ, guidedFlow } from "../../tui/flow/guided_flow.ts";
+import { formatPay, formatPercent } from "../../tui/render/numbers.ts";
+import { flowDriver, KEY } from "./_flow_driver.ts";
+
+const DEMO = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
+const TREES = 30;
+
+// The model the flow fits (same table, options and default seed).
+const table = loadTable(await Deno.readTextFile(DEMO), {
+  ...DEMO_READ,
+  file: "demo company (invented)",
+  target: "base_pay_eur",
+});
+const model = await fitModel(table, {
+  target: "base_pay_eur",
+  features: [
+    "job_family",
+    "level",
+    "years_experience",
+    "years_at_company",
+    "site",
+    "performance_rating",
+    "education",
+    "remote",
+  ],
+  trees: TREES,
+  workers: 1,
+});
+const session = openModel(model);
+const pay = (x: number) => formatPay(x, { currency: "EUR" });
+
+Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit", async () => {
+  const driver = flowDriver();
+  const dir = await Deno.makeTempDir();
+  const done = guidedFlow(driver.io, {
+    demoPath: DEMO,
+    trees: TREES,
+    workers: 1,
+    report: `${dir}/report.md`,
+  });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.down, KEY.enter); // Promote one level
+  await driver.when(/What next\?[\s\S]*What next\?/, KEY.down, KEY.down, KEY.down, KEY.enter);
+  await driver.when("Name of this scenario", "promoted", KEY.enter);
+  // Undo: the sixth choice once a change has been made.
+  await driver.when("What next?", ...Array(5).fill(KEY.down), KEY.enter);
+  // Quit: the last choice (up from the first wraps to the bottom).
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  const screen = driver.screen();
+
+  // The data check shows the protected column unticked, with the reason.
+  assert.match(screen, /gender \(protected attribute: left out of pay estimates\)/);
+  // The summary: accuracy side by side.
+  assert.match(screen, /ensemble, 30 trees/);
+  // The typical person's estimate and intervals, as the library gives them.
+  const base = typicalProfile(model);
+  const first = estimateProfile(session, base, 0.9);
+  assert.ok(screen.includes(`${pay(first.estimate)}`), pay(first.estimate));
+  assert.ok(
+    screen.includes(
+      `How sure (90%): ${pay(first.confidence!.low)} to ${pay(first.confidence!.high)}`,
+    ),
+  );
+  // The promotion: the paired difference and its interval.
+  const promoted = applyChanges(model, base, ["level=+1"]).profile;
+  const what = compareAnswer(session, base, promoted, 0.9);
+  const d = what.difference;
+  const line = `Change: +${pay(d.estimate)} (${formatPercent(d.relative.estimate, true)}) (90%: ` +
+    `+${pay(d.low!)} to +${pay(d.high!)}`;
+  assert.ok(screen.includes(line), line);
+  assert.ok(screen.includes(`What-if: level G2 -> G3`));
+  // Undo shows the typical person's estimate again, after the promotion.
+  const afterPromotion = screen.slice(screen.indexOf(line));
+  assert.ok(
+    afterPromotion.includes(
+      `Estimate of base_pay_eur (EUR a year, typical (median) pay): ${pay(first.estimate)}`,
+    ),
+  );
+  // The report holds the kept scenario with the promoted estimate.
+  const report = await Deno.readTextFile(`${dir}/report.md`);
+  assert.ok(report.includes(`| promoted | ${pay(what.changed.estimate)} |`), report);
+  const json = JSON.parse(await Deno.readTextFile(`${dir}/report.json`));
+  assert.equal(json.scenarios[0].name, "promoted");
+  assert.match(json.caution, /not what anyone should be paid/);
+  await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("an existing person by id, change one attribute, sweep a level attribute", async () => {
+  const driver = flowDriver();
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Start the profile from", KEY.down, KEY.enter);
+  await driver.when("employee_id of the person", "FH99999", KEY.enter);
+  await driver.when('No one has employee_id "FH99999"');
+  // Clear the wrong id, then type a real one.
+  await driver.when("employee_id of the person", ..."\x7f".repeat(7), "FH10003", KEY.enter);
+  await driver.when("What next?", KEY.enter); // Change one attribute
+  await driver.when("Change which attribute?", ...Array(4).fill(KEY.down), KEY.enter); // site
+  await driver.when("site:", KEY.down, KEY.enter);
+  await driver.when("What next?", KEY.down, KEY.down, KEY.enter); // Sweep
+  await driver.when("Sweep which attribute?", KEY.down, KEY.enter); // level
+  await driver.when("Estimate as level varies");
+  await driver.when("What next?", KEY.up, KEY.enter); // Quit
+  await done;
+  const screen = driver.screen();
+  // FH10003 is an Engineering G4 at Cinder Hill (fixtures/demo_company.csv).
+  assert.match(screen, /for: job_family Engineering, level G4, years_experience 16\.3/);
+  assert.match(screen, /What-if: site Cinder Hill -> /);
+  for (const level of ["G1", "G4", "G7"]) assert.match(screen, new RegExp(`\\n│ ${level} +│`));
+});

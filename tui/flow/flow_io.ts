@@ -1,0 +1,97 @@
+/**
+ * What the guided flow talks through: prompts (from @inquirer/prompts) and
+ * screen output bound to one pair of streams, so tests drive the flow with
+ * injected input and read exactly what a person would see.
+ *
+ * @module
+ */
+
+import { checkbox, input, number, select } from "@inquirer/prompts";
+import type { Style } from "../render/style.ts";
+
+/** A choice of a select prompt. */
+export interface Choice<T> {
+  /** What is shown. */
+  name: string;
+  /** What is returned. */
+  value: T;
+  /** A line of help shown while the choice is highlighted. */
+  description?: string;
+}
+
+/** The streams and terminal facts of a flow. */
+export interface FlowIO {
+  /** Writes lines to the screen. */
+  say(text: string): void;
+  /** Styling of the screen. */
+  style: Style;
+  /** Screen width in characters. */
+  width: number;
+  /** Plain ASCII only (no box drawing or arrows). */
+  ascii: boolean;
+  /** Redraws one progress line in place, if the screen can. */
+  progress?: (text: string) => void;
+  /** Asks to pick one of `choices`. */
+  choose<T>(message: string, choices: Choice<T>[], defaultValue?: T): Promise<T>;
+  /** Asks to tick some of `choices`. */
+  tick<T>(message: string, choices: (Choice<T> & { checked: boolean })[]): Promise<T[]>;
+  /** Asks for a line of text, checked by `validate` (a message, or true). */
+  ask(
+    message: string,
+    options?: { default?: string; validate?: (text: string) => string | true },
+  ): Promise<string>;
+  /** Asks for a number. */
+  askNumber(
+    message: string,
+    options: { default?: number; min?: number; max?: number },
+  ): Promise<number>;
+}
+
+/** Node-style streams the prompts read and write. */
+export interface PromptStreams {
+  /** Keys come from here (a TTY, or a PassThrough in tests). */
+  input: NodeJS.ReadableStream;
+  /** The screen. */
+  output: NodeJS.WritableStream;
+}
+
+/**
+ * A flow I/O over node streams.
+ *
+ * @param clearPromptOnDone Whether answered prompts are erased (on a real
+ * terminal they stay, so the screen keeps the record of choices).
+ */
+export function streamFlowIO(
+  streams: PromptStreams,
+  options: { style: Style; width: number; ascii: boolean; progress?: (text: string) => void },
+): FlowIO {
+  const context = { input: streams.input, output: streams.output, clearPromptOnDone: false };
+  const theme = options.ascii
+    ? {
+      prefix: { idle: "?", done: "+" },
+      icon: { cursor: ">" },
+    }
+    : undefined;
+  return {
+    say: (text) => streams.output.write(text.endsWith("\n") ? text : `${text}\n`),
+    style: options.style,
+    width: options.width,
+    ascii: options.ascii,
+    progress: options.progress,
+    choose: (message, choices, defaultValue) =>
+      select({ message, choices, default: defaultValue, pageSize: 12, theme }, context),
+    tick: (message, choices) => checkbox({ message, choices, pageSize: 14, theme }, context),
+    ask: (message, o = {}) =>
+      input({ message, default: o.default, validate: o.validate, theme }, context),
+    askNumber: async (message, o) =>
+      (await number({
+        message,
+        default: o.default,
+        min: o.min,
+        max: o.max,
+        step: "any",
+        required: true,
+        theme,
+      }, context)) as number,
+  };
+}

@@ -1,0 +1,438 @@
+/**
+ * The guided what-if flow: from a pay table (or a saved model) to an
+ * estimate with how sure it is, and what-if changes, one question at a
+ * time. Every figure comes from the same library calls as the scriptable
+ * commands; the flow adds questions and screens, no computation.
+ *
+ * @module
+ */
+
+import { existsSync } from "node:fs";
+import {
+  applyChanges,
+  compareAnswer,
+  DEMO_COMPANY,
+  demoCompanyCsv,
+  describeProfile,
+  describeSchema,
+  type EstimateAnswer,
+  estimateProfile,
+  fitModel,
+  isPayName,
+  loadTable,
+  type LoadTableOptions,
+  type Model,
+  type ModelSession,
+  openModel,
+  type Profile,
+  readForModel,
+  readModelFile,
+  rowProfile,
+  sweepAnswer,
+  sweepValues,
+  type Table,
+  typicalProfile,
+  writeFileAtomic,
+  writeModelFile,
+} from "../../mod.ts";
+import { progressBar } from "../progress.ts";
+import { renderCompare, renderEstimate, renderSweep } from "../render/answer_view.ts";
+import { cautionLines } from "../render/cautions.ts";
+import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
+import { formatPay, type NumberStyle } from "../render/numbers.ts";
+import { renderSchema } from "../render/schema_view.ts";
+import type { FlowIO } from "./flow_io.ts";
+import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
+
+/** Settings of a flow run. */
+export interface FlowOptions {
+  /** The committed demo table, used when present (else generated in memory). */
+  demoPath: string;
+  /** Where to write the session report, if given on the command line. */
+  report?: string;
+  /** Locale of numbers. */
+  locale?: string;
+  /** Trees of the ensemble (tests use fewer). */
+  trees?: number;
+  /** Workers for fitting. */
+  workers?: number;
+}
+
+/** How the demo table is read: its pay is in EUR a year. */
+export const DEMO_READ: LoadTableOptions = {
+  currency: "EUR",
+  periods: { base_pay_eur: "year" },
+};
+
+/** Runs the flow until the person quits. */
+export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void> {
+  const { style } = io;
+  io.say(style.bold("paygrove: what would our pay structure pay a person like this?"));
+  io.say([...cautionLines(style, io.width), ""].join("\n"));
+
+  const start = await io.choose("What do you want to work with?", [
+    {
+      name: `The demo company (${DEMO_COMPANY}, 2,000 people)`,
+      value: "demo" as const,
+      description: "An invented pay table, to try paygrove without your own data",
+    },
+    { name: "A CSV pay table of your own", value: "csv" as const },
+    { name: "A model saved earlier with paygrove", value: "model" as const },
+  ]);
+
+  let model: Model;
+  let table: Table | null = null;
+  let tableText: string | null = null;
+  if (start === "model") {
+    const path = await io.ask("Path of the model file:", { validate: fileExists });
+    model = await readModelFile(path);
+    io.say(style.dim(`Loaded ${path}: ${model.target.name}, ${model.rows.used} people.`));
+  } else {
+    let readOptions: LoadTableOptions;
+    let label: string;
+    if (start === "demo") {
+      tableText = existsSync(options.demoPath)
+        ? await Deno.readTextFile(options.demoPath)
+        : demoCompanyCsv();
+      readOptions = { ...DEMO_READ, file: "demo company (invented)" };
+      label = "demo company (invented)";
+    } else {
+      const path = await io.ask("Path of the CSV file:", { validate: fileExists });
+      tableText = await Deno.readTextFile(path);
+      readOptions = { file: path };
+      label = path;
+    }
+    table = loadTable(tableText, readOptions);
+
+    io.say(
+      renderSchema(describeSchema(table), {
+        file: label,
+        style,
+        width: io.width,
+        numbers: { locale: options.locale, currency: readOptions.currency },
+      }).join("\n"),
+    );
+    const { target, features, allowProtected } = await chooseColumns(io, table);
+    if (allowProtected) {
+      io.say(style.caution(
+        "Caution: you ticked a protected attribute. Setting pay on it risks unlawful " +
+          "discrimination; use such a model only to study gaps, with counsel.",
+      ));
+    }
+    // The target named, the table is read again so that rows missing it are left out.
+    table = loadTable(tableText, { ...readOptions, target });
+    const bar = progressBar({ progress: io.progress });
+    try {
+      model = await fitModel(table, {
+        target,
+        features,
+        allowProtected,
+        trees: options.trees,
+        workers: options.workers,
+        loadOptions: readOptions,
+        onProgress: (stage, done, total) => bar.update(stage, done, total),
+      });
+    } finally {
+      bar.finish();
+    }
+    io.say(
+      [
+        "",
+        style.bold(`Fitted in ${model.seconds.toFixed(1)} s`),
+        ...renderModelSummary(model, {
+          style,
+          width: io.width,
+          numbers: { locale: options.locale },
+        }),
+        style.dim(
+          "The tree beside the ensemble is the reference tree whose decision path you will see; " +
+            "the ensemble averages many such trees for steadier estimates.",
+        ),
+      ].join("\n"),
+    );
+  }
+  const session = openModel(model);
+  const money = moneyStyle(model, { locale: options.locale });
+  await whatIfLoop(io, session, tableText, money, options);
+}
+
+/** Asks for the target and the features. */
+async function chooseColumns(
+  io: FlowIO,
+  table: Table,
+): Promise<{ target: string; features: string[]; allowProtected: boolean }> {
+  const usable = table.columns.filter((c) => c.type !== "identifier" && c.type !== "constant");
+  const numeric = usable.filter((c) => c.type === "numeric");
+  const payLike = numeric.filter((c) => c.type === "numeric" && (c.money || isPayName(c.name)));
+  const suggested = payLike[0]?.name ?? numeric[0]?.name;
+  const targets = [
+    ...payLike,
+    ...numeric.filter((c) => !payLike.includes(c)),
+    ...usable.filter((c) => c.type !== "numeric" && !c.protected),
+  ];
+  const target = await io.choose(
+    "Which column should paygrove estimate?",
+    targets.map((c) => ({
+      name: c.name === suggested ? `${c.name} (looks like pay)` : c.name,
+      value: c.name,
+      description: c.type === "numeric"
+        ? "a number: pay is estimated"
+        : "levels: the likeliest one is estimated",
+    })),
+    suggested,
+  );
+  const candidates = usable.filter((c) => c.name !== target);
+  const features = await io.tick(
+    "Which attributes may explain it? (space to tick, enter to go on)",
+    candidates.map((c) => ({
+      name: c.protected ? `${c.name} (protected attribute: left out of pay estimates)` : c.name,
+      value: c.name,
+      checked: !c.protected,
+    })),
+  );
+  if (features.length === 0) {
+    io.say(io.style.warn("No attribute ticked: every usable non-protected attribute is used."));
+    return {
+      target,
+      features: candidates.filter((c) => !c.protected).map((c) => c.name),
+      allowProtected: false,
+    };
+  }
+  const allowProtected = candidates.some((c) => c.protected && features.includes(c.name));
+  return { target, features, allowProtected };
+}
+
+function fileExists(path: string): string | true {
+  if (path.trim() === "") return "Type a path, e.g. data/pay.csv";
+  try {
+    return Deno.statSync(path.trim()).isFile ? true : `${path} is a folder, not a file`;
+  } catch {
+    return `No file at ${path} (paths are relative to ${Deno.cwd()})`;
+  }
+}
+
+type Next =
+  | "change"
+  | "promote"
+  | "sweep"
+  | "keep"
+  | "list"
+  | "undo"
+  | "restart"
+  | "save"
+  | "quit";
+
+/** The profile, its history, the scenarios kept, until quit. */
+async function whatIfLoop(
+  io: FlowIO,
+  session: ModelSession,
+  tableText: string | null,
+  money: NumberStyle,
+  options: FlowOptions,
+): Promise<void> {
+  const { model } = session;
+  const view = { style: io.style, width: io.width, money };
+  let profile = await buildProfile(io, model, tableText);
+  const history: Profile[] = [];
+  const scenarios: Scenario[] = [];
+  let answer = estimateProfile(session, profile, 0.9);
+  io.say(["", ...renderEstimate(answer, view)].join("\n"));
+  const ladder = promotionFeature(model);
+  for (;;) {
+    const next: Next = await io.choose("What next?", [
+      { name: "Change one attribute", value: "change" },
+      ...(ladder >= 0
+        ? [{ name: `Promote one ${model.features[ladder].name}`, value: "promote" as const }]
+        : []),
+      { name: "Sweep one attribute (chart)", value: "sweep" },
+      { name: "Keep this profile as a scenario", value: "keep" },
+      { name: `Show the scenarios side by side (${scenarios.length})`, value: "list" },
+      ...(history.length > 0 ? [{ name: "Undo the last change", value: "undo" as const }] : []),
+      { name: "Start over with a new profile", value: "restart" },
+      { name: "Save the model and a report", value: "save" },
+      { name: "Quit", value: "quit" },
+    ]);
+    if (next === "quit") break;
+    if (next === "change" || next === "promote") {
+      const edit = next === "promote"
+        ? `${model.features[ladder].name}=+1`
+        : await editOne(io, model, profile);
+      let changed: Profile;
+      try {
+        changed = applyChanges(model, profile, [edit]).profile;
+      } catch (error) {
+        io.say(io.style.warn((error as Error).message.replace(/^--change: /, "")));
+        continue;
+      }
+      const what = compareAnswer(session, profile, changed, 0.9);
+      io.say(["", ...renderCompare(what, view)].join("\n"));
+      history.push(profile);
+      profile = changed;
+      answer = what.changed;
+    } else if (next === "sweep") {
+      const f = await io.choose(
+        "Sweep which attribute?",
+        model.features.map((feature, i) => ({ name: feature.name, value: i })),
+      );
+      const sweep = sweepAnswer(session, profile, f, sweepValues(model, f, { steps: 12 }), 0.9);
+      io.say(["", ...renderSweep(sweep, view)].join("\n"));
+    } else if (next === "keep") {
+      const name = await io.ask("Name of this scenario:", {
+        default: `scenario ${scenarios.length + 1}`,
+      });
+      scenarios.push({ name, answer });
+      io.say(io.style.dim(`Kept "${name}" (${scenarios.length} kept).`));
+    } else if (next === "list") {
+      io.say(renderScenarios(scenarios, money, io).join("\n"));
+    } else if (next === "undo") {
+      profile = history.pop()!;
+      answer = estimateProfile(session, profile, 0.9);
+      io.say(["", ...renderEstimate(answer, view)].join("\n"));
+    } else if (next === "restart") {
+      history.length = 0;
+      profile = await buildProfile(io, model, tableText);
+      answer = estimateProfile(session, profile, 0.9);
+      io.say(["", ...renderEstimate(answer, view)].join("\n"));
+    } else if (next === "save") {
+      await save(
+        io,
+        model,
+        scenarios.length > 0 ? scenarios : [{ name: "current", answer }],
+        options,
+      );
+    }
+  }
+  if (options.report !== undefined) {
+    await writeReport(
+      io,
+      model,
+      scenarios.length > 0 ? scenarios : [{ name: "current", answer }],
+      options.report,
+    );
+  }
+  io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
+}
+
+/** The ordinal feature a promotion moves: the first named like a level, else the first ordinal. */
+export function promotionFeature(model: Model): number {
+  const ordinals = model.features.map((f, i) => ({ f, i })).filter(({ f }) => f.kind === "ordinal");
+  const named = ordinals.find(({ f }) => /level|grade|band|rank/i.test(f.name));
+  return (named ?? ordinals[0])?.i ?? -1;
+}
+
+/** Asks how to start the profile, and builds it. */
+async function buildProfile(io: FlowIO, model: Model, tableText: string | null): Promise<Profile> {
+  const id = model.read.identifier;
+  const how = await io.choose("Start the profile from", [
+    {
+      name: "A typical person (median number, most common level of each attribute)",
+      value: "typical" as const,
+    },
+    ...(id !== undefined && tableText !== null
+      ? [{ name: `An existing person, by ${id}`, value: "row" as const }]
+      : []),
+    { name: "Step through every attribute", value: "step" as const },
+  ]);
+  let profile = typicalProfile(model);
+  if (how === "row") {
+    const rows = readForModel(model, tableText!, "the table");
+    const answer = await io.ask(`${id} of the person:`, {
+      validate: (text) =>
+        rows.ids.includes(text.trim()) ? true : `No one has ${id} "${text.trim()}" in the table`,
+    });
+    profile = rowProfile(rows, rows.ids.indexOf(answer.trim()));
+  } else if (how === "step") {
+    for (let f = 0; f < model.features.length; f++) {
+      profile = applyChanges(model, profile, [
+        `${model.features[f].name}=${await askValue(io, model, profile, f)}`,
+      ])
+        .profile;
+    }
+  }
+  return profile;
+}
+
+/** Asks which attribute to change and its new value; returns `name=value`. */
+async function editOne(io: FlowIO, model: Model, profile: Profile): Promise<string> {
+  const shown = describeProfile(model, profile);
+  const f = await io.choose(
+    "Change which attribute?",
+    model.features.map((feature, i) => ({
+      name: `${feature.name} (now ${shown[feature.name] ?? "missing"})`,
+      value: i,
+    })),
+  );
+  return `${model.features[f].name}=${await askValue(io, model, profile, f)}`;
+}
+
+/** Asks a value with the prompt that fits the attribute; the current value is the default. */
+async function askValue(io: FlowIO, model: Model, profile: Profile, f: number): Promise<string> {
+  const feature = model.features[f];
+  const current = profile[f];
+  if (feature.kind === "numeric") {
+    const range = feature.range!;
+    const value = await io.askNumber(
+      `${feature.name} (the data runs from ${range.min} to ${range.max}):`,
+      { default: Number.isNaN(current) ? undefined : current },
+    );
+    return String(value);
+  }
+  const levels = feature.levels!;
+  const order = feature.kind === "ordinal" ? " (lowest first)" : "";
+  return await io.choose(
+    `${feature.name}${order}:`,
+    levels.map((level) => ({ name: level, value: level })),
+    Number.isNaN(current) ? undefined : levels[current],
+  );
+}
+
+function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO): string[] {
+  if (scenarios.length === 0) {
+    return [io.style.dim('No scenario kept yet: choose "Keep this profile".')];
+  }
+  const pay = (x: number) => formatPay(x, money);
+  const lines = [io.style.bold("Scenarios")];
+  for (const s of scenarios) {
+    const a = s.answer;
+    const range = a.range ? `range ${pay(a.range.low)} - ${pay(a.range.high)}` : "no range";
+    lines.push(`  ${s.name.padEnd(16)} ${pay(a.estimate).padStart(10)}  ${range}`);
+  }
+  return lines;
+}
+
+async function save(io: FlowIO, model: Model, scenarios: Scenario[], options: FlowOptions) {
+  const path = await io.ask("Save the model as:", { default: "paygrove-model.json" });
+  let force = false;
+  if (existsSync(path)) {
+    force = await io.choose(`${path} exists. Replace it?`, [
+      { name: "No, keep it", value: false },
+      { name: "Yes, replace it", value: true },
+    ]);
+    if (!force) return;
+  }
+  const bytes = await writeModelFile(path, model, force);
+  io.say(io.style.dim(`Saved the model to ${path} (${(bytes / 1e6).toFixed(1)} MB).`));
+  const report = options.report ??
+    await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
+      default: "paygrove-report.md",
+    });
+  await writeReport(io, model, scenarios, report);
+}
+
+async function writeReport(io: FlowIO, model: Model, scenarios: Scenario[], path: string) {
+  const jsonPath = path.replace(/\.md$/, "") + ".json";
+  await writeFileAtomic(path, reportMarkdown(model, scenarios), {
+    force: true,
+    option: "--report",
+  });
+  await writeFileAtomic(jsonPath, JSON.stringify(reportJson(model, scenarios), null, 2), {
+    force: true,
+    option: "--report",
+  });
+  io.say(io.style.dim(`Wrote the report to ${path} and ${jsonPath}.`));
+}
+
+/** For tests: the answer the flow shows for a profile. */
+export function flowEstimate(session: ModelSession, profile: Profile): EstimateAnswer {
+  return estimateProfile(session, profile, 0.9);
+}

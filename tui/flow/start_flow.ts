@@ -1,0 +1,72 @@
+/**
+ * `paygrove` with no subcommand: the guided flow on the process's own
+ * terminal, or a pointer to the subcommands where there is no terminal.
+ *
+ * @module
+ */
+
+import { Command } from "@commander-js/extra-typings";
+import process from "node:process";
+import type { Terminal } from "../terminal.ts";
+import { streamFlowIO } from "./flow_io.ts";
+import { guidedFlow } from "./guided_flow.ts";
+
+/** The committed demo table, relative to this module. */
+export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
+
+/**
+ * Runs the guided flow; returns the exit status (0 also when the person
+ * stops it with Ctrl-C; 2 without a terminal to talk to).
+ */
+export async function startFlow(args: string[], terminal: Terminal): Promise<number> {
+  const options = new Command("paygrove")
+    .option("--ascii", "plain ASCII only: no box drawing or arrows")
+    .option(
+      "--report <file>",
+      "write the session's scenarios to FILE (Markdown) and a .json beside it",
+    )
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--trees <n>", "trees in the ensemble", (t: string) => Number(t))
+    .exitOverride()
+    .configureOutput({
+      writeOut: (text) => terminal.out(text.replace(/\n$/, "")),
+      writeErr: (text) => terminal.err(text.replace(/\n$/, "")),
+      getOutHasColors: () => terminal.style.enabled,
+      getErrHasColors: () => terminal.errStyle.enabled,
+    })
+    .parse(args, { from: "user" })
+    .opts();
+  if (!Deno.stdin.isTerminal()) {
+    terminal.err(
+      "paygrove: the guided flow needs a terminal to ask its questions, and standard input is " +
+        "not one. In scripts use the subcommands: paygrove fit, estimate, compare, sweep, batch, " +
+        "inspect (paygrove --help lists them).",
+    );
+    return 2;
+  }
+  const io = streamFlowIO(
+    { input: process.stdin, output: process.stdout },
+    {
+      style: terminal.style,
+      width: terminal.width,
+      ascii: options.ascii ?? false,
+      progress: terminal.progress,
+    },
+  );
+  try {
+    await guidedFlow(io, {
+      demoPath: DEMO_TABLE,
+      report: options.report,
+      locale: options.locale,
+      trees: options.trees,
+    });
+  } catch (error) {
+    // Ctrl-C at a prompt: the prompt restores the terminal; say so and stop.
+    if ((error as Error).name === "ExitPromptError") {
+      io.say("\nStopped. Nothing more was written.");
+      return 0;
+    }
+    throw error;
+  }
+  return 0;
+}
