@@ -9,6 +9,7 @@
 import { type Command, InvalidArgumentError } from "@commander-js/extra-typings";
 import {
   applySets,
+  DataError,
   findRow,
   type Model,
   type ModelRows,
@@ -30,7 +31,6 @@ export type ProfileFlags = {
   coverage: number;
   json?: true;
   locale?: string;
-  currency?: string;
 };
 
 function collect(text: string, previous: string[] = []): string[] {
@@ -56,7 +56,6 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
     .option("--set <column=value>", "set an attribute of the profile (repeatable)", collect)
     .option("--coverage <share>", "coverage of the intervals", coverage, 0.9)
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
-    .option("--currency <code>", "show money in this currency code instead of the model's")
     .option("--json", "print one JSON document on stdout instead of text") as unknown as Command<
       A,
       O & ProfileFlags
@@ -73,8 +72,11 @@ export async function readTableForModel(
   try {
     bytes = await Deno.readFile(path);
   } catch (error) {
-    throw new OptionError(
-      `--table: cannot read ${path} (${(error as Error).message.split("\n")[0]})`,
+    throw new DataError(
+      error instanceof Deno.errors.NotFound
+        ? `${path}: no such file`
+        : `${path}: cannot read it (${(error as Error).message.split("\n")[0]})`,
+      { file: path },
     );
   }
   return readForModel(model, bytes, path, false, amounts);
@@ -88,8 +90,15 @@ export async function profileFromFlags(
   model: Model,
   flags: ProfileFlags,
   terminal: Terminal,
+  tableAlone = false,
 ): Promise<
-  { profile: Profile; warnings: ProfileWarning[]; rows: ModelRows | null; start: string }
+  {
+    profile: Profile;
+    warnings: ProfileWarning[];
+    rows: ModelRows | null;
+    start: string;
+    id: string;
+  }
 > {
   if (model.settings.allowProtected) {
     terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
@@ -100,13 +109,19 @@ export async function profileFromFlags(
   if (flags.row !== undefined && flags.table === undefined) {
     throw new OptionError("--row needs --table: the model file keeps no one's row");
   }
+  if (flags.table !== undefined && flags.row === undefined && !tableAlone) {
+    throw new OptionError("--table needs --row ID: the person of the table to start from");
+  }
+  let id = "";
   if (flags.table !== undefined) {
     rows = await readTableForModel(model, flags.table);
     if (flags.row !== undefined) {
       base = rowProfile(rows, findRow(model, rows, flags.row, flags.table));
       start = `row ${flags.row} of ${flags.table}`;
+      // Only the model's own identifier column can name a training row.
+      if (rows.idColumn === model.read.identifier) id = flags.row;
     }
   }
   const { profile, warnings } = applySets(model, base, flags.set ?? []);
-  return { profile, warnings, rows, start };
+  return { profile, warnings, rows, start, id: (flags.set ?? []).length === 0 ? id : "" };
 }

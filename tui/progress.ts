@@ -8,7 +8,7 @@
 import type { Terminal } from "./terminal.ts";
 
 const STAGES: Record<string, string> = {
-  "cross-validation": "reference tree, cross-validation folds",
+  "cross-validation": "reference tree",
   trees: "ensemble trees",
   importance: "importance",
 };
@@ -39,8 +39,8 @@ export interface Progress {
  * ```
  */
 export function progressBar(
-  terminal: Pick<Terminal, "progress">,
-  width = 30,
+  terminal: Pick<Terminal, "progress"> & { width?: number },
+  width: number = Math.max(10, Math.min(30, (terminal.width ?? 80) - 50)),
   now: () => number = () => performance.now(),
 ): Progress {
   const draw = terminal.progress;
@@ -62,9 +62,11 @@ export function progressBar(
       const cells = Math.round(share * width);
       const elapsed = (t - started) / 1000;
       const left = done > 0 && done < total ? (elapsed / done) * (total - done) : 0;
-      const eta = done > 0 && done < total ? `, about ${Math.ceil(left)} s left` : "";
+      const eta = done > 0 && done < total ? `, ${Math.ceil(left)} s left` : "";
+      // Cross-validation counts the full tree and then each fold.
+      const unit = name === "cross-validation" ? ` (${total - 1}-fold CV)` : "";
       draw(
-        `${STAGES[name] ?? name} [${"#".repeat(cells)}${" ".repeat(width - cells)}] ` +
+        `${STAGES[name] ?? name}${unit} [${"#".repeat(cells)}${" ".repeat(width - cells)}] ` +
           `${done}/${total}${eta}`,
       );
     },

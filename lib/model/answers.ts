@@ -303,7 +303,7 @@ export interface CompareAnswer {
   changes: { feature: string; from: string | number | null; to: string | number | null }[];
   /**
    * The change in money (changed minus base), with the interval of the
-   * trees' paired changes, and the same as a share of the base.
+   * trees' paired changes, and the same divided by the base estimate.
    */
   difference: {
     estimate: number;
@@ -342,12 +342,18 @@ export function compareAnswer(
   let difference: CompareAnswer["difference"];
   if (reader !== null) {
     const w = compareProfiles(reader, base, changed, coverage);
+    // The share is the money change over the base estimate, interval
+    // included, so that the two always read alike.
     difference = {
       estimate: w.difference.estimate,
       low: w.difference.low,
       high: w.difference.high,
       coverage,
-      relative: { estimate: w.relative.estimate, low: w.relative.low, high: w.relative.high },
+      relative: {
+        estimate: w.difference.estimate / a.estimate,
+        low: w.difference.low / a.estimate,
+        high: w.difference.high / a.estimate,
+      },
       method: "percentile interval of the trees' paired differences",
     };
   } else {
@@ -387,6 +393,8 @@ export interface SweepAnswerPoint {
   range: { low: number; high: number } | null;
   /** Partial dependence (with `--average`): the estimate averaged over the table's rows. */
   average?: number;
+  /** Whether the profile at this value is unusual for the data. */
+  unusual: boolean;
 }
 
 /** The `sweep --json` document. */
@@ -459,17 +467,35 @@ export function sweepAnswer(
       estimate: answer.estimate,
       confidence: answer.confidence && { low: answer.confidence.low, high: answer.confidence.high },
       range: answer.range && { low: answer.range.low, high: answer.range.high },
+      unusual: answer.support.unusual,
     };
     if (averageOver !== null) point.average = averageEstimate(session, averageOver, feature, v);
     return point;
   });
   values[feature] = profile[feature];
+  const notes = [...warnings.map((w) => w.message)];
+  if (f.range !== undefined) {
+    const beyond = grid.filter((v) => v < f.range!.min || v > f.range!.max);
+    if (beyond.length > 0) {
+      notes.push(
+        `${f.name} outside ${f.range.min} to ${f.range.max} (the data's range) gets the ` +
+          `estimate at the nearest edge: trees cannot extrapolate`,
+      );
+    }
+  }
+  const unusual = points.filter((p) => p.unusual).map((p) => String(p.value));
+  if (unusual.length > 0) {
+    notes.push(
+      `unusual for the data (few comparable people) at ${f.name} ${unusual.join(", ")}; ` +
+        `treat those estimates with care`,
+    );
+  }
   return {
     feature: f.name,
     profile: describeProfile(model, profile),
     coverage,
     points,
-    warnings: [...warnings.map((w) => w.message)],
+    warnings: notes,
     provenance: model.provenance,
   };
 }
@@ -511,6 +537,8 @@ export interface BatchRow {
   rangePosition?: number | null;
   /** With an offer: under, within or over the range. */
   offerPosition?: "under" | "within" | "over" | null;
+  /** Why the row is unusual for the data, or outside it ("" when it is not). */
+  warnings: string;
 }
 
 /**
@@ -542,7 +570,9 @@ export function batchAnswer(
   for (let r = 0; r < rows.rows; r++) {
     for (let g = 0; g < profile.length; g++) profile[g] = rows.features[g][r];
     const tree = model.reference.tree;
-    const referenceTree = toMoney(tree.value[applyValues(tree, profile)], scale);
+    const leaf = applyValues(tree, profile);
+    const referenceTree = toMoney(tree.value[leaf], scale);
+    const reasons = supportOf(model, profile, tree.rows[leaf]).reasons;
     let row: BatchRow;
     if (reader === null || ensemble === null) {
       row = {
@@ -553,6 +583,7 @@ export function batchAnswer(
         ciHigh: null,
         rangeLow: null,
         rangeHigh: null,
+        warnings: reasons.join("; "),
       };
     } else {
       const reading = readProfile(reader, profile, coverage);
@@ -564,6 +595,7 @@ export function batchAnswer(
         ciHigh: reading.howSure.high,
         rangeLow: reading.range.low,
         rangeHigh: reading.range.high,
+        warnings: reasons.join("; "),
       };
       const index = rows.ids[r] === "" ? undefined : training.get(rowKey(rows.ids[r], profile));
       if (index !== undefined) {
@@ -593,6 +625,25 @@ export function batchAnswer(
     out.push(row);
   }
   return out;
+}
+
+/**
+ * The out-of-bag estimate (money) of a profile that is one of the model's
+ * training rows (same identifier and attributes), or null when it is not
+ * one (or the model has no ensemble).
+ */
+export function outOfBagEstimate(
+  session: ModelSession,
+  id: string,
+  profile: Profile,
+): number | null {
+  const { model } = session;
+  if (model.ensemble === null || id === "" || model.target.kind !== "regression") return null;
+  const index = trainingIndex(model).get(rowKey(id, profile));
+  if (index === undefined) return null;
+  const counts = Array.from(model.ensemble.seeds, (seed) => bootstrapCounts(model.rows.used, seed));
+  const oob = outOfBag(model.ensemble, counts, index, profile);
+  return oob === null ? null : toMoney(oob, model.target.scale);
 }
 
 // Training row keys -> training row index.

@@ -381,7 +381,8 @@ function checkSettings(trees: number, minLeaf: number, privacyMin: number, folds
   if (minLeaf < privacyMin) {
     throw new OptionError(
       `--min-leaf ${minLeaf} is below the privacy minimum ${privacyMin}: a leaf of fewer people ` +
-        `would keep their pay in the model file (lower --privacy-min to ${PRIVACY_FLOOR} at most)`,
+        `would keep their pay in the model file (use --min-leaf ${privacyMin} or more; ` +
+        `--privacy-min can go down to ${PRIVACY_FLOOR})`,
     );
   }
   if (!Number.isInteger(folds) || folds < 2) {

@@ -23,6 +23,11 @@ export interface ModelRows {
   features: Float64Array[];
   /** The identifier of each row ("" without an identifier column). */
   ids: string[];
+  /**
+   * The column the identifiers come from: the model's identifier column, or
+   * else the table's first identifier column; undefined when there is none.
+   */
+  idColumn?: string;
   /** The target in money per row, when the table has it (NaN where missing). */
   target: Float64Array | null;
   /** The file's header and cell texts as read (`cells[c][r]`), to echo input back. */
@@ -57,24 +62,29 @@ export function readForModel(
       `${file} does not match the model: it lacks the column${
         missingColumns.length > 1 ? "s" : ""
       } ` +
-        `${missingColumns.map((n) => `"${n}"`).join(", ")} (the model was fitted on ` +
-        `${[...needed, model.target.name].join(", ")})`,
+        `${missingColumns.map((n) => `"${n}"`).join(", ")} (the model's attributes are ` +
+        `${needed.join(", ")})`,
       { file },
     );
   }
   const only = <V>(record: Record<string, V> | undefined) =>
     Object.fromEntries(Object.entries(record ?? {}).filter(([name]) => present.has(name)));
+  // Ordinal columns are read as plain levels and matched to the model's by
+  // name below, so that an unknown level is listed with the other
+  // differences instead of stopping the read.
+  const types = Object.fromEntries(
+    Object.entries(only(read.types)).map(([n, t]) => [n, t === "ordinal" ? "categorical" : t]),
+  );
   const options: LoadTableOptions = {
     file,
     decimal: read.decimal,
     encoding: read.encoding,
     types: {
-      ...only(read.types),
+      ...types,
       ...Object.fromEntries(
         amounts.filter((n) => present.has(n)).map((n) => [n, "numeric" as const]),
       ),
     },
-    orders: only(read.orders),
   };
   if (read.delimiter !== undefined) options.delimiter = read.delimiter;
   if (read.missing !== undefined) options.missing = read.missing;
@@ -109,7 +119,12 @@ export function readForModel(
       differences.push(`"${f.name}" is ${column.type} here, ${f.kind} in the model`);
       return new Float64Array(table.rows);
     }
-    const map = column.levels.map((level) => f.levels!.indexOf(level));
+    // By name; a level differing only in case is the same level (as --set treats it).
+    const lower = f.levels!.map((l) => l.toLowerCase());
+    const map = column.levels.map((level) => {
+      const exact = f.levels!.indexOf(level);
+      return exact >= 0 ? exact : lower.indexOf(level.toLowerCase());
+    });
     const unseen = column.levels.filter((_, i) => map[i] < 0);
     if (unseen.length > 0) {
       differences.push(
@@ -127,9 +142,8 @@ export function readForModel(
       { file },
     );
   }
-  const idColumn = read.identifier === undefined
-    ? undefined
-    : table.columns.find((c) => c.name === read.identifier);
+  const idColumn = table.columns.find((c) => c.name === read.identifier) ??
+    table.columns.find((c) => c.type === "identifier");
   const ids = idColumn?.type === "identifier"
     ? idColumn.values
     : idColumn?.type === "categorical" || idColumn?.type === "ordinal"
@@ -142,6 +156,7 @@ export function readForModel(
     rows: table.rows,
     features,
     ids,
+    ...(idColumn ? { idColumn: idColumn.name } : {}),
     target,
     raw: { header: raw.header, cells: raw.cells },
   };
@@ -158,17 +173,28 @@ export function rowProfile(rows: ModelRows, r: number): Float64Array {
  * @throws {DataError} when the table has no identifier column or no such row.
  */
 export function findRow(model: Model, rows: ModelRows, id: string, file: string): number {
-  if (model.read.identifier === undefined) {
-    throw new DataError(
-      `--row: the model's table had no identifier column, so rows cannot be named; use --set`,
-      { file },
-    );
+  if (rows.idColumn !== undefined) {
+    const r = rows.ids.indexOf(id);
+    if (r < 0) {
+      throw new DataError(`--row: ${file} has no row with ${rows.idColumn} "${id}"`, { file });
+    }
+    return r;
   }
-  const r = rows.ids.indexOf(id);
-  if (r < 0) {
-    throw new DataError(`--row: ${file} has no row with ${model.read.identifier} "${id}"`, {
-      file,
+  // No column reads as identifiers (a short table of candidates, say): the
+  // row whose cell in some column that is not an attribute equals the id.
+  const attributes = new Set([...model.features.map((f) => f.name), model.target.name]);
+  const hits: number[] = [];
+  rows.raw.header.forEach((name, c) => {
+    if (attributes.has(name)) return;
+    rows.raw.cells[c].forEach((cell, r) => {
+      if (cell === id) hits.push(r);
     });
-  }
-  return r;
+  });
+  if (hits.length === 1) return hits[0];
+  throw new DataError(
+    hits.length === 0
+      ? `--row: no row of ${file} is named "${id}" (in any column besides the attributes)`
+      : `--row: "${id}" names ${hits.length} rows of ${file}; use --set instead`,
+    { file },
+  );
 }

@@ -96,11 +96,21 @@ export function findFeature(model: Model, name: string, option: string): number 
  * the nearest) or a value that is not a number for a numeric feature.
  */
 export function valueOf(feature: FeatureSchema, text: string, option: string): number {
-  if (text === "" || text.toUpperCase() === "NA") return NaN;
+  if (text === "") {
+    throw new OptionError(
+      `${option}: "${feature.name}=" has no value; give one, or ${feature.name}=NA for missing`,
+    );
+  }
+  if (text.toUpperCase() === "NA") return NaN;
   if (feature.kind === "numeric") {
     const value = Number(text.replace(/_/g, ""));
     if (!Number.isFinite(value)) {
-      throw new OptionError(`${option}: "${feature.name}" is a number, and "${text}" is not one`);
+      const comma = /^\d+,\d+$/.test(text)
+        ? ` (write decimals with a point: ${text.replace(",", ".")})`
+        : "";
+      throw new OptionError(
+        `${option}: "${feature.name}" is a number, and "${text}" is not one${comma}`,
+      );
     }
     return value;
   }

@@ -221,7 +221,7 @@ Deno.test("batch on the training table gives each row its out-of-bag estimate", 
   assert.equal(run.code, 0, run.stderr);
   assert.match(
     run.stderr,
-    /2000 rows scored \(2000 training rows given their out-of-bag estimate\)/,
+    /2000 rows scored \(2000 training rows given their out-of-bag estimate; \d+ unusual for the data/,
   );
   const lines = (await Deno.readTextFile(out)).trim().split("\n");
   const header = lines[0].split(",");
@@ -395,4 +395,112 @@ globalThis.addEventListener("unload", () => {
   } catch {
     // Already gone.
   }
+});
+
+Deno.test("fixes from a newcomer's trial: each mistake gets a message and the right status", async () => {
+  const noTarget = await paygrove(["fit", demo, "--out", `${dir}/x.json`]);
+  assert.equal(noTarget.code, 2);
+  assert.match(noTarget.stderr, /fit needs --target COLUMN: the column to estimate/);
+  const tableAlone = await paygrove(["estimate", modelPath, "--table", demo]);
+  assert.equal(tableAlone.code, 2);
+  assert.match(tableAlone.stderr, /--table needs --row ID/);
+  const empty = await paygrove(["estimate", modelPath, "--set", "years_experience="]);
+  assert.equal(empty.code, 2);
+  assert.match(empty.stderr, /"years_experience=" has no value; give one, or years_experience=NA/);
+  const comma = await paygrove(["estimate", modelPath, "--set", "years_experience=10,5"]);
+  assert.match(comma.stderr, /write decimals with a point: 10\.5/);
+  const noFile = await paygrove([
+    "estimate",
+    modelPath,
+    "--table",
+    `${dir}/nosuch.csv`,
+    "--row",
+    "A",
+  ]);
+  assert.equal(noFile.code, 1);
+  assert.match(noFile.stderr, /nosuch\.csv: no such file/);
+});
+
+Deno.test("a candidates table with its own id column, unknown levels listed together, case ignored", async () => {
+  const file = `${dir}/cands.csv`;
+  await Deno.writeTextFile(
+    file,
+    "candidate,job_family,level,years_experience,years_at_company,site,performance_rating,education,remote\n" +
+      "C-1,sales,g3,8,0,Millbrook,,Bachelor,no\n",
+  );
+  const doc = json(
+    await paygrove(["estimate", modelPath, "--table", file, "--row", "C-1", "--json"]),
+  );
+  assert.equal(doc.profile.level, "G3");
+  assert.equal(doc.profile.job_family, "Sales");
+  const bad = `${dir}/bad.csv`;
+  await Deno.writeTextFile(
+    bad,
+    "candidate,job_family,level,years_experience,years_at_company,site,performance_rating,education,remote\n" +
+      "C-1,Marketing,G9,8,0,Millbrook,,Bachelor,no\n",
+  );
+  const run = await paygrove(["batch", modelPath, bad]);
+  assert.equal(run.code, 1);
+  assert.match(run.stderr, /"job_family" has level "Marketing" the model never saw/);
+  assert.match(run.stderr, /"level" has level "G9" the model never saw/);
+});
+
+Deno.test("a training row's estimate says it includes the person's own pay, with the out-of-bag figure", async () => {
+  const doc = json(
+    await paygrove(["estimate", modelPath, "--table", demo, "--row", "FH10003", "--json"]),
+  );
+  const scored = json(await paygrove(["batch", modelPath, demo, "--json"]));
+  const oob = scored.rows.find((r: { input: { employee_id: string } }) =>
+    r.input.employee_id === "FH10003"
+  );
+  assert.equal(oob.estimateSource, "out-of-bag");
+  const euros = new Intl.NumberFormat("en-US", {
+    style: "currency",
+    currency: "EUR",
+    maximumFractionDigits: 0,
+    minimumFractionDigits: 0,
+  }).format(oob.estimate);
+  assert.ok(
+    doc.warnings.some((w: string) =>
+      w.startsWith("FH10003 is one of the people the model learned from") && w.endsWith(euros)
+    ),
+    doc.warnings.join(" | "),
+  );
+});
+
+Deno.test("no-change comparisons, sweeps beyond the data and unusual batch rows are said so", async () => {
+  const same = await paygrove(["compare", modelPath, "--set", "level=G2", "--change", "level=G2"]);
+  assert.equal(same.code, 0, same.stderr);
+  assert.match(same.stdout, /No change: the changed profile is the same as the base/);
+  const far = json(
+    await paygrove([
+      "sweep",
+      modelPath,
+      "--vary",
+      "years_experience",
+      "--from",
+      "0",
+      "--to",
+      "80",
+      "--steps",
+      "5",
+      "--json",
+    ]),
+  );
+  assert.ok(
+    far.warnings.some((w: string) => /outside 1 to 35\.9 \(the data's range\)/.test(w)),
+    far.warnings,
+  );
+  const file = `${dir}/odd.csv`;
+  await Deno.writeTextFile(
+    file,
+    "job_family,level,years_experience,years_at_company,site,performance_rating,education,remote\n" +
+      "Sales,G1,30,25,Millbrook,3,Bachelor,no\nSales,G3,9,2,Millbrook,3,Bachelor,no\n",
+  );
+  const doc = json(await paygrove(["batch", modelPath, file, "--json"]));
+  assert.match(
+    doc.rows[0].warnings,
+    /years_at_company 25 is above what 99% of people at level G1 have/,
+  );
+  assert.equal(doc.rows[1].warnings, "");
 });

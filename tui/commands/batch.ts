@@ -121,9 +121,11 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
       const csv = toCsv(rows.raw, scored, offers !== null, provenanceText(model));
       if (flags.out !== undefined) {
         await writeFileAtomic(flags.out, csv, { force: flags.force ?? false, option: "--out" });
+        const flagged = scored.filter((r) => r.warnings !== "").length;
         terminal.err(
           `paygrove batch: ${counts.scored} rows scored (${counts.outOfBag} training rows given ` +
-            `their out-of-bag estimate) -> ${flags.out}`,
+            `their out-of-bag estimate; ${flagged} unusual for the data, see the warnings ` +
+            `column) -> ${flags.out}`,
         );
       } else {
         terminal.out(csv.replace(/\n$/, ""));

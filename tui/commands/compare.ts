@@ -56,11 +56,11 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
           ...renderCompare(answer, {
             style,
             width: terminal.width,
-            money: moneyStyle(model, { locale: flags.locale, currency: flags.currency }),
+            money: moneyStyle(model, { locale: flags.locale }),
           }),
           "",
           ...cautionLines(style, terminal.width),
-          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
             .split("\n"),
         ].join("\n"),
       );

@@ -6,7 +6,8 @@
 
 import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
-import { estimateProfile, openModel, readModelFile } from "../../mod.ts";
+import { estimateProfile, openModel, outOfBagEstimate, readModelFile } from "../../mod.ts";
+import { formatPay } from "../render/numbers.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderEstimate } from "../render/answer_view.ts";
 import { cautionLines, provenanceLine } from "../render/cautions.ts";
@@ -30,8 +31,16 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
   ).action(async (file, flags) => {
     const model = await readModelFile(file);
     const session = openModel(model);
-    const { profile, warnings, start } = await profileFromFlags(model, flags, terminal);
+    const { profile, warnings, start, id } = await profileFromFlags(model, flags, terminal);
     const answer = estimateProfile(session, profile, flags.coverage, warnings);
+    const oob = outOfBagEstimate(session, id, profile);
+    if (oob !== null) {
+      answer.warnings.unshift(
+        `${id} is one of the people the model learned from, so this estimate includes their own ` +
+          `pay; leaving them out (the out-of-bag estimate, as batch gives it) it is ` +
+          formatPay(oob, moneyStyle(model, { locale: flags.locale })),
+      );
+    }
     if (flags.json) {
       terminal.out(JSON.stringify({ start, ...answer }, jsonNumbers, 2));
       return;
@@ -42,12 +51,12 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
         ...renderEstimate(answer, {
           style,
           width: terminal.width,
-          money: moneyStyle(model, { locale: flags.locale, currency: flags.currency }),
+          money: moneyStyle(model, { locale: flags.locale }),
         }),
         style.dim(`Started from ${start}.`),
         "",
         ...cautionLines(style, terminal.width),
-        ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+        ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
           .split("\n"),
       ].join("\n"),
     );

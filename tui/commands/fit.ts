@@ -12,7 +12,7 @@ import {
   InvalidArgumentError,
   Option,
 } from "@commander-js/extra-typings";
-import { fitModel, loadTableFile, type Model, writeModelFile } from "../../mod.ts";
+import { fitModel, loadTableFile, type Model, OptionError, writeModelFile } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
@@ -165,11 +165,13 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--force", "replace an existing model file")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
+      if (flags.target === undefined) {
+        throw new OptionError(
+          "fit needs --target COLUMN: the column to estimate (e.g. --target base_pay)",
+        );
+      }
       const options = loadOptions(flags, file);
       const table = await loadTableFile(file, options);
-      if (flags.target === undefined) {
-        throw new InvalidArgumentError("--target is required: the column to predict");
-      }
       if (flags.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
       }
@@ -217,7 +219,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           ...renderModelSummary(model, view),
           "",
           ...cautionLines(style, terminal.width),
-          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
             .split("\n"),
         ].join("\n"),
       );

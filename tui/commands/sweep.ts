@@ -68,7 +68,12 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
           "--average needs --table: the model file keeps no rows to average over",
         );
       }
-      const { profile, warnings, rows } = await profileFromFlags(model, flags, terminal);
+      const { profile, warnings, rows } = await profileFromFlags(
+        model,
+        flags,
+        terminal,
+        flags.average === true,
+      );
       const grid = sweepValues(model, feature, {
         from: flags.from,
         to: flags.to,
@@ -93,11 +98,11 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
           ...renderSweep(answer, {
             style,
             width: terminal.width,
-            money: moneyStyle(model, { locale: flags.locale, currency: flags.currency }),
+            money: moneyStyle(model, { locale: flags.locale }),
           }),
           "",
           ...cautionLines(style, terminal.width),
-          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width, { hard: true })
+          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
             .split("\n"),
         ].join("\n"),
       );

@@ -121,7 +121,7 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
     }
     // The target named, the table is read again so that rows missing it are left out.
     table = loadTable(tableText, { ...readOptions, target });
-    const bar = progressBar({ progress: io.progress });
+    const bar = progressBar({ progress: io.progress, width: io.width });
     try {
       model = await fitModel(table, {
         target,

@@ -70,6 +70,8 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
     );
   }
   lines.push(...wrap(style.dim(`for: ${profileText(answer.profile)}`), "  "));
+  // Warnings come before the figures they qualify.
+  for (const w of answer.warnings) lines.push(...wrap(style.warn(`! ${w}`)));
   if (answer.confidence && answer.range) {
     const c = answer.confidence;
     const r = answer.range;
@@ -131,8 +133,16 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
   if (answer.path.length > 0) lines.push(...table.toString().split("\n").map((l) => `  ${l}`));
   if (!answer.classes) {
     lines.push(
-      `  ${style.dim("reference tree's own estimate:")} ${pay(answer.referenceTree)}` +
-        style.dim(` (its leaf holds ${formatNumber(answer.leaf.rows, money)} people)`),
+      ...wrap(
+        style.dim(
+          `This one tree, shown because it can be read, ends at ${pay(answer.referenceTree)} ` +
+            `(its last group holds ${
+              formatNumber(answer.leaf.rows, money)
+            } people); the estimate ` +
+            `above averages ${answer.trees.length || 1} such trees.`,
+        ),
+        "  ",
+      ),
     );
   }
   const s = answer.support;
@@ -154,7 +164,6 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
       ...histogram(answer.trees, Math.min(40, options.width - 10), 4, pay).map((l) => `  ${l}`),
     );
   }
-  for (const w of answer.warnings) lines.push(...wrap(style.warn(`! ${w}`)));
   return lines;
 }
 
@@ -205,6 +214,10 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
     ]);
   }
   lines.push(...table.toString().split("\n"));
+  if (answer.changes.length === 0) {
+    lines.push("", ...wrap("No change: the changed profile is the same as the base."));
+    return lines;
+  }
   const sign = d.estimate >= 0 ? "+" : "-";
   const interval = d.low !== null && d.high !== null
     ? ` (${pct}: ${signed(d.low, pay)} to ${signed(d.high, pay)}; ` +
@@ -216,12 +229,14 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
       `${style.bold("Change:")} ${sign}${pay(Math.abs(d.estimate))} ` +
         `(${formatPercent(d.relative.estimate, true)})${interval}`,
     ),
-    ...wrap(
-      style.dim(
-        "The interval comes from each tree's paired estimates of both profiles, so errors the " +
-          "two share cancel; it is narrower than the two intervals above suggest.",
-      ),
-    ),
+    ...(d.low !== null
+      ? wrap(
+        style.dim(
+          "How sure the change is: each tree estimates both profiles, so errors the two share " +
+            "cancel; the interval is narrower than the two intervals above suggest.",
+        ),
+      )
+      : []),
   );
   const p = answer.pathChange;
   lines.push(
@@ -261,18 +276,13 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
     series.push(points.map((p) => p.range!.low), points.map((p) => p.range!.high));
   }
   if (points.some((p) => p.average !== undefined)) series.push(points.map((p) => p.average ?? NaN));
-  // asciichart draws one column per point: stretch short grids to the width.
+  // asciichart draws one column per point: exactly `width` columns, short
+  // grids stretched and long ones sampled, so the chart never wraps.
   const width = Math.max(20, Math.min(60, options.width - 16));
   const stretch = (values: number[]) =>
     Array.from(
-      { length: Math.max(values.length, width) },
-      (_, i) =>
-        values[
-          Math.min(
-            values.length - 1,
-            Math.floor((i * values.length) / Math.max(values.length, width)),
-          )
-        ],
+      { length: width },
+      (_, i) => values[Math.min(values.length - 1, Math.floor((i * values.length) / width))],
     );
   const chart = asciichart.plot(series.map(stretch), {
     height: 10,
@@ -300,7 +310,8 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
   lines.push(
     style.dim(
       hasIntervals
-        ? `middle line: estimate; outer lines: range for comparable people (${pct})`
+        ? `middle line: estimate; outer lines: range for comparable people (${pct})` +
+          (points.some((p) => p.average !== undefined) ? "; fourth: averaged over the table" : "")
         : "estimate only (the model has no ensemble)",
     ),
   );

@@ -51,7 +51,7 @@ export function describeTarget(model: Model, numbers: NumberStyle): string {
  */
 export function renderModelSummary(model: Model, options: ModelViewOptions): string[] {
   const { style } = options;
-  const wrap = (text: string) => wrapAnsi(text, options.width, { hard: true }).split("\n");
+  const wrap = (text: string) => wrapAnsi(text, options.width).split("\n");
   const lines: string[] = [];
   lines.push(...wrap(`${style.bold("Target:")} ${describeTarget(model, options.numbers)}`));
   const where = Object.entries(model.settings.where);
@@ -249,9 +249,11 @@ export function renderTreeOutline(model: Model, options: ModelViewOptions): stri
   const visit = (node: number, depth: number, label: string) => {
     const indent = "  ".repeat(depth);
     const leaf = tree.left[node] === -1;
-    lines.push(
-      `${indent}${label}${leaf ? " -> " : ": "}${valueText(node)} ` +
-        options.style.dim(`(${formatNumber(tree.rows[node], options.numbers)} rows)`),
+    // Long lines wrap at word boundaries, continued under their own indent.
+    const line = `${label}${leaf ? " -> " : ": "}${valueText(node)} ` +
+      options.style.dim(`(${formatNumber(tree.rows[node], options.numbers)} people)`);
+    wrapAnsi(line, Math.max(20, options.width - indent.length - 2)).split("\n").forEach((part, i) =>
+      lines.push(`${indent}${i === 0 ? "" : "  "}${part}`)
     );
     if (leaf) return;
     visit(tree.left[node], depth + 1, conditionText(node, true));
