@@ -161,3 +161,20 @@ Deno.test("every task runs without network permission", async () => {
     assert.doesNotMatch(command, /--allow-net|--allow-all|\s-A\b/, name);
   }
 });
+
+Deno.test("demo-data writes the invented company's table, and keeps an existing file", async () => {
+  const { demoCompanyCsv } = await import("../../mod.ts");
+  const out = await paygrove(["demo-data", "--rows", "5", "--seed", "9"]);
+  assert.equal(out.code, 0, out.stderr);
+  assert.equal(out.stdout, demoCompanyCsv({ rows: 5, seed: 9 }));
+  const dir = await Deno.makeTempDir();
+  const file = `${dir}/demo.csv`;
+  const first = await paygrove(["demo-data", "--rows", "3", "--out", file]);
+  assert.equal(first.code, 0, first.stderr);
+  assert.match(first.stderr, /3 invented people \(Fernhollow Instruments \(invented\)\) ->/);
+  const again = await paygrove(["demo-data", "--out", file]);
+  assert.equal(again.code, 2);
+  assert.match(again.stderr, /already exists; add --force/);
+  assert.equal(await Deno.readTextFile(file), demoCompanyCsv({ rows: 3 }));
+  await Deno.remove(dir, { recursive: true });
+});

@@ -29,7 +29,7 @@ function plain(text: string): string {
 }
 
 /** A driver with an 80-column, colourless screen. */
-export function flowDriver(timeoutMs = 60000): FlowDriver {
+export function flowDriver(timeoutMs = 60000, ascii = false): FlowDriver {
   const input = new PassThrough();
   const output = new PassThrough();
   // Each prompt ends the stream it draws on when it closes (harmless on a
@@ -38,7 +38,7 @@ export function flowDriver(timeoutMs = 60000): FlowDriver {
   let recorded = "";
   let seen = 0;
   output.on("data", (chunk: Uint8Array) => (recorded += new TextDecoder().decode(chunk)));
-  const io = streamFlowIO({ input, output }, { style: makeStyle(false), width: 80, ascii: false });
+  const io = streamFlowIO({ input, output }, { style: makeStyle(false), width: 80, ascii });
   return {
     io,
     screen: () => plain(recorded),

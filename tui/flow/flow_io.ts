@@ -47,6 +47,13 @@ export interface FlowIO {
   ): Promise<number>;
 }
 
+// Key names of the prompts' help line, in ASCII.
+const ASCII_KEYS: Record<string, string> = {
+  "↑↓": "up/down",
+  "⏎": "enter",
+  "space": "space",
+};
+
 /** Node-style streams the prompts read and write. */
 export interface PromptStreams {
   /** Keys come from here (a TTY, or a PassThrough in tests). */
@@ -66,10 +73,19 @@ export function streamFlowIO(
   options: { style: Style; width: number; ascii: boolean; progress?: (text: string) => void },
 ): FlowIO {
   const context = { input: streams.input, output: streams.output, clearPromptOnDone: false };
-  const theme = options.ascii
+  const prefix = { idle: "?", done: "+" };
+  const help = (keys: [string, string][]) =>
+    keys.map(([key, action]) => `${ASCII_KEYS[key] ?? key} ${action}`).join(", ");
+  // Under --ascii: no arrows, circles or check marks.
+  const theme = options.ascii ? { prefix } : undefined;
+  const selectTheme = options.ascii
+    ? { prefix, icon: { cursor: ">" }, style: { keysHelpTip: help } }
+    : undefined;
+  const tickTheme = options.ascii
     ? {
-      prefix: { idle: "?", done: "+" },
-      icon: { cursor: ">" },
+      prefix,
+      icon: { cursor: ">", checked: "[x]", unchecked: "[ ]" },
+      style: { keysHelpTip: help },
     }
     : undefined;
   return {
@@ -79,8 +95,12 @@ export function streamFlowIO(
     ascii: options.ascii,
     progress: options.progress,
     choose: (message, choices, defaultValue) =>
-      select({ message, choices, default: defaultValue, pageSize: 12, theme }, context),
-    tick: (message, choices) => checkbox({ message, choices, pageSize: 14, theme }, context),
+      select(
+        { message, choices, default: defaultValue, pageSize: 12, theme: selectTheme },
+        context,
+      ),
+    tick: (message, choices) =>
+      checkbox({ message, choices, pageSize: 14, theme: tickTheme }, context),
     ask: (message, o = {}) =>
       input({ message, default: o.default, validate: o.validate, theme }, context),
     askNumber: async (message, o) =>

@@ -232,11 +232,12 @@ async function whatIfLoop(
 ): Promise<void> {
   const { model } = session;
   const view = { style: io.style, width: io.width, money };
+  const result = { ...view, compact: true };
   let profile = await buildProfile(io, model, tableText);
   const history: Profile[] = [];
   const scenarios: Scenario[] = [];
   let answer = estimateProfile(session, profile, 0.9);
-  io.say(["", ...renderEstimate(answer, view)].join("\n"));
+  io.say(["", ...renderEstimate(answer, result)].join("\n"));
   const ladder = promotionFeature(model);
   for (;;) {
     const next: Next = await io.choose("What next?", [
@@ -287,12 +288,12 @@ async function whatIfLoop(
     } else if (next === "undo") {
       profile = history.pop()!;
       answer = estimateProfile(session, profile, 0.9);
-      io.say(["", ...renderEstimate(answer, view)].join("\n"));
+      io.say(["", ...renderEstimate(answer, result)].join("\n"));
     } else if (next === "restart") {
       history.length = 0;
       profile = await buildProfile(io, model, tableText);
       answer = estimateProfile(session, profile, 0.9);
-      io.say(["", ...renderEstimate(answer, view)].join("\n"));
+      io.say(["", ...renderEstimate(answer, result)].join("\n"));
     } else if (next === "save") {
       await save(
         io,

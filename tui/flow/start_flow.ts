@@ -10,6 +10,7 @@ import process from "node:process";
 import type { Terminal } from "../terminal.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow } from "./guided_flow.ts";
+import { setAscii } from "../render/glyphs.ts";
 
 /** The committed demo table, relative to this module. */
 export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
@@ -36,6 +37,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     })
     .parse(args, { from: "user" })
     .opts();
+  setAscii(options.ascii ?? false);
   if (!Deno.stdin.isTerminal()) {
     terminal.err(
       "paygrove: the guided flow needs a terminal to ask its questions, and standard input is " +

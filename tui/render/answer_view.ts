@@ -12,6 +12,7 @@ import type { CompareAnswer, EstimateAnswer, SweepAnswer } from "../../mod.ts";
 import { histogram, intervalChart } from "./charts.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
+import { chartSymbols, tableChars } from "./glyphs.ts";
 
 /** What the views need. */
 export interface AnswerViewOptions {
@@ -21,6 +22,8 @@ export interface AnswerViewOptions {
   width: number;
   /** Locale and currency of money. */
   money: NumberStyle;
+  /** Fewer lines (the guided flow's result screen, under a menu). */
+  compact?: boolean;
 }
 
 const PERIOD: Record<string, string> = {
@@ -161,7 +164,8 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
   if (answer.trees.length > 1) {
     lines.push("", style.bold(`The ${answer.trees.length} trees' estimates`));
     lines.push(
-      ...histogram(answer.trees, Math.min(40, options.width - 10), 4, pay).map((l) => `  ${l}`),
+      ...histogram(answer.trees, Math.min(40, options.width - 10), options.compact ? 2 : 4, pay)
+        .map((l) => `  ${l}`),
     );
   }
   return lines;
@@ -204,6 +208,7 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
     head: ["", "estimate", `how sure (${pct})`, `range (${pct})`].map(style.bold),
     colAligns: ["left", "right", "right", "right"],
     style: { head: [], border: [], compact: true },
+    ...(tableChars() ? { chars: tableChars() } : {}),
   });
   for (const [name, a] of [["base", answer.base], ["changed", answer.changed]] as const) {
     table.push([
@@ -286,6 +291,7 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
     );
   const chart = asciichart.plot(series.map(stretch), {
     height: 10,
+    ...(chartSymbols() ? { symbols: chartSymbols() } : {}),
     format: (x: number) => pay(x).padStart(10),
     colors: style.enabled
       ? [
@@ -325,6 +331,7 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
     ].map(style.bold),
     colAligns: ["left", "right", "right", "right", "right"],
     style: { head: [], border: [], compact: true },
+    ...(tableChars() ? { chars: tableChars() } : {}),
   });
   for (const p of points) {
     table.push([

@@ -17,6 +17,7 @@ import {
   type NumberStyle,
 } from "./numbers.ts";
 import type { Style } from "./style.ts";
+import { isAscii, tableChars } from "./glyphs.ts";
 
 /** What the views need besides the model. */
 export interface ModelViewOptions {
@@ -123,6 +124,7 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
       head: ["model", "accuracy", "measured by"].map(style.bold),
       colAligns: ["left", "right", "left"],
       style: { head: [], border: [], compact: true },
+      ...(tableChars() ? { chars: tableChars() } : {}),
     });
     for (const [name, a] of rows) {
       if (a === null) continue;
@@ -131,11 +133,19 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     return [style.bold("Accuracy (share classified correctly)"), ...table.toString().split("\n")];
   }
   const log = model.target.scale === "log";
-  const head = ["model", "RMSE", "MAE", "R²", ...(log ? ["log RMSE"] : []), "measured by"];
+  const head = [
+    "model",
+    "RMSE",
+    "MAE",
+    isAscii() ? "R^2" : "R²",
+    ...(log ? ["log RMSE"] : []),
+    "measured by",
+  ];
   const table = new Table({
     head: head.map(style.bold),
     colAligns: ["left", "right", "right", "right", ...(log ? ["right" as const] : []), "left"],
     style: { head: [], border: [], compact: true },
+    ...(tableChars() ? { chars: tableChars() } : {}),
   });
   for (const [name, a] of rows) {
     if (a === null || a.money === undefined) continue;

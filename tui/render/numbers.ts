@@ -5,6 +5,7 @@
  */
 
 import type { MoneyUnit } from "../../mod.ts";
+import { isAscii } from "./glyphs.ts";
 
 /** How to format money and numbers. */
 export interface NumberStyle {
@@ -58,7 +59,8 @@ export function formatMoney(value: number, style: NumberStyle): string {
   return new Intl.NumberFormat(style.locale ?? "en-US", {
     style: "currency",
     currency: style.currency,
-  }).format(value);
+    currencyDisplay: isAscii() ? "code" : "symbol",
+  }).format(value).replace(isAscii() ? /[\u00a0\u202f]/g : /(?!)/, " ");
 }
 
 /**
@@ -96,9 +98,12 @@ export function formatPay(value: number, style: NumberStyle): string {
   return new Intl.NumberFormat(style.locale ?? "en-US", {
     style: "currency",
     currency: style.currency,
+    // Under --ascii, "EUR 61,235" rather than a symbol outside ASCII.
+    currencyDisplay: isAscii() ? "code" : "symbol",
     minimumFractionDigits: digits,
     maximumFractionDigits: digits,
-  }).format(value);
+    // Intl puts a no-break space after a currency code: a plain one under --ascii.
+  }).format(value).replace(isAscii() ? /[\u00a0\u202f]/g : /(?!)/, " ");
 }
 
 /**

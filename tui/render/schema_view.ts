@@ -11,6 +11,7 @@ import wrapAnsi from "wrap-ansi";
 import type { ColumnSummary, SchemaSummary } from "../../mod.ts";
 import { describeUnit, formatMoney, formatNumber, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
+import { tableChars } from "./glyphs.ts";
 
 /** What {@linkcode renderSchema} needs besides the summary. */
 export interface SchemaViewOptions {
@@ -64,6 +65,7 @@ export function renderSchema(summary: SchemaSummary, options: SchemaViewOptions)
     colWidths: [fixed[0] + 2, fixed[1] + 2, fixed[2] + 2, rest + 2, fixed[3] + 2],
     colAligns: ["left", "left", "right", "left", "left"],
     style: { head: [], border: [], compact: true },
+    ...(tableChars() ? { chars: tableChars() } : {}),
     wordWrap: true,
   });
   for (const column of summary.columns) {
