@@ -75,8 +75,11 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
   assert.ok(screen.includes(`${pay(first.estimate)}`), pay(first.estimate));
   assert.ok(
     screen.includes(
-      `How sure (90%): ${pay(first.confidence!.low)} to ${pay(first.confidence!.high)}`,
+      `how sure (90%)  ${pay(first.confidence!.low)} - ${pay(first.confidence!.high)}`,
     ),
+  );
+  assert.ok(
+    screen.includes(`range (90%)     ${pay(first.range!.low)} - ${pay(first.range!.high)}`),
   );
   // The promotion: the paired difference and its interval.
   const promoted = applyChanges(model, base, ["level=+1"]).profile;
@@ -90,7 +93,7 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
   const afterPromotion = screen.slice(screen.indexOf(line));
   assert.ok(
     afterPromotion.includes(
-      `Estimate of base_pay_eur (EUR a year, typical (median) pay): ${pay(first.estimate)}`,
+      `Estimate of base_pay_eur: ${pay(first.estimate)} a year (typical pay)`,
     ),
   );
   // The report holds the kept scenario with the promoted estimate.
@@ -123,7 +126,7 @@ Deno.test("an existing person by id, change one attribute, sweep a level attribu
   await done;
   const screen = driver.screen();
   // FH10003 is an Engineering G4 at Cinder Hill (fixtures/demo_company.csv).
-  assert.match(screen, /for: job_family Engineering, level G4, years_experience 16\.3/);
+  assert.match(screen, /for job_family Engineering, level G4, years_experience 16\.3/);
   assert.match(screen, /What-if: site Cinder Hill -> /);
   for (const level of ["G1", "G4", "G7"]) assert.match(screen, new RegExp(`\\n│ ${level} +│`));
 });

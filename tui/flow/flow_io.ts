@@ -31,8 +31,11 @@ export interface FlowIO {
   ascii: boolean;
   /** Redraws one progress line in place, if the screen can. */
   progress?: (text: string) => void;
-  /** Asks to pick one of `choices`. */
-  choose<T>(message: string, choices: Choice<T>[], defaultValue?: T): Promise<T>;
+  /**
+   * Asks to pick one of `choices`; `brief` leaves out the key help line
+   * (for a menu asked again and again, under a result that needs the room).
+   */
+  choose<T>(message: string, choices: Choice<T>[], defaultValue?: T, brief?: boolean): Promise<T>;
   /** Asks to tick some of `choices`. */
   tick<T>(message: string, choices: (Choice<T> & { checked: boolean })[]): Promise<T[]>;
   /** Asks for a line of text, checked by `validate` (a message, or true). */
@@ -94,11 +97,15 @@ export function streamFlowIO(
     width: options.width,
     ascii: options.ascii,
     progress: options.progress,
-    choose: (message, choices, defaultValue) =>
-      select(
-        { message, choices, default: defaultValue, pageSize: 12, theme: selectTheme },
-        context,
-      ),
+    choose: (message, choices, defaultValue, brief) =>
+      select({
+        message,
+        choices,
+        default: defaultValue,
+        pageSize: 10,
+        // A help line of "" is dropped with the blank line above it.
+        theme: brief ? { ...selectTheme, style: { keysHelpTip: () => "" } } : selectTheme,
+      }, context),
     tick: (message, choices) =>
       checkbox({ message, choices, pageSize: 14, theme: tickTheme }, context),
     ask: (message, o = {}) =>

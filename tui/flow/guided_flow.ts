@@ -36,7 +36,7 @@ import {
   writeModelFile,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
-import { renderCompare, renderEstimate, renderSweep } from "../render/answer_view.ts";
+import { renderCompare, renderResult, renderSweep } from "../render/answer_view.ts";
 import { cautionLines } from "../render/cautions.ts";
 import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
@@ -237,22 +237,27 @@ async function whatIfLoop(
   const history: Profile[] = [];
   const scenarios: Scenario[] = [];
   let answer = estimateProfile(session, profile, 0.9);
-  io.say(["", ...renderEstimate(answer, result)].join("\n"));
+  io.say(["", ...renderResult(answer, result)].join("\n"));
   const ladder = promotionFeature(model);
   for (;;) {
-    const next: Next = await io.choose("What next?", [
-      { name: "Change one attribute", value: "change" },
-      ...(ladder >= 0
-        ? [{ name: `Promote one ${model.features[ladder].name}`, value: "promote" as const }]
-        : []),
-      { name: "Sweep one attribute (chart)", value: "sweep" },
-      { name: "Keep this profile as a scenario", value: "keep" },
-      { name: `Show the scenarios side by side (${scenarios.length})`, value: "list" },
-      ...(history.length > 0 ? [{ name: "Undo the last change", value: "undo" as const }] : []),
-      { name: "Start over with a new profile", value: "restart" },
-      { name: "Save the model and a report", value: "save" },
-      { name: "Quit", value: "quit" },
-    ]);
+    const next: Next = await io.choose(
+      "What next?",
+      [
+        { name: "Change one attribute", value: "change" },
+        ...(ladder >= 0
+          ? [{ name: `Promote one ${model.features[ladder].name}`, value: "promote" as const }]
+          : []),
+        { name: "Sweep one attribute (chart)", value: "sweep" },
+        { name: "Keep this profile as a scenario", value: "keep" },
+        { name: `Show the scenarios side by side (${scenarios.length})`, value: "list" },
+        ...(history.length > 0 ? [{ name: "Undo the last change", value: "undo" as const }] : []),
+        { name: "Start over with a new profile", value: "restart" },
+        { name: "Save the model and a report", value: "save" },
+        { name: "Quit", value: "quit" },
+      ],
+      undefined,
+      true,
+    );
     if (next === "quit") break;
     if (next === "change" || next === "promote") {
       const edit = next === "promote"
@@ -288,12 +293,12 @@ async function whatIfLoop(
     } else if (next === "undo") {
       profile = history.pop()!;
       answer = estimateProfile(session, profile, 0.9);
-      io.say(["", ...renderEstimate(answer, result)].join("\n"));
+      io.say(["", ...renderResult(answer, result)].join("\n"));
     } else if (next === "restart") {
       history.length = 0;
       profile = await buildProfile(io, model, tableText);
       answer = estimateProfile(session, profile, 0.9);
-      io.say(["", ...renderEstimate(answer, result)].join("\n"));
+      io.say(["", ...renderResult(answer, result)].join("\n"));
     } else if (next === "save") {
       await save(
         io,

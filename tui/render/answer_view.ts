@@ -12,7 +12,7 @@ import type { CompareAnswer, EstimateAnswer, SweepAnswer } from "../../mod.ts";
 import { histogram, intervalChart } from "./charts.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
-import { chartSymbols, tableChars } from "./glyphs.ts";
+import { chartSymbols, isAscii, tableChars } from "./glyphs.ts";
 
 /** What the views need. */
 export interface AnswerViewOptions {
@@ -344,5 +344,113 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
   }
   lines.push("", ...table.toString().split("\n"));
   for (const w of answer.warnings) lines.push(style.warn(`! ${w}`));
+  return lines;
+}
+
+/**
+ * A one-line histogram (a sparkline) of values between their lowest and
+ * highest: block heights, or ASCII steps under `--ascii`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { sparkline } from "./answer_view.ts";
+ * assert(sparkline([1, 2, 2, 3, 3, 3], 3) === "▃▅█");
+ * ```
+ */
+export function sparkline(values: readonly number[], bins: number): string {
+  const steps = isAscii() ? " .:-=+*#" : " ▁▂▃▄▅▆▇█";
+  const low = Math.min(...values);
+  const high = Math.max(...values);
+  const counts = new Array(bins).fill(0);
+  for (const v of values) {
+    counts[high > low ? Math.min(bins - 1, Math.floor(((v - low) / (high - low)) * bins)) : 0]++;
+  }
+  const top = Math.max(...counts);
+  return counts.map((c) =>
+    steps[c === 0 ? 0 : Math.max(1, Math.round((c / top) * (steps.length - 1)))]
+  )
+    .join("");
+}
+
+/**
+ * The guided flow's result screen: the same answer as
+ * {@linkcode renderEstimate} in about 14 lines, so that it and the next
+ * question fit an 80 x 24 terminal.
+ */
+export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions): string[] {
+  if (answer.classes) return renderEstimate(answer, { ...options, compact: true });
+  const { style, money } = options;
+  const pay = (x: number) => formatPay(x, money);
+  const wrap = (text: string, indent = "") =>
+    wrapAnsi(text, options.width - indent.length).split("\n").map((l) => indent + l);
+  const what = answer.target.scale === "log" ? "typical pay" : "mean pay";
+  const period = answer.target.period ? ` ${PERIOD[answer.target.period]}` : "";
+  const lines = [
+    `${style.bold(`Estimate of ${answer.target.name}:`)} ${style.bold(pay(answer.estimate))}` +
+    `${period} (${what})`,
+    ...wrap(style.dim(`for ${profileText(answer.profile)}`), "  "),
+  ];
+  for (const w of answer.warnings) lines.push(...wrap(style.warn(`! ${w}`)));
+  if (answer.confidence && answer.range) {
+    const c = answer.confidence;
+    const r = answer.range;
+    const pct = formatPercent(c.coverage).replace(".0", "");
+    const axis = Math.max(16, Math.min(34, options.width - 46));
+    const [sure, range] = intervalChart(
+      [
+        { label: "", low: c.low, high: c.high, text: "" },
+        { label: "", low: r.low, high: r.high, text: "" },
+      ],
+      answer.estimate,
+      axis,
+    ).map((l) => l.slice(2).trimEnd());
+    const a = `${pay(c.low)} - ${pay(c.high)}`;
+    const b = `${pay(r.low)} - ${pay(r.high)}`;
+    const width = Math.max(a.length, b.length);
+    lines.push(
+      `  how sure (${pct})  ${a.padEnd(width)}  ${sure}`,
+      `  range (${pct})     ${b.padEnd(width)}  ${range}`,
+      `  trees (${answer.trees.length})     ${pay(Math.min(...answer.trees))} ` +
+        `${sparkline(answer.trees, 20)} ${pay(Math.max(...answer.trees))}`,
+    );
+  }
+  lines.push(
+    ...wrap(
+      style.bold("Decision path") +
+        style.dim(
+          ` (one readable tree: ${pay(answer.referenceTree)}, ${
+            formatNumber(answer.leaf.rows, money)
+          } people in its last group)`,
+        ),
+    ),
+  );
+  const table = new Table({
+    chars: NO_BORDERS,
+    style: { head: [], border: [], "padding-left": 0, "padding-right": 2 },
+    colAligns: ["right", "left", "right", "right"],
+  });
+  answer.path.forEach((step, i) => {
+    table.push([
+      `${i + 1}`,
+      step.condition,
+      formatNumber(step.rows, money),
+      step.value === null ? "too few" : pay(step.value),
+    ]);
+  });
+  if (answer.path.length > 0) {
+    lines.push(...table.toString().split("\n").map((l) => `  ${l.trimEnd()}`));
+  }
+  const s = answer.support;
+  if (s.peers) {
+    lines.push(
+      ...wrap(
+        `${style.bold("Support:")} ${formatNumber(s.peers.rows, money)} people share ` +
+          `${s.peers.features[0]} ${s.peers.levels[0]} and ${s.peers.features[1]} ${
+            s.peers.levels[1]
+          }.`,
+      ),
+    );
+  }
   return lines;
 }
