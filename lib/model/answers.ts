@@ -10,6 +10,7 @@
 
 import type { Ensemble } from "../ensemble/fit_ensemble.ts";
 import { bootstrapCounts } from "../ensemble/bootstrap.ts";
+import { percentileInterval } from "../ensemble/intervals.ts";
 import { toMoney } from "../ensemble/pay_scale.ts";
 import {
   compareProfiles,
@@ -74,7 +75,12 @@ export interface EstimateAnswer {
    */
   estimate: number;
   /** Classification: the likeliest class and every class's share. */
-  classes?: { predicted: string; shares: Record<string, number> };
+  classes?: {
+    predicted: string;
+    shares: Record<string, number>;
+    /** Per class, the percentile interval of the trees' leaf shares (null without an ensemble). */
+    intervals: Record<string, { low: number; high: number }> | null;
+  };
   /** The reference tree's own estimate (its leaf). */
   referenceTree: number;
   /** How sure the estimate is (null without an ensemble). */
@@ -188,10 +194,14 @@ export function estimateProfile(
     const width = tree.width;
     const shares = new Float64Array(width);
     const trees = model.ensemble?.trees ?? [tree];
-    for (const t of trees) {
+    const perTree = Array.from({ length: width }, () => new Float64Array(trees.length));
+    trees.forEach((t, b) => {
       const leaf = applyValues(t, profile);
-      for (let c = 0; c < width; c++) shares[c] += t.value[leaf * width + c] / trees.length;
-    }
+      for (let c = 0; c < width; c++) {
+        shares[c] += t.value[leaf * width + c] / trees.length;
+        perTree[c][b] = t.value[leaf * width + c];
+      }
+    });
     let best = 0;
     for (let c = 1; c < width; c++) if (shares[c] > shares[best]) best = c;
     if (model.ensemble === null) warnings.push(NO_ENSEMBLE);
@@ -201,6 +211,12 @@ export function estimateProfile(
       classes: {
         predicted: classes![best],
         shares: Object.fromEntries(classes!.map((name, c) => [name, shares[c]])),
+        intervals: model.ensemble === null ? null : Object.fromEntries(
+          classes!.map((name, c) => {
+            const { low, high } = percentileInterval(perTree[c], coverage);
+            return [name, { low, high }];
+          }),
+        ),
       },
       referenceTree: tree.value[leafNode * width + best],
       confidence: null,

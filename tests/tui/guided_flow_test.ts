@@ -9,6 +9,7 @@ import {
   loadTable,
   openModel,
   typicalProfile,
+  writeModelFile,
 } from "../../mod.ts";
 import { DEMO_READ, guidedFlow } from "../../tui/flow/guided_flow.ts";
 import { formatPay, formatPercent } from "../../tui/render/numbers.ts";
@@ -151,4 +152,53 @@ Deno.test("--ascii: every character on screen is ASCII", async () => {
   } finally {
     setAscii(false);
   }
+});
+
+Deno.test("an unusable CSV is said and the first question comes again; then a saved model", async () => {
+  const dir = await Deno.makeTempDir();
+  const broken = `${dir}/broken.csv`;
+  await Deno.writeTextFile(broken, "level,pay\n");
+  const saved = `${dir}/model.json`;
+  await writeModelFile(saved, model);
+  const driver = flowDriver();
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.down, KEY.enter);
+  await driver.when("Path of the CSV file:", `${dir}/nothing.csv`, KEY.enter);
+  await driver.when("No file at");
+  await driver.when(
+    "Path of the CSV file:",
+    ..."\x7f".repeat(`${dir}/nothing.csv`.length),
+    broken,
+    KEY.enter,
+  );
+  await driver.when("has a header but no data rows");
+  await driver.when("What do you want to work with?", KEY.down, KEY.down, KEY.enter);
+  await driver.when("Path of the model file:", saved, KEY.enter);
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  const screen = driver.screen();
+  assert.match(screen, /Choose again, or Ctrl-C to stop\./);
+  const first = estimateProfile(session, typicalProfile(model), 0.9);
+  assert.ok(screen.includes(`Estimate of base_pay_eur: ${pay(first.estimate)} a year`));
+  await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("a class target (level): shares as bars with intervals, and the confusion matrix", async () => {
+  const driver = flowDriver();
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when(
+    "Which column should paygrove estimate?",
+    ...Array(5).fill(KEY.down),
+    KEY.enter,
+  );
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  const screen = driver.screen();
+  assert.match(screen, /Out-of-bag confusion matrix \(rows: actual class; columns: predicted\)/);
+  assert.match(screen, /Most likely level: G\d/);
+  assert.match(screen, /G\d +#+ +\d+\.\d% \(90%: \d+\.\d% - \d+\.\d%\)/);
 });

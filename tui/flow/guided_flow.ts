@@ -11,6 +11,7 @@ import { existsSync } from "node:fs";
 import {
   applyChanges,
   compareAnswer,
+  DataError,
   DEMO_COMPANY,
   demoCompanyCsv,
   describeProfile,
@@ -24,6 +25,7 @@ import {
   type Model,
   type ModelSession,
   openModel,
+  OptionError,
   type Profile,
   readForModel,
   readModelFile,
@@ -70,6 +72,30 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   io.say(style.bold("paygrove: what would our pay structure pay a person like this?"));
   io.say([...cautionLines(style, io.width), ""].join("\n"));
 
+  let model: Model | undefined;
+  let tableText: string | null = null;
+  // Until a model is in hand: a file that cannot be used is said, and the
+  // first question comes again.
+  while (model === undefined) {
+    try {
+      ({ model, tableText } = await chooseAndFit(io, options));
+    } catch (error) {
+      if (!(error instanceof DataError || error instanceof OptionError)) throw error;
+      io.say(io.style.warn(`! ${error.message}`));
+      io.say(io.style.dim("Choose again, or Ctrl-C to stop."));
+    }
+  }
+  const session = openModel(model);
+  const money = moneyStyle(model, { locale: options.locale });
+  await whatIfLoop(io, session, tableText, money, options);
+}
+
+/** Asks for the data and returns a fitted (or loaded) model. */
+async function chooseAndFit(
+  io: FlowIO,
+  options: FlowOptions,
+): Promise<{ model: Model; tableText: string | null }> {
+  const { style } = io;
   const start = await io.choose("What do you want to work with?", [
     {
       name: `The demo company (${DEMO_COMPANY}, 2,000 people)`,
@@ -151,9 +177,7 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
       ].join("\n"),
     );
   }
-  const session = openModel(model);
-  const money = moneyStyle(model, { locale: options.locale });
-  await whatIfLoop(io, session, tableText, money, options);
+  return { model, tableText };
 }
 
 /** Asks for the target and the features. */

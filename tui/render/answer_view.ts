@@ -9,7 +9,7 @@ import asciichart from "asciichart";
 import Table from "cli-table3";
 import wrapAnsi from "wrap-ansi";
 import type { CompareAnswer, EstimateAnswer, SweepAnswer } from "../../mod.ts";
-import { histogram, intervalChart } from "./charts.ts";
+import { barChart, histogram, intervalChart } from "./charts.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { chartSymbols, isAscii, tableChars } from "./glyphs.ts";
@@ -24,6 +24,8 @@ export interface AnswerViewOptions {
   money: NumberStyle;
   /** Fewer lines (the guided flow's result screen, under a menu). */
   compact?: boolean;
+  /** Coverage of the intervals (for labels). */
+  coverage?: number;
 }
 
 const PERIOD: Record<string, string> = {
@@ -63,8 +65,25 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
       `${style.bold(`Most likely ${answer.target.name}:`)} ${answer.classes.predicted} ` +
         `(${formatPercent(answer.estimate)} of the trees' votes)`,
     );
+    // Each class's share as a bar, with the interval of the trees' shares.
     const shares = Object.entries(answer.classes.shares).sort((a, b) => b[1] - a[1]);
-    lines.push(...wrap(shares.map(([c, s]) => `${c} ${formatPercent(s)}`).join(", "), "  "));
+    const intervals = answer.classes.intervals;
+    const pct = formatPercent(options.coverage ?? 0.9).replace(".0", "");
+    lines.push(
+      ...barChart(
+        shares.map(([c, share]) => ({
+          label: c,
+          value: share,
+          text: `${formatPercent(share)}` +
+            (intervals
+              ? ` (${pct}: ${formatPercent(intervals[c].low)} - ${
+                formatPercent(intervals[c].high)
+              })`
+              : ""),
+        })),
+        Math.min(40, options.width - 40),
+      ).map((l) => `  ${l}`),
+    );
   } else {
     const what = answer.target.scale === "log" ? "typical (median) pay" : "mean pay";
     lines.push(

@@ -130,7 +130,35 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
       if (a === null) continue;
       table.push([name, formatPercent(a.accuracy ?? NaN), by(a)]);
     }
-    return [style.bold("Accuracy (share classified correctly)"), ...table.toString().split("\n")];
+    const lines = [
+      style.bold("Accuracy (share classified correctly)"),
+      ...table.toString().split("\n"),
+    ];
+    const classes = q.ensemble?.classes;
+    if (classes) {
+      // Out-of-bag confusion matrix: rows are the actual class, columns the predicted one.
+      const names = model.target.classes!;
+      const matrix = new Table({
+        head: ["actual", ...names, "recall"].map(style.bold),
+        colAligns: ["left", ...names.map(() => "right" as const), "right"],
+        style: { head: [], border: [], compact: true },
+        ...(tableChars() ? { chars: tableChars() } : {}),
+      });
+      names.forEach((name, a) => {
+        matrix.push([
+          name,
+          ...classes.confusion[a].map((n) => formatNumber(n, options.numbers)),
+          formatPercent(classes.recall[a]),
+        ]);
+      });
+      matrix.push(["precision", ...classes.precision.map((p) => formatPercent(p)), ""]);
+      lines.push(
+        "",
+        style.bold("Out-of-bag confusion matrix (rows: actual class; columns: predicted)"),
+        ...matrix.toString().split("\n"),
+      );
+    }
+    return lines;
   }
   const log = model.target.scale === "log";
   const head = [
