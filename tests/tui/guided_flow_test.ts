@@ -202,3 +202,10 @@ Deno.test("a class target (level): shares as bars with intervals, and the confus
   assert.match(screen, /Most likely level: G\d/);
   assert.match(screen, /G\d +#+ +\d+\.\d% \(90%: \d+\.\d% - \d+\.\d%\)/);
 });
+
+Deno.test("Esc at a question stops the flow (as Ctrl-C does); arrow keys do not", async () => {
+  const driver = flowDriver();
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.down, KEY.up, "\x1b");
+  await assert.rejects(() => done, (e) => (e as Error).name === "AbortPromptError");
+});

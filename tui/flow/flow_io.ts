@@ -75,7 +75,22 @@ export function streamFlowIO(
   streams: PromptStreams,
   options: { style: Style; width: number; ascii: boolean; progress?: (text: string) => void },
 ): FlowIO {
-  const context = { input: streams.input, output: streams.output, clearPromptOnDone: false };
+  // Esc alone (not the start of an arrow key's sequence, which arrives in
+  // the same chunk) stops the prompt, as Ctrl-C does.
+  const withEsc = <T>(ask: (context: Record<string, unknown>) => Promise<T>): Promise<T> => {
+    const controller = new AbortController();
+    const onData = (chunk: Uint8Array | string) => {
+      const text = typeof chunk === "string" ? chunk : new TextDecoder().decode(chunk);
+      if (text === "\x1b") controller.abort();
+    };
+    streams.input.on("data", onData);
+    return ask({
+      input: streams.input,
+      output: streams.output,
+      clearPromptOnDone: false,
+      signal: controller.signal,
+    }).finally(() => streams.input.removeListener("data", onData));
+  };
   const prefix = { idle: "?", done: "+" };
   const help = (keys: [string, string][]) =>
     keys.map(([key, action]) => `${ASCII_KEYS[key] ?? key} ${action}`).join(", ");
@@ -98,27 +113,33 @@ export function streamFlowIO(
     ascii: options.ascii,
     progress: options.progress,
     choose: (message, choices, defaultValue, brief) =>
-      select({
-        message,
-        choices,
-        default: defaultValue,
-        pageSize: 10,
-        // A help line of "" is dropped with the blank line above it.
-        theme: brief ? { ...selectTheme, style: { keysHelpTip: () => "" } } : selectTheme,
-      }, context),
+      withEsc((context) =>
+        select({
+          message,
+          choices,
+          default: defaultValue,
+          pageSize: 10,
+          // A help line of "" is dropped with the blank line above it.
+          theme: brief ? { ...selectTheme, style: { keysHelpTip: () => "" } } : selectTheme,
+        }, context)
+      ),
     tick: (message, choices) =>
-      checkbox({ message, choices, pageSize: 14, theme: tickTheme }, context),
+      withEsc((context) => checkbox({ message, choices, pageSize: 14, theme: tickTheme }, context)),
     ask: (message, o = {}) =>
-      input({ message, default: o.default, validate: o.validate, theme }, context),
+      withEsc((context) =>
+        input({ message, default: o.default, validate: o.validate, theme }, context)
+      ),
     askNumber: async (message, o) =>
-      (await number({
-        message,
-        default: o.default,
-        min: o.min,
-        max: o.max,
-        step: "any",
-        required: true,
-        theme,
-      }, context)) as number,
+      (await withEsc((context) =>
+        number({
+          message,
+          default: o.default,
+          min: o.min,
+          max: o.max,
+          step: "any",
+          required: true,
+          theme,
+        }, context)
+      )) as number,
   };
 }

@@ -63,8 +63,8 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       trees: options.trees,
     });
   } catch (error) {
-    // Ctrl-C at a prompt: the prompt restores the terminal; say so and stop.
-    if ((error as Error).name === "ExitPromptError") {
+    // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and stop.
+    if (["ExitPromptError", "AbortPromptError"].includes((error as Error).name)) {
       io.say("\nStopped. Nothing more was written.");
       return 0;
     }
