@@ -8,6 +8,7 @@ import {
   fitModel,
   loadTable,
   openModel,
+  readModelFile,
   typicalProfile,
   writeModelFile,
 } from "../../mod.ts";
@@ -208,4 +209,36 @@ Deno.test("Esc at a question stops the flow (as Ctrl-C does); arrow keys do not"
   const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
   await driver.when("What do you want to work with?", KEY.down, KEY.up, "\x1b");
   await assert.rejects(() => done, (e) => (e as Error).name === "AbortPromptError");
+});
+
+Deno.test("step through every attribute, then save the model and a report", async () => {
+  const dir = await Deno.makeTempDir();
+  const driver = flowDriver();
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Start the profile from", KEY.down, KEY.down, KEY.enter);
+  await driver.when("job_family:", KEY.down, KEY.enter); // Field Service
+  await driver.when("level (lowest first):", KEY.down, KEY.down, KEY.enter); // G2 -> G4
+  await driver.when("years_experience (the data runs from 1 to 35.9):", "14", KEY.enter);
+  await driver.when("years_at_company", KEY.enter);
+  await driver.when("site:", KEY.enter);
+  await driver.when("performance_rating", KEY.enter);
+  await driver.when("education:", KEY.enter);
+  await driver.when("remote:", KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.up, KEY.enter); // Save
+  await driver.when("Save the model as:", `${dir}/m.json`, KEY.enter);
+  await driver.when("Save a report of the scenarios as", `${dir}/r.md`, KEY.enter);
+  await driver.when("Wrote the report");
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  const screen = driver.screen();
+  assert.match(screen, /for job_family Field Service, level G4, years_experience 14,/);
+  const saved = await readModelFile(`${dir}/m.json`);
+  assert.equal(saved.ensemble!.trees.length, TREES);
+  const report = await Deno.readTextFile(`${dir}/r.md`);
+  assert.match(report, /\| current \| €[\d,]+ \|/);
+  assert.match(report, /not what anyone should be paid/);
+  await Deno.remove(dir, { recursive: true });
 });
