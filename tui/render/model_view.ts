@@ -221,22 +221,28 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
 export function renderImportance(model: Model, options: ModelViewOptions): string[] {
   const { style } = options;
   const permutation = model.importance.some((i) => !Number.isNaN(i.permutation));
-  // Shares of the total make figures of very different sizes readable.
-  const total = model.importance.reduce(
-    (sum, i) => sum + Math.max(0, permutation ? i.permutation : i.impurity),
-    0,
-  );
-  const shareText = (x: number) =>
-    x <= 0 ? "0%" : x / total < 0.001 ? "<0.1%" : formatPercent(x / total);
+  // Permutation importance read as "how much larger the typical error gets
+  // when the attribute is scrambled": sqrt(1 + rise / out-of-bag MSE) - 1,
+  // on the scale the trees were fitted on.
+  const oob = model.quality.ensemble;
+  const rmse = model.target.scale === "log" ? oob?.log?.rmse : oob?.money?.rmse;
+  const mse = rmse !== undefined ? rmse * rmse : NaN;
+  const growth = (rise: number) => Math.sqrt(1 + Math.max(0, rise) / mse) - 1;
+  const growthText = (
+    g: number,
+  ) => (g < 0.001 ? "+0%" : `+${formatPercent(g).replace(".0%", "%")}`);
   const items = [...model.importance]
-    .map((i) => ({
-      label: i.feature,
-      value: permutation ? i.permutation : i.impurity,
-      text: permutation ? shareText(i.permutation) : formatPercent(i.impurity),
-    }))
+    .map((i) => {
+      const g = growth(i.permutation);
+      return {
+        label: i.feature,
+        value: permutation ? g : i.impurity,
+        text: permutation ? growthText(g) : formatPercent(i.impurity),
+      };
+    })
     .sort((a, b) => b.value - a.value);
   const title = permutation
-    ? "Importance: each attribute's share of the rise in out-of-bag error when shuffled"
+    ? "Importance: how much larger the typical error gets when an attribute is scrambled"
     : "Importance: share of the trees' impurity decrease (favours many-valued attributes)";
   return [
     style.bold(title),
