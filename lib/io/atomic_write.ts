@@ -57,9 +57,13 @@ export async function writeFileAtomic(
     await Deno.rename(temporary, path);
   } catch (error) {
     await Deno.remove(temporary).catch(() => {});
-    throw new DataError(
-      `${option}: cannot write ${path} (${(error as Error).message.split("\n")[0]})`,
-    );
+    // Said without the temporary file's name, which means nothing to anyone.
+    const why = error instanceof Deno.errors.NotFound
+      ? "its folder does not exist"
+      : error instanceof Deno.errors.PermissionDenied || error instanceof Deno.errors.NotCapable
+      ? "not allowed to write there"
+      : (error as Error).message.split("\n")[0].replace(/[:,]? ?(open|rename) '.*$/, "");
+    throw new DataError(`${option}: cannot write ${path} (${why})`);
   }
 }
 

@@ -241,6 +241,12 @@ export function estimateProfile(
     };
   }
   const reading = readProfile(reader, profile, coverage);
+  if (reading.howSure.low < reading.range.low || reading.howSure.high > reading.range.high) {
+    warnings.push(
+      "the trees disagree about such a profile more than comparable people's pay differs: " +
+        "there are few people like it, so both intervals rest on little",
+    );
+  }
   return { ...base, ...fromReading(reading), referenceTree, warnings };
 }
 
@@ -499,7 +505,9 @@ export function sweepAnswer(
       );
     }
   }
-  const unusual = points.filter((p) => p.unusual).map((p) => String(p.value));
+  const unusual = points.filter((p) => p.unusual).map((p) =>
+    typeof p.value === "number" ? String(Number(p.value.toPrecision(4))) : p.value
+  );
   if (unusual.length > 0) {
     notes.push(
       `unusual for the data (few comparable people) at ${f.name} ${unusual.join(", ")}; ` +

@@ -467,8 +467,13 @@ export async function readModelFile(path: string): Promise<Model> {
 /**
  * Writes a model file atomically; an existing file is kept unless `force`.
  */
-export async function writeModelFile(path: string, model: Model, force = false): Promise<number> {
+export async function writeModelFile(
+  path: string,
+  model: Model,
+  force = false,
+  option = "--out",
+): Promise<number> {
   const text = modelToText(model);
-  await writeFileAtomic(path, text, { force, option: "--out" });
+  await writeFileAtomic(path, text, { force, option });
   return new TextEncoder().encode(text).length;
 }

@@ -68,7 +68,7 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
   const screen = driver.screen();
 
   // The data check shows the protected column unticked, with the reason.
-  assert.match(screen, /gender \(protected attribute: left out of pay estimates\)/);
+  assert.match(screen, /gender \(protected attribute; unticked by default\)/);
   // The summary: accuracy side by side.
   assert.match(screen, /ensemble, 30 trees/);
   // The typical person's estimate and intervals, as the library gives them.
@@ -240,5 +240,42 @@ Deno.test("step through every attribute, then save the model and a report", asyn
   const report = await Deno.readTextFile(`${dir}/r.md`);
   assert.match(report, /\| current \| €[\d,]+ \|/);
   assert.match(report, /not what anyone should be paid/);
+  await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("from a newcomer's trial: values as typed, the person's own pay, a bad save path, what-ifs in the report", async () => {
+  const dir = await Deno.makeTempDir();
+  const driver = flowDriver();
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Start the profile from", KEY.down, KEY.enter);
+  await driver.when("employee_id of the person (e.g. FH10001):", "fh10001", KEY.enter);
+  await driver.when("FH10001's pay in the table: €143,100");
+  // G7 is the top level: no promotion to show.
+  await driver.when("What next?", KEY.down, KEY.enter);
+  await driver.when("G7 is the top level: there is no promotion to show.");
+  // A negative number is a value, not a step down.
+  await driver.when("What next?", KEY.enter);
+  await driver.when("Change which attribute?", ...Array(3).fill(KEY.down), KEY.enter);
+  await driver.when("years_at_company (the data runs", "-1", KEY.enter);
+  await driver.when("What-if: years_at_company 18.9 -> -1");
+  // Save to a folder that does not exist: said, and the session goes on.
+  await driver.when("What next?", KEY.up, KEY.up, KEY.enter);
+  await driver.when("Save the model as:", `${dir}/no/such/m.json`, KEY.enter);
+  await driver.when("save: cannot write");
+  await driver.when("What next?", KEY.up, KEY.up, KEY.enter);
+  await driver.when("Save the model as:", `${dir}/m.json`, KEY.enter);
+  await driver.when("Save a report of the scenarios as", `${dir}/r.md`, KEY.enter);
+  await driver.when("Wrote the report");
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  assert.match(
+    driver.screen(),
+    /save: cannot write .*no\/such\/m\.json \(its folder does not exist\)/,
+  );
+  const report = await Deno.readTextFile(`${dir}/r.md`);
+  assert.match(report, /\| years_at_company 18\.9 -> -1 \| €[\d,]+ \| €[\d,]+ \| [+-]?€[\d,]+ \(/);
   await Deno.remove(dir, { recursive: true });
 });

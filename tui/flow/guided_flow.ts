@@ -10,6 +10,8 @@
 import { existsSync } from "node:fs";
 import {
   applyChanges,
+  applySets,
+  type CompareAnswer,
   compareAnswer,
   DataError,
   DEMO_COMPANY,
@@ -209,7 +211,7 @@ async function chooseColumns(
   const features = await io.tick(
     "Which attributes may explain it? (space to tick, enter to go on)",
     candidates.map((c) => ({
-      name: c.protected ? `${c.name} (protected attribute: left out of pay estimates)` : c.name,
+      name: c.protected ? `${c.name} (protected attribute; unticked by default)` : c.name,
       value: c.name,
       checked: !c.protected,
     })),
@@ -257,11 +259,26 @@ async function whatIfLoop(
   const { model } = session;
   const view = { style: io.style, width: io.width, money };
   const result = { ...view, compact: true };
-  let profile = await buildProfile(io, model, tableText);
+  let built = await buildProfile(io, model, tableText);
+  let profile = built.profile;
   const history: Profile[] = [];
   const scenarios: Scenario[] = [];
+  const whatIfs: CompareAnswer[] = [];
   let answer = estimateProfile(session, profile, 0.9);
-  io.say(["", ...renderResult(answer, result)].join("\n"));
+  const showResult = () => {
+    const lines = renderResult(answer, result);
+    if (built.person) {
+      lines.splice(
+        1,
+        0,
+        io.style.dim(
+          `  ${built.person.id}'s pay in the table: ${formatPay(built.person.pay, money)}`,
+        ),
+      );
+    }
+    io.say(["", ...lines].join("\n"));
+  };
+  showResult();
   const ladder = promotionFeature(model);
   for (;;) {
     const next: Next = await io.choose(
@@ -283,19 +300,53 @@ async function whatIfLoop(
       true,
     );
     if (next === "quit") break;
-    if (next === "change" || next === "promote") {
-      const edit = next === "promote"
-        ? `${model.features[ladder].name}=+1`
-        : await editOne(io, model, profile);
-      let changed: Profile;
-      try {
-        changed = applyChanges(model, profile, [edit]).profile;
-      } catch (error) {
-        io.say(io.style.warn((error as Error).message.replace(/^--change: /, "")));
+    try {
+      await act(next);
+    } catch (error) {
+      // Esc inside an action goes back to this menu; a file that cannot be
+      // written is said, and nothing of the session is lost.
+      if ((error as Error).name === "AbortPromptError") {
+        io.say(io.style.dim("(cancelled)"));
         continue;
       }
+      if (error instanceof DataError || error instanceof OptionError) {
+        io.say(io.style.warn(`! ${error.message}`));
+        continue;
+      }
+      throw error;
+    }
+  }
+  if (options.report !== undefined) {
+    await writeReport(
+      io,
+      model,
+      scenarios.length > 0 ? scenarios : [{ name: "current", answer }],
+      whatIfs,
+      options.report,
+    );
+  }
+  io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
+
+  async function act(next: Next): Promise<void> {
+    if (next === "change" || next === "promote") {
+      let changed: Profile;
+      if (next === "promote") {
+        const f = model.features[ladder];
+        if (profile[ladder] >= f.levels!.length - 1) {
+          io.say(
+            io.style.warn(
+              `${f.levels![profile[ladder]]} is the top ${f.name}: there is no promotion to show.`,
+            ),
+          );
+          return;
+        }
+        changed = applyChanges(model, profile, [`${f.name}=+1`]).profile;
+      } else {
+        changed = applySets(model, profile, [await editOne(io, model, profile)]).profile;
+      }
       const what = compareAnswer(session, profile, changed, 0.9);
-      io.say(["", ...renderCompare(what, view)].join("\n"));
+      io.say(["", ...renderCompare(what, { ...view, compact: true })].join("\n"));
+      whatIfs.push(what);
       history.push(profile);
       profile = changed;
       answer = what.changed;
@@ -317,30 +368,23 @@ async function whatIfLoop(
     } else if (next === "undo") {
       profile = history.pop()!;
       answer = estimateProfile(session, profile, 0.9);
-      io.say(["", ...renderResult(answer, result)].join("\n"));
+      showResult();
     } else if (next === "restart") {
       history.length = 0;
-      profile = await buildProfile(io, model, tableText);
+      built = await buildProfile(io, model, tableText);
+      profile = built.profile;
       answer = estimateProfile(session, profile, 0.9);
-      io.say(["", ...renderResult(answer, result)].join("\n"));
+      showResult();
     } else if (next === "save") {
       await save(
         io,
         model,
         scenarios.length > 0 ? scenarios : [{ name: "current", answer }],
+        whatIfs,
         options,
       );
     }
   }
-  if (options.report !== undefined) {
-    await writeReport(
-      io,
-      model,
-      scenarios.length > 0 ? scenarios : [{ name: "current", answer }],
-      options.report,
-    );
-  }
-  io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
 }
 
 /** The ordinal feature a promotion moves: the first named like a level, else the first ordinal. */
@@ -351,7 +395,11 @@ export function promotionFeature(model: Model): number {
 }
 
 /** Asks how to start the profile, and builds it. */
-async function buildProfile(io: FlowIO, model: Model, tableText: string | null): Promise<Profile> {
+async function buildProfile(
+  io: FlowIO,
+  model: Model,
+  tableText: string | null,
+): Promise<{ profile: Profile; person?: { id: string; pay: number } }> {
   const id = model.read.identifier;
   const how = await io.choose("Start the profile from", [
     {
@@ -366,20 +414,27 @@ async function buildProfile(io: FlowIO, model: Model, tableText: string | null):
   let profile = typicalProfile(model);
   if (how === "row") {
     const rows = readForModel(model, tableText!, "the table");
-    const answer = await io.ask(`${id} of the person:`, {
-      validate: (text) =>
-        rows.ids.includes(text.trim()) ? true : `No one has ${id} "${text.trim()}" in the table`,
+    // Case does not matter; the question shows what an id looks like.
+    const find = (text: string) =>
+      rows.ids.findIndex((v) => v.toLowerCase() === text.trim().toLowerCase());
+    const answer = await io.ask(`${id} of the person (e.g. ${rows.ids[0]}):`, {
+      validate: (text) => find(text) >= 0 ? true : `No one has ${id} "${text.trim()}" in the table`,
     });
-    profile = rowProfile(rows, rows.ids.indexOf(answer.trim()));
+    const r = find(answer);
+    profile = rowProfile(rows, r);
+    const pay = rows.target?.[r];
+    if (pay !== undefined && !Number.isNaN(pay)) {
+      return { profile, person: { id: rows.ids[r], pay } };
+    }
   } else if (how === "step") {
+    // Values are set as typed (a negative number is a value, not a step).
     for (let f = 0; f < model.features.length; f++) {
-      profile = applyChanges(model, profile, [
+      profile = applySets(model, profile, [
         `${model.features[f].name}=${await askValue(io, model, profile, f)}`,
-      ])
-        .profile;
+      ]).profile;
     }
   }
-  return profile;
+  return { profile };
 }
 
 /** Asks which attribute to change and its new value; returns `name=value`. */
@@ -430,7 +485,13 @@ function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO):
   return lines;
 }
 
-async function save(io: FlowIO, model: Model, scenarios: Scenario[], options: FlowOptions) {
+async function save(
+  io: FlowIO,
+  model: Model,
+  scenarios: Scenario[],
+  whatIfs: CompareAnswer[],
+  options: FlowOptions,
+) {
   const path = await io.ask("Save the model as:", { default: "paygrove-model.json" });
   let force = false;
   if (existsSync(path)) {
@@ -440,24 +501,30 @@ async function save(io: FlowIO, model: Model, scenarios: Scenario[], options: Fl
     ]);
     if (!force) return;
   }
-  const bytes = await writeModelFile(path, model, force);
+  const bytes = await writeModelFile(path, model, force, "save");
   io.say(io.style.dim(`Saved the model to ${path} (${(bytes / 1e6).toFixed(1)} MB).`));
   const report = options.report ??
     await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
       default: "paygrove-report.md",
     });
-  await writeReport(io, model, scenarios, report);
+  await writeReport(io, model, scenarios, whatIfs, report);
 }
 
-async function writeReport(io: FlowIO, model: Model, scenarios: Scenario[], path: string) {
+async function writeReport(
+  io: FlowIO,
+  model: Model,
+  scenarios: Scenario[],
+  whatIfs: CompareAnswer[],
+  path: string,
+) {
   const jsonPath = path.replace(/\.md$/, "") + ".json";
-  await writeFileAtomic(path, reportMarkdown(model, scenarios), {
+  await writeFileAtomic(path, reportMarkdown(model, scenarios, whatIfs), {
     force: true,
-    option: "--report",
+    option: "report",
   });
-  await writeFileAtomic(jsonPath, JSON.stringify(reportJson(model, scenarios), null, 2), {
+  await writeFileAtomic(jsonPath, JSON.stringify(reportJson(model, scenarios, whatIfs), null, 2), {
     force: true,
-    option: "--report",
+    option: "report",
   });
   io.say(io.style.dim(`Wrote the report to ${path} and ${jsonPath}.`));
 }

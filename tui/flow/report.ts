@@ -1,12 +1,13 @@
 /**
- * The report of a guided session: the scenarios kept, as Markdown for
- * people and JSON for scripts, with the cautions and the provenance.
+ * The report of a guided session: the scenarios kept and the what-ifs
+ * asked, as Markdown for people and JSON for scripts, with the cautions and
+ * the provenance.
  *
  * @module
  */
 
-import type { EstimateAnswer, Model } from "../../mod.ts";
-import { formatPay } from "../render/numbers.ts";
+import type { CompareAnswer, EstimateAnswer, Model } from "../../mod.ts";
+import { formatPay, formatPercent } from "../render/numbers.ts";
 
 /** A profile kept by name, with what the model said about it. */
 export interface Scenario {
@@ -25,10 +26,14 @@ const CAUTION = "These figures describe what the current pay structure does, not
  *
  * @example
  * ```ts ignore
- * const text = reportMarkdown(model, [{ name: "offer", answer }]);
+ * const text = reportMarkdown(model, [{ name: "offer", answer }], []);
  * ```
  */
-export function reportMarkdown(model: Model, scenarios: Scenario[]): string {
+export function reportMarkdown(
+  model: Model,
+  scenarios: Scenario[],
+  whatIfs: CompareAnswer[] = [],
+): string {
   const money = { currency: model.target.money?.currency };
   const pay = (x: number | undefined) => (x === undefined ? "-" : formatPay(x, money));
   const p = model.provenance;
@@ -48,21 +53,51 @@ export function reportMarkdown(model: Model, scenarios: Scenario[]): string {
       );
       return `| ${s.name} | ${pay(a.estimate)} | ${sure} | ${range} | ${profile} |`;
     }),
+  ];
+  if (whatIfs.length > 0) {
+    lines.push(
+      "",
+      "| what-if | base | changed | change | how sure the change is (90%) |",
+      "| --- | ---: | ---: | ---: | ---: |",
+      ...whatIfs.map((w) => {
+        const d = w.difference;
+        const change = `${d.estimate >= 0 ? "+" : ""}${pay(d.estimate)} (${
+          formatPercent(d.relative.estimate, true)
+        })`;
+        const sure = d.low === null || d.high === null ? "-" : `${pay(d.low)} to ${pay(d.high)}`;
+        const what = w.changes.map((c) => `${c.feature} ${c.from} -> ${c.to}`).join(", ");
+        return `| ${what} | ${pay(w.base.estimate)} | ${
+          pay(w.changed.estimate)
+        } | ${change} | ${sure} |`;
+      }),
+    );
+  }
+  lines.push(
     "",
     `Model: ${model.ensemble?.trees.length ?? 0} trees on ${p.table.file} (sha256 ` +
-    `${p.table.sha256}), fitted ${p.created} by paygrove ${p.paygrove} (model format ` +
-    `${p.format}), seed ${p.seed}.`,
+      `${p.table.sha256}), fitted ${p.created} by paygrove ${p.paygrove} (model format ` +
+      `${p.format}), seed ${p.seed}.`,
     "",
-  ];
+  );
   return lines.join("\n");
 }
 
 /** The report as a JSON document. */
-export function reportJson(model: Model, scenarios: Scenario[]): Record<string, unknown> {
+export function reportJson(
+  model: Model,
+  scenarios: Scenario[],
+  whatIfs: CompareAnswer[] = [],
+): Record<string, unknown> {
   return {
     target: model.target,
     caution: CAUTION,
     scenarios: scenarios.map((s) => ({ name: s.name, ...s.answer })),
+    whatIfs: whatIfs.map((w) => ({
+      changes: w.changes,
+      base: w.base.estimate,
+      changed: w.changed.estimate,
+      difference: w.difference,
+    })),
     provenance: model.provenance,
   };
 }

@@ -55,6 +55,13 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       progress: terminal.progress,
     },
   );
+  // Ctrl-C while fitting (no question is being asked, so the terminal is
+  // in its normal mode and sends a signal): say so, as at a question.
+  const onInterrupt = () => {
+    io.say("\nStopped. Nothing more was written.");
+    Deno.exit(130);
+  };
+  Deno.addSignalListener("SIGINT", onInterrupt);
   try {
     await guidedFlow(io, {
       demoPath: DEMO_TABLE,
@@ -69,6 +76,8 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       return 0;
     }
     throw error;
+  } finally {
+    Deno.removeSignalListener("SIGINT", onInterrupt);
   }
   return 0;
 }

@@ -253,7 +253,7 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
       `${style.bold("Change:")} ${sign}${pay(Math.abs(d.estimate))} ` +
         `(${formatPercent(d.relative.estimate, true)})${interval}`,
     ),
-    ...(d.low !== null
+    ...(d.low !== null && !options.compact
       ? wrap(
         style.dim(
           "How sure the change is: each tree estimates both profiles, so errors the two share " +
@@ -274,7 +274,8 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
   );
   const warnings = [...new Set([...answer.base.warnings, ...answer.changed.warnings])];
   for (const w of warnings) lines.push(...wrap(style.warn(`! ${w}`)));
-  return lines;
+  // Under the flow's menu, blank lines cost the screen room.
+  return options.compact ? lines.filter((l) => l !== "") : lines;
 }
 
 function signed(x: number, pay: (x: number) => string): string {
@@ -308,10 +309,13 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
       { length: width },
       (_, i) => values[Math.min(values.length - 1, Math.floor((i * values.length) / width))],
     );
+  const all = series.flat().filter(Number.isFinite);
+  const labelWidth = Math.max(pay(Math.min(...all)).length, pay(Math.max(...all)).length) + 1;
   const chart = asciichart.plot(series.map(stretch), {
     height: 10,
     ...(chartSymbols() ? { symbols: chartSymbols() } : {}),
-    format: (x: number) => pay(x).padStart(10),
+    // Every label as wide as the widest, so the axis stays in one column.
+    format: (x: number) => pay(x).padStart(labelWidth),
     colors: style.enabled
       ? [
         asciichart.default,

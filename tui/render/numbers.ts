@@ -93,7 +93,8 @@ export function describeUnit(unit: MoneyUnit, currency?: string): string {
  * ```
  */
 export function formatPay(value: number, style: NumberStyle): string {
-  const digits = Math.abs(value) >= 100 ? 0 : 2;
+  // Whole units from 100 up, and for nothing at all (not "0.00").
+  const digits = Math.abs(value) >= 100 || value === 0 ? 0 : 2;
   if (style.currency === undefined) return formatNumber(value, style, digits);
   return new Intl.NumberFormat(style.locale ?? "en-US", {
     style: "currency",
