@@ -17,6 +17,8 @@ export interface Choice<T> {
   value: T;
   /** A line of help shown while the choice is highlighted. */
   description?: string;
+  /** Shown but not choosable, with this reason. */
+  disabled?: string | boolean;
 }
 
 /** The streams and terminal facts of a flow. */

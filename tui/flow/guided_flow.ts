@@ -44,6 +44,8 @@ import { renderCompare, renderResult, renderSweep } from "../render/answer_view.
 import { cautionLines } from "../render/cautions.ts";
 import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
+import CliTable from "cli-table3";
+import { tableChars } from "../render/glyphs.ts";
 import { renderSchema } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
@@ -291,7 +293,12 @@ async function whatIfLoop(
         { name: "Sweep one attribute (chart)", value: "sweep" },
         { name: "Keep this profile as a scenario", value: "keep" },
         { name: `Show the scenarios side by side (${scenarios.length})`, value: "list" },
-        ...(history.length > 0 ? [{ name: "Undo the last change", value: "undo" as const }] : []),
+        // Always listed, so the choices keep their places; off until there is a change.
+        {
+          name: "Undo the last change",
+          value: "undo" as const,
+          ...(history.length === 0 ? { disabled: "(nothing to undo yet)" } : {}),
+        },
         { name: "Start over with a new profile", value: "restart" },
         { name: "Save the model and a report", value: "save" },
         { name: "Quit", value: "quit" },
@@ -476,12 +483,44 @@ function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO):
     return [io.style.dim('No scenario kept yet: choose "Keep this profile".')];
   }
   const pay = (x: number) => formatPay(x, money);
-  const lines = [io.style.bold("Scenarios")];
-  for (const s of scenarios) {
-    const a = s.answer;
-    const range = a.range ? `range ${pay(a.range.low)} - ${pay(a.range.high)}` : "no range";
-    lines.push(`  ${s.name.padEnd(16)} ${pay(a.estimate).padStart(10)}  ${range}`);
+  // Side by side: one column per scenario (the last four fit 80 columns),
+  // the attributes that differ first, then the figures.
+  const shown = scenarios.slice(-4);
+  const names = Object.keys(shown[0].answer.profile);
+  const differs = names.filter((n) =>
+    shown.some((s) => String(s.answer.profile[n]) !== String(shown[0].answer.profile[n]))
+  );
+  const table = new CliTable({
+    head: ["", ...shown.map((s) => s.name)].map(io.style.bold),
+    colAligns: ["left", ...shown.map(() => "right" as const)],
+    style: { head: [], border: [], compact: true },
+    ...(tableChars() ? { chars: tableChars() } : {}),
+  });
+  for (const n of differs) {
+    table.push([
+      n,
+      ...shown.map((s) => String(s.answer.profile[n] ?? "missing")),
+    ]);
   }
+  table.push(["estimate", ...shown.map((s) => pay(s.answer.estimate))]);
+  table.push([
+    "how sure (90%)",
+    ...shown.map((
+      s,
+    ) => (s.answer.confidence
+      ? `${pay(s.answer.confidence.low)}-${pay(s.answer.confidence.high)}`
+      : "-")
+    ),
+  ]);
+  table.push([
+    "range (90%)",
+    ...shown.map((
+      s,
+    ) => (s.answer.range ? `${pay(s.answer.range.low)}-${pay(s.answer.range.high)}` : "-")),
+  ]);
+  const lines = [io.style.bold(`Scenarios${scenarios.length > 4 ? " (the last four)" : ""}`)];
+  lines.push(...table.toString().split("\n"));
+  if (differs.length === 0) lines.push(io.style.dim("The scenarios have the same attributes."));
   return lines;
 }
 

@@ -438,18 +438,26 @@ export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions)
         `${sparkline(answer.trees, 20)} ${pay(Math.max(...answer.trees))}`,
     );
   }
+  // The last step shows the leaf's people and pay; the header says how
+  // many people share the profile's two most important levels.
+  const peers = answer.support.peers;
   lines.push(
     ...wrap(
-      style.bold("Decision path") +
-        style.dim(
-          ` (one readable tree: ${pay(answer.referenceTree)}, ${
-            formatNumber(answer.leaf.rows, money)
-          } people in its last group)`,
-        ),
+      style.bold("Decision path of one readable tree") +
+        (peers
+          ? style.dim(
+            ` (${formatNumber(peers.rows, money)} people share ${peers.levels[0]} and ${
+              peers.levels[1]
+            })`,
+          )
+          : ""),
     ),
   );
   const table = new Table({
     chars: NO_BORDERS,
+    head: ["", "", "people", answer.target.scale === "log" ? "typical pay" : "mean pay"].map(
+      style.dim,
+    ),
     style: { head: [], border: [], "padding-left": 0, "padding-right": 2 },
     colAligns: ["right", "left", "right", "right"],
   });
@@ -463,17 +471,6 @@ export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions)
   });
   if (answer.path.length > 0) {
     lines.push(...table.toString().split("\n").map((l) => `  ${l.trimEnd()}`));
-  }
-  const s = answer.support;
-  if (s.peers) {
-    lines.push(
-      ...wrap(
-        `${style.bold("Support:")} ${formatNumber(s.peers.rows, money)} people share ` +
-          `${s.peers.features[0]} ${s.peers.levels[0]} and ${s.peers.features[1]} ${
-            s.peers.levels[1]
-          }.`,
-      ),
-    );
   }
   return lines;
 }
