@@ -36,7 +36,9 @@ export function buildProgram(terminal: Terminal): Command {
   const program = new Command("paygrove")
     .description(
       "Pay what-if analysis from your own pay table, on the command line. " +
-        "Pay data never leaves this machine.",
+        "Pay data never leaves this machine.\n\nWith no command, paygrove asks its questions " +
+        "one at a time (the guided flow; options --ascii, --report FILE, --locale TAG, " +
+        "--trees N).",
     )
     .version(VERSION, "-V, --version", "print paygrove's version");
   configure(program, terminal);

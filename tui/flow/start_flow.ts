@@ -42,7 +42,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     terminal.err(
       "paygrove: the guided flow needs a terminal to ask its questions, and standard input is " +
         "not one. In scripts use the subcommands: paygrove fit, estimate, compare, sweep, batch, " +
-        "inspect (paygrove --help lists them).",
+        "inspect (paygrove --help, or deno task paygrove --help, lists them).",
     );
     return 2;
   }
