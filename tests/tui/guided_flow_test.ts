@@ -44,6 +44,13 @@ const model = await fitModel(table, {
 const session = openModel(model);
 const pay = (x: number) => formatPay(x, { currency: "EUR" });
 
+// The demo table, the suggested pay column and attributes: the fit.
+async function demoFitted(driver: ReturnType<typeof flowDriver>): Promise<void> {
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+}
+
 Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit", async () => {
   const driver = flowDriver();
   const dir = await Deno.makeTempDir();
@@ -53,9 +60,7 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
     workers: 1,
     report: `${dir}/report.md`,
   });
-  await driver.when("What do you want to work with?", KEY.enter);
-  await driver.when("Which column should paygrove estimate?", KEY.enter);
-  await driver.when("Which attributes may explain it?", KEY.enter);
+  await demoFitted(driver);
   await driver.when("Start the profile from", KEY.enter);
   await driver.when("What next?", KEY.down, KEY.enter); // Promote one level
   await driver.when(/What next\?[\s\S]*What next\?/, KEY.down, KEY.down, KEY.down, KEY.enter);
@@ -110,9 +115,7 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
 Deno.test("an existing person by id, change one attribute, sweep a level attribute", async () => {
   const driver = flowDriver();
   const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
-  await driver.when("What do you want to work with?", KEY.enter);
-  await driver.when("Which column should paygrove estimate?", KEY.enter);
-  await driver.when("Which attributes may explain it?", KEY.enter);
+  await demoFitted(driver);
   await driver.when("Start the profile from", KEY.down, KEY.enter);
   await driver.when("employee_id of the person", "FH99999", KEY.enter);
   await driver.when('No one has employee_id "FH99999"');
@@ -215,9 +218,7 @@ Deno.test("step through every attribute, then save the model and a report", asyn
   const dir = await Deno.makeTempDir();
   const driver = flowDriver();
   const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
-  await driver.when("What do you want to work with?", KEY.enter);
-  await driver.when("Which column should paygrove estimate?", KEY.enter);
-  await driver.when("Which attributes may explain it?", KEY.enter);
+  await demoFitted(driver);
   await driver.when("Start the profile from", KEY.down, KEY.down, KEY.enter);
   await driver.when("job_family:", KEY.down, KEY.enter); // Field Service
   await driver.when("level (lowest first):", KEY.down, KEY.down, KEY.enter); // G2 -> G4
@@ -247,9 +248,7 @@ Deno.test("from a newcomer's trial: values as typed, the person's own pay, a bad
   const dir = await Deno.makeTempDir();
   const driver = flowDriver();
   const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
-  await driver.when("What do you want to work with?", KEY.enter);
-  await driver.when("Which column should paygrove estimate?", KEY.enter);
-  await driver.when("Which attributes may explain it?", KEY.enter);
+  await demoFitted(driver);
   await driver.when("Start the profile from", KEY.down, KEY.enter);
   await driver.when("employee_id of the person (e.g. FH10001):", "fh10001", KEY.enter);
   await driver.when("FH10001's pay in the table: €143,100");

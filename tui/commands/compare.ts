@@ -5,12 +5,11 @@
  * @module
  */
 
-import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import { applyChanges, compareAnswer, openModel, OptionError, readModelFile } from "../../mod.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderCompare } from "../render/answer_view.ts";
-import { cautionLines, provenanceLine } from "../render/cautions.ts";
+import { withCautions } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { jsonNumbers } from "./fit.ts";
@@ -52,17 +51,18 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
       }
       const style = terminal.style;
       terminal.out(
-        [
-          ...renderCompare(answer, {
-            style,
-            width: terminal.width,
-            money: moneyStyle(model, { locale: flags.locale }),
-          }),
-          "",
-          ...cautionLines(style, terminal.width),
-          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
-            .split("\n"),
-        ].join("\n"),
+        withCautions(
+          [
+            ...renderCompare(answer, {
+              style,
+              width: terminal.width,
+              money: moneyStyle(model, { locale: flags.locale }),
+            }),
+          ],
+          model.provenance,
+          style,
+          terminal.width,
+        ),
       );
     });
 }

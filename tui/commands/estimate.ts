@@ -4,13 +4,12 @@
  * @module
  */
 
-import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import { estimateProfile, openModel, outOfBagEstimate, readModelFile } from "../../mod.ts";
 import { formatPay } from "../render/numbers.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderEstimate } from "../render/answer_view.ts";
-import { cautionLines, provenanceLine } from "../render/cautions.ts";
+import { withCautions } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { jsonNumbers } from "./fit.ts";
@@ -47,18 +46,19 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
     }
     const style = terminal.style;
     terminal.out(
-      [
-        ...renderEstimate(answer, {
-          style,
-          width: terminal.width,
-          money: moneyStyle(model, { locale: flags.locale }),
-        }),
-        style.dim(`Started from ${start}.`),
-        "",
-        ...cautionLines(style, terminal.width),
-        ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
-          .split("\n"),
-      ].join("\n"),
+      withCautions(
+        [
+          ...renderEstimate(answer, {
+            style,
+            width: terminal.width,
+            money: moneyStyle(model, { locale: flags.locale }),
+          }),
+          style.dim(`Started from ${start}.`),
+        ],
+        model.provenance,
+        style,
+        terminal.width,
+      ),
     );
   });
 }

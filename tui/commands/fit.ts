@@ -18,7 +18,7 @@ import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
 import { list, loadOptions, withTableFlags } from "../table_flags.ts";
-import { cautionLines, provenanceLine } from "../render/cautions.ts";
+import { withCautions } from "../render/cautions.ts";
 
 /** Parses a whole number of at least `min`. */
 export function wholeNumber(min: number) {
@@ -211,17 +211,21 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         numbers: { locale: flags.locale, currency: flags.currency },
       };
       terminal.out(
-        [
-          style.bold(
-            `paygrove fit: ${file} -> ${flags.out} (${formatNumber(bytes / 1e6, {}, 1)} MB) in ` +
-              `${formatNumber(model.seconds, {}, 1)} s`,
-          ),
-          ...renderModelSummary(model, view),
-          "",
-          ...cautionLines(style, terminal.width),
-          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
-            .split("\n"),
-        ].join("\n"),
+        withCautions(
+          [
+            ...wrapAnsi(
+              style.bold(
+                `paygrove fit: ${file} -> ${flags.out} (${formatNumber(bytes / 1e6, {}, 1)} MB) ` +
+                  `in ${formatNumber(model.seconds, {}, 1)} s`,
+              ),
+              terminal.width,
+            ).split("\n"),
+            ...renderModelSummary(model, view),
+          ],
+          model.provenance,
+          style,
+          terminal.width,
+        ),
       );
     });
 }

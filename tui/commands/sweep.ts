@@ -5,7 +5,6 @@
  * @module
  */
 
-import wrapAnsi from "wrap-ansi";
 import {
   Command,
   type CommandUnknownOpts,
@@ -21,7 +20,7 @@ import {
 } from "../../mod.ts";
 import { profileFromFlags, readTableForModel, withProfileFlags } from "../profile_flags.ts";
 import { renderSweep } from "../render/answer_view.ts";
-import { cautionLines, provenanceLine } from "../render/cautions.ts";
+import { withCautions } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { jsonNumbers, wholeNumber } from "./fit.ts";
@@ -94,17 +93,18 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
       }
       const style = terminal.style;
       terminal.out(
-        [
-          ...renderSweep(answer, {
-            style,
-            width: terminal.width,
-            money: moneyStyle(model, { locale: flags.locale }),
-          }),
-          "",
-          ...cautionLines(style, terminal.width),
-          ...wrapAnsi(style.dim(provenanceLine(model.provenance)), terminal.width)
-            .split("\n"),
-        ].join("\n"),
+        withCautions(
+          [
+            ...renderSweep(answer, {
+              style,
+              width: terminal.width,
+              money: moneyStyle(model, { locale: flags.locale }),
+            }),
+          ],
+          model.provenance,
+          style,
+          terminal.width,
+        ),
       );
     });
 }

@@ -18,7 +18,6 @@ import {
   demoCompanyCsv,
   describeProfile,
   describeSchema,
-  type EstimateAnswer,
   estimateProfile,
   fitModel,
   isPayName,
@@ -566,9 +565,4 @@ async function writeReport(
     option: "report",
   });
   io.say(io.style.dim(`Wrote the report to ${path} and ${jsonPath}.`));
-}
-
-/** For tests: the answer the flow shows for a profile. */
-export function flowEstimate(session: ModelSession, profile: Profile): EstimateAnswer {
-  return estimateProfile(session, profile, 0.9);
 }

@@ -34,3 +34,21 @@ export function provenanceLine(p: Provenance): string {
   return `paygrove ${p.paygrove}, model format ${p.format}, fitted ${p.created} on ` +
     `${p.table.file} (sha256 ${p.table.sha256.slice(0, 12)}...), seed ${p.seed}`;
 }
+
+/**
+ * An answer's screen as printed by the model commands: its lines, then the
+ * cautions and the provenance line, wrapped to the terminal.
+ */
+export function withCautions(
+  lines: string[],
+  provenance: Provenance,
+  style: Style,
+  width: number,
+): string {
+  return [
+    ...lines,
+    "",
+    ...cautionLines(style, width),
+    ...wrapAnsi(style.dim(provenanceLine(provenance)), width).split("\n"),
+  ].join("\n");
+}
