@@ -54,6 +54,8 @@ export function renderModelSummary(model: Model, options: ModelViewOptions): str
   const { style } = options;
   const wrap = (text: string) => wrapAnsi(text, options.width).split("\n");
   const lines: string[] = [];
+  const short = inShort(model, options.numbers);
+  if (short !== null) lines.push(...wrap(`${style.bold("In short:")} ${short}`));
   lines.push(...wrap(`${style.bold("Target:")} ${describeTarget(model, options.numbers)}`));
   const where = Object.entries(model.settings.where);
   lines.push(
@@ -83,6 +85,30 @@ export function renderModelSummary(model: Model, options: ModelViewOptions): str
   lines.push("", ...renderImportance(model, options));
   lines.push("", ...wrap(style.dim(pruningLine(model))));
   return lines;
+}
+
+/**
+ * The summary in one sentence for people who do not read RMSE: how far off
+ * one person's estimate typically is, and what matters most.
+ */
+export function inShort(model: Model, numbers: NumberStyle): string | null {
+  const best = model.quality.ensemble ?? model.quality.reference;
+  const top = [...model.importance].sort((a, b) =>
+    (Number.isNaN(b.permutation) ? b.impurity : b.permutation) -
+    (Number.isNaN(a.permutation) ? a.impurity : a.permutation)
+  )[0]?.feature;
+  if (model.target.kind === "classification") {
+    return best.accuracy === undefined
+      ? null
+      : `the model names the right ${model.target.name} for ${formatPercent(best.accuracy)} of ` +
+        `people it did not learn from; ${top} matters most.`;
+  }
+  if (best.money === undefined) return null;
+  const money = moneyStyle(model, numbers);
+  // On logs, exp(RMSE) - 1 is the typical error as a share of pay.
+  const share = best.log ? ` (about ${formatPercent(Math.expm1(best.log.rmse))})` : "";
+  return `for one person, the estimate is typically off by ${formatPay(best.money.rmse, money)}` +
+    `${share}, judged on people it did not learn from; ${top} matters most.`;
 }
 
 function pruningLine(model: Model): string {
