@@ -45,7 +45,7 @@ import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
 import CliTable from "cli-table3";
 import { tableChars } from "../render/glyphs.ts";
-import { renderSchema } from "../render/schema_view.ts";
+import { renderSchemaBrief } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 
@@ -134,7 +134,7 @@ async function chooseAndFit(
     table = loadTable(tableText, readOptions);
 
     io.say(
-      renderSchema(describeSchema(table), {
+      renderSchemaBrief(describeSchema(table), {
         file: label,
         style,
         width: io.width,
@@ -462,11 +462,20 @@ async function askValue(io: FlowIO, model: Model, profile: Profile, f: number): 
   const current = profile[f];
   if (feature.kind === "numeric") {
     const range = feature.range!;
-    const value = await io.askNumber(
-      `${feature.name} (the data runs from ${range.min} to ${range.max}):`,
-      { default: Number.isNaN(current) ? undefined : current },
+    // A line of text, so that "NA" can say "not known" (a new hire has no
+    // rating); anything else must read as a number.
+    const missing = feature.missing > 0 ? "; NA if not known" : "";
+    const text = await io.ask(
+      `${feature.name} (the data runs from ${range.min} to ${range.max}${missing}):`,
+      {
+        default: Number.isNaN(current) ? "NA" : String(Number(current.toPrecision(10))),
+        validate: (t) =>
+          t.trim().toUpperCase() === "NA" || Number.isFinite(Number(t.trim())) && t.trim() !== ""
+            ? true
+            : `Type a number such as ${range.min}${missing ? ", or NA" : ""}`,
+      },
     );
-    return String(value);
+    return text.trim().toUpperCase() === "NA" ? "NA" : text.trim();
   }
   const levels = feature.levels!;
   const order = feature.kind === "ordinal" ? " (lowest first)" : "";

@@ -141,3 +141,53 @@ function quoted(level: string): string {
 function clip(text: string, width: number): string {
   return text.length <= width ? text : `${text.slice(0, width - 3)}...`;
 }
+
+/**
+ * The schema in one line per column, for the guided flow's data check:
+ * name, type, missing count and values (cut to the width), protected mark;
+ * then the count of data-quality warnings and where to read them.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { describeSchema, loadTable } from "../../mod.ts";
+ * import { renderSchemaBrief } from "./schema_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const summary = describeSchema(loadTable("level,pay\nL1,50000\nL2,61000\n"));
+ * const lines = renderSchemaBrief(summary, { file: "t.csv", style: makeStyle(false), width: 80, numbers: {} });
+ * assert(lines[1].startsWith("  level  ordinal") && lines.length === 3);
+ * ```
+ */
+export function renderSchemaBrief(summary: SchemaSummary, options: SchemaViewOptions): string[] {
+  const { style } = options;
+  const name = Math.max(...summary.columns.map((c) => c.name.length));
+  const lines = [
+    style.bold(
+      `${options.file}: ${formatNumber(summary.rows, options.numbers)} rows, ` +
+        `${summary.columns.length} columns`,
+    ),
+  ];
+  for (const column of summary.columns) {
+    const missing = column.missing > 0
+      ? `, ${formatNumber(column.missing, options.numbers)} missing`
+      : "";
+    const mark = column.protected ? style.caution(" [protected]") : "";
+    const head = `  ${column.name.padEnd(name)}  ${column.type}${missing}: `;
+    const room = Math.max(10, options.width - head.length - (column.protected ? 13 : 1));
+    const values = describeValues(column, options.numbers);
+    lines.push(
+      `${head}${values.length > room ? `${values.slice(0, room - 3)}...` : values}${mark}`,
+    );
+  }
+  if (summary.warnings.length > 0) {
+    lines.push(
+      style.warn(
+        `! ${summary.warnings.length} data-quality warning${
+          summary.warnings.length > 1 ? "s" : ""
+        }` +
+          ` (paygrove schema FILE lists them with line numbers)`,
+      ),
+    );
+  }
+  return lines;
+}
