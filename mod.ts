@@ -140,3 +140,4 @@ export {
 export * from "./lib/model/profile.ts";
 export * from "./lib/model/model_table.ts";
 export * from "./lib/model/answers.ts";
+export { type PayQuartile, payQuartiles, type RawGap, rawGaps } from "./lib/gap/raw_gaps.ts";
