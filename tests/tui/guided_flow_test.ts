@@ -4,6 +4,7 @@ import assert from "node:assert/strict";
 import {
   applyChanges,
   compareAnswer,
+  DEMO_COLUMNS,
   estimateProfile,
   fitModel,
   loadTable,
@@ -28,16 +29,9 @@ const table = loadTable(await Deno.readTextFile(DEMO), {
 });
 const model = await fitModel(table, {
   target: "base_pay_eur",
-  features: [
-    "job_family",
-    "level",
-    "years_experience",
-    "years_at_company",
-    "site",
-    "performance_rating",
-    "education",
-    "remote",
-  ],
+  // Every column but the identifier, the protected gender and the target:
+  // the attributes the flow ticks by default.
+  features: DEMO_COLUMNS.filter((c) => !["employee_id", "gender", "base_pay_eur"].includes(c)),
   trees: TREES,
   workers: 1,
 });

@@ -17,7 +17,7 @@ import {
 } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
 import { readTableForModel } from "../profile_flags.ts";
-import { jsonNumbers } from "./fit.ts";
+import { jsonNumbers } from "../render/cautions.ts";
 
 /** The columns batch adds, in order. */
 export const BATCH_COLUMNS = [

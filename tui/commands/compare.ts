@@ -9,10 +9,9 @@ import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import { applyChanges, compareAnswer, openModel, OptionError, readModelFile } from "../../mod.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderCompare } from "../render/answer_view.ts";
-import { withCautions } from "../render/cautions.ts";
+import { printAnswer } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
-import { jsonNumbers } from "./fit.ts";
 
 /**
  * Builds the `compare` command.
@@ -45,24 +44,17 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
         ...warnings,
         ...changed.warnings,
       ]);
-      if (flags.json) {
-        terminal.out(JSON.stringify(answer, jsonNumbers, 2));
-        return;
-      }
-      const style = terminal.style;
-      terminal.out(
-        withCautions(
-          [
-            ...renderCompare(answer, {
-              style,
-              width: terminal.width,
-              money: moneyStyle(model, { locale: flags.locale }),
-            }),
-          ],
-          model.provenance,
-          style,
-          terminal.width,
-        ),
+      printAnswer(
+        terminal,
+        flags.json === true,
+        model.provenance,
+        answer,
+        () =>
+          renderCompare(answer, {
+            style: terminal.style,
+            width: terminal.width,
+            money: moneyStyle(model, { locale: flags.locale }),
+          }),
       );
     });
 }

@@ -9,10 +9,9 @@ import { estimateProfile, openModel, outOfBagEstimate, readModelFile } from "../
 import { formatPay } from "../render/numbers.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderEstimate } from "../render/answer_view.ts";
-import { withCautions } from "../render/cautions.ts";
+import { printAnswer } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
-import { jsonNumbers } from "./fit.ts";
 
 /**
  * Builds the `estimate` command.
@@ -40,25 +39,13 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
           formatPay(oob, moneyStyle(model, { locale: flags.locale })),
       );
     }
-    if (flags.json) {
-      terminal.out(JSON.stringify({ start, ...answer }, jsonNumbers, 2));
-      return;
-    }
-    const style = terminal.style;
-    terminal.out(
-      withCautions(
-        [
-          ...renderEstimate(answer, {
-            style,
-            width: terminal.width,
-            money: moneyStyle(model, { locale: flags.locale }),
-          }),
-          style.dim(`Started from ${start}.`),
-        ],
-        model.provenance,
-        style,
-        terminal.width,
-      ),
-    );
+    printAnswer(terminal, flags.json === true, model.provenance, { start, ...answer }, () => [
+      ...renderEstimate(answer, {
+        style: terminal.style,
+        width: terminal.width,
+        money: moneyStyle(model, { locale: flags.locale }),
+      }),
+      terminal.style.dim(`Started from ${start}.`),
+    ]);
   });
 }

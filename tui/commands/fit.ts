@@ -18,7 +18,7 @@ import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
 import { list, loadOptions, withTableFlags } from "../table_flags.ts";
-import { withCautions } from "../render/cautions.ts";
+import { jsonNumbers, withCautions } from "../render/cautions.ts";
 
 /** Parses a whole number of at least `min`. */
 export function wholeNumber(min: number) {
@@ -234,8 +234,3 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
 export const PROTECTED_CAUTION = "Caution: --allow-protected lets sex, race, age and other " +
   "protected attributes shape pay estimates. Setting pay on them risks unlawful discrimination; " +
   "use such a model only to study gaps, with counsel.";
-
-/** JSON.stringify replacer: NaN and infinities become null. */
-export function jsonNumbers(_key: string, value: unknown): unknown {
-  return typeof value === "number" && !Number.isFinite(value) ? null : value;
-}

@@ -13,10 +13,9 @@ import {
   renderImportance,
   renderTreeOutline,
 } from "../render/model_view.ts";
-import { provenanceLine } from "../render/cautions.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
-import { jsonNumbers } from "./fit.ts";
+import { jsonNumbers, provenanceLine } from "../render/cautions.ts";
 
 /** A tree node for JSON: condition, rows, value, children. */
 interface OutlineNode {

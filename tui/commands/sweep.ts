@@ -20,10 +20,10 @@ import {
 } from "../../mod.ts";
 import { profileFromFlags, readTableForModel, withProfileFlags } from "../profile_flags.ts";
 import { renderSweep } from "../render/answer_view.ts";
-import { withCautions } from "../render/cautions.ts";
+import { printAnswer } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
-import { jsonNumbers, wholeNumber } from "./fit.ts";
+import { wholeNumber } from "./fit.ts";
 
 function finiteNumber(text: string): number {
   const value = Number(text);
@@ -87,24 +87,17 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
         flags.average ? rows ?? await readTableForModel(model, flags.table!) : null,
         warnings,
       );
-      if (flags.json) {
-        terminal.out(JSON.stringify(answer, jsonNumbers, 2));
-        return;
-      }
-      const style = terminal.style;
-      terminal.out(
-        withCautions(
-          [
-            ...renderSweep(answer, {
-              style,
-              width: terminal.width,
-              money: moneyStyle(model, { locale: flags.locale }),
-            }),
-          ],
-          model.provenance,
-          style,
-          terminal.width,
-        ),
+      printAnswer(
+        terminal,
+        flags.json === true,
+        model.provenance,
+        answer,
+        () =>
+          renderSweep(answer, {
+            style: terminal.style,
+            width: terminal.width,
+            money: moneyStyle(model, { locale: flags.locale }),
+          }),
       );
     });
 }

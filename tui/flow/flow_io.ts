@@ -6,7 +6,7 @@
  * @module
  */
 
-import { checkbox, input, number, select } from "@inquirer/prompts";
+import { checkbox, input, select } from "@inquirer/prompts";
 import type { Style } from "../render/style.ts";
 
 /** A choice of a select prompt. */
@@ -45,11 +45,6 @@ export interface FlowIO {
     message: string,
     options?: { default?: string; validate?: (text: string) => string | true },
   ): Promise<string>;
-  /** Asks for a number. */
-  askNumber(
-    message: string,
-    options: { default?: number; min?: number; max?: number },
-  ): Promise<number>;
 }
 
 // Key names of the prompts' help line, in ASCII.
@@ -131,17 +126,5 @@ export function streamFlowIO(
       withEsc((context) =>
         input({ message, default: o.default, validate: o.validate, theme }, context)
       ),
-    askNumber: async (message, o) =>
-      (await withEsc((context) =>
-        number({
-          message,
-          default: o.default,
-          min: o.min,
-          max: o.max,
-          step: "any",
-          required: true,
-          theme,
-        }, context)
-      )) as number,
   };
 }

@@ -52,3 +52,35 @@ export function withCautions(
     ...wrapAnsi(style.dim(provenanceLine(provenance)), width).split("\n"),
   ].join("\n");
 }
+
+/**
+ * How the model commands print an answer: one JSON document with `--json`,
+ * else the rendered lines with the cautions and the provenance.
+ *
+ * @param json The `--json` document.
+ * @param render The text lines, drawn only when text is asked for.
+ */
+export function printAnswer(
+  terminal: { out(text: string): void; style: Style; width: number },
+  asJson: boolean,
+  provenance: Provenance,
+  json: unknown,
+  render: () => string[],
+): void {
+  if (asJson) {
+    terminal.out(
+      JSON.stringify(
+        json,
+        jsonNumbers,
+        2,
+      ),
+    );
+    return;
+  }
+  terminal.out(withCautions(render(), provenance, terminal.style, terminal.width));
+}
+
+/** JSON.stringify replacer: NaN and infinities, which JSON lacks, become null. */
+export function jsonNumbers(_key: string, value: unknown): unknown {
+  return typeof value === "number" && !Number.isFinite(value) ? null : value;
+}
