@@ -76,11 +76,11 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
   assert.ok(screen.includes(`${pay(first.estimate)}`), pay(first.estimate));
   assert.ok(
     screen.includes(
-      `how sure (90%)  ${pay(first.confidence!.low)} - ${pay(first.confidence!.high)}`,
+      `typical pay, 90% sure  ${pay(first.confidence!.low)} - ${pay(first.confidence!.high)}`,
     ),
   );
   assert.ok(
-    screen.includes(`range (90%)     ${pay(first.range!.low)} - ${pay(first.range!.high)}`),
+    screen.includes(`one person, 90% range  ${pay(first.range!.low)} - ${pay(first.range!.high)}`),
   );
   // The promotion: the paired difference and its interval.
   const promoted = applyChanges(model, base, ["level=+1"]).profile;

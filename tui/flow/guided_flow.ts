@@ -512,7 +512,7 @@ function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO):
   }
   table.push(["estimate", ...shown.map((s) => pay(s.answer.estimate))]);
   table.push([
-    "how sure (90%)",
+    "typical pay, 90% sure",
     ...shown.map((
       s,
     ) => (s.answer.confidence
@@ -521,7 +521,7 @@ function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO):
     ),
   ]);
   table.push([
-    "range (90%)",
+    "one person, 90% range",
     ...shown.map((
       s,
     ) => (s.answer.range ? `${pay(s.answer.range.low)}-${pay(s.answer.range.high)}` : "-")),

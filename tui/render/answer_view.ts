@@ -211,7 +211,9 @@ const NO_BORDERS = {
 /** The what-if screen: base vs changed, the paired change, the path step that changed. */
 export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions): string[] {
   const { style, money } = options;
-  const pay = (x: number) => formatPay(x, money);
+  // Changes of a salary (base from 100 up) in whole units, like the salaries.
+  const whole = Math.abs(answer.base.estimate) >= 100;
+  const pay = (x: number) => formatPay(x, money, whole);
   const wrap = (text: string) => wrapAnsi(text, options.width, { hard: true }).split("\n");
   const d = answer.difference;
   const pct = formatPercent(d.coverage).replace(".0", "");
@@ -224,7 +226,7 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
     ),
   );
   const table = new Table({
-    head: ["", "estimate", `how sure (${pct})`, `range (${pct})`].map(style.bold),
+    head: ["", "estimate", `typical pay, ${pct} sure`, `one person, ${pct} range`].map(style.bold),
     colAligns: ["left", "right", "right", "right"],
     style: { head: [], border: [], compact: true },
     ...(tableChars() ? { chars: tableChars() } : {}),
@@ -243,7 +245,12 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
     return lines;
   }
   const sign = d.estimate >= 0 ? "+" : "-";
-  const interval = d.low !== null && d.high !== null
+  // When most trees see no change at all, the interval is one value and the
+  // average may lie outside it: say what the trees say instead.
+  const interval = d.low !== null && d.high !== null && d.low === d.high
+    ? ` (in ${pct} of the trees the change is ${signed(d.low, pay)}; the average comes from the ` +
+      `few trees that see one)`
+    : d.low !== null && d.high !== null
     ? ` (${pct}: ${signed(d.low, pay)} to ${signed(d.high, pay)}; ` +
       `${formatPercent(d.relative.low!, true)} to ${formatPercent(d.relative.high!, true)})`
     : " (no interval: the model has no ensemble)";
@@ -419,7 +426,7 @@ export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions)
     const c = answer.confidence;
     const r = answer.range;
     const pct = formatPercent(c.coverage).replace(".0", "");
-    const axis = Math.max(16, Math.min(34, options.width - 46));
+    const axis = Math.max(12, Math.min(32, options.width - 48));
     const [sure, range] = intervalChart(
       [
         { label: "", low: c.low, high: c.high, text: "" },
@@ -432,9 +439,10 @@ export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions)
     const b = `${pay(r.low)} - ${pay(r.high)}`;
     const width = Math.max(a.length, b.length);
     lines.push(
-      `  how sure (${pct})  ${a.padEnd(width)}  ${sure}`,
-      `  range (${pct})     ${b.padEnd(width)}  ${range}`,
-      `  trees (${answer.trees.length})     ${pay(Math.min(...answer.trees))} ` +
+      // Labels that say what each band is about, in place of a legend.
+      `  ${`typical pay, ${pct} sure`.padEnd(21)}  ${a.padEnd(width)}  ${sure}`,
+      `  ${`one person, ${pct} range`.padEnd(21)}  ${b.padEnd(width)}  ${range}`,
+      `  ${`the ${answer.trees.length} trees`.padEnd(21)}  ${pay(Math.min(...answer.trees))} ` +
         `${sparkline(answer.trees, 20)} ${pay(Math.max(...answer.trees))}`,
     );
   }

@@ -90,11 +90,13 @@ export function describeUnit(unit: MoneyUnit, currency?: string): string {
  * assert(formatPay(61234.56, { currency: "EUR" }) === "€61,235");
  * assert(formatPay(23.456, { currency: "USD" }) === "$23.46");
  * assert(formatPay(512.4, {}) === "512");
+ * assert(formatPay(-19.64, { currency: "EUR" }, true) === "-€20");
  * ```
  */
-export function formatPay(value: number, style: NumberStyle): string {
-  // Whole units from 100 up, and for nothing at all (not "0.00").
-  const digits = Math.abs(value) >= 100 || value === 0 ? 0 : 2;
+export function formatPay(value: number, style: NumberStyle, wholeUnits = false): string {
+  // Whole units from 100 up, and for nothing at all (not "0.00"); a change
+  // of a salary is said in whole units too (`wholeUnits`).
+  const digits = wholeUnits || Math.abs(value) >= 100 || value === 0 ? 0 : 2;
   if (style.currency === undefined) return formatNumber(value, style, digits);
   return new Intl.NumberFormat(style.locale ?? "en-US", {
     style: "currency",
