@@ -141,3 +141,31 @@ export * from "./lib/model/profile.ts";
 export * from "./lib/model/model_table.ts";
 export * from "./lib/model/answers.ts";
 export { type PayQuartile, payQuartiles, type RawGap, rawGaps } from "./lib/gap/raw_gaps.ts";
+export { type Suppression, suppressSmallGroups } from "./lib/gap/suppress.ts";
+export {
+  type GapCoefficient,
+  gapFromCoefficient,
+  holmAdjust,
+  residualRegression,
+  twoSidedP,
+} from "./lib/gap/partial_out.ts";
+export { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./lib/gap/proxies.ts";
+export {
+  chooseReference,
+  GAP_CAUTIONS,
+  GAP_SOURCES,
+  type GapCategory,
+  gapCheck,
+  type GapFigure,
+  type GapOptions,
+  type GapRegression,
+  type GapReport,
+} from "./lib/gap/gap_check.ts";
+export {
+  type PayReview,
+  payReview,
+  type ReviewCategory,
+  type ReviewOptions,
+  type ReviewPerson,
+  type ReviewStatus,
+} from "./lib/gap/pay_review.ts";

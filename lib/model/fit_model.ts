@@ -17,7 +17,8 @@ import { filterRows } from "../table/filter_rows.ts";
 import { isPayName } from "../table/money.ts";
 import { quantile } from "../table/quality.ts";
 import type { LoadTableOptions } from "../table/load_table.ts";
-import type { Table } from "../table/types.ts";
+import type { LevelColumn, Table } from "../table/types.ts";
+import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../gap/proxies.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import { binFeatures } from "../tree/bins.ts";
 import { crossValidateTree } from "../tree/cross_validate.ts";
@@ -97,11 +98,17 @@ export interface FitModelOptions {
    * @default {5}
    */
   privacyMin?: number;
+  /**
+   * Out-of-bag balanced accuracy from which a feature alone predicting a
+   * protected attribute is named a possible proxy.
+   * @default {0.65}
+   */
+  proxyThreshold?: number;
   /** The options the table was loaded with, kept to read other tables alike. */
   loadOptions?: LoadTableOptions;
   /** Progress: the stage, steps done and the total. */
   onProgress?: (
-    stage: "cross-validation" | "trees" | "importance",
+    stage: "cross-validation" | "trees" | "importance" | "proxies",
     done: number,
     total: number,
   ) => void;
@@ -286,6 +293,8 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   const importance = importanceOf(dataset, ensemble, cv.tree, seed);
   options.onProgress?.("importance", 1, 1);
 
+  const proxies = await possibleProxies(filtered, rowIndex, dataset, options, seed);
+
   const features = dataset.features.map((f): FeatureSchema => {
     const column = filtered.columns.find((c) => c.name === f.name)!;
     return {
@@ -358,12 +367,54 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     residuals,
     quality,
     importance,
+    proxies,
     support: supportOf(dataset, importance, privacyMin),
     rowKeys: identifier && identifier.type === "identifier"
       ? rowKeysOf(rowIndex, identifier.values, dataset)
       : null,
     seconds: (performance.now() - started) / 1000,
   };
+}
+
+// Each protected column of the table that is not a feature (groups with
+// names, at least two of them): which features alone predict it.
+async function possibleProxies(
+  table: Table,
+  rowIndex: Int32Array,
+  dataset: Dataset,
+  options: FitModelOptions,
+  seed: number,
+): Promise<ProxyFigure[]> {
+  const used = new Set(dataset.features.map((f) => f.name));
+  const attributes = table.columns.filter((c): c is LevelColumn =>
+    c.protected && !used.has(c.name) && (c.type === "categorical" || c.type === "ordinal")
+  );
+  const features = dataset.features.filter((f) => {
+    const column = table.columns.find((c) => c.name === f.name);
+    return column !== undefined && !column.protected;
+  });
+  const threshold = options.proxyThreshold ?? PROXY_THRESHOLD;
+  const found: ProxyFigure[] = [];
+  options.onProgress?.("proxies", 0, attributes.length);
+  for (const [a, attribute] of attributes.entries()) {
+    const rows: number[] = [];
+    rowIndex.forEach((tableRow, r) => {
+      if (attribute.codes[tableRow] >= 0) rows.push(r);
+    });
+    const codes = Int32Array.from(rows, (r) => attribute.codes[rowIndex[r]]);
+    if (new Set(codes).size < 2) continue;
+    const subset = features.map((f) => ({
+      ...f,
+      values: Float64Array.from(rows, (r) => f.values[r]),
+    }));
+    const figures = await proxyFigures(subset, codes, attribute.levels, attribute.name, {
+      seed,
+      workers: options.workers,
+    });
+    found.push(...figures.filter((f) => f.balancedAccuracy >= threshold));
+    options.onProgress?.("proxies", a + 1, attributes.length);
+  }
+  return found.sort((x, y) => y.balancedAccuracy - x.balancedAccuracy);
 }
 
 function checkSettings(trees: number, minLeaf: number, privacyMin: number, folds: number): void {

@@ -205,6 +205,11 @@ const documentShape = z.object({
     permutationSd: maybeNumber,
     impurity: maybeNumber,
   })),
+  proxies: z.array(z.object({
+    feature: z.string(),
+    attribute: z.string(),
+    balancedAccuracy: z.number().min(0).max(1),
+  })).optional(),
   support: z.object({
     peers: z.object({
       features: z.tuple([z.string(), z.string()]),
@@ -259,6 +264,7 @@ export function modelToText(model: Model): string {
     },
     quality: model.quality,
     importance: model.importance,
+    ...(model.proxies ? { proxies: model.proxies } : {}),
     support: model.support,
     rowKeys: model.rowKeys,
     seconds: model.seconds,
@@ -394,6 +400,7 @@ export function modelFromText(text: string, file: string): Model {
     residuals,
     quality: doc.quality,
     importance: doc.importance,
+    ...(doc.proxies ? { proxies: doc.proxies } : {}),
     support: doc.support,
     rowKeys: doc.rowKeys,
     seconds: doc.seconds,

@@ -8,6 +8,7 @@
  * @module
  */
 
+import type { ProxyFigure } from "../gap/proxies.ts";
 import type { FeatureKind } from "../dataset/types.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import type { DecimalMark } from "../table/amount.ts";
@@ -216,6 +217,12 @@ export interface Model {
   };
   /** Importance, in feature order. */
   importance: ImportanceFigure[];
+  /**
+   * Features that on their own predict a protected attribute of the table
+   * with out-of-bag balanced accuracy at or above the proxy threshold
+   * (possible proxies), highest first; absent in files from before.
+   */
+  proxies?: ProxyFigure[];
   /** Support figures for the unusual-profile check. */
   support: SupportFigures;
   /**

@@ -39,12 +39,31 @@ export function filterRows(
       `--where: no row has ${names.map((n) => `${n}=${where[n].join(" or ")}`).join(" and ")}`,
     );
   }
+  return subsetRows(
+    table,
+    keep,
+    `kept ${keep.length} of ${table.rows} rows where ${describe(where)}`,
+  );
+}
+
+/**
+ * The given rows of a table, in the order given, with a note saying why.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable, subsetRows } from "../../mod.ts";
+ * const table = loadTable("site,pay\nNorth,50\nSouth,60\nNorth,55\n", { target: "pay" });
+ * assert(subsetRows(table, [2], "last row only").lines[0] === 4);
+ * ```
+ */
+export function subsetRows(table: Table, keep: readonly number[], note: string): Table {
   return {
     ...table,
     rows: keep.length,
     columns: table.columns.map((c) => subsetColumn(c, keep)),
     lines: Int32Array.from(keep, (r) => table.lines[r]),
-    notes: [...table.notes, `kept ${keep.length} of ${table.rows} rows where ${describe(where)}`],
+    notes: [...table.notes, note],
   };
 }
 
@@ -93,7 +112,7 @@ function rowTest(table: Table, name: string, values: readonly string[]): (r: num
   return () => all;
 }
 
-function subsetColumn(column: Column, keep: number[]): Column {
+function subsetColumn(column: Column, keep: readonly number[]): Column {
   switch (column.type) {
     case "numeric":
       return { ...column, values: Float64Array.from(keep, (r) => column.values[r]) };

@@ -15,4 +15,4 @@ export { loadTable, type LoadTableOptions, type TargetKind } from "./load_table.
 export { loadTableFile } from "./load_table_file.ts";
 export { type ColumnSummary, describeSchema, type SchemaSummary } from "./describe_schema.ts";
 export { quantile } from "./quality.ts";
-export { filterRows } from "./filter_rows.ts";
+export { filterRows, subsetRows } from "./filter_rows.ts";

@@ -65,3 +65,12 @@ Deno.test({
       ["lm_cps1988.json", "fixtures/reference/lm_cps1988.json"],
     ]),
 });
+
+Deno.test({
+  name: "the HC1 fixture equals a fresh fit by R's lm() and sandwich::vcovHC",
+  ignore: !available && !inCi,
+  fn: () =>
+    rerunR("hc1_cps1988.R", (out) => [`${out}/hc1_cps1988.json`], [
+      ["hc1_cps1988.json", "fixtures/reference/hc1_cps1988.json"],
+    ]),
+});

@@ -1,0 +1,781 @@
+/**
+ * The pay-gap check behind `paygrove gap`: raw mean and median gaps and pay
+ * quartiles (Directive (EU) 2023/970, Article 3(1)(c), (e), (f)), the
+ * adjusted gap by partialling out with bagged trees (see partial_out.ts),
+ * the simple difference of out-of-bag pay residuals and the linear version
+ * beside it, flags, possible proxies, and small-group suppression, overall
+ * and per category of workers the user defines.
+ *
+ * Everything is plain data, ready for text, Markdown or JSON.
+ *
+ * @module
+ */
+
+import type { Dataset } from "../dataset/types.ts";
+import { makeDataset } from "../dataset/make_dataset.ts";
+import { OptionError } from "../errors.ts";
+import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
+import { toFitScale } from "../ensemble/pay_scale.ts";
+import { designOf, fitLeastSquares } from "../linear/least_squares.ts";
+import { filterRows, subsetRows } from "../table/filter_rows.ts";
+import { nameWords } from "../table/protected_names.ts";
+import type { LevelColumn, NumericColumn, Table } from "../table/types.ts";
+import { VERSION } from "../version.ts";
+import { gapFromCoefficient, holmAdjust, residualRegression, twoSidedP } from "./partial_out.ts";
+import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./proxies.ts";
+import { type PayQuartile, payQuartiles, rawGaps } from "./raw_gaps.ts";
+import { suppressSmallGroups } from "./suppress.ts";
+
+/** Options of {@linkcode gapCheck}. */
+export interface GapOptions {
+  /** The pay column. */
+  target: string;
+  /** The column of groups compared (e.g. gender). */
+  group: string;
+  /** The reference group (default: men for a sex or gender column, else the largest group). */
+  reference?: string;
+  /** The groups compared with the reference (default: all); people of other groups are left out. */
+  compare?: string[];
+  /** Columns whose combinations are the categories of workers (e.g. job family, level). */
+  within?: string[];
+  /** The legitimate factors (default: every usable column but protected ones). */
+  features?: string[];
+  /** Columns to leave out of the factors. */
+  drop?: string[];
+  /** Keep only rows matching these. */
+  where?: Record<string, string[]>;
+  /** A column of variable pay, gapped beside base pay. */
+  variable?: string;
+  /** Raw mean gap from which a category is flagged. @default {0.05} */
+  threshold?: number;
+  /** Smallest adjusted gap that is flagged when it is significant. @default {0.02} */
+  materiality?: number;
+  /** Fewest people of any group for a category to be shown. @default {5} */
+  privacyMin?: number;
+  /** Balanced accuracy from which a feature is named a possible proxy. @default {0.65} */
+  proxyThreshold?: number;
+  /** Trees in each of the two ensembles. @default {200} */
+  trees?: number;
+  /** Fewest people in a leaf. @default {5} */
+  minLeaf?: number;
+  /** Seed. @default {1} */
+  seed?: number;
+  /** Workers. */
+  workers?: number;
+  /** Progress of the stages. */
+  onProgress?: (
+    stage: "pay model" | "group model" | "proxies",
+    done: number,
+    total: number,
+  ) => void;
+}
+
+/** One group against the reference group, in one category or overall. */
+export interface GapFigure {
+  /** The group. */
+  group: string;
+  /** People in the group. */
+  rows: number;
+  /** People in the reference group. */
+  referenceRows: number;
+  /** Raw mean gap: (reference mean - group mean) / reference mean; 0.05 = the group earns 5% less. */
+  rawMean: number;
+  /** Raw median gap, the same with medians. */
+  rawMedian: number;
+  /** Raw mean gap of variable pay (with `variable`), else null. */
+  variableMean: number | null;
+  /** Raw median gap of variable pay (with `variable`), else null. */
+  variableMedian: number | null;
+  /** Adjusted (unexplained) gap 1 - exp(b); null where it cannot be estimated. */
+  adjusted: number | null;
+  /** Low end of its confidence interval. */
+  low: number | null;
+  /** High end of its confidence interval. */
+  high: number | null;
+  /** b in log points. */
+  coefficient: number | null;
+  /** Robust standard error of b. */
+  se: number | null;
+  /** Two-sided p-value of b = 0. */
+  p: number | null;
+  /** Holm-adjusted p-value across the categories shown (overall: unadjusted). */
+  pAdjusted: number | null;
+  /** 1 - exp(difference of the groups' mean out-of-bag log-pay residuals). */
+  residualDifference: number | null;
+  /** The raw mean gap is at least the threshold in size. */
+  rawFlag: boolean;
+  /** The adjusted gap differs from 0 at the 5% level (Holm) and is at least the materiality. */
+  unexplainedFlag: boolean;
+}
+
+/** A category of workers: its figures, or only its name when too few to report. */
+export type GapCategory =
+  | { name: string; suppressed: true }
+  | { name: string; suppressed: false; rows: number; gaps: GapFigure[] };
+
+/** One group's coefficient from a regression over everyone. */
+export interface GapRegression {
+  /** The group. */
+  group: string;
+  /** b in log points. */
+  coefficient: number;
+  /** Its standard error. */
+  se: number;
+  /** 100 (1 - exp(b)): the gap in percent. */
+  percent: number;
+  /** The gap 1 - exp(b) as a fraction. */
+  gap: number;
+  /** Low end of its confidence interval (fraction). */
+  low: number;
+  /** High end (fraction). */
+  high: number;
+  /** Two-sided p-value of b = 0. */
+  p: number;
+}
+
+/** Everything `paygrove gap` reports. */
+export interface GapReport {
+  /** The pay column. */
+  target: string;
+  /** The group column. */
+  group: string;
+  /** The reference group. */
+  reference: string;
+  /** Why that reference group. */
+  referenceReason: string;
+  /** Groups compared with the reference. */
+  groups: string[];
+  /** Columns defining the categories. */
+  within: string[];
+  /** The variable-pay column, when asked. */
+  variable: string | null;
+  /** The raw-gap threshold. */
+  threshold: number;
+  /** The materiality of the adjusted gap. */
+  materiality: number;
+  /** The privacy minimum. */
+  privacyMin: number;
+  /** Confidence level of the intervals. */
+  confidence: number;
+  /** People analysed (pay and group known). */
+  rows: number;
+  /** Rows left out because the group is missing. */
+  missingGroup: number;
+  /** Overall figures, or withheld. */
+  overall: { suppressed: false; rows: number; gaps: GapFigure[] } | { suppressed: true };
+  /** Pay quartiles (null when the overall figures are withheld). */
+  quartiles: PayQuartile[] | null;
+  /** The partialling-out regression over everyone, first compared group (null when withheld). */
+  regression: GapRegression | null;
+  /** The same for every compared group. */
+  regressions: GapRegression[];
+  /** Log pay on the factors plus group indicators (ordinary least squares, classical SE). */
+  linear: GapRegression[] | null;
+  /** Per category. */
+  categories: GapCategory[];
+  /** The legitimate factors the adjustment used. */
+  features: string[];
+  /** Features that on their own predict the group with balanced accuracy at or above the threshold. */
+  proxies: ProxyFigure[];
+  /** The proxy threshold used. */
+  proxyThreshold: number;
+  /** How well the two ensembles did out of bag. */
+  models: { trees: number; payR2Log: number; groupBalancedAccuracy: number };
+  /** Sentences about the method and the data. */
+  notes: string[];
+  /** Where the figures came from. */
+  provenance: {
+    paygrove: string;
+    table: { file: string; sha256: string; rows: number };
+    seed: number;
+  };
+}
+
+/** The sources cited under every gap report. */
+export const GAP_SOURCES = [
+  "Raw mean and median gaps and pay quartiles: Directive (EU) 2023/970, Article 3(1)(c), (e) and (f); " +
+  "the 5% threshold: Article 10(1).",
+  "Adjusted gap by partialling out: Robinson (1988), Econometrica 56(4); Chernozhukov et al. " +
+  "(2018), The Econometrics Journal 21(1). Robust standard errors: White (1980), Econometrica 48(4).",
+  "Multiple categories: Holm (1979), Scandinavian Journal of Statistics 6(2).",
+  "Bagged trees: Breiman (1996), Machine Learning 24(2).",
+];
+
+/** The cautions every gap and review output carries. */
+export const GAP_CAUTIONS = "These figures describe the table as it is. A gap the model does not " +
+  "explain is not proof of discrimination, and an explained gap is not proof of its absence: " +
+  "the factors themselves (level, performance rating) can carry bias. Rules differ by country " +
+  "and change. This is not legal advice; consult counsel or a qualified pay-equity practitioner " +
+  "before acting.";
+
+/**
+ * Runs the gap check on a loaded table.
+ *
+ * @throws {OptionError} for options that do not fit the table.
+ * @throws {DataError} for pay at or below zero (logs are taken).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, gapCheck, loadTable } from "../../mod.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 400, seed: 3 }), { target: "base_pay_eur" });
+ * const report = await gapCheck(table, {
+ *   target: "base_pay_eur", group: "gender", trees: 20, workers: 1,
+ * });
+ * assert(report.reference === "Man" && report.features.every((f) => f !== "gender"));
+ * ```
+ */
+export async function gapCheck(table: Table, options: GapOptions): Promise<GapReport> {
+  const threshold = options.threshold ?? 0.05;
+  const materiality = options.materiality ?? 0.02;
+  const privacyMin = options.privacyMin ?? 5;
+  const proxyThreshold = options.proxyThreshold ?? PROXY_THRESHOLD;
+  const trees = options.trees ?? 200;
+  const seed = options.seed ?? 1;
+  const confidence = 0.95;
+  const within = options.within ?? [];
+  if (privacyMin < 3) throw new OptionError(`--privacy-min is never below 3, got ${privacyMin}`);
+  if (!(threshold >= 0 && threshold < 1)) {
+    throw new OptionError(`--threshold must be between 0 and 1 (0.05 = 5%), got ${threshold}`);
+  }
+  if (!(materiality >= 0 && materiality < 1)) {
+    throw new OptionError(`--materiality must be between 0 and 1 (0.02 = 2%), got ${materiality}`);
+  }
+
+  const filtered = filterRows(table, options.where ?? {});
+  const column = (name: string, option: string) => {
+    const found = filtered.columns.find((c) => c.name === name);
+    if (!found) {
+      throw new OptionError(
+        `${option}: no column named "${name}"; the columns are: ${
+          filtered.columns.map((c) => c.name).join(", ")
+        }`,
+      );
+    }
+    return found;
+  };
+  const pay = column(options.target, "--target");
+  if (pay.type !== "numeric") {
+    throw new OptionError(`--target: "${options.target}" is not numeric; a gap needs pay`);
+  }
+  const groupColumn = column(options.group, "--group");
+  if (groupColumn.type !== "categorical" && groupColumn.type !== "ordinal") {
+    throw new OptionError(
+      `--group: "${options.group}" is ${groupColumn.type}; it needs a few named groups ` +
+        `(declare it with --type ${options.group}=categorical if it holds codes)`,
+    );
+  }
+  const withinColumns = within.map((name) => {
+    const c = column(name, "--within");
+    if (name === options.group || name === options.target) {
+      throw new OptionError(`--within: "${name}" cannot define categories of itself`);
+    }
+    if (c.type !== "categorical" && c.type !== "ordinal") {
+      throw new OptionError(
+        `--within: "${name}" is ${c.type}; categories come from columns of named levels ` +
+          `(job family, level), never cut from numbers by paygrove`,
+      );
+    }
+    return c;
+  });
+  const variable = options.variable === undefined
+    ? undefined
+    : column(options.variable, "--variable");
+  if (variable !== undefined && variable.type !== "numeric") {
+    throw new OptionError(`--variable: "${options.variable}" is not numeric`);
+  }
+
+  // People with pay and a group.
+  let keep: number[] = [];
+  let missingGroup = 0;
+  const allCounts = new Map<string, number>();
+  for (let r = 0; r < filtered.rows; r++) {
+    if (Number.isNaN(pay.values[r])) continue;
+    if (groupColumn.codes[r] < 0) missingGroup++;
+    else {
+      keep.push(r);
+      const g = groupColumn.levels[groupColumn.codes[r]];
+      allCounts.set(g, (allCounts.get(g) ?? 0) + 1);
+    }
+  }
+  if (allCounts.size < 2) {
+    throw new OptionError(`--group: "${options.group}" has only one group among people with pay`);
+  }
+  const { reference, reason: referenceReason } = chooseReference(
+    options.group,
+    allCounts,
+    options.reference,
+  );
+  let otherGroupsLeftOut = 0;
+  if (options.compare !== undefined) {
+    const known = [...allCounts.keys()].sort();
+    const wanted = new Set(options.compare.map((name) => {
+      const found = known.find((g) => g.toLowerCase() === name.toLowerCase());
+      if (found === undefined) {
+        throw new OptionError(
+          `--groups: "${name}" is not a group of "${options.group}"; the groups are: ${
+            known.join(", ")
+          }`,
+        );
+      }
+      return found;
+    }));
+    wanted.delete(reference);
+    if (wanted.size === 0) {
+      throw new OptionError(`--groups: name at least one group besides the reference ${reference}`);
+    }
+    const before = keep.length;
+    keep = keep.filter((r) => {
+      const g = groupColumn.levels[groupColumn.codes[r]];
+      return g === reference || wanted.has(g);
+    });
+    otherGroupsLeftOut = before - keep.length;
+  }
+  const rowsTable = subsetRows(filtered, keep, "people with pay and a group");
+  const payOf = (rowsTable.columns.find((c) => c.name === options.target) as NumericColumn).values;
+  const groupOf = rowsTable.columns.find((c) => c.name === options.group) as LevelColumn;
+  const groupName = Array.from(groupOf.codes, (c) => groupOf.levels[c]);
+  const counts = new Map<string, number>();
+  for (const g of groupName) counts.set(g, (counts.get(g) ?? 0) + 1);
+  const groups = [...counts.keys()].filter((g) => g !== reference).sort();
+  const allGroups = [reference, ...groups];
+
+  // The legitimate factors: never the group, the variable pay or the target.
+  const drop = [...(options.drop ?? []), options.group];
+  if (options.variable !== undefined) drop.push(options.variable);
+  if (options.features?.includes(options.group)) {
+    throw new OptionError(
+      `--features: "${options.group}" is the group compared; it cannot adjust itself`,
+    );
+  }
+  const { dataset: encoded } = makeDataset(rowsTable, {
+    target: options.target,
+    features: options.features,
+    drop: options.features ? undefined : [...new Set(drop)].filter((d) => d !== options.target),
+  });
+  if (encoded.features.length === 0) {
+    throw new OptionError(
+      "no legitimate factors are left to adjust for; name them with --features",
+    );
+  }
+  const logPay = toFitScale(encoded.target.values, "log", options.target);
+  const payDataset: Dataset = {
+    ...encoded,
+    target: { ...encoded.target, values: logPay } as Dataset["target"],
+  };
+  const n = payDataset.rows;
+  const minLeaf = Math.max(options.minLeaf ?? 5, 1);
+
+  options.onProgress?.("pay model", 0, trees);
+  const payModel = await fitEnsembleParallel(payDataset, {
+    trees,
+    seed,
+    prune: "none",
+    grow: { minLeaf },
+    workers: options.workers,
+    onProgress: (done, total) => options.onProgress?.("pay model", done, total),
+  });
+  const groupCode = Int32Array.from(groupName, (g) => allGroups.indexOf(g));
+  const groupDataset: Dataset = {
+    rows: n,
+    features: payDataset.features,
+    target: { kind: "classification", name: options.group, classes: allGroups, values: groupCode },
+  };
+  options.onProgress?.("group model", 0, trees);
+  const groupModel = await fitEnsembleParallel(groupDataset, {
+    trees,
+    seed,
+    prune: "none",
+    grow: { minLeaf },
+    workers: options.workers,
+    onProgress: (done, total) => options.onProgress?.("group model", done, total),
+  });
+
+  // Out-of-bag residuals; rows every tree drew (rare) are left out of the adjustment.
+  const payResidual = new Float64Array(n);
+  const groupResidual = groups.map(() => new Float64Array(n));
+  const usable: boolean[] = [];
+  const width = allGroups.length;
+  for (let r = 0; r < n; r++) {
+    const ok = payModel.oobTrees[r] > 0 && groupModel.oobTrees[r] > 0;
+    usable.push(ok);
+    payResidual[r] = logPay[r] - payModel.oob[r];
+    groups.forEach((_, j) => {
+      groupResidual[j][r] = (groupCode[r] === j + 1 ? 1 : 0) - groupModel.oob[r * width + j + 1];
+    });
+  }
+
+  // Categories: each combination of the within columns' levels that occurs.
+  const withinCols = withinColumns.map((c) =>
+    rowsTable.columns.find((x) => x.name === c.name) as LevelColumn
+  );
+  const categoryOf = new Int32Array(n);
+  const categoryNames: string[] = [];
+  const categoryKeys = new Map<string, number>();
+  if (withinCols.length > 0) {
+    const keyOf = (r: number) => withinCols.map((c) => c.codes[r]);
+    const keys = [...new Set(Array.from({ length: n }, (_, r) => keyOf(r).join(",")))]
+      .map((k) => k.split(",").map(Number))
+      .sort((a, b) => {
+        for (let i = 0; i < a.length; i++) {
+          // Missing (-1) last.
+          const x = a[i] < 0 ? Infinity : a[i];
+          const y = b[i] < 0 ? Infinity : b[i];
+          if (x !== y) return x - y;
+        }
+        return 0;
+      });
+    keys.forEach((k, i) => {
+      categoryKeys.set(k.join(","), i);
+      categoryNames.push(
+        k.map((code, j) => (code < 0 ? "(missing)" : withinCols[j].levels[code])).join(" / "),
+      );
+    });
+    for (let r = 0; r < n; r++) categoryOf[r] = categoryKeys.get(keyOf(r).join(","))!;
+  }
+  const categoryRows = categoryNames.map(() => [] as number[]);
+  for (let r = 0; r < n; r++) if (withinCols.length > 0) categoryRows[categoryOf[r]].push(r);
+  const allRows = Array.from({ length: n }, (_, r) => r);
+
+  const variableOf = variable === undefined
+    ? undefined
+    : (rowsTable.columns.find((c) => c.name === variable.name) as NumericColumn).values;
+
+  const figures = (rows: number[]): GapFigure[] => {
+    const raw = rawGaps(
+      rows.map((r) => payOf[r]),
+      rows.map((r) => groupName[r]),
+      reference,
+    );
+    const variableRaw = variableOf === undefined
+      ? []
+      : variableGaps(rows, variableOf, groupName, reference, privacyMin);
+    const fitted = residualRegression(
+      payResidual,
+      groupResidual,
+      rows.filter((r) => usable[r]),
+    );
+    return groups.map((g, j) => {
+      const rawOne = raw.find((x) => x.group === g)!;
+      const referenceRows = rows.filter((r) => groupName[r] === reference).length;
+      const coefficient = fitted?.[j];
+      const interval = coefficient
+        ? gapFromCoefficient(coefficient.coefficient, coefficient.se, confidence)
+        : null;
+      const v = variableRaw.find((x) => x.group === g);
+      return {
+        group: g,
+        rows: rawOne.rows,
+        referenceRows,
+        rawMean: rawOne.meanGap,
+        rawMedian: rawOne.medianGap,
+        variableMean: v?.meanGap ?? null,
+        variableMedian: v?.medianGap ?? null,
+        adjusted: interval?.gap ?? null,
+        low: interval?.low ?? null,
+        high: interval?.high ?? null,
+        coefficient: coefficient?.coefficient ?? null,
+        se: coefficient?.se ?? null,
+        p: coefficient?.p ?? null,
+        pAdjusted: coefficient?.p ?? null,
+        residualDifference: residualDifference(rows, usable, payResidual, groupName, g, reference),
+        rawFlag: Math.abs(rawOne.meanGap) >= threshold,
+        unexplainedFlag: false,
+      };
+    });
+  };
+  const flag = (f: GapFigure) => {
+    f.unexplainedFlag = f.pAdjusted !== null && f.adjusted !== null && f.pAdjusted <= 0.05 &&
+      Math.abs(f.adjusted) >= materiality;
+  };
+
+  // Privacy: counts of each group per category, then suppression.
+  const countsPer = categoryRows.map((rows) =>
+    allGroups.map((g) => rows.filter((r) => groupName[r] === g).length)
+  );
+  const suppression = withinCols.length > 0
+    ? suppressSmallGroups(countsPer, privacyMin)
+    : suppressSmallGroups([allGroups.map((g) => counts.get(g)!)], privacyMin);
+
+  const overallHidden = suppression.overallHidden;
+  const overallGaps = overallHidden ? [] : figures(allRows);
+  overallGaps.forEach(flag);
+  const categories: GapCategory[] = categoryNames.map((name, c) =>
+    suppression.hidden[c] ? { name, suppressed: true as const } : {
+      name,
+      suppressed: false as const,
+      rows: categoryRows[c].length,
+      gaps: figures(categoryRows[c]),
+    }
+  );
+  // Holm across every figure shown per category.
+  const shown = categories.flatMap((c) => (c.suppressed ? [] : c.gaps.filter((g) => g.p !== null)));
+  const adjusted = holmAdjust(shown.map((g) => g.p!));
+  shown.forEach((g, i) => (g.pAdjusted = adjusted[i]));
+  for (const c of categories) if (!c.suppressed) c.gaps.forEach(flag);
+
+  const regressions: GapRegression[] = overallHidden
+    ? []
+    : overallGaps.flatMap((f) =>
+      f.coefficient === null ? [] : [{
+        group: f.group,
+        coefficient: f.coefficient,
+        se: f.se!,
+        percent: 100 * f.adjusted!,
+        gap: f.adjusted!,
+        low: f.low!,
+        high: f.high!,
+        p: f.p!,
+      }]
+    );
+  const notes: string[] = [];
+  const linear = overallHidden
+    ? null
+    : linearGaps(payDataset, logPay, groupCode, groups, confidence, notes);
+
+  options.onProgress?.("proxies", 0, payDataset.features.length);
+  const proxies = (await proxyFigures(payDataset.features, groupCode, allGroups, options.group, {
+    seed,
+    minLeaf,
+    workers: options.workers,
+  })).filter((p) => p.balancedAccuracy >= proxyThreshold);
+  options.onProgress?.("proxies", payDataset.features.length, payDataset.features.length);
+
+  if (otherGroupsLeftOut > 0) {
+    notes.push(
+      `${otherGroupsLeftOut} people of other groups than ${allGroups.join(" and ")} are left out ` +
+        `(--groups).`,
+    );
+  }
+  const hiddenCount = suppression.hidden.filter(Boolean).length;
+  if (hiddenCount > 0) {
+    const primary = suppression.primary.filter(Boolean).length;
+    notes.push(
+      `${hiddenCount} ${hiddenCount === 1 ? "category is" : "categories are"} too few to report: ` +
+        `${primary} with fewer than ${privacyMin} people in a group` +
+        (hiddenCount > primary
+          ? `, and ${hiddenCount - primary} more so that those cannot be worked out from the total`
+          : "") +
+        ".",
+    );
+  }
+  if (overallHidden) {
+    notes.push(
+      `The overall figures are withheld: a group has fewer than ${privacyMin} people, or the ` +
+        `hidden categories could be worked out from them.`,
+    );
+  }
+  notes.push(
+    "The residual difference compares the groups' average out-of-bag pay residuals from the " +
+      "pay model alone; it understates the gap when a group is concentrated in some levels or " +
+      "families, because the pay model then learns part of the gap as if it were the level's.",
+  );
+
+  return {
+    target: options.target,
+    group: options.group,
+    reference,
+    referenceReason,
+    groups,
+    within,
+    variable: options.variable ?? null,
+    threshold,
+    materiality,
+    privacyMin,
+    confidence,
+    rows: n,
+    missingGroup,
+    overall: overallHidden
+      ? { suppressed: true }
+      : { suppressed: false, rows: n, gaps: overallGaps },
+    quartiles: overallHidden ? null : payQuartiles(payOf, groupName),
+    regression: regressions[0] ?? null,
+    regressions,
+    linear,
+    categories,
+    features: payDataset.features.map((f) => f.name),
+    proxies,
+    proxyThreshold,
+    models: {
+      trees,
+      payR2Log: oobR2(logPay, payModel.oob, usable),
+      groupBalancedAccuracy: balancedAccuracy(groupModel.oob, groupCode, width, usable),
+    },
+    notes,
+    provenance: {
+      paygrove: VERSION,
+      table: {
+        file: table.source.file ?? "input",
+        sha256: table.source.sha256,
+        rows: table.rows + table.excluded.count,
+      },
+      seed,
+    },
+  };
+}
+
+/**
+ * The reference group: the one named, else men for a column named sex or
+ * gender (the Directive's gender pay gap takes male workers as the
+ * reference), else the largest group (ties: the first by name).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { chooseReference } from "./gap_check.ts";
+ * const counts = new Map([["Woman", 60], ["Man", 40]]);
+ * assert(chooseReference("gender", counts).reference === "Man");
+ * assert(chooseReference("site", new Map([["A", 5], ["B", 9]])).reference === "B");
+ * ```
+ */
+export function chooseReference(
+  column: string,
+  counts: ReadonlyMap<string, number>,
+  named?: string,
+): { reference: string; reason: string } {
+  const groups = [...counts.keys()].sort();
+  if (named !== undefined) {
+    const found = groups.find((g) => g.toLowerCase() === named.toLowerCase());
+    if (found === undefined) {
+      throw new OptionError(
+        `--reference: "${named}" is not a group of "${column}"; the groups are: ${
+          groups.join(", ")
+        }`,
+      );
+    }
+    return { reference: found, reason: "named with --reference" };
+  }
+  const words = nameWords(column);
+  if (words.includes("sex") || words.includes("gender")) {
+    const men = groups.find((g) => /^(m|male|males|man|men)$/i.test(g.trim()));
+    if (men !== undefined) {
+      return { reference: men, reason: "men, as the Directive's gender pay gap is measured" };
+    }
+  }
+  let best = groups[0];
+  for (const g of groups) if (counts.get(g)! > counts.get(best)!) best = g;
+  return { reference: best, reason: "the largest group" };
+}
+
+function residualDifference(
+  rows: number[],
+  usable: boolean[],
+  residual: Float64Array,
+  groupName: string[],
+  group: string,
+  reference: string,
+): number | null {
+  let sg = 0, ng = 0, sr = 0, nr = 0;
+  for (const r of rows) {
+    if (!usable[r]) continue;
+    if (groupName[r] === group) {
+      sg += residual[r];
+      ng++;
+    } else if (groupName[r] === reference) {
+      sr += residual[r];
+      nr++;
+    }
+  }
+  if (ng === 0 || nr === 0) return null;
+  return 1 - Math.exp(sg / ng - sr / nr);
+}
+
+function variableGaps(
+  rows: number[],
+  values: Float64Array,
+  groupName: string[],
+  reference: string,
+  privacyMin: number,
+) {
+  const known = rows.filter((r) => !Number.isNaN(values[r]));
+  const per = new Map<string, number>();
+  for (const r of known) per.set(groupName[r], (per.get(groupName[r]) ?? 0) + 1);
+  // Variable pay known for too few of a group: no figure for it.
+  if ((per.get(reference) ?? 0) < privacyMin) return [];
+  const sumRef = known.reduce((s, r) => s + (groupName[r] === reference ? values[r] : 0), 0);
+  if (sumRef === 0) return [];
+  return rawGaps(known.map((r) => values[r]), known.map((r) => groupName[r]), reference)
+    .filter((g) => g.rows >= privacyMin);
+}
+
+function linearGaps(
+  dataset: Dataset,
+  logPay: Float64Array,
+  groupCode: Int32Array,
+  groups: string[],
+  confidence: number,
+  notes: string[],
+): GapRegression[] | null {
+  const design = designOf(dataset);
+  groups.forEach((g, j) => {
+    design.names.push(`group=${g}`);
+    design.columns.push(Float64Array.from(groupCode, (c) => (c === j + 1 ? 1 : 0)));
+  });
+  try {
+    const fit = fitLeastSquares(design, logPay);
+    return groups.map((g) => {
+      const at = fit.names.indexOf(`group=${g}`);
+      const b = fit.coefficients[at];
+      const se = fit.standardErrors[at];
+      const interval = gapFromCoefficient(b, se, confidence);
+      return {
+        group: g,
+        coefficient: b,
+        se,
+        percent: 100 * interval.gap,
+        gap: interval.gap,
+        low: interval.low,
+        high: interval.high,
+        // Normal approximation, as for the adjusted gap.
+        p: twoSidedP(b, se),
+      };
+    });
+  } catch (error) {
+    if (!(error instanceof RangeError)) throw error;
+    notes.push(`The linear version could not be fitted: ${error.message}.`);
+    return null;
+  }
+}
+
+function oobR2(y: Float64Array, oob: Float64Array, usable: boolean[]): number {
+  let mean = 0, count = 0;
+  for (let r = 0; r < y.length; r++) {
+    if (usable[r]) {
+      mean += y[r];
+      count++;
+    }
+  }
+  mean /= count;
+  let sse = 0, sst = 0;
+  for (let r = 0; r < y.length; r++) {
+    if (!usable[r]) continue;
+    sse += (y[r] - oob[r]) ** 2;
+    sst += (y[r] - mean) ** 2;
+  }
+  return 1 - sse / sst;
+}
+
+function balancedAccuracy(
+  oob: Float64Array,
+  codes: Int32Array,
+  width: number,
+  usable: boolean[],
+): number {
+  const right = new Float64Array(width);
+  const total = new Float64Array(width);
+  for (let r = 0; r < codes.length; r++) {
+    if (!usable[r]) continue;
+    let best = 0;
+    for (let c = 1; c < width; c++) if (oob[r * width + c] > oob[r * width + best]) best = c;
+    total[codes[r]]++;
+    if (best === codes[r]) right[codes[r]]++;
+  }
+  let sum = 0, present = 0;
+  for (let c = 0; c < width; c++) {
+    if (total[c] > 0) {
+      sum += right[c] / total[c];
+      present++;
+    }
+  }
+  return sum / present;
+}

@@ -1,0 +1,309 @@
+/**
+ * The per-employee pay review behind `paygrove review`: for each person,
+ * what the current pay structure pays people like them (the out-of-bag
+ * estimate, from trees that never saw the person, so someone paid
+ * differently is not hidden by their own pay), the range comparable people
+ * earn, where their pay sits in it, and whether it is under or over; then,
+ * per category of workers, how many are under range and what bringing
+ * them up to the low end of their range would cost.
+ *
+ * The range is the default range of paygrove's estimates: the estimate
+ * plus quantiles of out-of-bag log-pay residuals of people with similar
+ * estimates (see grouped_range.ts).
+ *
+ * @module
+ */
+
+import { makeDataset } from "../dataset/make_dataset.ts";
+import { OptionError } from "../errors.ts";
+import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
+import {
+  groupedRange,
+  groupResiduals,
+  summarizeResidualGroups,
+} from "../ensemble/grouped_range.ts";
+import { toFitScale } from "../ensemble/pay_scale.ts";
+import { residualGroupCount } from "../ensemble/read_profile.ts";
+import { filterRows } from "../table/filter_rows.ts";
+import type { LevelColumn, MoneyUnit, Table } from "../table/types.ts";
+import { VERSION } from "../version.ts";
+import { suppressSmallGroups } from "./suppress.ts";
+
+/** Options of {@linkcode payReview}. */
+export interface ReviewOptions {
+  /** The pay column. */
+  target: string;
+  /** The factors (default: every usable column but protected ones). */
+  features?: string[];
+  /** Columns to leave out of the factors. */
+  drop?: string[];
+  /** Keep only rows matching these. */
+  where?: Record<string, string[]>;
+  /** Columns whose combinations are the categories summarised. */
+  within?: string[];
+  /** Share of comparable people's pay the range covers. @default {0.9} */
+  coverage?: number;
+  /** Fewest people in a category for its summary to be shown. @default {5} */
+  privacyMin?: number;
+  /** Trees. @default {200} */
+  trees?: number;
+  /** Fewest people in a leaf. @default {5} */
+  minLeaf?: number;
+  /** Seed. @default {1} */
+  seed?: number;
+  /** Workers. */
+  workers?: number;
+  /** Progress of the trees. */
+  onProgress?: (done: number, total: number) => void;
+}
+
+/** Where one person's pay sits. */
+export type ReviewStatus = "under" | "within" | "over";
+
+/** One person of the table. */
+export interface ReviewPerson {
+  /** Identifier (or "line N" when the table has no identifier column). */
+  id: string;
+  /** Source line of the row. */
+  line: number;
+  /** Their pay. */
+  pay: number;
+  /** Out-of-bag estimate (typical pay of people like them); null when every tree drew them. */
+  estimate: number | null;
+  /** Low end of the range comparable people earn. */
+  low: number | null;
+  /** High end. */
+  high: number | null;
+  /** (pay - low) / (high - low): 0 at the low end, 1 at the high end. */
+  position: number | null;
+  /** Under, within or over the range. */
+  status: ReviewStatus | null;
+  /** low - pay for people under range, else 0: the cost of bringing them to the low end. */
+  shortfall: number;
+}
+
+/** One category's summary, or only its name when too few to report. */
+export type ReviewCategory =
+  | { name: string; suppressed: true }
+  | { name: string; suppressed: false; people: number; under: number; over: number; cost: number };
+
+/** Everything `paygrove review` reports. */
+export interface PayReview {
+  /** The pay column. */
+  target: string;
+  /** The range's coverage. */
+  coverage: number;
+  /** The pay column's currency and period, when known. */
+  money: MoneyUnit | null;
+  /** The factors used. */
+  features: string[];
+  /** The identifier column, when the table has one. */
+  idColumn: string | null;
+  /** Every person, in table order. */
+  people: ReviewPerson[];
+  /** Totals over everyone (withheld when suppression demands it). */
+  overall:
+    | { suppressed: false; people: number; under: number; over: number; cost: number }
+    | { suppressed: true };
+  /** The columns defining categories. */
+  within: string[];
+  /** Per category. */
+  categories: ReviewCategory[];
+  /** The privacy minimum. */
+  privacyMin: number;
+  /** Out-of-bag R^2 of log pay. */
+  oobR2Log: number;
+  /** Where the figures came from. */
+  provenance: {
+    paygrove: string;
+    table: { file: string; sha256: string; rows: number };
+    seed: number;
+  };
+}
+
+/**
+ * Reviews every person's pay against the range of comparable people.
+ *
+ * @throws {OptionError} for options that do not fit the table.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, loadTable, payReview } from "../../mod.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 300, seed: 2 }), { target: "base_pay_eur" });
+ * const review = await payReview(table, { target: "base_pay_eur", trees: 20, workers: 1 });
+ * const under = review.people.filter((p) => p.status === "under");
+ * assert(!review.overall.suppressed);
+ * assert(Math.abs(review.overall.cost - under.reduce((s, p) => s + p.shortfall, 0)) < 1e-6);
+ * ```
+ */
+export async function payReview(table: Table, options: ReviewOptions): Promise<PayReview> {
+  const coverage = options.coverage ?? 0.9;
+  const privacyMin = options.privacyMin ?? 5;
+  const seed = options.seed ?? 1;
+  const trees = options.trees ?? 200;
+  if (privacyMin < 3) throw new OptionError(`--privacy-min is never below 3, got ${privacyMin}`);
+  if (!(coverage > 0 && coverage < 1)) {
+    throw new OptionError(`--coverage must lie between 0 and 1 (0.9 = 90%), got ${coverage}`);
+  }
+  const filtered = filterRows(table, options.where ?? {});
+  const payColumn = filtered.columns.find((c) => c.name === options.target);
+  if (payColumn !== undefined && payColumn.type !== "numeric") {
+    throw new OptionError(`--target: "${options.target}" is not numeric; a review needs pay`);
+  }
+  const within = options.within ?? [];
+  const withinCols = within.map((name) => {
+    const c = filtered.columns.find((x) => x.name === name);
+    if (c === undefined) {
+      throw new OptionError(
+        `--within: no column named "${name}"; the columns are: ${
+          filtered.columns.map((x) => x.name).join(", ")
+        }`,
+      );
+    }
+    if (c.type !== "categorical" && c.type !== "ordinal") {
+      throw new OptionError(
+        `--within: "${name}" is ${c.type}; categories come from columns of named levels`,
+      );
+    }
+    return c as LevelColumn;
+  });
+  const { dataset: encoded, rowIndex } = makeDataset(filtered, {
+    target: options.target,
+    features: options.features,
+    drop: options.drop,
+  });
+  if (encoded.features.length === 0) {
+    throw new OptionError("no factors are left to compare people on; name them with --features");
+  }
+  const logPay = toFitScale(encoded.target.values, "log", options.target);
+  const dataset = { ...encoded, target: { ...encoded.target, values: logPay } } as typeof encoded;
+  const { ensemble } = await fitDefaultEnsemble(dataset, {
+    trees,
+    seed,
+    foldSeed: seed,
+    workers: options.workers,
+    grow: { minLeaf: Math.max(options.minLeaf ?? 5, 1) },
+    onProgress: options.onProgress,
+  });
+  const oob = ensemble.oob;
+  const groups = summarizeResidualGroups(
+    groupResiduals(oob, logPay, residualGroupCount(dataset.rows)),
+  );
+  const idColumn = filtered.columns.find((c) => c.type === "identifier");
+  const people: ReviewPerson[] = Array.from(rowIndex, (tableRow, r) => {
+    const pay = encoded.target.values[r];
+    const id = idColumn?.type === "identifier" && idColumn.values[tableRow] !== ""
+      ? idColumn.values[tableRow]
+      : `line ${filtered.lines[tableRow]}`;
+    if (Number.isNaN(oob[r])) {
+      return {
+        id,
+        line: filtered.lines[tableRow],
+        pay,
+        estimate: null,
+        low: null,
+        high: null,
+        position: null,
+        status: null,
+        shortfall: 0,
+      };
+    }
+    const range = groupedRange(oob[r], groups, coverage);
+    const low = Math.exp(range.low);
+    const high = Math.exp(range.high);
+    const status: ReviewStatus = pay < low ? "under" : pay > high ? "over" : "within";
+    return {
+      id,
+      line: filtered.lines[tableRow],
+      pay,
+      estimate: Math.exp(oob[r]),
+      low,
+      high,
+      position: (pay - low) / (high - low),
+      status,
+      shortfall: status === "under" ? low - pay : 0,
+    };
+  });
+
+  const summary = (members: number[]) => ({
+    people: members.length,
+    under: members.filter((i) => people[i].status === "under").length,
+    over: members.filter((i) => people[i].status === "over").length,
+    cost: members.reduce((s, i) => s + people[i].shortfall, 0),
+  });
+  const names: string[] = [];
+  const members: number[][] = [];
+  if (withinCols.length > 0) {
+    const index = new Map<string, number>();
+    const keys: number[][] = [];
+    rowIndex.forEach((tableRow) => {
+      const key = withinCols.map((c) => c.codes[tableRow]);
+      if (!index.has(key.join(","))) {
+        index.set(key.join(","), -1);
+        keys.push(key);
+      }
+    });
+    const rank = (x: number) => (x < 0 ? Infinity : x);
+    keys.sort((a, b) => {
+      for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return rank(a[i]) - rank(b[i]);
+      return 0;
+    });
+    keys.forEach((key, i) => {
+      index.set(key.join(","), i);
+      names.push(
+        key.map((code, j) => (code < 0 ? "(missing)" : withinCols[j].levels[code])).join(" / "),
+      );
+      members.push([]);
+    });
+    rowIndex.forEach((tableRow, r) => {
+      members[index.get(withinCols.map((c) => c.codes[tableRow]).join(","))!].push(r);
+    });
+  }
+  const suppression = suppressSmallGroups(
+    withinCols.length > 0 ? members.map((m) => [m.length]) : [[people.length]],
+    privacyMin,
+  );
+  const categories: ReviewCategory[] = names.map((name, c) =>
+    suppression.hidden[c]
+      ? { name, suppressed: true as const }
+      : { name, suppressed: false as const, ...summary(members[c]) }
+  );
+  let sse = 0, sst = 0, mean = 0, count = 0;
+  for (let r = 0; r < dataset.rows; r++) {
+    if (!Number.isNaN(oob[r])) {
+      mean += logPay[r];
+      count++;
+    }
+  }
+  mean /= count;
+  for (let r = 0; r < dataset.rows; r++) {
+    if (Number.isNaN(oob[r])) continue;
+    sse += (logPay[r] - oob[r]) ** 2;
+    sst += (logPay[r] - mean) ** 2;
+  }
+  return {
+    target: options.target,
+    coverage,
+    money: payColumn?.type === "numeric" ? payColumn.money ?? null : null,
+    features: dataset.features.map((f) => f.name),
+    idColumn: idColumn?.name ?? null,
+    people,
+    overall: suppression.overallHidden
+      ? { suppressed: true }
+      : { suppressed: false, ...summary(people.map((_, i) => i)) },
+    within,
+    categories,
+    privacyMin,
+    oobR2Log: 1 - sse / sst,
+    provenance: {
+      paygrove: VERSION,
+      table: {
+        file: table.source.file ?? "input",
+        sha256: table.source.sha256,
+        rows: table.rows + table.excluded.count,
+      },
+      seed,
+    },
+  };
+}

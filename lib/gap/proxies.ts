@@ -1,0 +1,105 @@
+/**
+ * Possible proxies of a protected attribute: legitimate-looking features
+ * that on their own predict it well. A pay model that leaves the attribute
+ * out can still pay by it through such a feature, so they are named with
+ * their figure wherever a pay model or a gap check is shown.
+ *
+ * The figure is the out-of-bag balanced accuracy (the mean of the recall of
+ * each group, so a large group cannot make a weak predictor look strong) of
+ * a bagged classification ensemble fitted on the one feature alone.
+ *
+ * @module
+ */
+
+import type { Dataset, Feature } from "../dataset/types.ts";
+import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
+import { oobClassificationMetrics } from "../ensemble/intervals.ts";
+
+/** The default balanced accuracy from which a feature is named a possible proxy. */
+export const PROXY_THRESHOLD = 0.65;
+
+/** One feature's power to predict a protected attribute. */
+export interface ProxyFigure {
+  /** The feature. */
+  feature: string;
+  /** The protected attribute it predicts. */
+  attribute: string;
+  /** Out-of-bag balanced accuracy, 1 / (number of groups) for no power at all. */
+  balancedAccuracy: number;
+}
+
+/** Options of {@linkcode proxyFigures}. */
+export interface ProxyOptions {
+  /** Trees per ensemble. @default {50} */
+  trees?: number;
+  /** Seed. @default {1} */
+  seed?: number;
+  /** Fewest people in a leaf. @default {5} */
+  minLeaf?: number;
+  /** Workers. */
+  workers?: number;
+}
+
+/**
+ * Balanced accuracy of each feature alone predicting the attribute, highest
+ * first.
+ *
+ * @param features The pay model's features, over the same rows as `attribute`.
+ * @param attribute The protected attribute's group code per row (no missing).
+ * @param groups Its group names.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { proxyFigures } from "./proxies.ts";
+ * // "shift" equals the group for 90% of people; "floor" is unrelated.
+ * const n = 400;
+ * const group = Int32Array.from({ length: n }, (_, i) => i % 2);
+ * const shift = Float64Array.from(group, (g, i) => (i % 10 === 0 ? 1 - g : g));
+ * const floor = Float64Array.from({ length: n }, (_, i) => Math.floor(i / 2) % 7);
+ * const figures = await proxyFigures(
+ *   [{ name: "shift", kind: "numeric", values: shift }, { name: "floor", kind: "numeric", values: floor }],
+ *   group, ["A", "B"], "sex", { trees: 20, workers: 1 },
+ * );
+ * assert(figures[0].feature === "shift" && figures[0].balancedAccuracy > 0.85);
+ * assert(figures[1].balancedAccuracy < 0.6);
+ * ```
+ */
+export async function proxyFigures(
+  features: readonly Feature[],
+  attribute: Int32Array,
+  groups: readonly string[],
+  attributeName: string,
+  options: ProxyOptions = {},
+): Promise<ProxyFigure[]> {
+  const out: ProxyFigure[] = [];
+  for (const feature of features) {
+    const dataset: Dataset = {
+      rows: attribute.length,
+      features: [feature],
+      target: {
+        kind: "classification",
+        name: attributeName,
+        classes: [...groups],
+        values: attribute,
+      },
+    };
+    const ensemble = await fitEnsembleParallel(dataset, {
+      trees: options.trees ?? 50,
+      seed: options.seed ?? 1,
+      prune: "none",
+      grow: { minLeaf: options.minLeaf ?? 5 },
+      workers: options.workers,
+    });
+    const metrics = oobClassificationMetrics(ensemble, attribute);
+    const present = metrics.confusion.flatMap((row, c) =>
+      row.reduce((a, b) => a + b, 0) > 0 ? [metrics.recall[c]] : []
+    );
+    out.push({
+      feature: feature.name,
+      attribute: attributeName,
+      balancedAccuracy: present.reduce((a, b) => a + b, 0) / present.length,
+    });
+  }
+  return out.sort((a, b) => b.balancedAccuracy - a.balancedAccuracy);
+}

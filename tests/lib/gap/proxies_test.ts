@@ -1,0 +1,89 @@
+// Possible proxies: a feature that alone predicts a protected attribute is
+// named in the model with its out-of-bag balanced accuracy, which must equal
+// the mean per-group recall of the out-of-bag class votes counted here.
+import assert from "node:assert/strict";
+import {
+  fitEnsemble,
+  fitModel,
+  loadTable,
+  makeRng,
+  modelFromText,
+  modelToText,
+  randomInt,
+} from "../../../mod.ts";
+
+// An invented table: night shifts are mostly worked by one sex (85%), so
+// "shift" carries it; "level" is drawn independently of it.
+function shiftTable(): string {
+  const rng = makeRng(11);
+  const lines = ["id,sex,shift,level,pay"];
+  for (let i = 0; i < 400; i++) {
+    const sex = randomInt(rng, 0, 1) === 0 ? "F" : "M";
+    const tracks = randomInt(rng, 0, 99) < 85;
+    const shift = tracks
+      ? (sex === "M" ? "night" : "day")
+      : (randomInt(rng, 0, 1) ? "night" : "day");
+    const level = randomInt(rng, 1, 3);
+    const pay = 40000 + 10000 * level + (shift === "night" ? 3000 : 0) +
+      randomInt(rng, -2000, 2000);
+    lines.push(`E${i},${sex},${shift},L${level},${pay}`);
+  }
+  return lines.join("\n") + "\n";
+}
+
+Deno.test("a feature that carries a protected attribute is named, with its balanced accuracy", async () => {
+  const table = loadTable(shiftTable(), { target: "pay", file: "shift.csv" });
+  const model = await fitModel(table, { target: "pay", trees: 20, folds: 5, workers: 1 });
+  assert.ok(model.features.every((f) => f.name !== "sex"));
+  assert.deepEqual(model.proxies!.map((p) => [p.feature, p.attribute]), [["shift", "sex"]]);
+  const figure = model.proxies![0].balancedAccuracy;
+
+  // Recount: 50 trees on shift alone (the proxy check's settings), each
+  // row's out-of-bag class is the larger averaged share; recall per sex.
+  const sex = table.columns.find((c) => c.name === "sex")!;
+  const shift = table.columns.find((c) => c.name === "shift")!;
+  if (sex.type !== "categorical" || shift.type !== "categorical") {
+    throw new Error("levels expected");
+  }
+  const ensemble = fitEnsemble({
+    rows: table.rows,
+    features: [{
+      name: "shift",
+      kind: "categorical",
+      levels: shift.levels,
+      values: Float64Array.from(shift.codes),
+    }],
+    target: { kind: "classification", name: "sex", classes: sex.levels, values: sex.codes },
+  }, { trees: 50, seed: 1, prune: "none", grow: { minLeaf: 5 } });
+  const right = [0, 0];
+  const total = [0, 0];
+  for (let r = 0; r < table.rows; r++) {
+    if (ensemble.oobTrees[r] === 0) continue;
+    const guess = ensemble.oob[2 * r + 1] > ensemble.oob[2 * r] ? 1 : 0;
+    total[sex.codes[r]]++;
+    if (guess === sex.codes[r]) right[sex.codes[r]]++;
+  }
+  const recount = (right[0] / total[0] + right[1] / total[1]) / 2;
+  assert.ok(Math.abs(figure - recount) < 1e-12, `${figure} vs ${recount}`);
+  // 85% of people follow the pattern, the rest split evenly: about 0.92.
+  assert.ok(figure > 0.85 && figure < 0.97, `${figure}`);
+
+  // The figure survives the model file.
+  const again = modelFromText(modelToText(model), "shift.model.json");
+  assert.deepEqual(again.proxies, model.proxies);
+});
+
+Deno.test("a model without protected columns names no proxies", async () => {
+  const table = loadTable(
+    shiftTable().replace(/^id,sex,/, "id,team,"),
+    { target: "pay", file: "shift.csv" },
+  );
+  const model = await fitModel(table, {
+    target: "pay",
+    drop: ["team"],
+    trees: 10,
+    folds: 5,
+    workers: 1,
+  });
+  assert.deepEqual(model.proxies, []);
+});
