@@ -23,6 +23,8 @@ import { inspectCommand } from "./commands/inspect.ts";
 import { processTerminal, type Terminal } from "./terminal.ts";
 import { startFlow } from "./flow/start_flow.ts";
 import { demoDataCommand } from "./commands/demo_data.ts";
+import { gapCommand } from "./commands/gap.ts";
+import { reviewCommand } from "./commands/review.ts";
 
 /** Exit statuses of the `paygrove` command. */
 export const EXIT = { ok: 0, data: 1, usage: 2, internal: 70 } as const;
@@ -51,6 +53,8 @@ export function buildProgram(terminal: Terminal): Command {
       sweepCommand,
       batchCommand,
       inspectCommand,
+      gapCommand,
+      reviewCommand,
       demoDataCommand,
     ]
   ) {

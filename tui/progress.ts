@@ -11,6 +11,9 @@ const STAGES: Record<string, string> = {
   "cross-validation": "reference tree",
   trees: "ensemble trees",
   importance: "importance",
+  "pay model": "pay model trees",
+  "group model": "group model trees",
+  proxies: "proxy checks",
 };
 
 /** A progress reporter: `update` as work advances, `finish` at the end. */

@@ -68,6 +68,7 @@ Deno.test({
       await when("What do you want to work with?", "Enter");
       await when("Which column should paygrove estimate?", "Enter");
       await when("Which attributes may explain it?", "Enter");
+      await when("Check for pay gaps between groups first?", "Enter");
       await when("Start the profile from", "Enter");
       await when("What next?", "Down", "Enter");
       await when("Decision path: step");

@@ -13,7 +13,7 @@ import {
   typicalProfile,
   writeModelFile,
 } from "../../mod.ts";
-import { DEMO_READ, guidedFlow } from "../../tui/flow/guided_flow.ts";
+import { DEMO_READ, guidedFlow, levers } from "../../tui/flow/guided_flow.ts";
 import { formatPay, formatPercent } from "../../tui/render/numbers.ts";
 import { setAscii } from "../../tui/render/glyphs.ts";
 import { flowDriver, KEY } from "./_flow_driver.ts";
@@ -43,6 +43,7 @@ async function demoFitted(driver: ReturnType<typeof flowDriver>): Promise<void> 
   await driver.when("What do you want to work with?", KEY.enter);
   await driver.when("Which column should paygrove estimate?", KEY.enter);
   await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Check for pay gaps between groups first?", KEY.enter); // No
 }
 
 Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit", async () => {
@@ -138,6 +139,7 @@ Deno.test("--ascii: every character on screen is ASCII", async () => {
     await driver.when("What do you want to work with?", KEY.enter);
     await driver.when("Which column should paygrove estimate?", KEY.enter);
     await driver.when("Which attributes may explain it?", KEY.enter);
+    await driver.when("Check for pay gaps between groups first?", KEY.enter);
     await driver.when("Start the profile from", KEY.enter);
     await driver.when("What next?", KEY.down, KEY.down, KEY.enter); // Sweep
     await driver.when("Sweep which attribute?", KEY.down, KEY.enter);
@@ -272,4 +274,43 @@ Deno.test("from a newcomer's trial: values as typed, the person's own pay, a bad
   const report = await Deno.readTextFile(`${dir}/r.md`);
   assert.match(report, /\| years_at_company 18\.9 -> -1 \| €[\d,]+ \| €[\d,]+ \| [+-]?€[\d,]+ \(/);
   await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("the gap step: by gender, women against men within job families, the planted gap flagged", async () => {
+  const driver = flowDriver(60000);
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Check for pay gaps between groups first?", KEY.up, KEY.enter); // Yes, by gender
+  // Untick Non-binary (the second of Man, Non-binary, Woman).
+  await driver.when(
+    "Compare which groups with the reference group?",
+    KEY.down,
+    KEY.space,
+    KEY.enter,
+  );
+  await driver.when("Compare within which categories of workers?", KEY.enter); // job_family
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  const screen = driver.screen();
+  assert.match(screen, /Pay gap by gender: Woman against Man/);
+  const flagged = screen.split("\n").filter((l) => /unexpl\.\s*$/.test(l));
+  assert.equal(flagged.length, 1, flagged.join("\n"));
+  assert.match(flagged[0], /^Field Service /);
+  assert.match(screen, /not proof of discrimination/);
+});
+
+Deno.test("a protected attribute is never a what-if lever, even in a model fitted with it", async () => {
+  const withGender = await fitModel(table, {
+    target: "base_pay_eur",
+    features: ["level", "job_family", "gender"],
+    allowProtected: true,
+    trees: 5,
+    workers: 1,
+  });
+  const names = levers(withGender).map((i) => withGender.features[i].name);
+  assert.deepEqual(names.sort(), ["job_family", "level"]);
+  assert.ok(withGender.features.some((f) => f.name === "gender" && f.protected));
 });

@@ -32,7 +32,7 @@ export function wholeNumber(min: number) {
 }
 
 /** Collects repeated `COLUMN=VALUE` options into alternatives per column. */
-function collectWhere(text: string, previous: Record<string, string[]> = {}) {
+export function collectWhere(text: string, previous: Record<string, string[]> = {}) {
   const at = text.indexOf("=");
   if (at <= 0 || at === text.length - 1) {
     throw new InvalidArgumentError(`expected COLUMN=VALUE, got "${text}"`);
@@ -100,6 +100,7 @@ export function fitJson(model: Model, out: string, bytes: number): Record<string
       : { constantAccuracy: q.constantInSample.accuracy, constantCvAccuracy: q.constant.accuracy },
     quality: q,
     importance: model.importance,
+    proxies: model.proxies ?? [],
     model: { path: out, bytes },
     seconds: model.seconds,
     provenance: model.provenance,

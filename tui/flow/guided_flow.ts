@@ -48,6 +48,7 @@ import { tableChars } from "../render/glyphs.ts";
 import { renderSchemaBrief } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
+import { offerGapCheck } from "./gap_step.ts";
 
 /** Settings of a flow run. */
 export interface FlowOptions {
@@ -90,6 +91,7 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   }
   const session = openModel(model);
   const money = moneyStyle(model, { locale: options.locale });
+  if (tableText !== null) await offerGapCheck(io, model, tableText, money);
   await whatIfLoop(io, session, tableText, money, options);
 }
 
@@ -359,7 +361,7 @@ async function whatIfLoop(
     } else if (next === "sweep") {
       const f = await io.choose(
         "Sweep which attribute?",
-        model.features.map((feature, i) => ({ name: feature.name, value: i })),
+        levers(model).map((i) => ({ name: model.features[i].name, value: i })),
       );
       const sweep = sweepAnswer(session, profile, f, sweepValues(model, f, { steps: 12 }), 0.9);
       io.say(["", ...renderSweep(sweep, view)].join("\n"));
@@ -443,13 +445,21 @@ async function buildProfile(
   return { profile };
 }
 
+/**
+ * The attributes offered as what-if levers: never a protected attribute,
+ * even in a model fitted with one.
+ */
+export function levers(model: Model): number[] {
+  return model.features.flatMap((f, i) => (f.protected ? [] : [i]));
+}
+
 /** Asks which attribute to change and its new value; returns `name=value`. */
 async function editOne(io: FlowIO, model: Model, profile: Profile): Promise<string> {
   const shown = describeProfile(model, profile);
   const f = await io.choose(
     "Change which attribute?",
-    model.features.map((feature, i) => ({
-      name: `${feature.name} (now ${shown[feature.name] ?? "missing"})`,
+    levers(model).map((i) => ({
+      name: `${model.features[i].name} (now ${shown[model.features[i].name] ?? "missing"})`,
       value: i,
     })),
   );

@@ -83,6 +83,8 @@ export function renderModelSummary(model: Model, options: ModelViewOptions): str
   }
   lines.push("", ...renderAccuracy(model, options));
   lines.push("", ...renderImportance(model, options));
+  const proxies = proxyLine(model);
+  if (proxies !== null) lines.push("", ...wrap(style.warn(proxies)));
   lines.push("", ...wrap(style.dim(pruningLine(model))));
   return lines;
 }
@@ -331,4 +333,28 @@ export function renderTreeOutline(model: Model, options: ModelViewOptions): stri
   };
   visit(0, 0, "all");
   return lines;
+}
+
+/**
+ * The possible proxies of protected attributes in one sentence, or null
+ * when there are none.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { proxyLine } from "./model_view.ts";
+ * const line = proxyLine({ proxies: [{ feature: "site", attribute: "gender", balancedAccuracy: 0.71 }] });
+ * assert(line!.startsWith("Possible proxy: site predicts gender (balanced accuracy 0.71)"));
+ * assert(proxyLine({ proxies: [] }) === null);
+ * ```
+ */
+export function proxyLine(model: Pick<Model, "proxies">): string | null {
+  const proxies = model.proxies ?? [];
+  if (proxies.length === 0) return null;
+  return `Possible prox${proxies.length > 1 ? "ies" : "y"}: ` +
+    proxies.map((p) =>
+      `${p.feature} predicts ${p.attribute} (balanced accuracy ${p.balancedAccuracy.toFixed(2)})`
+    ).join("; ") +
+    `. The model leaves ${[...new Set(proxies.map((p) => p.attribute))].join(" and ")} out, ` +
+    "but can still pay by it through such an attribute; check the gap (paygrove gap) before use.";
 }

@@ -1,0 +1,170 @@
+/**
+ * `paygrove gap TABLE --target COL --group COL`: raw, median and adjusted
+ * pay gaps between groups, overall and per category of workers, with pay
+ * quartiles, flags, proxies, small-group suppression and a Markdown report.
+ *
+ * @module
+ */
+
+import wrapAnsi from "wrap-ansi";
+import {
+  Command,
+  type CommandUnknownOpts,
+  InvalidArgumentError,
+} from "@commander-js/extra-typings";
+import {
+  GAP_CAUTIONS,
+  gapCheck,
+  type GapReport,
+  loadTableFile,
+  OptionError,
+  writeFileAtomic,
+} from "../../mod.ts";
+import { progressBar } from "../progress.ts";
+import { gapMarkdown, renderGap } from "../render/gap_view.ts";
+import { jsonNumbers } from "../render/cautions.ts";
+import type { Terminal } from "../terminal.ts";
+import { list, loadOptions, withTableFlags } from "../table_flags.ts";
+import { collectWhere, wholeNumber } from "./fit.ts";
+
+/**
+ * Parses a share given as a fraction (0.05) or a percentage (5%).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { shareOption } from "./gap.ts";
+ * assert(shareOption("5%") === 0.05 && shareOption("0.02") === 0.02);
+ * ```
+ */
+export function shareOption(text: string): number {
+  const percent = text.trim().endsWith("%");
+  const value = Number(percent ? text.trim().slice(0, -1) : text);
+  const share = percent ? value / 100 : value;
+  if (!Number.isFinite(share) || share < 0 || share >= 1) {
+    throw new InvalidArgumentError(`expected a share such as 0.05 or 5%, got "${text}"`);
+  }
+  return share;
+}
+
+/** The provenance line of a gap or review output. */
+export function tableProvenance(p: GapReport["provenance"]): string {
+  return `paygrove ${p.paygrove}; ${p.table.file} (sha256 ${p.table.sha256.slice(0, 12)}...); ` +
+    `seed ${p.seed}`;
+}
+
+/**
+ * Builds the `gap` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function gapCommand(terminal: Terminal): CommandUnknownOpts {
+  return withTableFlags(
+    new Command("gap")
+      .description(
+        "Pay gaps between groups (e.g. gender): raw mean and median gaps, pay quartiles and the " +
+          "gap the other factors do not explain, overall and per category of workers",
+      )
+      .argument("<table>", "CSV pay table"),
+  )
+    .option("--group <column>", "the column of groups to compare, e.g. gender")
+    .option(
+      "--reference <group>",
+      "the group others are compared with (default: men for a sex or gender column, else the largest)",
+    )
+    .option(
+      "--groups <names>",
+      "compare only these groups with the reference, comma-separated (others are left out)",
+      list,
+    )
+    .option(
+      "--within <columns>",
+      "categories of workers: combinations of these columns, e.g. job_family,level",
+      list,
+    )
+    .option("--features <columns>", "the factors to adjust for (default: all usable)", list)
+    .option("--drop <columns>", "factors to leave out, comma-separated", list)
+    .option(
+      "--where <column=value>",
+      "keep only rows with this value (repeat: values of one column are alternatives)",
+      collectWhere,
+    )
+    .option("--variable <column>", "a variable-pay column, gapped beside base pay")
+    .option("--threshold <share>", "raw mean gap that is flagged (0.05 or 5%)", shareOption, 0.05)
+    .option(
+      "--materiality <share>",
+      "smallest significant adjusted gap that is flagged (0.02 or 2%)",
+      shareOption,
+      0.02,
+    )
+    .option(
+      "--privacy-min <n>",
+      "fewest people of any group for a category to be shown (at least 3)",
+      wholeNumber(3),
+      5,
+    )
+    .option("--trees <n>", "trees in each ensemble", wholeNumber(10), 200)
+    .option("--seed <s>", "seed of resamples", wholeNumber(0), 1)
+    .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
+    .option("--report <file>", "also write a Markdown report")
+    .option("--force", "replace an existing report")
+    .option("--json", "print one JSON document on stdout instead of text")
+    .action(async (file, flags) => {
+      if (flags.target === undefined) {
+        throw new OptionError("gap needs --target COLUMN: the pay column (e.g. --target base_pay)");
+      }
+      if (flags.group === undefined) {
+        throw new OptionError(
+          "gap needs --group COLUMN: the groups to compare (e.g. --group gender)",
+        );
+      }
+      const options = loadOptions(flags, file);
+      const table = await loadTableFile(file, options);
+      const progress = progressBar(terminal);
+      let report: GapReport;
+      try {
+        report = await gapCheck(table, {
+          target: flags.target,
+          group: flags.group,
+          reference: flags.reference,
+          compare: flags.groups,
+          within: flags.within,
+          features: flags.features,
+          drop: flags.drop,
+          where: flags.where,
+          variable: flags.variable,
+          threshold: flags.threshold,
+          materiality: flags.materiality,
+          privacyMin: flags.privacyMin,
+          trees: flags.trees,
+          seed: flags.seed,
+          workers: flags.workers,
+          onProgress: (stage, done, total) => progress.update(stage, done, total),
+        });
+      } finally {
+        progress.finish();
+      }
+      const numbers = { locale: flags.locale };
+      if (flags.report !== undefined) {
+        await writeFileAtomic(
+          flags.report,
+          gapMarkdown(report, numbers, new Date().toISOString()),
+          { force: flags.force ?? false, option: "--report" },
+        );
+      }
+      if (flags.json) {
+        terminal.out(JSON.stringify({ ...report, cautions: GAP_CAUTIONS }, jsonNumbers, 2));
+        return;
+      }
+      const style = terminal.style;
+      terminal.out(
+        [
+          ...renderGap(report, { style, width: terminal.width, numbers }),
+          "",
+          ...wrapAnsi(style.dim(GAP_CAUTIONS), terminal.width).split("\n"),
+          ...wrapAnsi(style.dim(tableProvenance(report.provenance)), terminal.width).split("\n"),
+          ...(flags.report ? [`Report written to ${flags.report}.`] : []),
+        ].join("\n"),
+      );
+    });
+}

@@ -1,0 +1,261 @@
+/**
+ * `paygrove review TABLE --target COL`: every person's pay against the
+ * range comparable people earn, from out-of-bag estimates; who is under or
+ * over, and per category the cost of bringing those under range up to its
+ * low end.
+ *
+ * @module
+ */
+
+import wrapAnsi from "wrap-ansi";
+import {
+  Command,
+  type CommandUnknownOpts,
+  InvalidArgumentError,
+} from "@commander-js/extra-typings";
+import {
+  GAP_CAUTIONS,
+  loadTableFile,
+  OptionError,
+  type PayReview,
+  payReview,
+  type ReviewPerson,
+  writeFileAtomic,
+} from "../../mod.ts";
+import { progressBar } from "../progress.ts";
+import { jsonNumbers } from "../render/cautions.ts";
+import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
+import type { Style } from "../render/style.ts";
+import type { Terminal } from "../terminal.ts";
+import { list, loadOptions, withTableFlags } from "../table_flags.ts";
+import { collectWhere, wholeNumber } from "./fit.ts";
+import { tableProvenance } from "./gap.ts";
+
+/** How many people under and over range the text output lists. */
+export const REVIEW_LISTED = 10;
+
+function coverageOption(text: string): number {
+  const percent = text.trim().endsWith("%");
+  const value = Number(percent ? text.trim().slice(0, -1) : text);
+  const share = percent ? value / 100 : value;
+  if (!(share > 0 && share < 1)) {
+    throw new InvalidArgumentError(`expected a share such as 0.9 or 90%, got "${text}"`);
+  }
+  return share;
+}
+
+/** Every person as CSV (RFC 4180), one row each, in table order. */
+export function reviewCsv(review: PayReview): string {
+  const field = (t: string) => (/[",\r\n]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t);
+  const num = (x: number | null, digits: number) =>
+    x === null || !Number.isFinite(x) ? "" : String(Number(x.toFixed(digits)));
+  const lines = ["id,line,pay,estimate,range_low,range_high,range_position,status,shortfall"];
+  for (const p of review.people) {
+    lines.push([
+      field(p.id),
+      String(p.line),
+      num(p.pay, 2),
+      num(p.estimate, 2),
+      num(p.low, 2),
+      num(p.high, 2),
+      num(p.position, 4),
+      p.status ?? "",
+      num(p.shortfall, 2),
+    ].join(","));
+  }
+  return lines.join("\n") + "\n";
+}
+
+/** The review as terminal lines (without the cautions). */
+export function renderReview(
+  review: PayReview,
+  view: { style: Style; width: number; numbers: NumberStyle },
+): string[] {
+  const { style, width, numbers } = view;
+  const wrap = (t: string) => wrapAnsi(t, width).split("\n");
+  const money = (x: number) => formatPay(x, numbers, true);
+  const lines: string[] = [];
+  const share = formatPercent(review.coverage, false, numbers).replace(".0%", "%");
+  lines.push(
+    ...wrap(
+      style.bold(`Pay review: ${review.target} against the ${share} range of comparable people`),
+    ),
+    ...wrap(style.dim(
+      `Each person's estimate comes from trees that never saw them (out of bag), so their own ` +
+        `pay does not pull it. Compared on: ${review.features.join(", ")}. By construction about ` +
+        `${formatPercent((1 - review.coverage) / 2, false, numbers)} of people sit under a ` +
+        `${share} range and as many over it; the question is who, and by how much.`,
+    )),
+    "",
+  );
+  const per = review.money?.period ? ` a ${review.money.period}` : "";
+  if (!review.overall.suppressed) {
+    const o = review.overall;
+    lines.push(
+      ...wrap(
+        `Of ${formatNumber(o.people, numbers, 0)} people, ${o.under} are paid under their range ` +
+          `(bringing each to its low end would cost ${money(o.cost)}${per} in total) and ` +
+          `${o.over} over it.`,
+      ),
+      "",
+    );
+  }
+  if (review.categories.length > 0) {
+    const rows = [["", "people", "under", "over", "cost to low end"]];
+    for (const c of review.categories) {
+      rows.push(
+        c.suppressed
+          ? [c.name, "too few to report", "", "", ""]
+          : [c.name, String(c.people), String(c.under), String(c.over), money(c.cost)],
+      );
+    }
+    const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => r[j].length)));
+    lines.push(
+      ...rows.map((r, i) => {
+        const text = r.map((
+          cell,
+          j,
+        ) => (j === 0 ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
+          .join("  ").replace(/\s+$/, "");
+        return i === 0 ? style.bold(text) : text;
+      }),
+      "",
+    );
+  }
+  const listed = (title: string, people: ReviewPerson[]) => {
+    if (people.length === 0) return;
+    lines.push(style.bold(title));
+    const rows = [["", "pay", "estimate", "range", "position"]];
+    for (const p of people.slice(0, REVIEW_LISTED)) {
+      rows.push([
+        p.id,
+        money(p.pay),
+        money(p.estimate!),
+        `${money(p.low!)}-${money(p.high!)}`,
+        formatPercent(p.position!, false, numbers),
+      ]);
+    }
+    const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => r[j].length)));
+    lines.push(
+      ...rows.map((r) =>
+        r.map((cell, j) => (j === 0 ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
+          .join("  ").replace(/\s+$/, "")
+      ),
+    );
+    if (people.length > REVIEW_LISTED) {
+      lines.push(
+        style.dim(`... and ${people.length - REVIEW_LISTED} more (--out FILE lists everyone)`),
+      );
+    }
+    lines.push("");
+  };
+  const under = review.people.filter((p) => p.status === "under")
+    .sort((a, b) => b.shortfall - a.shortfall);
+  const over = review.people.filter((p) => p.status === "over")
+    .sort((a, b) => b.position! - a.position!);
+  listed("Furthest under their range (position 0% = the range's low end)", under);
+  listed("Furthest over their range (100% = the range's high end)", over);
+  const missing = review.people.filter((p) => p.status === null).length;
+  if (missing > 0) {
+    lines.push(
+      ...wrap(
+        style.dim(`${missing} people were drawn by every tree and have no out-of-bag estimate.`),
+      ),
+    );
+  }
+  return lines;
+}
+
+/**
+ * Builds the `review` command.
+ *
+ * @param terminal Where output goes.
+ */
+export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
+  return withTableFlags(
+    new Command("review")
+      .description(
+        "Each person's pay against the range comparable people earn (out-of-bag estimates): " +
+          "who is under or over, and the cost of bringing those under up to the range",
+      )
+      .argument("<table>", "CSV pay table"),
+  )
+    .option(
+      "--features <columns>",
+      "the factors people are compared on (default: all usable)",
+      list,
+    )
+    .option("--drop <columns>", "factors to leave out, comma-separated", list)
+    .option(
+      "--where <column=value>",
+      "keep only rows with this value (repeat: values of one column are alternatives)",
+      collectWhere,
+    )
+    .option("--within <columns>", "summarise per category: combinations of these columns", list)
+    .option(
+      "--coverage <share>",
+      "share of comparable people's pay the range covers",
+      coverageOption,
+      0.9,
+    )
+    .option(
+      "--privacy-min <n>",
+      "fewest people in a category for its summary to be shown (at least 3)",
+      wholeNumber(3),
+      5,
+    )
+    .option("--trees <n>", "trees in the ensemble", wholeNumber(10), 200)
+    .option("--seed <s>", "seed of resamples", wholeNumber(0), 1)
+    .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
+    .option("--out <file>", "write every person as CSV")
+    .option("--force", "replace an existing --out file")
+    .option("--json", "print one JSON document on stdout instead of text")
+    .action(async (file, flags) => {
+      if (flags.target === undefined) {
+        throw new OptionError(
+          "review needs --target COLUMN: the pay column (e.g. --target base_pay)",
+        );
+      }
+      const options = loadOptions(flags, file);
+      const table = await loadTableFile(file, options);
+      const progress = progressBar(terminal);
+      let review: PayReview;
+      try {
+        review = await payReview(table, {
+          target: flags.target,
+          features: flags.features,
+          drop: flags.drop,
+          where: flags.where,
+          within: flags.within,
+          coverage: flags.coverage,
+          privacyMin: flags.privacyMin,
+          trees: flags.trees,
+          seed: flags.seed,
+          workers: flags.workers,
+          onProgress: (done, total) => progress.update("trees", done, total),
+        });
+      } finally {
+        progress.finish();
+      }
+      if (flags.out !== undefined) {
+        await writeFileAtomic(flags.out, reviewCsv(review), { force: flags.force ?? false });
+      }
+      if (flags.json) {
+        terminal.out(JSON.stringify({ ...review, cautions: GAP_CAUTIONS }, jsonNumbers, 2));
+        return;
+      }
+      const style = terminal.style;
+      terminal.out(
+        [
+          ...renderReview(review, {
+            style,
+            width: terminal.width,
+            numbers: { locale: flags.locale, currency: review.money?.currency },
+          }),
+          ...(flags.out ? [`Everyone written to ${flags.out}.`, ""] : []),
+          ...wrapAnsi(style.dim(GAP_CAUTIONS), terminal.width).split("\n"),
+          ...wrapAnsi(style.dim(tableProvenance(review.provenance)), terminal.width).split("\n"),
+        ].join("\n"),
+      );
+    });
+}

@@ -1,0 +1,416 @@
+/**
+ * The gap check as text for the terminal and as a Markdown report: a plain
+ * sentence, a table per category, the unexplained gaps on one axis, pay
+ * quartiles, the comparisons, proxies, notes, sources and cautions.
+ *
+ * A suppressed category appears only by name with "too few to report".
+ *
+ * @module
+ */
+
+import wrapAnsi from "wrap-ansi";
+import { GAP_CAUTIONS, GAP_SOURCES, type GapFigure, type GapReport } from "../../mod.ts";
+import { formatNumber, formatPercent, type NumberStyle } from "./numbers.ts";
+import type { Style } from "./style.ts";
+import { isAscii } from "./glyphs.ts";
+
+/** How a gap report is drawn. */
+export interface GapView {
+  /** Styling. */
+  style: Style;
+  /** Columns available. */
+  width: number;
+  /** Number formatting. */
+  numbers: NumberStyle;
+}
+
+const TOO_FEW = "too few to report";
+
+/** "12.1%", or "n/a" for a missing figure. */
+function pct(value: number | null, numbers: NumberStyle, signed = false): string {
+  return value === null ? "n/a" : formatPercent(value, signed, numbers);
+}
+
+/** The flags of a figure as short words. */
+function flagWords(f: GapFigure): string {
+  return [f.rawFlag ? "raw" : "", f.unexplainedFlag ? "unexpl." : ""].filter(Boolean).join(" ");
+}
+
+/**
+ * One plain sentence on the overall figures.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { gapSentence } from "./gap_view.ts";
+ * const sentence = gapSentence("Man", {
+ *   group: "Woman", rows: 10, referenceRows: 10, rawMean: 0.12, rawMedian: 0.1,
+ *   variableMean: null, variableMedian: null, adjusted: 0.013, low: 0.002, high: 0.024,
+ *   coefficient: -0.013, se: 0.0056, p: 0.02, pAdjusted: 0.02, residualDifference: 0.01,
+ *   rawFlag: true, unexplainedFlag: false,
+ * }, {});
+ * assert(sentence.startsWith("Woman: mean pay 12.0% below Man's"));
+ * ```
+ */
+export function gapSentence(reference: string, f: GapFigure, numbers: NumberStyle): string {
+  const side = (x: number) => (x >= 0 ? "below" : "above");
+  let text = `${f.group}: mean pay ${pct(Math.abs(f.rawMean), numbers)} ${side(f.rawMean)} ` +
+    `${reference}'s`;
+  if (f.adjusted !== null) {
+    text += `; with the factors below held equal, ` +
+      `${pct(Math.abs(f.adjusted), numbers)} ${side(f.adjusted)} (95% interval ` +
+      `${pct(f.low, numbers, true)} to ${pct(f.high, numbers, true)})`;
+  }
+  return text + ".";
+}
+
+/**
+ * Unexplained gaps with their intervals on one common axis, zero marked.
+ * Positive values (the group paid less than the reference) lie right of it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { gapAxis } from "./gap_view.ts";
+ * const lines = gapAxis([{ label: "A", value: 0.05, low: 0.02, high: 0.08 }], 21, false);
+ * assert(lines[1].includes("[") && lines[1].includes("o"));
+ * ```
+ */
+export function gapAxis(
+  rows: readonly { label: string; value: number | null; low: number | null; high: number | null }[],
+  axisWidth: number,
+  ascii: boolean,
+): string[] {
+  const known = rows.filter((r) => r.value !== null);
+  const low = Math.min(0, ...known.map((r) => r.low!));
+  const high = Math.max(0, ...known.map((r) => r.high!));
+  const span = high - low || 0.01;
+  const at = (x: number) => Math.round(((x - low) / span) * (axisWidth - 1));
+  const zero = at(0);
+  const labelWidth = Math.max(...rows.map((r) => r.label.length));
+  const axisChar = ascii ? ":" : "┆";
+  const scale = new Array(axisWidth).fill(" ");
+  const put = (text: string, where: number) => {
+    const start = Math.max(
+      0,
+      Math.min(axisWidth - text.length, where - Math.floor(text.length / 2)),
+    );
+    for (let i = 0; i < text.length; i++) scale[start + i] = text[i];
+  };
+  put(formatPercent(low, true), 0 + Math.floor(formatPercent(low, true).length / 2));
+  put("0", zero);
+  put(formatPercent(high, true), axisWidth - 1);
+  const lines = [`${"".padEnd(labelWidth)}  ${scale.join("").replace(/\s+$/, "")}`];
+  for (const r of rows) {
+    const cells = new Array(axisWidth).fill(" ");
+    cells[zero] = axisChar;
+    if (r.value !== null) {
+      const a = at(r.low!);
+      const b = at(r.high!);
+      for (let i = a; i <= b; i++) cells[i] = "-";
+      cells[a] = "[";
+      cells[b] = "]";
+      cells[at(r.value)] = "o";
+    }
+    lines.push(`${r.label.padEnd(labelWidth)}  ${cells.join("").replace(/\s+$/, "")}`);
+  }
+  return lines;
+}
+
+/** Aligned plain columns (first column left, the others right). */
+function columns(rows: string[][], gap: number, lastLeft = false): string[] {
+  const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => r[j].length)));
+  const left = (j: number) => j === 0 || (lastLeft && j === rows[0].length - 1);
+  return rows.map((r) =>
+    r.map((cell, j) => (left(j) ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
+      .join(" ".repeat(gap)).replace(/\s+$/, "")
+  );
+}
+
+/** The rows of the main table: overall first, then each category. */
+function tableRows(report: GapReport, numbers: NumberStyle): string[][] {
+  // With one group compared, the title names it and the column is left out.
+  const many = report.groups.length > 1;
+  const people = many ? "people/ref" : `${report.groups[0]}/${report.reference}`;
+  const head = ["", ...(many ? ["group"] : []), people, "raw mean", "median"];
+  head.push("unexplained (95%)", "flags");
+  const rows: string[][] = [head];
+  const interval = (f: GapFigure) => {
+    const bare = (x: number | null) => pct(x, numbers).replace("%", "");
+    return `${pct(f.adjusted, numbers)} (${bare(f.low)}..${bare(f.high)})`;
+  };
+  const figureRow = (label: string, f: GapFigure) => [
+    label,
+    ...(many ? [f.group] : []),
+    `${formatNumber(f.rows, numbers, 0)}/${formatNumber(f.referenceRows, numbers, 0)}`,
+    pct(f.rawMean, numbers),
+    pct(f.rawMedian, numbers),
+    f.adjusted === null ? "n/a" : interval(f),
+    flagWords(f),
+  ];
+  const tooFew = (label: string) => [label, TOO_FEW, ...new Array(head.length - 2).fill("")];
+  if (report.overall.suppressed) rows.push(tooFew("Overall"));
+  else report.overall.gaps.forEach((f, i) => rows.push(figureRow(i === 0 ? "Overall" : "", f)));
+  for (const c of report.categories) {
+    if (c.suppressed) rows.push(tooFew(c.name));
+    else c.gaps.forEach((f, i) => rows.push(figureRow(i === 0 ? c.name : "", f)));
+  }
+  return rows;
+}
+
+/**
+ * The gap report as terminal lines (without the cautions, which the
+ * command adds).
+ */
+export function renderGap(report: GapReport, view: GapView): string[] {
+  const { style, width, numbers } = view;
+  const wrap = (text: string) => wrapAnsi(text, width).split("\n");
+  const lines: string[] = [];
+  lines.push(
+    ...wrap(style.bold(
+      `Pay gap by ${report.group}: ${report.groups.join(", ")} against ${report.reference}`,
+    )),
+    ...wrap(style.dim(
+      `${report.reference} is the reference: ${report.referenceReason}. ${report.target}, ` +
+        `${formatNumber(report.rows, numbers, 0)} people` +
+        (report.within.length ? `, categories by ${report.within.join(" x ")}` : "") +
+        (report.missingGroup ? `; ${report.missingGroup} without a ${report.group} left out` : "") +
+        ". Gaps are shares of the reference group's pay: 5.0% = paid 5% less.",
+    )),
+    "",
+  );
+  if (!report.overall.suppressed) {
+    for (const f of report.overall.gaps) {
+      lines.push(...wrap(gapSentence(report.reference, f, numbers)));
+    }
+    lines.push("");
+  }
+  const table = columns(tableRows(report, numbers), width < 90 ? 1 : 2, true);
+  lines.push(...table.map((l, i) => (i === 0 ? style.bold(l) : l)));
+  lines.push(
+    ...wrap(style.dim(
+      `Flags: raw = a raw mean gap of ${pct(report.threshold, numbers)} or more (Directive ` +
+        `(EU) 2023/970, Art. 10: a joint pay assessment unless objective, gender-neutral criteria ` +
+        `justify it, which only the employer can judge); unexpl. = the adjusted gap differs ` +
+        `from 0 at the 5% level after Holm's adjustment across categories and is at least ` +
+        `${pct(report.materiality, numbers)}.`,
+    )),
+    "",
+  );
+
+  const axisRows: {
+    label: string;
+    value: number | null;
+    low: number | null;
+    high: number | null;
+  }[] = [];
+  const add = (label: string, f: GapFigure) =>
+    axisRows.push({ label, value: f.adjusted, low: f.low, high: f.high });
+  const many = report.groups.length > 1;
+  if (!report.overall.suppressed) {
+    for (const f of report.overall.gaps) add(many ? `Overall ${f.group}` : "Overall", f);
+  }
+  for (const c of report.categories) {
+    if (c.suppressed) axisRows.push({ label: c.name, value: null, low: null, high: null });
+    else for (const f of c.gaps) add(many ? `${c.name} ${f.group}` : c.name, f);
+  }
+  if (axisRows.some((r) => r.value !== null)) {
+    const labelWidth = Math.max(...axisRows.map((r) => r.label.length));
+    lines.push(
+      style.bold("Unexplained gap, 95% interval, one axis (right of 0: paid less)"),
+      ...gapAxis(axisRows, Math.max(20, Math.min(50, width - labelWidth - 4)), isAscii()),
+      "",
+    );
+  }
+
+  if (!report.overall.suppressed) {
+    const f = report.overall.gaps;
+    for (const g of f) {
+      const linear = report.linear?.find((l) => l.group === g.group);
+      lines.push(
+        ...wrap(
+          `${many ? `${g.group}, beside` : "Beside"} the adjusted gap: the simple difference of ` +
+            `out-of-bag pay residuals ${
+              pct(g.residualDifference, numbers)
+            } (it understates the gap ` +
+            `when a group is concentrated in some levels or families)` +
+            (linear
+              ? `; the linear version (log pay on the factors plus a group indicator) ` +
+                `${pct(linear.gap, numbers)} (b = ${
+                  formatNumber(linear.coefficient, numbers, 4)
+                }, ` +
+                `SE ${formatNumber(linear.se, numbers, 4)}).`
+              : "."),
+        ),
+      );
+    }
+    lines.push("");
+  }
+
+  if (report.quartiles) {
+    const groups = [report.reference, ...report.groups];
+    lines.push(
+      style.bold("Pay quartiles (four equal groups of people by pay): share of each group"),
+    );
+    lines.push(
+      ...columns([
+        ["", ...groups, "pay from", "to"],
+        ...report.quartiles.map((q) => [
+          ["Q1 lowest", "Q2", "Q3", "Q4 highest"][q.quartile - 1],
+          ...groups.map((g) => pct(q.shares[g] ?? 0, numbers)),
+          formatNumber(q.low, numbers, 0),
+          formatNumber(q.high, numbers, 0),
+        ]),
+      ], 2),
+      "",
+    );
+  }
+
+  if (report.variable !== null) {
+    lines.push(style.bold(`Variable pay (${report.variable}): raw gaps`));
+    const rows = [["", "group", "mean", "median"]];
+    const push = (label: string, f: GapFigure) =>
+      rows.push([label, f.group, pct(f.variableMean, numbers), pct(f.variableMedian, numbers)]);
+    if (!report.overall.suppressed) report.overall.gaps.forEach((f) => push("Overall", f));
+    for (const c of report.categories) {
+      if (c.suppressed) rows.push([c.name, TOO_FEW, "", ""]);
+      else c.gaps.forEach((f) => push(c.name, f));
+    }
+    lines.push(...columns(rows, 2), "");
+  }
+
+  lines.push(
+    ...wrap(
+      report.proxies.length === 0
+        ? `No factor alone predicts ${report.group} with balanced accuracy of ` +
+          `${formatNumber(report.proxyThreshold, numbers, 2)} or more.`
+        : style.warn(
+          `Possible proxies of ${report.group} (one factor alone predicts it; balanced ` +
+            `accuracy, 0.5 = none for two groups): ` +
+            report.proxies.map((p) =>
+              `${p.feature} ${formatNumber(p.balancedAccuracy, numbers, 2)}`
+            )
+              .join(", ") +
+            `. The adjustment counts them as legitimate; if they carry ${report.group}, ` +
+            `the adjusted gap understates it.`,
+        ),
+    ),
+    ...wrap(style.dim(
+      `Adjusted for: ${report.features.join(", ")}. Out-of-bag R^2 of log pay ` +
+        `${formatNumber(report.models.payR2Log, numbers, 3)}; the factors predict ` +
+        `${report.group} with balanced accuracy ${
+          formatNumber(report.models.groupBalancedAccuracy, numbers, 2)
+        } (${report.models.trees} trees each).`,
+    )),
+    "",
+  );
+  for (const note of report.notes) lines.push(...wrap(style.dim(note)));
+  lines.push(...wrap(style.dim("Sources: " + GAP_SOURCES.join(" "))));
+  return lines;
+}
+
+/** The gap report as a Markdown document, cautions and provenance included. */
+export function gapMarkdown(report: GapReport, numbers: NumberStyle, created: string): string {
+  const md: string[] = [];
+  const cell = (s: string) => s.replace(/\|/g, "\\|");
+  const table = (rows: string[][]) => [
+    `| ${rows[0].map(cell).join(" | ")} |`,
+    `|${rows[0].map((_, j) => (j === 0 ? " --- " : " ---: ")).join("|")}|`,
+    ...rows.slice(1).map((r) => `| ${r.map(cell).join(" | ")} |`),
+  ];
+  md.push(
+    `# Pay gap by ${report.group}`,
+    "",
+    `${report.groups.join(", ")} against ${report.reference} (the reference: ` +
+      `${report.referenceReason}). ${report.target}, ${report.rows} people` +
+      (report.within.length ? `, categories by ${report.within.join(" x ")}` : "") +
+      ". Gaps are shares of the reference group's pay: 5.0% means paid 5% less.",
+    "",
+    `> ${GAP_CAUTIONS}`,
+    "",
+  );
+  if (!report.overall.suppressed) {
+    for (const f of report.overall.gaps) md.push(`- ${gapSentence(report.reference, f, numbers)}`);
+    md.push("");
+  }
+  md.push(
+    "## Gaps",
+    "",
+    ...table(tableRows(report, numbers).map((r, i) => i === 0 ? ["category", ...r.slice(1)] : r)),
+    "",
+  );
+  md.push(
+    `Flags: **raw** = a raw mean gap of ${pct(report.threshold, numbers)} or more (Art. 10: a ` +
+      `joint pay assessment unless objective, gender-neutral criteria justify it); ` +
+      `**unexplained** = the adjusted gap differs from 0 at the 5% level after Holm's ` +
+      `adjustment and is at least ${pct(report.materiality, numbers)}.`,
+    "",
+  );
+  if (!report.overall.suppressed) {
+    md.push("## The adjusted gap beside two simpler estimates", "");
+    const rows = [["group", "adjusted (partialling out)", "residual difference", "linear (OLS)"]];
+    for (const f of report.overall.gaps) {
+      const lin = report.linear?.find((l) => l.group === f.group);
+      rows.push([
+        f.group,
+        `${pct(f.adjusted, numbers)} (b = ${formatNumber(f.coefficient ?? NaN, numbers, 4)}, SE ${
+          formatNumber(f.se ?? NaN, numbers, 4)
+        })`,
+        pct(f.residualDifference, numbers),
+        lin
+          ? `${pct(lin.gap, numbers)} (b = ${formatNumber(lin.coefficient, numbers, 4)}, SE ${
+            formatNumber(lin.se, numbers, 4)
+          })`
+          : "n/a",
+      ]);
+    }
+    md.push(...table(rows), "");
+    md.push(
+      "The residual difference understates the gap when a group is concentrated in some " +
+        "levels or families.",
+      "",
+    );
+  }
+  if (report.quartiles) {
+    const groups = [report.reference, ...report.groups];
+    md.push("## Pay quartiles", "");
+    md.push(
+      ...table([
+        ["quartile", ...groups, "pay from", "to"],
+        ...report.quartiles.map((q) => [
+          String(q.quartile),
+          ...groups.map((g) => pct(q.shares[g] ?? 0, numbers)),
+          formatNumber(q.low, numbers, 0),
+          formatNumber(q.high, numbers, 0),
+        ]),
+      ]),
+      "",
+    );
+  }
+  md.push("## Proxies and the models", "");
+  md.push(
+    report.proxies.length === 0
+      ? `No factor alone predicts ${report.group} with balanced accuracy of ${report.proxyThreshold} or more.`
+      : `Possible proxies of ${report.group}: ` +
+        report.proxies.map((p) =>
+          `${p.feature} (balanced accuracy ${p.balancedAccuracy.toFixed(2)})`
+        )
+          .join(", ") +
+        ".",
+    "",
+    `Adjusted for: ${report.features.join(", ")}. Out-of-bag R² of log pay ` +
+      `${report.models.payR2Log.toFixed(3)}; balanced accuracy of the group model ` +
+      `${report.models.groupBalancedAccuracy.toFixed(2)}.`,
+    "",
+  );
+  if (report.notes.length) md.push("## Notes", "", ...report.notes.map((n) => `- ${n}`), "");
+  md.push("## Sources", "", ...GAP_SOURCES.map((s) => `- ${s}`), "");
+  const p = report.provenance;
+  md.push(
+    `---`,
+    `paygrove ${p.paygrove}; ${p.table.file} (sha256 ${p.table.sha256}); seed ${p.seed}; ` +
+      `written ${created}.`,
+    "",
+  );
+  return md.join("\n");
+}
