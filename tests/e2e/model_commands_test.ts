@@ -387,6 +387,23 @@ Deno.test("a protected attribute is a lever only in a model fitted with --allow-
   assert.equal(run.code, 0, run.stderr);
   assert.match(run.stderr, /Caution: --allow-protected/);
   assert.equal(JSON.parse(run.stdout).profile.gender, "Woman");
+  // The file says so, and every command answering from it repeats the caution.
+  assert.equal((await readModelFile(out)).settings.allowProtected, true);
+  for (
+    const args of [
+      ["compare", out, "--change", "level=+1"],
+      ["sweep", out, "--vary", "level"],
+      ["batch", out, demo],
+    ]
+  ) {
+    const answer = await paygrove(args);
+    assert.equal(answer.code, 0, `${args[0]}: ${answer.stderr}`);
+    assert.match(answer.stderr, /Caution: --allow-protected/, args[0]);
+  }
+  // Without --allow-protected the attribute is no lever.
+  const plain = await paygrove(["estimate", modelPath, "--set", "gender=Woman"]);
+  assert.equal(plain.code, 2);
+  assert.match(plain.stderr, /"gender"/);
 });
 
 globalThis.addEventListener("unload", () => {

@@ -18,6 +18,7 @@ import {
 import type { Terminal } from "../terminal.ts";
 import { readTableForModel } from "../profile_flags.ts";
 import { jsonNumbers } from "../render/cautions.ts";
+import { PROTECTED_CAUTION } from "./fit.ts";
 
 /** The columns batch adds, in order. */
 export const BATCH_COLUMNS = [
@@ -77,6 +78,9 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--json", "print one JSON document on stdout instead of CSV")
     .action(async (modelFile, profilesFile, flags) => {
       const model = await readModelFile(modelFile);
+      if (model.settings.allowProtected) {
+        terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
+      }
       const session = openModel(model);
       const rows = await readTableForModel(
         model,

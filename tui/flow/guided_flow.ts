@@ -270,6 +270,9 @@ async function whatIfLoop(
   let answer = estimateProfile(session, profile, 0.9);
   const showResult = () => {
     const lines = renderResult(answer, result);
+    if (model.settings.allowProtected) {
+      lines.push(io.style.caution("Caution: a protected attribute shapes this estimate."));
+    }
     if (built.person) {
       lines.splice(
         1,
