@@ -36,6 +36,12 @@ function flagWords(f: GapFigure): string {
   return [f.rawFlag ? "raw" : "", f.unexplainedFlag ? "unexpl." : ""].filter(Boolean).join(" ");
 }
 
+// "0.9% to 2.0%" on one side of zero; "-2.0% to +2.4%" across it, where the sign matters.
+function intervalWords(low: number, high: number, numbers: NumberStyle): string {
+  const across = low < 0 && high > 0;
+  return `${pct(low, numbers, across)} to ${pct(high, numbers, across)}`;
+}
+
 /**
  * One plain sentence on the overall figures.
  *
@@ -59,7 +65,7 @@ export function gapSentence(reference: string, f: GapFigure, numbers: NumberStyl
   if (f.adjusted !== null) {
     text += `; with the factors below held equal, ` +
       `${pct(Math.abs(f.adjusted), numbers)} ${side(f.adjusted)} (95% interval ` +
-      `${pct(f.low, numbers, true)} to ${pct(f.high, numbers, true)})`;
+      intervalWords(f.low!, f.high!, numbers) + ")";
   }
   return text + ".";
 }
