@@ -169,3 +169,11 @@ export {
   type ReviewPerson,
   type ReviewStatus,
 } from "./lib/gap/pay_review.ts";
+export {
+  type Categories,
+  categoriesOf,
+  oobRSquared,
+  type TableProvenance,
+  tableProvenance,
+  withinColumns,
+} from "./lib/gap/categories.ts";

@@ -20,7 +20,13 @@ import { designOf, fitLeastSquares } from "../linear/least_squares.ts";
 import { filterRows, subsetRows } from "../table/filter_rows.ts";
 import { nameWords } from "../table/protected_names.ts";
 import type { LevelColumn, NumericColumn, Table } from "../table/types.ts";
-import { VERSION } from "../version.ts";
+import {
+  categoriesOf,
+  oobRSquared,
+  type TableProvenance,
+  tableProvenance,
+  withinColumns,
+} from "./categories.ts";
 import { gapFromCoefficient, holmAdjust, residualRegression, twoSidedP } from "./partial_out.ts";
 import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./proxies.ts";
 import { type PayQuartile, payQuartiles, rawGaps } from "./raw_gaps.ts";
@@ -184,11 +190,7 @@ export interface GapReport {
   /** Sentences about the method and the data. */
   notes: string[];
   /** Where the figures came from. */
-  provenance: {
-    paygrove: string;
-    table: { file: string; sha256: string; rows: number };
-    seed: number;
-  };
+  provenance: TableProvenance;
 }
 
 /** The sources cited under every gap report. */
@@ -265,19 +267,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
         `(declare it with --type ${options.group}=categorical if it holds codes)`,
     );
   }
-  const withinColumns = within.map((name) => {
-    const c = column(name, "--within");
-    if (name === options.group || name === options.target) {
-      throw new OptionError(`--within: "${name}" cannot define categories of itself`);
-    }
-    if (c.type !== "categorical" && c.type !== "ordinal") {
-      throw new OptionError(
-        `--within: "${name}" is ${c.type}; categories come from columns of named levels ` +
-          `(job family, level), never cut from numbers by paygrove`,
-      );
-    }
-    return c;
-  });
+  const withinCols = withinColumns(filtered, within, [options.group, options.target]);
   const variable = options.variable === undefined
     ? undefined
     : column(options.variable, "--variable");
@@ -406,35 +396,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   }
 
   // Categories: each combination of the within columns' levels that occurs.
-  const withinCols = withinColumns.map((c) =>
-    rowsTable.columns.find((x) => x.name === c.name) as LevelColumn
-  );
-  const categoryOf = new Int32Array(n);
-  const categoryNames: string[] = [];
-  const categoryKeys = new Map<string, number>();
-  if (withinCols.length > 0) {
-    const keyOf = (r: number) => withinCols.map((c) => c.codes[r]);
-    const keys = [...new Set(Array.from({ length: n }, (_, r) => keyOf(r).join(",")))]
-      .map((k) => k.split(",").map(Number))
-      .sort((a, b) => {
-        for (let i = 0; i < a.length; i++) {
-          // Missing (-1) last.
-          const x = a[i] < 0 ? Infinity : a[i];
-          const y = b[i] < 0 ? Infinity : b[i];
-          if (x !== y) return x - y;
-        }
-        return 0;
-      });
-    keys.forEach((k, i) => {
-      categoryKeys.set(k.join(","), i);
-      categoryNames.push(
-        k.map((code, j) => (code < 0 ? "(missing)" : withinCols[j].levels[code])).join(" / "),
-      );
-    });
-    for (let r = 0; r < n; r++) categoryOf[r] = categoryKeys.get(keyOf(r).join(","))!;
-  }
-  const categoryRows = categoryNames.map(() => [] as number[]);
-  for (let r = 0; r < n; r++) if (withinCols.length > 0) categoryRows[categoryOf[r]].push(r);
+  const { names: categoryNames, members: categoryRows } = categoriesOf(withinCols, keep);
   const allRows = Array.from({ length: n }, (_, r) => r);
 
   const variableOf = variable === undefined
@@ -598,19 +560,11 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     proxyThreshold,
     models: {
       trees,
-      payR2Log: oobR2(logPay, payModel.oob, usable),
+      payR2Log: oobRSquared(logPay, payModel.oob),
       groupBalancedAccuracy: balancedAccuracy(groupModel.oob, groupCode, width, usable),
     },
     notes,
-    provenance: {
-      paygrove: VERSION,
-      table: {
-        file: table.source.file ?? "input",
-        sha256: table.source.sha256,
-        rows: table.rows + table.excluded.count,
-      },
-      seed,
-    },
+    provenance: tableProvenance(table, seed),
   };
 }
 
@@ -735,24 +689,6 @@ function linearGaps(
     notes.push(`The linear version could not be fitted: ${error.message}.`);
     return null;
   }
-}
-
-function oobR2(y: Float64Array, oob: Float64Array, usable: boolean[]): number {
-  let mean = 0, count = 0;
-  for (let r = 0; r < y.length; r++) {
-    if (usable[r]) {
-      mean += y[r];
-      count++;
-    }
-  }
-  mean /= count;
-  let sse = 0, sst = 0;
-  for (let r = 0; r < y.length; r++) {
-    if (!usable[r]) continue;
-    sse += (y[r] - oob[r]) ** 2;
-    sst += (y[r] - mean) ** 2;
-  }
-  return 1 - sse / sst;
 }
 
 function balancedAccuracy(

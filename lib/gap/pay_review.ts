@@ -25,8 +25,14 @@ import {
 import { toFitScale } from "../ensemble/pay_scale.ts";
 import { residualGroupCount } from "../ensemble/read_profile.ts";
 import { filterRows } from "../table/filter_rows.ts";
-import type { LevelColumn, MoneyUnit, Table } from "../table/types.ts";
-import { VERSION } from "../version.ts";
+import type { MoneyUnit, Table } from "../table/types.ts";
+import {
+  categoriesOf,
+  oobRSquared,
+  type TableProvenance,
+  tableProvenance,
+  withinColumns,
+} from "./categories.ts";
 import { suppressSmallGroups } from "./suppress.ts";
 
 /** Options of {@linkcode payReview}. */
@@ -114,11 +120,7 @@ export interface PayReview {
   /** Out-of-bag R^2 of log pay. */
   oobR2Log: number;
   /** Where the figures came from. */
-  provenance: {
-    paygrove: string;
-    table: { file: string; sha256: string; rows: number };
-    seed: number;
-  };
+  provenance: TableProvenance;
 }
 
 /**
@@ -152,22 +154,7 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     throw new OptionError(`--target: "${options.target}" is not numeric; a review needs pay`);
   }
   const within = options.within ?? [];
-  const withinCols = within.map((name) => {
-    const c = filtered.columns.find((x) => x.name === name);
-    if (c === undefined) {
-      throw new OptionError(
-        `--within: no column named "${name}"; the columns are: ${
-          filtered.columns.map((x) => x.name).join(", ")
-        }`,
-      );
-    }
-    if (c.type !== "categorical" && c.type !== "ordinal") {
-      throw new OptionError(
-        `--within: "${name}" is ${c.type}; categories come from columns of named levels`,
-      );
-    }
-    return c as LevelColumn;
-  });
+  const withinCols = withinColumns(filtered, within, [options.target]);
   const { dataset: encoded, rowIndex } = makeDataset(filtered, {
     target: options.target,
     features: options.features,
@@ -232,34 +219,7 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     over: members.filter((i) => people[i].status === "over").length,
     cost: members.reduce((s, i) => s + people[i].shortfall, 0),
   });
-  const names: string[] = [];
-  const members: number[][] = [];
-  if (withinCols.length > 0) {
-    const index = new Map<string, number>();
-    const keys: number[][] = [];
-    rowIndex.forEach((tableRow) => {
-      const key = withinCols.map((c) => c.codes[tableRow]);
-      if (!index.has(key.join(","))) {
-        index.set(key.join(","), -1);
-        keys.push(key);
-      }
-    });
-    const rank = (x: number) => (x < 0 ? Infinity : x);
-    keys.sort((a, b) => {
-      for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return rank(a[i]) - rank(b[i]);
-      return 0;
-    });
-    keys.forEach((key, i) => {
-      index.set(key.join(","), i);
-      names.push(
-        key.map((code, j) => (code < 0 ? "(missing)" : withinCols[j].levels[code])).join(" / "),
-      );
-      members.push([]);
-    });
-    rowIndex.forEach((tableRow, r) => {
-      members[index.get(withinCols.map((c) => c.codes[tableRow]).join(","))!].push(r);
-    });
-  }
+  const { names, members } = categoriesOf(withinCols, rowIndex);
   const suppression = suppressSmallGroups(
     withinCols.length > 0 ? members.map((m) => [m.length]) : [[people.length]],
     privacyMin,
@@ -269,19 +229,6 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
       ? { name, suppressed: true as const }
       : { name, suppressed: false as const, ...summary(members[c]) }
   );
-  let sse = 0, sst = 0, mean = 0, count = 0;
-  for (let r = 0; r < dataset.rows; r++) {
-    if (!Number.isNaN(oob[r])) {
-      mean += logPay[r];
-      count++;
-    }
-  }
-  mean /= count;
-  for (let r = 0; r < dataset.rows; r++) {
-    if (Number.isNaN(oob[r])) continue;
-    sse += (logPay[r] - oob[r]) ** 2;
-    sst += (logPay[r] - mean) ** 2;
-  }
   return {
     target: options.target,
     coverage,
@@ -295,15 +242,7 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     within,
     categories,
     privacyMin,
-    oobR2Log: 1 - sse / sst,
-    provenance: {
-      paygrove: VERSION,
-      table: {
-        file: table.source.file ?? "input",
-        sha256: table.source.sha256,
-        rows: table.rows + table.excluded.count,
-      },
-      seed,
-    },
+    oobR2Log: oobRSquared(logPay, oob),
+    provenance: tableProvenance(table, seed),
   };
 }

@@ -3,6 +3,7 @@
 // leaves no figure in any output (text, JSON, Markdown report) and cannot be
 // worked out from the figures shown; bad options are refused.
 import assert from "node:assert/strict";
+import { HAND_TABLE } from "../lib/gap/_hand_table.ts";
 import { paygrove, ROOT } from "./_cli.ts";
 
 const dir = await Deno.makeTempDir({ prefix: "paygrove-gap-" });
@@ -50,25 +51,10 @@ Deno.test("gap finds the demo's planted gap for women in Field Service, and only
 });
 
 // Four families; Kiln has only two women (see tests/lib/gap/gap_check_test.ts).
-const HAND = [
-  "person,family,gender,years,pay",
-  ...[
-    ["Bench", "Man", [50, 52, 54, 56, 58]],
-    ["Bench", "Woman", [45, 47, 49, 51, 53]],
-    ["Dock", "Man", [80, 82, 84, 86, 88, 90]],
-    ["Dock", "Woman", [70, 76, 82, 88, 94, 100]],
-    ["Kiln", "Man", [60, 61, 62, 63, 64]],
-    ["Kiln", "Woman", [41, 43]],
-    ["Yard", "Man", [30, 40, 50, 60, 70]],
-    ["Yard", "Woman", [35, 45, 55, 65, 75]],
-  ].flatMap(([family, gender, pays], i) =>
-    (pays as number[]).map((p, j) => `P${i}${j},${family},${gender},${j + 1},${p}`)
-  ),
-].join("\n") + "\n";
 
 Deno.test("a two-person category leaves no figure in any output, nor one by differencing", async () => {
   const table = `${dir}/small.csv`;
-  await Deno.writeTextFile(table, HAND);
+  await Deno.writeTextFile(table, HAND_TABLE);
   const base = ["gap", table, "--target", "pay", "--group", "gender", "--within", "family"];
   const report = `${dir}/small-gap.md`;
   const text = await paygrove([...base, "--trees", "20", "--report", report]);

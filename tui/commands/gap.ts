@@ -18,6 +18,7 @@ import {
   type GapReport,
   loadTableFile,
   OptionError,
+  type TableProvenance,
   writeFileAtomic,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
@@ -48,7 +49,7 @@ export function shareOption(text: string): number {
 }
 
 /** The provenance line of a gap or review output. */
-export function tableProvenance(p: GapReport["provenance"]): string {
+export function provenanceText(p: TableProvenance): string {
   return `paygrove ${p.paygrove}; ${p.table.file} (sha256 ${p.table.sha256.slice(0, 12)}...); ` +
     `seed ${p.seed}`;
 }
@@ -162,7 +163,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
           ...renderGap(report, { style, width: terminal.width, numbers }),
           "",
           ...wrapAnsi(style.dim(GAP_CAUTIONS), terminal.width).split("\n"),
-          ...wrapAnsi(style.dim(tableProvenance(report.provenance)), terminal.width).split("\n"),
+          ...wrapAnsi(style.dim(provenanceText(report.provenance)), terminal.width).split("\n"),
           ...(flags.report ? [`Report written to ${flags.report}.`] : []),
         ].join("\n"),
       );

@@ -29,16 +29,14 @@ import type { Style } from "../render/style.ts";
 import type { Terminal } from "../terminal.ts";
 import { list, loadOptions, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
-import { tableProvenance } from "./gap.ts";
+import { provenanceText, shareOption } from "./gap.ts";
 
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
 
 function coverageOption(text: string): number {
-  const percent = text.trim().endsWith("%");
-  const value = Number(percent ? text.trim().slice(0, -1) : text);
-  const share = percent ? value / 100 : value;
-  if (!(share > 0 && share < 1)) {
+  const share = shareOption(text);
+  if (share === 0) {
     throw new InvalidArgumentError(`expected a share such as 0.9 or 90%, got "${text}"`);
   }
   return share;
@@ -254,7 +252,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
           }),
           ...(flags.out ? [`Everyone written to ${flags.out}.`, ""] : []),
           ...wrapAnsi(style.dim(GAP_CAUTIONS), terminal.width).split("\n"),
-          ...wrapAnsi(style.dim(tableProvenance(review.provenance)), terminal.width).split("\n"),
+          ...wrapAnsi(style.dim(provenanceText(review.provenance)), terminal.width).split("\n"),
         ].join("\n"),
       );
     });

@@ -7,6 +7,7 @@
 // - the simulation of tests/lib/gap/_gap_sim.ts against its committed figures
 //   (tests/results/gap_sim.json) and the issue's thresholds.
 import assert from "node:assert/strict";
+import { HAND_TABLE } from "./_hand_table.ts";
 import {
   gapCheck,
   loadTable,
@@ -75,24 +76,9 @@ Deno.test("the linear version reproduces R's lm() ethnicity coefficient on CPS19
 
 // Four families; in each, men and women with pay easy to average by hand.
 // Family Kiln has only two women: too few to report.
-const HAND = [
-  "person,family,gender,years,pay",
-  ...[
-    ["Bench", "Man", [50, 52, 54, 56, 58]],
-    ["Bench", "Woman", [45, 47, 49, 51, 53]],
-    ["Dock", "Man", [80, 82, 84, 86, 88, 90]],
-    ["Dock", "Woman", [70, 76, 82, 88, 94, 100]],
-    ["Kiln", "Man", [60, 61, 62, 63, 64]],
-    ["Kiln", "Woman", [41, 43]],
-    ["Yard", "Man", [30, 40, 50, 60, 70]],
-    ["Yard", "Woman", [35, 45, 55, 65, 75]],
-  ].flatMap(([family, gender, pays], i) =>
-    (pays as number[]).map((p, j) => `P${i}${j},${family},${gender},${j + 1},${p}`)
-  ),
-].join("\n") + "\n";
 
 Deno.test("raw gaps per category and overall equal hand-computed figures", async () => {
-  const table = loadTable(HAND, { target: "pay", file: "hand.csv" });
+  const table = loadTable(HAND_TABLE, { target: "pay", file: "hand.csv" });
   const report = await gapCheck(table, {
     target: "pay",
     group: "gender",
