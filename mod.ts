@@ -122,7 +122,7 @@ export {
   REMOTE_ZONE,
   SITE_ZONE,
 } from "./lib/demo/demo_company.ts";
-export { type AtomicWriteOptions, writeFileAtomic } from "./lib/io/atomic_write.ts";
+export { assertCanWrite, type AtomicWriteOptions, writeFileAtomic } from "./lib/io/atomic_write.ts";
 export * from "./lib/model/types.ts";
 export {
   fitModel,

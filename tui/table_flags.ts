@@ -94,12 +94,13 @@ function localeTag(text: string): string {
  */
 export function withTableFlags<A extends unknown[], O extends Record<string, unknown>>(
   command: Command<A, O>,
+  targetHelp = "the column to predict; rows where it is missing are left out",
 ): Command<A, O & TableFlags> {
   // The explicit return type matters: left to inference, the type of this
   // chain of options is deep enough that type checking it together with
   // other modules could take minutes.
   const chained = command
-    .option("--target <column>", "the column to predict; rows where it is missing are left out")
+    .option("--target <column>", targetHelp)
     .option(
       "--delimiter <char>",
       "field delimiter: comma, semicolon, tab or pipe (default: detected)",

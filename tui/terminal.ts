@@ -43,7 +43,15 @@ export function processTerminal(): Terminal {
   const write = (stream: { writeSync(b: Uint8Array): number }, text: string) => {
     const bytes = encoder.encode(text.endsWith("\n") ? text : `${text}\n`);
     let written = 0;
-    while (written < bytes.length) written += stream.writeSync(bytes.subarray(written));
+    try {
+      while (written < bytes.length) written += stream.writeSync(bytes.subarray(written));
+    } catch (error) {
+      // The reader has gone (`paygrove ... | head`): nothing more can be
+      // said, and that is no error of the user's. Exit quietly, as Unix
+      // tools do; outputs to files are written atomically, so none is half done.
+      if (error instanceof Deno.errors.BrokenPipe) Deno.exit(0);
+      throw error;
+    }
   };
   let width = DEFAULT_WIDTH;
   if (Deno.stdout.isTerminal()) {

@@ -19,6 +19,7 @@ import { toFitScale } from "../ensemble/pay_scale.ts";
 import { designOf, fitLeastSquares } from "../linear/least_squares.ts";
 import { filterRows, subsetRows } from "../table/filter_rows.ts";
 import { nameWords } from "../table/protected_names.ts";
+import { isPayName } from "../table/money.ts";
 import type { LevelColumn, NumericColumn, Table } from "../table/types.ts";
 import {
   categoriesOf,
@@ -30,7 +31,7 @@ import {
 import { gapFromCoefficient, holmAdjust, residualRegression, twoSidedP } from "./partial_out.ts";
 import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./proxies.ts";
 import { type PayQuartile, payQuartiles, rawGaps } from "./raw_gaps.ts";
-import { suppressSmallGroups } from "./suppress.ts";
+import { type Suppression, suppressSmallGroups } from "./suppress.ts";
 
 /** Options of {@linkcode gapCheck}. */
 export interface GapOptions {
@@ -192,6 +193,11 @@ export interface GapReport {
   /** Where the figures came from. */
   provenance: TableProvenance;
 }
+
+/** Below this out-of-bag R-squared of log pay, the adjusted gap is flagged as fragile. */
+export const WEAK_MODEL_R2 = 0.5;
+/** Below this many people, the adjusted gap is flagged as fragile. */
+export const FEW_PEOPLE = 100;
 
 /** The sources cited under every gap report. */
 export const GAP_SOURCES = [
@@ -510,16 +516,8 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     );
   }
   const hiddenCount = suppression.hidden.filter(Boolean).length;
-  if (hiddenCount > 0) {
-    const primary = suppression.primary.filter(Boolean).length;
-    notes.push(
-      `${hiddenCount} ${hiddenCount === 1 ? "category is" : "categories are"} too few to report: ` +
-        `${primary} with fewer than ${privacyMin} people in a group` +
-        (hiddenCount > primary
-          ? `, and ${hiddenCount - primary} more so that those cannot be worked out from the total`
-          : "") +
-        ".",
-    );
+  if (hiddenCount > 0 && withinCols.length > 0) {
+    notes.push(...suppressionNotes(categoryNames, countsPer, allGroups, suppression, privacyMin));
   }
   if (overallHidden) {
     notes.push(
@@ -527,10 +525,35 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
         `hidden categories could be worked out from them.`,
     );
   }
+  const payR2Log = oobRSquared(logPay, payModel.oob);
+  if (payR2Log < WEAK_MODEL_R2 || n < FEW_PEOPLE) {
+    const linearText = linear?.[0]
+      ? ` Compare the linear version (${(100 * linear[0].gap).toFixed(1)}% for ${linear[0].group}).`
+      : "";
+    notes.unshift(
+      `Take the adjusted gap with care: ` +
+        (n < FEW_PEOPLE ? `only ${n} people` : "") +
+        (n < FEW_PEOPLE && payR2Log < WEAK_MODEL_R2 ? ", and " : "") +
+        (payR2Log < WEAK_MODEL_R2
+          ? `the other factors explain only ${(100 * Math.max(0, payR2Log)).toFixed(0)}% of the ` +
+            `spread of log pay out of bag`
+          : "") +
+        `, so the adjusted gap is fragile: it moves with what the trees get wrong.` +
+        linearText,
+    );
+  }
+  if (variable !== undefined && !variable.money && !isPayName(variable.name)) {
+    notes.push(
+      `"${variable.name}" does not look like pay (no currency, not named like pay); it is gapped ` +
+        `as variable pay all the same, and left out of the factors.`,
+    );
+  } else if (variable !== undefined) {
+    notes.push(`The variable pay "${variable.name}" is not one of the factors.`);
+  }
   notes.push(
     "The residual difference compares the groups' average out-of-bag pay residuals from the " +
-      "pay model alone; it understates the gap when a group is concentrated in some levels or " +
-      "families, because the pay model then learns part of the gap as if it were the level's.",
+      "pay model alone; it tends to understate the gap when a group is concentrated in some " +
+      "levels or families, because the pay model then learns part of the gap as the level's.",
   );
 
   return {
@@ -560,7 +583,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     proxyThreshold,
     models: {
       trees,
-      payR2Log: oobRSquared(logPay, payModel.oob),
+      payR2Log,
       groupBalancedAccuracy: balancedAccuracy(groupModel.oob, groupCode, width, usable),
     },
     notes,
@@ -603,12 +626,50 @@ export function chooseReference(
   if (words.includes("sex") || words.includes("gender")) {
     const men = groups.find((g) => /^(m|male|males|man|men)$/i.test(g.trim()));
     if (men !== undefined) {
-      return { reference: men, reason: "men, as the Directive's gender pay gap is measured" };
+      return { reference: men, reason: "men, as the Directive measures the gender pay gap" };
     }
   }
   let best = groups[0];
   for (const g of groups) if (counts.get(g)! > counts.get(best)!) best = g;
   return { reference: best, reason: "the largest group" };
+}
+
+// Which categories are hidden and why: each small group named with the
+// categories where it is small, and how to see the others.
+function suppressionNotes(
+  names: string[],
+  counts: number[][],
+  groups: string[],
+  suppression: Suppression,
+  minimum: number,
+): string[] {
+  const notes: string[] = [];
+  const smallIn = new Map<string, string[]>();
+  names.forEach((name, c) => {
+    if (!suppression.primary[c]) return;
+    groups.forEach((g, j) => {
+      if (counts[c][j] < minimum) smallIn.set(g, [...(smallIn.get(g) ?? []), name]);
+    });
+  });
+  for (const [g, where] of smallIn) {
+    const others = groups.slice(1).filter((x) => x !== g && !smallIn.has(x));
+    notes.push(
+      `Too few to report: ${where.join(", ")}, where ${g} has fewer than ${minimum} people` +
+        (g !== groups[0] && others.length > 0
+          ? `; leave ${g} out of the comparison (--groups ${others.join(",")}) to see them.`
+          : "."),
+    );
+  }
+  const complementary = names.filter((_, c) => suppression.hidden[c] && !suppression.primary[c]);
+  if (complementary.length > 0) {
+    notes.push(
+      `Also withheld: ${
+        complementary.join(", ")
+      }, so that the hidden categories cannot be worked ` +
+        `out by subtracting the shown ones from the overall figures.`,
+    );
+  }
+  return notes;
 }
 
 function residualDifference(

@@ -34,6 +34,7 @@ import {
   withinColumns,
 } from "./categories.ts";
 import { suppressSmallGroups } from "./suppress.ts";
+import { FEW_PEOPLE, WEAK_MODEL_R2 } from "./gap_check.ts";
 
 /** Options of {@linkcode payReview}. */
 export interface ReviewOptions {
@@ -119,6 +120,8 @@ export interface PayReview {
   privacyMin: number;
   /** Out-of-bag R^2 of log pay. */
   oobR2Log: number;
+  /** Sentences about what is withheld and how far to trust the ranges. */
+  notes: string[];
   /** Where the figures came from. */
   provenance: TableProvenance;
 }
@@ -229,6 +232,27 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
       ? { name, suppressed: true as const }
       : { name, suppressed: false as const, ...summary(members[c]) }
   );
+  const oobR2Log = oobRSquared(logPay, oob);
+  const notes: string[] = [];
+  const primary = names.filter((_, c) => suppression.primary[c]);
+  const complementary = names.filter((_, c) => suppression.hidden[c] && !suppression.primary[c]);
+  if (primary.length > 0) {
+    notes.push(
+      `Too few to report: ${primary.join(", ")} (fewer than ${privacyMin} people)` +
+        (complementary.length > 0
+          ? `; also withheld: ${complementary.join(", ")}, so that those cannot be worked out ` +
+            `from the totals.`
+          : "."),
+    );
+  }
+  if (oobR2Log < WEAK_MODEL_R2 || dataset.rows < FEW_PEOPLE) {
+    notes.push(
+      `Take the ranges with care: ` +
+        (dataset.rows < FEW_PEOPLE ? `only ${dataset.rows} people, ` : "") +
+        `and the factors explain ${(100 * Math.max(0, oobR2Log)).toFixed(0)}% of the spread ` +
+        `of log pay out of bag; ranges are then wide, and who falls outside them says little.`,
+    );
+  }
   return {
     target: options.target,
     coverage,
@@ -242,7 +266,8 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     within,
     categories,
     privacyMin,
-    oobR2Log: oobRSquared(logPay, oob),
+    oobR2Log,
+    notes,
     provenance: tableProvenance(table, seed),
   };
 }

@@ -67,6 +67,37 @@ export async function writeFileAtomic(
   }
 }
 
+/**
+ * Checks, before any long work, that an output path can be written: it does
+ * not exist (unless `force`) and its folder does.
+ *
+ * @throws {OptionError} when the file exists and `force` is not set.
+ * @throws {DataError} when the folder does not exist.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { assertCanWrite } from "./atomic_write.ts";
+ * await assertCanWrite(`${Deno.makeTempDirSync()}/new.csv`, false, "--out");
+ * await assert.rejects(() => assertCanWrite("/no/such/folder/x.csv", false, "--out"), /folder does not exist/);
+ * ```
+ */
+export async function assertCanWrite(path: string, force: boolean, option: string): Promise<void> {
+  if (!force && await exists(path)) {
+    throw new OptionError(`${option}: ${path} already exists; add --force to replace it`);
+  }
+  const slash = path.lastIndexOf("/");
+  const folder = slash > 0 ? path.slice(0, slash) : slash === 0 ? "/" : ".";
+  try {
+    if (!(await Deno.stat(folder)).isDirectory) throw new Deno.errors.NotFound();
+  } catch (error) {
+    if (error instanceof Deno.errors.NotFound) {
+      throw new DataError(`${option}: cannot write ${path} (its folder does not exist)`);
+    }
+    throw error;
+  }
+}
+
 async function exists(path: string): Promise<boolean> {
   try {
     await Deno.lstat(path);

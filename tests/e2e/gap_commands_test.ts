@@ -67,11 +67,12 @@ Deno.test("a two-person category leaves no figure in any output, nor one by diff
   for (const c of hidden) assert.deepEqual(Object.keys(c).sort(), ["name", "suppressed"]);
   const hiddenNames = hidden.map((c: { name: string }) => c.name);
   assert.ok(hiddenNames.includes("Kiln"));
-  // Text and Markdown: every line naming a hidden category says only that.
+  // Text and Markdown: every table row or chart line of a hidden category
+  // says only that (the notes name them, with the privacy minimum).
   for (const output of [text.stdout, markdown]) {
     for (const line of output.split("\n")) {
       for (const name of hiddenNames) {
-        if (!new RegExp(`\\b${name}\\b`).test(line)) continue;
+        if (!new RegExp(`^(\\| )?${name}\\b`).test(line)) continue;
         const rest = line.replace(name, "").replace(/too few to report/, "");
         assert.doesNotMatch(rest, /[0-9]/, `a figure beside ${name}: "${line}"`);
         assert.doesNotMatch(rest, /[o\[\]]/, `a mark beside ${name}: "${line}"`);
@@ -112,7 +113,7 @@ Deno.test("a two-person category leaves no figure in any output, nor one by diff
     reviewShown.reduce((s: number, c: { people: number }) => s + c.people, 0);
   assert.ok(left >= 8);
   for (const line of reviewText.stdout.split("\n")) {
-    if (/\bKiln\b/.test(line)) assert.match(line, /^Kiln\s+too few to report$/);
+    if (/^Kiln\b/.test(line)) assert.match(line, /^Kiln\s+too few to report$/);
   }
 });
 
@@ -129,7 +130,7 @@ Deno.test("review lists people under range with their out-of-bag estimates and w
     out,
   ]);
   assert.equal(text.code, 0, text.stderr);
-  assert.match(text.stdout, /Of 2,000 people, \d+ are paid under their range/);
+  assert.match(text.stdout.replace(/\s+/g, " "), /of 2,000 people, \d+ are paid under their range/);
   assert.match(text.stdout, /out of bag/);
   assert.match(text.stdout, /not legal advice/);
   const csv = (await Deno.readTextFile(out)).trim().split("\n");
@@ -165,4 +166,100 @@ Deno.test("gap refuses what it cannot do, with exit status 2 and one line", asyn
     assert.match(result.stderr, message);
     assert.doesNotMatch(result.stderr, /at .*\.ts:\d+/, "no stack trace");
   }
+});
+
+Deno.test("from a newcomer's trial: small groups named, output checks first, a closed pipe is no error", async () => {
+  // All three gender groups: the note names the small group and how to see the rest.
+  const all = json(
+    await paygrove([
+      "gap",
+      demo,
+      "--target",
+      "base_pay_eur",
+      "--group",
+      "gender",
+      "--within",
+      "job_family",
+      "--variable",
+      "years_experience",
+      "--trees",
+      "20",
+      "--json",
+    ]),
+  );
+  const hidden = all.categories.filter((c: { suppressed: boolean }) => c.suppressed)
+    .map((c: { name: string }) => c.name);
+  assert.ok(hidden.includes("Field Service"));
+  const note = all.notes.find((n: string) => n.startsWith("Too few to report"));
+  assert.match(note, /where Non-binary has fewer than 5 people; leave Non-binary out/);
+  assert.match(note, /--groups Woman/);
+  // A variable-pay column that is not pay is said so, and is no factor.
+  assert.ok(all.notes.some((n: string) => /"years_experience" does not look like pay/.test(n)));
+  assert.ok(!all.features.includes("years_experience"));
+
+  // An existing report is refused before the table is even read.
+  const existing = `${dir}/exists.md`;
+  await Deno.writeTextFile(existing, "keep me");
+  const refused = await paygrove([
+    "gap",
+    `${dir}/no-such-table.csv`,
+    "--target",
+    "pay",
+    "--group",
+    "gender",
+    "--report",
+    existing,
+  ]);
+  assert.equal(refused.code, 2, refused.stderr);
+  assert.match(refused.stderr, /--report: .*exists\.md already exists; add --force/);
+  assert.equal(await Deno.readTextFile(existing), "keep me");
+
+  // `| head -1`: the reader goes away after the first line.
+  const root = new URL("../../", import.meta.url).pathname;
+  const { taskArgs } = await import("./_cli.ts");
+  const child = new Deno.Command(Deno.execPath(), {
+    args: [
+      ...taskArgs("paygrove"),
+      "review",
+      demo,
+      "--target",
+      "base_pay_eur",
+      "--trees",
+      "20",
+      "--json",
+    ],
+    cwd: root,
+    env: { NO_COLOR: "" },
+    stdin: "null",
+    stdout: "piped",
+    stderr: "piped",
+  }).spawn();
+  const reader = child.stdout.getReader();
+  await reader.read();
+  await reader.cancel();
+  const [status, stderr] = await Promise.all([
+    child.status,
+    new Response(child.stderr).text(),
+  ]);
+  assert.doesNotMatch(stderr, /internal error|BrokenPipe/, stderr);
+  assert.equal(status.code, 0);
+});
+
+Deno.test("a table too small for the trees: the adjusted gap and the ranges come with a warning", async () => {
+  const lines = ["id,dept,gender,years,salary"];
+  for (let i = 0; i < 18; i++) {
+    const dept = ["Admin", "Sales", "Ops"][i % 3];
+    const years = (i % 10) + 1;
+    const pay = 40000 + 2500 * years + (dept === "Sales" ? 5000 : 0) - (i % 2 === 0 ? 3000 : 0);
+    lines.push(`T${i + 1},${dept},${i % 2 === 0 ? "F" : "M"},${years},${pay}`);
+  }
+  const table = `${dir}/tiny.csv`;
+  await Deno.writeTextFile(table, lines.join("\n") + "\n");
+  const gap = json(
+    await paygrove(["gap", table, "--target", "salary", "--group", "gender", "--json"]),
+  );
+  assert.match(gap.notes[0], /^Take the adjusted gap with care: only 18 people/);
+  assert.match(gap.notes[0], /Compare the linear version \(\d+\.\d% for F\)/);
+  const review = json(await paygrove(["review", table, "--target", "salary", "--json"]));
+  assert.ok(review.notes.some((n: string) => /^Take the ranges with care: only 18 people/.test(n)));
 });

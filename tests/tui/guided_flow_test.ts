@@ -7,6 +7,7 @@ import {
   DEMO_COLUMNS,
   estimateProfile,
   fitModel,
+  gapCheck,
   loadTable,
   openModel,
   readModelFile,
@@ -276,22 +277,21 @@ Deno.test("from a newcomer's trial: values as typed, the person's own pay, a bad
   await Deno.remove(dir, { recursive: true });
 });
 
-Deno.test("the gap step: by gender, women against men within job families, the planted gap flagged", async () => {
+Deno.test("the gap step: women against men within job families, as paygrove gap gives it, and in the report", async () => {
+  const dir = await Deno.makeTempDir();
   const driver = flowDriver(60000);
   const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
   await driver.when("What do you want to work with?", KEY.enter);
   await driver.when("Which column should paygrove estimate?", KEY.enter);
   await driver.when("Which attributes may explain it?", KEY.enter);
   await driver.when("Check for pay gaps between groups first?", KEY.up, KEY.enter); // Yes, by gender
-  // Untick Non-binary (the second of Man, Non-binary, Woman).
-  await driver.when(
-    "Compare which groups with the reference group?",
-    KEY.down,
-    KEY.space,
-    KEY.enter,
-  );
+  await driver.when("Compare which group with Man (the reference)?", KEY.enter); // Woman, the largest
   await driver.when("Compare within which categories of workers?", KEY.enter); // job_family
   await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.up, KEY.enter); // Save
+  await driver.when("Save the model as:", `${dir}/m.json`, KEY.enter);
+  await driver.when("Save a report of the scenarios as", `${dir}/r.md`, KEY.enter);
+  await driver.when("Wrote the report");
   await driver.when("What next?", KEY.up, KEY.enter);
   await done;
   const screen = driver.screen();
@@ -300,6 +300,33 @@ Deno.test("the gap step: by gender, women against men within job families, the p
   assert.equal(flagged.length, 1, flagged.join("\n"));
   assert.match(flagged[0], /^Field Service /);
   assert.match(screen, /not proof of discrimination/);
+  assert.match(
+    screen,
+    /paygrove gap \S+demo_company\.csv --target base_pay_eur --group gender --groups Woman --within job_family/,
+  );
+
+  // The command line it names gives the same figures.
+  const table = loadTable(await Deno.readTextFile(DEMO), { ...DEMO_READ, target: "base_pay_eur" });
+  const report = await gapCheck(table, {
+    target: "base_pay_eur",
+    group: "gender",
+    compare: ["Woman"],
+    within: ["job_family"],
+  });
+  const field = report.categories.find((c) => c.name === "Field Service")!;
+  assert.ok(!field.suppressed);
+  if (!field.suppressed) {
+    const f = field.gaps[0];
+    const shown = `${formatPercent(f.adjusted!)} (${formatPercent(f.low!).replace("%", "")}..` +
+      `${formatPercent(f.high!).replace("%", "")})`;
+    assert.ok(flagged[0].includes(shown), `${flagged[0]} vs ${shown}`);
+  }
+  const markdown = await Deno.readTextFile(`${dir}/r.md`);
+  assert.match(markdown, /# Pay gap by gender/);
+  assert.match(markdown, /\| Field Service \|/);
+  const json = JSON.parse(await Deno.readTextFile(`${dir}/r.json`));
+  assert.equal(json.gap.reference, "Man");
+  await Deno.remove(dir, { recursive: true });
 });
 
 Deno.test("a protected attribute is never a what-if lever, even in a model fitted with it", async () => {

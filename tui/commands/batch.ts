@@ -7,6 +7,7 @@
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
+  assertCanWrite,
   batchAnswer,
   type BatchRow,
   type Model,
@@ -77,6 +78,7 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--force", "replace an existing --out file")
     .option("--json", "print one JSON document on stdout instead of CSV")
     .action(async (modelFile, profilesFile, flags) => {
+      if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const model = await readModelFile(modelFile);
       if (model.settings.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));

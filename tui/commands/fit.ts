@@ -12,7 +12,14 @@ import {
   InvalidArgumentError,
   Option,
 } from "@commander-js/extra-typings";
-import { fitModel, loadTableFile, type Model, OptionError, writeModelFile } from "../../mod.ts";
+import {
+  assertCanWrite,
+  fitModel,
+  loadTableFile,
+  type Model,
+  OptionError,
+  writeModelFile,
+} from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
@@ -171,6 +178,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           "fit needs --target COLUMN: the column to estimate (e.g. --target base_pay)",
         );
       }
+      await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
       const table = await loadTableFile(file, options);
       if (flags.allowProtected) {

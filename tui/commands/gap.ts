@@ -13,6 +13,7 @@ import {
   InvalidArgumentError,
 } from "@commander-js/extra-typings";
 import {
+  assertCanWrite,
   GAP_CAUTIONS,
   gapCheck,
   type GapReport,
@@ -67,6 +68,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
           "gap the other factors do not explain, overall and per category of workers",
       )
       .argument("<table>", "CSV pay table"),
+    "the pay column; rows where it is missing are left out",
   )
     .option("--group <column>", "the column of groups to compare, e.g. gender")
     .option(
@@ -118,6 +120,9 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
         throw new OptionError(
           "gap needs --group COLUMN: the groups to compare (e.g. --group gender)",
         );
+      }
+      if (flags.report !== undefined) {
+        await assertCanWrite(flags.report, flags.force ?? false, "--report");
       }
       const options = loadOptions(flags, file);
       const table = await loadTableFile(file, options);

@@ -14,6 +14,7 @@ import {
   InvalidArgumentError,
 } from "@commander-js/extra-typings";
 import {
+  assertCanWrite,
   GAP_CAUTIONS,
   loadTableFile,
   OptionError,
@@ -74,15 +75,14 @@ export function renderReview(
   const money = (x: number) => formatPay(x, numbers, true);
   const lines: string[] = [];
   const share = formatPercent(review.coverage, false, numbers).replace(".0%", "%");
+  const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
   lines.push(
     ...wrap(
       style.bold(`Pay review: ${review.target} against the ${share} range of comparable people`),
     ),
     ...wrap(style.dim(
       `Each person's estimate comes from trees that never saw them (out of bag), so their own ` +
-        `pay does not pull it. Compared on: ${review.features.join(", ")}. By construction about ` +
-        `${formatPercent((1 - review.coverage) / 2, false, numbers)} of people sit under a ` +
-        `${share} range and as many over it; the question is who, and by how much.`,
+        `pay does not pull it. Compared on: ${review.features.join(", ")}.`,
     )),
     "",
   );
@@ -91,9 +91,14 @@ export function renderReview(
     const o = review.overall;
     lines.push(
       ...wrap(
-        `Of ${formatNumber(o.people, numbers, 0)} people, ${o.under} are paid under their range ` +
-          `(bringing each to its low end would cost ${money(o.cost)}${per} in total) and ` +
-          `${o.over} over it.`,
+        `The range leaves about ${
+          formatPercent((1 - review.coverage) / 2, false, numbers).replace(".0%", "%")
+        } of people under it and as many over it by construction: that many outside is ` +
+          `expected; who they are, and by how much, is the finding. Here, of ` +
+          `${formatNumber(o.people, numbers, 0)} people, ${
+            plural(o.under, "is paid", "are paid")
+          } under their range (bringing each to its low end would cost ${money(o.cost)}${per} ` +
+          `in total) and ${o.over} over it.`,
       ),
       "",
     );
@@ -147,12 +152,14 @@ export function renderReview(
     }
     lines.push("");
   };
+  // Both lists by position in the range, so they read alike.
   const under = review.people.filter((p) => p.status === "under")
-    .sort((a, b) => b.shortfall - a.shortfall);
+    .sort((a, b) => a.position! - b.position!);
   const over = review.people.filter((p) => p.status === "over")
     .sort((a, b) => b.position! - a.position!);
-  listed("Furthest under their range (position 0% = the range's low end)", under);
-  listed("Furthest over their range (100% = the range's high end)", over);
+  listed("Furthest under their range, by position (0% = the range's low end)", under);
+  listed("Furthest over their range, by position (100% = the range's high end)", over);
+  for (const note of review.notes) lines.push(...wrap(style.warn(note)));
   const missing = review.people.filter((p) => p.status === null).length;
   if (missing > 0) {
     lines.push(
@@ -177,6 +184,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
           "who is under or over, and the cost of bringing those under up to the range",
       )
       .argument("<table>", "CSV pay table"),
+    "the pay column; rows where it is missing are left out",
   )
     .option(
       "--features <columns>",
@@ -189,7 +197,12 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       "keep only rows with this value (repeat: values of one column are alternatives)",
       collectWhere,
     )
-    .option("--within <columns>", "summarise per category: combinations of these columns", list)
+    .option(
+      "--within <columns>",
+      "summarise per category: combinations of these columns (e.g. job_family, or gender to see " +
+        "who is under range)",
+      list,
+    )
     .option(
       "--coverage <share>",
       "share of comparable people's pay the range covers",
@@ -214,6 +227,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
           "review needs --target COLUMN: the pay column (e.g. --target base_pay)",
         );
       }
+      if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
       const table = await loadTableFile(file, options);
       const progress = progressBar(terminal);

@@ -1,37 +1,73 @@
 /**
  * The guided flow's gap step: after the model summary, when the table has
  * a protected attribute (kept out of the model), the flow offers the pay-gap
- * check by it, within categories the user picks from the model's
- * attributes.
+ * check by it: one group against the reference (or all at once), within
+ * categories the user picks from the model's attributes. The figures are
+ * those of `paygrove gap` on the same table, whose command line is shown.
  *
  * @module
  */
 
 import wrapAnsi from "wrap-ansi";
-import { GAP_CAUTIONS, gapCheck, type Model, readForModel } from "../../mod.ts";
+import {
+  chooseReference,
+  DataError,
+  GAP_CAUTIONS,
+  gapCheck,
+  type GapReport,
+  loadTable,
+  type LoadTableOptions,
+  type Model,
+  OptionError,
+} from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderGap } from "../render/gap_view.ts";
 import type { NumberStyle } from "../render/numbers.ts";
 import type { FlowIO } from "./flow_io.ts";
 
-/**
- * The protected columns of a table the gap check can compare: columns of a
- * few named groups that the model does not use.
- */
-export function gapGroupsOf(model: Model, tableText: string): { name: string; groups: string[] }[] {
-  if (model.target.kind !== "regression") return [];
-  const { table } = readForModel(model, tableText, model.provenance.table.file);
-  const used = new Set(model.features.map((f) => f.name));
-  return table.columns.flatMap((c) =>
-    c.protected && !used.has(c.name) && (c.type === "categorical" || c.type === "ordinal") &&
-      c.levels.length >= 2
-      ? [{ name: c.name, groups: [...c.levels] }]
-      : []
-  );
+/** Where the flow's table came from: how it was read, and its path for the command line. */
+export interface TableSource {
+  /** The options it was read with. */
+  read: LoadTableOptions;
+  /** Its path (for the equivalent command line). */
+  path: string;
+}
+
+/** A protected column the gap check can compare, with its groups and their sizes. */
+export interface GapCandidate {
+  /** Column name. */
+  name: string;
+  /** Group names and how many people with pay each has. */
+  groups: { name: string; people: number }[];
 }
 
 /**
- * Offers the gap check; returns when it is shown or declined.
+ * The protected columns of a table the gap check can compare: columns of
+ * at least two named groups that the model does not use.
+ */
+export function gapCandidates(
+  model: Model,
+  tableText: string,
+  source: TableSource,
+): GapCandidate[] {
+  if (model.target.kind !== "regression") return [];
+  const table = loadTable(tableText, { ...source.read, target: model.target.name });
+  const used = new Set(model.features.map((f) => f.name));
+  return table.columns.flatMap((c) => {
+    if (!c.protected || used.has(c.name) || (c.type !== "categorical" && c.type !== "ordinal")) {
+      return [];
+    }
+    const people = new Array<number>(c.levels.length).fill(0);
+    for (const code of c.codes) if (code >= 0) people[code]++;
+    const groups = c.levels.map((name, i) => ({ name, people: people[i] }))
+      .filter((g) => g.people > 0);
+    return groups.length >= 2 ? [{ name: c.name, groups }] : [];
+  });
+}
+
+/**
+ * Offers the gap check; returns its report when one was shown (for the
+ * session report), else null. A problem is said, and the flow goes on.
  *
  * @param tableText The table the model was fitted on.
  */
@@ -39,32 +75,48 @@ export async function offerGapCheck(
   io: FlowIO,
   model: Model,
   tableText: string,
+  source: TableSource,
   numbers: NumberStyle,
-): Promise<void> {
-  const candidates = gapGroupsOf(model, tableText);
-  if (candidates.length === 0) return;
+): Promise<GapReport | null> {
+  const candidates = gapCandidates(model, tableText, source);
+  if (candidates.length === 0) return null;
   const group = await io.choose(
     "Check for pay gaps between groups first?",
     [
       ...candidates.map((c) => ({
-        name: `Yes, by ${c.name} (${c.groups.join(", ")})`,
+        name: `Yes, by ${c.name}`,
         value: c.name,
-        description: "raw and unexplained gaps, per category of workers; kept out of the model",
+        description: `${c.groups.map((g) => g.name).join(", ")}: raw and unexplained gaps per ` +
+          `category of workers (${c.name} stays out of the model)`,
       })),
       { name: "No, go on to a profile", value: "" },
     ],
     "",
   );
-  if (group === "") return;
+  if (group === "") return null;
   const groups = candidates.find((c) => c.name === group)!.groups;
+  const counts = new Map(groups.map((g) => [g.name, g.people]));
+  const { reference } = chooseReference(group, counts);
+  const others = groups.filter((g) => g.name !== reference)
+    .sort((a, b) => b.people - a.people);
   let compare: string[] | undefined;
-  if (groups.length > 2) {
-    compare = await io.tick(
-      `Compare which groups with the reference group? (a category where any compared group ` +
-        `has fewer than ${model.settings.privacyMin} people is not shown)`,
-      groups.map((g) => ({ name: g, value: g, checked: true })),
+  if (others.length > 1) {
+    // One group at a time by default: a small group would hide every
+    // category where it has fewer people than the privacy minimum.
+    const chosen = await io.choose(
+      `Compare which group with ${reference} (the reference)?`,
+      [
+        ...others.map((g) => ({ name: `${g.name} (${g.people} people)`, value: g.name })),
+        {
+          name: "All of them at once",
+          value: "",
+          description: `a category is hidden where any group has fewer than ` +
+            `${model.settings.privacyMin} people`,
+        },
+      ],
+      others[0].name,
     );
-    if (compare.length === 0) compare = undefined;
+    compare = chosen === "" ? undefined : [chosen];
   }
   const levelled = model.features.filter((f) => f.kind !== "numeric" && !f.protected);
   const within = await io.choose(
@@ -75,11 +127,10 @@ export async function offerGapCheck(
     ],
     levelled[0]?.name ?? "",
   );
-  const { table } = readForModel(model, tableText, model.provenance.table.file, true);
   const bar = progressBar({ progress: io.progress, width: io.width });
-  let lines: string[];
+  let report: GapReport;
   try {
-    const report = await gapCheck(table, {
+    report = await gapCheck(loadTable(tableText, { ...source.read, target: model.target.name }), {
       target: model.target.name,
       group,
       compare,
@@ -89,17 +140,34 @@ export async function offerGapCheck(
       seed: model.settings.seed,
       onProgress: (stage, done, total) => bar.update(stage, done, total),
     });
-    lines = renderGap(report, { style: io.style, width: io.width, numbers });
+  } catch (error) {
+    if (!(error instanceof OptionError || error instanceof DataError)) throw error;
+    io.say(io.style.warn(`! The gap check could not run: ${error.message}`));
+    return null;
   } finally {
     bar.finish();
   }
+  // Relative to here when it can be, so the line is short enough to copy.
+  const here = `${Deno.cwd()}/`;
+  const path = source.path.startsWith(here) ? source.path.slice(here.length) : source.path;
+  const command = `paygrove gap ${path} --target ${model.target.name} --group ${group}` +
+    (compare ? ` --groups ${compare.join(",")}` : "") + (within ? ` --within ${within}` : "");
   io.say(
     [
       "",
-      ...lines,
-      "",
       ...wrapAnsi(io.style.dim(GAP_CAUTIONS), io.width).split("\n"),
-      io.style.dim("(paygrove gap on the command line gives the same, with --report and --json.)"),
+      "",
+      ...renderGap(report, { style: io.style, width: io.width, numbers, brief: true }),
+      ...wrapAnsi(
+        io.style.dim(
+          "Saving a report at the end includes this check. Quartiles, the linear version and " +
+            "sources, on the command line (add --report FILE for Markdown):",
+        ),
+        io.width,
+      ).split("\n"),
+      // Not wrapped, so it can be copied whole.
+      `  ${command}`,
     ].join("\n"),
   );
+  return report;
 }

@@ -20,6 +20,7 @@ import {
   describeSchema,
   estimateProfile,
   fitModel,
+  type GapReport,
   isPayName,
   loadTable,
   type LoadTableOptions,
@@ -40,7 +41,8 @@ import {
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderCompare, renderResult, renderSweep } from "../render/answer_view.ts";
-import { cautionLines } from "../render/cautions.ts";
+import { cautionLines, jsonNumbers } from "../render/cautions.ts";
+import { gapMarkdown } from "../render/gap_view.ts";
 import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
 import CliTable from "cli-table3";
@@ -48,7 +50,7 @@ import { tableChars } from "../render/glyphs.ts";
 import { renderSchemaBrief } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
-import { offerGapCheck } from "./gap_step.ts";
+import { offerGapCheck, type TableSource } from "./gap_step.ts";
 
 /** Settings of a flow run. */
 export interface FlowOptions {
@@ -78,11 +80,12 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
 
   let model: Model | undefined;
   let tableText: string | null = null;
+  let source: TableSource | null = null;
   // Until a model is in hand: a file that cannot be used is said, and the
   // first question comes again.
   while (model === undefined) {
     try {
-      ({ model, tableText } = await chooseAndFit(io, options));
+      ({ model, tableText, source } = await chooseAndFit(io, options));
     } catch (error) {
       if (!(error instanceof DataError || error instanceof OptionError)) throw error;
       io.say(io.style.warn(`! ${error.message}`));
@@ -91,15 +94,17 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   }
   const session = openModel(model);
   const money = moneyStyle(model, { locale: options.locale });
-  if (tableText !== null) await offerGapCheck(io, model, tableText, money);
-  await whatIfLoop(io, session, tableText, money, options);
+  const gap = tableText !== null && source !== null
+    ? await offerGapCheck(io, model, tableText, source, money)
+    : null;
+  await whatIfLoop(io, session, tableText, money, { ...options, gap });
 }
 
 /** Asks for the data and returns a fitted (or loaded) model. */
 async function chooseAndFit(
   io: FlowIO,
   options: FlowOptions,
-): Promise<{ model: Model; tableText: string | null }> {
+): Promise<{ model: Model; tableText: string | null; source: TableSource | null }> {
   const { style } = io;
   const start = await io.choose("What do you want to work with?", [
     {
@@ -114,6 +119,7 @@ async function chooseAndFit(
   let model: Model;
   let table: Table | null = null;
   let tableText: string | null = null;
+  let source: TableSource | null = null;
   if (start === "model") {
     const path = await io.ask("Path of the model file:", { validate: fileExists });
     model = await readModelFile(path);
@@ -134,6 +140,7 @@ async function chooseAndFit(
       label = path;
     }
     table = loadTable(tableText, readOptions);
+    source = { read: readOptions, path: start === "demo" ? options.demoPath : label };
 
     io.say(
       renderSchemaBrief(describeSchema(table), {
@@ -182,7 +189,7 @@ async function chooseAndFit(
       ].join("\n"),
     );
   }
-  return { model, tableText };
+  return { model, tableText, source };
 }
 
 /** Asks for the target and the features. */
@@ -257,7 +264,7 @@ async function whatIfLoop(
   session: ModelSession,
   tableText: string | null,
   money: NumberStyle,
-  options: FlowOptions,
+  options: FlowOptions & { gap: GapReport | null },
 ): Promise<void> {
   const { model } = session;
   const view = { style: io.style, width: io.width, money };
@@ -334,6 +341,7 @@ async function whatIfLoop(
       scenarios.length > 0 ? scenarios : [{ name: "current", answer }],
       whatIfs,
       options.report,
+      options.gap,
     );
   }
   io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
@@ -550,7 +558,7 @@ async function save(
   model: Model,
   scenarios: Scenario[],
   whatIfs: CompareAnswer[],
-  options: FlowOptions,
+  options: FlowOptions & { gap: GapReport | null },
 ) {
   const path = await io.ask("Save the model as:", { default: "paygrove-model.json" });
   let force = false;
@@ -567,7 +575,7 @@ async function save(
     await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
       default: "paygrove-report.md",
     });
-  await writeReport(io, model, scenarios, whatIfs, report);
+  await writeReport(io, model, scenarios, whatIfs, report, options.gap);
 }
 
 async function writeReport(
@@ -576,13 +584,18 @@ async function writeReport(
   scenarios: Scenario[],
   whatIfs: CompareAnswer[],
   path: string,
+  gap: GapReport | null,
 ) {
   const jsonPath = path.replace(/\.md$/, "") + ".json";
-  await writeFileAtomic(path, reportMarkdown(model, scenarios, whatIfs), {
+  // The gap check, when one was run in the session, follows the scenarios.
+  const markdown = reportMarkdown(model, scenarios, whatIfs) +
+    (gap ? "\n" + gapMarkdown(gap, moneyStyle(model, {}), new Date().toISOString()) : "");
+  const json = { ...reportJson(model, scenarios, whatIfs), ...(gap ? { gap } : {}) };
+  await writeFileAtomic(path, markdown, {
     force: true,
     option: "report",
   });
-  await writeFileAtomic(jsonPath, JSON.stringify(reportJson(model, scenarios, whatIfs), null, 2), {
+  await writeFileAtomic(jsonPath, JSON.stringify(json, jsonNumbers, 2), {
     force: true,
     option: "report",
   });

@@ -22,13 +22,20 @@ export interface GapView {
   width: number;
   /** Number formatting. */
   numbers: NumberStyle;
+  /**
+   * For the guided flow: the sentence, the table, the chart, proxies and
+   * notes; no quartiles, comparisons, model figures or sources.
+   */
+  brief?: boolean;
 }
 
 const TOO_FEW = "too few to report";
 
 /** "12.1%", or "n/a" for a missing figure. */
 function pct(value: number | null, numbers: NumberStyle, signed = false): string {
-  return value === null ? "n/a" : formatPercent(value, signed, numbers);
+  if (value === null) return "n/a";
+  // No "-0.0%": what rounds to zero is zero.
+  return formatPercent(Math.abs(value) < 0.0005 ? 0 : value, signed, numbers);
 }
 
 /** The flags of a figure as short words. */
@@ -38,8 +45,10 @@ function flagWords(f: GapFigure): string {
 
 // "0.9% to 2.0%" on one side of zero; "-2.0% to +2.4%" across it, where the sign matters.
 function intervalWords(low: number, high: number, numbers: NumberStyle): string {
-  const across = low < 0 && high > 0;
-  return `${pct(low, numbers, across)} to ${pct(high, numbers, across)}`;
+  const words = (x: number) => `${pct(Math.abs(x), numbers)} ${x >= 0 ? "below" : "above"}`;
+  if (low >= 0) return `${pct(low, numbers)} to ${words(high)}`;
+  if (high <= 0) return `${pct(-high, numbers)} to ${words(low)}`;
+  return `${words(low)} to ${words(high)}`;
 }
 
 /**
@@ -64,7 +73,7 @@ export function gapSentence(reference: string, f: GapFigure, numbers: NumberStyl
     `${reference}'s`;
   if (f.adjusted !== null) {
     text += `; with the factors below held equal, ` +
-      `${pct(Math.abs(f.adjusted), numbers)} ${side(f.adjusted)} (95% interval ` +
+      `${pct(Math.abs(f.adjusted), numbers)} ${side(f.adjusted)} (95% interval: ` +
       intervalWords(f.low!, f.high!, numbers) + ")";
   }
   return text + ".";
@@ -125,11 +134,22 @@ export function gapAxis(
 
 /** Aligned plain columns (first column left, the others right). */
 function columns(rows: string[][], gap: number, lastLeft = false): string[] {
-  const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => r[j].length)));
+  // A "too few to report" row is its label and that phrase, spanning the
+  // other columns, so it does not widen them.
+  const spans = (r: string[]) => r[1] === TOO_FEW && r.slice(2).every((c) => c === "");
+  const sized = rows.filter((r) => !spans(r));
+  const widths = rows[0].map((_, j) =>
+    Math.max(
+      ...sized.map((r) => r[j].length),
+      j === 0 ? Math.max(...rows.map((r) => r[0].length)) : 0,
+    )
+  );
   const left = (j: number) => j === 0 || (lastLeft && j === rows[0].length - 1);
   return rows.map((r) =>
-    r.map((cell, j) => (left(j) ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
-      .join(" ".repeat(gap)).replace(/\s+$/, "")
+    spans(r)
+      ? `${r[0].padEnd(widths[0])}${" ".repeat(gap)}${TOO_FEW}`
+      : r.map((cell, j) => (left(j) ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
+        .join(" ".repeat(gap)).replace(/\s+$/, "")
   );
 }
 
@@ -139,7 +159,7 @@ function tableRows(report: GapReport, numbers: NumberStyle): string[][] {
   const many = report.groups.length > 1;
   const people = many ? "people/ref" : `${report.groups[0]}/${report.reference}`;
   const head = ["", ...(many ? ["group"] : []), people, "raw mean", "median"];
-  head.push("unexplained (95%)", "flags");
+  head.push("unexplained", "flags");
   const rows: string[][] = [head];
   const interval = (f: GapFigure) => {
     const bare = (x: number | null) => pct(x, numbers).replace("%", "");
@@ -170,6 +190,7 @@ function tableRows(report: GapReport, numbers: NumberStyle): string[][] {
  */
 export function renderGap(report: GapReport, view: GapView): string[] {
   const { style, width, numbers } = view;
+  const brief = view.brief ?? false;
   const wrap = (text: string) => wrapAnsi(text, width).split("\n");
   const lines: string[] = [];
   lines.push(
@@ -177,7 +198,7 @@ export function renderGap(report: GapReport, view: GapView): string[] {
       `Pay gap by ${report.group}: ${report.groups.join(", ")} against ${report.reference}`,
     )),
     ...wrap(style.dim(
-      `${report.reference} is the reference: ${report.referenceReason}. ${report.target}, ` +
+      `Reference group: ${report.reference} (${report.referenceReason}). ${report.target}, ` +
         `${formatNumber(report.rows, numbers, 0)} people` +
         (report.within.length ? `, categories by ${report.within.join(" x ")}` : "") +
         (report.missingGroup ? `; ${report.missingGroup} without a ${report.group} left out` : "") +
@@ -191,98 +212,130 @@ export function renderGap(report: GapReport, view: GapView): string[] {
     }
     lines.push("");
   }
-  const table = columns(tableRows(report, numbers), width < 90 ? 1 : 2, true);
-  lines.push(...table.map((l, i) => (i === 0 ? style.bold(l) : l)));
-  lines.push(
-    ...wrap(style.dim(
-      `Flags: raw = a raw mean gap of ${pct(report.threshold, numbers)} or more (Directive ` +
-        `(EU) 2023/970, Art. 10: a joint pay assessment unless objective, gender-neutral criteria ` +
-        `justify it, which only the employer can judge); unexpl. = the adjusted gap differs ` +
-        `from 0 at the 5% level after Holm's adjustment across categories and is at least ` +
-        `${pct(report.materiality, numbers)}.`,
-    )),
-    "",
-  );
-
-  const axisRows: {
-    label: string;
-    value: number | null;
-    low: number | null;
-    high: number | null;
-  }[] = [];
-  const add = (label: string, f: GapFigure) =>
-    axisRows.push({ label, value: f.adjusted, low: f.low, high: f.high });
   const many = report.groups.length > 1;
-  if (!report.overall.suppressed) {
-    for (const f of report.overall.gaps) add(many ? `Overall ${f.group}` : "Overall", f);
-  }
-  for (const c of report.categories) {
-    if (c.suppressed) axisRows.push({ label: c.name, value: null, low: null, high: null });
-    else for (const f of c.gaps) add(many ? `${c.name} ${f.group}` : c.name, f);
-  }
-  if (axisRows.some((r) => r.value !== null)) {
-    const labelWidth = Math.max(...axisRows.map((r) => r.label.length));
-    lines.push(
-      style.bold("Unexplained gap, 95% interval, one axis (right of 0: paid less)"),
-      ...gapAxis(axisRows, Math.max(20, Math.min(50, width - labelWidth - 4)), isAscii()),
-      "",
-    );
-  }
-
-  if (!report.overall.suppressed) {
-    const f = report.overall.gaps;
-    for (const g of f) {
-      const linear = report.linear?.find((l) => l.group === g.group);
+  const tablePart = (): string[] => {
+    const lines: string[] = [];
+    let rows = tableRows(report, numbers);
+    let table = columns(rows, width < 90 ? 1 : 2, true);
+    const median = rows[0].indexOf("median");
+    if (Math.max(...table.map((l) => l.length)) > width && median > 0) {
+      // Too wide for the screen: the median gaps stay in --json and --report.
+      rows = rows.map((r) => r.filter((_, j) => j !== median));
+      table = columns(rows, 1, true);
+      lines.push(style.dim("(median gaps left out to fit the width; see --json or --report)"));
+    }
+    lines.push(...table.map((l, i) => (i === 0 ? style.bold(l) : l)));
+    const anyShown = !report.overall.suppressed || report.categories.some((c) => !c.suppressed);
+    if (anyShown) {
       lines.push(
-        ...wrap(
-          `${many ? `${g.group}, beside` : "Beside"} the adjusted gap: the simple difference of ` +
-            `out-of-bag pay residuals ${
-              pct(g.residualDifference, numbers)
-            } (it understates the gap ` +
-            `when a group is concentrated in some levels or families)` +
-            (linear
-              ? `; the linear version (log pay on the factors plus a group indicator) ` +
-                `${pct(linear.gap, numbers)} (b = ${
-                  formatNumber(linear.coefficient, numbers, 4)
-                }, ` +
-                `SE ${formatNumber(linear.se, numbers, 4)}).`
-              : "."),
-        ),
+        ...wrap(style.dim(
+          brief
+            ? `Flags: raw = a raw mean gap of ${pct(report.threshold, numbers)} or more either ` +
+              `way (a joint pay assessment under Directive (EU) 2023/970, Art. 10, unless ` +
+              `justified); unexpl. = significant after Holm's adjustment and at least ` +
+              `${pct(report.materiality, numbers)}.`
+            : `Flags: raw = a raw mean gap of ${
+              pct(report.threshold, numbers)
+            } or more either way (Directive ` +
+              `(EU) 2023/970, Art. 10: a joint pay assessment unless objective, gender-neutral criteria ` +
+              `justify it, which only the employer can judge); unexpl. = the adjusted gap differs ` +
+              `from 0 at the 5% level after Holm's adjustment across categories and is at least ` +
+              `${pct(report.materiality, numbers)}.`,
+        )),
       );
     }
     lines.push("");
-  }
-
-  if (report.quartiles) {
-    const groups = [report.reference, ...report.groups];
-    lines.push(
-      style.bold("Pay quartiles (four equal groups of people by pay): share of each group"),
-    );
-    lines.push(
-      ...columns([
-        ["", ...groups, "pay from", "to"],
-        ...report.quartiles.map((q) => [
-          ["Q1 lowest", "Q2", "Q3", "Q4 highest"][q.quartile - 1],
-          ...groups.map((g) => pct(q.shares[g] ?? 0, numbers)),
-          formatNumber(q.low, numbers, 0),
-          formatNumber(q.high, numbers, 0),
-        ]),
-      ], 2),
-      "",
-    );
-  }
-
-  if (report.variable !== null) {
-    lines.push(style.bold(`Variable pay (${report.variable}): raw gaps`));
-    const rows = [["", "group", "mean", "median"]];
-    const push = (label: string, f: GapFigure) =>
-      rows.push([label, f.group, pct(f.variableMean, numbers), pct(f.variableMedian, numbers)]);
-    if (!report.overall.suppressed) report.overall.gaps.forEach((f) => push("Overall", f));
-    for (const c of report.categories) {
-      if (c.suppressed) rows.push([c.name, TOO_FEW, "", ""]);
-      else c.gaps.forEach((f) => push(c.name, f));
+    return lines;
+  };
+  const axisPart = (): string[] => {
+    const lines: string[] = [];
+    const axisRows: {
+      label: string;
+      value: number | null;
+      low: number | null;
+      high: number | null;
+    }[] = [];
+    const add = (label: string, f: GapFigure) =>
+      axisRows.push({ label, value: f.adjusted, low: f.low, high: f.high });
+    if (!report.overall.suppressed) {
+      for (const f of report.overall.gaps) add(many ? `Overall ${f.group}` : "Overall", f);
     }
-    lines.push(...columns(rows, 2), "");
+    for (const c of report.categories) {
+      if (c.suppressed) axisRows.push({ label: c.name, value: null, low: null, high: null });
+      else for (const f of c.gaps) add(many ? `${c.name} ${f.group}` : c.name, f);
+    }
+    if (axisRows.some((r) => r.value !== null)) {
+      const labelWidth = Math.max(...axisRows.map((r) => r.label.length));
+      lines.push(
+        style.bold("Unexplained gap, 95% interval, one axis (right of 0: paid less)"),
+        ...gapAxis(axisRows, Math.max(20, Math.min(50, width - labelWidth - 4)), isAscii()),
+        "",
+      );
+    }
+    return lines;
+  };
+  // In the flow, the table (with its flags) comes last, nearest the next question.
+  if (brief) lines.push(...axisPart(), ...tablePart());
+  else lines.push(...tablePart(), ...axisPart());
+
+  if (!brief) {
+    if (!report.overall.suppressed) {
+      const f = report.overall.gaps;
+      for (const g of f) {
+        const linear = report.linear?.find((l) => l.group === g.group);
+        lines.push(
+          ...wrap(
+            `${
+              many ? `${g.group}, beside` : "Beside"
+            } the adjusted gap: the simple difference of ` +
+              `out-of-bag pay residuals ${
+                pct(g.residualDifference, numbers)
+              } (it tends to understate ` +
+              `the gap when a group is concentrated in some levels or families)` +
+              (linear
+                ? `; the linear version (log pay on the factors plus a group indicator) ` +
+                  `${pct(linear.gap, numbers)} (b = ${
+                    formatNumber(linear.coefficient, numbers, 4)
+                  }, ` +
+                  `SE ${formatNumber(linear.se, numbers, 4)}).`
+                : "."),
+          ),
+        );
+      }
+      lines.push("");
+    }
+
+    if (report.quartiles) {
+      const groups = [report.reference, ...report.groups];
+      lines.push(
+        style.bold("Pay quartiles (four equal groups of people by pay): share of each group"),
+      );
+      lines.push(
+        ...columns([
+          ["", ...groups, "pay from", "to"],
+          ...report.quartiles.map((q) => [
+            ["Q1 lowest", "Q2", "Q3", "Q4 highest"][q.quartile - 1],
+            ...groups.map((g) => pct(q.shares[g] ?? 0, numbers)),
+            formatNumber(q.low, numbers, 0),
+            formatNumber(q.high, numbers, 0),
+          ]),
+        ], 2),
+        "",
+      );
+    }
+
+    if (report.variable !== null) {
+      lines.push(style.bold(`Variable pay (${report.variable}): raw gaps`));
+      const rows = [["", "group", "mean", "median"]];
+      const push = (label: string, f: GapFigure) =>
+        rows.push([label, f.group, pct(f.variableMean, numbers), pct(f.variableMedian, numbers)]);
+      if (!report.overall.suppressed) report.overall.gaps.forEach((f) => push("Overall", f));
+      for (const c of report.categories) {
+        if (c.suppressed) rows.push([c.name, TOO_FEW, "", ""]);
+        else c.gaps.forEach((f) => push(c.name, f));
+      }
+      lines.push(...columns(rows, 2), "");
+    }
   }
 
   lines.push(
@@ -301,17 +354,21 @@ export function renderGap(report: GapReport, view: GapView): string[] {
             `the adjusted gap understates it.`,
         ),
     ),
-    ...wrap(style.dim(
+    ...(brief ? [] : wrap(style.dim(
       `Adjusted for: ${report.features.join(", ")}. Out-of-bag R^2 of log pay ` +
         `${formatNumber(report.models.payR2Log, numbers, 3)}; the factors predict ` +
         `${report.group} with balanced accuracy ${
           formatNumber(report.models.groupBalancedAccuracy, numbers, 2)
         } (${report.models.trees} trees each).`,
-    )),
-    "",
+    ))),
+    ...(brief ? [] : [""]),
   );
-  for (const note of report.notes) lines.push(...wrap(style.dim(note)));
-  lines.push(...wrap(style.dim("Sources: " + GAP_SOURCES.join(" "))));
+  for (const note of report.notes) {
+    // Brief: only what changes how to read the figures shown.
+    if (brief && /^The residual difference/.test(note)) continue;
+    lines.push(...wrap(style.dim(note)));
+  }
+  if (!brief) lines.push(...wrap(style.dim("Sources: " + GAP_SOURCES.join(" "))));
   return lines;
 }
 
@@ -372,7 +429,7 @@ export function gapMarkdown(report: GapReport, numbers: NumberStyle, created: st
     }
     md.push(...table(rows), "");
     md.push(
-      "The residual difference understates the gap when a group is concentrated in some " +
+      "The residual difference tends to understate the gap when a group is concentrated in some " +
         "levels or families.",
       "",
     );
