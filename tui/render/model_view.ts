@@ -270,10 +270,10 @@ export function renderImportance(model: Model, options: ModelViewOptions): strin
     })
     .sort((a, b) => b.value - a.value);
   const title = permutation
-    ? "Importance: how much larger the typical error gets when an attribute is scrambled"
+    ? "Importance: how much the typical error grows when an attribute is scrambled"
     : "Importance: share of the trees' impurity decrease (favours many-valued attributes)";
   return [
-    style.bold(title),
+    ...wrapAnsi(style.bold(title), options.width).split("\n"),
     ...barChart(items, Math.max(10, Math.min(40, options.width - 40))),
   ];
 }
