@@ -122,7 +122,12 @@ export {
   REMOTE_ZONE,
   SITE_ZONE,
 } from "./lib/demo/demo_company.ts";
-export { assertCanWrite, type AtomicWriteOptions, writeFileAtomic } from "./lib/io/atomic_write.ts";
+export {
+  assertCanWrite,
+  type AtomicWriteOptions,
+  removePendingFiles,
+  writeFileAtomic,
+} from "./lib/io/atomic_write.ts";
 export * from "./lib/model/types.ts";
 export {
   fitModel,

@@ -12,7 +12,7 @@
 // The root program has no options of its own to type, so it uses commander's
 // plain types; subcommands use extra-typings for typed option values.
 import { Command, CommanderError } from "commander";
-import { DataError, OptionError, VERSION } from "../mod.ts";
+import { DataError, OptionError, removePendingFiles, VERSION } from "../mod.ts";
 import { schemaCommand } from "./commands/schema.ts";
 import { fitCommand } from "./commands/fit.ts";
 import { estimateCommand } from "./commands/estimate.ts";
@@ -100,11 +100,32 @@ export async function run(args: string[], terminal: Terminal): Promise<number> {
       return report(error, terminal);
     }
   }
+  // Ctrl-C during long work: said in one line, nothing half-written left
+  // (outputs are written whole at the end, and a write in progress is undone).
+  const interrupted = () => {
+    removePendingFiles();
+    terminal.err("paygrove: stopped (Ctrl-C); no output file was written");
+    Deno.exit(130);
+  };
+  const listening = listenForInterrupt(interrupted);
   try {
     await program.parseAsync(args, { from: "user" });
     return EXIT.ok;
   } catch (error) {
     return report(error, terminal);
+  } finally {
+    if (listening) Deno.removeSignalListener("SIGINT", interrupted);
+  }
+}
+
+// Signals are not listened for where the platform has none (Windows has
+// SIGINT; a test's fake terminal does not need them either).
+function listenForInterrupt(handler: () => void): boolean {
+  try {
+    Deno.addSignalListener("SIGINT", handler);
+    return true;
+  } catch {
+    return false;
   }
 }
 

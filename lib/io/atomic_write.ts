@@ -20,6 +20,31 @@ export interface AtomicWriteOptions {
   option?: string;
 }
 
+// Temporary files being written now, so that an interrupted run can remove
+// them (see removePendingFiles).
+const pending = new Set<string>();
+
+/**
+ * Removes the temporary files of writes still in progress: called when the
+ * program is interrupted (Ctrl-C), so that nothing half-written is left.
+ * The targets themselves are untouched: they are only ever replaced whole.
+ *
+ * @returns How many files were removed.
+ */
+export function removePendingFiles(): number {
+  let removed = 0;
+  for (const path of pending) {
+    try {
+      Deno.removeSync(path);
+      removed++;
+    } catch {
+      // Already gone.
+    }
+  }
+  pending.clear();
+  return removed;
+}
+
 /**
  * Writes `data` to `path` atomically.
  *
@@ -45,6 +70,7 @@ export async function writeFileAtomic(
   const folder = slash >= 0 ? path.slice(0, slash + 1) : "";
   const temporary = `${folder}.${path.slice(slash + 1)}.${crypto.randomUUID()}.tmp`;
   const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
+  pending.add(temporary);
   try {
     const file = await Deno.open(temporary, { write: true, createNew: true });
     try {
@@ -55,7 +81,9 @@ export async function writeFileAtomic(
       file.close();
     }
     await Deno.rename(temporary, path);
+    pending.delete(temporary);
   } catch (error) {
+    pending.delete(temporary);
     await Deno.remove(temporary).catch(() => {});
     // Said without the temporary file's name, which means nothing to anyone.
     const why = error instanceof Deno.errors.NotFound

@@ -117,6 +117,44 @@ export function inferColumn(
   return levels(name, cells, lines, base, options);
 }
 
+/**
+ * The same as {@linkcode inferColumn} for a column whose every cell was a
+ * plain number or missing (as {@linkcode CellColumn} keeps them), without
+ * the text of each cell: numeric, or a numeric identifier, or constant.
+ * Returns undefined where the full inference is needed (a declared
+ * non-numeric type, a decimal comma, or no number at all); the caller then
+ * passes the texts to `inferColumn`.
+ *
+ * @param values The numbers, NaN where missing.
+ * @param texts The cells' texts, asked for only when the column is an identifier.
+ */
+export function inferPlainColumn(
+  name: string,
+  values: Float64Array,
+  lines: ArrayLike<number>,
+  options: InferColumnOptions,
+  texts: () => readonly string[],
+): Column | undefined {
+  if (options.decimal !== "." || options.order !== undefined) return undefined;
+  if (options.type !== undefined && options.type !== "numeric") return undefined;
+  let missing = 0;
+  for (let r = 0; r < values.length; r++) if (Number.isNaN(values[r])) missing++;
+  const present = values.length - missing;
+  if (present === 0) return undefined;
+  const base = { name, missing, protected: options.protected, notes: [] as string[] };
+  if (options.type !== "numeric" && looksLikeNumericId(name, values, present)) {
+    return identifier(texts(), base, options.isMissing);
+  }
+  // Plain numbers carry no currency or period: amounts only for settleMoney's count.
+  const amounts: (Amount | undefined)[] = new Array(values.length);
+  if (isPayName(name) || options.period !== undefined) {
+    for (let r = 0; r < values.length; r++) {
+      if (!Number.isNaN(values[r])) amounts[r] = { value: values[r] };
+    }
+  }
+  return numeric(name, { values, amounts, failures: [], money: false }, lines, base, options);
+}
+
 interface ParsedNumbers {
   values: Float64Array;
   amounts: (Amount | undefined)[];
@@ -129,12 +167,19 @@ function readNumbers(cells: readonly string[], options: InferColumnOptions): Par
   const amounts: (Amount | undefined)[] = new Array(cells.length);
   const failures: number[] = [];
   let money = false;
+  // Each distinct text is parsed once (a column of levels repeats a few).
+  const seen = new Map<string, Amount | undefined>();
   for (let r = 0; r < cells.length; r++) {
     if (options.isMissing(cells[r])) {
       values[r] = NaN;
       continue;
     }
-    const amount = parseAmount(cells[r], options.decimal);
+    let amount: Amount | undefined;
+    if (seen.has(cells[r])) amount = seen.get(cells[r]);
+    else {
+      amount = parseAmount(cells[r], options.decimal);
+      if (seen.size < 65536) seen.set(cells[r], amount);
+    }
     if (amount === undefined) {
       values[r] = NaN;
       failures.push(r);
@@ -210,12 +255,21 @@ function numeric(
   base: Base,
   options: InferColumnOptions,
 ): Column {
-  const distinct = new Set<number>();
-  for (const v of parsed.values) if (!Number.isNaN(v)) distinct.add(v);
+  // One distinct value or none? (Two found ends the search.)
+  let first = NaN;
+  let several = false;
+  for (const v of parsed.values) {
+    if (Number.isNaN(v)) continue;
+    if (Number.isNaN(first)) first = v;
+    else if (v !== first) {
+      several = true;
+      break;
+    }
+  }
   // A column declared numeric stays numeric even with one value (a file of
   // one profile, or offers that are all the same).
-  if (distinct.size <= 1 && options.type !== "numeric") {
-    return constant(base, distinct.size ? String([...distinct][0]) : undefined);
+  if (!several && options.type !== "numeric") {
+    return constant(base, Number.isNaN(first) ? undefined : String(first));
   }
   const column: NumericColumn = { ...base, type: "numeric", values: parsed.values };
   if (parsed.money || isPayName(name) || options.period !== undefined) {

@@ -9,12 +9,12 @@
 import { createHash } from "node:crypto";
 import { DataError, OptionError } from "../errors.ts";
 import { type DecimalMark, parseAmount } from "./amount.ts";
-import { type DeclaredType, inferColumn } from "./infer_column.ts";
+import { type DeclaredType, inferColumn, inferPlainColumn } from "./infer_column.ts";
 import { DEFAULT_MISSING_TOKENS, missingTest } from "./missing.ts";
 import { applyFte, isPayName } from "./money.ts";
 import { isProtectedName } from "./protected_names.ts";
 import { findQualityWarnings } from "./quality.ts";
-import { decodeText, describeDelimiter, readCsv } from "./read_csv.ts";
+import { ChunkDecoder, CsvColumnsReader, describeDelimiter, type ReadColumns } from "./read_csv.ts";
 import type { Column, PayPeriod, QualityWarning, Table } from "./types.ts";
 
 /** What the target column must be. */
@@ -83,30 +83,85 @@ export interface LoadTableOptions {
  */
 export function loadTable(input: Uint8Array | string, options: LoadTableOptions = {}): Table {
   const file = options.file ?? "input";
-  const text = typeof input === "string" ? input : decodeText(input, options.encoding, file);
+  const reader = tableReader(options);
   const raw8 = typeof input === "string" ? new TextEncoder().encode(input) : input;
-  const bytes = raw8.length;
   // The fingerprint that ties a saved model and every output to this input.
   const sha256 = createHash("sha256").update(raw8).digest("hex");
-  const raw = readCsv(text, { file, delimiter: options.delimiter });
+  if (typeof input === "string") reader.push(input);
+  else reader.push(new ChunkDecoder(options.encoding ?? "utf-8", file).decode(input, true));
+  return buildTable(reader.end(), options, { bytes: raw8.length, sha256 });
+}
+
+/**
+ * Loads a pay table from bytes arriving in chunks (a file read piece by
+ * piece): the same table as {@linkcode loadTable} on the whole input, built
+ * without holding the text or the rows, so a million-row file fits in
+ * memory several times smaller than its cells as strings.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable, loadTableChunks } from "./load_table.ts";
+ * const bytes = new TextEncoder().encode("level,pay\nL1,50\nL2,61\nL2,60\n");
+ * const chunks = [bytes.subarray(0, 7), bytes.subarray(7, 20), bytes.subarray(20)];
+ * async function* each() { yield* chunks; }
+ * const table = await loadTableChunks(each(), { target: "pay" });
+ * assert.deepEqual(table, loadTable(bytes, { target: "pay" }));
+ * ```
+ */
+export async function loadTableChunks(
+  chunks: AsyncIterable<Uint8Array>,
+  options: LoadTableOptions = {},
+): Promise<Table> {
+  const file = options.file ?? "input";
+  const reader = tableReader(options);
+  const decoder = new ChunkDecoder(options.encoding ?? "utf-8", file);
+  const hash = createHash("sha256");
+  let bytes = 0;
+  for await (const chunk of chunks) {
+    hash.update(chunk);
+    bytes += chunk.length;
+    reader.push(decoder.decode(chunk));
+  }
+  reader.push(decoder.decode(new Uint8Array(0), true));
+  return buildTable(reader.end(), options, { bytes, sha256: hash.digest("hex") });
+}
+
+function tableReader(options: LoadTableOptions): CsvColumnsReader {
+  return new CsvColumnsReader({
+    file: options.file ?? "input",
+    delimiter: options.delimiter,
+    isMissing: missingTest(options.missing ?? DEFAULT_MISSING_TOKENS),
+  });
+}
+
+// The read columns -> the typed table: target rows, inference, checks, warnings.
+function buildTable(
+  raw: ReadColumns,
+  options: LoadTableOptions,
+  source: { bytes: number; sha256: string },
+): Table {
+  const file = options.file ?? "input";
   checkOptionColumns(raw.header, options);
   if (options.hoursPerYear !== undefined && !(options.hoursPerYear > 0)) {
     throw new OptionError(`--hours-per-year must be a positive number of hours`);
   }
   const isMissing = missingTest(options.missing ?? DEFAULT_MISSING_TOKENS);
 
-  let cells = raw.cells;
   let lines = raw.lines;
   const excludedLines: number[] = [];
   if (options.target !== undefined) {
-    const t = raw.header.indexOf(options.target);
+    const target = raw.columns[raw.header.indexOf(options.target)];
+    const plain = target.plain;
+    const texts = plain === null ? target.texts() : null;
     const keep: number[] = [];
     for (let r = 0; r < lines.length; r++) {
-      if (isMissing(cells[t][r])) excludedLines.push(lines[r]);
-      else keep.push(r);
+      if (plain !== null ? Number.isNaN(plain[r]) : isMissing(texts![r])) {
+        excludedLines.push(lines[r]);
+      } else keep.push(r);
     }
     if (excludedLines.length > 0) {
-      cells = cells.map((column) => keep.map((r) => column[r]));
+      for (const column of raw.columns) column.keep(keep);
       lines = keep.map((r) => lines[r]);
     }
     if (lines.length === 0) {
@@ -122,22 +177,28 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
   const targetKind = options.targetKind ??
     (options.target !== undefined && isPayName(options.target) ? "numeric" : undefined);
   const userProtected = new Set(options.protected ?? []);
-  const columns = raw.header.map((name, c) =>
-    inferColumn(name, cells[c], lines, {
+  const columns = raw.header.map((name, c) => {
+    const infer = {
       file,
       decimal: options.decimal ?? ".",
       isMissing,
       missingTokens: options.missing ?? DEFAULT_MISSING_TOKENS,
       // A pay target is declared numeric so that stray text is quoted back.
       type: options.types?.[name] ??
-        (name === options.target && targetKind === "numeric" ? "numeric" : undefined),
+        (name === options.target && targetKind === "numeric" ? "numeric" as const : undefined),
       order: options.orders?.[name],
       protected: userProtected.has(name) || isProtectedName(name),
       currency: options.currency,
       period: options.periods?.[name],
       hoursPerYear: options.hoursPerYear,
-    })
-  );
+    };
+    const cells = raw.columns[c];
+    const plain = cells.plain;
+    const typed = plain === null
+      ? undefined
+      : inferPlainColumn(name, plain.slice(), lines, infer, () => cells.texts());
+    return typed ?? inferColumn(name, cells.texts(), lines, infer);
+  });
 
   const notes = [`delimiter: ${describeDelimiter(raw.delimiter)}`];
   if (options.fte !== undefined) applyFteToPay(columns, options.fte, lines, file);
@@ -152,7 +213,7 @@ export function loadTable(input: Uint8Array | string, options: LoadTableOptions 
     excluded: { count: excludedLines.length, lines: excludedLines.slice(0, 10) },
     warnings: [],
     notes,
-    source: { file: options.file, delimiter: raw.delimiter, bytes, sha256 },
+    source: { file: options.file, delimiter: raw.delimiter, ...source },
   };
   if (options.target !== undefined) table.target = options.target;
   if (excludedLines.length > 0) {
@@ -214,9 +275,21 @@ function applyFteToPay(columns: Column[], fteName: string, lines: number[], file
 
 function checkTarget(column: Column, kind: TargetKind | undefined, file: string): void {
   const where = { file, column: column.name };
-  const distinct = column.type === "numeric"
-    ? new Set(Array.from(column.values).filter((v) => !Number.isNaN(v))).size
-    : 2;
+  let distinct = 2;
+  if (column.type === "numeric") {
+    // Fewer than two distinct values? (Stops at the second.)
+    const values = column.values;
+    let first = NaN;
+    distinct = 0;
+    for (let r = 0; r < values.length && distinct < 2; r++) {
+      const v = values[r];
+      if (Number.isNaN(v)) continue;
+      if (distinct === 0) {
+        first = v;
+        distinct = 1;
+      } else if (v !== first) distinct = 2;
+    }
+  }
   if (column.type === "constant" || distinct < 2) {
     throw new DataError(
       `${file}: the target "${column.name}" has fewer than 2 distinct values; there is nothing ` +

@@ -5,7 +5,7 @@
  */
 
 import { DataError } from "../errors.ts";
-import { loadTable, type LoadTableOptions } from "./load_table.ts";
+import { loadTableChunks, type LoadTableOptions } from "./load_table.ts";
 import type { Table } from "./types.ts";
 
 /**
@@ -24,13 +24,25 @@ export async function loadTableFile(
   path: string,
   options: Omit<LoadTableOptions, "file"> = {},
 ): Promise<Table> {
-  let bytes: Uint8Array;
+  let file: Deno.FsFile;
   try {
-    bytes = await Deno.readFile(path);
+    file = await Deno.open(path);
+    if ((await file.stat()).isDirectory) {
+      file.close();
+      throw new Deno.errors.IsADirectory();
+    }
   } catch (error) {
     throw new DataError(readProblem(path, error), { file: path });
   }
-  return loadTable(bytes, { ...options, file: path });
+  // Read piece by piece: the text of a large table is never held whole.
+  async function* chunks(): AsyncGenerator<Uint8Array> {
+    try {
+      for await (const chunk of file.readable) yield chunk;
+    } catch (error) {
+      throw new DataError(readProblem(path, error), { file: path });
+    }
+  }
+  return await loadTableChunks(chunks(), { ...options, file: path });
 }
 
 function readProblem(path: string, error: unknown): string {

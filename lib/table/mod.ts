@@ -11,7 +11,12 @@ export { isProtectedName, nameWords } from "./protected_names.ts";
 export { ladderOrder } from "./ordinal.ts";
 export { isPayName, periodFromName } from "./money.ts";
 export type { DeclaredType } from "./infer_column.ts";
-export { loadTable, type LoadTableOptions, type TargetKind } from "./load_table.ts";
+export {
+  loadTable,
+  loadTableChunks,
+  type LoadTableOptions,
+  type TargetKind,
+} from "./load_table.ts";
 export { loadTableFile } from "./load_table_file.ts";
 export { type ColumnSummary, describeSchema, type SchemaSummary } from "./describe_schema.ts";
 export { quantile } from "./quality.ts";

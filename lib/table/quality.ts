@@ -269,7 +269,12 @@ function sameRow(columns: readonly Column[], a: number, b: number): boolean {
 }
 
 function present(values: Float64Array): Float64Array {
-  return values.filter((v) => !Number.isNaN(v)).sort();
+  // A plain loop: filter() with a callback costs more than the sort on a
+  // million values.
+  const out = new Float64Array(values.length);
+  let n = 0;
+  for (let r = 0; r < values.length; r++) if (values[r] === values[r]) out[n++] = values[r];
+  return out.subarray(0, n).sort();
 }
 
 /**

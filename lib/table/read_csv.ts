@@ -6,8 +6,10 @@
  * @module
  */
 
-import { CsvError, parse } from "csv-parse/sync";
+import { parse } from "csv-parse/sync";
 import { DataError, OptionError } from "../errors.ts";
+import { CellColumn } from "./cell_column.ts";
+import { CsvTokenizer } from "./csv_tokenizer.ts";
 
 /** Options for {@linkcode readCsv}. */
 export interface ReadCsvOptions {
@@ -147,61 +149,237 @@ export function detectDelimiter(text: string): string {
  * ```
  */
 export function readCsv(text: string, options: ReadCsvOptions = {}): RawColumns {
-  const file = options.file ?? "input";
-  if (text.trim() === "") throw new DataError(`${file} is empty`, { file });
-  const delimiter = options.delimiter ?? detectDelimiter(text);
-  let header: string[] | undefined;
-  let cells: string[][] = [];
-  const lines: number[] = [];
-  const ragged: { line: number; fields: number }[] = [];
-  let raggedCount = 0;
-  let lastLine = 0;
-  try {
-    parse(text, {
+  const reader = new CsvColumnsReader({ ...options, isMissing: () => false });
+  reader.push(text);
+  const read = reader.end();
+  return {
+    header: read.header,
+    cells: read.columns.map((c) => c.texts()),
+    lines: read.lines,
+    delimiter: read.delimiter,
+  };
+}
+
+/** What {@linkcode CsvColumnsReader} gives at the end: header, compact columns, lines. */
+export interface ReadColumns {
+  /** Header names, trimmed. */
+  header: string[];
+  /** One compact column of trimmed cells per header name. */
+  columns: CellColumn[];
+  /** The 1-based line on which each data row starts. */
+  lines: number[];
+  /** The delimiter used. */
+  delimiter: string;
+}
+
+/** Options of {@linkcode CsvColumnsReader}. */
+export interface ColumnsReaderOptions extends ReadCsvOptions {
+  /** Which cell texts mean missing (kept compactly in numeric columns). */
+  isMissing: (text: string) => boolean;
+}
+
+// Text held back to detect the delimiter: this many lines, or the whole input.
+const DETECT_LINES = 50;
+
+/**
+ * Reads CSV text pushed in chunks straight into compact columns (see
+ * cell_column.ts), without holding the rows: the streaming half of
+ * {@linkcode readCsv}, with the same checks and messages.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { CsvColumnsReader } from "./read_csv.ts";
+ * const reader = new CsvColumnsReader({ file: "t.csv", isMissing: (t) => t === "" });
+ * reader.push("id;pay\na;85");
+ * reader.push("000\nb;\n");
+ * const read = reader.end();
+ * assert(read.delimiter === ";" && read.columns[1].plain![0] === 85000);
+ * assert(Number.isNaN(read.columns[1].plain![1]) && read.lines[1] === 3);
+ * ```
+ */
+export class CsvColumnsReader {
+  #options: ColumnsReaderOptions;
+  #file: string;
+  #pending = "";
+  #tokenizer: CsvTokenizer | null = null;
+  #header: string[] | undefined;
+  #columns: CellColumn[] = [];
+  #lines: number[] = [];
+  #ragged: { line: number; fields: number }[] = [];
+  #raggedCount = 0;
+  #sawText = false;
+
+  /** @param options File name, delimiter (detected when absent), missing test. */
+  constructor(options: ColumnsReaderOptions) {
+    this.#options = options;
+    this.#file = options.file ?? "input";
+  }
+
+  /** Adds the next piece of text. */
+  push(text: string): void {
+    if (!this.#sawText && text.trim() !== "") this.#sawText = true;
+    if (this.#tokenizer !== null) {
+      this.#tokenizer.push(text);
+      return;
+    }
+    // Hold text back until the delimiter can be told from whole lines.
+    this.#pending += text;
+    let breaks = 0;
+    for (let i = this.#pending.indexOf("\n"); i >= 0; i = this.#pending.indexOf("\n", i + 1)) {
+      if (++breaks >= DETECT_LINES) break;
+    }
+    if (breaks >= DETECT_LINES) this.#start(false);
+  }
+
+  /** Ends the input and returns the columns. */
+  end(): ReadColumns {
+    if (this.#tokenizer === null) this.#start(true);
+    this.#tokenizer!.end();
+    const file = this.#file;
+    if (!this.#sawText) throw new DataError(`${file} is empty`, { file });
+    const header = this.#header;
+    if (header === undefined) throw new DataError(`${file} is empty`, { file });
+    if (this.#raggedCount > 0) {
+      const shown = this.#ragged.map((r) => `line ${r.line} has ${r.fields}`).join(", ");
+      const more = this.#raggedCount > this.#ragged.length
+        ? `, and ${this.#raggedCount - this.#ragged.length} more`
+        : "";
+      const fields = `${header.length} field${header.length === 1 ? "" : "s"}`;
+      throw new DataError(
+        `${file}: ${this.#raggedCount} row${this.#raggedCount === 1 ? " does" : "s do"} not ` +
+          `have the ${fields} of the header: ${shown}${more}` +
+          (this.#options.delimiter
+            ? ""
+            : ` (delimiter detected: ${describeDelimiter(this.#tokenizer!.delimiter)}; give ` +
+              `--delimiter if the file uses another)`),
+        { file, line: this.#ragged[0].line },
+      );
+    }
+    if (this.#lines.length === 0) {
+      throw new DataError(`${file} has a header but no data rows`, { file });
+    }
+    return {
+      header,
+      columns: this.#columns,
+      lines: this.#lines,
+      delimiter: this.#tokenizer!.delimiter,
+    };
+  }
+
+  #start(final: boolean): void {
+    const text = this.#pending;
+    this.#pending = "";
+    // Detect on whole lines only: a cut line would look ragged.
+    const cut = final ? text.length : text.lastIndexOf("\n") + 1;
+    const delimiter = this.#options.delimiter ?? detectDelimiter(text.slice(0, cut));
+    this.#tokenizer = new CsvTokenizer(
       delimiter,
-      relax_column_count: true,
-      on_record: (record: string[], context: { lines: number }) => {
-        const startLine = lastLine + 1;
-        lastLine = context.lines;
-        if (record.length === 1 && record[0].trim() === "") return null;
-        if (header === undefined) {
-          header = checkHeader(record.map((h) => h.trim()), file, startLine);
-          cells = header.map(() => []);
-          return null;
-        }
-        if (record.length !== header.length) {
-          raggedCount++;
-          if (ragged.length < RAGGED_SHOWN) ragged.push({ line: startLine, fields: record.length });
-          return null;
-        }
-        for (let c = 0; c < record.length; c++) cells[c].push(record[c].trim());
-        lines.push(startLine);
-        return null;
-      },
-    });
-  } catch (error) {
-    if (error instanceof CsvError) throw csvProblem(error, file, lastLine + 1);
-    throw error;
-  }
-  if (header === undefined) throw new DataError(`${file} is empty`, { file });
-  if (raggedCount > 0) {
-    const shown = ragged.map((r) => `line ${r.line} has ${r.fields}`).join(", ");
-    const more = raggedCount > ragged.length ? `, and ${raggedCount - ragged.length} more` : "";
-    const fields = `${header.length} field${header.length === 1 ? "" : "s"}`;
-    throw new DataError(
-      `${file}: ${raggedCount} row${raggedCount === 1 ? " does" : "s do"} not have the ` +
-        `${fields} of the header: ${shown}${more}` +
-        (options.delimiter
-          ? ""
-          : ` (delimiter detected: ${describeDelimiter(delimiter)}; give --delimiter if the ` +
-            `file uses another)`),
-      { file, line: ragged[0].line },
+      this.#file,
+      (fields, line) => this.#record(fields, line),
     );
+    this.#tokenizer.push(text);
   }
-  if (lines.length === 0) {
-    throw new DataError(`${file} has a header but no data rows`, { file });
+
+  #record(record: string[], line: number): void {
+    if (record.length === 1 && record[0].trim() === "") return;
+    const header = this.#header;
+    if (header === undefined) {
+      this.#header = checkHeader(record.map((h) => h.trim()), this.#file, line);
+      this.#columns = this.#header.map(() => new CellColumn(this.#options.isMissing));
+      return;
+    }
+    if (record.length !== header.length) {
+      this.#raggedCount++;
+      if (this.#ragged.length < RAGGED_SHOWN) this.#ragged.push({ line, fields: record.length });
+      return;
+    }
+    for (let c = 0; c < record.length; c++) this.#columns[c].push(record[c].trim());
+    this.#lines.push(line);
   }
-  return { header, cells, lines, delimiter };
+}
+
+/**
+ * Decodes bytes arriving in chunks, with the checks of {@linkcode decodeText}:
+ * a byte-order mark (UTF-8 dropped, UTF-16 decoded), a NUL byte refused as
+ * binary, text that is not valid in the encoding refused with its line.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { ChunkDecoder } from "./read_csv.ts";
+ * const decoder = new ChunkDecoder("utf-8", "t.csv");
+ * const bytes = new TextEncoder().encode("\ufeffcafé\n");
+ * const text = decoder.decode(bytes.subarray(0, 5)) + decoder.decode(bytes.subarray(5), true);
+ * assert(text === "café\n");
+ * ```
+ */
+export class ChunkDecoder {
+  #decoder: TextDecoder | null = null;
+  #encoding: string;
+  #file: string;
+  #offset = 0;
+  #lines = 1;
+  #utf16 = false;
+
+  /**
+   * @param encoding A WHATWG encoding label.
+   * @param file File name, for messages.
+   */
+  constructor(encoding: string, file: string) {
+    this.#encoding = encoding;
+    this.#file = file;
+  }
+
+  /** Decodes the next chunk (`final` for the last). */
+  decode(bytes: Uint8Array, final = false): string {
+    let chunk = bytes;
+    if (this.#decoder === null) {
+      if (chunk.length >= 2 && chunk[0] === 0xff && chunk[1] === 0xfe) {
+        this.#decoder = new TextDecoder("utf-16le");
+        this.#utf16 = true;
+        chunk = chunk.subarray(2);
+      } else if (chunk.length >= 2 && chunk[0] === 0xfe && chunk[1] === 0xff) {
+        this.#decoder = new TextDecoder("utf-16be");
+        this.#utf16 = true;
+        chunk = chunk.subarray(2);
+      } else {
+        try {
+          this.#decoder = new TextDecoder(this.#encoding, { fatal: true, ignoreBOM: false });
+        } catch {
+          throw new OptionError(
+            `--encoding: unknown text encoding "${this.#encoding}" (e.g. utf-8, windows-1252, ` +
+              `iso-8859-15)`,
+          );
+        }
+      }
+    }
+    if (!this.#utf16) {
+      const nul = chunk.indexOf(0);
+      if (nul >= 0) {
+        throw new DataError(
+          `${this.#file} is not a text file (byte ${this.#offset + nul + 1} is a NUL byte); ` +
+            `export the table as CSV`,
+          { file: this.#file },
+        );
+      }
+    }
+    this.#offset += bytes.length;
+    let text: string;
+    try {
+      text = this.#decoder.decode(chunk, { stream: !final });
+    } catch {
+      const loose = new TextDecoder(this.#encoding).decode(chunk);
+      const line = this.#lines + countLines(loose, loose.indexOf("\ufffd")) - 1;
+      throw new DataError(
+        `${this.#file} line ${line} is not valid ${this.#encoding} text; re-save the file as ` +
+          `UTF-8, or name its encoding (e.g. --encoding windows-1252)`,
+        { file: this.#file, line },
+      );
+    }
+    for (let i = text.indexOf("\n"); i >= 0; i = text.indexOf("\n", i + 1)) this.#lines++;
+    return text;
+  }
 }
 
 /**
@@ -235,16 +413,4 @@ function checkHeader(header: string[], file: string, line: number): string[] {
     seen.set(name, c);
   }
   return header;
-}
-
-function csvProblem(error: CsvError, file: string, recordLine: number): DataError {
-  const what: Record<string, string> = {
-    CSV_QUOTE_NOT_CLOSED: "a quoted field starts here and is never closed",
-    CSV_INVALID_CLOSING_QUOTE: "a quote inside a quoted field is not doubled",
-    INVALID_OPENING_QUOTE:
-      "a quote appears inside an unquoted field; quote the whole field and write each quote in it twice",
-    CSV_NON_TRIMABLE_CHAR_AFTER_CLOSING_QUOTE: "text follows the closing quote of a field",
-  };
-  const reason = what[error.code] ?? error.message.replace(/\s+/g, " ");
-  return new DataError(`${file} line ${recordLine}: ${reason}`, { file, line: recordLine });
 }

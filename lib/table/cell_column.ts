@@ -1,0 +1,185 @@
+/**
+ * One column's cells as they are read, kept compactly: while every cell is
+ * a plain number (or missing) the column holds numbers in a growing
+ * Float64Array and no text at all (the few cells whose text a number does
+ * not give back, such as "40.10" or a missing-value token, are kept aside);
+ * at the first other cell it turns into text, with repeated texts shared.
+ * A million-row table thus costs about 8 bytes per numeric cell instead of
+ * a string object per cell.
+ *
+ * @module
+ */
+
+// The same plain-number syntax that amount.ts reads without further ado.
+const PLAIN = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+// Texts shared while a column has at most this many distinct ones (levels);
+// past it (identifiers) sharing saves nothing.
+const SHARED_MAX = 65536;
+
+/**
+ * Whether `String(value)` is `text` again, deciding most cells without
+ * formatting the number (the costly part of reading a large table): a
+ * plain decimal of at most 15 characters with no sign, leading zero,
+ * trailing zero or exponent that JavaScript would write differently.
+ */
+function givesBack(text: string, value: number): boolean {
+  const n = text.length;
+  if (n > 15) return String(value) === text;
+  const first = text.charCodeAt(0);
+  // "+5", "-0", ".5", "05": written differently.
+  if (first === 43 || first === 46) return false;
+  const digits = first === 45 ? 1 : 0;
+  const lead = text.charCodeAt(digits);
+  const dot = text.indexOf(".");
+  if (lead === 48 && n > digits + 1 && text.charCodeAt(digits + 1) !== 46) return false;
+  if (text.indexOf("e") >= 0 || text.indexOf("E") >= 0) return String(value) === text;
+  if (dot >= 0) {
+    const last = text.charCodeAt(n - 1);
+    if (last === 48 || last === 46) return false; // "40.10", "40."
+    // Below 1e-6 JavaScript switches to exponents ("1e-7").
+    if (lead === 48 && text.startsWith("0.00000", digits)) return String(value) === text;
+  }
+  return !(first === 45 && value === 0); // "-0" and "-0.0" read as 0
+}
+
+/**
+ * Cells of one column.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { CellColumn } from "./cell_column.ts";
+ * const plain = new CellColumn((t) => t === "" || t === "NA");
+ * for (const t of ["85000", "40.10", "NA", ""]) plain.push(t);
+ * assert(plain.plain !== null && plain.plain[1] === 40.1);
+ * assert.deepEqual(plain.texts(), ["85000", "40.10", "NA", ""]);
+ * const text = new CellColumn(() => false);
+ * for (const t of ["1", "L2", "L2"]) text.push(t);
+ * assert(text.plain === null && text.texts().join() === "1,L2,L2");
+ * ```
+ */
+export class CellColumn {
+  #isMissing: (text: string) => boolean;
+  #values: Float64Array | null = new Float64Array(1024);
+  // Rows (ascending) whose text a number does not give back, and those texts.
+  #asideRows: number[] = [];
+  #asideTexts: string[] = [];
+  #texts: string[] | null = null;
+  #shared: Map<string, string> | null = null;
+  #length = 0;
+
+  /** @param isMissing Which texts mean missing. */
+  constructor(isMissing: (text: string) => boolean) {
+    this.#isMissing = isMissing;
+  }
+
+  /** Number of cells. */
+  get length(): number {
+    return this.#length;
+  }
+
+  /** Adds one (trimmed) cell. */
+  push(text: string): void {
+    const r = this.#length++;
+    if (this.#values !== null) {
+      let value = NaN;
+      const missing = this.#isMissing(text);
+      if (!missing) value = PLAIN.test(text) ? Number(text) : NaN;
+      // Not plain, or too large to be a number (1e400): the column is text.
+      if (!missing && !Number.isFinite(value)) {
+        this.#toText(r);
+        this.#pushText(text);
+        return;
+      }
+      if (r === this.#values.length) {
+        const grown = new Float64Array(this.#values.length * 2);
+        grown.set(this.#values);
+        this.#values = grown;
+      }
+      this.#values[r] = value;
+      // Keep the text when the number does not give it back.
+      if (missing ? text !== "" : !givesBack(text, value)) {
+        this.#asideRows.push(r);
+        this.#asideTexts.push(text);
+      }
+      return;
+    }
+    this.#pushText(text);
+  }
+
+  /**
+   * The values when every cell was a plain number or missing (NaN), else
+   * null. Missing cells are NaN.
+   */
+  get plain(): Float64Array | null {
+    return this.#values === null ? null : this.#values.subarray(0, this.#length);
+  }
+
+  /** Every cell's text, as read. */
+  texts(): string[] {
+    return this.#texts ?? this.#textsOf(this.#length);
+  }
+
+  // The texts of the first `count` cells of a plain column.
+  #textsOf(count: number): string[] {
+    const values = this.#values!;
+    const out = new Array<string>(count);
+    for (let r = 0; r < count; r++) out[r] = Number.isNaN(values[r]) ? "" : String(values[r]);
+    for (let i = 0; i < this.#asideRows.length && this.#asideRows[i] < count; i++) {
+      out[this.#asideRows[i]] = this.#asideTexts[i];
+    }
+    return out;
+  }
+
+  /** Keeps only the cells at `rows` (ascending), e.g. the rows whose target is present. */
+  keep(rows: readonly number[]): void {
+    if (this.#values !== null) {
+      const values = new Float64Array(Math.max(rows.length, 1));
+      const asideRows: number[] = [];
+      const asideTexts: string[] = [];
+      // Both lists ascend: walk them together.
+      let a = 0;
+      rows.forEach((r, i) => {
+        values[i] = this.#values![r];
+        while (a < this.#asideRows.length && this.#asideRows[a] < r) a++;
+        if (a < this.#asideRows.length && this.#asideRows[a] === r) {
+          asideRows.push(i);
+          asideTexts.push(this.#asideTexts[a]);
+        }
+      });
+      this.#values = values;
+      this.#asideRows = asideRows;
+      this.#asideTexts = asideTexts;
+    } else {
+      const texts = this.#texts!;
+      this.#texts = rows.map((r) => texts[r]);
+    }
+    this.#length = rows.length;
+  }
+
+  #toText(count: number): void {
+    this.#texts = this.#textsOf(count);
+    this.#values = null;
+    this.#asideRows = [];
+    this.#asideTexts = [];
+    this.#shared = new Map();
+    for (let r = 0; r < this.#texts.length; r++) this.#texts[r] = this.#share(this.#texts[r]);
+  }
+
+  #pushText(text: string): void {
+    this.#texts!.push(this.#share(text));
+  }
+
+  #share(text: string): string {
+    const shared = this.#shared;
+    if (shared === null) return text;
+    const known = shared.get(text);
+    if (known !== undefined) return known;
+    if (shared.size >= SHARED_MAX) {
+      this.#shared = null;
+      return text;
+    }
+    shared.set(text, text);
+    return text;
+  }
+}
