@@ -30,6 +30,7 @@ function givesBack(text: string, value: number): boolean {
   if (first === 43 || first === 46) return false;
   const digits = first === 45 ? 1 : 0;
   const lead = text.charCodeAt(digits);
+  if (lead === 46) return false; // "-.5" is written "-0.5"
   const dot = text.indexOf(".");
   if (lead === 48 && n > digits + 1 && text.charCodeAt(digits + 1) !== 46) return false;
   if (text.indexOf("e") >= 0 || text.indexOf("E") >= 0) return String(value) === text;

@@ -37,6 +37,9 @@ export type RecordSink = (fields: string[], line: number) => void;
  */
 export class CsvTokenizer {
   #buffer = "";
+  // A record longer than one chunk is scanned again only once the text held
+  // has doubled, so a huge field (or a quote never closed) costs linear time.
+  #waitUntil = 0;
   #line = 1;
   #delimiter: number;
   #delimiterText: string;
@@ -58,9 +61,25 @@ export class CsvTokenizer {
 
   /** Adds text; every record complete in the text so far is passed on. */
   push(text: string): void {
-    this.#buffer = this.#buffer.length === 0 ? text : this.#buffer + text;
+    try {
+      this.#buffer = this.#buffer.length === 0 ? text : this.#buffer + text;
+    } catch (error) {
+      throw this.#tooLong(error);
+    }
+    if (this.#buffer.length < this.#waitUntil) return;
     const used = this.#scan(false);
     this.#buffer = this.#buffer.slice(used);
+    this.#waitUntil = this.#buffer.length > 65536 ? 2 * this.#buffer.length : 0;
+  }
+
+  // V8 strings end near 2^29 characters: one record that long is no table.
+  #tooLong(error: unknown): unknown {
+    if (!(error instanceof RangeError)) return error;
+    return new DataError(
+      `${this.#file} line ${this.#line}: a record of more than ${2 ** 28} characters; ` +
+        `is a quote left open?`,
+      { file: this.#file, line: this.#line },
+    );
   }
 
   /** Ends the input: the last record (without a final line break) is passed on. */

@@ -108,17 +108,23 @@ export function detectDelimiter(text: string): string {
   let best = ",";
   let bestScore = -1;
   for (const delimiter of CANDIDATE_DELIMITERS) {
-    let records: string[][];
+    // The records before any problem: text held back for detection may end
+    // inside a quoted field that the next piece closes.
+    const records: string[][] = [];
     try {
-      records = parse(text, {
+      parse(text, {
         delimiter,
         to_line: 50,
         relax_column_count: true,
         relax_quotes: true,
         skip_empty_lines: true,
+        on_record: (record: string[]) => {
+          records.push(record);
+          return null;
+        },
       });
     } catch {
-      continue;
+      // Judged on the records read before the problem.
     }
     if (records.length === 0) continue;
     const width = records[0].length;
@@ -209,11 +215,17 @@ export class CsvColumnsReader {
   #ragged: { line: number; fields: number }[] = [];
   #raggedCount = 0;
   #sawText = false;
+  // Line breaks found so far in the text held back, and where the count stopped.
+  #pendingBreaks = 0;
+  #pendingScanned = 0;
 
   /** @param options File name, delimiter (detected when absent), missing test. */
   constructor(options: ColumnsReaderOptions) {
     this.#options = options;
     this.#file = options.file ?? "input";
+    if (options.delimiter !== undefined && options.delimiter.length !== 1) {
+      throw new OptionError(`the delimiter must be one character, got "${options.delimiter}"`);
+    }
   }
 
   /** Adds the next piece of text. */
@@ -223,13 +235,16 @@ export class CsvColumnsReader {
       this.#tokenizer.push(text);
       return;
     }
-    // Hold text back until the delimiter can be told from whole lines.
+    // Hold text back until the delimiter can be told from whole lines
+    // (counted once each, LF or CR, so the text held is scanned once).
     this.#pending += text;
-    let breaks = 0;
-    for (let i = this.#pending.indexOf("\n"); i >= 0; i = this.#pending.indexOf("\n", i + 1)) {
-      if (++breaks >= DETECT_LINES) break;
+    const held = this.#pending;
+    for (let i = this.#pendingScanned; i < held.length; i++) {
+      const c = held.charCodeAt(i);
+      if (c === 10 || (c === 13 && held.charCodeAt(i + 1) !== 10)) this.#pendingBreaks++;
     }
-    if (breaks >= DETECT_LINES) this.#start(false);
+    this.#pendingScanned = held.length;
+    if (this.#pendingBreaks >= DETECT_LINES) this.#start(false);
   }
 
   /** Ends the input and returns the columns. */
@@ -271,7 +286,7 @@ export class CsvColumnsReader {
     const text = this.#pending;
     this.#pending = "";
     // Detect on whole lines only: a cut line would look ragged.
-    const cut = final ? text.length : text.lastIndexOf("\n") + 1;
+    const cut = final ? text.length : Math.max(text.lastIndexOf("\n"), text.lastIndexOf("\r")) + 1;
     const delimiter = this.#options.delimiter ?? detectDelimiter(text.slice(0, cut));
     this.#tokenizer = new CsvTokenizer(
       delimiter,
@@ -321,6 +336,9 @@ export class ChunkDecoder {
   #offset = 0;
   #lines = 1;
   #utf16 = false;
+  #head: Uint8Array = new Uint8Array(0);
+  // The bytes of a character begun at the end of the last chunk (UTF-8).
+  #tail: Uint8Array = new Uint8Array(0);
 
   /**
    * @param encoding A WHATWG encoding label.
@@ -335,6 +353,13 @@ export class ChunkDecoder {
   decode(bytes: Uint8Array, final = false): string {
     let chunk = bytes;
     if (this.#decoder === null) {
+      // A byte-order mark needs two bytes to be seen.
+      if (this.#head.length + chunk.length < 2 && !final) {
+        this.#head = concat(this.#head, chunk);
+        return "";
+      }
+      chunk = concat(this.#head, chunk);
+      this.#head = new Uint8Array(0);
       if (chunk.length >= 2 && chunk[0] === 0xff && chunk[1] === 0xfe) {
         this.#decoder = new TextDecoder("utf-16le");
         this.#utf16 = true;
@@ -369,7 +394,9 @@ export class ChunkDecoder {
     try {
       text = this.#decoder.decode(chunk, { stream: !final });
     } catch {
-      const loose = new TextDecoder(this.#encoding).decode(chunk);
+      // Decoded again with the character the last chunk began, so the
+      // first replacement character is the bad byte and not a cut one.
+      const loose = new TextDecoder(this.#encoding).decode(concat(this.#tail, chunk));
       const line = this.#lines + countLines(loose, loose.indexOf("\ufffd")) - 1;
       throw new DataError(
         `${this.#file} line ${line} is not valid ${this.#encoding} text; re-save the file as ` +
@@ -378,8 +405,29 @@ export class ChunkDecoder {
       );
     }
     for (let i = text.indexOf("\n"); i >= 0; i = text.indexOf("\n", i + 1)) this.#lines++;
+    this.#tail = incompleteTail(chunk);
     return text;
   }
+}
+
+function concat(a: Uint8Array, b: Uint8Array): Uint8Array {
+  if (a.length === 0) return b;
+  const out = new Uint8Array(a.length + b.length);
+  out.set(a);
+  out.set(b, a.length);
+  return out;
+}
+
+// The last bytes of `chunk` when they begin a UTF-8 character that the
+// chunk does not finish (at most three), else none.
+function incompleteTail(chunk: Uint8Array): Uint8Array {
+  for (let back = 1; back <= Math.min(3, chunk.length); back++) {
+    const byte = chunk[chunk.length - back];
+    if ((byte & 0xc0) === 0x80) continue; // a continuation byte: look further back
+    const length = byte >= 0xf0 ? 4 : byte >= 0xe0 ? 3 : byte >= 0xc0 ? 2 : 1;
+    return length > back ? chunk.subarray(chunk.length - back) : new Uint8Array(0);
+  }
+  return new Uint8Array(0);
 }
 
 /**

@@ -91,3 +91,60 @@ Deno.test("binary and wrongly encoded files are refused", () => {
   );
   assert.equal(decodeText(latin, "windows-1252"), "name\ncafé\n");
 });
+
+// From a review of the streaming reader (each case failed before its fix).
+import { ChunkDecoder, CsvColumnsReader } from "../../../lib/table/read_csv.ts";
+import { loadTable } from "../../../lib/table/load_table.ts";
+
+Deno.test("a number written '-.5' reads back as written, and stays one level", () => {
+  assert.deepEqual(readCsv("a,b\n-.5,x\n").cells[0], ["-.5"]);
+  const table = loadTable("dept,x\nA,-.5\nB,abc\nC,-.5\nD,abc\n");
+  const x = table.columns[1];
+  assert.ok(x.type === "categorical" || x.type === "ordinal");
+  if (x.type === "categorical" || x.type === "ordinal") assert.deepEqual(x.levels, ["-.5", "abc"]);
+});
+
+Deno.test("the delimiter is found even when the held-back text ends inside a quoted field", () => {
+  const reader = new CsvColumnsReader({ file: "t.csv", isMissing: (t) => t === "" });
+  reader.push('a;b\n"x' + "\n".repeat(49));
+  reader.push('y";2\n');
+  const read = reader.end();
+  assert.equal(read.delimiter, ";");
+  assert.deepEqual(read.columns[0].texts(), ["x" + "\n".repeat(49) + "y"]);
+});
+
+Deno.test("invalid UTF-8 is placed on its line when a chunk cuts a character in two", () => {
+  const bytes = new Uint8Array([
+    ...new TextEncoder().encode("name\ncafé\nb\nc\n"),
+    0xff,
+    0x0a,
+  ]);
+  const cut = new TextEncoder().encode("name\ncaf").length + 1; // inside the é
+  const decoder = new ChunkDecoder("utf-8", "t.csv");
+  decoder.decode(bytes.subarray(0, cut));
+  fails(() => decoder.decode(bytes.subarray(cut), true), decodeMessage(5), 5);
+});
+
+function decodeMessage(line: number): string {
+  return `t.csv line ${line} is not valid utf-8 text; re-save the file as UTF-8, or name its ` +
+    "encoding (e.g. --encoding windows-1252)";
+}
+
+Deno.test("a UTF-16 byte-order mark is seen even when the first piece holds one byte", () => {
+  const decoder = new ChunkDecoder("utf-8", "t.csv");
+  const utf16 = new Uint8Array([0xff, 0xfe, 0x61, 0x00, 0x0a, 0x00]);
+  const text = decoder.decode(utf16.subarray(0, 1)) + decoder.decode(utf16.subarray(1), true);
+  assert.equal(text, "a\n");
+});
+
+Deno.test("line breaks may be CRLF, LF or CR anywhere in a file (a choice: exports mix them)", () => {
+  assert.deepEqual(readCsv("a,b\r\n1,2\n3,4\r5,6\r\n").cells[1], ["2", "4", "6"]);
+  assert.deepEqual(readCsv("a,b\r\n1,2\n3,4\r5,6\r\n").lines, [2, 3, 4]);
+});
+
+Deno.test("a delimiter of more than one character is an option error, not a crash", () => {
+  assert.throws(
+    () => readCsv("a;;b\n1;;2\n", { delimiter: ";;" }),
+    /the delimiter must be one character/,
+  );
+});
