@@ -11,6 +11,7 @@ const STAGES: Record<string, string> = {
   "cross-validation": "reference tree",
   trees: "ensemble trees",
   importance: "importance",
+  reading: "reading the table (MB)",
   "pay model": "pay model trees",
   "group model": "group model trees",
   proxies: "proxy checks",

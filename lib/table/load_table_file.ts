@@ -23,6 +23,7 @@ import type { Table } from "./types.ts";
 export async function loadTableFile(
   path: string,
   options: Omit<LoadTableOptions, "file"> = {},
+  onProgress?: (bytesRead: number, bytesTotal: number) => void,
 ): Promise<Table> {
   let file: Deno.FsFile;
   try {
@@ -34,10 +35,16 @@ export async function loadTableFile(
   } catch (error) {
     throw new DataError(readProblem(path, error), { file: path });
   }
+  const total = (await file.stat()).size;
   // Read piece by piece: the text of a large table is never held whole.
   async function* chunks(): AsyncGenerator<Uint8Array> {
+    let read = 0;
     try {
-      for await (const chunk of file.readable) yield chunk;
+      for await (const chunk of file.readable) {
+        read += chunk.length;
+        onProgress?.(read, total);
+        yield chunk;
+      }
     } catch (error) {
       throw new DataError(readProblem(path, error), { file: path });
     }

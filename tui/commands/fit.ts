@@ -180,11 +180,26 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       }
       await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
-      const table = await loadTableFile(file, options);
+      const progress = progressBar(terminal);
+      let table;
+      try {
+        table = await loadTableFile(
+          file,
+          options,
+          (read, total) =>
+            progress.update(
+              "reading",
+              Math.round(read / 1e6),
+              Math.max(1, Math.round(total / 1e6)),
+            ),
+        );
+      } finally {
+        // Cleared, so a message (or the next stage) starts on a clean line.
+        progress.finish();
+      }
       if (flags.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
       }
-      const progress = progressBar(terminal);
       let model: Model;
       try {
         model = await fitModel(table, {

@@ -125,8 +125,23 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
         await assertCanWrite(flags.report, flags.force ?? false, "--report");
       }
       const options = loadOptions(flags, file);
-      const table = await loadTableFile(file, options);
       const progress = progressBar(terminal);
+      let table;
+      try {
+        table = await loadTableFile(
+          file,
+          options,
+          (read, total) =>
+            progress.update(
+              "reading",
+              Math.round(read / 1e6),
+              Math.max(1, Math.round(total / 1e6)),
+            ),
+        );
+      } finally {
+        // Cleared, so a message (or the next stage) starts on a clean line.
+        progress.finish();
+      }
       let report: GapReport;
       try {
         report = await gapCheck(table, {

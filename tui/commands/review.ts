@@ -229,8 +229,23 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       }
       if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
-      const table = await loadTableFile(file, options);
       const progress = progressBar(terminal);
+      let table;
+      try {
+        table = await loadTableFile(
+          file,
+          options,
+          (read, total) =>
+            progress.update(
+              "reading",
+              Math.round(read / 1e6),
+              Math.max(1, Math.round(total / 1e6)),
+            ),
+        );
+      } finally {
+        // Cleared, so a message (or the next stage) starts on a clean line.
+        progress.finish();
+      }
       let review: PayReview;
       try {
         review = await payReview(table, {
