@@ -7,7 +7,14 @@
  */
 
 import { type Command, InvalidArgumentError, Option } from "@commander-js/extra-typings";
-import type { DeclaredType, LoadTableOptions, PayPeriod } from "../mod.ts";
+import {
+  type DeclaredType,
+  loadTableFile,
+  type LoadTableOptions,
+  type PayPeriod,
+  type Table,
+} from "../mod.ts";
+import type { Progress } from "./progress.ts";
 
 const DELIMITERS: Record<string, string> = {
   ",": ",",
@@ -194,4 +201,26 @@ export function loadOptions(flags: TableFlags, file: string): LoadTableOptions {
   if (flags.fte !== undefined) options.fte = flags.fte;
   if (flags.period !== undefined) options.periods = flags.period;
   return options;
+}
+
+/**
+ * Reads a table file with the reading shown on the progress bar (in MB,
+ * with the time left), the bar cleared afterwards so a message or the next
+ * stage starts on a clean line.
+ */
+export async function readTable(
+  file: string,
+  options: LoadTableOptions,
+  progress: Progress,
+): Promise<Table> {
+  try {
+    return await loadTableFile(
+      file,
+      options,
+      (read, total) =>
+        progress.update("reading", Math.round(read / 1e6), Math.max(1, Math.round(total / 1e6))),
+    );
+  } finally {
+    progress.finish();
+  }
 }

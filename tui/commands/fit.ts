@@ -12,19 +12,12 @@ import {
   InvalidArgumentError,
   Option,
 } from "@commander-js/extra-typings";
-import {
-  assertCanWrite,
-  fitModel,
-  loadTableFile,
-  type Model,
-  OptionError,
-  writeModelFile,
-} from "../../mod.ts";
+import { assertCanWrite, fitModel, type Model, OptionError, writeModelFile } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
-import { list, loadOptions, withTableFlags } from "../table_flags.ts";
+import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { jsonNumbers, withCautions } from "../render/cautions.ts";
 
 /** Parses a whole number of at least `min`. */
@@ -181,22 +174,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      let table;
-      try {
-        table = await loadTableFile(
-          file,
-          options,
-          (read, total) =>
-            progress.update(
-              "reading",
-              Math.round(read / 1e6),
-              Math.max(1, Math.round(total / 1e6)),
-            ),
-        );
-      } finally {
-        // Cleared, so a message (or the next stage) starts on a clean line.
-        progress.finish();
-      }
+      const table = await readTable(file, options, progress);
       if (flags.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
       }

@@ -17,7 +17,6 @@ import {
   GAP_CAUTIONS,
   gapCheck,
   type GapReport,
-  loadTableFile,
   OptionError,
   type TableProvenance,
   writeFileAtomic,
@@ -26,7 +25,7 @@ import { progressBar } from "../progress.ts";
 import { gapMarkdown, renderGap } from "../render/gap_view.ts";
 import { jsonNumbers } from "../render/cautions.ts";
 import type { Terminal } from "../terminal.ts";
-import { list, loadOptions, withTableFlags } from "../table_flags.ts";
+import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 
 /**
@@ -126,22 +125,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      let table;
-      try {
-        table = await loadTableFile(
-          file,
-          options,
-          (read, total) =>
-            progress.update(
-              "reading",
-              Math.round(read / 1e6),
-              Math.max(1, Math.round(total / 1e6)),
-            ),
-        );
-      } finally {
-        // Cleared, so a message (or the next stage) starts on a clean line.
-        progress.finish();
-      }
+      const table = await readTable(file, options, progress);
       let report: GapReport;
       try {
         report = await gapCheck(table, {

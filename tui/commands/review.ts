@@ -16,7 +16,6 @@ import {
 import {
   assertCanWrite,
   GAP_CAUTIONS,
-  loadTableFile,
   OptionError,
   type PayReview,
   payReview,
@@ -28,7 +27,7 @@ import { jsonNumbers } from "../render/cautions.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
 import type { Style } from "../render/style.ts";
 import type { Terminal } from "../terminal.ts";
-import { list, loadOptions, withTableFlags } from "../table_flags.ts";
+import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 import { provenanceText, shareOption } from "./gap.ts";
 
@@ -230,22 +229,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      let table;
-      try {
-        table = await loadTableFile(
-          file,
-          options,
-          (read, total) =>
-            progress.update(
-              "reading",
-              Math.round(read / 1e6),
-              Math.max(1, Math.round(total / 1e6)),
-            ),
-        );
-      } finally {
-        // Cleared, so a message (or the next stage) starts on a clean line.
-        progress.finish();
-      }
+      const table = await readTable(file, options, progress);
       let review: PayReview;
       try {
         review = await payReview(table, {
