@@ -52,39 +52,8 @@ const RAGGED_SHOWN = 5;
  * ```
  */
 export function decodeText(bytes: Uint8Array, encoding = "utf-8", file = "input"): string {
-  if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) {
-    return new TextDecoder("utf-16le").decode(bytes.subarray(2));
-  }
-  if (bytes.length >= 2 && bytes[0] === 0xfe && bytes[1] === 0xff) {
-    return new TextDecoder("utf-16be").decode(bytes.subarray(2));
-  }
-  const nul = bytes.indexOf(0);
-  if (nul >= 0) {
-    throw new DataError(
-      `${file} is not a text file (byte ${nul + 1} is a NUL byte); export the table as CSV`,
-      { file },
-    );
-  }
-  let decoder: TextDecoder;
-  try {
-    decoder = new TextDecoder(encoding, { fatal: true, ignoreBOM: false });
-  } catch {
-    throw new OptionError(
-      `--encoding: unknown text encoding "${encoding}" (e.g. utf-8, windows-1252, iso-8859-15)`,
-    );
-  }
-  try {
-    return decoder.decode(bytes);
-  } catch {
-    const loose = new TextDecoder(encoding).decode(bytes);
-    const bad = loose.indexOf("\ufffd");
-    const line = countLines(loose, bad);
-    throw new DataError(
-      `${file} line ${line} is not valid ${encoding} text; re-save the file as UTF-8, ` +
-        `or name its encoding (e.g. --encoding windows-1252)`,
-      { file, line },
-    );
-  }
+  // The whole input as one last piece: the same checks as a file read in pieces.
+  return new ChunkDecoder(encoding, file).decode(bytes, true);
 }
 
 function countLines(text: string, end: number): number {
