@@ -154,7 +154,12 @@ export {
   residualRegression,
   twoSidedP,
 } from "./lib/gap/partial_out.ts";
-export { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./lib/gap/proxies.ts";
+export {
+  oobBalancedAccuracy,
+  PROXY_THRESHOLD,
+  type ProxyFigure,
+  proxyFigures,
+} from "./lib/gap/proxies.ts";
 export {
   chooseReference,
   GAP_CAUTIONS,

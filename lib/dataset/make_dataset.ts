@@ -5,6 +5,7 @@
  */
 
 import { OptionError } from "../errors.ts";
+import { columnNamed } from "../table/column_named.ts";
 import type { Column, Table } from "../table/types.ts";
 import type { Dataset, Feature } from "./types.ts";
 
@@ -70,15 +71,7 @@ export interface DatasetResult {
  * ```
  */
 export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetResult {
-  const byName = new Map(table.columns.map((c) => [c.name, c]));
-  const known = table.columns.map((c) => c.name).join(", ");
-  const column = (name: string, option: string): Column => {
-    const found = byName.get(name);
-    if (!found) {
-      throw new OptionError(`${option}: no column named "${name}"; the columns are: ${known}`);
-    }
-    return found;
-  };
+  const column = (name: string, option: string): Column => columnNamed(table, name, option);
   const targetColumn = column(options.target, "--target");
   for (const name of options.drop ?? []) column(name, "--drop");
 

@@ -8,6 +8,7 @@
  */
 
 import { OptionError } from "../errors.ts";
+import { columnNamed } from "../table/column_named.ts";
 import type { LevelColumn, Table } from "../table/types.ts";
 import { VERSION } from "../version.ts";
 
@@ -33,14 +34,7 @@ export function withinColumns(
   exclude: readonly string[],
 ): LevelColumn[] {
   return names.map((name) => {
-    const column = table.columns.find((c) => c.name === name);
-    if (column === undefined) {
-      throw new OptionError(
-        `--within: no column named "${name}"; the columns are: ${
-          table.columns.map((c) => c.name).join(", ")
-        }`,
-      );
-    }
+    const column = columnNamed(table, name, "--within");
     if (exclude.includes(name)) {
       throw new OptionError(`--within: "${name}" cannot define categories of itself`);
     }

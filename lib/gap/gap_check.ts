@@ -18,6 +18,7 @@ import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
 import { toFitScale } from "../ensemble/pay_scale.ts";
 import { designOf, fitLeastSquares } from "../linear/least_squares.ts";
 import { filterRows, subsetRows } from "../table/filter_rows.ts";
+import { columnNamed } from "../table/column_named.ts";
 import { nameWords } from "../table/protected_names.ts";
 import { isPayName } from "../table/money.ts";
 import type { LevelColumn, NumericColumn, Table } from "../table/types.ts";
@@ -29,7 +30,7 @@ import {
   withinColumns,
 } from "./categories.ts";
 import { gapFromCoefficient, holmAdjust, residualRegression, twoSidedP } from "./partial_out.ts";
-import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./proxies.ts";
+import { oobBalancedAccuracy, PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./proxies.ts";
 import { type PayQuartile, payQuartiles, rawGaps } from "./raw_gaps.ts";
 import { type Suppression, suppressSmallGroups } from "./suppress.ts";
 
@@ -251,17 +252,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   }
 
   const filtered = filterRows(table, options.where ?? {});
-  const column = (name: string, option: string) => {
-    const found = filtered.columns.find((c) => c.name === name);
-    if (!found) {
-      throw new OptionError(
-        `${option}: no column named "${name}"; the columns are: ${
-          filtered.columns.map((c) => c.name).join(", ")
-        }`,
-      );
-    }
-    return found;
-  };
+  const column = (name: string, option: string) => columnNamed(filtered, name, option);
   const pay = column(options.target, "--target");
   if (pay.type !== "numeric") {
     throw new OptionError(`--target: "${options.target}" is not numeric; a gap needs pay`);
@@ -305,17 +296,9 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   let otherGroupsLeftOut = 0;
   if (options.compare !== undefined) {
     const known = [...allCounts.keys()].sort();
-    const wanted = new Set(options.compare.map((name) => {
-      const found = known.find((g) => g.toLowerCase() === name.toLowerCase());
-      if (found === undefined) {
-        throw new OptionError(
-          `--groups: "${name}" is not a group of "${options.group}"; the groups are: ${
-            known.join(", ")
-          }`,
-        );
-      }
-      return found;
-    }));
+    const wanted = new Set(
+      options.compare.map((name) => groupNamed(known, name, options.group, "--groups")),
+    );
     wanted.delete(reference);
     if (wanted.size === 0) {
       throw new OptionError(`--groups: name at least one group besides the reference ${reference}`);
@@ -584,7 +567,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     models: {
       trees,
       payR2Log,
-      groupBalancedAccuracy: balancedAccuracy(groupModel.oob, groupCode, width, usable),
+      groupBalancedAccuracy: oobBalancedAccuracy(groupModel, groupCode),
     },
     notes,
     provenance: tableProvenance(table, seed),
@@ -612,15 +595,10 @@ export function chooseReference(
 ): { reference: string; reason: string } {
   const groups = [...counts.keys()].sort();
   if (named !== undefined) {
-    const found = groups.find((g) => g.toLowerCase() === named.toLowerCase());
-    if (found === undefined) {
-      throw new OptionError(
-        `--reference: "${named}" is not a group of "${column}"; the groups are: ${
-          groups.join(", ")
-        }`,
-      );
-    }
-    return { reference: found, reason: "named with --reference" };
+    return {
+      reference: groupNamed(groups, named, column, "--reference"),
+      reason: "named with --reference",
+    };
   }
   const words = nameWords(column);
   if (words.includes("sex") || words.includes("gender")) {
@@ -670,6 +648,17 @@ function suppressionNotes(
     );
   }
   return notes;
+}
+
+// The group called `name` (case ignored, as people type it).
+function groupNamed(groups: readonly string[], name: string, column: string, option: string) {
+  const found = groups.find((g) => g.toLowerCase() === name.toLowerCase());
+  if (found === undefined) {
+    throw new OptionError(
+      `${option}: "${name}" is not a group of "${column}"; the groups are: ${groups.join(", ")}`,
+    );
+  }
+  return found;
 }
 
 function residualDifference(
@@ -750,29 +739,4 @@ function linearGaps(
     notes.push(`The linear version could not be fitted: ${error.message}.`);
     return null;
   }
-}
-
-function balancedAccuracy(
-  oob: Float64Array,
-  codes: Int32Array,
-  width: number,
-  usable: boolean[],
-): number {
-  const right = new Float64Array(width);
-  const total = new Float64Array(width);
-  for (let r = 0; r < codes.length; r++) {
-    if (!usable[r]) continue;
-    let best = 0;
-    for (let c = 1; c < width; c++) if (oob[r * width + c] > oob[r * width + best]) best = c;
-    total[codes[r]]++;
-    if (best === codes[r]) right[codes[r]]++;
-  }
-  let sum = 0, present = 0;
-  for (let c = 0; c < width; c++) {
-    if (total[c] > 0) {
-      sum += right[c] / total[c];
-      present++;
-    }
-  }
-  return sum / present;
 }

@@ -12,11 +12,45 @@
  */
 
 import type { Dataset, Feature } from "../dataset/types.ts";
+import type { Ensemble } from "../ensemble/fit_ensemble.ts";
 import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
 import { oobClassificationMetrics } from "../ensemble/intervals.ts";
 
+// Rows below which the single-feature ensembles are grown in this thread.
+const IN_THREAD_BELOW = 100_000;
+
 /** The default balanced accuracy from which a feature is named a possible proxy. */
 export const PROXY_THRESHOLD = 0.65;
+
+/**
+ * Out-of-bag balanced accuracy of a classification ensemble: the mean,
+ * over the classes present, of the share of each class's rows whose
+ * out-of-bag vote is that class.
+ *
+ * @param classes Each row's class code.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble } from "../../mod.ts";
+ * import { oobBalancedAccuracy } from "./proxies.ts";
+ * // The class is the feature: every out-of-bag vote is right.
+ * const values = Int32Array.from({ length: 60 }, (_, i) => i % 2);
+ * const ensemble = fitEnsemble({
+ *   rows: 60,
+ *   features: [{ name: "x", kind: "numeric", values: Float64Array.from(values) }],
+ *   target: { kind: "classification", name: "g", classes: ["a", "b"], values },
+ * }, { trees: 10, prune: "none" });
+ * assert(oobBalancedAccuracy(ensemble, values) === 1);
+ * ```
+ */
+export function oobBalancedAccuracy(ensemble: Ensemble, classes: ArrayLike<number>): number {
+  const metrics = oobClassificationMetrics(ensemble, classes);
+  const present = metrics.confusion.flatMap((row, c) =>
+    row.reduce((a, b) => a + b, 0) > 0 ? [metrics.recall[c]] : []
+  );
+  return present.reduce((a, b) => a + b, 0) / present.length;
+}
 
 /** One feature's power to predict a protected attribute. */
 export interface ProxyFigure {
@@ -84,21 +118,20 @@ export async function proxyFigures(
         values: attribute,
       },
     };
+    // Trees on one feature are quick to grow: below about 100,000 rows,
+    // starting workers for each feature costs more than it saves (the same
+    // trees either way).
     const ensemble = await fitEnsembleParallel(dataset, {
       trees: options.trees ?? 50,
       seed: options.seed ?? 1,
       prune: "none",
       grow: { minLeaf: options.minLeaf ?? 5 },
-      workers: options.workers,
+      workers: attribute.length < IN_THREAD_BELOW ? 1 : options.workers,
     });
-    const metrics = oobClassificationMetrics(ensemble, attribute);
-    const present = metrics.confusion.flatMap((row, c) =>
-      row.reduce((a, b) => a + b, 0) > 0 ? [metrics.recall[c]] : []
-    );
     out.push({
       feature: feature.name,
       attribute: attributeName,
-      balancedAccuracy: present.reduce((a, b) => a + b, 0) / present.length,
+      balancedAccuracy: oobBalancedAccuracy(ensemble, attribute),
     });
   }
   return out.sort((a, b) => b.balancedAccuracy - a.balancedAccuracy);

@@ -7,6 +7,7 @@
  */
 
 import { OptionError } from "../errors.ts";
+import { columnNamed } from "./column_named.ts";
 import type { Column, Table } from "./types.ts";
 
 /**
@@ -72,14 +73,7 @@ function describe(where: Readonly<Record<string, readonly string[]>>): string {
 }
 
 function rowTest(table: Table, name: string, values: readonly string[]): (r: number) => boolean {
-  const column = table.columns.find((c) => c.name === name);
-  if (column === undefined) {
-    throw new OptionError(
-      `--where: no column named "${name}"; the columns are: ${
-        table.columns.map((c) => c.name).join(", ")
-      }`,
-    );
-  }
+  const column = columnNamed(table, name, "--where");
   if (column.type === "numeric") {
     const wanted = values.map((v) => {
       const x = Number(v);

@@ -6,7 +6,6 @@
  * @module
  */
 
-import wrapAnsi from "wrap-ansi";
 import {
   Command,
   type CommandUnknownOpts,
@@ -14,16 +13,14 @@ import {
 } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
-  GAP_CAUTIONS,
   gapCheck,
   type GapReport,
   OptionError,
-  type TableProvenance,
   writeFileAtomic,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { gapMarkdown, renderGap } from "../render/gap_view.ts";
-import { jsonNumbers } from "../render/cautions.ts";
+import { printTableAnswer } from "../render/cautions.ts";
 import type { Terminal } from "../terminal.ts";
 import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
@@ -46,12 +43,6 @@ export function shareOption(text: string): number {
     throw new InvalidArgumentError(`expected a share such as 0.05 or 5%, got "${text}"`);
   }
   return share;
-}
-
-/** The provenance line of a gap or review output. */
-export function provenanceText(p: TableProvenance): string {
-  return `paygrove ${p.paygrove}; ${p.table.file} (sha256 ${p.table.sha256.slice(0, 12)}...); ` +
-    `seed ${p.seed}`;
 }
 
 /**
@@ -157,19 +148,13 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
           { force: flags.force ?? false, option: "--report" },
         );
       }
-      if (flags.json) {
-        terminal.out(JSON.stringify({ ...report, cautions: GAP_CAUTIONS }, jsonNumbers, 2));
-        return;
-      }
-      const style = terminal.style;
-      terminal.out(
-        [
-          ...renderGap(report, { style, width: terminal.width, numbers }),
-          "",
-          ...wrapAnsi(style.dim(GAP_CAUTIONS), terminal.width).split("\n"),
-          ...wrapAnsi(style.dim(provenanceText(report.provenance)), terminal.width).split("\n"),
-          ...(flags.report ? [`Report written to ${flags.report}.`] : []),
-        ].join("\n"),
+      const view = { style: terminal.style, width: terminal.width, numbers };
+      printTableAnswer(
+        terminal,
+        flags.json ?? false,
+        report,
+        () => [...renderGap(report, view), ""],
+        flags.report ? [`Report written to ${flags.report}.`] : [],
       );
     });
 }

@@ -15,7 +15,6 @@ import {
 } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
-  GAP_CAUTIONS,
   OptionError,
   type PayReview,
   payReview,
@@ -23,13 +22,14 @@ import {
   writeFileAtomic,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
-import { jsonNumbers } from "../render/cautions.ts";
+import { printTableAnswer } from "../render/cautions.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
 import type { Style } from "../render/style.ts";
+import { alignColumns } from "../render/text_columns.ts";
 import type { Terminal } from "../terminal.ts";
 import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
-import { provenanceText, shareOption } from "./gap.ts";
+import { shareOption } from "./gap.ts";
 
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
@@ -111,18 +111,7 @@ export function renderReview(
           : [c.name, String(c.people), String(c.under), String(c.over), money(c.cost)],
       );
     }
-    const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => r[j].length)));
-    lines.push(
-      ...rows.map((r, i) => {
-        const text = r.map((
-          cell,
-          j,
-        ) => (j === 0 ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
-          .join("  ").replace(/\s+$/, "");
-        return i === 0 ? style.bold(text) : text;
-      }),
-      "",
-    );
+    lines.push(...alignColumns(rows).map((l, i) => (i === 0 ? style.bold(l) : l)), "");
   }
   const listed = (title: string, people: ReviewPerson[]) => {
     if (people.length === 0) return;
@@ -137,13 +126,7 @@ export function renderReview(
         formatPercent(p.position!, false, numbers),
       ]);
     }
-    const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => r[j].length)));
-    lines.push(
-      ...rows.map((r) =>
-        r.map((cell, j) => (j === 0 ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
-          .join("  ").replace(/\s+$/, "")
-      ),
-    );
+    lines.push(...alignColumns(rows));
     if (people.length > REVIEW_LISTED) {
       lines.push(
         style.dim(`... and ${people.length - REVIEW_LISTED} more (--out FILE lists everyone)`),
@@ -251,22 +234,10 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       if (flags.out !== undefined) {
         await writeFileAtomic(flags.out, reviewCsv(review), { force: flags.force ?? false });
       }
-      if (flags.json) {
-        terminal.out(JSON.stringify({ ...review, cautions: GAP_CAUTIONS }, jsonNumbers, 2));
-        return;
-      }
-      const style = terminal.style;
-      terminal.out(
-        [
-          ...renderReview(review, {
-            style,
-            width: terminal.width,
-            numbers: { locale: flags.locale, currency: review.money?.currency },
-          }),
-          ...(flags.out ? [`Everyone written to ${flags.out}.`, ""] : []),
-          ...wrapAnsi(style.dim(GAP_CAUTIONS), terminal.width).split("\n"),
-          ...wrapAnsi(style.dim(provenanceText(review.provenance)), terminal.width).split("\n"),
-        ].join("\n"),
-      );
+      const numbers = { locale: flags.locale, currency: review.money?.currency };
+      printTableAnswer(terminal, flags.json ?? false, review, () => [
+        ...renderReview(review, { style: terminal.style, width: terminal.width, numbers }),
+        ...(flags.out ? [`Everyone written to ${flags.out}.`, ""] : []),
+      ]);
     });
 }

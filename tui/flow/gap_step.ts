@@ -15,20 +15,19 @@ import {
   GAP_CAUTIONS,
   gapCheck,
   type GapReport,
-  loadTable,
-  type LoadTableOptions,
   type Model,
   OptionError,
+  type Table,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderGap } from "../render/gap_view.ts";
 import type { NumberStyle } from "../render/numbers.ts";
 import type { FlowIO } from "./flow_io.ts";
 
-/** Where the flow's table came from: how it was read, and its path for the command line. */
+/** The flow's table as the model was fitted on it, and its path for the command line. */
 export interface TableSource {
-  /** The options it was read with. */
-  read: LoadTableOptions;
+  /** The table, read with the model's target. */
+  table: Table;
   /** Its path (for the equivalent command line). */
   path: string;
 }
@@ -45,13 +44,8 @@ export interface GapCandidate {
  * The protected columns of a table the gap check can compare: columns of
  * at least two named groups that the model does not use.
  */
-export function gapCandidates(
-  model: Model,
-  tableText: string,
-  source: TableSource,
-): GapCandidate[] {
+export function gapCandidates(model: Model, table: Table): GapCandidate[] {
   if (model.target.kind !== "regression") return [];
-  const table = loadTable(tableText, { ...source.read, target: model.target.name });
   const used = new Set(model.features.map((f) => f.name));
   return table.columns.flatMap((c) => {
     if (!c.protected || used.has(c.name) || (c.type !== "categorical" && c.type !== "ordinal")) {
@@ -68,17 +62,15 @@ export function gapCandidates(
 /**
  * Offers the gap check; returns its report when one was shown (for the
  * session report), else null. A problem is said, and the flow goes on.
- *
- * @param tableText The table the model was fitted on.
  */
 export async function offerGapCheck(
   io: FlowIO,
   model: Model,
-  tableText: string,
   source: TableSource,
   numbers: NumberStyle,
 ): Promise<GapReport | null> {
-  const candidates = gapCandidates(model, tableText, source);
+  const table = source.table;
+  const candidates = gapCandidates(model, table);
   if (candidates.length === 0) return null;
   const group = await io.choose(
     "Check for pay gaps between groups first?",
@@ -130,7 +122,7 @@ export async function offerGapCheck(
   const bar = progressBar({ progress: io.progress, width: io.width });
   let report: GapReport;
   try {
-    report = await gapCheck(loadTable(tableText, { ...source.read, target: model.target.name }), {
+    report = await gapCheck(table, {
       target: model.target.name,
       group,
       compare,

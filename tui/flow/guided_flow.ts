@@ -95,7 +95,7 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   const session = openModel(model);
   const money = moneyStyle(model, { locale: options.locale });
   const gap = tableText !== null && source !== null
-    ? await offerGapCheck(io, model, tableText, source, money)
+    ? await offerGapCheck(io, model, source, money)
     : null;
   await whatIfLoop(io, session, tableText, money, { ...options, gap });
 }
@@ -140,7 +140,6 @@ async function chooseAndFit(
       label = path;
     }
     table = loadTable(tableText, readOptions);
-    source = { read: readOptions, path: start === "demo" ? options.demoPath : label };
 
     io.say(
       renderSchemaBrief(describeSchema(table), {
@@ -159,6 +158,7 @@ async function chooseAndFit(
     }
     // The target named, the table is read again so that rows missing it are left out.
     table = loadTable(tableText, { ...readOptions, target });
+    source = { table, path: start === "demo" ? options.demoPath : label };
     const bar = progressBar({ progress: io.progress, width: io.width });
     try {
       model = await fitModel(table, {

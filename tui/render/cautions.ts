@@ -5,7 +5,7 @@
  */
 
 import wrapAnsi from "wrap-ansi";
-import type { Provenance } from "../../mod.ts";
+import { GAP_CAUTIONS, type Provenance, type TableProvenance } from "../../mod.ts";
 import type { Style } from "./style.ts";
 
 /** The usual cautions, wrapped to the width. */
@@ -78,6 +78,51 @@ export function printAnswer(
     return;
   }
   terminal.out(withCautions(render(), provenance, terminal.style, terminal.width));
+}
+
+/**
+ * One line naming the table a gap or review answer was computed from.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { tableProvenanceLine } from "./cautions.ts";
+ * const line = tableProvenanceLine({
+ *   paygrove: "0.1.0", table: { file: "pay.csv", sha256: "ab".repeat(32), rows: 10 }, seed: 1,
+ * });
+ * assert(line === "paygrove 0.1.0; pay.csv (sha256 abababababab...); seed 1");
+ * ```
+ */
+export function tableProvenanceLine(p: TableProvenance): string {
+  return `paygrove ${p.paygrove}; ${p.table.file} (sha256 ${p.table.sha256.slice(0, 12)}...); ` +
+    `seed ${p.seed}`;
+}
+
+/**
+ * How `gap` and `review` print: one JSON document with the pay-gap
+ * cautions in it, or the rendered lines, the cautions, the provenance line
+ * and any lines `after` (e.g. where a report went).
+ */
+export function printTableAnswer(
+  terminal: { out(text: string): void; style: Style; width: number },
+  asJson: boolean,
+  doc: { provenance: TableProvenance },
+  render: () => string[],
+  after: string[] = [],
+): void {
+  if (asJson) {
+    terminal.out(JSON.stringify({ ...doc, cautions: GAP_CAUTIONS }, jsonNumbers, 2));
+    return;
+  }
+  const { style, width } = terminal;
+  terminal.out(
+    [
+      ...render(),
+      ...wrapAnsi(style.dim(GAP_CAUTIONS), width).split("\n"),
+      ...wrapAnsi(style.dim(tableProvenanceLine(doc.provenance)), width).split("\n"),
+      ...after,
+    ].join("\n"),
+  );
 }
 
 /** JSON.stringify replacer: NaN and infinities, which JSON lacks, become null. */

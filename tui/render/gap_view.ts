@@ -13,6 +13,7 @@ import { GAP_CAUTIONS, GAP_SOURCES, type GapFigure, type GapReport } from "../..
 import { formatNumber, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { isAscii } from "./glyphs.ts";
+import { alignColumns } from "./text_columns.ts";
 
 /** How a gap report is drawn. */
 export interface GapView {
@@ -132,25 +133,9 @@ export function gapAxis(
   return lines;
 }
 
-/** Aligned plain columns (first column left, the others right). */
+// Aligned columns; a "too few to report" row spans the figures' columns.
 function columns(rows: string[][], gap: number, lastLeft = false): string[] {
-  // A "too few to report" row is its label and that phrase, spanning the
-  // other columns, so it does not widen them.
-  const spans = (r: string[]) => r[1] === TOO_FEW && r.slice(2).every((c) => c === "");
-  const sized = rows.filter((r) => !spans(r));
-  const widths = rows[0].map((_, j) =>
-    Math.max(
-      ...sized.map((r) => r[j].length),
-      j === 0 ? Math.max(...rows.map((r) => r[0].length)) : 0,
-    )
-  );
-  const left = (j: number) => j === 0 || (lastLeft && j === rows[0].length - 1);
-  return rows.map((r) =>
-    spans(r)
-      ? `${r[0].padEnd(widths[0])}${" ".repeat(gap)}${TOO_FEW}`
-      : r.map((cell, j) => (left(j) ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
-        .join(" ".repeat(gap)).replace(/\s+$/, "")
-  );
+  return alignColumns(rows, { gap, lastLeft, spanning: TOO_FEW });
 }
 
 /** The rows of the main table: overall first, then each category. */
