@@ -494,8 +494,8 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
 
   if (otherGroupsLeftOut > 0) {
     notes.push(
-      `${otherGroupsLeftOut} people of other groups than ${allGroups.join(" and ")} are left out ` +
-        `(--groups).`,
+      `${otherGroupsLeftOut} people of other groups than ${allGroups.join(" and ")} are left ` +
+        `out of this comparison.`,
     );
   }
   const hiddenCount = suppression.hidden.filter(Boolean).length;

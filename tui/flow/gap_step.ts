@@ -157,9 +157,37 @@ export async function offerGapCheck(
         ),
         io.width,
       ).split("\n"),
-      // Not wrapped, so it can be copied whole.
-      `  ${command}`,
+      // Broken with shell line continuations, so it can be copied whole.
+      ...shellLines(command, io.width),
     ].join("\n"),
   );
   return report;
+}
+
+/**
+ * A command line cut at spaces into lines that fit the width, each but the
+ * last ending in a backslash, so a shell reads them as one line.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { shellLines } from "./gap_step.ts";
+ * assert.deepEqual(shellLines("paygrove gap t.csv --target pay", 24), [
+ *   "  paygrove gap t.csv \\",
+ *   "    --target pay",
+ * ]);
+ * ```
+ */
+export function shellLines(command: string, width: number): string[] {
+  const lines: string[] = [];
+  let line = "  ";
+  for (const word of command.split(" ")) {
+    const indent = lines.length === 0 ? "  " : "    ";
+    if (line.trim() !== "" && line.length + 1 + word.length + 2 > width) {
+      lines.push(`${line} \\`);
+      line = "    " + word;
+    } else line = line.trim() === "" ? indent + word : `${line} ${word}`;
+  }
+  lines.push(line);
+  return lines;
 }

@@ -215,13 +215,17 @@ export function renderGap(report: GapReport, view: GapView): string[] {
       lines.push(
         ...wrap(style.dim(
           brief
-            ? `Flags: raw = a raw mean gap of ${pct(report.threshold, numbers)} or more either ` +
+            ? `Unexplained: the gap left with the other factors held equal, and its 95% ` +
+              `interval. Flags: raw = a raw mean gap of ${
+                pct(report.threshold, numbers)
+              } or more either ` +
               `way (a joint pay assessment under Directive (EU) 2023/970, Art. 10, unless ` +
               `justified); unexpl. = significant after Holm's adjustment and at least ` +
               `${pct(report.materiality, numbers)}.`
-            : `Flags: raw = a raw mean gap of ${
-              pct(report.threshold, numbers)
-            } or more either way (Directive ` +
+            : `Unexplained: the gap left with the other factors held equal, and its 95% ` +
+              `interval. Flags: raw = a raw mean gap of ${
+                pct(report.threshold, numbers)
+              } or more either way (Directive ` +
               `(EU) 2023/970, Art. 10: a joint pay assessment unless objective, gender-neutral criteria ` +
               `justify it, which only the employer can judge); unexpl. = the adjusted gap differs ` +
               `from 0 at the 5% level after Holm's adjustment across categories and is at least ` +
