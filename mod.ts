@@ -26,7 +26,12 @@ export {
 } from "./lib/dataset/make_dataset.ts";
 export * from "./lib/tree/mod.ts";
 export { makeRng, randomInt, type Rng, shuffle } from "./lib/random.ts";
-export { bootstrapCounts, treeSeed } from "./lib/ensemble/bootstrap.ts";
+export {
+  bootstrapCounts,
+  legacyResampleStates,
+  resampleStates,
+  STATE_WORDS,
+} from "./lib/ensemble/bootstrap.ts";
 export {
   type Ensemble,
   type EnsembleOptions,
@@ -145,6 +150,14 @@ export {
 export * from "./lib/model/profile.ts";
 export * from "./lib/model/model_table.ts";
 export * from "./lib/model/answers.ts";
+export {
+  ANALYST_FILE_WARNING,
+  analystFromText,
+  analystToText,
+  readAnalystFile,
+  writeAnalystFile,
+} from "./lib/model/analyst_file.ts";
+export { type ReadBoundedOptions, readTextBounded } from "./lib/io/read_bounded.ts";
 export { type PayQuartile, payQuartiles, type RawGap, rawGaps } from "./lib/gap/raw_gaps.ts";
 export { type Suppression, suppressSmallGroups } from "./lib/gap/suppress.ts";
 export {

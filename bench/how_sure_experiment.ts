@@ -36,7 +36,7 @@ function firstTrees(ensemble: Ensemble, count: number): Ensemble {
   return {
     ...ensemble,
     trees: ensemble.trees.slice(0, count),
-    seeds: ensemble.seeds.slice(0, count),
+    resamples: ensemble.resamples.slice(0, 4 * count),
     alphas: ensemble.alphas.slice(0, count),
   };
 }

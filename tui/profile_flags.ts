@@ -21,6 +21,7 @@ import {
   typicalProfile,
 } from "../mod.ts";
 import { PROTECTED_CAUTION } from "./commands/fit.ts";
+import { ANALYST_FILE_OPTION } from "./open_model.ts";
 import type { Terminal } from "./terminal.ts";
 
 /** Parsed profile options. */
@@ -31,6 +32,7 @@ export type ProfileFlags = {
   coverage: number;
   json?: true;
   locale?: string;
+  analystFile?: string;
 };
 
 function collect(text: string, previous: string[] = []): string[] {
@@ -56,6 +58,7 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
     .option("--set <column=value>", "set an attribute of the profile (repeatable)", collect)
     .option("--coverage <share>", "coverage of the intervals", coverage, 0.9)
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option(...ANALYST_FILE_OPTION)
     .option("--json", "print one JSON document on stdout instead of text") as unknown as Command<
       A,
       O & ProfileFlags

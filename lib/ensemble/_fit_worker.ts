@@ -6,14 +6,13 @@
  * @module
  */
 
-import { treeSeed } from "./bootstrap.ts";
 import { datasetOf, type SharedData } from "./_shared_data.ts";
 import { type EnsembleOptions, fitOneTree } from "./fit_ensemble.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 
 /** Messages to the worker. */
 export type ToWorker =
-  | { kind: "data"; data: SharedData; options: EnsembleOptions; seed: number }
+  | { kind: "data"; data: SharedData; options: EnsembleOptions; states: Int32Array }
   | { kind: "tree"; index: number }
   | { kind: "stop" };
 
@@ -26,7 +25,7 @@ export type FromWorker =
 const scope = self as any;
 let data: SharedData | undefined;
 let options: EnsembleOptions = {};
-let seed = 1;
+let states: Int32Array = new Int32Array(0);
 
 scope.onmessage = (event: MessageEvent<ToWorker>) => {
   const message = event.data;
@@ -34,7 +33,7 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
     if (message.kind === "data") {
       data = message.data;
       options = message.options;
-      seed = message.seed;
+      states = message.states;
       return;
     }
     if (message.kind === "stop") {
@@ -47,7 +46,8 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       dataset,
       data.bins,
       data.order,
-      treeSeed(seed, message.index),
+      states,
+      message.index,
       options,
     );
     const reply: FromWorker = { kind: "tree", index: message.index, tree, alpha, oob };

@@ -1,50 +1,117 @@
 /**
- * Bootstrap resamples as integer weights, regenerated from a per-tree seed
- * so that a model need not store them.
+ * Bootstrap resamples as integer weights, regenerated from a per-tree
+ * generator state so that a model need not store them.
+ *
+ * Each tree's state (128 bits, a xoroshiro128+ state of four 32-bit words)
+ * is cut from a SHA-256 of the user's seed, the tree's index and every
+ * training row's target value. The same table and seed give the same
+ * resamples, so a fit is reproducible; but nobody can regenerate them
+ * without every person's exact pay, which is what the resamples must keep
+ * hidden: with a tree's in-bag weights known, each leaf mean is a linear
+ * equation in the unknown pays, and enough of them give every pay back
+ * (measured on format-1 files, which kept a 32-bit seed per tree: all
+ * 2,000 demo pays to the cent). 128 bits also rule out trying every state.
  *
  * @module
  */
 
-import { makeRng, randomInt } from "../random.ts";
+import { createHash } from "node:crypto";
+import { uniformInt } from "pure-rand/distribution/uniformInt";
+import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
+
+/** Words of one tree's generator state. */
+export const STATE_WORDS = 4;
 
 /**
- * The seed of tree `index` of an ensemble seeded with `seed`: a 32-bit mix
- * (the finaliser of MurmurHash3, common practice) of the two, so that
- * neighbouring trees get unrelated streams and a tree's resample does not
- * depend on how many trees or workers there are.
+ * The generator states of `trees` trees (tree b's state is words
+ * `4b .. 4b + 3`), keyed by the seed and the target values.
+ *
+ * @param target Every training row's target on the fitting scale (or class
+ * code), in training order.
  *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
- * import { treeSeed } from "./bootstrap.ts";
- * assert(treeSeed(7, 0) !== treeSeed(7, 1) && treeSeed(7, 1) === treeSeed(7, 1));
+ * import { resampleStates } from "./bootstrap.ts";
+ * const pay = Float64Array.of(50, 52, 61);
+ * const a = resampleStates(7, pay, 2);
+ * assert.deepEqual(a, resampleStates(7, Float64Array.of(50, 52, 61), 2)); // reproducible
+ * assert.notDeepEqual(a, resampleStates(7, Float64Array.of(50, 52, 62), 2)); // keyed by pay
+ * assert.notDeepEqual(a.subarray(0, 4), a.subarray(4, 8)); // one state per tree
  * ```
  */
-export function treeSeed(seed: number, index: number): number {
-  let h = (Math.imul(seed | 0, 0x9e3779b1) ^ Math.imul(index + 1, 0x85ebca6b)) >>> 0;
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b) >>> 0;
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35) >>> 0;
-  h ^= h >>> 16;
-  return h | 0;
+export function resampleStates(
+  seed: number,
+  target: ArrayLike<number>,
+  trees: number,
+): Int32Array {
+  if (!Number.isInteger(trees) || trees < 0) {
+    throw new RangeError(`trees must be a whole number >= 0, got ${trees}`);
+  }
+  const values = Float64Array.from(target);
+  const key = createHash("sha256")
+    .update("paygrove resample key 2\u0000")
+    .update(String(seed))
+    .update("\u0000")
+    .update(new Uint8Array(values.buffer))
+    .digest();
+  const states = new Int32Array(trees * STATE_WORDS);
+  const index = new Uint8Array(4);
+  for (let b = 0; b < trees; b++) {
+    new DataView(index.buffer).setUint32(0, b, true);
+    const digest = createHash("sha256").update(key).update(index).digest();
+    const words = new Int32Array(digest.buffer, digest.byteOffset, STATE_WORDS);
+    // xoroshiro128+ is stuck at an all-zero state; SHA-256 gives one with
+    // probability 2^-128, but the guard costs nothing.
+    if (words.every((w) => w === 0)) words[0] = 1;
+    states.set(words, b * STATE_WORDS);
+  }
+  return states;
 }
 
 /**
- * Bootstrap counts: `rows` draws with replacement from `rows` rows, as the
- * number of times each row was drawn.
+ * Bootstrap counts of tree `tree`: `rows` draws with replacement from
+ * `rows` rows from the tree's generator state, as the number of times each
+ * row was drawn.
  *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
- * import { bootstrapCounts } from "./bootstrap.ts";
- * const counts = bootstrapCounts(100, 5);
+ * import { bootstrapCounts, resampleStates } from "./bootstrap.ts";
+ * const states = resampleStates(5, Float64Array.of(1, 2, 3), 3);
+ * const counts = bootstrapCounts(100, states, 2);
  * assert(counts.reduce((a, b) => a + b, 0) === 100);
+ * assert.deepEqual(counts, bootstrapCounts(100, states, 2));
  * ```
  */
-export function bootstrapCounts(rows: number, seed: number): Float64Array {
-  const rng = makeRng(seed);
+export function bootstrapCounts(rows: number, states: Int32Array, tree: number): Float64Array {
+  const at = tree * STATE_WORDS;
+  if (!(tree >= 0 && at + STATE_WORDS <= states.length)) {
+    throw new RangeError(`no generator state for tree ${tree}`);
+  }
+  const rng = xoroshiro128plusFromState(Array.from(states.subarray(at, at + STATE_WORDS)));
   const counts = new Float64Array(rows);
-  for (let i = 0; i < rows; i++) counts[randomInt(rng, 0, rows - 1)]++;
+  for (let i = 0; i < rows; i++) counts[uniformInt(rng, 0, rows - 1)]++;
   return counts;
+}
+
+/**
+ * The generator states of a format-1 model, which derived a 32-bit seed
+ * per tree from its seed (the finaliser of MurmurHash3, common practice)
+ * and started pure-rand's xoroshiro128+ from it; kept so that such files
+ * still read, with the warning that they rebuild pay.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { legacyResampleStates } from "./bootstrap.ts";
+ * const states = legacyResampleStates(Int32Array.of(42));
+ * assert.deepEqual(Array.from(states), [-1, ~42, 42, 0]);
+ * ```
+ */
+export function legacyResampleStates(seeds: Int32Array): Int32Array {
+  const states = new Int32Array(seeds.length * STATE_WORDS);
+  // pure-rand's xoroshiro128plus(seed) starts from the state (-1, ~seed, seed, 0).
+  seeds.forEach((seed, b) => states.set([-1, ~seed, seed | 0, 0], b * STATE_WORDS));
+  return states;
 }

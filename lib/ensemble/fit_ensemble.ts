@@ -20,7 +20,7 @@ import {
   stepAt,
   subtreeAfter,
 } from "../tree/prune.ts";
-import { bootstrapCounts, treeSeed } from "./bootstrap.ts";
+import { bootstrapCounts, resampleStates } from "./bootstrap.ts";
 
 /**
  * How each tree is pruned: at one alpha for all (`"alpha"`, e.g. the one the
@@ -37,7 +37,8 @@ export interface EnsembleOptions {
    */
   trees?: number;
   /**
-   * Seed of the resamples; the same seed gives the same ensemble.
+   * Seed of the resamples; the same seed and table give the same ensemble
+   * (the resamples are also keyed by the target, see `resampleStates`).
    * @default {1}
    */
   seed?: number;
@@ -58,8 +59,12 @@ export interface EnsembleOptions {
 export interface Ensemble {
   /** The pruned trees. */
   trees: FlatTree[];
-  /** The seed of each tree's resample (see `bootstrapCounts`). */
-  seeds: Int32Array;
+  /**
+   * Each tree's resampling generator state, four words per tree (see
+   * `resampleStates`): with them the in-bag counts can be regenerated, so
+   * they stay in memory and in the analyst's file, never in a shared model.
+   */
+  resamples: Int32Array;
   /** The alpha each tree was pruned at (0 when not pruned). */
   alphas: Float64Array;
   /** Values per prediction: 1 (regression) or the number of classes. */
@@ -99,17 +104,18 @@ export function fitEnsemble(
   const count = options.trees ?? 200;
   const seed = options.seed ?? 1;
   const order = canonicalRowOrder(dataset);
+  const states = resampleStates(seed, dataset.target.values, count);
   const trees: FlatTree[] = [];
   const alphas = new Float64Array(count);
   const oobValues: Float64Array[] = [];
   for (let b = 0; b < count; b++) {
-    const fitted = fitOneTree(dataset, bins, order, treeSeed(seed, b), options);
+    const fitted = fitOneTree(dataset, bins, order, states, b, options);
     trees.push(fitted.tree);
     alphas[b] = fitted.alpha;
     oobValues.push(fitted.oob);
     options.onProgress?.(b + 1, count);
   }
-  return assembleEnsemble(dataset, trees, alphas, oobValues, seed);
+  return assembleEnsemble(dataset, trees, alphas, oobValues, states);
 }
 
 /**
@@ -128,18 +134,19 @@ export function checkEnsembleOptions(options: EnsembleOptions): void {
 }
 
 /**
- * Grows and prunes the tree whose resample comes from `treeSeed`; the same
- * arguments give the same tree in any thread.
+ * Grows and prunes tree `index`, whose resample comes from its generator
+ * state in `states`; the same arguments give the same tree in any thread.
  */
 export function fitOneTree(
   dataset: Dataset,
   bins: FeatureBins[],
   order: Int32Array,
-  seedOfTree: number,
+  states: Int32Array,
+  index: number,
   options: EnsembleOptions,
 ): { tree: FlatTree; alpha: number; oob: Float64Array } {
   const mode = options.prune ?? "alpha";
-  const weights = bootstrapCounts(dataset.rows, seedOfTree);
+  const weights = bootstrapCounts(dataset.rows, states, index);
   const grown = growTree({ dataset, bins, weights, order }, options.grow);
   let alpha = mode === "alpha" ? options.alpha! : 0;
   let tree = grown;
@@ -175,10 +182,9 @@ export function assembleEnsemble(
   trees: FlatTree[],
   alphas: Float64Array,
   oobValues: Float64Array[],
-  seed: number,
+  resamples: Int32Array,
 ): Ensemble {
   const width = dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
-  const seeds = Int32Array.from(trees, (_, b) => treeSeed(seed, b));
   const oobSum = new Float64Array(dataset.rows * width);
   const oobTrees = new Int32Array(dataset.rows);
   for (let b = 0; b < trees.length; b++) {
@@ -195,7 +201,7 @@ export function assembleEnsemble(
       oob[r * width + c] = oobTrees[r] > 0 ? oobSum[r * width + c] / oobTrees[r] : NaN;
     }
   }
-  return { trees, seeds, alphas, width, oob, oobTrees };
+  return { trees, resamples, alphas, width, oob, oobTrees };
 }
 
 // The alpha of the tree's own path whose subtree has the lowest error on the

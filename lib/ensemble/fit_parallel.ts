@@ -10,6 +10,7 @@ import type { Dataset } from "../dataset/types.ts";
 import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import { canonicalRowOrder } from "../tree/grow_tree.ts";
+import { resampleStates } from "./bootstrap.ts";
 import { shareData } from "./_shared_data.ts";
 import type { FromWorker, ToWorker } from "./_fit_worker.ts";
 import {
@@ -63,6 +64,7 @@ export async function fitEnsembleParallel(
   if (workers === 1) return fitEnsemble(dataset, options, bins);
   const order = canonicalRowOrder(dataset);
   const data = shareData(dataset, bins, order);
+  const states = resampleStates(seed, dataset.target.values, count);
   const { onProgress, ...plain } = options;
   const trees: FlatTree[] = new Array(count);
   const alphas = new Float64Array(count);
@@ -100,7 +102,7 @@ export async function fitEnsembleParallel(
           if (done === count) resolve();
           else start(worker);
         };
-        const init: ToWorker = { kind: "data", data, options: plain, seed };
+        const init: ToWorker = { kind: "data", data, options: plain, states };
         worker.postMessage(init);
         start(worker);
       }
@@ -108,5 +110,5 @@ export async function fitEnsembleParallel(
   } finally {
     for (const worker of pool) worker.terminate();
   }
-  return assembleEnsemble(dataset, trees, alphas, oobValues, seed);
+  return assembleEnsemble(dataset, trees, alphas, oobValues, states);
 }

@@ -77,11 +77,16 @@ export function groupedRange(estimate: number, groups: ResidualGroups, coverage:
 }
 
 /**
- * The groups with each group's residuals replaced by their quantiles at
- * 0, 1/steps, ..., 1 (R's type 7), the two ends clamped to the next grid
- * points so that no one row's residual is kept. Ranges at coverages on the
- * grid (0.9, 0.8, 0.95, ...) equal those of the full residuals; between grid
- * points they interpolate. This is what a saved model keeps.
+ * The groups as a saved model keeps them: each group's sorted residuals cut
+ * into consecutive blocks of at least `privacyMin` residuals (sizes differ
+ * by at most one), each block kept as its mean placed at its middle rank,
+ * and the quantiles at 0, 1/steps, ..., 1 read off the line through the
+ * block means (flat beyond the first and last). No point of the grid is one
+ * person's residual, nor a mix of fewer than `privacyMin` of them; where
+ * the spread changes slowly the grid stays close to the residuals' own
+ * quantiles (R's type 7), which `groupedRange` then interpolates.
+ *
+ * @param privacyMin Fewest residuals averaged into one kept figure.
  *
  * @example
  * ```ts
@@ -90,21 +95,56 @@ export function groupedRange(estimate: number, groups: ResidualGroups, coverage:
  * const est = Float64Array.from({ length: 1000 }, (_, i) => i % 100);
  * const y = est.map((e, i) => e + Math.sin(i) * (1 + e / 10));
  * const full = groupResiduals(est, y, 4);
- * const kept = summarizeResidualGroups(full);
+ * const kept = summarizeResidualGroups(full, 5);
+ * assert(kept.residuals[0].length === 201);
+ * // The ends are means of the five most extreme residuals, not one person's.
+ * const lowest5 = full.residuals[0].slice(0, 5).reduce((a, b) => a + b) / 5;
+ * assert(Math.abs(kept.residuals[0][0] - lowest5) < 1e-12);
+ * // The 90% range stays within 3% of the one from every residual.
  * const a = groupedRange(80, full, 0.9);
  * const b = groupedRange(80, kept, 0.9);
- * assert(Math.abs(a.low - b.low) < 1e-9 && Math.abs(a.high - b.high) < 1e-9);
- * assert(kept.residuals[0].length === 201);
+ * assert(Math.abs((b.high - b.low) / (a.high - a.low) - 1) < 0.03);
  * ```
  */
-export function summarizeResidualGroups(groups: ResidualGroups, steps = 200): ResidualGroups {
+export function summarizeResidualGroups(
+  groups: ResidualGroups,
+  privacyMin: number,
+  steps = 200,
+): ResidualGroups {
+  if (!(Number.isInteger(privacyMin) && privacyMin >= 1)) {
+    throw new RangeError(`privacyMin must be a whole number >= 1, got ${privacyMin}`);
+  }
   return {
     edges: groups.edges,
-    residuals: groups.residuals.map((sorted) => {
-      const grid = Float64Array.from({ length: steps + 1 }, (_, k) => quantile(sorted, k / steps));
-      grid[0] = grid[1];
-      grid[steps] = grid[steps - 1];
-      return grid;
-    }),
+    residuals: groups.residuals.map((sorted) => blockGrid(sorted, privacyMin, steps)),
   };
+}
+
+function blockGrid(sorted: Float64Array, size: number, steps: number): Float64Array {
+  const m = sorted.length;
+  const blocks = Math.max(1, Math.floor(m / size));
+  const centers = new Float64Array(blocks);
+  const means = new Float64Array(blocks);
+  for (let j = 0; j < blocks; j++) {
+    const from = Math.floor((j * m) / blocks);
+    const to = Math.floor(((j + 1) * m) / blocks);
+    let sum = 0;
+    for (let i = from; i < to; i++) sum += sorted[i];
+    means[j] = sum / (to - from);
+    centers[j] = (from + to - 1) / 2;
+  }
+  const grid = new Float64Array(steps + 1);
+  let j = 0;
+  for (let k = 0; k <= steps; k++) {
+    // The position of quantile k/steps among m sorted values (type 7).
+    const h = (k / steps) * (m - 1);
+    if (h <= centers[0]) grid[k] = means[0];
+    else if (h >= centers[blocks - 1]) grid[k] = means[blocks - 1];
+    else {
+      while (centers[j + 1] < h) j++;
+      const t = (h - centers[j]) / (centers[j + 1] - centers[j]);
+      grid[k] = means[j] + t * (means[j + 1] - means[j]);
+    }
+  }
+  return grid;
 }

@@ -82,7 +82,7 @@ export function featureImportance(
   const columns = dataset.features.map((f) => f.values);
   for (let b = 0; b < ensemble.trees.length; b++) {
     const tree = ensemble.trees[b];
-    const counts = bootstrapCounts(dataset.rows, ensemble.seeds[b]);
+    const counts = bootstrapCounts(dataset.rows, ensemble.resamples, b);
     const oob: number[] = [];
     for (let r = 0; r < dataset.rows; r++) if (counts[r] === 0) oob.push(r);
     if (oob.length === 0) continue;

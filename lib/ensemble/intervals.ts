@@ -206,7 +206,7 @@ export interface JackknifeError {
 }
 
 /**
- * Every tree's bootstrap counts, regenerated once from the trees' seeds so
+ * Every tree's bootstrap counts, regenerated once from the trees' generator states so
  * that many jackknife queries need not redraw them (tree-major: tree b's
  * count of row i is `counts[b * rows + i]`).
  */
@@ -232,13 +232,16 @@ export interface InBagCounts {
  * };
  * const ensemble = fitEnsemble(dataset, { trees: 3, prune: "none" });
  * const bag = inBagCounts(ensemble, 30);
- * assert.deepEqual(Array.from(bag.counts.subarray(30, 60)), Array.from(bootstrapCounts(30, ensemble.seeds[1])));
+ * assert.deepEqual(Array.from(bag.counts.subarray(30, 60)), Array.from(bootstrapCounts(30, ensemble.resamples, 1)));
  * ```
  */
-export function inBagCounts(ensemble: Ensemble, rows: number): InBagCounts {
+export function inBagCounts(
+  ensemble: Pick<Ensemble, "trees" | "resamples">,
+  rows: number,
+): InBagCounts {
   const counts = new Uint8Array(ensemble.trees.length * rows);
   for (let b = 0; b < ensemble.trees.length; b++) {
-    counts.set(bootstrapCounts(rows, ensemble.seeds[b]), b * rows);
+    counts.set(bootstrapCounts(rows, ensemble.resamples, b), b * rows);
   }
   return { rows, counts };
 }

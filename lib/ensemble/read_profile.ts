@@ -10,6 +10,7 @@
 
 import normalQuantile from "@stdlib/stats-base-dists-normal-quantile";
 import type { Dataset } from "../dataset/types.ts";
+import { STATE_WORDS } from "./bootstrap.ts";
 import { DEFAULT_HOW_SURE } from "./defaults.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 import {
@@ -50,6 +51,12 @@ export interface ProfileReader {
   trainingRows: number;
   /** The trees' bootstrap counts, when the jackknife is shown. */
   bag: InBagCounts | null;
+  /**
+   * Whether the jackknife would be shown (enough trees per row) but cannot
+   * be, because the in-bag counts are not at hand (a shared model file
+   * without its analyst's file).
+   */
+  jackknifeWithheld: boolean;
   /** Training rows by leaf, when the table is at hand (the forest range). */
   members: LeafMembers | null;
 }
@@ -60,13 +67,14 @@ export interface ProfileReader {
  * @param dataset The training table on the fitting scale. With
  * `withTable`, the range comes from quantile regression forest weights,
  * which need everyone's pay; otherwise from out-of-bag residuals grouped by
- * estimate, which is what a saved model (keeping no one's pay) can give.
+ * estimate and kept as a saved model keeps them (block means of at least
+ * `privacyMin` residuals, default 5).
  */
 export function profileReader(
   ensemble: Ensemble,
   dataset: Dataset,
   scale: PayScale,
-  options: { withTable?: boolean } = {},
+  options: { withTable?: boolean; privacyMin?: number } = {},
 ): ProfileReader {
   if (dataset.target.kind !== "regression" || ensemble.width !== 1) {
     throw new TypeError("profile readings need a regression ensemble");
@@ -76,8 +84,10 @@ export function profileReader(
     scale,
     groups: summarizeResidualGroups(
       groupResiduals(ensemble.oob, dataset.target.values, residualGroupCount(dataset.rows)),
+      options.privacyMin ?? 5,
     ),
     trainingRows: dataset.rows,
+    resamples: ensemble.resamples,
   });
   if (options.withTable) reader.members = leafMembers(ensemble, dataset);
   return reader;
@@ -93,34 +103,39 @@ export function residualGroupCount(rows: number): number {
 }
 
 /**
- * A reader from a saved model's parts (no table): trees with their seeds,
- * the grouped residual quantiles and the training row count. The trees'
- * bootstrap counts are regenerated when the jackknife is shown.
+ * A reader from a saved model's parts (no table): the trees, the grouped
+ * residual quantiles and the training row count, with the trees'
+ * resampling states when the analyst's part is at hand (the jackknife
+ * regenerates the in-bag counts from them when it is shown).
  */
 export function readerFromParts(parts: {
-  ensemble: Pick<Ensemble, "trees" | "seeds">;
+  ensemble: Pick<Ensemble, "trees">;
   scale: PayScale;
   groups: ResidualGroups;
   trainingRows: number;
+  resamples: Int32Array | null;
 }): ProfileReader {
   const rows = parts.trainingRows;
-  // Readings need only the trees and their seeds; a saved model keeps no
-  // out-of-bag predictions.
+  // Readings need only the trees; a saved model keeps no out-of-bag
+  // predictions.
   const ensemble: Ensemble = {
     trees: parts.ensemble.trees,
-    seeds: parts.ensemble.seeds,
+    resamples: parts.resamples ?? new Int32Array(0),
     width: 1,
     alphas: new Float64Array(parts.ensemble.trees.length),
     oob: new Float64Array(0),
     oobTrees: new Int32Array(0),
   };
   const jackknife = ensemble.trees.length >= DEFAULT_HOW_SURE.jackknifeFromTreesPerRow * rows;
+  const canRegenerate = parts.resamples !== null &&
+    parts.resamples.length === ensemble.trees.length * STATE_WORDS;
   return {
     ensemble,
     scale: parts.scale,
     groups: parts.groups,
     trainingRows: rows,
-    bag: jackknife ? inBagCounts(ensemble, rows) : null,
+    bag: jackknife && canRegenerate ? inBagCounts(ensemble, rows) : null,
+    jackknifeWithheld: jackknife && !canRegenerate,
     members: null,
   };
 }

@@ -179,6 +179,7 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
   const oob = ensemble.oob;
   const groups = summarizeResidualGroups(
     groupResiduals(oob, logPay, residualGroupCount(dataset.rows)),
+    privacyMin,
   );
   const idColumn = filtered.columns.find((c) => c.type === "identifier");
   const people: ReviewPerson[] = Array.from(rowIndex, (tableRow, r) => {

@@ -18,6 +18,11 @@ export interface AtomicWriteOptions {
   force?: boolean;
   /** The option that named the path, for messages (e.g. `--out`). */
   option?: string;
+  /**
+   * Permissions of the file written (e.g. `0o600` for a file only its
+   * owner may read); default: the usual for new files.
+   */
+  mode?: number;
 }
 
 // Temporary files being written now, so that an interrupted run can remove
@@ -72,7 +77,11 @@ export async function writeFileAtomic(
   const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
   pending.add(temporary);
   try {
-    const file = await Deno.open(temporary, { write: true, createNew: true });
+    const file = await Deno.open(temporary, {
+      write: true,
+      createNew: true,
+      ...(options.mode !== undefined ? { mode: options.mode } : {}),
+    });
     try {
       let written = 0;
       while (written < bytes.length) written += await file.write(bytes.subarray(written));

@@ -8,8 +8,7 @@
  * @module
  */
 
-import type { Ensemble } from "../ensemble/fit_ensemble.ts";
-import { bootstrapCounts } from "../ensemble/bootstrap.ts";
+import { bootstrapCounts, STATE_WORDS } from "../ensemble/bootstrap.ts";
 import { percentileInterval } from "../ensemble/intervals.ts";
 import { toMoney } from "../ensemble/pay_scale.ts";
 import {
@@ -19,7 +18,7 @@ import {
   readerFromParts,
   readProfile,
 } from "../ensemble/read_profile.ts";
-import { applyValues } from "../tree/flat_tree.ts";
+import { applyValues, type FlatTree } from "../tree/flat_tree.ts";
 import { explainPath } from "../tree/explain.ts";
 import { OptionError } from "../errors.ts";
 import { rowKey } from "./fit_model.ts";
@@ -87,6 +86,12 @@ export interface EstimateAnswer {
   confidence: NamedInterval | null;
   /** The jackknife's interval and standard error (fitting scale), where shown. */
   jackknife: (NamedInterval & { se: number }) | null;
+  /**
+   * True where the model has enough trees per row for the jackknife but it
+   * cannot be computed: it needs the trees' in-bag rows, which only the
+   * analyst's file holds.
+   */
+  jackknifeNeedsAnalystFile: boolean;
   /** The range comparable people's pay falls in (null without an ensemble). */
   range: NamedInterval | null;
   /** The reference tree's decision path. */
@@ -111,7 +116,10 @@ export interface ModelSession {
   reader: ProfileReader | null;
 }
 
-/** Prepares a model for answers (regenerates what the jackknife needs). */
+/**
+ * Prepares a model for answers (regenerates what the jackknife needs when
+ * the analyst's part is at hand).
+ */
 export function openModel(model: Model): ModelSession {
   const reader = model.ensemble !== null && model.residuals !== null &&
       model.target.kind === "regression"
@@ -120,9 +128,17 @@ export function openModel(model: Model): ModelSession {
       scale: model.target.scale,
       groups: model.residuals,
       trainingRows: model.rows.used,
+      resamples: resamplesOf(model),
     })
     : null;
   return { model, reader };
+}
+
+// The trees' resampling states, when the analyst's part has one per tree.
+function resamplesOf(model: Model): Int32Array | null {
+  const states = model.analyst?.resamples;
+  const trees = model.ensemble?.trees.length ?? 0;
+  return states !== undefined && trees > 0 && states.length === trees * STATE_WORDS ? states : null;
 }
 
 const CONFIDENCE_METHOD = "percentile interval of the trees' estimates (how much one tree's " +
@@ -221,6 +237,7 @@ export function estimateProfile(
       referenceTree: tree.value[leafNode * width + best],
       confidence: null,
       jackknife: null,
+      jackknifeNeedsAnalystFile: false,
       range: null,
       trees: [],
       warnings,
@@ -235,6 +252,7 @@ export function estimateProfile(
       referenceTree,
       confidence: null,
       jackknife: null,
+      jackknifeNeedsAnalystFile: false,
       range: null,
       trees: [],
       warnings,
@@ -247,7 +265,13 @@ export function estimateProfile(
         "there are few people like it, so both intervals rest on little",
     );
   }
-  return { ...base, ...fromReading(reading), referenceTree, warnings };
+  return {
+    ...base,
+    ...fromReading(reading),
+    jackknifeNeedsAnalystFile: reader.jackknifeWithheld,
+    referenceTree,
+    warnings,
+  };
 }
 
 const NO_ENSEMBLE = "this model has no ensemble (fitted with --trees 0): the estimate is the " +
@@ -586,8 +610,9 @@ export function batchAnswer(
   const scale = model.target.scale;
   const training = trainingIndex(model);
   const ensemble = model.ensemble;
-  const counts = ensemble !== null && training.size > 0
-    ? Array.from(ensemble.seeds, (seed) => bootstrapCounts(model.rows.used, seed))
+  const resamples = resamplesOf(model);
+  const counts = ensemble !== null && resamples !== null && training.size > 0
+    ? ensemble.trees.map((_, b) => bootstrapCounts(model.rows.used, resamples, b))
     : [];
   const out: BatchRow[] = [];
   const profile = new Float64Array(model.features.length);
@@ -621,9 +646,11 @@ export function batchAnswer(
         rangeHigh: reading.range.high,
         warnings: reasons.join("; "),
       };
-      const index = rows.ids[r] === "" ? undefined : training.get(rowKey(rows.ids[r], profile));
+      const index = rows.ids[r] === "" || counts.length === 0
+        ? undefined
+        : training.get(rowKey(rows.ids[r], profile));
       if (index !== undefined) {
-        const oob = outOfBag(ensemble as unknown as Ensemble, counts, index, profile);
+        const oob = outOfBag(ensemble, counts, index, profile);
         if (oob !== null) {
           row.estimate = toMoney(oob, scale);
           row.estimateSource = "out-of-bag";
@@ -654,7 +681,8 @@ export function batchAnswer(
 /**
  * The out-of-bag estimate (money) of a profile that is one of the model's
  * training rows (same identifier and attributes), or null when it is not
- * one (or the model has no ensemble).
+ * one, the model has no ensemble, or the analyst's part (which alone can
+ * tell training rows and their trees' resamples) is not at hand.
  */
 export function outOfBagEstimate(
   session: ModelSession,
@@ -662,10 +690,14 @@ export function outOfBagEstimate(
   profile: Profile,
 ): number | null {
   const { model } = session;
-  if (model.ensemble === null || id === "" || model.target.kind !== "regression") return null;
+  const resamples = resamplesOf(model);
+  if (
+    model.ensemble === null || resamples === null || id === "" ||
+    model.target.kind !== "regression"
+  ) return null;
   const index = trainingIndex(model).get(rowKey(id, profile));
   if (index === undefined) return null;
-  const counts = Array.from(model.ensemble.seeds, (seed) => bootstrapCounts(model.rows.used, seed));
+  const counts = model.ensemble.trees.map((_, b) => bootstrapCounts(model.rows.used, resamples, b));
   const oob = outOfBag(model.ensemble, counts, index, profile);
   return oob === null ? null : toMoney(oob, model.target.scale);
 }
@@ -673,7 +705,7 @@ export function outOfBagEstimate(
 // Training row keys -> training row index.
 function trainingIndex(model: Model): Map<string, number> {
   const map = new Map<string, number>();
-  const keys = model.rowKeys;
+  const keys = model.analyst?.rowKeys ?? null;
   if (keys === null) return map;
   // Each key is 12 characters of base64 (8 bytes).
   for (let i = 0; i * 12 < keys.length; i++) {
@@ -686,7 +718,7 @@ function trainingIndex(model: Model): Map<string, number> {
 }
 
 function outOfBag(
-  ensemble: Pick<Ensemble, "trees">,
+  ensemble: { trees: readonly FlatTree[] },
   counts: Float64Array[],
   row: number,
   profile: Profile,

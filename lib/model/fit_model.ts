@@ -22,7 +22,8 @@ import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../gap/proxies.
 import type { DeclaredType } from "../table/infer_column.ts";
 import { binFeatures } from "../tree/bins.ts";
 import { crossValidateTree } from "../tree/cross_validate.ts";
-import { leafCount, treeDepth } from "../tree/flat_tree.ts";
+import { type FlatTree, leafCount, treeDepth } from "../tree/flat_tree.ts";
+import { shareTree } from "../tree/share_tree.ts";
 import { crossValidatedLinearPredictions } from "../linear/least_squares.ts";
 import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
 import type { Ensemble } from "../ensemble/fit_ensemble.ts";
@@ -286,7 +287,10 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   }
 
   const residuals = regression && ensemble !== null
-    ? summarizeResidualGroups(groupResiduals(ensemble.oob, y, residualGroupCount(dataset.rows)))
+    ? summarizeResidualGroups(
+      groupResiduals(ensemble.oob, y, residualGroupCount(dataset.rows)),
+      privacyMin,
+    )
     : null;
 
   options.onProgress?.("importance", 0, 1);
@@ -347,7 +351,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       dropped: table.rows + table.excluded.count - dataset.rows,
     },
     reference: {
-      tree: cv.tree,
+      tree: withoutVariances(cv.tree),
       alpha: chosen.alpha,
       leaves: leafCount(cv.tree),
       depth: treeDepth(cv.tree),
@@ -360,8 +364,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       })),
     },
     ensemble: ensemble === null ? null : {
-      trees: ensemble.trees,
-      seeds: ensemble.seeds,
+      trees: ensemble.trees.map((t) => shareTree(t, dataset.features, dataset.rows)),
       alpha: prune === "none" ? 0 : minAlpha,
     },
     residuals,
@@ -369,9 +372,12 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     importance,
     proxies,
     support: supportOf(dataset, importance, privacyMin),
-    rowKeys: identifier && identifier.type === "identifier"
-      ? rowKeysOf(rowIndex, identifier.values, dataset)
-      : null,
+    analyst: {
+      resamples: ensemble?.resamples ?? new Int32Array(0),
+      rowKeys: identifier && identifier.type === "identifier"
+        ? rowKeysOf(rowIndex, identifier.values, dataset)
+        : null,
+    },
     seconds: (performance.now() - started) / 1000,
   };
 }
@@ -439,6 +445,14 @@ function checkSettings(trees: number, minLeaf: number, privacyMin: number, folds
   if (!Number.isInteger(folds) || folds < 2) {
     throw new OptionError(`--folds must be a whole number >= 2, got ${folds}`);
   }
+}
+
+// The reference tree is fitted on every row with weight 1, so its node
+// counts and means are what a staff list and the tree tell anyway; its
+// node variances would add the spread of each leaf's pay, so they are not
+// kept (a model read from a file has none either).
+function withoutVariances(tree: FlatTree): FlatTree {
+  return { ...tree, impurity: new Float64Array(tree.nodeCount).fill(NaN) };
 }
 
 /** Each row's prediction by the mean of the other folds' targets. */

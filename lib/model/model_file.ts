@@ -1,12 +1,19 @@
 /**
  * The model file: one JSON document whose tree arrays are base64 of their
  * little-endian bytes (compact, and exact to the last bit), with a SHA-256
- * checksum of the rest. Reading checks, in order: that it is JSON, that it
- * is a paygrove model of a format this version reads, the checksum, the
- * document's shape (zod), and every tree's structure (children after their
- * parent and in range, features and level masks in range, finite numbers),
- * so that a truncated, edited or foreign file gets a clear message and a
- * walk down a tree can never loop.
+ * checksum of the rest. It is the shared part of a model: no one's pay and
+ * nothing that with a staff list gives pay back (README, "What a model
+ * file holds"); the analyst's part goes to its own file (analyst_file.ts).
+ *
+ * Reading checks, in order: the size (read in pieces, at most
+ * {@linkcode MAX_MODEL_BYTES}) and that the text starts as a paygrove model;
+ * that it is JSON of a format this version reads; the checksum; the
+ * document's shape (zod); what its parts say of each other (features and
+ * their levels, support figures, counts against the rows fitted on); and
+ * every tree's structure (children after their parent and in range, at most
+ * as many nodes as the rows allow, features and level masks in range,
+ * finite numbers), so that a truncated, edited or foreign file gets a clear
+ * message and a walk down a tree can never loop.
  *
  * @module
  */
@@ -17,7 +24,17 @@ import { DataError } from "../errors.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import { VERSION } from "../version.ts";
 import { writeFileAtomic } from "../io/atomic_write.ts";
-import { type Model, MODEL_FORMAT } from "./types.ts";
+import { readTextBounded } from "../io/read_bounded.ts";
+import { legacyResampleStates } from "../ensemble/bootstrap.ts";
+import { type Model, MODEL_FORMAT, type ModelFileNote } from "./types.ts";
+
+/**
+ * The largest model file read: a JSON text longer than about 512 million
+ * characters cannot be parsed by the JavaScript engine anyway, and no
+ * model paygrove writes comes near it (the default CPS1988 model is 3.4 MB,
+ * unpruned 36 MB).
+ */
+export const MAX_MODEL_BYTES = 512 * 1024 * 1024;
 
 /** The marker every paygrove model file starts with. */
 const MARKER = "paygrove-model";
@@ -60,7 +77,7 @@ function damaged(detail: string): DataError {
   return new DataError(`${currentFile} is damaged or was edited: ${detail}`, { file: currentFile });
 }
 
-function encodeTree(tree: FlatTree, full: boolean) {
+function encodeTree(tree: FlatTree) {
   return {
     task: tree.task,
     width: tree.width,
@@ -75,10 +92,11 @@ function encodeTree(tree: FlatTree, full: boolean) {
     right: toBase64(tree.right),
     missingLeft: toBase64(tree.missingLeft),
     value: toBase64(tree.value),
+    // Training rows reaching each node (every row, drawn or not): what a
+    // staff list and the tree give anyway. Node weights equal them (the
+    // reference tree weighs every row 1; a shared ensemble tree's weights
+    // are its covers) and node variances are never written.
     rows: toBase64(tree.rows),
-    // Weight and impurity serve the reference tree's outline; ensemble
-    // trees need neither to estimate, so they are left out to save space.
-    ...(full ? { weight: toBase64(tree.weight), impurity: toBase64(tree.impurity) } : {}),
   };
 }
 
@@ -190,7 +208,12 @@ const documentShape = z.object({
       cvSe: finite,
     })),
   }),
-  ensemble: z.object({ trees: z.array(treeShape), seeds: z.string(), alpha: finite }).nullable(),
+  ensemble: z.object({
+    trees: z.array(treeShape),
+    // Format 1 only: each tree's resampling seed.
+    seeds: z.string().optional(),
+    alpha: finite,
+  }).nullable(),
   residuals: z.object({ edges: z.array(maybeNumber), quantiles: z.array(z.string()) }).nullable(),
   quality: z.object({
     constantInSample: accuracy,
@@ -221,7 +244,8 @@ const documentShape = z.object({
       ranges: z.array(z.object({ feature: z.string(), p01: finite, p99: finite })),
     })),
   }),
-  rowKeys: z.string().nullable(),
+  // Format 1 only: the training rows' keys.
+  rowKeys: z.string().nullable().optional(),
   seconds: z.number(),
 });
 
@@ -229,7 +253,11 @@ const documentShape = z.object({
 const GRID = 201;
 
 /**
- * The model as the file's text (compact JSON with a checksum).
+ * The model as the file's text (compact JSON with a checksum): the shared
+ * part only; the analyst's part is never written here.
+ *
+ * @throws {DataError} for a model read from a format-1 file, whose trees
+ * carry traces of their resamples (refit it instead).
  *
  * @example
  * ```ts
@@ -242,6 +270,12 @@ const GRID = 201;
  * ```
  */
 export function modelToText(model: Model): string {
+  if (model.fileNotes?.some((n) => n.kind === "rebuildsPay")) {
+    throw new DataError(
+      "a model read from a format-1 file cannot be saved again: its trees keep traces of " +
+        "their resamples; fit the model again from its table",
+    );
+  }
   const body = {
     kind: MARKER,
     format: MODEL_FORMAT,
@@ -252,10 +286,9 @@ export function modelToText(model: Model): string {
     read: model.read,
     settings: model.settings,
     rows: model.rows,
-    reference: { ...model.reference, tree: encodeTree(model.reference.tree, true) },
+    reference: { ...model.reference, tree: encodeTree(model.reference.tree) },
     ensemble: model.ensemble === null ? null : {
-      trees: model.ensemble.trees.map((t) => encodeTree(t, false)),
-      seeds: toBase64(model.ensemble.seeds),
+      trees: model.ensemble.trees.map(encodeTree),
       alpha: model.ensemble.alpha,
     },
     residuals: model.residuals === null ? null : {
@@ -266,7 +299,6 @@ export function modelToText(model: Model): string {
     importance: model.importance,
     ...(model.proxies ? { proxies: model.proxies } : {}),
     support: model.support,
-    rowKeys: model.rowKeys,
     seconds: model.seconds,
   };
   // NaN is not JSON: it is written as null and read back as NaN.
@@ -320,11 +352,17 @@ export function modelFromText(text: string, file: string): Model {
     throw damaged(`${issue.path.join(".") || "the document"}: ${issue.message}`);
   }
   const doc = parsed.data;
+  checkParts(doc);
   const features = doc.features.length;
   const maskWords = doc.features.map((f) =>
     f.kind === "categorical" ? Math.ceil((f.levels?.length ?? 0) / 32) : 0
   );
   const width = doc.target.kind === "regression" ? 1 : (doc.target.classes?.length ?? 0);
+  // A tree's leaves each hold at least the minimum leaf of the rows it was
+  // fitted on, so it has at most this many nodes; a larger count is an
+  // edited file (and would make every walk slow).
+  const leavesAtMost = Math.max(1, Math.floor(doc.rows.used / doc.settings.minLeaf));
+  const nodesAtMost = 2 * leavesAtMost - 1;
   const decodeTree = (shape: z.infer<typeof treeShape>, where: string): FlatTree => {
     const n = shape.nodeCount;
     if (shape.width !== width) {
@@ -333,6 +371,13 @@ export function modelFromText(text: string, file: string): Model {
     if (shape.maskWords.length !== features || shape.maskWords.some((w, f) => w !== maskWords[f])) {
       throw damaged(`${where} does not match the model's features`);
     }
+    if (n > nodesAtMost) {
+      throw damaged(
+        `${where} has ${n} nodes; a tree of ${doc.rows.used} rows with leaves of at least ` +
+          `${doc.settings.minLeaf} has at most ${nodesAtMost}`,
+      );
+    }
+    const rows = fromBase64(shape.rows, Int32Array, n, `${where}.rows`);
     const tree: FlatTree = {
       task: shape.task,
       width: shape.width,
@@ -346,28 +391,41 @@ export function modelFromText(text: string, file: string): Model {
       right: fromBase64(shape.right, Int32Array, n, `${where}.right`),
       missingLeft: fromBase64(shape.missingLeft, Uint8Array, n, `${where}.missingLeft`),
       value: fromBase64(shape.value, Float64Array, n * width, `${where}.value`),
-      rows: fromBase64(shape.rows, Int32Array, n, `${where}.rows`),
-      weight: shape.weight
-        ? fromBase64(shape.weight, Float64Array, n, `${where}.weight`)
-        : new Float64Array(n),
-      impurity: shape.impurity
-        ? fromBase64(shape.impurity, Float64Array, n, `${where}.impurity`)
-        : new Float64Array(n),
+      rows,
+      // Not in the file (format 1's are not carried over either): weights
+      // equal the row counts, variances are not kept.
+      weight: Float64Array.from(rows),
+      impurity: new Float64Array(n).fill(NaN),
     };
     checkTree(tree, doc.features, where);
     return tree;
   };
   const reference = decodeTree(doc.reference.tree, "reference tree");
   let ensemble: Model["ensemble"] = null;
+  let analyst: Model["analyst"] = null;
+  const fileNotes: ModelFileNote[] = [];
   if (doc.ensemble !== null) {
     const trees = doc.ensemble.trees.map((t, b) => decodeTree(t, `tree ${b + 1}`));
-    if (trees.length !== doc.settings.trees) {
+    if (trees.length !== doc.settings.trees || trees.length === 0) {
       throw damaged(`it has ${trees.length} trees, its settings say ${doc.settings.trees}`);
     }
-    ensemble = {
-      trees,
-      seeds: fromBase64(doc.ensemble.seeds, Int32Array, trees.length, "seeds"),
-      alpha: doc.ensemble.alpha,
+    ensemble = { trees, alpha: doc.ensemble.alpha };
+  } else if (doc.settings.trees !== 0) {
+    throw damaged(`it has no trees, its settings say ${doc.settings.trees}`);
+  }
+  if (doc.format === 1) {
+    // Format 1 kept what rebuilds pay; it is read, said, and never written
+    // again (modelToText refuses such a model).
+    fileNotes.push({ kind: "rebuildsPay", format: 1 });
+    const keys = doc.rowKeys ?? null;
+    if (keys !== null && keys.length !== 12 * doc.rows.used) {
+      throw damaged(`it has ${keys.length / 12} row keys for ${doc.rows.used} rows`);
+    }
+    analyst = {
+      resamples: doc.ensemble?.seeds === undefined ? new Int32Array(0) : legacyResampleStates(
+        fromBase64(doc.ensemble.seeds, Int32Array, doc.ensemble.trees.length, "seeds"),
+      ),
+      rowKeys: keys,
     };
   }
   let residuals: Model["residuals"] = null;
@@ -402,9 +460,60 @@ export function modelFromText(text: string, file: string): Model {
     importance: doc.importance,
     ...(doc.proxies ? { proxies: doc.proxies } : {}),
     support: doc.support,
-    rowKeys: doc.rowKeys,
+    analyst,
+    ...(fileNotes.length > 0 ? { fileNotes } : {}),
     seconds: doc.seconds,
   } as Model;
+}
+
+// What the document's parts say of each other: level features have levels
+// and a typical level among them, a classification target its classes,
+// importance and support figures name the model's own features and levels,
+// and the row counts add up to the table's.
+function checkParts(doc: z.infer<typeof documentShape>): void {
+  const byName = new Map(doc.features.map((f) => [f.name, f]));
+  if (byName.size !== doc.features.length) throw damaged("two features have the same name");
+  for (const f of doc.features) {
+    if (f.kind === "numeric") {
+      if (f.levels !== undefined) throw damaged(`feature ${f.name} is numeric but has levels`);
+      continue;
+    }
+    const levels = f.levels ?? [];
+    if (levels.length === 0) throw damaged(`feature ${f.name} is ${f.kind} but has no levels`);
+    if (!Number.isNaN(f.typical) && !(Number.isInteger(f.typical) && f.typical < levels.length)) {
+      throw damaged(`feature ${f.name} has no level ${f.typical}`);
+    }
+  }
+  if (doc.target.kind === "classification" && (doc.target.classes?.length ?? 0) < 2) {
+    throw damaged("its class target has fewer than two classes");
+  }
+  if (doc.importance.some((i) => !byName.has(i.feature))) {
+    throw damaged("its importance names a feature the model does not have");
+  }
+  const peers = doc.support.peers;
+  if (peers !== null) {
+    for (const name of peers.features) {
+      const f = byName.get(name);
+      if (f === undefined || f.kind === "numeric") {
+        throw damaged(`its support figures name ${name}, not a level feature of the model`);
+      }
+    }
+  }
+  for (const group of doc.support.levelRanges) {
+    const f = byName.get(group.feature);
+    if (f === undefined || !(f.levels ?? []).includes(group.level)) {
+      throw damaged(`its support figures name ${group.feature} ${group.level}, which it lacks`);
+    }
+    if (group.ranges.some((r) => byName.get(r.feature)?.kind !== "numeric")) {
+      throw damaged(`its support figures name a numeric feature the model does not have`);
+    }
+  }
+  if (doc.rows.used + doc.rows.dropped !== doc.provenance.table.rows) {
+    throw damaged(
+      `it was fitted on ${doc.rows.used} rows with ${doc.rows.dropped} left out, but its ` +
+        `table had ${doc.provenance.table.rows}`,
+    );
+  }
 }
 
 // Every node's children come after it and within the tree, so a walk from
@@ -447,22 +556,23 @@ function checkTree(
 }
 
 /**
- * Reads and checks a model file.
+ * Reads and checks a model file, in pieces and at most
+ * {@linkcode MAX_MODEL_BYTES}: a device, a stream or anything that does not
+ * start as JSON is refused at its first piece, before it is all read.
  *
  * @throws {DataError} when it cannot be read or is not a sound model.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readModelFile } from "./model_file.ts";
+ * const path = Deno.makeTempFileSync();
+ * Deno.writeTextFileSync(path, "employee_id,pay\n1,50\n");
+ * await assert.rejects(() => readModelFile(path), /is not a paygrove model file/);
+ * ```
  */
 export async function readModelFile(path: string): Promise<Model> {
-  let text: string;
-  try {
-    text = await Deno.readTextFile(path);
-  } catch (error) {
-    if (error instanceof Deno.errors.NotFound) {
-      throw new DataError(`${path}: no such model file`, { file: path });
-    }
-    throw new DataError(`${path}: cannot read it (${(error as Error).message.split("\n")[0]})`, {
-      file: path,
-    });
-  }
+  const text = await readTextBounded(path, { maxBytes: MAX_MODEL_BYTES, what: "model file" });
   const model = modelFromText(text, path);
   model.provenance.modelFile = {
     path,
@@ -473,14 +583,19 @@ export async function readModelFile(path: string): Promise<Model> {
 
 /**
  * Writes a model file atomically; an existing file is kept unless `force`.
+ *
+ * @returns The file's size in bytes and the SHA-256 of its bytes.
  */
 export async function writeModelFile(
   path: string,
   model: Model,
   force = false,
   option = "--out",
-): Promise<number> {
+): Promise<{ bytes: number; sha256: string }> {
   const text = modelToText(model);
   await writeFileAtomic(path, text, { force, option });
-  return new TextEncoder().encode(text).length;
+  return {
+    bytes: new TextEncoder().encode(text).length,
+    sha256: createHash("sha256").update(text).digest("hex"),
+  };
 }

@@ -2,8 +2,11 @@
  * A fitted paygrove model as the commands use it and as its file keeps it:
  * the schema of the table it was fitted on, the reference tree, the
  * ensemble's trees, what the intervals need, quality figures and
- * provenance. It holds no one's pay: no row-level targets, and every node
- * mean covers at least the privacy minimum of distinct people.
+ * provenance. The shared part holds no one's pay and nothing that with a
+ * staff list gives pay back (see README, "What a model file holds"); what
+ * would (the trees' resampling states and the training rows' keys) is the
+ * separate {@linkcode AnalystPart}, kept in memory after a fit and written
+ * only to an analyst's file.
  *
  * @module
  */
@@ -18,8 +21,12 @@ import type { PayScale } from "../ensemble/pay_scale.ts";
 import type { ResidualGroups } from "../ensemble/grouped_range.ts";
 import type { RegressionMetrics } from "../tree/metrics.ts";
 
-/** The model file format this version writes and reads. */
-export const MODEL_FORMAT = 1;
+/**
+ * The model file format this version writes. Format 1 (paygrove 0.1)
+ * stored each tree's resampling seed and the training rows' keys, which
+ * rebuild pay; it is still read, with a warning.
+ */
+export const MODEL_FORMAT = 2;
 
 /** One feature as the model knows it. */
 export interface FeatureSchema {
@@ -197,10 +204,13 @@ export interface Model {
   rows: { used: number; dropped: number };
   /** The reference tree. */
   reference: ReferenceTree;
-  /** The ensemble (null with `trees: 0`). */
+  /**
+   * The ensemble (null with `trees: 0`). Its trees are shareable copies
+   * (`shareTree`): node counts and internal values over every training
+   * row, leaf values as fitted.
+   */
   ensemble: {
     trees: FlatTree[];
-    seeds: Int32Array;
     /** The alpha every tree was pruned at (0: not pruned). */
     alpha: number;
   } | null;
@@ -226,10 +236,36 @@ export interface Model {
   /** Support figures for the unusual-profile check. */
   support: SupportFigures;
   /**
-   * Keys of the training rows (8-byte hashes of identifier and feature
-   * values, base64), so `batch` recognises them; null without an identifier.
+   * What only the analyst may keep (null when the model was read from a
+   * shared file without the analyst's file).
    */
-  rowKeys: string | null;
+  analyst: AnalystPart | null;
+  /** What reading the file found that its user must know (absent after a fit). */
+  fileNotes?: ModelFileNote[];
   /** Seconds the fit took. */
   seconds: number;
 }
+
+/**
+ * The part of a model that, with a staff list, rebuilds every person's
+ * pay: each tree's resampling state regenerates its in-bag weights, after
+ * which every leaf mean is a linear equation in the unknown pays, and the
+ * row keys put a staff list in training order. It serves the out-of-bag
+ * estimate of a training row and the infinitesimal jackknife, both of
+ * which need the in-bag weights at question time.
+ */
+export interface AnalystPart {
+  /** Each tree's resampling generator state, four words per tree. */
+  resamples: Int32Array;
+  /**
+   * Keys of the training rows (8-byte hashes of identifier and feature
+   * values, base64, 12 characters each), so `batch` recognises them; null
+   * without an identifier column.
+   */
+  rowKeys: string | null;
+}
+
+/** Something reading a model file found. */
+export type ModelFileNote =
+  /** A format-1 file: it holds the seeds and row keys that rebuild pay. */
+  { kind: "rebuildsPay"; format: number };

@@ -47,3 +47,4 @@ export {
   regressionMetrics,
 } from "./metrics.ts";
 export { describeCondition, explainPath, type PathStep } from "./explain.ts";
+export { shareTree } from "./share_tree.ts";

@@ -39,8 +39,13 @@ Deno.test("gap finds the demo's planted gap for women in Field Service, and only
   ).map((c: { name: string }) => c.name);
   assert.deepEqual(flagged, ["Field Service"]);
   const field = doc.categories.find((c: { name: string }) => c.name === "Field Service").gaps[0];
-  // The demo's rule: women in Field Service are paid 6% less (lib/demo/demo_company.ts).
-  assert.ok(field.low <= 0.06 && 0.06 <= field.high, JSON.stringify(field));
+  // The demo's rule: women in Field Service earn 0.06 less in log pay
+  // (lib/demo/demo_company.ts). This one table's estimate lies within three
+  // standard errors of it; whether the 95% interval covers the planted gap
+  // as often as it should is measured over 20 tables by the gap simulation
+  // (tests/lib/gap/gap_check_test.ts), not on one draw.
+  assert.ok(Math.abs(field.coefficient - -0.06) <= 3 * field.se, JSON.stringify(field));
+  assert.ok(field.low > 0.02, JSON.stringify(field));
   assert.equal(typeof doc.regression.coefficient, "number");
   assert.ok(
     Math.abs(doc.regression.percent - 100 * (1 - Math.exp(doc.regression.coefficient))) < 1e-9,

@@ -22,6 +22,7 @@ import { paygrove, ROOT } from "./_cli.ts";
 const dir = await Deno.makeTempDir({ prefix: "paygrove-e2e-" });
 const demo = `${ROOT}fixtures/demo_company.csv`;
 const modelPath = `${dir}/demo.model.json`;
+const analystPath = `${dir}/demo.analyst.json`;
 const FIT = [
   "fit",
   demo,
@@ -39,6 +40,8 @@ const FIT = [
   "7",
   "--out",
   modelPath,
+  "--analyst-file",
+  analystPath,
 ];
 const fitted = await paygrove([...FIT, "--json"]);
 if (fitted.code !== 0) throw new Error(`fit failed: ${fitted.stderr}`);
@@ -215,9 +218,42 @@ Deno.test("sweep --json walks every level", async () => {
   ]);
 });
 
+Deno.test("without the analyst's file, batch cannot tell training rows and says so", async () => {
+  const run = await paygrove(["batch", modelPath, demo, "--json"]);
+  const doc = json(run);
+  assert.equal(doc.trainingRowsRecognised, false);
+  assert.equal(doc.outOfBag, 0);
+  assert.ok(doc.rows.every((r: { estimateSource: string }) => r.estimateSource === "ensemble"));
+  const text = await paygrove(["batch", modelPath, demo, "--out", `${dir}/plain.csv`]);
+  assert.match(
+    text.stderr,
+    /rows of the table the model learned from are not recognised without --analyst-file/,
+  );
+});
+
+Deno.test("fit --analyst-file writes a file only its owner reads, which says what it is", async () => {
+  const doc = JSON.parse(fitted.stdout);
+  assert.deepEqual(doc.analystFile, { path: analystPath, rebuildsPay: true });
+  assert.equal((await Deno.stat(analystPath)).mode! & 0o777, 0o600);
+  assert.match(await Deno.readTextFile(analystPath), /rebuilds every person's pay/);
+  // The model file itself is the shareable one: no seeds, no row keys.
+  const shared = JSON.parse(await Deno.readTextFile(modelPath));
+  assert.equal(shared.format, 2);
+  assert.equal(shared.rowKeys, undefined);
+  assert.equal(shared.ensemble.seeds, undefined);
+});
+
 Deno.test("batch on the training table gives each row its out-of-bag estimate", async () => {
   const out = `${dir}/scored.csv`;
-  const run = await paygrove(["batch", modelPath, demo, "--out", out]);
+  const run = await paygrove([
+    "batch",
+    modelPath,
+    demo,
+    "--analyst-file",
+    analystPath,
+    "--out",
+    out,
+  ]);
   assert.equal(run.code, 0, run.stderr);
   assert.match(
     run.stderr,
@@ -464,9 +500,21 @@ Deno.test("a candidates table with its own id column, unknown levels listed toge
 
 Deno.test("a training row's estimate says it includes the person's own pay, with the out-of-bag figure", async () => {
   const doc = json(
-    await paygrove(["estimate", modelPath, "--table", demo, "--row", "FH10003", "--json"]),
+    await paygrove([
+      "estimate",
+      modelPath,
+      "--analyst-file",
+      analystPath,
+      "--table",
+      demo,
+      "--row",
+      "FH10003",
+      "--json",
+    ]),
   );
-  const scored = json(await paygrove(["batch", modelPath, demo, "--json"]));
+  const scored = json(
+    await paygrove(["batch", modelPath, demo, "--analyst-file", analystPath, "--json"]),
+  );
   const oob = scored.rows.find((r: { input: { employee_id: string } }) =>
     r.input.employee_id === "FH10003"
   );
@@ -520,4 +568,12 @@ Deno.test("no-change comparisons, sweeps beyond the data and unusual batch rows 
     /years_at_company 25 is above what 99% of people at level G1 have/,
   );
   assert.equal(doc.rows[1].warnings, "");
+});
+
+Deno.test("a format-1 model file is read with the warning that it rebuilds pay", async () => {
+  const old = `${ROOT}fixtures/legacy/format1_demo300.json`;
+  const run = await paygrove(["estimate", old, "--set", "level=G3"]);
+  assert.equal(run.code, 0, run.stderr);
+  assert.match(run.stderr, /format 1\)\. It keeps each tree's resampling seed and the training/);
+  assert.match(run.stderr, /rebuild every person's pay\. Do not share it/);
 });

@@ -13,11 +13,11 @@ import {
   type Model,
   openModel,
   OptionError,
-  readModelFile,
   writeFileAtomic,
 } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
 import { readTableForModel } from "../profile_flags.ts";
+import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
 import { jsonNumbers } from "../render/cautions.ts";
 import { PROTECTED_CAUTION } from "./fit.ts";
 
@@ -74,12 +74,13 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
       (t: string) => Number(t),
       0.9,
     )
+    .option(...ANALYST_FILE_OPTION)
     .option("--out <file>", "write the scored CSV here instead of standard output")
     .option("--force", "replace an existing --out file")
     .option("--json", "print one JSON document on stdout instead of CSV")
     .action(async (modelFile, profilesFile, flags) => {
       if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
-      const model = await readModelFile(modelFile);
+      const model = await openModelFile(terminal, modelFile, flags.analystFile);
       if (model.settings.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
       }
@@ -109,6 +110,8 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
       const counts = {
         scored: scored.length,
         outOfBag: scored.filter((r) => r.estimateSource === "out-of-bag").length,
+        // Without the analyst's file no row can be told to be a training row.
+        trainingRowsRecognised: model.analyst !== null,
       };
       if (flags.json) {
         terminal.out(
@@ -129,9 +132,12 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         await writeFileAtomic(flags.out, csv, { force: flags.force ?? false, option: "--out" });
         const flagged = scored.filter((r) => r.warnings !== "").length;
         terminal.err(
-          `paygrove batch: ${counts.scored} rows scored (${counts.outOfBag} training rows given ` +
-            `their out-of-bag estimate; ${flagged} unusual for the data, see the warnings ` +
-            `column) -> ${flags.out}`,
+          `paygrove batch: ${counts.scored} rows scored (${
+            counts.trainingRowsRecognised
+              ? `${counts.outOfBag} training rows given their out-of-bag estimate`
+              : "rows of the table the model learned from are not recognised without " +
+                "--analyst-file, so their estimates include their own pay"
+          }; ${flagged} unusual for the data, see the warnings column) -> ${flags.out}`,
         );
       } else {
         terminal.out(csv.replace(/\n$/, ""));

@@ -6,7 +6,8 @@
  */
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
-import { applyChanges, compareAnswer, openModel, OptionError, readModelFile } from "../../mod.ts";
+import { applyChanges, compareAnswer, openModel, OptionError } from "../../mod.ts";
+import { openModelFile } from "../open_model.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderCompare } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
@@ -36,7 +37,7 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
       if (flags.change === undefined || flags.change.length === 0) {
         throw new OptionError("compare needs at least one --change COLUMN=VALUE");
       }
-      const model = await readModelFile(file);
+      const model = await openModelFile(terminal, file, flags.analystFile);
       const session = openModel(model);
       const { profile, warnings } = await profileFromFlags(model, flags, terminal);
       const changed = applyChanges(model, profile, flags.change);

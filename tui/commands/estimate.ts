@@ -5,7 +5,8 @@
  */
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
-import { estimateProfile, openModel, outOfBagEstimate, readModelFile } from "../../mod.ts";
+import { estimateProfile, openModel, outOfBagEstimate } from "../../mod.ts";
+import { openModelFile } from "../open_model.ts";
 import { formatPay } from "../render/numbers.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderEstimate } from "../render/answer_view.ts";
@@ -27,7 +28,7 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
       )
       .argument("<model>", "model file written by paygrove fit"),
   ).action(async (file, flags) => {
-    const model = await readModelFile(file);
+    const model = await openModelFile(terminal, file, flags.analystFile);
     const session = openModel(model);
     const { profile, warnings, start, id } = await profileFromFlags(model, flags, terminal);
     const answer = estimateProfile(session, profile, flags.coverage, warnings);

@@ -12,7 +12,14 @@ import {
   InvalidArgumentError,
   Option,
 } from "@commander-js/extra-typings";
-import { assertCanWrite, fitModel, type Model, OptionError, writeModelFile } from "../../mod.ts";
+import {
+  assertCanWrite,
+  fitModel,
+  type Model,
+  OptionError,
+  writeAnalystFile,
+  writeModelFile,
+} from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
@@ -43,7 +50,12 @@ export function collectWhere(text: string, previous: Record<string, string[]> = 
 }
 
 /** The `fit --json` document. */
-export function fitJson(model: Model, out: string, bytes: number): Record<string, unknown> {
+export function fitJson(
+  model: Model,
+  out: string,
+  bytes: number,
+  analystFile: string | null = null,
+): Record<string, unknown> {
   const q = model.quality;
   const regression = model.target.kind === "regression";
   const chosen = model.reference.pruningPath.find((p) => p.alpha === model.reference.alpha);
@@ -102,6 +114,7 @@ export function fitJson(model: Model, out: string, bytes: number): Record<string
     importance: model.importance,
     proxies: model.proxies ?? [],
     model: { path: out, bytes },
+    analystFile: analystFile === null ? null : { path: analystFile, rebuildsPay: true },
     seconds: model.seconds,
     provenance: model.provenance,
   };
@@ -162,7 +175,12 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       wholeNumber(1),
       5,
     )
-    .requiredOption("--out <model>", "where to write the model file")
+    .requiredOption("--out <model>", "where to write the model file (safe to share)")
+    .option(
+      "--analyst-file <file>",
+      "also write the analyst's file (out-of-bag estimates of training rows, the jackknife); " +
+        "with a staff list it rebuilds everyone's pay: keep it private",
+    )
     .option("--force", "replace an existing model file")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
@@ -172,6 +190,12 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         );
       }
       await assertCanWrite(flags.out, flags.force ?? false, "--out");
+      if (flags.analystFile !== undefined) {
+        if (flags.analystFile === flags.out) {
+          throw new OptionError("--analyst-file must not be the --out file");
+        }
+        await assertCanWrite(flags.analystFile, flags.force ?? false, "--analyst-file");
+      }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
       const table = await readTable(file, options, progress);
@@ -201,9 +225,21 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       } finally {
         progress.finish();
       }
-      const bytes = await writeModelFile(flags.out, model, flags.force ?? false);
+      const { bytes, sha256 } = await writeModelFile(flags.out, model, flags.force ?? false);
+      if (flags.analystFile !== undefined) {
+        await writeAnalystFile(flags.analystFile, model, sha256, {
+          force: flags.force ?? false,
+          option: "--analyst-file",
+        });
+      }
       if (flags.json) {
-        terminal.out(JSON.stringify(fitJson(model, flags.out, bytes), jsonNumbers, 2));
+        terminal.out(
+          JSON.stringify(
+            fitJson(model, flags.out, bytes, flags.analystFile ?? null),
+            jsonNumbers,
+            2,
+          ),
+        );
         return;
       }
       const style = terminal.style;
@@ -222,6 +258,14 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
               ),
               terminal.width,
             ).split("\n"),
+            ...(flags.analystFile === undefined ? [] : wrapAnsi(
+              style.warn(
+                `Analyst's file: ${flags.analystFile} (readable by you alone). With a staff ` +
+                  `list it rebuilds every person's pay: keep it with the pay table, never share ` +
+                  `it. ${flags.out} is safe to share without it.`,
+              ),
+              terminal.width,
+            ).split("\n")),
             ...renderModelSummary(model, view),
           ],
           model.provenance,

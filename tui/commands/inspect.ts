@@ -6,7 +6,8 @@
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import wrapAnsi from "wrap-ansi";
-import { type Model, readModelFile } from "../../mod.ts";
+import type { Model } from "../../mod.ts";
+import { openModelFile } from "../open_model.ts";
 import {
   describeTarget,
   renderAccuracy,
@@ -72,7 +73,7 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
-      const model = await readModelFile(file);
+      const model = await openModelFile(terminal, file);
       if (flags.json) {
         terminal.out(JSON.stringify(
           {

@@ -10,20 +10,14 @@ import {
   type CommandUnknownOpts,
   InvalidArgumentError,
 } from "@commander-js/extra-typings";
-import {
-  findFeature,
-  openModel,
-  OptionError,
-  readModelFile,
-  sweepAnswer,
-  sweepValues,
-} from "../../mod.ts";
+import { findFeature, openModel, OptionError, sweepAnswer, sweepValues } from "../../mod.ts";
 import { profileFromFlags, readTableForModel, withProfileFlags } from "../profile_flags.ts";
 import { renderSweep } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { wholeNumber } from "./fit.ts";
+import { openModelFile } from "../open_model.ts";
 
 function finiteNumber(text: string): number {
   const value = Number(text);
@@ -51,7 +45,7 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--steps <n>", "points of a numeric attribute", wholeNumber(2), 20)
     .option("--average", "also average the estimate over the rows of --table (partial dependence)")
     .action(async (file, flags) => {
-      const model = await readModelFile(file);
+      const model = await openModelFile(terminal, file, flags.analystFile);
       const session = openModel(model);
       const feature = findFeature(model, flags.vary, "--vary");
       if (

@@ -7,6 +7,7 @@
  * @module
  */
 
+import { REBUILDS_PAY_WARNING } from "../open_model.ts";
 import { existsSync } from "node:fs";
 import {
   applyChanges,
@@ -124,6 +125,9 @@ async function chooseAndFit(
     const path = await io.ask("Path of the model file:", { validate: fileExists });
     model = await readModelFile(path);
     io.say(style.dim(`Loaded ${path}: ${model.target.name}, ${model.rows.used} people.`));
+    if (model.fileNotes?.some((n) => n.kind === "rebuildsPay")) {
+      io.say(style.caution(REBUILDS_PAY_WARNING));
+    }
   } else {
     let readOptions: LoadTableOptions;
     let label: string;
@@ -569,7 +573,7 @@ async function save(
     ]);
     if (!force) return;
   }
-  const bytes = await writeModelFile(path, model, force, "save");
+  const { bytes } = await writeModelFile(path, model, force, "save");
   io.say(io.style.dim(`Saved the model to ${path} (${(bytes / 1e6).toFixed(1)} MB).`));
   const report = options.report ??
     await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {

@@ -131,6 +131,16 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
           "  ",
         ),
       );
+    } else if (answer.jackknifeNeedsAnalystFile) {
+      lines.push(
+        ...wrap(
+          style.dim(
+            "Jackknife: not shown. It needs the trees' draws, which only the analyst's file " +
+              "holds (--analyst-file).",
+          ),
+          "  ",
+        ),
+      );
     }
   }
   lines.push("", style.bold(`Decision path of the reference tree`));

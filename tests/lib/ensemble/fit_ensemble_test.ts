@@ -12,8 +12,8 @@ import {
   pairedDifference,
   percentileInterval,
   pruneTree,
+  resampleStates,
   treeEstimates,
-  treeSeed,
 } from "../../../mod.ts";
 import { levels, numeric, regression } from "../tree/_small.ts";
 
@@ -29,7 +29,7 @@ Deno.test("the same seed gives a bit-identical ensemble", () => {
   const dataset = invented(120);
   const a = fitEnsemble(dataset, { trees: 15, seed: 42, prune: "none" });
   const b = fitEnsemble(dataset, { trees: 15, seed: 42, prune: "none" });
-  assert.deepEqual(a.seeds, b.seeds);
+  assert.deepEqual(a.resamples, b.resamples);
   assert.deepEqual(a.oob, b.oob);
   for (let t = 0; t < a.trees.length; t++) assert.deepEqual(a.trees[t], b.trees[t]);
   const c = fitEnsemble(dataset, { trees: 15, seed: 43, prune: "none" });
@@ -39,10 +39,11 @@ Deno.test("the same seed gives a bit-identical ensemble", () => {
 Deno.test("each tree is the tree grown on its regenerated bootstrap counts", () => {
   const dataset = invented(90);
   const ensemble = fitEnsemble(dataset, { trees: 5, seed: 9, prune: "none", grow: { minLeaf: 3 } });
+  // The states are keyed by the seed and the target, nothing else.
+  assert.deepEqual(ensemble.resamples, resampleStates(9, dataset.target.values, 5));
   const bins = binFeatures(dataset);
   for (let t = 0; t < 5; t++) {
-    assert.equal(ensemble.seeds[t], treeSeed(9, t));
-    const weights = bootstrapCounts(dataset.rows, ensemble.seeds[t]);
+    const weights = bootstrapCounts(dataset.rows, ensemble.resamples, t);
     assert.equal(weights.reduce((x, y) => x + y, 0), dataset.rows);
     const alone = growTree({ dataset, bins, weights }, { minLeaf: 3 });
     assert.deepEqual(ensemble.trees[t].value, alone.value);
@@ -56,7 +57,7 @@ Deno.test("out-of-bag predictions average only the trees that did not draw the r
     let sum = 0;
     let n = 0;
     for (let t = 0; t < 12; t++) {
-      if (bootstrapCounts(dataset.rows, ensemble.seeds[t])[r] !== 0) continue;
+      if (bootstrapCounts(dataset.rows, ensemble.resamples, t)[r] !== 0) continue;
       const tree = ensemble.trees[t];
       sum += tree.value[applyRow(tree, dataset.features, r)];
       n++;
@@ -178,7 +179,7 @@ Deno.test("infinitesimal jackknife by its definition", () => {
   for (let i = 0; i < dataset.rows; i++) {
     let c = 0;
     for (let b = 0; b < t.length; b++) {
-      c += (bootstrapCounts(dataset.rows, ensemble.seeds[b])[i] - 1) * (t[b] - tbar);
+      c += (bootstrapCounts(dataset.rows, ensemble.resamples, b)[i] - 1) * (t[b] - tbar);
     }
     v += (c / t.length) ** 2;
   }
@@ -193,7 +194,7 @@ Deno.test("out-of-bag pruning gives the subtree pruneTree gives at the chosen al
   const own = fitEnsemble(dataset, { trees: 8, seed: 2, prune: "oob" });
   const bins = binFeatures(dataset);
   for (let t = 0; t < 8; t++) {
-    const weights = bootstrapCounts(dataset.rows, own.seeds[t]);
+    const weights = bootstrapCounts(dataset.rows, own.resamples, t);
     const grown = growTree({ dataset, bins, weights });
     const expected = own.alphas[t] > 0 ? pruneTree(grown, own.alphas[t]) : grown;
     assert.deepEqual(own.trees[t].value, expected.value);

@@ -31,7 +31,7 @@ Deno.test("a sweep walks one attribute and keeps the others fixed", () => {
     grow: { minLeaf: 3 },
   });
   const reader = profileReader(ensemble, dataset, "raw");
-  const groups = summarizeResidualGroups(groupResiduals(ensemble.oob, dataset.target.values, 6));
+  const groups = summarizeResidualGroups(groupResiduals(ensemble.oob, dataset.target.values, 6), 5);
   const grid = sweepGrid(dataset.features[0], { from: 0, to: 29, steps: 30 });
   const points = sweepProfile(reader, [10, 1], 0, grid, 0.9);
   assert.equal(points.length, 30);

@@ -1,0 +1,183 @@
+/**
+ * The analyst's file: the part of a model that, with a staff list,
+ * rebuilds every person's pay (each tree's resampling state and the
+ * training rows' keys; see {@linkcode AnalystPart}). It is written only
+ * when asked for, beside a model file it names by the SHA-256 of its bytes,
+ * readable by its owner alone (mode 0600), and says what it is in its own
+ * text. With it, a model answers what needs the trees' in-bag rows at
+ * question time: the out-of-bag estimate of a training row (`batch`,
+ * `estimate --row`) and the infinitesimal jackknife.
+ *
+ * @module
+ */
+
+import { createHash } from "node:crypto";
+import { z } from "zod";
+import { DataError } from "../errors.ts";
+import { writeFileAtomic } from "../io/atomic_write.ts";
+import { readTextBounded } from "../io/read_bounded.ts";
+import { STATE_WORDS } from "../ensemble/bootstrap.ts";
+import type { AnalystPart, Model } from "./types.ts";
+
+const MARKER = "paygrove-analyst-file";
+const FORMAT = 1;
+
+/** What the file says of itself, in its own text. */
+export const ANALYST_FILE_WARNING = "With a staff list (the table's rows without pay), this " +
+  "file rebuilds every person's pay in the model's table to the cent. Keep it where the pay " +
+  "table is kept; never share it. The model file it goes with is safe to share without it.";
+
+const shape = z.object({
+  kind: z.literal(MARKER),
+  format: z.literal(FORMAT),
+  warning: z.string(),
+  model: z.object({
+    sha256: z.string().regex(/^[0-9a-f]{64}$/),
+    trees: z.number().int().min(0),
+    rows: z.number().int().min(1),
+  }),
+  resamples: z.string(),
+  rowKeys: z.string().nullable(),
+});
+
+/**
+ * The analyst's file as text, for the model file whose bytes have SHA-256
+ * `modelSha256`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { analystFromText, analystToText } from "./analyst_file.ts";
+ * const model = {
+ *   rows: { used: 2, dropped: 0 },
+ *   ensemble: { trees: [{}], alpha: 0 },
+ *   analyst: { resamples: Int32Array.of(1, 2, 3, 4), rowKeys: "AAAAAAAAAAA=BBBBBBBBBBB=" },
+ *   provenance: { modelFile: { path: "m.json", sha256: "a".repeat(64) } },
+ * } as unknown as import("./types.ts").Model;
+ * const text = analystToText(model, "a".repeat(64));
+ * assert.match(text, /never share it/);
+ * assert.deepEqual(analystFromText(text, "m.analyst", model), model.analyst);
+ * ```
+ */
+export function analystToText(model: Model, modelSha256: string): string {
+  if (model.analyst === null) {
+    throw new DataError("this model has no analyst's part to write (it was read from a file)");
+  }
+  const resamples = model.analyst.resamples;
+  const body = {
+    kind: MARKER,
+    format: FORMAT,
+    warning: ANALYST_FILE_WARNING,
+    model: {
+      sha256: modelSha256,
+      trees: model.ensemble?.trees.length ?? 0,
+      rows: model.rows.used,
+    },
+    resamples: toBase64(
+      new Uint8Array(resamples.buffer, resamples.byteOffset, resamples.byteLength),
+    ),
+    rowKeys: model.analyst.rowKeys,
+  };
+  const text = JSON.stringify(body);
+  const checksum = createHash("sha256").update(text).digest("hex");
+  return `${text.slice(0, -1)},"checksum":"${checksum}"}`;
+}
+
+/**
+ * Reads an analyst's file's text for `model` (read from the model file the
+ * analyst's file names).
+ *
+ * @throws {DataError} when it is not an analyst's file, is damaged, or
+ * belongs to another model file.
+ */
+export function analystFromText(text: string, file: string, model: Model): AnalystPart {
+  const damaged = (why: string) =>
+    new DataError(`${file} is damaged or was edited: ${why}`, { file });
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch {
+    throw new DataError(`${file} is not a paygrove analyst's file (not valid JSON)`, { file });
+  }
+  if (typeof raw !== "object" || raw === null || (raw as { kind?: unknown }).kind !== MARKER) {
+    throw new DataError(`${file} is not a paygrove analyst's file`, { file });
+  }
+  const { checksum, ...rest } = raw as { checksum?: unknown };
+  if (
+    typeof checksum !== "string" ||
+    createHash("sha256").update(JSON.stringify(rest)).digest("hex") !== checksum
+  ) {
+    throw damaged("its checksum does not match its contents");
+  }
+  const parsed = shape.safeParse(rest);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw damaged(`${issue.path.join(".") || "the document"}: ${issue.message}`);
+  }
+  const doc = parsed.data;
+  const modelFile = model.provenance.modelFile;
+  if (modelFile === undefined || modelFile.sha256 !== doc.model.sha256) {
+    throw new DataError(
+      `${file} belongs to another model file (SHA-256 ${doc.model.sha256.slice(0, 12)}...)` +
+        (modelFile ? `, not to ${modelFile.path}` : ""),
+      { file },
+    );
+  }
+  const trees = model.ensemble?.trees.length ?? 0;
+  if (doc.model.trees !== trees || doc.model.rows !== model.rows.used) {
+    throw damaged("its counts of trees and rows are not the model's");
+  }
+  const bytes = fromBase64(doc.resamples);
+  if (bytes.length !== trees * STATE_WORDS * 4) {
+    throw damaged(`it has ${bytes.length} bytes of resampling states for ${trees} trees`);
+  }
+  if (doc.rowKeys !== null && doc.rowKeys.length !== 12 * model.rows.used) {
+    throw damaged(`it has ${doc.rowKeys.length / 12} row keys for ${model.rows.used} rows`);
+  }
+  return { resamples: new Int32Array(bytes.buffer), rowKeys: doc.rowKeys };
+}
+
+/**
+ * Writes the analyst's file (mode 0600) for the model file just written
+ * with SHA-256 `modelSha256`; an existing file is kept unless `force`.
+ */
+export async function writeAnalystFile(
+  path: string,
+  model: Model,
+  modelSha256: string,
+  options: { force?: boolean; option?: string } = {},
+): Promise<void> {
+  await writeFileAtomic(path, analystToText(model, modelSha256), { ...options, mode: 0o600 });
+}
+
+/**
+ * Reads the analyst's file for `model` and joins it to the model.
+ *
+ * @throws {DataError} as {@linkcode analystFromText}.
+ */
+export async function readAnalystFile(path: string, model: Model): Promise<Model> {
+  // Row keys take 12 bytes a row, states 16 bytes a tree, in base64.
+  const maxBytes = 4096 + 16 * (model.rows.used + 2 * (model.ensemble?.trees.length ?? 0) * 4);
+  const text = await readTextBounded(path, { maxBytes, what: "analyst's file" });
+  return { ...model, analyst: analystFromText(text, path, model) };
+}
+
+function toBase64(bytes: Uint8Array): string {
+  let text = "";
+  for (let i = 0; i < bytes.length; i += 0x8000) {
+    text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  }
+  return btoa(text);
+}
+
+function fromBase64(text: string): Uint8Array {
+  let binary: string;
+  try {
+    binary = atob(text);
+  } catch {
+    return new Uint8Array(0);
+  }
+  const bytes = new Uint8Array(binary.length);
+  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
+  return bytes;
+}
