@@ -135,8 +135,11 @@ export function oobRSquared(y: ArrayLike<number>, oob: ArrayLike<number>): numbe
 export interface TableProvenance {
   /** paygrove's version. */
   paygrove: string;
-  /** The table read: its file name, SHA-256 and rows. */
-  table: { file: string; sha256: string; rows: number };
+  /**
+   * The table read: its file name, SHA-256 and rows (the row count left out
+   * where it would tell the size of a group too small to report).
+   */
+  table: { file: string; sha256: string; rows?: number };
   /** The seed of the resamples. */
   seed: number;
 }

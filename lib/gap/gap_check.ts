@@ -169,9 +169,21 @@ export interface GapReport {
   rows: number;
   /** Rows left out because the group is missing. */
   missingGroup: number;
+  /**
+   * People of groups not compared: those left out by the groups named, and
+   * groups with fewer than the privacy minimum of people (`tooFew`, named
+   * but never counted). `people` is null when fewer than the privacy
+   * minimum are left out this way (the number would be a small group's
+   * size); then no count in the report, nor the table's row count in its
+   * provenance, tells it.
+   */
+  leftOut: { people: number | null; tooFew: string[] };
   /** Overall figures, or withheld. */
   overall: { suppressed: false; rows: number; gaps: GapFigure[] } | { suppressed: true };
-  /** Pay quartiles (null when the overall figures are withheld). */
+  /**
+   * Pay quartiles (null when the overall figures are withheld, or when a
+   * quartile would hold fewer than the privacy minimum of people).
+   */
   quartiles: PayQuartile[] | null;
   /** The partialling-out regression over everyone, first compared group (null when withheld). */
   regression: GapRegression | null;
@@ -293,6 +305,15 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     allCounts,
     options.reference,
   );
+  if (allCounts.get(reference)! < privacyMin) {
+    throw new OptionError(
+      `--reference: ${reference} has fewer than ${privacyMin} people with pay; no gap against ` +
+        `it can be shown`,
+    );
+  }
+  // A group of fewer than the privacy minimum is never compared: its
+  // figures, its quartile shares and its size would be a few people's.
+  const tooFew = [...allCounts.keys()].filter((g) => allCounts.get(g)! < privacyMin).sort();
   let otherGroupsLeftOut = 0;
   if (options.compare !== undefined) {
     const known = [...allCounts.keys()].sort();
@@ -310,6 +331,18 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     });
     otherGroupsLeftOut = before - keep.length;
   }
+  if (tooFew.length > 0) {
+    const before = keep.length;
+    keep = keep.filter((r) => !tooFew.includes(groupColumn.levels[groupColumn.codes[r]]));
+    otherGroupsLeftOut += before - keep.length;
+    if ([...new Set(keep.map((r) => groupColumn.codes[r]))].length < 2) {
+      throw new OptionError(
+        `--group: every group besides ${reference} has fewer than ${privacyMin} people ` +
+          `(${tooFew.join(", ")}); no gap can be shown without telling their pay`,
+      );
+    }
+  }
+  const leftOutCounted = otherGroupsLeftOut === 0 || otherGroupsLeftOut >= privacyMin;
   const rowsTable = subsetRows(filtered, keep, "people with pay and a group");
   const payOf = (rowsTable.columns.find((c) => c.name === options.target) as NumericColumn).values;
   const groupOf = rowsTable.columns.find((c) => c.name === options.group) as LevelColumn;
@@ -492,7 +525,13 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   })).filter((p) => p.balancedAccuracy >= proxyThreshold);
   options.onProgress?.("proxies", payDataset.features.length, payDataset.features.length);
 
-  if (otherGroupsLeftOut > 0) {
+  if (tooFew.length > 0) {
+    notes.push(
+      `${tooFew.join(", ")}: too few to report (fewer than ${privacyMin} people each), so never ` +
+        `compared; no figure here tells how many they are.`,
+    );
+  }
+  if (otherGroupsLeftOut > 0 && leftOutCounted) {
     notes.push(
       `${otherGroupsLeftOut} people of other groups than ${allGroups.join(" and ")} are left ` +
         `out of this comparison.`,
@@ -553,10 +592,11 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     confidence,
     rows: n,
     missingGroup,
+    leftOut: { people: leftOutCounted ? otherGroupsLeftOut : null, tooFew },
     overall: overallHidden
       ? { suppressed: true }
       : { suppressed: false, rows: n, gaps: overallGaps },
-    quartiles: overallHidden ? null : payQuartiles(payOf, groupName),
+    quartiles: overallHidden ? null : payQuartiles(payOf, groupName, privacyMin),
     regression: regressions[0] ?? null,
     regressions,
     linear,
@@ -570,8 +610,17 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       groupBalancedAccuracy: oobBalancedAccuracy(groupModel, groupCode),
     },
     notes,
-    provenance: tableProvenance(table, seed),
+    provenance: leftOutCounted
+      ? tableProvenance(table, seed)
+      : withoutRowCount(tableProvenance(table, seed)),
   };
+}
+
+// The table's row count, less everyone analysed and counted, would be the
+// number left out uncounted.
+function withoutRowCount(p: TableProvenance): TableProvenance {
+  const { rows: _, ...table } = p.table;
+  return { ...p, table };
 }
 
 /**

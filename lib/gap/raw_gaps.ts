@@ -75,10 +75,14 @@ export interface PayQuartile {
   quartile: number;
   /** People in the quartile. */
   rows: number;
-  /** Lowest and highest pay in it. */
-  low: number;
-  /** Highest pay in it. */
-  high: number;
+  /**
+   * Where the quartile starts: the mean pay of the people nearest the cut
+   * below it (see {@linkcode payQuartiles}); null for the first quartile,
+   * which is open below ("under ...").
+   */
+  low: number | null;
+  /** Where it ends, likewise; null for the fourth, open above ("... and above"). */
+  high: number | null;
   /** Each group's share of the quartile's people. */
   shares: Record<string, number>;
 }
@@ -89,37 +93,61 @@ export interface PayQuartile {
  * extra people). People of equal pay at a cut are split by their order in
  * the table, so the groups stay equal in size.
  *
+ * The bounds never show one person's pay: the lowest pay of the first
+ * quartile and the highest of the fourth are left open, and each cut
+ * between two quartiles is the mean pay of the `privacyMin` people nearest
+ * it (half rounded up just below the cut, the rest just above). With fewer
+ * than `privacyMin` people in a quartile its shares would tell single
+ * people's pay, so there are no quartiles then (null).
+ *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
  * import { payQuartiles } from "./raw_gaps.ts";
- * const q = payQuartiles([10, 20, 30, 40, 50, 60, 70, 80], ["W", "W", "W", "M", "W", "M", "M", "M"]);
- * assert.deepEqual(q.map((x) => x.shares.W), [1, 0.5, 0.5, 0]);
+ * const pay = Array.from({ length: 20 }, (_, i) => 10 * (i + 1));
+ * const group = pay.map((_, i) => (i < 8 ? "W" : "M"));
+ * const q = payQuartiles(pay, group, 3)!;
+ * assert.deepEqual(q.map((x) => x.shares.W), [1, 0.6, 0, 0]);
+ * // The cut between Q1 (10..50) and Q2 (60..100): the mean of 40, 50 and 60.
+ * assert.equal(q[0].high, 50);
+ * assert.equal(q[1].low, 50);
+ * assert.equal(q[0].low, null);
+ * assert.equal(q[3].high, null);
+ * assert.equal(payQuartiles(pay.slice(0, 8), group.slice(0, 8), 3), null);
  * ```
  */
-export function payQuartiles(pay: ArrayLike<number>, group: readonly string[]): PayQuartile[] {
+export function payQuartiles(
+  pay: ArrayLike<number>,
+  group: readonly string[],
+  privacyMin: number,
+): PayQuartile[] | null {
   const rows: number[] = [];
   for (let r = 0; r < pay.length; r++) if (group[r] !== "" && !Number.isNaN(pay[r])) rows.push(r);
   rows.sort((a, b) => pay[a] - pay[b] || a - b);
-  const groups = [...new Set(rows.map((r) => group[r]))].sort();
   const n = rows.length;
+  if (Math.floor(n / 4) < privacyMin) return null;
+  const groups = [...new Set(rows.map((r) => group[r]))].sort();
+  const starts: number[] = [];
   const out: PayQuartile[] = [];
   let start = 0;
   for (let q = 0; q < 4; q++) {
     const size = Math.floor(n / 4) + (q < n % 4 ? 1 : 0);
     const part = rows.slice(start, start + size);
+    starts.push(start);
     start += size;
     const shares: Record<string, number> = {};
-    for (const g of groups) {
-      shares[g] = part.length === 0 ? 0 : part.filter((r) => group[r] === g).length / part.length;
-    }
-    out.push({
-      quartile: q + 1,
-      rows: part.length,
-      low: part.length ? pay[part[0]] : NaN,
-      high: part.length ? pay[part[part.length - 1]] : NaN,
-      shares,
-    });
+    for (const g of groups) shares[g] = part.filter((r) => group[r] === g).length / part.length;
+    out.push({ quartile: q + 1, rows: part.length, low: null, high: null, shares });
+  }
+  // The cut before quartile q (q = 1..3) sits between sorted positions
+  // starts[q] - 1 and starts[q].
+  for (let q = 1; q < 4; q++) {
+    const from = starts[q] - Math.ceil(privacyMin / 2);
+    let sum = 0;
+    for (let i = from; i < from + privacyMin; i++) sum += pay[rows[i]];
+    const cut = sum / privacyMin;
+    out[q - 1].high = cut;
+    out[q].low = cut;
   }
   return out;
 }

@@ -9,7 +9,13 @@
  */
 
 import wrapAnsi from "wrap-ansi";
-import { GAP_CAUTIONS, GAP_SOURCES, type GapFigure, type GapReport } from "../../mod.ts";
+import {
+  GAP_CAUTIONS,
+  GAP_SOURCES,
+  type GapFigure,
+  type GapReport,
+  type PayQuartile,
+} from "../../mod.ts";
 import { formatNumber, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { isAscii } from "./glyphs.ts";
@@ -301,14 +307,14 @@ export function renderGap(report: GapReport, view: GapView): string[] {
       );
       lines.push(
         ...columns([
-          ["", ...groups, "pay from", "to"],
+          ["", ...groups, "pay"],
           ...report.quartiles.map((q) => [
             ["Q1 lowest", "Q2", "Q3", "Q4 highest"][q.quartile - 1],
             ...groups.map((g) => pct(q.shares[g] ?? 0, numbers)),
-            formatNumber(q.low, numbers, 0),
-            formatNumber(q.high, numbers, 0),
+            quartileBounds(q, numbers),
           ]),
         ], 2),
+        ...wrap(style.dim(quartileNote(report.privacyMin))),
         "",
       );
     }
@@ -359,6 +365,32 @@ export function renderGap(report: GapReport, view: GapView): string[] {
   }
   if (!brief) lines.push(...wrap(style.dim("Sources: " + GAP_SOURCES.join(" "))));
   return lines;
+}
+
+/**
+ * A quartile's pay bounds in words: open below for the first, open above
+ * for the fourth (no one's own pay is shown).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { quartileBounds } from "./gap_view.ts";
+ * const q = { quartile: 1, rows: 5, low: null, high: 41250, shares: {} };
+ * assert.equal(quartileBounds(q, {}), "under 41,250");
+ * assert.equal(quartileBounds({ ...q, quartile: 4, low: 72300, high: null }, {}), "72,300 and above");
+ * assert.equal(quartileBounds({ ...q, quartile: 2, low: 41250, high: 52000 }, {}), "41,250 to 52,000");
+ * ```
+ */
+export function quartileBounds(q: PayQuartile, numbers: NumberStyle): string {
+  const pay = (x: number) => formatNumber(x, numbers, 0);
+  if (q.low === null) return q.high === null ? "" : `under ${pay(q.high)}`;
+  if (q.high === null) return `${pay(q.low)} and above`;
+  return `${pay(q.low)} to ${pay(q.high)}`;
+}
+
+function quartileNote(privacyMin: number): string {
+  return `Each cut between two quartiles is the mean pay of the ${privacyMin} people nearest it; ` +
+    `the lowest and highest pay are not shown, as they are one person's.`;
 }
 
 /** The gap report as a Markdown document, cautions and provenance included. */
@@ -428,14 +460,15 @@ export function gapMarkdown(report: GapReport, numbers: NumberStyle, created: st
     md.push("## Pay quartiles", "");
     md.push(
       ...table([
-        ["quartile", ...groups, "pay from", "to"],
+        ["quartile", ...groups, "pay"],
         ...report.quartiles.map((q) => [
           String(q.quartile),
           ...groups.map((g) => pct(q.shares[g] ?? 0, numbers)),
-          formatNumber(q.low, numbers, 0),
-          formatNumber(q.high, numbers, 0),
+          quartileBounds(q, numbers),
         ]),
       ]),
+      "",
+      quartileNote(report.privacyMin),
       "",
     );
   }

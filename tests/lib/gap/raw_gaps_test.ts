@@ -24,10 +24,31 @@ Deno.test("raw mean and median gaps against the reference group, by hand", () =>
 Deno.test("pay quartiles: four equal groups by pay, each group's share", () => {
   // Nine people with a known group, ordered by pay (ties by table order):
   // W20 | M30 W30 | M40 W45 | M50 W50 | M60 M100 -> sizes 3, 2, 2, 2.
-  const q = payQuartiles(pay, group);
+  // With a privacy minimum of 2, each quartile holds enough people.
+  const q = payQuartiles(pay, group, 2)!;
   assert.deepEqual(q.map((x) => x.rows), [3, 2, 2, 2]);
   // Q1: W20, M30, W30 -> W 2/3; Q2: M40, W45 -> 1/2; Q3: M50, W50 -> 1/2; Q4: M60, M100 -> 0.
   assert.deepEqual(q.map((x) => x.shares.W), [2 / 3, 0.5, 0.5, 0]);
-  assert.deepEqual(q.map((x) => [x.low, x.high]), [[20, 30], [40, 45], [50, 50], [60, 100]]);
   for (const x of q) assert.ok(Math.abs(x.shares.M + x.shares.W - 1) < 1e-12);
+  // Bounds: open at both ends; each cut the mean of the 2 people nearest
+  // it (one each side): (W30 + M40) / 2 = 35, (W45 + M50) / 2 = 47.5,
+  // (W50 + M60) / 2 = 55. No bound is one person's pay.
+  assert.deepEqual(q.map((x) => [x.low, x.high]), [[null, 35], [35, 47.5], [47.5, 55], [55, null]]);
+  const everyone = new Set(pay);
+  for (const x of q) {
+    for (const b of [x.low, x.high]) assert.ok(b === null || !everyone.has(b), `${b}`);
+  }
+});
+
+Deno.test("pay quartiles are withheld when a quartile would hold fewer than the minimum", () => {
+  // Nine people: quartiles of 2 or 3, below a minimum of 3.
+  assert.equal(payQuartiles(pay, group, 3), null);
+  // Twelve people, a minimum of 3: each cut is the mean of two people just
+  // below it and one just above.
+  const big = Array.from({ length: 12 }, (_, i) => 10 + i);
+  const q = payQuartiles(big, big.map(() => "M"), 3)!;
+  // Cut 1 between positions 2 and 3: people at 1, 2 (below) and 3 (above): (11 + 12 + 13) / 3.
+  assert.equal(q[0].high, 12);
+  assert.equal(q[1].high, 15);
+  assert.equal(q[2].high, 18);
 });
