@@ -54,14 +54,15 @@ export {
   residualRange,
   treeEstimates,
 } from "./lib/ensemble/intervals.ts";
+export { type Design, designOf, type DesignTerm } from "./lib/linear/design.ts";
+export { fitLeastSquares, type LinearFit, predictLinear } from "./lib/linear/least_squares.ts";
 export {
+  type AliasedTerm,
+  crossValidatedLinear,
   crossValidatedLinearPredictions,
   crossValidateLinear,
-  type Design,
-  designOf,
-  fitLeastSquares,
-  type LinearFit,
-} from "./lib/linear/least_squares.ts";
+  type LinearCrossValidation,
+} from "./lib/linear/cross_validate_linear.ts";
 export { fitEnsembleParallel, type ParallelOptions } from "./lib/ensemble/fit_parallel.ts";
 export { DEFAULT_HOW_SURE, DEFAULT_PRUNING, DEFAULT_RANGE } from "./lib/ensemble/defaults.ts";
 export {

@@ -16,7 +16,8 @@ import { makeDataset } from "../dataset/make_dataset.ts";
 import { OptionError } from "../errors.ts";
 import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
 import { toFitScale } from "../ensemble/pay_scale.ts";
-import { designOf, fitLeastSquares } from "../linear/least_squares.ts";
+import { designOf, type DesignTerm } from "../linear/design.ts";
+import { fitLeastSquares } from "../linear/least_squares.ts";
 import { filterRows, subsetRows } from "../table/filter_rows.ts";
 import { columnNamed } from "../table/column_named.ts";
 import { nameWords } from "../table/protected_names.ts";
@@ -191,6 +192,11 @@ export interface GapReport {
   regressions: GapRegression[];
   /** Log pay on the factors plus group indicators (ordinary least squares, classical SE). */
   linear: GapRegression[] | null;
+  /**
+   * Terms the linear version left out as combinations of other columns
+   * (a group left out has no linear figure).
+   */
+  linearAliased: DesignTerm[];
   /** Per category. */
   categories: GapCategory[];
   /** The legitimate factors the adjustment used. */
@@ -513,9 +519,10 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       }]
     );
   const notes: string[] = [];
-  const linear = overallHidden
+  const linearFit = overallHidden
     ? null
-    : linearGaps(payDataset, logPay, groupCode, groups, confidence, notes);
+    : linearGaps(payDataset, logPay, options.group, groupCode, groups, confidence);
+  const linear = linearFit?.gaps ?? null;
 
   options.onProgress?.("proxies", 0, payDataset.features.length);
   const proxies = (await proxyFigures(payDataset.features, groupCode, allGroups, options.group, {
@@ -600,6 +607,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     regression: regressions[0] ?? null,
     regressions,
     linear,
+    linearAliased: linearFit?.aliased ?? [],
     categories,
     features: payDataset.features.map((f) => f.name),
     proxies,
@@ -754,38 +762,37 @@ function variableGaps(
 function linearGaps(
   dataset: Dataset,
   logPay: Float64Array,
+  group: string,
   groupCode: Int32Array,
   groups: string[],
   confidence: number,
-  notes: string[],
-): GapRegression[] | null {
+): { gaps: GapRegression[]; aliased: DesignTerm[] } {
   const design = designOf(dataset);
   groups.forEach((g, j) => {
     design.names.push(`group=${g}`);
     design.columns.push(Float64Array.from(groupCode, (c) => (c === j + 1 ? 1 : 0)));
+    design.terms.push({ feature: group, kind: "level", level: g });
   });
-  try {
-    const fit = fitLeastSquares(design, logPay);
-    return groups.map((g) => {
-      const at = fit.names.indexOf(`group=${g}`);
-      const b = fit.coefficients[at];
-      const se = fit.standardErrors[at];
-      const interval = gapFromCoefficient(b, se, confidence);
-      return {
-        group: g,
-        coefficient: b,
-        se,
-        percent: 100 * interval.gap,
-        gap: interval.gap,
-        low: interval.low,
-        high: interval.high,
-        // Normal approximation, as for the adjusted gap.
-        p: twoSidedP(b, se),
-      };
-    });
-  } catch (error) {
-    if (!(error instanceof RangeError)) throw error;
-    notes.push(`The linear version could not be fitted: ${error.message}.`);
-    return null;
-  }
+  const fit = fitLeastSquares(design, logPay);
+  const aliased = fit.aliased.map((j) => design.terms[j - 1]);
+  const gaps = groups.flatMap((g) => {
+    const at = fit.names.indexOf(`group=${g}`);
+    const b = fit.coefficients[at];
+    // A group indicator that follows from the factors has no linear figure.
+    if (Number.isNaN(b)) return [];
+    const se = fit.standardErrors[at];
+    const interval = gapFromCoefficient(b, se, confidence);
+    return {
+      group: g,
+      coefficient: b,
+      se,
+      percent: 100 * interval.gap,
+      gap: interval.gap,
+      low: interval.low,
+      high: interval.high,
+      // Normal approximation, as for the adjusted gap.
+      p: twoSidedP(b, se),
+    };
+  });
+  return { gaps, aliased };
 }

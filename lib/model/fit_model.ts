@@ -24,7 +24,7 @@ import { binFeatures } from "../tree/bins.ts";
 import { crossValidateTree } from "../tree/cross_validate.ts";
 import { type FlatTree, leafCount, treeDepth } from "../tree/flat_tree.ts";
 import { shareTree } from "../tree/share_tree.ts";
-import { crossValidatedLinearPredictions } from "../linear/least_squares.ts";
+import { crossValidatedLinear } from "../linear/cross_validate_linear.ts";
 import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
 import type { Ensemble } from "../ensemble/fit_ensemble.ts";
 import { groupResiduals, summarizeResidualGroups } from "../ensemble/grouped_range.ts";
@@ -240,8 +240,8 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     const constantAccuracy = accuracyInMoney(y, constant, scale);
     const overall = (y as Float64Array).reduce((a, b) => a + b, 0) / y.length;
     const inSample = accuracyInMoney(y, new Float64Array(y.length).fill(overall), scale);
-    const linear = crossValidatedLinearPredictions(dataset, cv.fold);
-    const linearAccuracy = accuracyInMoney(y, linear, scale);
+    const linear = crossValidatedLinear(dataset, cv.fold);
+    const linearAccuracy = accuracyInMoney(y, linear.predictions, scale);
     const oobAccuracy = ensemble === null ? null : accuracyInMoney(y, ensemble.oob, scale);
     quality = {
       constantInSample: {
@@ -258,6 +258,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
         measuredBy: "cross-validation",
         money: linearAccuracy.money,
         ...(linearAccuracy.log ? { log: linearAccuracy.log } : {}),
+        aliased: linear.aliased,
       },
       reference: fromCv(chosen),
       ensemble: oobAccuracy === null ? null : {

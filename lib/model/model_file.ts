@@ -135,6 +135,14 @@ const accuracy = z.object({
     recall: z.array(maybeNumber),
     confusion: z.array(z.array(z.number())),
   }).optional(),
+  aliased: z.array(z.object({
+    term: z.discriminatedUnion("kind", [
+      z.object({ feature: z.string(), kind: z.literal("value") }),
+      z.object({ feature: z.string(), kind: z.literal("missing") }),
+      z.object({ feature: z.string(), kind: z.literal("level"), level: z.string().nullable() }),
+    ]),
+    folds: z.number().int().min(1),
+  })).optional(),
 });
 const moneyUnit = z.object({
   currency: z.string().optional(),

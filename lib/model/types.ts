@@ -20,6 +20,7 @@ import type { FlatTree } from "../tree/flat_tree.ts";
 import type { PayScale } from "../ensemble/pay_scale.ts";
 import type { ResidualGroups } from "../ensemble/grouped_range.ts";
 import type { RegressionMetrics } from "../tree/metrics.ts";
+import type { AliasedTerm } from "../linear/cross_validate_linear.ts";
 
 /**
  * The model file format this version writes. Format 1 (paygrove 0.1)
@@ -124,6 +125,12 @@ export interface Accuracy {
   accuracy?: number;
   /** Classification: per-class precision and recall, and the confusion matrix. */
   classes?: { precision: number[]; recall: number[]; confusion: number[][] };
+  /**
+   * The straight line only: design terms some folds' fits left out as
+   * combinations of other columns (counted as 0 there); absent in files from
+   * before.
+   */
+  aliased?: AliasedTerm[];
 }
 
 /** The reference tree: the cross-validated single tree whose paths are shown. */

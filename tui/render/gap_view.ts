@@ -20,6 +20,7 @@ import { formatNumber, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { isAscii } from "./glyphs.ts";
 import { alignColumns } from "./text_columns.ts";
+import { linearVersionSentence } from "./aliased_terms.ts";
 
 /** How a gap report is drawn. */
 export interface GapView {
@@ -297,6 +298,8 @@ export function renderGap(report: GapReport, view: GapView): string[] {
           ),
         );
       }
+      const aliased = linearVersionSentence(report.linearAliased, report.group);
+      if (aliased !== null) lines.push(...wrap(style.dim(aliased)));
       lines.push("");
     }
 
@@ -454,6 +457,8 @@ export function gapMarkdown(report: GapReport, numbers: NumberStyle, created: st
         "levels or families.",
       "",
     );
+    const aliased = linearVersionSentence(report.linearAliased, report.group);
+    if (aliased !== null) md.push(aliased, "");
   }
   if (report.quartiles) {
     const groups = [report.reference, ...report.groups];

@@ -18,6 +18,7 @@ import {
 } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { isAscii, tableChars } from "./glyphs.ts";
+import { straightLineSentence } from "./aliased_terms.ts";
 
 /** What the views need besides the model. */
 export interface ModelViewOptions {
@@ -242,6 +243,8 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
       ).split("\n"),
     );
   }
+  const aliased = straightLineSentence(q.linear?.aliased ?? [], model.settings.folds);
+  if (aliased !== null) lines.push(...wrapAnsi(style.dim(aliased), options.width).split("\n"));
   return lines;
 }
 
