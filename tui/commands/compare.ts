@@ -10,6 +10,7 @@ import { applyChanges, compareAnswer, openModel, OptionError, readModelFile } fr
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderCompare } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { forTerminal } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 
@@ -50,7 +51,7 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
         model.provenance,
         answer,
         () =>
-          renderCompare(answer, {
+          renderCompare(forTerminal(answer), {
             style: terminal.style,
             width: terminal.width,
             money: moneyStyle(model, { locale: flags.locale }),

@@ -17,8 +17,10 @@ import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
+import { cappedWorkers } from "../workers.ts";
 import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
-import { jsonNumbers, withCautions } from "../render/cautions.ts";
+import { withCautions } from "../render/cautions.ts";
+import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
 
 /** Parses a whole number of at least `min`. */
 export function wholeNumber(min: number) {
@@ -193,7 +195,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           rule: flags.rule,
           prune: flags.prune === "none" ? "none" : "alpha-min",
           seed: flags.seed,
-          workers: flags.workers,
+          workers: cappedWorkers(flags.workers, flags.trees, terminal.err),
           privacyMin: flags.privacyMin,
           loadOptions: options,
           onProgress: (stage, done, total) => progress.update(stage, done, total),
@@ -203,7 +205,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       }
       const bytes = await writeModelFile(flags.out, model, flags.force ?? false);
       if (flags.json) {
-        terminal.out(JSON.stringify(fitJson(model, flags.out, bytes), jsonNumbers, 2));
+        terminal.out(jsonText(fitJson(model, flags.out, bytes)));
         return;
       }
       const style = terminal.style;
@@ -212,19 +214,21 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         width: terminal.width,
         numbers: { locale: flags.locale, currency: flags.currency },
       };
+      const shown = forTerminal(model);
       terminal.out(
         withCautions(
           [
             ...wrapAnsi(
               style.bold(
-                `paygrove fit: ${file} -> ${flags.out} (${formatNumber(bytes / 1e6, {}, 1)} MB) ` +
+                `paygrove fit: ${terminalText(file)} -> ${terminalText(flags.out)} ` +
+                  `(${formatNumber(bytes / 1e6, {}, 1)} MB) ` +
                   `in ${formatNumber(model.seconds, {}, 1)} s`,
               ),
               terminal.width,
             ).split("\n"),
-            ...renderModelSummary(model, view),
+            ...renderModelSummary(shown, view),
           ],
-          model.provenance,
+          shown.provenance,
           style,
           terminal.width,
         ),
