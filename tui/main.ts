@@ -4,7 +4,8 @@
  *
  * Exit statuses: 0 success; 1 the data cannot be used; 2 bad usage (an
  * unknown option, a bad option value, a column that does not exist);
- * 70 an internal error (a bug in paygrove).
+ * 70 an internal error (a bug in paygrove); 128 + the signal's number when
+ * stopped by SIGINT (130), SIGTERM (143) or SIGHUP (129).
  *
  * @module
  */
@@ -12,7 +13,7 @@
 // The root program has no options of its own to type, so it uses commander's
 // plain types; subcommands use extra-typings for typed option values.
 import { Command, CommanderError } from "commander";
-import { DataError, OptionError, removePendingFiles, VERSION } from "../mod.ts";
+import { DataError, OptionError, VERSION } from "../mod.ts";
 import { schemaCommand } from "./commands/schema.ts";
 import { fitCommand } from "./commands/fit.ts";
 import { estimateCommand } from "./commands/estimate.ts";
@@ -25,6 +26,8 @@ import { startFlow } from "./flow/start_flow.ts";
 import { demoDataCommand } from "./commands/demo_data.ts";
 import { gapCommand } from "./commands/gap.ts";
 import { reviewCommand } from "./commands/review.ts";
+import { terminalGuard } from "./render/safe_text.ts";
+import { listenForStop } from "./stop_signals.ts";
 
 /** Exit statuses of the `paygrove` command. */
 export const EXIT = { ok: 0, data: 1, usage: 2, internal: 70 } as const;
@@ -100,32 +103,19 @@ export async function run(args: string[], terminal: Terminal): Promise<number> {
       return report(error, terminal);
     }
   }
-  // Ctrl-C during long work: said in one line, nothing half-written left
-  // (outputs are written whole at the end, and a write in progress is undone).
-  const interrupted = () => {
-    removePendingFiles();
-    terminal.err("paygrove: stopped (Ctrl-C); no output file was written");
-    Deno.exit(130);
-  };
-  const listening = listenForInterrupt(interrupted);
+  // Ctrl-C, SIGTERM or SIGHUP during long work: said in one line, nothing
+  // half-written left (outputs are written whole at the end, and a write in
+  // progress is undone).
+  const stopListening = listenForStop((name) =>
+    terminal.err(`paygrove: stopped (${name}); no output file was written`)
+  );
   try {
     await program.parseAsync(args, { from: "user" });
     return EXIT.ok;
   } catch (error) {
     return report(error, terminal);
   } finally {
-    if (listening) Deno.removeSignalListener("SIGINT", interrupted);
-  }
-}
-
-// Signals are not listened for where the platform has none (Windows has
-// SIGINT; a test's fake terminal does not need them either).
-function listenForInterrupt(handler: () => void): boolean {
-  try {
-    Deno.addSignalListener("SIGINT", handler);
-    return true;
-  } catch {
-    return false;
+    stopListening();
   }
 }
 
@@ -135,12 +125,14 @@ function report(error: unknown, terminal: Terminal): number {
     // Commander has already printed its message (and help where asked).
     return error.exitCode === 0 ? EXIT.ok : EXIT.usage;
   }
+  // Messages quote names from the data: shown with their control
+  // characters visible (line breaks between listed items stay).
   if (error instanceof OptionError) {
-    terminal.err(`${style.bold("paygrove:")} ${error.message}`);
+    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(error.message, false)}`);
     return EXIT.usage;
   }
   if (error instanceof DataError) {
-    terminal.err(`${style.bold("paygrove:")} ${error.message}`);
+    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(error.message, false)}`);
     return EXIT.data;
   }
   terminal.err(

@@ -9,14 +9,13 @@
 import { type Command, InvalidArgumentError } from "@commander-js/extra-typings";
 import {
   applySets,
-  DataError,
   findRow,
   type Model,
   type ModelRows,
   OptionError,
   type Profile,
   type ProfileWarning,
-  readForModel,
+  readTableFileForModel,
   rowProfile,
   typicalProfile,
 } from "../mod.ts";
@@ -65,24 +64,13 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
     >;
 }
 
-/** Reads a table for a model from a path. */
-export async function readTableForModel(
+/** Reads a table for a model from a path (piece by piece, up to a stated size). */
+export function readTableForModel(
   model: Model,
   path: string,
   amounts: readonly string[] = [],
 ): Promise<ModelRows> {
-  let bytes: Uint8Array;
-  try {
-    bytes = await Deno.readFile(path);
-  } catch (error) {
-    throw new DataError(
-      error instanceof Deno.errors.NotFound
-        ? `${path}: no such file`
-        : `${path}: cannot read it (${(error as Error).message.split("\n")[0]})`,
-      { file: path },
-    );
-  }
-  return readForModel(model, bytes, path, false, amounts);
+  return readTableFileForModel(model, path, amounts);
 }
 
 /**

@@ -5,6 +5,7 @@
  * @module
  */
 
+import { terminalGuard } from "./render/safe_text.ts";
 import { makeStyle, type Style, styleFor } from "./render/style.ts";
 
 /** Output streams and their properties. */
@@ -61,17 +62,21 @@ export function processTerminal(): Terminal {
       // Keep the default when the size cannot be read.
     }
   }
+  const style = styleFor(Deno.stdout);
+  const errStyle = styleFor(Deno.stderr);
+  // The last check: no control character but paygrove's own styles and
+  // line breaks reaches the streams, whatever a renderer let through.
   const terminal: Terminal = {
-    out: (text) => write(Deno.stdout, text),
-    err: (text) => write(Deno.stderr, text),
-    style: styleFor(Deno.stdout),
-    errStyle: styleFor(Deno.stderr),
+    out: (text) => write(Deno.stdout, terminalGuard(text, style.enabled)),
+    err: (text) => write(Deno.stderr, terminalGuard(text, errStyle.enabled)),
+    style,
+    errStyle,
     width,
   };
   if (Deno.stderr.isTerminal()) {
     terminal.progress = (text) => {
       // Carriage return and erase-line, so each update replaces the last.
-      const bytes = encoder.encode(`\r\x1b[K${text}`);
+      const bytes = encoder.encode(`\r\x1b[K${terminalGuard(text, errStyle.enabled)}`);
       let written = 0;
       while (written < bytes.length) written += Deno.stderr.writeSync(bytes.subarray(written));
     };

@@ -147,7 +147,7 @@ export async function writeAnalystFile(
   modelSha256: string,
   options: { force?: boolean; option?: string } = {},
 ): Promise<void> {
-  await writeFileAtomic(path, analystToText(model, modelSha256), { ...options, mode: 0o600 });
+  await writeFileAtomic(path, analystToText(model, modelSha256), { ...options, private: true });
 }
 
 /**

@@ -10,6 +10,7 @@
 import { DataError } from "../errors.ts";
 import { loadTable, type LoadTableOptions } from "../table/load_table.ts";
 import { decodeText, readCsv } from "../table/read_csv.ts";
+import { readTableText } from "../table/load_table_file.ts";
 import type { Table } from "../table/types.ts";
 import type { Model } from "./types.ts";
 
@@ -160,6 +161,30 @@ export function readForModel(
     target,
     raw: { header: raw.header, cells: raw.cells },
   };
+}
+
+/**
+ * Reads a table file for a model: piece by piece in the model's encoding,
+ * at most 256 MiB (`TEXT_TABLE_MAX_BYTES`; an endless or binary input stops
+ * at once with a DataError), then as {@linkcode readForModel}.
+ *
+ * @param amounts Further columns to read as numbers (e.g. offers), when present.
+ * @throws {DataError} when the file cannot be read or does not match the model.
+ *
+ * @example
+ * ```ts ignore
+ * import { readTableFileForModel } from "./model_table.ts";
+ * const rows = await readTableFileForModel(model, "candidates.csv");
+ * ```
+ */
+export async function readTableFileForModel(
+  model: Model,
+  path: string,
+  amounts: readonly string[] = [],
+  requireTarget = false,
+): Promise<ModelRows> {
+  const text = await readTableText(path, model.read.encoding);
+  return readForModel(model, text, path, requireTarget, amounts);
 }
 
 /** The profile of row `r`. */

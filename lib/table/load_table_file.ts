@@ -1,40 +1,57 @@
 /**
- * Loading a pay table from a file path.
+ * Loading a pay table from a file path, piece by piece and up to a stated
+ * size, so that an endless or enormous input (a FIFO fed forever,
+ * `/dev/zero`, a wrong file) stops with a message instead of filling the
+ * memory: binary and badly encoded input is refused at its first piece,
+ * and reading stops at the bound.
  *
  * @module
  */
 
-import { DataError } from "../errors.ts";
+import { DataError, OptionError } from "../errors.ts";
 import { loadTableChunks, type LoadTableOptions } from "./load_table.ts";
+import { ChunkDecoder } from "./read_csv.ts";
 import type { Table } from "./types.ts";
+
+/**
+ * The largest table {@linkcode loadTableFile} reads: 1 GiB, about ten
+ * million rows of a typical pay table (a million rows of ten columns is
+ * about 100 MB).
+ */
+export const TABLE_MAX_BYTES = 2 ** 30;
+
+/**
+ * The largest table read whole as text ({@linkcode readTableText}: a table
+ * scored against a model, `--table`, the guided flow's table): 256 MiB,
+ * well within what one JavaScript string can hold (about 512 Mi characters).
+ */
+export const TEXT_TABLE_MAX_BYTES = 2 ** 28;
 
 /**
  * Reads a CSV file and loads it with {@linkcode loadTable}; the path names
  * the file in every message.
  *
- * @throws {DataError} when the file cannot be read or its data cannot be used.
+ * @param maxBytes Reading stops with a DataError past this many bytes.
+ * @throws {DataError} when the file cannot be read, is larger than
+ * `maxBytes`, or its data cannot be used.
  *
  * @example
- * ```ts ignore
+ * ```ts
+ * import assert from "node:assert/strict";
  * import { loadTableFile } from "./load_table_file.ts";
- * const table = await loadTableFile("fixtures/cps1988.csv", { target: "wage" });
+ * const path = Deno.makeTempFileSync({ suffix: ".csv" });
+ * Deno.writeTextFileSync(path, "level,pay\nL1,50\nL2,61\n");
+ * assert((await loadTableFile(path, { target: "pay" })).rows === 2);
+ * await assert.rejects(() => loadTableFile(path, {}, undefined, 10), /larger than/);
  * ```
  */
 export async function loadTableFile(
   path: string,
   options: Omit<LoadTableOptions, "file"> = {},
   onProgress?: (bytesRead: number, bytesTotal: number) => void,
+  maxBytes: number = TABLE_MAX_BYTES,
 ): Promise<Table> {
-  let file: Deno.FsFile;
-  try {
-    file = await Deno.open(path);
-    if ((await file.stat()).isDirectory) {
-      file.close();
-      throw new Deno.errors.IsADirectory();
-    }
-  } catch (error) {
-    throw new DataError(readProblem(path, error), { file: path });
-  }
+  const file = await openTable(path, maxBytes);
   const total = (await file.stat()).size;
   // Read piece by piece: the text of a large table is never held whole.
   async function* chunks(): AsyncGenerator<Uint8Array> {
@@ -42,14 +59,100 @@ export async function loadTableFile(
     try {
       for await (const chunk of file.readable) {
         read += chunk.length;
+        if (read > maxBytes) throw new DataError(tooLarge(path, maxBytes), { file: path });
         onProgress?.(read, total);
         yield chunk;
       }
     } catch (error) {
+      if (error instanceof DataError) throw error;
       throw new DataError(readProblem(path, error), { file: path });
     }
   }
-  return await loadTableChunks(chunks(), { ...options, file: path });
+  try {
+    return await loadTableChunks(chunks(), { ...options, file: path });
+  } finally {
+    // Closed when the reader stopped early (an error at the first piece).
+    try {
+      file.close();
+    } catch {
+      // The stream closed it at its end.
+    }
+  }
+}
+
+/**
+ * Reads a text table whole, piece by piece: each piece is decoded as it
+ * comes (a NUL byte or text invalid in `encoding` stops the read at once),
+ * and reading stops past `maxBytes`.
+ *
+ * @param encoding A WHATWG encoding label (a byte-order mark overrides it).
+ * @throws {DataError} when the file cannot be read, is not text, or is
+ * larger than `maxBytes`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readTableText } from "./load_table_file.ts";
+ * const path = Deno.makeTempFileSync({ suffix: ".csv" });
+ * Deno.writeTextFileSync(path, "\ufeffid,pay\n1,50\n");
+ * assert((await readTableText(path)) === "id,pay\n1,50\n");
+ * await assert.rejects(() => readTableText(path, "utf-8", 4), /larger than/);
+ * ```
+ */
+export async function readTableText(
+  path: string,
+  encoding = "utf-8",
+  maxBytes: number = TEXT_TABLE_MAX_BYTES,
+): Promise<string> {
+  const file = await openTable(path, maxBytes);
+  const decoder = new ChunkDecoder(encoding, path);
+  const pieces: string[] = [];
+  let read = 0;
+  try {
+    for await (const chunk of file.readable) {
+      read += chunk.length;
+      if (read > maxBytes) throw new DataError(tooLarge(path, maxBytes), { file: path });
+      pieces.push(decoder.decode(chunk));
+    }
+  } catch (error) {
+    try {
+      file.close();
+    } catch {
+      // Already closed by the stream.
+    }
+    if (error instanceof DataError || error instanceof OptionError) throw error;
+    throw new DataError(readProblem(path, error), { file: path });
+  }
+  pieces.push(decoder.decode(new Uint8Array(0), true));
+  return pieces.join("");
+}
+
+// Opens a table file, refusing a folder and a regular file over the bound.
+async function openTable(path: string, maxBytes: number): Promise<Deno.FsFile> {
+  let file: Deno.FsFile;
+  let info: Deno.FileInfo;
+  try {
+    file = await Deno.open(path);
+    info = await file.stat();
+  } catch (error) {
+    throw new DataError(readProblem(path, error), { file: path });
+  }
+  if (info.isDirectory || (info.isFile && info.size > maxBytes)) {
+    file.close();
+    throw new DataError(
+      info.isDirectory
+        ? readProblem(path, new Deno.errors.IsADirectory())
+        : tooLarge(path, maxBytes),
+      { file: path },
+    );
+  }
+  return file;
+}
+
+function tooLarge(path: string, maxBytes: number): string {
+  return `${path} is larger than the ${Math.round(maxBytes / 2 ** 20)} MiB paygrove reads ` +
+    `as a table; reading stopped there (is it the right file? a larger table can be split ` +
+    `into parts)`;
 }
 
 function readProblem(path: string, error: unknown): string {
@@ -58,5 +161,5 @@ function readProblem(path: string, error: unknown): string {
   if (error instanceof Deno.errors.PermissionDenied || error instanceof Deno.errors.NotCapable) {
     return `${path}: not allowed to read it (${(error as Error).message.split("\n")[0]})`;
   }
-  return `${path}: cannot read it (${(error as Error).message})`;
+  return `${path}: cannot read it (${(error as Error).message.split("\n")[0]})`;
 }

@@ -17,7 +17,12 @@ export {
   type LoadTableOptions,
   type TargetKind,
 } from "./load_table.ts";
-export { loadTableFile } from "./load_table_file.ts";
+export {
+  loadTableFile,
+  readTableText,
+  TABLE_MAX_BYTES,
+  TEXT_TABLE_MAX_BYTES,
+} from "./load_table_file.ts";
 export { type ColumnSummary, describeSchema, type SchemaSummary } from "./describe_schema.ts";
 export { quantile } from "./quality.ts";
 export { filterRows, subsetRows } from "./filter_rows.ts";

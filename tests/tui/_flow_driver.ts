@@ -18,6 +18,8 @@ export interface FlowDriver {
   io: FlowIO;
   /** Everything written so far, without ANSI control sequences. */
   screen(): string;
+  /** Everything written so far, exactly as written. */
+  raw(): string;
   /** Waits (bounded) until `text` appears after the last wait, then types `keys`. */
   when(text: string | RegExp, ...keys: string[]): Promise<void>;
 }
@@ -42,6 +44,7 @@ export function flowDriver(timeoutMs = 60000, ascii = false): FlowDriver {
   return {
     io,
     screen: () => plain(recorded),
+    raw: () => recorded,
     async when(text, ...keys) {
       const started = Date.now();
       for (;;) {

@@ -18,7 +18,7 @@ import {
 import type { Terminal } from "../terminal.ts";
 import { readTableForModel } from "../profile_flags.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
-import { jsonNumbers } from "../render/cautions.ts";
+import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
 import { PROTECTED_CAUTION } from "./fit.ts";
 
 /** The columns batch adds, in order. */
@@ -39,11 +39,6 @@ function provenanceText(model: Model): string {
   const p = model.provenance;
   return `paygrove ${p.paygrove}; model format ${p.format}; model sha256 ` +
     `${p.modelFile?.sha256 ?? "unknown"}; table sha256 ${p.table.sha256}; seed ${p.seed}`;
-}
-
-// RFC 4180 quoting: fields with a delimiter, quote or line break are quoted.
-function csvField(text: string): string {
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
 function money(x: number | null | undefined): string {
@@ -115,21 +110,22 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
       };
       if (flags.json) {
         terminal.out(
-          JSON.stringify(
-            {
-              rows: scored.map((r, i) => ({ input: inputRow(rows.raw, i), ...r })),
-              ...counts,
-              provenance: model.provenance,
-            },
-            jsonNumbers,
-            2,
-          ),
+          jsonText({
+            rows: scored.map((r, i) => ({ input: inputRow(rows.raw, i), ...r })),
+            ...counts,
+            provenance: model.provenance,
+          }),
         );
         return;
       }
       const csv = toCsv(rows.raw, scored, offers !== null, provenanceText(model));
       if (flags.out !== undefined) {
-        await writeFileAtomic(flags.out, csv, { force: flags.force ?? false, option: "--out" });
+        // Per-person pay: a new file is its owner's alone (0600).
+        await writeFileAtomic(flags.out, csv, {
+          force: flags.force ?? false,
+          option: "--out",
+          private: true,
+        });
         const flagged = scored.filter((r) => r.warnings !== "").length;
         terminal.err(
           `paygrove batch: ${counts.scored} rows scored (${
@@ -137,7 +133,9 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
               ? `${counts.outOfBag} training rows given their out-of-bag estimate`
               : "rows of the table the model learned from are not recognised without " +
                 "--analyst-file, so their estimates include their own pay"
-          }; ${flagged} unusual for the data, see the warnings column) -> ${flags.out}`,
+          }; ${flagged} unusual for the data, see the warnings column) -> ${
+            terminalText(flags.out)
+          }`,
         );
       } else {
         terminal.out(csv.replace(/\n$/, ""));
@@ -161,7 +159,7 @@ function toCsv(
     ...(withOffer ? OFFER_COLUMNS : []),
     "provenance",
   ];
-  const lines = [header.map(csvField).join(",")];
+  const lines = [header.map(csvCell).join(",")];
   scored.forEach((row, r) => {
     const cells = [
       ...raw.header.map((_, c) => raw.cells[c][r]),
@@ -177,7 +175,7 @@ function toCsv(
         : []),
       provenance,
     ];
-    lines.push(cells.map(csvField).join(","));
+    lines.push(cells.map(csvCell).join(","));
   });
   return lines.join("\n") + "\n";
 }

@@ -11,6 +11,7 @@ import { openModelFile } from "../open_model.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderCompare } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { forTerminal } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 
@@ -51,7 +52,7 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
         model.provenance,
         answer,
         () =>
-          renderCompare(answer, {
+          renderCompare(forTerminal(answer), {
             style: terminal.style,
             width: terminal.width,
             money: moneyStyle(model, { locale: flags.locale }),

@@ -11,6 +11,7 @@ import { formatPay } from "../render/numbers.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderEstimate } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 
@@ -41,12 +42,12 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
       );
     }
     printAnswer(terminal, flags.json === true, model.provenance, { start, ...answer }, () => [
-      ...renderEstimate(answer, {
+      ...renderEstimate(forTerminal(answer), {
         style: terminal.style,
         width: terminal.width,
         money: moneyStyle(model, { locale: flags.locale }),
       }),
-      terminal.style.dim(`Started from ${start}.`),
+      terminal.style.dim(`Started from ${terminalText(start)}.`),
     ]);
   });
 }

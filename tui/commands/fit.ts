@@ -24,8 +24,10 @@ import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
+import { cappedWorkers } from "../workers.ts";
 import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
-import { jsonNumbers, withCautions } from "../render/cautions.ts";
+import { withCautions } from "../render/cautions.ts";
+import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
 
 /** Parses a whole number of at least `min`. */
 export function wholeNumber(min: number) {
@@ -217,7 +219,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           rule: flags.rule,
           prune: flags.prune === "none" ? "none" : "alpha-min",
           seed: flags.seed,
-          workers: flags.workers,
+          workers: cappedWorkers(flags.workers, flags.trees, terminal.err),
           privacyMin: flags.privacyMin,
           loadOptions: options,
           onProgress: (stage, done, total) => progress.update(stage, done, total),
@@ -233,13 +235,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         });
       }
       if (flags.json) {
-        terminal.out(
-          JSON.stringify(
-            fitJson(model, flags.out, bytes, flags.analystFile ?? null),
-            jsonNumbers,
-            2,
-          ),
-        );
+        terminal.out(jsonText(fitJson(model, flags.out, bytes, flags.analystFile ?? null)));
         return;
       }
       const style = terminal.style;
@@ -248,27 +244,29 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         width: terminal.width,
         numbers: { locale: flags.locale, currency: flags.currency },
       };
+      const shown = forTerminal(model);
       terminal.out(
         withCautions(
           [
             ...wrapAnsi(
               style.bold(
-                `paygrove fit: ${file} -> ${flags.out} (${formatNumber(bytes / 1e6, {}, 1)} MB) ` +
+                `paygrove fit: ${terminalText(file)} -> ${terminalText(flags.out)} ` +
+                  `(${formatNumber(bytes / 1e6, {}, 1)} MB) ` +
                   `in ${formatNumber(model.seconds, {}, 1)} s`,
               ),
               terminal.width,
             ).split("\n"),
             ...(flags.analystFile === undefined ? [] : wrapAnsi(
               style.warn(
-                `Analyst's file: ${flags.analystFile} (readable by you alone). With a staff ` +
-                  `list it rebuilds every person's pay: keep it with the pay table, never share ` +
-                  `it. ${flags.out} is safe to share without it.`,
+                `Analyst's file: ${terminalText(flags.analystFile)} (readable by you alone). ` +
+                  `With a staff list it rebuilds every person's pay: keep it with the pay table, ` +
+                  `never share it. ${terminalText(flags.out)} is safe to share without it.`,
               ),
               terminal.width,
             ).split("\n")),
-            ...renderModelSummary(model, view),
+            ...renderModelSummary(shown, view),
           ],
-          model.provenance,
+          shown.provenance,
           style,
           terminal.width,
         ),

@@ -22,6 +22,8 @@ import { progressBar } from "../progress.ts";
 import { gapMarkdown, renderGap } from "../render/gap_view.ts";
 import { printTableAnswer } from "../render/cautions.ts";
 import type { Terminal } from "../terminal.ts";
+import { cappedWorkers } from "../workers.ts";
+import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 
@@ -134,7 +136,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
           privacyMin: flags.privacyMin,
           trees: flags.trees,
           seed: flags.seed,
-          workers: flags.workers,
+          workers: cappedWorkers(flags.workers, flags.trees, terminal.err),
           onProgress: (stage, done, total) => progress.update(stage, done, total),
         });
       } finally {
@@ -153,8 +155,8 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
         terminal,
         flags.json ?? false,
         report,
-        () => [...renderGap(report, view), ""],
-        flags.report ? [`Report written to ${flags.report}.`] : [],
+        () => [...renderGap(forTerminal(report), view), ""],
+        flags.report ? [`Report written to ${terminalText(flags.report)}.`] : [],
       );
     });
 }

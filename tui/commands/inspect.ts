@@ -16,7 +16,8 @@ import {
 } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
-import { jsonNumbers, provenanceLine } from "../render/cautions.ts";
+import { provenanceLine } from "../render/cautions.ts";
+import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
 
 /** A tree node for JSON: condition, rows, value, children. */
 interface OutlineNode {
@@ -73,9 +74,10 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
-      const model = await openModelFile(terminal, file);
+      const read = await openModelFile(terminal, file);
       if (flags.json) {
-        terminal.out(JSON.stringify(
+        const model = read;
+        terminal.out(jsonText(
           {
             provenance: model.provenance,
             target: model.target,
@@ -97,13 +99,13 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
             importance: model.importance,
             contents: CONTENTS,
           },
-          jsonNumbers,
-          2,
         ));
         return;
       }
       const style = terminal.style;
       const view = { style, width: terminal.width, numbers: { locale: flags.locale } };
+      // The text card draws from the model with its names made visible.
+      const model = forTerminal(read);
       const p = model.provenance;
       const card = [
         `  fitted ${p.created} by paygrove ${p.paygrove} (model format ${p.format})`,
@@ -122,7 +124,7 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
         `  reference tree: ${model.reference.leaves} leaves, depth ${model.reference.depth}`,
       ];
       const lines = [
-        style.bold(`Model ${file}`),
+        style.bold(`Model ${terminalText(file)}`),
         ...card.flatMap((line) =>
           wrapAnsi(line.trimStart(), terminal.width - 4, { hard: true }).split("\n").map((l, i) =>
             i === 0 ? `  ${l}` : `    ${l}`

@@ -27,6 +27,8 @@ import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../ren
 import type { Style } from "../render/style.ts";
 import { alignColumns } from "../render/text_columns.ts";
 import type { Terminal } from "../terminal.ts";
+import { cappedWorkers } from "../workers.ts";
+import { csvCell, forTerminal, terminalText } from "../render/safe_text.ts";
 import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 import { shareOption } from "./gap.ts";
@@ -42,22 +44,24 @@ function coverageOption(text: string): number {
   return share;
 }
 
-/** Every person as CSV (RFC 4180), one row each, in table order. */
+/**
+ * Every person as CSV (RFC 4180), one row each, in table order; text cells
+ * through {@linkcode csvCell}, so no identifier runs as a formula.
+ */
 export function reviewCsv(review: PayReview): string {
-  const field = (t: string) => (/[",\r\n]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t);
   const num = (x: number | null, digits: number) =>
     x === null || !Number.isFinite(x) ? "" : String(Number(x.toFixed(digits)));
   const lines = ["id,line,pay,estimate,range_low,range_high,range_position,status,shortfall"];
   for (const p of review.people) {
     lines.push([
-      field(p.id),
+      csvCell(p.id),
       String(p.line),
       num(p.pay, 2),
       num(p.estimate, 2),
       num(p.low, 2),
       num(p.high, 2),
       num(p.position, 4),
-      p.status ?? "",
+      csvCell(p.status ?? ""),
       num(p.shortfall, 2),
     ].join(","));
   }
@@ -225,19 +229,28 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
           privacyMin: flags.privacyMin,
           trees: flags.trees,
           seed: flags.seed,
-          workers: flags.workers,
+          workers: cappedWorkers(flags.workers, flags.trees, terminal.err),
           onProgress: (done, total) => progress.update("trees", done, total),
         });
       } finally {
         progress.finish();
       }
       if (flags.out !== undefined) {
-        await writeFileAtomic(flags.out, reviewCsv(review), { force: flags.force ?? false });
+        // Per-person pay: a new file is its owner's alone (0600).
+        await writeFileAtomic(flags.out, reviewCsv(review), {
+          force: flags.force ?? false,
+          option: "--out",
+          private: true,
+        });
       }
       const numbers = { locale: flags.locale, currency: review.money?.currency };
       printTableAnswer(terminal, flags.json ?? false, review, () => [
-        ...renderReview(review, { style: terminal.style, width: terminal.width, numbers }),
-        ...(flags.out ? [`Everyone written to ${flags.out}.`, ""] : []),
+        ...renderReview(forTerminal(review), {
+          style: terminal.style,
+          width: terminal.width,
+          numbers,
+        }),
+        ...(flags.out ? [`Everyone written to ${terminalText(flags.out)}.`, ""] : []),
       ]);
     });
 }

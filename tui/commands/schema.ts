@@ -6,6 +6,7 @@
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import { describeSchema, loadTableFile } from "../../mod.ts";
+import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
 import { renderSchema } from "../render/schema_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { loadOptions, withTableFlags } from "../table_flags.ts";
@@ -29,11 +30,11 @@ export function schemaCommand(terminal: Terminal): CommandUnknownOpts {
       const table = await loadTableFile(file, loadOptions(flags, file));
       const summary = describeSchema(table);
       if (flags.json) {
-        terminal.out(JSON.stringify({ file, ...summary }, null, 2));
+        terminal.out(jsonText({ file, ...summary }));
         return;
       }
-      const lines = renderSchema(summary, {
-        file,
+      const lines = renderSchema(forTerminal(summary), {
+        file: terminalText(file),
         style: terminal.style,
         width: terminal.width,
         numbers: { locale: flags.locale, currency: flags.currency },

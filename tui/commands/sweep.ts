@@ -14,6 +14,7 @@ import { findFeature, openModel, OptionError, sweepAnswer, sweepValues } from ".
 import { profileFromFlags, readTableForModel, withProfileFlags } from "../profile_flags.ts";
 import { renderSweep } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { forTerminal } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { wholeNumber } from "./fit.ts";
@@ -87,7 +88,7 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
         model.provenance,
         answer,
         () =>
-          renderSweep(answer, {
+          renderSweep(forTerminal(answer), {
             style: terminal.style,
             width: terminal.width,
             money: moneyStyle(model, { locale: flags.locale }),

@@ -7,6 +7,7 @@
  */
 
 import { checkbox, input, select } from "@inquirer/prompts";
+import { terminalGuard, terminalText } from "../render/safe_text.ts";
 import type { Style } from "../render/style.ts";
 
 /** A choice of a select prompt. */
@@ -103,8 +104,22 @@ export function streamFlowIO(
       style: { keysHelpTip: help },
     }
     : undefined;
+  // Questions and choices quote names from the data: shown with their
+  // control characters visible, whatever the caller passed (the values
+  // returned are the choices' own).
+  const shown = <C extends Choice<unknown>>(choices: C[]): C[] =>
+    choices.map((c) => ({
+      ...c,
+      name: terminalText(c.name),
+      ...(c.description !== undefined ? { description: terminalText(c.description) } : {}),
+      ...(typeof c.disabled === "string" ? { disabled: terminalText(c.disabled) } : {}),
+    }));
   return {
-    say: (text) => streams.output.write(text.endsWith("\n") ? text : `${text}\n`),
+    // The last check on the screen: only paygrove's own styles get through.
+    say: (text) => {
+      const safe = terminalGuard(text, options.style.enabled);
+      streams.output.write(safe.endsWith("\n") ? safe : `${safe}\n`);
+    },
     style: options.style,
     width: options.width,
     ascii: options.ascii,
@@ -112,8 +127,8 @@ export function streamFlowIO(
     choose: (message, choices, defaultValue, brief) =>
       withEsc((context) =>
         select({
-          message,
-          choices,
+          message: terminalText(message),
+          choices: shown(choices),
           default: defaultValue,
           pageSize: 10,
           // A help line of "" is dropped with the blank line above it.
@@ -121,10 +136,28 @@ export function streamFlowIO(
         }, context)
       ),
     tick: (message, choices) =>
-      withEsc((context) => checkbox({ message, choices, pageSize: 14, theme: tickTheme }, context)),
+      withEsc((context) =>
+        checkbox(
+          {
+            message: terminalText(message),
+            choices: shown(choices),
+            pageSize: 14,
+            theme: tickTheme,
+          },
+          context,
+        )
+      ),
     ask: (message, o = {}) =>
       withEsc((context) =>
-        input({ message, default: o.default, validate: o.validate, theme }, context)
+        input({
+          message: terminalText(message),
+          default: o.default,
+          validate: o.validate === undefined ? undefined : (text: string) => {
+            const verdict = o.validate!(text);
+            return verdict === true ? true : terminalText(verdict);
+          },
+          theme,
+        }, context)
       ),
   };
 }

@@ -23,6 +23,7 @@ import { progressBar } from "../progress.ts";
 import { renderGap } from "../render/gap_view.ts";
 import type { NumberStyle } from "../render/numbers.ts";
 import type { FlowIO } from "./flow_io.ts";
+import { forTerminal, terminalGuard, terminalText } from "../render/safe_text.ts";
 
 /** The flow's table as the model was fitted on it, and its path for the command line. */
 export interface TableSource {
@@ -134,7 +135,7 @@ export async function offerGapCheck(
     });
   } catch (error) {
     if (!(error instanceof OptionError || error instanceof DataError)) throw error;
-    io.say(io.style.warn(`! The gap check could not run: ${error.message}`));
+    io.say(io.style.warn(`! The gap check could not run: ${terminalGuard(error.message, false)}`));
     return null;
   } finally {
     bar.finish();
@@ -149,7 +150,7 @@ export async function offerGapCheck(
       "",
       ...wrapAnsi(io.style.dim(GAP_CAUTIONS), io.width).split("\n"),
       "",
-      ...renderGap(report, { style: io.style, width: io.width, numbers, brief: true }),
+      ...renderGap(forTerminal(report), { style: io.style, width: io.width, numbers, brief: true }),
       ...wrapAnsi(
         io.style.dim(
           "Saving a report at the end includes this check. Quartiles, the linear version and " +
@@ -158,7 +159,7 @@ export async function offerGapCheck(
         io.width,
       ).split("\n"),
       // Broken with shell line continuations, so it can be copied whole.
-      ...shellLines(command, io.width),
+      ...shellLines(terminalText(command), io.width),
     ].join("\n"),
   );
   return report;

@@ -32,6 +32,7 @@ import {
   type Profile,
   readForModel,
   readModelFile,
+  readTableText,
   rowProfile,
   sweepAnswer,
   sweepValues,
@@ -42,7 +43,8 @@ import {
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderCompare, renderResult, renderSweep } from "../render/answer_view.ts";
-import { cautionLines, jsonNumbers } from "../render/cautions.ts";
+import { cautionLines } from "../render/cautions.ts";
+import { forTerminal, jsonText, terminalGuard, terminalText } from "../render/safe_text.ts";
 import { gapMarkdown } from "../render/gap_view.ts";
 import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
@@ -89,7 +91,7 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
       ({ model, tableText, source } = await chooseAndFit(io, options));
     } catch (error) {
       if (!(error instanceof DataError || error instanceof OptionError)) throw error;
-      io.say(io.style.warn(`! ${error.message}`));
+      io.say(io.style.warn(`! ${terminalGuard(error.message, false)}`));
       io.say(io.style.dim("Choose again, or Ctrl-C to stop."));
     }
   }
@@ -124,7 +126,10 @@ async function chooseAndFit(
   if (start === "model") {
     const path = await io.ask("Path of the model file:", { validate: fileExists });
     model = await readModelFile(path);
-    io.say(style.dim(`Loaded ${path}: ${model.target.name}, ${model.rows.used} people.`));
+    io.say(style.dim(
+      `Loaded ${terminalText(path)}: ${terminalText(model.target.name)}, ` +
+        `${model.rows.used} people.`,
+    ));
     if (model.fileNotes?.some((n) => n.kind === "rebuildsPay")) {
       io.say(style.caution(REBUILDS_PAY_WARNING));
     }
@@ -139,15 +144,16 @@ async function chooseAndFit(
       label = "demo company (invented)";
     } else {
       const path = await io.ask("Path of the CSV file:", { validate: fileExists });
-      tableText = await Deno.readTextFile(path);
+      // Piece by piece, up to a stated size: a wrong path stops with a sentence.
+      tableText = await readTableText(path);
       readOptions = { file: path };
       label = path;
     }
     table = loadTable(tableText, readOptions);
 
     io.say(
-      renderSchemaBrief(describeSchema(table), {
-        file: label,
+      renderSchemaBrief(forTerminal(describeSchema(table)), {
+        file: terminalText(label),
         style,
         width: io.width,
         numbers: { locale: options.locale, currency: readOptions.currency },
@@ -181,7 +187,7 @@ async function chooseAndFit(
       [
         "",
         style.bold(`Fitted in ${model.seconds.toFixed(1)} s`),
-        ...renderModelSummary(model, {
+        ...renderModelSummary(forTerminal(model), {
           style,
           width: io.width,
           numbers: { locale: options.locale },
@@ -280,7 +286,7 @@ async function whatIfLoop(
   const whatIfs: CompareAnswer[] = [];
   let answer = estimateProfile(session, profile, 0.9);
   const showResult = () => {
-    const lines = renderResult(answer, result);
+    const lines = renderResult(forTerminal(answer), result);
     if (model.settings.allowProtected) {
       lines.push(io.style.caution("Caution: a protected attribute shapes this estimate."));
     }
@@ -289,7 +295,8 @@ async function whatIfLoop(
         1,
         0,
         io.style.dim(
-          `  ${built.person.id}'s pay in the table: ${formatPay(built.person.pay, money)}`,
+          `  ${terminalText(built.person.id)}'s pay in the table: ` +
+            formatPay(built.person.pay, money),
         ),
       );
     }
@@ -332,7 +339,7 @@ async function whatIfLoop(
         continue;
       }
       if (error instanceof DataError || error instanceof OptionError) {
-        io.say(io.style.warn(`! ${error.message}`));
+        io.say(io.style.warn(`! ${terminalGuard(error.message, false)}`));
         continue;
       }
       throw error;
@@ -358,7 +365,8 @@ async function whatIfLoop(
         if (profile[ladder] >= f.levels!.length - 1) {
           io.say(
             io.style.warn(
-              `${f.levels![profile[ladder]]} is the top ${f.name}: there is no promotion to show.`,
+              `${terminalText(f.levels![profile[ladder]])} is the top ${terminalText(f.name)}: ` +
+                `there is no promotion to show.`,
             ),
           );
           return;
@@ -368,7 +376,7 @@ async function whatIfLoop(
         changed = applySets(model, profile, [await editOne(io, model, profile)]).profile;
       }
       const what = compareAnswer(session, profile, changed, 0.9);
-      io.say(["", ...renderCompare(what, { ...view, compact: true })].join("\n"));
+      io.say(["", ...renderCompare(forTerminal(what), { ...view, compact: true })].join("\n"));
       whatIfs.push(what);
       history.push(profile);
       profile = changed;
@@ -379,15 +387,15 @@ async function whatIfLoop(
         levers(model).map((i) => ({ name: model.features[i].name, value: i })),
       );
       const sweep = sweepAnswer(session, profile, f, sweepValues(model, f, { steps: 12 }), 0.9);
-      io.say(["", ...renderSweep(sweep, view)].join("\n"));
+      io.say(["", ...renderSweep(forTerminal(sweep), view)].join("\n"));
     } else if (next === "keep") {
       const name = await io.ask("Name of this scenario:", {
         default: `scenario ${scenarios.length + 1}`,
       });
       scenarios.push({ name, answer });
-      io.say(io.style.dim(`Kept "${name}" (${scenarios.length} kept).`));
+      io.say(io.style.dim(`Kept "${terminalText(name)}" (${scenarios.length} kept).`));
     } else if (next === "list") {
-      io.say(renderScenarios(scenarios, money, io).join("\n"));
+      io.say(renderScenarios(forTerminal(scenarios), money, io).join("\n"));
     } else if (next === "undo") {
       profile = history.pop()!;
       answer = estimateProfile(session, profile, 0.9);
@@ -574,7 +582,9 @@ async function save(
     if (!force) return;
   }
   const { bytes } = await writeModelFile(path, model, force, "save");
-  io.say(io.style.dim(`Saved the model to ${path} (${(bytes / 1e6).toFixed(1)} MB).`));
+  io.say(
+    io.style.dim(`Saved the model to ${terminalText(path)} (${(bytes / 1e6).toFixed(1)} MB).`),
+  );
   const report = options.report ??
     await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
       default: "paygrove-report.md",
@@ -599,9 +609,11 @@ async function writeReport(
     force: true,
     option: "report",
   });
-  await writeFileAtomic(jsonPath, JSON.stringify(json, jsonNumbers, 2), {
+  await writeFileAtomic(jsonPath, jsonText(json), {
     force: true,
     option: "report",
   });
-  io.say(io.style.dim(`Wrote the report to ${path} and ${jsonPath}.`));
+  io.say(
+    io.style.dim(`Wrote the report to ${terminalText(path)} and ${terminalText(jsonPath)}.`),
+  );
 }

@@ -8,6 +8,7 @@
 
 import type { CompareAnswer, EstimateAnswer, Model } from "../../mod.ts";
 import { formatPay, formatPercent } from "../render/numbers.ts";
+import { forMarkdown } from "../render/safe_text.ts";
 
 /** A profile kept by name, with what the model said about it. */
 export interface Scenario {
@@ -22,7 +23,9 @@ const CAUTION = "These figures describe what the current pay structure does, not
   "unless the model allowed them. Defer to local law, counsel and licensed practice.";
 
 /**
- * The report as Markdown.
+ * The report as Markdown; every text from the data (names, levels, the
+ * scenario names typed, the file name) is written through
+ * {@linkcode forMarkdown}, shown as typed and never as markup.
  *
  * @example
  * ```ts ignore
@@ -31,14 +34,19 @@ const CAUTION = "These figures describe what the current pay structure does, not
  */
 export function reportMarkdown(
   model: Model,
-  scenarios: Scenario[],
-  whatIfs: CompareAnswer[] = [],
+  kept: Scenario[],
+  asked: CompareAnswer[] = [],
 ): string {
+  const { target, p, scenarios, whatIfs } = forMarkdown({
+    target: model.target.name,
+    p: model.provenance,
+    scenarios: kept,
+    whatIfs: asked,
+  });
   const money = { currency: model.target.money?.currency };
   const pay = (x: number | undefined) => (x === undefined ? "-" : formatPay(x, money));
-  const p = model.provenance;
   const lines = [
-    `# paygrove report: ${model.target.name}`,
+    `# paygrove report: ${target}`,
     "",
     `> ${CAUTION}`,
     "",

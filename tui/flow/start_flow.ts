@@ -7,10 +7,12 @@
 
 import { Command } from "@commander-js/extra-typings";
 import process from "node:process";
+import { assertCanWrite } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow } from "./guided_flow.ts";
 import { setAscii } from "../render/glyphs.ts";
+import { listenForStop } from "../stop_signals.ts";
 
 /** The committed demo table, relative to this module. */
 export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
@@ -38,6 +40,8 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     .parse(args, { from: "user" })
     .opts();
   setAscii(options.ascii ?? false);
+  // A report that could not be written is said now, not after the session.
+  if (options.report !== undefined) await assertCanWrite(options.report, true, "--report");
   if (!Deno.stdin.isTerminal()) {
     terminal.err(
       "paygrove: the guided flow needs a terminal to ask its questions, and standard input is " +
@@ -56,12 +60,9 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     },
   );
   // Ctrl-C while fitting (no question is being asked, so the terminal is
-  // in its normal mode and sends a signal): say so, as at a question.
-  const onInterrupt = () => {
-    io.say("\nStopped. Nothing more was written.");
-    Deno.exit(130);
-  };
-  Deno.addSignalListener("SIGINT", onInterrupt);
+  // in its normal mode and sends a signal), SIGTERM or SIGHUP: a write in
+  // progress is undone; said as at a question.
+  const stopListening = listenForStop(() => io.say("\nStopped. Nothing more was written."));
   try {
     await guidedFlow(io, {
       demoPath: DEMO_TABLE,
@@ -77,7 +78,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     }
     throw error;
   } finally {
-    Deno.removeSignalListener("SIGINT", onInterrupt);
+    stopListening();
   }
   return 0;
 }

@@ -6,6 +6,7 @@
 
 import wrapAnsi from "wrap-ansi";
 import { GAP_CAUTIONS, type Provenance, type TableProvenance } from "../../mod.ts";
+import { forTerminal, jsonText } from "./safe_text.ts";
 import type { Style } from "./style.ts";
 
 /** The usual cautions, wrapped to the width. */
@@ -57,8 +58,9 @@ export function withCautions(
  * How the model commands print an answer: one JSON document with `--json`,
  * else the rendered lines with the cautions and the provenance.
  *
- * @param json The `--json` document.
- * @param render The text lines, drawn only when text is asked for.
+ * @param json The `--json` document (written with {@linkcode jsonText}).
+ * @param render The text lines, drawn only when text is asked for, from
+ * documents passed through {@linkcode forTerminal}.
  */
 export function printAnswer(
   terminal: { out(text: string): void; style: Style; width: number },
@@ -68,16 +70,10 @@ export function printAnswer(
   render: () => string[],
 ): void {
   if (asJson) {
-    terminal.out(
-      JSON.stringify(
-        json,
-        jsonNumbers,
-        2,
-      ),
-    );
+    terminal.out(jsonText(json));
     return;
   }
-  terminal.out(withCautions(render(), provenance, terminal.style, terminal.width));
+  terminal.out(withCautions(render(), forTerminal(provenance), terminal.style, terminal.width));
 }
 
 /**
@@ -111,7 +107,7 @@ export function printTableAnswer(
   after: string[] = [],
 ): void {
   if (asJson) {
-    terminal.out(JSON.stringify({ ...doc, cautions: GAP_CAUTIONS }, jsonNumbers, 2));
+    terminal.out(jsonText({ ...doc, cautions: GAP_CAUTIONS }));
     return;
   }
   const { style, width } = terminal;
@@ -119,13 +115,11 @@ export function printTableAnswer(
     [
       ...render(),
       ...wrapAnsi(style.dim(GAP_CAUTIONS), width).split("\n"),
-      ...wrapAnsi(style.dim(tableProvenanceLine(doc.provenance)), width).split("\n"),
+      ...wrapAnsi(style.dim(tableProvenanceLine(forTerminal(doc.provenance))), width).split("\n"),
       ...after,
     ].join("\n"),
   );
 }
 
-/** JSON.stringify replacer: NaN and infinities, which JSON lacks, become null. */
-export function jsonNumbers(_key: string, value: unknown): unknown {
-  return typeof value === "number" && !Number.isFinite(value) ? null : value;
-}
+// Kept here too for the modules that import it from here.
+export { jsonNumbers } from "./safe_text.ts";

@@ -21,6 +21,7 @@ import type { Style } from "./style.ts";
 import { isAscii } from "./glyphs.ts";
 import { alignColumns } from "./text_columns.ts";
 import { linearVersionSentence } from "./aliased_terms.ts";
+import { forMarkdown } from "./safe_text.ts";
 
 /** How a gap report is drawn. */
 export interface GapView {
@@ -396,14 +397,19 @@ function quartileNote(privacyMin: number): string {
     `the lowest and highest pay are not shown, as they are one person's.`;
 }
 
-/** The gap report as a Markdown document, cautions and provenance included. */
-export function gapMarkdown(report: GapReport, numbers: NumberStyle, created: string): string {
+/**
+ * The gap report as a Markdown document, cautions and provenance included.
+ * Every text of the report (group, category and factor names, notes, the
+ * file name) is written through {@linkcode markdownText}: shown as typed,
+ * never as HTML, a link or a table cell break.
+ */
+export function gapMarkdown(data: GapReport, numbers: NumberStyle, created: string): string {
+  const report = forMarkdown(data);
   const md: string[] = [];
-  const cell = (s: string) => s.replace(/\|/g, "\\|");
   const table = (rows: string[][]) => [
-    `| ${rows[0].map(cell).join(" | ")} |`,
+    `| ${rows[0].join(" | ")} |`,
     `|${rows[0].map((_, j) => (j === 0 ? " --- " : " ---: ")).join("|")}|`,
-    ...rows.slice(1).map((r) => `| ${r.map(cell).join(" | ")} |`),
+    ...rows.slice(1).map((r) => `| ${r.join(" | ")} |`),
   ];
   md.push(
     `# Pay gap by ${report.group}`,

@@ -1,0 +1,61 @@
+/**
+ * The signals that stop paygrove (Ctrl-C's SIGINT, SIGTERM from a process
+ * manager or `kill`, SIGHUP when the terminal closes), each handled alike:
+ * the temporary files of writes in progress are removed, one line says
+ * what happened, and the exit status is 128 + the signal's number (130,
+ * 143, 129), as shells report a process the signal ended.
+ *
+ * @module
+ */
+
+import { removePendingFiles } from "../mod.ts";
+
+/** The stop signals, with their numbers and how a person knows them. */
+export const STOP_SIGNALS = [
+  { signal: "SIGINT", number: 2, name: "Ctrl-C" },
+  { signal: "SIGTERM", number: 15, name: "SIGTERM" },
+  { signal: "SIGHUP", number: 1, name: "SIGHUP" },
+] as const;
+
+/**
+ * Listens for the stop signals: on one, removes the pending temporary
+ * files, calls `say` with the signal's name (a failure to say it, as on a
+ * closed terminal, is ignored) and exits with 128 + its number.
+ *
+ * @returns A function that stops listening.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { listenForStop } from "./stop_signals.ts";
+ * const stop = listenForStop(() => {});
+ * assert(typeof stop === "function");
+ * stop();
+ * ```
+ */
+export function listenForStop(
+  say: (name: string) => void,
+  exit: (status: number) => void = Deno.exit,
+): () => void {
+  const added: [Deno.Signal, () => void][] = [];
+  for (const { signal, number, name } of STOP_SIGNALS) {
+    const handler = () => {
+      removePendingFiles();
+      try {
+        say(name);
+      } catch {
+        // Nowhere left to say it (the terminal has gone).
+      }
+      exit(128 + number);
+    };
+    try {
+      Deno.addSignalListener(signal, handler);
+      added.push([signal, handler]);
+    } catch {
+      // Not a signal of this platform (Windows has SIGINT only).
+    }
+  }
+  return () => {
+    for (const [signal, handler] of added) Deno.removeSignalListener(signal, handler);
+  };
+}
