@@ -21,6 +21,7 @@ import {
   typicalProfile,
 } from "../mod.ts";
 import { PROTECTED_CAUTION } from "./commands/fit.ts";
+import { localeTag } from "./table_flags.ts";
 import type { Terminal } from "./terminal.ts";
 
 /** Parsed profile options. */
@@ -55,7 +56,7 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
     .option("--row <id>", "the identifier of the row of --table to start from")
     .option("--set <column=value>", "set an attribute of the profile (repeatable)", collect)
     .option("--coverage <share>", "coverage of the intervals", coverage, 0.9)
-    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option("--json", "print one JSON document on stdout instead of text") as unknown as Command<
       A,
       O & ProfileFlags

@@ -78,6 +78,9 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
   const dropped: DroppedColumn[] = [];
   let chosen: Column[];
   if (options.features !== undefined) {
+    if (options.features.length === 0) {
+      throw new OptionError("the list of features is empty: name at least one column");
+    }
     chosen = options.features.map((name) => column(name, "--features"));
     for (const c of chosen) {
       if (c === targetColumn) throw new OptionError(`--features: "${c.name}" is the target`);

@@ -151,6 +151,10 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     drop: options.drop,
     allowProtected: options.allowProtected,
   });
+  if (encoded.features.length === 0) {
+    const why = dropped.map((d) => `${d.name} (${d.reason})`).join(", ");
+    throw new OptionError(`no attributes are left to learn from${why ? `: left out ${why}` : ""}`);
+  }
   if (encoded.rows < 2 * minLeaf) {
     throw new OptionError(
       `only ${encoded.rows} rows have "${options.target}"; at least ${2 * minLeaf} are needed ` +

@@ -17,7 +17,7 @@ import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
-import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
+import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { jsonNumbers, withCautions } from "../render/cautions.ts";
 
 /** Parses a whole number of at least `min`. */
@@ -124,7 +124,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
     .option(
       "--features <columns>",
       "the attributes to use, comma-separated (default: all usable)",
-      list,
+      columnList,
     )
     .option("--drop <columns>", "attributes to leave out, comma-separated", list)
     .option(

@@ -22,7 +22,7 @@ import { progressBar } from "../progress.ts";
 import { gapMarkdown, renderGap } from "../render/gap_view.ts";
 import { printTableAnswer } from "../render/cautions.ts";
 import type { Terminal } from "../terminal.ts";
-import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
+import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 
 /**
@@ -75,7 +75,11 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       "categories of workers: combinations of these columns, e.g. job_family,level",
       list,
     )
-    .option("--features <columns>", "the factors to adjust for (default: all usable)", list)
+    .option(
+      "--features <columns>",
+      "the factors to adjust for (default: all usable)",
+      columnList,
+    )
     .option("--drop <columns>", "factors to leave out, comma-separated", list)
     .option(
       "--where <column=value>",

@@ -14,6 +14,7 @@ import {
   renderTreeOutline,
 } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
+import { localeTag } from "../table_flags.ts";
 import type { Terminal } from "../terminal.ts";
 import { jsonNumbers, provenanceLine } from "../render/cautions.ts";
 
@@ -69,7 +70,7 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
     .argument("<model>", "model file written by paygrove fit")
     .option("--tree", "also draw the reference tree as an outline")
     .option("--importance", "also show importance as bars")
-    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
       const model = await readModelFile(file);

@@ -27,7 +27,7 @@ import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../ren
 import type { Style } from "../render/style.ts";
 import { alignColumns } from "../render/text_columns.ts";
 import type { Terminal } from "../terminal.ts";
-import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
+import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 import { shareOption } from "./gap.ts";
 
@@ -171,7 +171,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
     .option(
       "--features <columns>",
       "the factors people are compared on (default: all usable)",
-      list,
+      columnList,
     )
     .option("--drop <columns>", "factors to leave out, comma-separated", list)
     .option(

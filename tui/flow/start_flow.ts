@@ -8,6 +8,7 @@
 import { Command } from "@commander-js/extra-typings";
 import process from "node:process";
 import type { Terminal } from "../terminal.ts";
+import { localeTag } from "../table_flags.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow } from "./guided_flow.ts";
 import { setAscii } from "../render/glyphs.ts";
@@ -26,7 +27,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       "--report <file>",
       "write the session's scenarios to FILE (Markdown) and a .json beside it",
     )
-    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option("--trees <n>", "trees in the ensemble", (t: string) => Number(t))
     .exitOverride()
     .configureOutput({
