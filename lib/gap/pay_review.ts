@@ -15,7 +15,7 @@
  */
 
 import { makeDataset } from "../dataset/make_dataset.ts";
-import { OptionError } from "../errors.ts";
+import { DataError, OptionError } from "../errors.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
 import {
   groupedRange,
@@ -166,6 +166,15 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
   if (encoded.features.length === 0) {
     throw new OptionError("no factors are left to compare people on; name them with --features");
   }
+  // Comparable people are those sharing a leaf: with fewer than two leaves'
+  // worth of rows no tree can split, and every estimate would be the mean.
+  const minLeaf = Math.max(options.minLeaf ?? 5, 1);
+  if (encoded.rows < 2 * minLeaf) {
+    throw new DataError(
+      `only ${encoded.rows} ${encoded.rows === 1 ? "person has" : "people have"} pay; a review ` +
+        `needs at least ${2 * minLeaf} (two groups of the fewest people in a leaf, ${minLeaf})`,
+    );
+  }
   const logPay = toFitScale(encoded.target.values, "log", options.target);
   const dataset = { ...encoded, target: { ...encoded.target, values: logPay } } as typeof encoded;
   const { ensemble } = await fitDefaultEnsemble(dataset, {
@@ -173,7 +182,9 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     seed,
     foldSeed: seed,
     workers: options.workers,
-    grow: { minLeaf: Math.max(options.minLeaf ?? 5, 1) },
+    // Each fold of the reference tree's cross-validation holds at least one person.
+    folds: Math.min(10, encoded.rows),
+    grow: { minLeaf },
     onProgress: options.onProgress,
   });
   const oob = ensemble.oob;

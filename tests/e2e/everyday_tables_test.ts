@@ -93,3 +93,56 @@ Deno.test("fit with every attribute dropped says so instead of writing a model w
   assert.match(result.stderr, /no attributes are left to learn from/);
   await assert.rejects(Deno.stat(`${dir}/none.json`));
 });
+
+/** A small table of numbers only (so that every fit path applies), `rows` long. */
+async function smallTable(name: string, rows: number): Promise<string> {
+  const path = `${dir}/${name}`;
+  const lines = ["id,years,rating,pay"];
+  for (let i = 0; i < rows; i++) {
+    lines.push(
+      `E${i},${(i * 7) % 23},${1 + (i % 5)},${40000 + 1500 * ((i * 7) % 23) + 900 * (i % 5)}`,
+    );
+  }
+  await Deno.writeTextFile(path, lines.join("\n") + "\n");
+  return path;
+}
+
+Deno.test("review on a table too small to compare anyone says how many people it needs", async () => {
+  const two = await smallTable("two.csv", 2);
+  const nine = await smallTable("nine.csv", 9);
+  for (const table of [two, nine]) {
+    const result = await paygrove(["review", table, "--target", "pay", "--trees", "10"]);
+    clean(result, 1, `review ${table}`);
+    assert.match(
+      result.stderr,
+      /only \d people have pay; a review needs at least 10 \(two groups of the fewest people in a leaf, 5\)/,
+    );
+  }
+  // Ten people: one split is possible, and the review runs (10 folds of one).
+  const ten = await smallTable("ten.csv", 10);
+  const result = await paygrove(["review", ten, "--target", "pay", "--trees", "10", "--json"]);
+  clean(result, 0, "review of 10 people");
+  assert.equal(JSON.parse(result.stdout).people.length, 10);
+});
+
+Deno.test("fit on fewer rows than folds uses one fold per row and says so", async () => {
+  const eight = await smallTable("eight.csv", 8);
+  const args = ["fit", eight, "--target", "pay", "--min-leaf", "3", "--privacy-min", "3"];
+  const text = await paygrove([...args, "--trees", "10", "--out", `${dir}/eight.json`]);
+  clean(text, 0, "fit of 8 rows, 10 folds asked");
+  assert.match(
+    text.stdout,
+    /Cross-validation used 8 folds, not 10: the table has 8 rows, and each fold needs at least one\./,
+  );
+  assert.match(text.stdout, /8-fold CV/);
+  const json = await paygrove([...args, "--folds", "20", "--out", `${dir}/eight20.json`, "--json"]);
+  clean(json, 0, "fit of 8 rows, 20 folds asked");
+  assert.deepEqual(JSON.parse(json.stdout).folds, { requested: 20, used: 8 });
+  // Below two leaves of --min-leaf rows there is no split to choose: refused.
+  const five = await smallTable("five.csv", 5);
+  const refused = await paygrove(
+    [...args, "--out", `${dir}/five.json`].map((a) => a === eight ? five : a),
+  );
+  clean(refused, 2, "fit of 5 rows");
+  assert.match(refused.stderr, /only 5 rows have "pay"; at least 6 are needed for one split/);
+});

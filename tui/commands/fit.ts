@@ -202,8 +202,11 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         progress.finish();
       }
       const bytes = await writeModelFile(flags.out, model, flags.force ?? false);
+      const folds = { requested: flags.folds, used: model.settings.folds };
       if (flags.json) {
-        terminal.out(JSON.stringify(fitJson(model, flags.out, bytes), jsonNumbers, 2));
+        terminal.out(
+          JSON.stringify({ ...fitJson(model, flags.out, bytes), folds }, jsonNumbers, 2),
+        );
         return;
       }
       const style = terminal.style;
@@ -222,6 +225,15 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
               ),
               terminal.width,
             ).split("\n"),
+            ...(folds.used < folds.requested
+              ? wrapAnsi(
+                style.warn(
+                  `Cross-validation used ${folds.used} folds, not ${folds.requested}: the table ` +
+                    `has ${model.rows.used} rows, and each fold needs at least one.`,
+                ),
+                terminal.width,
+              ).split("\n")
+              : []),
             ...renderModelSummary(model, view),
           ],
           model.provenance,
