@@ -19,6 +19,7 @@ import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { jsonNumbers, withCautions } from "../render/cautions.ts";
+import { droppedReason } from "../data_check.ts";
 
 /** Parses a whole number of at least `min`. */
 export function wholeNumber(min: number) {
@@ -234,7 +235,10 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
                 terminal.width,
               ).split("\n")
               : []),
-            ...renderModelSummary(model, view),
+            ...renderModelSummary(
+              { ...model, dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })) },
+              view,
+            ),
           ],
           model.provenance,
           style,

@@ -9,6 +9,7 @@ import { describeSchema, loadTableFile } from "../../mod.ts";
 import { renderSchema } from "../render/schema_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { loadOptions, withTableFlags } from "../table_flags.ts";
+import { withWordedNotes } from "../data_check.ts";
 
 /**
  * Builds the `schema` command.
@@ -32,7 +33,7 @@ export function schemaCommand(terminal: Terminal): CommandUnknownOpts {
         terminal.out(JSON.stringify({ file, ...summary }, null, 2));
         return;
       }
-      const lines = renderSchema(summary, {
+      const lines = renderSchema(withWordedNotes(summary), {
         file,
         style: terminal.style,
         width: terminal.width,

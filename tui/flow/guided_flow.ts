@@ -24,6 +24,7 @@ import {
   isPayName,
   loadTable,
   type LoadTableOptions,
+  MAX_SPLIT_LEVELS,
   type Model,
   type ModelSession,
   openModel,
@@ -51,6 +52,7 @@ import { renderSchemaBrief } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 import { offerGapCheck, type TableSource } from "./gap_step.ts";
+import { droppedReason } from "../data_check.ts";
 
 /** Settings of a flow run. */
 export interface FlowOptions {
@@ -177,11 +179,10 @@ async function chooseAndFit(
       [
         "",
         style.bold(`Fitted in ${model.seconds.toFixed(1)} s`),
-        ...renderModelSummary(model, {
-          style,
-          width: io.width,
-          numbers: { locale: options.locale },
-        }),
+        ...renderModelSummary(
+          { ...model, dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })) },
+          { style, width: io.width, numbers: { locale: options.locale } },
+        ),
         style.dim(
           "The tree beside the ensemble is the reference tree whose decision path you will see; " +
             "the ensemble averages many such trees for steadier estimates.",
@@ -218,19 +219,33 @@ async function chooseColumns(
     suggested,
   );
   const candidates = usable.filter((c) => c.name !== target);
+  // Unticked by default, with the reason: protected attributes, and level
+  // columns the default features leave out (identifier-like, too many levels).
+  const why = (c: Table["columns"][number]): string | undefined => {
+    if (c.protected) return "protected attribute; unticked by default";
+    if (c.type !== "categorical" && c.type !== "ordinal") return undefined;
+    if (c.identifierLike) {
+      return `looks like an identifier: ${c.identifierLike.levels} levels in ` +
+        `${c.identifierLike.rows} rows`;
+    }
+    if (c.type === "categorical" && c.levels.length > MAX_SPLIT_LEVELS) {
+      return `${c.levels.length} levels; at most ${MAX_SPLIT_LEVELS} can be used`;
+    }
+    return undefined;
+  };
   const features = await io.tick(
     "Which attributes may explain it? (space to tick, enter to go on)",
     candidates.map((c) => ({
-      name: c.protected ? `${c.name} (protected attribute; unticked by default)` : c.name,
+      name: why(c) ? `${c.name} (${why(c)})` : c.name,
       value: c.name,
-      checked: !c.protected,
+      checked: why(c) === undefined,
     })),
   );
   if (features.length === 0) {
     io.say(io.style.warn("No attribute ticked: every usable non-protected attribute is used."));
     return {
       target,
-      features: candidates.filter((c) => !c.protected).map((c) => c.name),
+      features: candidates.filter((c) => why(c) === undefined).map((c) => c.name),
       allowProtected: false,
     };
   }
