@@ -3,6 +3,7 @@
 // tags in the wrong form. Each case runs the real CLI on a table written
 // here and must end in 0, 1 or 2 with one clear line, never 70 or a stack.
 import assert from "node:assert/strict";
+import { type FlatTree, readModelFile, writeModelFile } from "../../mod.ts";
 import { paygrove, ROOT } from "./_cli.ts";
 
 const dir = await Deno.makeTempDir({ prefix: "paygrove-everyday-" });
@@ -145,4 +146,63 @@ Deno.test("fit on fewer rows than folds uses one fold per row and says so", asyn
   );
   clean(refused, 2, "fit of 5 rows");
   assert.match(refused.stderr, /only 5 rows have "pay"; at least 6 are needed for one split/);
+});
+
+/**
+ * A chain of `splits` splits on years_experience (each peels off one leaf),
+ * put in place of a fitted model's reference tree: a tree as deep as a file
+ * can hold, which walking by recursion overflowed at 20,000 nodes.
+ */
+async function deepModel(splits: number): Promise<string> {
+  const base = await readModelFile(model);
+  const feature = base.features.findIndex((f) => f.name === "years_experience");
+  const n = 2 * splits + 1;
+  const tree: FlatTree = {
+    task: "regression",
+    width: 1,
+    nodeCount: n,
+    feature: new Int32Array(n).fill(-1),
+    threshold: new Float64Array(n).fill(NaN),
+    maskOffset: new Int32Array(n).fill(-1),
+    masks: new Uint32Array(0),
+    maskWords: base.reference.tree.maskWords,
+    left: new Int32Array(n).fill(-1),
+    right: new Int32Array(n).fill(-1),
+    missingLeft: new Uint8Array(n),
+    value: Float64Array.from({ length: n }, (_, i) => Math.log(40000 + i)),
+    rows: Int32Array.from({ length: n }, (_, i) => 2000 - Math.floor(i / 2) % 1000),
+    weight: Float64Array.from({ length: n }, (_, i) => 2000 - Math.floor(i / 2) % 1000),
+    impurity: new Float64Array(n).fill(0.01),
+  };
+  for (let j = 0; j < splits; j++) {
+    const node = 2 * j;
+    tree.feature[node] = feature;
+    tree.threshold[node] = j / 1000;
+    tree.left[node] = node + 1;
+    tree.right[node] = node + 2;
+  }
+  const path = `${dir}/deep_${splits}.json`;
+  await writeModelFile(path, {
+    ...base,
+    reference: { ...base.reference, tree, leaves: splits + 1, depth: splits },
+  }, true);
+  return path;
+}
+
+Deno.test("inspect --tree walks a 20,001-node tree without recursion", async () => {
+  const deep = await deepModel(10000);
+  const text = await paygrove(["inspect", deep, "--tree"]);
+  clean(text, 0, "inspect --tree");
+  const lines = text.stdout.split("\n");
+  // Every node drawn once, indentation capped so the outline stays readable.
+  assert.equal(lines.filter((l) => /years_experience <= /.test(l)).length, 10000);
+  assert.ok(Math.max(...lines.map((l) => l.length)) <= 100, "no line wider than the screen");
+  assert.match(text.stdout, /\(depth 10000\) years_experience > 9\.999/);
+  const json = await paygrove(["inspect", deep, "--tree", "--json"]);
+  clean(json, 0, "inspect --tree --json");
+  const outline = JSON.parse(json.stdout).referenceTree.outline;
+  assert.equal(outline.length, 20001);
+  assert.deepEqual(outline[0].children, [1, 2]);
+  assert.equal(outline[20000].depth, 10000);
+  assert.equal(outline[20000].parent, 19998);
 });
