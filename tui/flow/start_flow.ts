@@ -17,8 +17,10 @@ import { setAscii } from "../render/glyphs.ts";
 export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
 
 /**
- * Runs the guided flow; returns the exit status (0 also when the person
- * stops it with Ctrl-C; 2 without a terminal to talk to).
+ * Runs the guided flow; returns the exit status: 0 when the person quits
+ * (the menu's Quit, or Esc at a question), 130 when they stop it with
+ * Ctrl-C (as every command does, and as a shell reports a process ended by
+ * SIGINT), 2 without a terminal to talk to.
  */
 export async function startFlow(args: string[], terminal: Terminal): Promise<number> {
   const options = new Command("paygrove")
@@ -71,10 +73,12 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       trees: options.trees,
     });
   } catch (error) {
-    // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and stop.
-    if (["ExitPromptError", "AbortPromptError"].includes((error as Error).name)) {
+    // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and
+    // stop. Ctrl-C (ExitPromptError) is an interruption, Esc a way to leave.
+    const name = (error as Error).name;
+    if (name === "ExitPromptError" || name === "AbortPromptError") {
       io.say("\nStopped. Nothing more was written.");
-      return 0;
+      return name === "ExitPromptError" ? 130 : 0;
     }
     throw error;
   } finally {
