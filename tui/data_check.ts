@@ -7,7 +7,20 @@
  * @module
  */
 
-import type { DroppedColumn, SchemaSummary } from "../mod.ts";
+import wrapAnsi from "wrap-ansi";
+import {
+  DataError,
+  type DroppedColumn,
+  type ImplausiblePay,
+  ImplausiblePayError,
+  implausibleRule,
+  type QualityWarning,
+  type SchemaSummary,
+  type ScreenedTable,
+  screenPay,
+  type Table,
+} from "../mod.ts";
+import type { Style } from "./render/style.ts";
 
 function count(n: number): string {
   return n.toLocaleString("en-US");
@@ -77,4 +90,171 @@ export function droppedReason(dropped: DroppedColumn): string {
     return `looks like an identifier: ${count(detail.levels)} levels in ${count(detail.rows)} rows`;
   }
   return dropped.reason;
+}
+
+/** How many data-quality warnings the brief block quotes in full. */
+const QUOTED_WARNINGS = 2;
+
+/**
+ * The data-quality warnings of a table in brief, for every command that
+ * reads one: how many, the first two in full, and `paygrove schema` for
+ * the rest. No lines when there are none.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { dataWarningLines } from "./data_check.ts";
+ * import { makeStyle } from "./render/style.ts";
+ * const lines = dataWarningLines(
+ *   [{ kind: "duplicate-row", count: 1, lines: [4], message: "1 row repeats an earlier row (line 4)" }],
+ *   "t.csv",
+ *   { style: makeStyle(false), width: 80 },
+ * );
+ * assert.equal(
+ *   lines.join(" "),
+ *   "! 1 data-quality warning: 1 row repeats an earlier row (line 4). paygrove schema t.csv lists " +
+ *     "them with line numbers.",
+ * );
+ * ```
+ */
+export function dataWarningLines(
+  warnings: readonly QualityWarning[],
+  file: string,
+  view: { style: Style; width: number },
+): string[] {
+  if (warnings.length === 0) return [];
+  const n = warnings.length;
+  const quoted = warnings.slice(0, QUOTED_WARNINGS).map((w) => w.message).join("; ");
+  const more = n > QUOTED_WARNINGS ? `; and ${n - QUOTED_WARNINGS} more` : "";
+  const text = `! ${n} data-quality warning${n === 1 ? "" : "s"}: ${quoted}${more}. ` +
+    `paygrove schema ${file} lists them with line numbers.`;
+  return wrapAnsi(text, view.width, { hard: true }).split("\n").map(view.style.warn);
+}
+
+/**
+ * Checks the pay column as fit, gap and review do: implausible pay stops
+ * the command with its line, unless `--drop-implausible` leaves it out.
+ *
+ * @param moneyOnly Screen only a money column (fit's target may be a rating).
+ */
+export function screenPayFlags(
+  table: Table,
+  target: string,
+  dropImplausible: boolean,
+  moneyOnly = false,
+): ScreenedTable {
+  try {
+    return screenPay(table, target, { leaveOut: dropImplausible, moneyOnly });
+  } catch (error) {
+    if (!(error instanceof ImplausiblePayError)) throw error;
+    throw new DataError(
+      `${error.message}; correct the table, or pass --drop-implausible to leave such rows out`,
+      error.location,
+    );
+  }
+}
+
+/**
+ * The sentence on rows left out by `--drop-implausible`, for every output;
+ * `how` says how they came to be left out (the flow asks instead).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { leftOutSentence } from "./data_check.ts";
+ * assert.equal(
+ *   leftOutSentence({
+ *     kind: "implausible-pay", column: "pay", median: 61500, count: 1, rows: [1], lines: [3],
+ *     values: [1e308],
+ *   }),
+ *   '1 row left out (--drop-implausible): its "pay" is more than 10,000 times from the median ' +
+ *     "61,500 either way, beyond 10^15, or not finite (line 3).",
+ * );
+ * ```
+ */
+export function leftOutSentence(
+  leftOut: ImplausiblePay,
+  how = " (--drop-implausible)",
+): string {
+  const many = leftOut.count > 1;
+  const shown = leftOut.lines.map(String);
+  const lines = leftOut.count > shown.length
+    ? `${shown.join(", ")} and ${leftOut.count - shown.length} more`
+    : shown.length === 1
+    ? shown[0]
+    : `${shown.slice(0, -1).join(", ")} and ${shown.at(-1)}`;
+  return `${leftOut.count} row${many ? "s" : ""} left out${how}: ` +
+    `${many ? "their" : "its"} "${leftOut.column}" is ${implausibleRule(leftOut.median)} ` +
+    `(line${many ? "s" : ""} ${lines}).`;
+}
+
+/** The rows left out, for --json: column, count and the first lines (no values). */
+export function leftOutJson(
+  leftOut: ImplausiblePay | null,
+): { column: string; count: number; lines: number[] } | null {
+  return leftOut === null
+    ? null
+    : { column: leftOut.column, count: leftOut.count, lines: leftOut.lines };
+}
+
+/**
+ * The brief block every table-reading command prints before its result:
+ * rows left out by --drop-implausible, then the data-quality warnings.
+ */
+export function dataCheckLines(
+  table: Table,
+  leftOut: ImplausiblePay | null,
+  file: string,
+  view: { style: Style; width: number },
+): string[] {
+  const lines: string[] = [];
+  if (leftOut !== null) {
+    lines.push(
+      ...wrapAnsi(leftOutSentence(leftOut), view.width, { hard: true }).split("\n").map(
+        view.style.warn,
+      ),
+    );
+  }
+  lines.push(...dataWarningLines(table.warnings, file, view));
+  return lines.length > 0 ? [...lines, ""] : [];
+}
+
+// Figures that are NaN by design: permutation importance where it is not
+// measured (class targets); JSON shows them as null, the text as "-".
+const NOT_MEASURED = new Set(["permutation", "permutationSd"]);
+
+/**
+ * Throws a DataError when a figure about to be shown or written is
+ * infinite, or NaN where a number is due: the last guard after the pay
+ * screen, for values too large (or too alike) to compute with that no
+ * earlier check caught. Walks the document with an explicit stack.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { assertFiniteFigures } from "./data_check.ts";
+ * assertFiniteFigures({ a: [1, null, { permutation: NaN }] }, "pay");
+ * assert.throws(
+ *   () => assertFiniteFigures({ quality: { rmse: Infinity } }, "pay"),
+ *   /a figure came out infinite or undefined \(quality\.rmse\)/,
+ * );
+ * ```
+ */
+export function assertFiniteFigures(doc: unknown, column: string): void {
+  const stack: [unknown, string, string][] = [[doc, "", ""]];
+  while (stack.length > 0) {
+    const [value, path, key] = stack.pop()!;
+    if (typeof value === "number") {
+      if (Number.isFinite(value) || (Number.isNaN(value) && NOT_MEASURED.has(key))) continue;
+      throw new DataError(
+        `a figure came out infinite or undefined (${path}): the values of "${column}" are too ` +
+          `large, or too alike, to compute with; check the column (paygrove schema shows its range)`,
+        { column },
+      );
+    }
+    if (value === null || typeof value !== "object" || ArrayBuffer.isView(value)) continue;
+    for (const [k, v] of Object.entries(value)) {
+      stack.push([v, path === "" ? k : `${path}.${k}`, k]);
+    }
+  }
 }

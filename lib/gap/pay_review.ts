@@ -36,6 +36,9 @@ import {
 import { suppressSmallGroups } from "./suppress.ts";
 import { FEW_PEOPLE, WEAK_MODEL_R2 } from "./gap_check.ts";
 
+/** Relative tolerance of the comparison of pay with its range's ends. */
+export const RANGE_TOLERANCE = 1e-9;
+
 /** Options of {@linkcode payReview}. */
 export interface ReviewOptions {
   /** The pay column. */
@@ -81,7 +84,10 @@ export interface ReviewPerson {
   low: number | null;
   /** High end. */
   high: number | null;
-  /** (pay - low) / (high - low): 0 at the low end, 1 at the high end. */
+  /**
+   * (pay - low) / (high - low): 0 at the low end, 1 at the high end; null
+   * without an estimate, or when the range has no width.
+   */
   position: number | null;
   /** Under, within or over the range. */
   status: ReviewStatus | null;
@@ -213,7 +219,16 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     const range = groupedRange(oob[r], groups, coverage);
     const low = Math.exp(range.low);
     const high = Math.exp(range.high);
-    const status: ReviewStatus = pay < low ? "under" : pay > high ? "over" : "within";
+    // exp(log(pay)) differs from pay in its last bits, so the range's ends
+    // are compared with a relative tolerance: on a pay scale paid exactly
+    // (everyone at a level earns the same) the range is one value, and the
+    // people paid it are within it, not a rounding error under or over.
+    const tolerance = RANGE_TOLERANCE * high;
+    const status: ReviewStatus = pay < low - tolerance
+      ? "under"
+      : pay > high + tolerance
+      ? "over"
+      : "within";
     return {
       id,
       line: filtered.lines[tableRow],
@@ -221,7 +236,8 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
       estimate: Math.exp(oob[r]),
       low,
       high,
-      position: (pay - low) / (high - low),
+      // A range of no width has no positions in it.
+      position: high - low > tolerance ? (pay - low) / (high - low) : null,
       status,
       shortfall: status === "under" ? low - pay : 0,
     };

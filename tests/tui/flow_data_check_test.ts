@@ -35,3 +35,42 @@ Deno.test("an identifier-like column is shown unticked with the reason and left 
 
   await Deno.remove(dir, { recursive: true });
 });
+
+Deno.test("implausible pay in the flow: said with its line, left out only when the person says so", async () => {
+  const dir = await Deno.makeTempDir();
+  const path = `${dir}/absurd.csv`;
+  await Deno.writeTextFile(
+    path,
+    commentTable((r) => (r === 10 ? "1e308" : String(40000 + 900 * (r % 17)))),
+  );
+  // First "No": the first question comes again; then "Yes".
+  const driver = flowDriver();
+  const report = `${dir}/report.md`;
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: 10, workers: 1, report });
+  await driver.when("What do you want to work with?", KEY.down, KEY.enter);
+  await driver.when("Path of the CSV file:", path, KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when('"pay": line 12 has 1e+308; no plausible pay table holds such a value');
+  await driver.when("Leave 1 row out and go on?", KEY.down, KEY.enter);
+  await driver.when("What do you want to work with?", KEY.down, KEY.enter);
+  await driver.when("Path of the CSV file:", path, KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Leave 1 row out and go on?", KEY.enter);
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  const screen = driver.screen().replace(/\s+/g, " ");
+  assert.match(screen, /Choose again, or Ctrl-C to stop\./);
+  assert.match(screen, /Rows: 99 used/);
+  const said =
+    /1 row left out, as you chose: its "pay" is more than 10,000 times from the median [\d,.]+ either way, beyond 10\^15, or not finite \(line 12\)\./;
+  assert.match(screen, said);
+  assert.doesNotMatch(screen, /∞|Infinity|NaN/);
+  // The session report says it too.
+  assert.match((await Deno.readTextFile(report)).replace(/\s+/g, " "), said);
+  const json = JSON.parse(await Deno.readTextFile(`${dir}/report.json`));
+  assert.deepEqual(json.leftOutImplausible, { column: "pay", count: 1, lines: [12] });
+  await Deno.remove(dir, { recursive: true });
+});

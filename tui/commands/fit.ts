@@ -19,7 +19,13 @@ import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { jsonNumbers, withCautions } from "../render/cautions.ts";
-import { droppedReason } from "../data_check.ts";
+import {
+  assertFiniteFigures,
+  dataCheckLines,
+  droppedReason,
+  leftOutJson,
+  screenPayFlags,
+} from "../data_check.ts";
 
 /** Parses a whole number of at least `min`. */
 export function wholeNumber(min: number) {
@@ -134,6 +140,11 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       collectWhere,
     )
     .option("--allow-protected", "allow protected attributes (sex, race, age...) as features")
+    .option(
+      "--drop-implausible",
+      "leave out rows whose pay no pay table holds (more than 10,000 times from the median, " +
+        "beyond 10^15, or not finite) instead of stopping",
+    )
     .addOption(
       new Option("--scale <scale>", "fit pay on its log (default for money) or raw scale")
         .choices(["log", "raw"] as const),
@@ -175,7 +186,15 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      const table = await readTable(file, options, progress);
+      const read = await readTable(file, options, progress);
+      // Implausible pay stops the fit (or is left out); a rating or score
+      // target is not pay and is not screened.
+      const { table, leftOut } = screenPayFlags(
+        read,
+        flags.target,
+        flags.dropImplausible ?? false,
+        true,
+      );
       if (flags.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
       }
@@ -202,11 +221,18 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       } finally {
         progress.finish();
       }
+      // No infinite or undefined figure is written or shown.
+      assertFiniteFigures(fitJson(model, flags.out, 0), flags.target);
       const bytes = await writeModelFile(flags.out, model, flags.force ?? false);
       const folds = { requested: flags.folds, used: model.settings.folds };
+      const extra = {
+        folds,
+        leftOutImplausible: leftOutJson(leftOut),
+        dataWarnings: table.warnings,
+      };
       if (flags.json) {
         terminal.out(
-          JSON.stringify({ ...fitJson(model, flags.out, bytes), folds }, jsonNumbers, 2),
+          JSON.stringify({ ...fitJson(model, flags.out, bytes), ...extra }, jsonNumbers, 2),
         );
         return;
       }
@@ -235,8 +261,15 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
                 terminal.width,
               ).split("\n")
               : []),
+            ...dataCheckLines(table, leftOut, file, { style, width: terminal.width }),
             ...renderModelSummary(
-              { ...model, dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })) },
+              {
+                ...model,
+                dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })),
+                // The rows left out for implausible pay are said above; the
+                // summary's count is of rows missing the target (or --where).
+                rows: { ...model.rows, dropped: model.rows.dropped - (leftOut?.count ?? 0) },
+              },
               view,
             ),
           ],

@@ -30,6 +30,7 @@ import type { Terminal } from "../terminal.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 import { shareOption } from "./gap.ts";
+import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
@@ -123,7 +124,7 @@ export function renderReview(
         money(p.pay),
         money(p.estimate!),
         `${money(p.low!)}-${money(p.high!)}`,
-        formatPercent(p.position!, false, numbers),
+        p.position === null ? "-" : formatPercent(p.position, false, numbers),
       ]);
     }
     lines.push(...alignColumns(rows));
@@ -135,10 +136,11 @@ export function renderReview(
     lines.push("");
   };
   // Both lists by position in the range, so they read alike.
+  // (A range of no width has no position: such people come last.)
   const under = review.people.filter((p) => p.status === "under")
-    .sort((a, b) => a.position! - b.position!);
+    .sort((a, b) => (a.position ?? Infinity) - (b.position ?? Infinity));
   const over = review.people.filter((p) => p.status === "over")
-    .sort((a, b) => b.position! - a.position!);
+    .sort((a, b) => (b.position ?? -Infinity) - (a.position ?? -Infinity));
   listed("Furthest under their range, by position (0% = the range's low end)", under);
   listed("Furthest over their range, by position (100% = the range's high end)", over);
   for (const note of review.notes) lines.push(...wrap(style.warn(note)));
@@ -197,6 +199,11 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       wholeNumber(3),
       5,
     )
+    .option(
+      "--drop-implausible",
+      "leave out rows whose pay no pay table holds (more than 10,000 times from the median, " +
+        "beyond 10^15, or not finite) instead of stopping",
+    )
     .option("--trees <n>", "trees in the ensemble", wholeNumber(10), 200)
     .option("--seed <s>", "seed of resamples", wholeNumber(0), 1)
     .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
@@ -212,7 +219,12 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      const table = await readTable(file, options, progress);
+      const read = await readTable(file, options, progress);
+      const { table, leftOut } = screenPayFlags(
+        read,
+        flags.target,
+        flags.dropImplausible ?? false,
+      );
       let review: PayReview;
       try {
         review = await payReview(table, {
@@ -231,13 +243,28 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       } finally {
         progress.finish();
       }
+      // No infinite or undefined figure is written or shown.
+      assertFiniteFigures(review, flags.target);
       if (flags.out !== undefined) {
         await writeFileAtomic(flags.out, reviewCsv(review), { force: flags.force ?? false });
       }
       const numbers = { locale: flags.locale, currency: review.money?.currency };
-      printTableAnswer(terminal, flags.json ?? false, review, () => [
-        ...renderReview(review, { style: terminal.style, width: terminal.width, numbers }),
-        ...(flags.out ? [`Everyone written to ${flags.out}.`, ""] : []),
-      ]);
+      const check = { style: terminal.style, width: terminal.width };
+      // Everything the screen says about the data is in the JSON too.
+      const doc = {
+        ...review,
+        leftOutImplausible: leftOutJson(leftOut),
+        dataWarnings: table.warnings,
+      };
+      printTableAnswer(
+        terminal,
+        flags.json ?? false,
+        doc,
+        () => [
+          ...dataCheckLines(table, leftOut, file, check),
+          ...renderReview(review, { ...check, numbers }),
+          ...(flags.out ? [`Everyone written to ${flags.out}.`, ""] : []),
+        ],
+      );
     });
 }

@@ -21,6 +21,8 @@ import {
   estimateProfile,
   fitModel,
   type GapReport,
+  type ImplausiblePay,
+  ImplausiblePayError,
   isPayName,
   loadTable,
   type LoadTableOptions,
@@ -33,6 +35,7 @@ import {
   readForModel,
   readModelFile,
   rowProfile,
+  screenPay,
   sweepAnswer,
   sweepValues,
   type Table,
@@ -52,7 +55,7 @@ import { renderSchemaBrief } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 import { offerGapCheck, type TableSource } from "./gap_step.ts";
-import { droppedReason } from "../data_check.ts";
+import { droppedReason, leftOutJson, leftOutSentence } from "../data_check.ts";
 
 /** Settings of a flow run. */
 export interface FlowOptions {
@@ -83,11 +86,12 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   let model: Model | undefined;
   let tableText: string | null = null;
   let source: TableSource | null = null;
+  let leftOut: ImplausiblePay | null = null;
   // Until a model is in hand: a file that cannot be used is said, and the
   // first question comes again.
   while (model === undefined) {
     try {
-      ({ model, tableText, source } = await chooseAndFit(io, options));
+      ({ model, tableText, source, leftOut } = await chooseAndFit(io, options));
     } catch (error) {
       if (!(error instanceof DataError || error instanceof OptionError)) throw error;
       io.say(io.style.warn(`! ${error.message}`));
@@ -99,14 +103,21 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   const gap = tableText !== null && source !== null
     ? await offerGapCheck(io, model, source, money)
     : null;
-  await whatIfLoop(io, session, tableText, money, { ...options, gap });
+  await whatIfLoop(io, session, tableText, money, { ...options, gap, leftOut });
 }
 
 /** Asks for the data and returns a fitted (or loaded) model. */
 async function chooseAndFit(
   io: FlowIO,
   options: FlowOptions,
-): Promise<{ model: Model; tableText: string | null; source: TableSource | null }> {
+): Promise<
+  {
+    model: Model;
+    tableText: string | null;
+    source: TableSource | null;
+    leftOut: ImplausiblePay | null;
+  }
+> {
   const { style } = io;
   const start = await io.choose("What do you want to work with?", [
     {
@@ -122,6 +133,7 @@ async function chooseAndFit(
   let table: Table | null = null;
   let tableText: string | null = null;
   let source: TableSource | null = null;
+  let leftOut: ImplausiblePay | null = null;
   if (start === "model") {
     const path = await io.ask("Path of the model file:", { validate: fileExists });
     model = await readModelFile(path);
@@ -160,6 +172,21 @@ async function chooseAndFit(
     }
     // The target named, the table is read again so that rows missing it are left out.
     table = loadTable(tableText, { ...readOptions, target });
+    // Pay no pay table holds is said with its lines; the rows are left out
+    // only when the person says so (the flow's --drop-implausible).
+    try {
+      ({ table, leftOut } = screenPay(table, target, { moneyOnly: true }));
+    } catch (error) {
+      if (!(error instanceof ImplausiblePayError)) throw error;
+      io.say(style.warn(`! ${error.message}.`));
+      const n = error.finding.count;
+      const go = await io.choose(`Leave ${n} row${n === 1 ? "" : "s"} out and go on?`, [
+        { name: `Yes, leave ${n === 1 ? "it" : "them"} out`, value: true },
+        { name: "No, choose again (correct the table first)", value: false },
+      ]);
+      if (!go) throw new DataError("nothing was fitted: the table has implausible pay");
+      ({ table, leftOut } = screenPay(table, target, { moneyOnly: true, leaveOut: true }));
+    }
     source = { table, path: start === "demo" ? options.demoPath : label };
     const bar = progressBar({ progress: io.progress, width: io.width });
     try {
@@ -180,17 +207,23 @@ async function chooseAndFit(
         "",
         style.bold(`Fitted in ${model.seconds.toFixed(1)} s`),
         ...renderModelSummary(
-          { ...model, dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })) },
+          {
+            ...model,
+            dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })),
+            // Rows left out for implausible pay are said below, apart.
+            rows: { ...model.rows, dropped: model.rows.dropped - (leftOut?.count ?? 0) },
+          },
           { style, width: io.width, numbers: { locale: options.locale } },
         ),
         style.dim(
           "The tree beside the ensemble is the reference tree whose decision path you will see; " +
             "the ensemble averages many such trees for steadier estimates.",
         ),
+        ...(leftOut ? [style.warn(leftOutSentence(leftOut, ", as you chose"))] : []),
       ].join("\n"),
     );
   }
-  return { model, tableText, source };
+  return { model, tableText, source, leftOut };
 }
 
 /** Asks for the target and the features. */
@@ -279,7 +312,7 @@ async function whatIfLoop(
   session: ModelSession,
   tableText: string | null,
   money: NumberStyle,
-  options: FlowOptions & { gap: GapReport | null },
+  options: FlowOptions & { gap: GapReport | null; leftOut: ImplausiblePay | null },
 ): Promise<void> {
   const { model } = session;
   const view = { style: io.style, width: io.width, money };
@@ -357,6 +390,7 @@ async function whatIfLoop(
       whatIfs,
       options.report,
       options.gap,
+      options.leftOut,
     );
   }
   io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
@@ -573,7 +607,7 @@ async function save(
   model: Model,
   scenarios: Scenario[],
   whatIfs: CompareAnswer[],
-  options: FlowOptions & { gap: GapReport | null },
+  options: FlowOptions & { gap: GapReport | null; leftOut: ImplausiblePay | null },
 ) {
   const path = await io.ask("Save the model as:", { default: "paygrove-model.json" });
   let force = false;
@@ -590,7 +624,7 @@ async function save(
     await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
       default: "paygrove-report.md",
     });
-  await writeReport(io, model, scenarios, whatIfs, report, options.gap);
+  await writeReport(io, model, scenarios, whatIfs, report, options.gap, options.leftOut);
 }
 
 async function writeReport(
@@ -600,12 +634,19 @@ async function writeReport(
   whatIfs: CompareAnswer[],
   path: string,
   gap: GapReport | null,
+  leftOut: ImplausiblePay | null,
 ) {
   const jsonPath = path.replace(/\.md$/, "") + ".json";
   // The gap check, when one was run in the session, follows the scenarios.
+  // Rows left out for implausible pay are said right after the scenarios.
   const markdown = reportMarkdown(model, scenarios, whatIfs) +
+    (leftOut ? `${leftOutSentence(leftOut, ", as you chose")}\n` : "") +
     (gap ? "\n" + gapMarkdown(gap, moneyStyle(model, {}), new Date().toISOString()) : "");
-  const json = { ...reportJson(model, scenarios, whatIfs), ...(gap ? { gap } : {}) };
+  const json = {
+    ...reportJson(model, scenarios, whatIfs),
+    leftOutImplausible: leftOutJson(leftOut),
+    ...(gap ? { gap } : {}),
+  };
   await writeFileAtomic(path, markdown, {
     force: true,
     option: "report",
