@@ -206,3 +206,67 @@ Deno.test("inspect --tree walks a 20,001-node tree without recursion", async () 
   assert.equal(outline[20000].depth, 10000);
   assert.equal(outline[20000].parent, 19998);
 });
+
+Deno.test("5,000 columns: schema, review and gap end with a result", async () => {
+  const path = `${dir}/wide.csv`;
+  const columns = 5000;
+  const lines = [["id", ...Array.from({ length: columns }, (_, j) => `x${j}`), "gender", "pay"]
+    .join(",")];
+  for (let r = 0; r < 60; r++) {
+    const xs = Array.from({ length: columns }, (_, j) => (r * 31 + j * 17) % 97);
+    lines.push(
+      [`E${r}`, ...xs, r % 2 === 0 ? "Woman" : "Man", 40000 + 300 * xs[0] + 50 * (r % 7)].join(","),
+    );
+  }
+  await Deno.writeTextFile(path, lines.join("\n") + "\n");
+  const schema = await paygrove(["schema", path, "--json"]);
+  clean(schema, 0, "schema");
+  assert.equal(JSON.parse(schema.stdout).columns.length, columns + 3);
+  const review = await paygrove(["review", path, "--target", "pay", "--trees", "10", "--json"]);
+  clean(review, 0, "review");
+  assert.equal(JSON.parse(review.stdout).features.length, columns);
+  const gap = await paygrove([
+    "gap",
+    path,
+    "--target",
+    "pay",
+    "--group",
+    "gender",
+    "--trees",
+    "10",
+    "--json",
+  ]);
+  clean(gap, 0, "gap");
+});
+
+Deno.test("a 10 MB cell in one row: fit, review and schema end with a result", async () => {
+  const path = `${dir}/big_cell.csv`;
+  const big = "x".repeat(10_000_000);
+  const lines = ["id,level,years,comment,pay"];
+  for (let r = 0; r < 120; r++) {
+    const id = r === 5 ? `E${big}` : `E${r}`;
+    const comment = r === 7 ? big : `comment number ${r}`;
+    lines.push(`${id},L${1 + (r % 4)},${r % 13},${comment},${40000 + 900 * (r % 13)}`);
+  }
+  await Deno.writeTextFile(path, lines.join("\n") + "\n");
+  const schema = await paygrove(["schema", path]);
+  clean(schema, 0, "schema");
+  assert.ok(schema.stdout.length < 20_000, "the cell is not printed whole");
+  const fit = await paygrove([
+    "fit",
+    path,
+    "--target",
+    "pay",
+    "--trees",
+    "10",
+    "--out",
+    `${dir}/big_cell.json`,
+    "--json",
+  ]);
+  clean(fit, 0, "fit");
+  const doc = JSON.parse(fit.stdout);
+  assert.deepEqual(doc.features.map((f: { name: string }) => f.name), ["level", "years"]);
+  // The model file holds neither the identifier nor the comment.
+  assert.ok((await Deno.stat(`${dir}/big_cell.json`)).size < 1_000_000);
+  clean(await paygrove(["review", path, "--target", "pay", "--trees", "10"]), 0, "review");
+});

@@ -34,6 +34,7 @@ import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from
 
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
+const SHOWN_ID = 40;
 
 function coverageOption(text: string): number {
   const share = shareOption(text);
@@ -120,7 +121,8 @@ export function renderReview(
     const rows = [["", "pay", "estimate", "range", "position"]];
     for (const p of people.slice(0, REVIEW_LISTED)) {
       rows.push([
-        p.id,
+        // An identifier is shown to 40 characters (the CSV keeps it whole).
+        p.id.length > SHOWN_ID ? `${p.id.slice(0, SHOWN_ID - 3)}...` : p.id,
         money(p.pay),
         money(p.estimate!),
         `${money(p.low!)}-${money(p.high!)}`,
