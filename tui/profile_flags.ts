@@ -22,6 +22,7 @@ import {
 } from "../mod.ts";
 import { PROTECTED_CAUTION } from "./commands/fit.ts";
 import { localeTag } from "./table_flags.ts";
+import { dataWarningLines } from "./data_check.ts";
 import type { Terminal } from "./terminal.ts";
 
 /** Parsed profile options. */
@@ -116,6 +117,13 @@ export async function profileFromFlags(
   let id = "";
   if (flags.table !== undefined) {
     rows = await readTableForModel(model, flags.table);
+    // The table's data-quality warnings, briefly, on stderr.
+    for (
+      const line of dataWarningLines(rows.table.warnings, flags.table, {
+        style: terminal.errStyle,
+        width: terminal.width,
+      })
+    ) terminal.err(line);
     if (flags.row !== undefined) {
       base = rowProfile(rows, findRow(model, rows, flags.row, flags.table));
       start = `row ${flags.row} of ${flags.table}`;

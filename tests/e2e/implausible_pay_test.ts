@@ -196,3 +196,32 @@ Deno.test("a raw-scale target too large to compute with is refused, not shown as
   assert.equal(result.code, 1, result.stderr);
   assert.match(result.stderr, /a figure came out infinite or undefined/);
 });
+
+Deno.test("batch and --table read tables too, and show their warnings on stderr", async () => {
+  const base = await payTable("base.csv");
+  const model = `${dir}/base.json`;
+  const fit = await paygrove(["fit", base, "--target", "pay", "--trees", "10", "--out", model]);
+  assert.equal(fit.code, 0, fit.stderr);
+  // A profiles table with a repeated row (and so a repeated identifier).
+  const text = await Deno.readTextFile(base);
+  const profiles = `${dir}/profiles.csv`;
+  await Deno.writeTextFile(profiles, text + text.split("\n")[4] + "\n");
+  const batch = await paygrove(["batch", model, profiles]);
+  assert.equal(batch.code, 0, batch.stderr);
+  assert.match(
+    batch.stderr.replace(/\s+/g, " "),
+    /! 2 data-quality warnings: "id": 1 identifier repeats an earlier row \(line 202\)/,
+  );
+  assert.match(
+    batch.stderr.replace(/\s+/g, " "),
+    new RegExp(`paygrove schema ${profiles} lists them`),
+  );
+  const json = await paygrove(["batch", model, profiles, "--json"]);
+  assert.deepEqual(
+    JSON.parse(json.stdout).dataWarnings.map((w: { kind: string }) => w.kind).sort(),
+    ["duplicate-identifier", "duplicate-row"],
+  );
+  const estimate = await paygrove(["estimate", model, "--table", profiles, "--row", "E3"]);
+  assert.equal(estimate.code, 0, estimate.stderr);
+  assert.match(estimate.stderr, /! 2 data-quality warnings/);
+});
