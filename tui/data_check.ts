@@ -131,27 +131,42 @@ export function dataWarningLines(
   return wrapAnsi(text, view.width, { hard: true }).split("\n").map(view.style.warn);
 }
 
+/** A pay column to screen, and how (see {@linkcode screenPay}). */
+export interface PayCheck {
+  /** The column. */
+  column: string;
+  /** Screen it only when it is money. */
+  moneyOnly?: boolean;
+  /** Apply the distance from the median (not for variable pay). */
+  ratio?: boolean;
+}
+
 /**
- * Checks the pay column as fit, gap and review do: implausible pay stops
- * the command with its line, unless `--drop-implausible` leaves it out.
- *
- * @param moneyOnly Screen only a money column (fit's target may be a rating).
+ * Checks pay columns as fit, gap and review do: implausible pay stops the
+ * command with its lines, unless `--drop-implausible` leaves those rows out.
  */
 export function screenPayFlags(
   table: Table,
-  target: string,
+  checks: readonly PayCheck[],
   dropImplausible: boolean,
-  moneyOnly = false,
-): ScreenedTable {
-  try {
-    return screenPay(table, target, { leaveOut: dropImplausible, moneyOnly });
-  } catch (error) {
-    if (!(error instanceof ImplausiblePayError)) throw error;
-    throw new DataError(
-      `${error.message}; correct the table, or pass --drop-implausible to leave such rows out`,
-      error.location,
-    );
+): { table: Table; leftOut: ImplausiblePay[] } {
+  const leftOut: ImplausiblePay[] = [];
+  let current = table;
+  for (const check of checks) {
+    let screened: ScreenedTable;
+    try {
+      screened = screenPay(current, check.column, { ...check, leaveOut: dropImplausible });
+    } catch (error) {
+      if (!(error instanceof ImplausiblePayError)) throw error;
+      throw new DataError(
+        `${error.message}; correct the table, or pass --drop-implausible to leave such rows out`,
+        error.location,
+      );
+    }
+    current = screened.table;
+    if (screened.leftOut !== null) leftOut.push(screened.leftOut);
   }
+  return { table: current, leftOut };
 }
 
 /**
@@ -164,8 +179,8 @@ export function screenPayFlags(
  * import { leftOutSentence } from "./data_check.ts";
  * assert.equal(
  *   leftOutSentence({
- *     kind: "implausible-pay", column: "pay", median: 61500, count: 1, rows: [1], lines: [3],
- *     values: [1e308],
+ *     kind: "implausible-pay", column: "pay", ratio: true, median: 61500, count: 1, rows: [1],
+ *     lines: [3], values: [1e308],
  *   }),
  *   '1 row left out (--drop-implausible): its "pay" is more than 10,000 times from the median ' +
  *     "61,500 either way, beyond 10^15, or not finite (line 3).",
@@ -184,17 +199,15 @@ export function leftOutSentence(
     ? shown[0]
     : `${shown.slice(0, -1).join(", ")} and ${shown.at(-1)}`;
   return `${leftOut.count} row${many ? "s" : ""} left out${how}: ` +
-    `${many ? "their" : "its"} "${leftOut.column}" is ${implausibleRule(leftOut.median)} ` +
+    `${many ? "their" : "its"} "${leftOut.column}" is ${implausibleRule(leftOut)} ` +
     `(line${many ? "s" : ""} ${lines}).`;
 }
 
-/** The rows left out, for --json: column, count and the first lines (no values). */
+/** The rows left out, for --json: per column, the count and the first lines (no values). */
 export function leftOutJson(
-  leftOut: ImplausiblePay | null,
-): { column: string; count: number; lines: number[] } | null {
-  return leftOut === null
-    ? null
-    : { column: leftOut.column, count: leftOut.count, lines: leftOut.lines };
+  leftOut: readonly ImplausiblePay[],
+): { column: string; count: number; lines: number[] }[] {
+  return leftOut.map((l) => ({ column: l.column, count: l.count, lines: l.lines }));
 }
 
 /**
@@ -203,14 +216,14 @@ export function leftOutJson(
  */
 export function dataCheckLines(
   table: Table,
-  leftOut: ImplausiblePay | null,
+  leftOut: readonly ImplausiblePay[],
   file: string,
   view: { style: Style; width: number },
 ): string[] {
   const lines: string[] = [];
-  if (leftOut !== null) {
+  for (const each of leftOut) {
     lines.push(
-      ...wrapAnsi(leftOutSentence(leftOut), view.width, { hard: true }).split("\n").map(
+      ...wrapAnsi(leftOutSentence(each), view.width, { hard: true }).split("\n").map(
         view.style.warn,
       ),
     );

@@ -42,6 +42,8 @@ export interface ImplausiblePay {
   kind: "implausible-pay";
   /** The pay column. */
   column: string;
+  /** Whether the distance from the median was part of the rule (not for variable pay). */
+  ratio: boolean;
   /** Median of the column's finite values (NaN when there is none). */
   median: number;
   /** How many rows hold an implausible value. */
@@ -69,7 +71,11 @@ export interface ImplausiblePay {
  * assert(findImplausiblePay(loadTable("pay\n50000\n61000\n"), "pay") === null);
  * ```
  */
-export function findImplausiblePay(table: Table, column: string): ImplausiblePay | null {
+export function findImplausiblePay(
+  table: Table,
+  column: string,
+  ratio = true,
+): ImplausiblePay | null {
   const found = table.columns.find((c) => c.name === column);
   if (found === undefined || found.type !== "numeric") return null;
   const values = found.values;
@@ -81,7 +87,7 @@ export function findImplausiblePay(table: Table, column: string): ImplausiblePay
     const v = values[r];
     if (Number.isNaN(v)) continue; // missing
     const implausible = !Number.isFinite(v) || Math.abs(v) > PAY_CEILING ||
-      (median > 0 && (v > median * PLAUSIBLE_FACTOR || v < median / PLAUSIBLE_FACTOR));
+      (ratio && median > 0 && (v > median * PLAUSIBLE_FACTOR || v < median / PLAUSIBLE_FACTOR));
     if (implausible) rows.push(r);
   }
   if (rows.length === 0) return null;
@@ -89,6 +95,7 @@ export function findImplausiblePay(table: Table, column: string): ImplausiblePay
   return {
     kind: "implausible-pay",
     column,
+    ratio,
     median,
     count: rows.length,
     rows,
@@ -113,7 +120,7 @@ export class ImplausiblePayError extends DataError {
     super(
       `${file}: "${finding.column}": line${many ? "s" : ""} ${lines} ` +
         `${many ? "have" : "has"} ${values}; no plausible pay table holds such ` +
-        `${many ? "values" : "a value"} (${implausibleRule(finding.median)})`,
+        `${many ? "values" : "a value"} (${implausibleRule(finding)})`,
       { file, line: finding.lines[0], column: finding.column },
     );
     this.finding = finding;
@@ -122,9 +129,19 @@ export class ImplausiblePayError extends DataError {
 
 /**
  * The rule in words, with the median: "more than 10,000 times from the
- * median 61,500 either way, beyond 10^15, or not finite".
+ * median 61,500 either way, beyond 10^15, or not finite" (without the
+ * median where it was not part of the rule: "beyond 10^15, or not finite").
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { implausibleRule } from "./implausible.ts";
+ * assert.equal(implausibleRule({ ratio: false, median: 0 }), "beyond 10^15, or not finite");
+ * ```
  */
-export function implausibleRule(median: number): string {
+export function implausibleRule(finding: Pick<ImplausiblePay, "ratio" | "median">): string {
+  const median = finding.median;
+  if (!finding.ratio) return "beyond 10^15, or not finite";
   const m = Number.isFinite(median)
     ? ` ${Number(median.toPrecision(6)).toLocaleString("en-US")}`
     : "";
@@ -146,6 +163,13 @@ export interface ScreenPayOptions {
    * @default {false}
    */
   moneyOnly?: boolean;
+  /**
+   * Apply the distance from the median. Off for variable pay, where zero
+   * (no bonus) is common and a few large bonuses are ordinary: then only
+   * values beyond 10^15 or not finite are implausible.
+   * @default {true}
+   */
+  ratio?: boolean;
 }
 
 /** The table to use, and what was left out of it. */
@@ -184,13 +208,13 @@ export function screenPay(
   const pay = table.columns.find((c) => c.name === column);
   if (pay === undefined || pay.type !== "numeric") return { table, leftOut: null };
   if (options.moneyOnly && pay.money === undefined) return { table, leftOut: null };
-  const found = findImplausiblePay(table, column);
+  const found = findImplausiblePay(table, column, options.ratio ?? true);
   if (found === null) return { table, leftOut: null };
   const file = table.source.file ?? "input";
   if (!options.leaveOut) throw new ImplausiblePayError(found, file);
   if (found.count === table.rows) {
     throw new DataError(
-      `${file}: every row's "${column}" is implausible (${implausibleRule(found.median)}); ` +
+      `${file}: every row's "${column}" is implausible (${implausibleRule(found)}); ` +
         `there is no pay left to work with`,
       { file, column },
     );

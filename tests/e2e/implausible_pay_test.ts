@@ -101,7 +101,7 @@ Deno.test("--drop-implausible leaves the rows out and says how many in text and 
     assert.equal(json.code, 0, `${command} --json: ${json.stderr}`);
     finiteFigures(json.stdout, `${command} json`);
     const doc = JSON.parse(json.stdout);
-    assert.deepEqual(doc.leftOutImplausible, { column: "pay", count: 3, lines: [12, 42, 72] });
+    assert.deepEqual(doc.leftOutImplausible, [{ column: "pay", count: 3, lines: [12, 42, 72] }]);
   }
   // The figures are those of the table without the three rows.
   const clean = await payTable("drop_clean.csv", {});
@@ -224,4 +224,35 @@ Deno.test("batch and --table read tables too, and show their warnings on stderr"
   const estimate = await paygrove(["estimate", model, "--table", profiles, "--row", "E3"]);
   assert.equal(estimate.code, 0, estimate.stderr);
   assert.match(estimate.stderr, /! 2 data-quality warnings/);
+});
+
+Deno.test("gap screens variable pay too: not finite or beyond 10^15 (zero bonuses are ordinary)", async () => {
+  const lines = ["id,gender,level,bonus,pay"];
+  for (let r = 0; r < 200; r++) {
+    const level = 1 + (r % 5);
+    const bonus = r === 10 ? "1e308" : r % 4 === 0 ? "0" : String(1000 * level);
+    lines.push(`E${r},${r % 3 === 0 ? "Woman" : "Man"},L${level},${bonus},${40000 + 9000 * level}`);
+  }
+  const table = `${dir}/bonus.csv`;
+  await Deno.writeTextFile(table, lines.join("\n") + "\n");
+  const args = ["gap", table, ...GAP, "--variable", "bonus"];
+  const stopped = await paygrove(args);
+  noBug(stopped, "gap --variable");
+  assert.equal(stopped.code, 1, stopped.stderr);
+  assert.match(
+    stopped.stderr,
+    /"bonus": line 12 has 1e\+308; no plausible pay table holds such a value \(beyond 10\^15, or not finite\)/,
+  );
+  const dropped = await paygrove([...args, "--drop-implausible", "--json"]);
+  assert.equal(dropped.code, 0, dropped.stderr);
+  finiteFigures(dropped.stdout, "gap --variable json");
+  assert.deepEqual(JSON.parse(dropped.stdout).leftOutImplausible, [
+    { column: "bonus", count: 1, lines: [12] },
+  ]);
+  const text = await paygrove([...args, "--drop-implausible"]);
+  assert.match(
+    text.stdout.replace(/\s+/g, " "),
+    /1 row left out \(--drop-implausible\): its "bonus" is beyond 10\^15, or not finite \(line 12\)/,
+  );
+  finiteFigures(text.stdout, "gap --variable text");
 });

@@ -191,9 +191,8 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       // target is not pay and is not screened.
       const { table, leftOut } = screenPayFlags(
         read,
-        flags.target,
+        [{ column: flags.target, moneyOnly: true }],
         flags.dropImplausible ?? false,
-        true,
       );
       if (flags.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
@@ -268,7 +267,10 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
                 dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })),
                 // The rows left out for implausible pay are said above; the
                 // summary's count is of rows missing the target (or --where).
-                rows: { ...model.rows, dropped: model.rows.dropped - (leftOut?.count ?? 0) },
+                rows: {
+                  ...model.rows,
+                  dropped: model.rows.dropped - leftOut.reduce((n, l) => n + l.count, 0),
+                },
               },
               view,
             ),

@@ -130,7 +130,11 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       const read = await readTable(file, options, progress);
       const { table, leftOut } = screenPayFlags(
         read,
-        flags.target,
+        [
+          { column: flags.target },
+          // Variable pay: zero (no bonus) is common, so no distance from the median.
+          ...(flags.variable !== undefined ? [{ column: flags.variable, ratio: false }] : []),
+        ],
         flags.dropImplausible ?? false,
       );
       let report: GapReport;

@@ -224,7 +224,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       const read = await readTable(file, options, progress);
       const { table, leftOut } = screenPayFlags(
         read,
-        flags.target,
+        [{ column: flags.target }],
         flags.dropImplausible ?? false,
       );
       let review: PayReview;

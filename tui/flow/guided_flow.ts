@@ -644,7 +644,7 @@ async function writeReport(
     (gap ? "\n" + gapMarkdown(gap, moneyStyle(model, {}), new Date().toISOString()) : "");
   const json = {
     ...reportJson(model, scenarios, whatIfs),
-    leftOutImplausible: leftOutJson(leftOut),
+    leftOutImplausible: leftOutJson(leftOut ? [leftOut] : []),
     ...(gap ? { gap } : {}),
   };
   await writeFileAtomic(path, markdown, {

@@ -96,3 +96,23 @@ Deno.test("moneyOnly leaves a column that is not money alone; non-numeric column
   assert.throws(() => screenPay(rating, "rating"), ImplausiblePayError);
   assert.equal(screenPay(rating, "level").leftOut, null);
 });
+
+Deno.test("without the distance from the median (variable pay), only size and finiteness count", () => {
+  const bonus = loadTable("bonus,pay\n0,50000\n0,51000\n1000,52000\n2e15,53000\n20000000,54000\n", {
+    target: "pay",
+  });
+  // The median bonus is 1,000: with the distance rule the zeros
+  // (more than 10,000 times below) and 20,000,000 (above) would be
+  // implausible; without it only 2e15 is.
+  assert.equal(findImplausiblePay(bonus, "bonus")!.count, 4);
+  const found = findImplausiblePay(bonus, "bonus", false)!;
+  assert.deepEqual([found.count, found.lines, found.ratio], [1, [5], false]);
+  assert.throws(
+    () => screenPay(bonus, "bonus", { ratio: false }),
+    (e) =>
+      e instanceof ImplausiblePayError &&
+      e.message ===
+        'input: "bonus": line 5 has 2000000000000000; no plausible pay table holds such a value ' +
+          "(beyond 10^15, or not finite)",
+  );
+});
