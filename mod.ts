@@ -24,6 +24,7 @@ export {
   type DroppedDetail,
   makeDataset,
   type MakeDatasetOptions,
+  MAX_CLASSES,
   MAX_SPLIT_LEVELS,
 } from "./lib/dataset/make_dataset.ts";
 export * from "./lib/tree/mod.ts";

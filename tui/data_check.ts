@@ -232,9 +232,11 @@ export function dataCheckLines(
   return lines.length > 0 ? [...lines, ""] : [];
 }
 
-// Figures that are NaN by design: permutation importance where it is not
-// measured (class targets); JSON shows them as null, the text as "-".
-const NOT_MEASURED = new Set(["permutation", "permutationSd"]);
+// Figures that are NaN by design, anywhere below these keys: permutation
+// importance where it is not measured (class targets), and precision or
+// recall of a class never predicted or never present. JSON shows them as
+// null, the text as "-".
+const UNDEFINED_BY_DESIGN = new Set(["permutation", "permutationSd", "precision", "recall"]);
 
 /**
  * Throws a DataError when a figure about to be shown or written is
@@ -246,7 +248,7 @@ const NOT_MEASURED = new Set(["permutation", "permutationSd"]);
  * ```ts
  * import assert from "node:assert/strict";
  * import { assertFiniteFigures } from "./data_check.ts";
- * assertFiniteFigures({ a: [1, null, { permutation: NaN }] }, "pay");
+ * assertFiniteFigures({ a: [1, null, { permutation: NaN }], recall: [0.5, NaN] }, "pay");
  * assert.throws(
  *   () => assertFiniteFigures({ quality: { rmse: Infinity } }, "pay"),
  *   /a figure came out infinite or undefined \(quality\.rmse\)/,
@@ -254,11 +256,12 @@ const NOT_MEASURED = new Set(["permutation", "permutationSd"]);
  * ```
  */
 export function assertFiniteFigures(doc: unknown, column: string): void {
-  const stack: [unknown, string, string][] = [[doc, "", ""]];
+  // Each entry: the value, its path, and whether NaN is allowed there.
+  const stack: [unknown, string, boolean][] = [[doc, "", false]];
   while (stack.length > 0) {
-    const [value, path, key] = stack.pop()!;
+    const [value, path, nanAllowed] = stack.pop()!;
     if (typeof value === "number") {
-      if (Number.isFinite(value) || (Number.isNaN(value) && NOT_MEASURED.has(key))) continue;
+      if (Number.isFinite(value) || (Number.isNaN(value) && nanAllowed)) continue;
       throw new DataError(
         `a figure came out infinite or undefined (${path}): the values of "${column}" are too ` +
           `large, or too alike, to compute with; check the column (paygrove schema shows its range)`,
@@ -267,7 +270,7 @@ export function assertFiniteFigures(doc: unknown, column: string): void {
     }
     if (value === null || typeof value !== "object" || ArrayBuffer.isView(value)) continue;
     for (const [k, v] of Object.entries(value)) {
-      stack.push([v, path === "" ? k : `${path}.${k}`, k]);
+      stack.push([v, path === "" ? k : `${path}.${k}`, nanAllowed || UNDEFINED_BY_DESIGN.has(k)]);
     }
   }
 }

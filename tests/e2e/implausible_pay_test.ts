@@ -256,3 +256,23 @@ Deno.test("gap screens variable pay too: not finite or beyond 10^15 (zero bonuse
   );
   finiteFigures(text.stdout, "gap --variable text");
 });
+
+Deno.test("a class never predicted has no precision: shown as -, null in JSON, and the fit goes on", async () => {
+  // Band C has two people: no leaf of five predicts it, so its precision is 0/0.
+  const lines = ["id,years,band"];
+  for (let r = 0; r < 120; r++) {
+    lines.push(`E${r},${r % 30},${r < 2 ? "C" : r % 30 < 15 ? "A" : "B"}`);
+  }
+  const table = `${dir}/bands.csv`;
+  await Deno.writeTextFile(table, lines.join("\n") + "\n");
+  const args = ["fit", table, "--target", "band", "--trees", "10", "--out", `${dir}/bands.json`];
+  const text = await paygrove([...args, "--force"]);
+  assert.equal(text.code, 0, text.stderr);
+  finiteFigures(text.stdout, "fit band");
+  assert.match(text.stdout, /│ precision │[^\n]*│ +- │/);
+  const json = await paygrove([...args, "--force", "--json"]);
+  assert.equal(json.code, 0, json.stderr);
+  const classes = JSON.parse(json.stdout).ensemble;
+  assert.ok(classes !== null);
+  assert.equal(JSON.parse(json.stdout).quality.ensemble.classes.precision[2], null);
+});

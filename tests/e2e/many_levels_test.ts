@@ -156,3 +156,10 @@ Deno.test("1,000 levels in 3,000 rows: used, and the review ends", async () => {
   ok(review, "review");
   assert.ok(JSON.parse(review.stdout).features.includes("team"));
 });
+
+Deno.test("a column of 2,000 levels as the target: refused in a sentence, not 8 GB later", async () => {
+  const table = await teams(10000, 2000);
+  const result = await paygrove(["fit", table, "--target", "team", "--out", `${dir}/cls.json`]);
+  assert.equal(result.code, 2, result.stderr);
+  assert.match(result.stderr, /"team" has 2,000 classes; a class target has at most 100/);
+});

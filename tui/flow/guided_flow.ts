@@ -26,6 +26,7 @@ import {
   isPayName,
   loadTable,
   type LoadTableOptions,
+  MAX_CLASSES,
   MAX_SPLIT_LEVELS,
   type Model,
   type ModelSession,
@@ -238,7 +239,11 @@ async function chooseColumns(
   const targets = [
     ...payLike,
     ...numeric.filter((c) => !payLike.includes(c)),
-    ...usable.filter((c) => c.type !== "numeric" && !c.protected),
+    // A class target has at most MAX_CLASSES levels.
+    ...usable.filter((c) =>
+      (c.type === "categorical" || c.type === "ordinal") && !c.protected &&
+      c.levels.length <= MAX_CLASSES
+    ),
   ];
   const target = await io.choose(
     "Which column should paygrove estimate?",

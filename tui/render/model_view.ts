@@ -176,10 +176,15 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
         matrix.push([
           name,
           ...classes.confusion[a].map((n) => formatNumber(n, options.numbers)),
-          formatPercent(classes.recall[a]),
+          // A class with no row (or never predicted) has no recall (precision).
+          Number.isNaN(classes.recall[a]) ? "-" : formatPercent(classes.recall[a]),
         ]);
       });
-      matrix.push(["precision", ...classes.precision.map((p) => formatPercent(p)), ""]);
+      matrix.push([
+        "precision",
+        ...classes.precision.map((p) => (Number.isNaN(p) ? "-" : formatPercent(p))),
+        "",
+      ]);
       lines.push(
         "",
         style.bold("Out-of-bag confusion matrix (rows: actual class; columns: predicted)"),

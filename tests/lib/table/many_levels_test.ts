@@ -4,7 +4,13 @@
 // MAX_SPLIT_LEVELS levels, declared ones included. The counts below are set
 // by the tables written here, so each expectation is known in advance.
 import assert from "node:assert/strict";
-import { loadTable, makeDataset, MAX_SPLIT_LEVELS, OptionError } from "../../../mod.ts";
+import {
+  loadTable,
+  makeDataset,
+  MAX_CLASSES,
+  MAX_SPLIT_LEVELS,
+  OptionError,
+} from "../../../mod.ts";
 
 /** A table of `rows` rows whose column `team` cycles through `levels` texts. */
 function table(rows: number, levels: number, extra = ""): string {
@@ -113,4 +119,22 @@ Deno.test("an ordinal column is not bounded: it splits by threshold, like a numb
   assert.equal(loaded.columns[0].type, "ordinal");
   const { dataset } = makeDataset(loaded, { target: "pay" });
   assert.deepEqual(dataset.features.map((f) => f.name), ["grade"]);
+});
+
+Deno.test("a class target has at most MAX_CLASSES classes", () => {
+  assert.equal(MAX_CLASSES, 100);
+  const rows = (classes: number) => {
+    const lines = ["team,years"];
+    for (let r = 0; r < 3 * classes; r++) lines.push(`team ${r % classes},${r % 17}`);
+    return loadTable(lines.join("\n") + "\n", { target: "team", types: { team: "categorical" } });
+  };
+  const at = makeDataset(rows(MAX_CLASSES), { target: "team" }).dataset.target;
+  assert.equal(at.kind === "classification" && at.classes.length, MAX_CLASSES);
+  assert.throws(
+    () => makeDataset(rows(MAX_CLASSES + 1), { target: "team" }),
+    (e) =>
+      e instanceof OptionError &&
+      e.message === `"team" has 101 classes; a class target has at most 100 (every node of ` +
+          `every tree keeps a share for each class): choose a target of fewer levels, or group them`,
+  );
 });
