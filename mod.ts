@@ -21,8 +21,11 @@ export * from "./lib/dataset/types.ts";
 export {
   type DatasetResult,
   type DroppedColumn,
+  type DroppedDetail,
   makeDataset,
   type MakeDatasetOptions,
+  MAX_CLASSES,
+  MAX_SPLIT_LEVELS,
 } from "./lib/dataset/make_dataset.ts";
 export * from "./lib/tree/mod.ts";
 export { makeRng, randomInt, type Rng, shuffle } from "./lib/random.ts";

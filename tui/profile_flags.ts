@@ -21,6 +21,8 @@ import {
 } from "../mod.ts";
 import { PROTECTED_CAUTION } from "./commands/fit.ts";
 import { ANALYST_FILE_OPTION } from "./open_model.ts";
+import { localeTag } from "./table_flags.ts";
+import { dataWarningLines } from "./data_check.ts";
 import type { Terminal } from "./terminal.ts";
 
 /** Parsed profile options. */
@@ -56,7 +58,7 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
     .option("--row <id>", "the identifier of the row of --table to start from")
     .option("--set <column=value>", "set an attribute of the profile (repeatable)", collect)
     .option("--coverage <share>", "coverage of the intervals", coverage, 0.9)
-    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option(...ANALYST_FILE_OPTION)
     .option("--json", "print one JSON document on stdout instead of text") as unknown as Command<
       A,
@@ -106,6 +108,13 @@ export async function profileFromFlags(
   let id = "";
   if (flags.table !== undefined) {
     rows = await readTableForModel(model, flags.table);
+    // The table's data-quality warnings, briefly, on stderr.
+    for (
+      const line of dataWarningLines(rows.table.warnings, flags.table, {
+        style: terminal.errStyle,
+        width: terminal.width,
+      })
+    ) terminal.err(line);
     if (flags.row !== undefined) {
       base = rowProfile(rows, findRow(model, rows, flags.row, flags.table));
       start = `row ${flags.row} of ${flags.table}`;

@@ -44,6 +44,28 @@ export function list(text: string): string[] {
   return text.split(",").map((s) => s.trim()).filter((s) => s !== "");
 }
 
+/**
+ * Parses a comma-separated list of columns that must name at least one
+ * (`--features ""` would otherwise mean "no attribute at all").
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { columnList } from "./table_flags.ts";
+ * assert.deepEqual(columnList("level, site"), ["level", "site"]);
+ * assert.throws(() => columnList(" , "), /name at least one column/);
+ * ```
+ */
+export function columnList(text: string): string[] {
+  const names = list(text);
+  if (names.length === 0) {
+    throw new InvalidArgumentError(
+      "name at least one column, or leave the option out to use every usable one",
+    );
+  }
+  return names;
+}
+
 function collectPair<V>(check: (value: string, column: string) => V) {
   return (text: string, previous: Record<string, V> = {}): Record<string, V> => {
     const [column, value] = pair(text);
@@ -78,9 +100,26 @@ function currencyCode(text: string): string {
   return code;
 }
 
-function localeTag(text: string): string {
+/**
+ * Parses `--locale`: a BCP 47 tag that number formatting accepts. Every
+ * command with the option uses this one parser, so a tag in the wrong form
+ * (`en_US`, an empty one) is refused at the start, never met mid-output.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { localeTag } from "./table_flags.ts";
+ * assert(localeTag("de-DE") === "de-DE");
+ * assert.throws(() => localeTag("en_US"), /"en_US" is not a locale tag such as en-US or de-DE/);
+ * assert.throws(() => localeTag(""), /not a locale tag/);
+ * ```
+ */
+export function localeTag(text: string): string {
   try {
-    return new Intl.Locale(text).toString();
+    const tag = new Intl.Locale(text).toString();
+    // What the output will do with it; throws for a tag it cannot use.
+    new Intl.NumberFormat(tag).format(1);
+    return tag;
   } catch {
     throw new InvalidArgumentError(`"${text}" is not a locale tag such as en-US or de-DE`);
   }

@@ -32,12 +32,39 @@ export interface MakeDatasetOptions {
   categoricalAsCodes?: boolean;
 }
 
+/**
+ * The most levels a categorical (unordered) feature is split on. The split
+ * search orders a node's levels and scans them (O(m log m) for m levels in
+ * the node), and each split keeps two bit sets of the levels, one word per
+ * 32 levels: at this bound 64 words (256 bytes) per split, whatever the
+ * table holds. A column with more levels is left out of the default
+ * features and refused when named (grouping its levels is the user's
+ * call: which ones belong together is not in the data). Ordinal and numeric
+ * features split by threshold and need no bound.
+ */
+export const MAX_SPLIT_LEVELS = 1000;
+
+/**
+ * The most classes a class target may have. Every node of every tree keeps
+ * a share for each class, and the split search a count per class and bin:
+ * with 2,000 classes a default fit of 10,000 rows ran 100 s into 8 GB. A
+ * hundred covers levels, grades, job families and departments.
+ */
+export const MAX_CLASSES = 100;
+
+/** Why a column was left out, as data. */
+export type DroppedDetail =
+  | { kind: "identifier-like"; levels: number; rows: number }
+  | { kind: "too-many-levels"; levels: number; limit: number };
+
 /** Why a column is not a feature. */
 export interface DroppedColumn {
   /** Column name. */
   name: string;
   /** One phrase for the user. */
   reason: string;
+  /** The figures behind the reason, where there are some. */
+  detail?: DroppedDetail;
 }
 
 /** A dataset and what was left out of it. */
@@ -78,6 +105,9 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
   const dropped: DroppedColumn[] = [];
   let chosen: Column[];
   if (options.features !== undefined) {
+    if (options.features.length === 0) {
+      throw new OptionError("the list of features is empty: name at least one column");
+    }
     chosen = options.features.map((name) => column(name, "--features"));
     for (const c of chosen) {
       if (c === targetColumn) throw new OptionError(`--features: "${c.name}" is the target`);
@@ -92,6 +122,13 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
         throw new OptionError(
           `--features: "${c.name}" is a protected attribute; it is kept out of pay estimates ` +
             `unless you pass --allow-protected`,
+        );
+      }
+      if (c.type === "categorical" && c.levels.length > MAX_SPLIT_LEVELS) {
+        throw new OptionError(
+          `"${c.name}" has ${count(c.levels.length)} levels; a categorical attribute is split on ` +
+            `at most ${count(MAX_SPLIT_LEVELS)} (the search and each split's level sets grow ` +
+            `with the levels): leave it out, or group its levels into fewer`,
         );
       }
     }
@@ -114,8 +151,15 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
         : c.protected && !options.allowProtected
         ? "protected attribute"
         : undefined;
+      const detail = reason === undefined ? manyLevels(c) : undefined;
       if (reason) dropped.push({ name: c.name, reason });
-      else chosen.push(c);
+      else if (detail) {
+        dropped.push({
+          name: c.name,
+          reason: detail.kind === "identifier-like" ? "identifier-like" : "too many levels",
+          detail,
+        });
+      } else chosen.push(c);
     }
   }
 
@@ -131,6 +175,13 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
       values: Float64Array.from(rowIndex, (r) => targetColumn.values[r]),
     };
   } else if (targetColumn.type === "categorical" || targetColumn.type === "ordinal") {
+    if (targetColumn.levels.length > MAX_CLASSES) {
+      throw new OptionError(
+        `"${targetColumn.name}" has ${count(targetColumn.levels.length)} classes; a class target ` +
+          `has at most ${MAX_CLASSES} (every node of every tree keeps a share for each class): ` +
+          `choose a target of fewer levels, or group them`,
+      );
+    }
     target = {
       kind: "classification",
       name: targetColumn.name,
@@ -145,6 +196,20 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
     );
   }
   return { dataset: { rows: rowIndex.length, features, target }, dropped, rowIndex };
+}
+
+// Why a level column is left out of the default features, if it is.
+function manyLevels(column: Column): DroppedDetail | undefined {
+  if (column.type !== "categorical" && column.type !== "ordinal") return undefined;
+  if (column.identifierLike) return { kind: "identifier-like", ...column.identifierLike };
+  if (column.type === "categorical" && column.levels.length > MAX_SPLIT_LEVELS) {
+    return { kind: "too-many-levels", levels: column.levels.length, limit: MAX_SPLIT_LEVELS };
+  }
+  return undefined;
+}
+
+function count(n: number): string {
+  return n.toLocaleString("en-US");
 }
 
 function targetMissing(column: Column, r: number): boolean {

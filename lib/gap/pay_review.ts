@@ -15,7 +15,7 @@
  */
 
 import { makeDataset } from "../dataset/make_dataset.ts";
-import { OptionError } from "../errors.ts";
+import { DataError, OptionError } from "../errors.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
 import {
   groupedRange,
@@ -35,6 +35,9 @@ import {
 } from "./categories.ts";
 import { suppressSmallGroups } from "./suppress.ts";
 import { FEW_PEOPLE, WEAK_MODEL_R2 } from "./gap_check.ts";
+
+/** Relative tolerance of the comparison of pay with its range's ends. */
+export const RANGE_TOLERANCE = 1e-9;
 
 /** Options of {@linkcode payReview}. */
 export interface ReviewOptions {
@@ -81,7 +84,10 @@ export interface ReviewPerson {
   low: number | null;
   /** High end. */
   high: number | null;
-  /** (pay - low) / (high - low): 0 at the low end, 1 at the high end. */
+  /**
+   * (pay - low) / (high - low): 0 at the low end, 1 at the high end; null
+   * without an estimate, or when the range has no width.
+   */
   position: number | null;
   /** Under, within or over the range. */
   status: ReviewStatus | null;
@@ -166,6 +172,15 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
   if (encoded.features.length === 0) {
     throw new OptionError("no factors are left to compare people on; name them with --features");
   }
+  // Comparable people are those sharing a leaf: with fewer than two leaves'
+  // worth of rows no tree can split, and every estimate would be the mean.
+  const minLeaf = Math.max(options.minLeaf ?? 5, 1);
+  if (encoded.rows < 2 * minLeaf) {
+    throw new DataError(
+      `only ${encoded.rows} ${encoded.rows === 1 ? "person has" : "people have"} pay; a review ` +
+        `needs at least ${2 * minLeaf} (two groups of the fewest people in a leaf, ${minLeaf})`,
+    );
+  }
   const logPay = toFitScale(encoded.target.values, "log", options.target);
   const dataset = { ...encoded, target: { ...encoded.target, values: logPay } } as typeof encoded;
   const { ensemble } = await fitDefaultEnsemble(dataset, {
@@ -173,7 +188,9 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     seed,
     foldSeed: seed,
     workers: options.workers,
-    grow: { minLeaf: Math.max(options.minLeaf ?? 5, 1) },
+    // Each fold of the reference tree's cross-validation holds at least one person.
+    folds: Math.min(10, encoded.rows),
+    grow: { minLeaf },
     onProgress: options.onProgress,
   });
   const oob = ensemble.oob;
@@ -203,7 +220,16 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     const range = groupedRange(oob[r], groups, coverage);
     const low = Math.exp(range.low);
     const high = Math.exp(range.high);
-    const status: ReviewStatus = pay < low ? "under" : pay > high ? "over" : "within";
+    // exp(log(pay)) differs from pay in its last bits, so the range's ends
+    // are compared with a relative tolerance: on a pay scale paid exactly
+    // (everyone at a level earns the same) the range is one value, and the
+    // people paid it are within it, not a rounding error under or over.
+    const tolerance = RANGE_TOLERANCE * high;
+    const status: ReviewStatus = pay < low - tolerance
+      ? "under"
+      : pay > high + tolerance
+      ? "over"
+      : "within";
     return {
       id,
       line: filtered.lines[tableRow],
@@ -211,7 +237,8 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
       estimate: Math.exp(oob[r]),
       low,
       high,
-      position: (pay - low) / (high - low),
+      // A range of no width has no positions in it.
+      position: high - low > tolerance ? (pay - low) / (high - low) : null,
       status,
       shortfall: status === "under" ? low - pay : 0,
     };

@@ -137,13 +137,13 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   const started = performance.now();
   const trees = options.trees ?? 200;
   const minLeaf = options.minLeaf ?? 5;
-  const folds = options.folds ?? 10;
+  const requestedFolds = options.folds ?? 10;
   const seed = options.seed ?? 1;
   const privacyMin = options.privacyMin ?? 5;
   const rule = options.rule ?? "one-se";
   const prune = options.prune ?? "alpha-min";
   const where = options.where ?? {};
-  checkSettings(trees, minLeaf, privacyMin, folds);
+  checkSettings(trees, minLeaf, privacyMin, requestedFolds);
 
   const filtered = filterRows(table, where);
   const { dataset: encoded, dropped, rowIndex } = makeDataset(filtered, {
@@ -152,15 +152,19 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     drop: options.drop,
     allowProtected: options.allowProtected,
   });
+  if (encoded.features.length === 0) {
+    const why = dropped.map((d) => `${d.name} (${d.reason})`).join(", ");
+    throw new OptionError(`no attributes are left to learn from${why ? `: left out ${why}` : ""}`);
+  }
   if (encoded.rows < 2 * minLeaf) {
     throw new OptionError(
       `only ${encoded.rows} rows have "${options.target}"; at least ${2 * minLeaf} are needed ` +
         `for one split with --min-leaf ${minLeaf}`,
     );
   }
-  if (folds > encoded.rows) {
-    throw new OptionError(`--folds ${folds} is more than the ${encoded.rows} rows`);
-  }
+  // Each fold holds at least one row: fewer rows than folds, fewer folds
+  // (one row each); settings.folds records the number used.
+  const folds = Math.min(requestedFolds, encoded.rows);
   const targetColumn = filtered.columns.find((c) => c.name === options.target)!;
   const money = targetColumn.type === "numeric" ? targetColumn.money : undefined;
   let scale: PayScale = "raw";

@@ -29,6 +29,8 @@ export interface ColumnSummary {
   value?: string;
   /** What was inferred or done. */
   notes: string[];
+  /** Set for a column that looks like it names rows (a level column's `identifierLike`). */
+  identifierLike?: { levels: number; rows: number };
 }
 
 /** The schema of a table, as JSON-ready data. */
@@ -70,6 +72,7 @@ export function describeSchema(table: Table): SchemaSummary {
     };
     if (column.type === "categorical" || column.type === "ordinal") {
       summary.levels = column.levels;
+      if (column.identifierLike) summary.identifierLike = column.identifierLike;
     } else if (column.type === "numeric") {
       let min = Infinity;
       let max = -Infinity;

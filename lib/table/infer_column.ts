@@ -52,6 +52,11 @@ const QUOTED_FAILURES = 5;
 const ID_WORDS = new Set(["id", "ids", "identifier", "uuid", "guid", "key", "no", "nr", "number"]);
 const NEARLY_UNIQUE = 0.95;
 const UNIQUE_MIN_ROWS = 20;
+// A level column names rows rather than grouping them when it has more than
+// this many levels and more levels than half its rows with a value: then
+// most levels hold one or two people, too few for a leaf, and the column
+// is free text (names, comments, addresses) rather than a grouping.
+const IDENTIFIER_LIKE_LEVELS = 50;
 
 const collator = new Intl.Collator("en", { numeric: true, sensitivity: "variant" });
 
@@ -352,7 +357,13 @@ function levels(
   for (let r = 0; r < cells.length; r++) {
     codes[r] = options.isMissing(cells[r]) ? -1 : index.get(cells[r])!;
   }
-  return { ...base, type, codes, levels: order };
+  const column: LevelColumn = { ...base, type, codes, levels: order };
+  const inferred = forced === undefined && options.type === undefined &&
+    options.order === undefined;
+  if (inferred && counts.size > IDENTIFIER_LIKE_LEVELS && 2 * counts.size > present) {
+    column.identifierLike = { levels: counts.size, rows: present };
+  }
+  return column;
 }
 
 function checkOrder(

@@ -26,3 +26,14 @@ export {
 export { type ColumnSummary, describeSchema, type SchemaSummary } from "./describe_schema.ts";
 export { quantile } from "./quality.ts";
 export { filterRows, subsetRows } from "./filter_rows.ts";
+export {
+  findImplausiblePay,
+  type ImplausiblePay,
+  ImplausiblePayError,
+  implausibleRule,
+  PAY_CEILING,
+  PLAUSIBLE_FACTOR,
+  type ScreenedTable,
+  screenPay,
+  type ScreenPayOptions,
+} from "./implausible.ts";

@@ -52,6 +52,13 @@ export interface LevelColumn extends ColumnBase {
   codes: Int32Array;
   /** Level names; for an ordinal column, lowest first. */
   levels: string[];
+  /**
+   * Set when the column was inferred (not declared) and looks like it names
+   * rows rather than groups them: more than 50 levels, and more levels than
+   * half the rows with a value (free text, names, e-mail addresses). Such a
+   * column is left out of the default features.
+   */
+  identifierLike?: { levels: number; rows: number };
 }
 
 /** A column that names rows (unique or nearly so); never a feature. */

@@ -675,6 +675,10 @@ class Grower {
     let leftW = 0;
     let leftQ = 0;
     leftS.fill(0);
+    // Where this scan's best split falls; a categorical split's level lists
+    // are built once, after the scan (building them at each better split
+    // made the scan quadratic in the levels).
+    let bestAt = -1;
     for (let i = 0; i < m - 1; i++) {
       const e = order[i];
       leftN += cN[e];
@@ -688,8 +692,7 @@ class Grower {
         const lastLeft = this.cBin[order[i]];
         best.lastLeftBin = lastLeft;
         if (categorical) {
-          best.leftBins = Array.from(order.subarray(0, i + 1), (j) => this.cBin[j]);
-          best.rightBins = Array.from(order.subarray(i + 1, m), (j) => this.cBin[j]);
+          bestAt = i;
         } else {
           // As scikit-learn: the midpoint, computed as a/2 + b/2.
           const bins = this.data.bins[f];
@@ -700,6 +703,10 @@ class Grower {
           best.threshold = threshold;
         }
       }
+    }
+    if (bestAt >= 0) {
+      best!.leftBins = Array.from(order.subarray(0, bestAt + 1), (j) => this.cBin[j]);
+      best!.rightBins = Array.from(order.subarray(bestAt + 1, m), (j) => this.cBin[j]);
     }
     return best;
   }

@@ -323,7 +323,7 @@ Deno.test("batch on new rows: ordinary estimates, and offers placed in the range
 Deno.test("inspect --json gives the model card", async () => {
   const doc = json(await paygrove(["inspect", modelPath, "--tree", "--json"]));
   assert.equal(doc.settings.trees, 40);
-  assert.equal(doc.referenceTree.outline.rows, 2000);
+  assert.equal(doc.referenceTree.outline[0].rows, 2000);
   assert.match(doc.contents, /no one's pay/);
 });
 

@@ -20,6 +20,7 @@ import { readTableForModel } from "../profile_flags.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
 import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
 import { PROTECTED_CAUTION } from "./fit.ts";
+import { dataWarningLines } from "../data_check.ts";
 
 /** The columns batch adds, in order. */
 export const BATCH_COLUMNS = [
@@ -102,6 +103,16 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         offers = column.values;
       }
       const scored = batchAnswer(session, rows, flags.coverage, offers);
+      // The profiles table's data-quality warnings, on stderr (stdout may be the CSV).
+      const dataWarnings = rows.table.warnings;
+      if (!flags.json) {
+        for (
+          const line of dataWarningLines(dataWarnings, profilesFile, {
+            style: terminal.errStyle,
+            width: terminal.width,
+          })
+        ) terminal.err(line);
+      }
       const counts = {
         scored: scored.length,
         outOfBag: scored.filter((r) => r.estimateSource === "out-of-bag").length,
@@ -113,6 +124,7 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
           jsonText({
             rows: scored.map((r, i) => ({ input: inputRow(rows.raw, i), ...r })),
             ...counts,
+            dataWarnings,
             provenance: model.provenance,
           }),
         );

@@ -25,9 +25,16 @@ import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
-import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
+import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { withCautions } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
+import {
+  assertFiniteFigures,
+  dataCheckLines,
+  droppedReason,
+  leftOutJson,
+  screenPayFlags,
+} from "../data_check.ts";
 
 /** Parses a whole number of at least `min`. */
 export function wholeNumber(min: number) {
@@ -139,7 +146,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
     .option(
       "--features <columns>",
       "the attributes to use, comma-separated (default: all usable)",
-      list,
+      columnList,
     )
     .option("--drop <columns>", "attributes to leave out, comma-separated", list)
     .option(
@@ -148,6 +155,11 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       collectWhere,
     )
     .option("--allow-protected", "allow protected attributes (sex, race, age...) as features")
+    .option(
+      "--drop-implausible",
+      "leave out rows whose pay no pay table holds (more than 10,000 times from the median, " +
+        "beyond 10^15, or not finite) instead of stopping",
+    )
     .addOption(
       new Option("--scale <scale>", "fit pay on its log (default for money) or raw scale")
         .choices(["log", "raw"] as const),
@@ -200,7 +212,14 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      const table = await readTable(file, options, progress);
+      const read = await readTable(file, options, progress);
+      // Implausible pay stops the fit (or is left out); a rating or score
+      // target is not pay and is not screened.
+      const { table, leftOut } = screenPayFlags(
+        read,
+        [{ column: flags.target, moneyOnly: true }],
+        flags.dropImplausible ?? false,
+      );
       if (flags.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));
       }
@@ -227,6 +246,8 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       } finally {
         progress.finish();
       }
+      // No infinite or undefined figure is written or shown.
+      assertFiniteFigures(fitJson(model, flags.out, 0), flags.target);
       const { bytes, sha256 } = await writeModelFile(flags.out, model, flags.force ?? false);
       if (flags.analystFile !== undefined) {
         await writeAnalystFile(flags.analystFile, model, sha256, {
@@ -234,8 +255,16 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           option: "--analyst-file",
         });
       }
+      const folds = { requested: flags.folds, used: model.settings.folds };
+      const extra = {
+        folds,
+        leftOutImplausible: leftOutJson(leftOut),
+        dataWarnings: table.warnings,
+      };
       if (flags.json) {
-        terminal.out(jsonText(fitJson(model, flags.out, bytes, flags.analystFile ?? null)));
+        terminal.out(
+          jsonText({ ...fitJson(model, flags.out, bytes, flags.analystFile ?? null), ...extra }),
+        );
         return;
       }
       const style = terminal.style;
@@ -244,7 +273,6 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         width: terminal.width,
         numbers: { locale: flags.locale, currency: flags.currency },
       };
-      const shown = forTerminal(model);
       terminal.out(
         withCautions(
           [
@@ -264,9 +292,31 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
               ),
               terminal.width,
             ).split("\n")),
-            ...renderModelSummary(shown, view),
+            ...(folds.used < folds.requested
+              ? wrapAnsi(
+                style.warn(
+                  `Cross-validation used ${folds.used} folds, not ${folds.requested}: the table ` +
+                    `has ${model.rows.used} rows, and each fold needs at least one.`,
+                ),
+                terminal.width,
+              ).split("\n")
+              : []),
+            ...dataCheckLines(table, leftOut, file, { style, width: terminal.width }),
+            ...renderModelSummary(
+              forTerminal({
+                ...model,
+                dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })),
+                // The rows left out for implausible pay are said above; the
+                // summary's count is of rows missing the target (or --where).
+                rows: {
+                  ...model.rows,
+                  dropped: model.rows.dropped - leftOut.reduce((n, l) => n + l.count, 0),
+                },
+              }),
+              view,
+            ),
           ],
-          shown.provenance,
+          forTerminal(model.provenance),
           style,
           terminal.width,
         ),

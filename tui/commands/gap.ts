@@ -24,8 +24,10 @@ import { printTableAnswer } from "../render/cautions.ts";
 import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
-import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
+import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
+import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
+import { makeStyle } from "../render/style.ts";
 
 /**
  * Parses a share given as a fraction (0.05) or a percentage (5%).
@@ -77,7 +79,11 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       "categories of workers: combinations of these columns, e.g. job_family,level",
       list,
     )
-    .option("--features <columns>", "the factors to adjust for (default: all usable)", list)
+    .option(
+      "--features <columns>",
+      "the factors to adjust for (default: all usable)",
+      columnList,
+    )
     .option("--drop <columns>", "factors to leave out, comma-separated", list)
     .option(
       "--where <column=value>",
@@ -85,6 +91,11 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       collectWhere,
     )
     .option("--variable <column>", "a variable-pay column, gapped beside base pay")
+    .option(
+      "--drop-implausible",
+      "leave out rows whose pay no pay table holds (more than 10,000 times from the median, " +
+        "beyond 10^15, or not finite) instead of stopping",
+    )
     .option("--threshold <share>", "raw mean gap that is flagged (0.05 or 5%)", shareOption, 0.05)
     .option(
       "--materiality <share>",
@@ -118,7 +129,16 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      const table = await readTable(file, options, progress);
+      const read = await readTable(file, options, progress);
+      const { table, leftOut } = screenPayFlags(
+        read,
+        [
+          { column: flags.target },
+          // Variable pay: zero (no bonus) is common, so no distance from the median.
+          ...(flags.variable !== undefined ? [{ column: flags.variable, ratio: false }] : []),
+        ],
+        flags.dropImplausible ?? false,
+      );
       let report: GapReport;
       try {
         report = await gapCheck(table, {
@@ -142,20 +162,37 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       } finally {
         progress.finish();
       }
+      // No infinite or undefined figure is written or shown.
+      assertFiniteFigures(report, flags.target);
       const numbers = { locale: flags.locale };
+      const check = { style: terminal.style, width: terminal.width };
       if (flags.report !== undefined) {
+        // The report says what the screen says about the data first.
+        const plain = { ...check, style: makeStyle(false), width: 100 };
+        const said = dataCheckLines(table, leftOut, file, plain).filter((l) => l !== "");
         await writeFileAtomic(
           flags.report,
-          gapMarkdown(report, numbers, new Date().toISOString()),
+          gapMarkdown(report, numbers, new Date().toISOString()) +
+            (said.length > 0 ? `\n## Data\n\n${said.join("\n")}\n` : ""),
           { force: flags.force ?? false, option: "--report" },
         );
       }
-      const view = { style: terminal.style, width: terminal.width, numbers };
+      const view = { ...check, numbers };
+      // Everything the screen says about the data is in the JSON too.
+      const doc = {
+        ...report,
+        leftOutImplausible: leftOutJson(leftOut),
+        dataWarnings: table.warnings,
+      };
       printTableAnswer(
         terminal,
         flags.json ?? false,
-        report,
-        () => [...renderGap(forTerminal(report), view), ""],
+        doc,
+        () => [
+          ...dataCheckLines(table, leftOut, file, check),
+          ...renderGap(forTerminal(report), view),
+          "",
+        ],
         flags.report ? [`Report written to ${terminalText(flags.report)}.`] : [],
       );
     });

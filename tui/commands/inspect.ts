@@ -15,30 +15,52 @@ import {
   renderTreeOutline,
 } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
+import { localeTag } from "../table_flags.ts";
 import type { Terminal } from "../terminal.ts";
 import { provenanceLine } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
 
-/** A tree node for JSON: condition, rows, value, children. */
+/**
+ * One node of the tree for JSON, listed by node id (the root is 0): its
+ * parent and depth, rows, value, and for a split its condition and its
+ * children's ids. A flat list, not nested objects: a tree thousands of
+ * levels deep nests too deep for JSON tools (and for JSON.stringify).
+ */
 interface OutlineNode {
+  parent: number | null;
+  depth: number;
   rows: number;
   value: number | null;
   split?: { feature: string; threshold?: number; left?: string[]; right?: string[] };
-  children?: OutlineNode[];
+  children?: [number, number];
 }
 
-function outline(model: Model): OutlineNode {
+function outline(model: Model): OutlineNode[] {
   const tree = model.reference.tree;
   const privacy = model.settings.privacyMin;
-  const visit = (node: number): OutlineNode => {
+  const nodes: OutlineNode[] = [];
+  // Children come after their parent (checked when the file is read), so one
+  // pass in id order meets every parent first: no recursion, however deep.
+  const parent = new Int32Array(tree.nodeCount).fill(-1);
+  const depth = new Int32Array(tree.nodeCount);
+  for (let node = 0; node < tree.nodeCount; node++) {
     const raw = tree.value[node * tree.width];
     const value = tree.rows[node] < privacy
       ? null
       : model.target.kind === "regression" && model.target.scale === "log"
       ? Math.exp(raw)
       : raw;
-    const out: OutlineNode = { rows: tree.rows[node], value };
-    if (tree.left[node] === -1) return out;
+    const out: OutlineNode = {
+      parent: parent[node] < 0 ? null : parent[node],
+      depth: depth[node],
+      rows: tree.rows[node],
+      value,
+    };
+    nodes.push(out);
+    const [l, r] = [tree.left[node], tree.right[node]];
+    if (l === -1) continue;
+    parent[l] = parent[r] = node;
+    depth[l] = depth[r] = depth[node] + 1;
     const f = model.features[tree.feature[node]];
     if (f.kind === "categorical") {
       const words = tree.maskWords[tree.feature[node]];
@@ -54,10 +76,9 @@ function outline(model: Model): OutlineNode {
     } else {
       out.split = { feature: f.name, threshold: tree.threshold[node] };
     }
-    out.children = [visit(tree.left[node]), visit(tree.right[node])];
-    return out;
-  };
-  return visit(0);
+    out.children = [l, r];
+  }
+  return nodes;
 }
 
 /**
@@ -71,7 +92,7 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
     .argument("<model>", "model file written by paygrove fit")
     .option("--tree", "also draw the reference tree as an outline")
     .option("--importance", "also show importance as bars")
-    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
       const read = await openModelFile(terminal, file);

@@ -29,12 +29,14 @@ import { alignColumns } from "../render/text_columns.ts";
 import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { csvCell, forTerminal, terminalText } from "../render/safe_text.ts";
-import { list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
+import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { collectWhere, wholeNumber } from "./fit.ts";
 import { shareOption } from "./gap.ts";
+import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
+const SHOWN_ID = 40;
 
 function coverageOption(text: string): number {
   const share = shareOption(text);
@@ -123,11 +125,12 @@ export function renderReview(
     const rows = [["", "pay", "estimate", "range", "position"]];
     for (const p of people.slice(0, REVIEW_LISTED)) {
       rows.push([
-        p.id,
+        // An identifier is shown to 40 characters (the CSV keeps it whole).
+        p.id.length > SHOWN_ID ? `${p.id.slice(0, SHOWN_ID - 3)}...` : p.id,
         money(p.pay),
         money(p.estimate!),
         `${money(p.low!)}-${money(p.high!)}`,
-        formatPercent(p.position!, false, numbers),
+        p.position === null ? "-" : formatPercent(p.position, false, numbers),
       ]);
     }
     lines.push(...alignColumns(rows));
@@ -139,10 +142,11 @@ export function renderReview(
     lines.push("");
   };
   // Both lists by position in the range, so they read alike.
+  // (A range of no width has no position: such people come last.)
   const under = review.people.filter((p) => p.status === "under")
-    .sort((a, b) => a.position! - b.position!);
+    .sort((a, b) => (a.position ?? Infinity) - (b.position ?? Infinity));
   const over = review.people.filter((p) => p.status === "over")
-    .sort((a, b) => b.position! - a.position!);
+    .sort((a, b) => (b.position ?? -Infinity) - (a.position ?? -Infinity));
   listed("Furthest under their range, by position (0% = the range's low end)", under);
   listed("Furthest over their range, by position (100% = the range's high end)", over);
   for (const note of review.notes) lines.push(...wrap(style.warn(note)));
@@ -175,7 +179,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
     .option(
       "--features <columns>",
       "the factors people are compared on (default: all usable)",
-      list,
+      columnList,
     )
     .option("--drop <columns>", "factors to leave out, comma-separated", list)
     .option(
@@ -201,6 +205,11 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       wholeNumber(3),
       5,
     )
+    .option(
+      "--drop-implausible",
+      "leave out rows whose pay no pay table holds (more than 10,000 times from the median, " +
+        "beyond 10^15, or not finite) instead of stopping",
+    )
     .option("--trees <n>", "trees in the ensemble", wholeNumber(10), 200)
     .option("--seed <s>", "seed of resamples", wholeNumber(0), 1)
     .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
@@ -216,7 +225,12 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
-      const table = await readTable(file, options, progress);
+      const read = await readTable(file, options, progress);
+      const { table, leftOut } = screenPayFlags(
+        read,
+        [{ column: flags.target }],
+        flags.dropImplausible ?? false,
+      );
       let review: PayReview;
       try {
         review = await payReview(table, {
@@ -235,6 +249,8 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       } finally {
         progress.finish();
       }
+      // No infinite or undefined figure is written or shown.
+      assertFiniteFigures(review, flags.target);
       if (flags.out !== undefined) {
         // Per-person pay: a new file is its owner's alone (0600).
         await writeFileAtomic(flags.out, reviewCsv(review), {
@@ -244,13 +260,22 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
         });
       }
       const numbers = { locale: flags.locale, currency: review.money?.currency };
-      printTableAnswer(terminal, flags.json ?? false, review, () => [
-        ...renderReview(forTerminal(review), {
-          style: terminal.style,
-          width: terminal.width,
-          numbers,
-        }),
-        ...(flags.out ? [`Everyone written to ${terminalText(flags.out)}.`, ""] : []),
-      ]);
+      const check = { style: terminal.style, width: terminal.width };
+      // Everything the screen says about the data is in the JSON too.
+      const doc = {
+        ...review,
+        leftOutImplausible: leftOutJson(leftOut),
+        dataWarnings: table.warnings,
+      };
+      printTableAnswer(
+        terminal,
+        flags.json ?? false,
+        doc,
+        () => [
+          ...dataCheckLines(table, leftOut, file, check),
+          ...renderReview(forTerminal(review), { ...check, numbers }),
+          ...(flags.out ? [`Everyone written to ${terminalText(flags.out)}.`, ""] : []),
+        ],
+      );
     });
 }

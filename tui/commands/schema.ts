@@ -10,6 +10,7 @@ import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
 import { renderSchema } from "../render/schema_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { loadOptions, withTableFlags } from "../table_flags.ts";
+import { withWordedNotes } from "../data_check.ts";
 
 /**
  * Builds the `schema` command.
@@ -33,7 +34,7 @@ export function schemaCommand(terminal: Terminal): CommandUnknownOpts {
         terminal.out(jsonText({ file, ...summary }));
         return;
       }
-      const lines = renderSchema(forTerminal(summary), {
+      const lines = renderSchema(forTerminal(withWordedNotes(summary)), {
         file: terminalText(file),
         style: terminal.style,
         width: terminal.width,

@@ -22,9 +22,13 @@ import {
   estimateProfile,
   fitModel,
   type GapReport,
+  type ImplausiblePay,
+  ImplausiblePayError,
   isPayName,
   loadTable,
   type LoadTableOptions,
+  MAX_CLASSES,
+  MAX_SPLIT_LEVELS,
   type Model,
   type ModelSession,
   openModel,
@@ -34,6 +38,7 @@ import {
   readModelFile,
   readTableText,
   rowProfile,
+  screenPay,
   sweepAnswer,
   sweepValues,
   type Table,
@@ -54,6 +59,7 @@ import { renderSchemaBrief } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 import { offerGapCheck, type TableSource } from "./gap_step.ts";
+import { droppedReason, leftOutJson, leftOutSentence } from "../data_check.ts";
 
 /** Settings of a flow run. */
 export interface FlowOptions {
@@ -84,11 +90,12 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   let model: Model | undefined;
   let tableText: string | null = null;
   let source: TableSource | null = null;
+  let leftOut: ImplausiblePay | null = null;
   // Until a model is in hand: a file that cannot be used is said, and the
   // first question comes again.
   while (model === undefined) {
     try {
-      ({ model, tableText, source } = await chooseAndFit(io, options));
+      ({ model, tableText, source, leftOut } = await chooseAndFit(io, options));
     } catch (error) {
       if (!(error instanceof DataError || error instanceof OptionError)) throw error;
       io.say(io.style.warn(`! ${terminalGuard(error.message, false)}`));
@@ -100,14 +107,21 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   const gap = tableText !== null && source !== null
     ? await offerGapCheck(io, model, source, money)
     : null;
-  await whatIfLoop(io, session, tableText, money, { ...options, gap });
+  await whatIfLoop(io, session, tableText, money, { ...options, gap, leftOut });
 }
 
 /** Asks for the data and returns a fitted (or loaded) model. */
 async function chooseAndFit(
   io: FlowIO,
   options: FlowOptions,
-): Promise<{ model: Model; tableText: string | null; source: TableSource | null }> {
+): Promise<
+  {
+    model: Model;
+    tableText: string | null;
+    source: TableSource | null;
+    leftOut: ImplausiblePay | null;
+  }
+> {
   const { style } = io;
   const start = await io.choose("What do you want to work with?", [
     {
@@ -123,6 +137,7 @@ async function chooseAndFit(
   let table: Table | null = null;
   let tableText: string | null = null;
   let source: TableSource | null = null;
+  let leftOut: ImplausiblePay | null = null;
   if (start === "model") {
     const path = await io.ask("Path of the model file:", { validate: fileExists });
     model = await readModelFile(path);
@@ -168,6 +183,21 @@ async function chooseAndFit(
     }
     // The target named, the table is read again so that rows missing it are left out.
     table = loadTable(tableText, { ...readOptions, target });
+    // Pay no pay table holds is said with its lines; the rows are left out
+    // only when the person says so (the flow's --drop-implausible).
+    try {
+      ({ table, leftOut } = screenPay(table, target, { moneyOnly: true }));
+    } catch (error) {
+      if (!(error instanceof ImplausiblePayError)) throw error;
+      io.say(style.warn(`! ${error.message}.`));
+      const n = error.finding.count;
+      const go = await io.choose(`Leave ${n} row${n === 1 ? "" : "s"} out and go on?`, [
+        { name: `Yes, leave ${n === 1 ? "it" : "them"} out`, value: true },
+        { name: "No, choose again (correct the table first)", value: false },
+      ]);
+      if (!go) throw new DataError("nothing was fitted: the table has implausible pay");
+      ({ table, leftOut } = screenPay(table, target, { moneyOnly: true, leaveOut: true }));
+    }
     source = { table, path: start === "demo" ? options.demoPath : label };
     const bar = progressBar({ progress: io.progress, width: io.width });
     try {
@@ -187,19 +217,24 @@ async function chooseAndFit(
       [
         "",
         style.bold(`Fitted in ${model.seconds.toFixed(1)} s`),
-        ...renderModelSummary(forTerminal(model), {
-          style,
-          width: io.width,
-          numbers: { locale: options.locale },
-        }),
+        ...renderModelSummary(
+          forTerminal({
+            ...model,
+            dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })),
+            // Rows left out for implausible pay are said below, apart.
+            rows: { ...model.rows, dropped: model.rows.dropped - (leftOut?.count ?? 0) },
+          }),
+          { style, width: io.width, numbers: { locale: options.locale } },
+        ),
         style.dim(
           "The tree beside the ensemble is the reference tree whose decision path you will see; " +
             "the ensemble averages many such trees for steadier estimates.",
         ),
+        ...(leftOut ? [style.warn(leftOutSentence(leftOut, ", as you chose"))] : []),
       ].join("\n"),
     );
   }
-  return { model, tableText, source };
+  return { model, tableText, source, leftOut };
 }
 
 /** Asks for the target and the features. */
@@ -214,7 +249,11 @@ async function chooseColumns(
   const targets = [
     ...payLike,
     ...numeric.filter((c) => !payLike.includes(c)),
-    ...usable.filter((c) => c.type !== "numeric" && !c.protected),
+    // A class target has at most MAX_CLASSES levels.
+    ...usable.filter((c) =>
+      (c.type === "categorical" || c.type === "ordinal") && !c.protected &&
+      c.levels.length <= MAX_CLASSES
+    ),
   ];
   const target = await io.choose(
     "Which column should paygrove estimate?",
@@ -228,19 +267,33 @@ async function chooseColumns(
     suggested,
   );
   const candidates = usable.filter((c) => c.name !== target);
+  // Unticked by default, with the reason: protected attributes, and level
+  // columns the default features leave out (identifier-like, too many levels).
+  const why = (c: Table["columns"][number]): string | undefined => {
+    if (c.protected) return "protected attribute; unticked by default";
+    if (c.type !== "categorical" && c.type !== "ordinal") return undefined;
+    if (c.identifierLike) {
+      return `looks like an identifier: ${c.identifierLike.levels} levels in ` +
+        `${c.identifierLike.rows} rows`;
+    }
+    if (c.type === "categorical" && c.levels.length > MAX_SPLIT_LEVELS) {
+      return `${c.levels.length} levels; at most ${MAX_SPLIT_LEVELS} can be used`;
+    }
+    return undefined;
+  };
   const features = await io.tick(
     "Which attributes may explain it? (space to tick, enter to go on)",
     candidates.map((c) => ({
-      name: c.protected ? `${c.name} (protected attribute; unticked by default)` : c.name,
+      name: why(c) ? `${c.name} (${why(c)})` : c.name,
       value: c.name,
-      checked: !c.protected,
+      checked: why(c) === undefined,
     })),
   );
   if (features.length === 0) {
     io.say(io.style.warn("No attribute ticked: every usable non-protected attribute is used."));
     return {
       target,
-      features: candidates.filter((c) => !c.protected).map((c) => c.name),
+      features: candidates.filter((c) => why(c) === undefined).map((c) => c.name),
       allowProtected: false,
     };
   }
@@ -274,7 +327,7 @@ async function whatIfLoop(
   session: ModelSession,
   tableText: string | null,
   money: NumberStyle,
-  options: FlowOptions & { gap: GapReport | null },
+  options: FlowOptions & { gap: GapReport | null; leftOut: ImplausiblePay | null },
 ): Promise<void> {
   const { model } = session;
   const view = { style: io.style, width: io.width, money };
@@ -353,6 +406,7 @@ async function whatIfLoop(
       whatIfs,
       options.report,
       options.gap,
+      options.leftOut,
     );
   }
   io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
@@ -570,7 +624,7 @@ async function save(
   model: Model,
   scenarios: Scenario[],
   whatIfs: CompareAnswer[],
-  options: FlowOptions & { gap: GapReport | null },
+  options: FlowOptions & { gap: GapReport | null; leftOut: ImplausiblePay | null },
 ) {
   const path = await io.ask("Save the model as:", { default: "paygrove-model.json" });
   let force = false;
@@ -589,7 +643,7 @@ async function save(
     await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
       default: "paygrove-report.md",
     });
-  await writeReport(io, model, scenarios, whatIfs, report, options.gap);
+  await writeReport(io, model, scenarios, whatIfs, report, options.gap, options.leftOut);
 }
 
 async function writeReport(
@@ -599,12 +653,19 @@ async function writeReport(
   whatIfs: CompareAnswer[],
   path: string,
   gap: GapReport | null,
+  leftOut: ImplausiblePay | null,
 ) {
   const jsonPath = path.replace(/\.md$/, "") + ".json";
   // The gap check, when one was run in the session, follows the scenarios.
+  // Rows left out for implausible pay are said right after the scenarios.
   const markdown = reportMarkdown(model, scenarios, whatIfs) +
+    (leftOut ? `${leftOutSentence(leftOut, ", as you chose")}\n` : "") +
     (gap ? "\n" + gapMarkdown(gap, moneyStyle(model, {}), new Date().toISOString()) : "");
-  const json = { ...reportJson(model, scenarios, whatIfs), ...(gap ? { gap } : {}) };
+  const json = {
+    ...reportJson(model, scenarios, whatIfs),
+    leftOutImplausible: leftOutJson(leftOut ? [leftOut] : []),
+    ...(gap ? { gap } : {}),
+  };
   await writeFileAtomic(path, markdown, {
     force: true,
     option: "report",

@@ -9,6 +9,7 @@ import { Command } from "@commander-js/extra-typings";
 import process from "node:process";
 import { assertCanWrite } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
+import { localeTag } from "../table_flags.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow } from "./guided_flow.ts";
 import { setAscii } from "../render/glyphs.ts";
@@ -18,8 +19,10 @@ import { listenForStop } from "../stop_signals.ts";
 export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
 
 /**
- * Runs the guided flow; returns the exit status (0 also when the person
- * stops it with Ctrl-C; 2 without a terminal to talk to).
+ * Runs the guided flow; returns the exit status: 0 when the person quits
+ * (the menu's Quit, or Esc at a question), 130 when they stop it with
+ * Ctrl-C (as every command does, and as a shell reports a process ended by
+ * SIGINT), 2 without a terminal to talk to.
  */
 export async function startFlow(args: string[], terminal: Terminal): Promise<number> {
   const options = new Command("paygrove")
@@ -28,7 +31,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       "--report <file>",
       "write the session's scenarios to FILE (Markdown) and a .json beside it",
     )
-    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE")
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option("--trees <n>", "trees in the ensemble", (t: string) => Number(t))
     .exitOverride()
     .configureOutput({
@@ -71,10 +74,12 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       trees: options.trees,
     });
   } catch (error) {
-    // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and stop.
-    if (["ExitPromptError", "AbortPromptError"].includes((error as Error).name)) {
+    // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and
+    // stop. Ctrl-C (ExitPromptError) is an interruption, Esc a way to leave.
+    const name = (error as Error).name;
+    if (name === "ExitPromptError" || name === "AbortPromptError") {
       io.say("\nStopped. Nothing more was written.");
-      return 0;
+      return name === "ExitPromptError" ? 130 : 0;
     }
     throw error;
   } finally {

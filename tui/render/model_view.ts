@@ -177,10 +177,15 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
         matrix.push([
           name,
           ...classes.confusion[a].map((n) => formatNumber(n, options.numbers)),
-          formatPercent(classes.recall[a]),
+          // A class with no row (or never predicted) has no recall (precision).
+          Number.isNaN(classes.recall[a]) ? "-" : formatPercent(classes.recall[a]),
         ]);
       });
-      matrix.push(["precision", ...classes.precision.map((p) => formatPercent(p)), ""]);
+      matrix.push([
+        "precision",
+        ...classes.precision.map((p) => (Number.isNaN(p) ? "-" : formatPercent(p))),
+        "",
+      ]);
       lines.push(
         "",
         style.bold("Out-of-bag confusion matrix (rows: actual class; columns: predicted)"),
@@ -321,22 +326,30 @@ export function renderTreeOutline(model: Model, options: ModelViewOptions): stri
     }
     return `${f.name} ${left ? "<=" : ">"} ${Number(t.toPrecision(6))}`;
   };
-  const visit = (node: number, depth: number, label: string) => {
-    const indent = "  ".repeat(depth);
+  // Depth first, left before right, with an explicit stack: a tree of any
+  // depth is drawn without recursion. Indentation stops growing at
+  // OUTLINE_INDENT levels; deeper lines say their depth instead.
+  const stack: [number, number, string][] = [[0, 0, "all"]];
+  while (stack.length > 0) {
+    const [node, depth, label] = stack.pop()!;
+    const indent = "  ".repeat(Math.min(depth, OUTLINE_INDENT));
+    const deep = depth > OUTLINE_INDENT ? `(depth ${depth}) ` : "";
     const leaf = tree.left[node] === -1;
     // Long lines wrap at word boundaries, continued under their own indent.
-    const line = `${label}${leaf ? " -> " : ": "}${valueText(node)} ` +
+    const line = `${deep}${label}${leaf ? " -> " : ": "}${valueText(node)} ` +
       options.style.dim(`(${formatNumber(tree.rows[node], options.numbers)} people)`);
     wrapAnsi(line, Math.max(20, options.width - indent.length - 2)).split("\n").forEach((part, i) =>
       lines.push(`${indent}${i === 0 ? "" : "  "}${part}`)
     );
-    if (leaf) return;
-    visit(tree.left[node], depth + 1, conditionText(node, true));
-    visit(tree.right[node], depth + 1, conditionText(node, false));
-  };
-  visit(0, 0, "all");
+    if (leaf) continue;
+    stack.push([tree.right[node], depth + 1, conditionText(node, false)]);
+    stack.push([tree.left[node], depth + 1, conditionText(node, true)]);
+  }
   return lines;
 }
+
+/** Levels of the outline that are indented; deeper ones carry "(depth N)". */
+export const OUTLINE_INDENT = 16;
 
 /**
  * The possible proxies of protected attributes in one sentence, or null

@@ -46,6 +46,8 @@ export function alignColumns(rows: readonly string[][], options: AlignOptions = 
     spans(r)
       ? `${r[0].padEnd(widths[0])}${gap}${r[1]}`
       : r.map((cell, j) => (left(j) ? cell.padEnd(widths[j]) : cell.padStart(widths[j])))
-        .join(gap).replace(/\s+$/, "")
+        // trimEnd, not a /\s+$/ replace: that regex is quadratic in a long
+        // run of padding (a 10 MB cell took minutes).
+        .join(gap).trimEnd()
   );
 }
