@@ -182,8 +182,13 @@ async function deepModel(splits: number): Promise<string> {
     tree.right[node] = node + 2;
   }
   const path = `${dir}/deep_${splits}.json`;
+  // As many rows as a tree with that many leaves of five needs, or the
+  // reader refuses it as edited.
+  const rows = 5 * (splits + 1);
   await writeModelFile(path, {
     ...base,
+    rows: { used: rows, dropped: 0 },
+    provenance: { ...base.provenance, table: { ...base.provenance.table, rows } },
     reference: { ...base.reference, tree, leaves: splits + 1, depth: splits },
   }, true);
   return path;

@@ -150,7 +150,11 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
     style: { head: [], border: [], "padding-left": 0, "padding-right": 2 },
     colAligns: ["right", "left", "right", "right"],
   });
-  answer.path.forEach((step, i) => {
+  for (const { step, i } of shownSteps(answer.path)) {
+    if (step === null) {
+      table.push(["", `... ${formatNumber(i, money)} more steps (--json lists them all)`, "", ""]);
+      continue;
+    }
     table.push([
       `${i + 1}.`,
       step.condition,
@@ -161,7 +165,7 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
         ? formatPercent(step.value)
         : pay(step.value),
     ]);
-  });
+  }
   if (answer.path.length > 0) lines.push(...table.toString().split("\n").map((l) => `  ${l}`));
   if (!answer.classes) {
     lines.push(
@@ -479,16 +483,49 @@ export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions)
     style: { head: [], border: [], "padding-left": 0, "padding-right": 2 },
     colAligns: ["right", "left", "right", "right"],
   });
-  answer.path.forEach((step, i) => {
-    table.push([
-      `${i + 1}`,
-      step.condition,
-      formatNumber(step.rows, money),
-      step.value === null ? "too few" : pay(step.value),
-    ]);
-  });
+  for (const { step, i } of shownSteps(answer.path)) {
+    table.push(
+      step === null ? ["", `... ${formatNumber(i, money)} more steps`, "", ""] : [
+        `${i + 1}`,
+        step.condition,
+        formatNumber(step.rows, money),
+        step.value === null ? "too few" : pay(step.value),
+      ],
+    );
+  }
   if (answer.path.length > 0) {
     lines.push(...table.toString().split("\n").map((l) => `  ${l.trimEnd()}`));
   }
   return lines;
+}
+
+/** Steps of a decision path drawn in full; a longer path shows its ends. */
+export const PATH_STEPS_SHOWN = 30;
+
+/**
+ * The steps of a path to draw: all of them up to {@linkcode PATH_STEPS_SHOWN},
+ * else the first and last halves with one marker between (`step: null`,
+ * `i` the number of steps left out), so that a tree of any depth draws in
+ * time proportional to the screen, not to the tree.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { shownSteps } from "./answer_view.ts";
+ * const path = Array.from({ length: 100 }, (_, k) => k);
+ * const shown = shownSteps(path);
+ * assert.equal(shown.length, 31);
+ * assert.deepEqual(shown[15], { step: null, i: 70 });
+ * assert.deepEqual(shown[16], { step: 85, i: 85 });
+ * assert.equal(shownSteps([1, 2]).length, 2);
+ * ```
+ */
+export function shownSteps<T>(path: readonly T[]): { step: T | null; i: number }[] {
+  if (path.length <= PATH_STEPS_SHOWN) return path.map((step, i) => ({ step, i }));
+  const half = PATH_STEPS_SHOWN / 2;
+  return [
+    ...path.slice(0, half).map((step, i) => ({ step, i })),
+    { step: null, i: path.length - 2 * half },
+    ...path.slice(path.length - half).map((step, k) => ({ step, i: path.length - half + k })),
+  ];
 }

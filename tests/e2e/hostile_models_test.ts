@@ -1,0 +1,108 @@
+// Model files made to break paygrove (edited with a fresh checksum, as a
+// careful forger would): each is refused with status 1 and one sentence, or
+// answered in bounded time; never status 70, never a hang. The model is
+// fitted here on the invented demo generator's table.
+import assert from "node:assert/strict";
+import { createHash } from "node:crypto";
+import { demoCompanyCsv, fitModel, loadTable, modelToText } from "../../mod.ts";
+import { paygrove } from "./_cli.ts";
+
+const dir = await Deno.makeTempDir({ prefix: "paygrove-hostile-models-" });
+const table = loadTable(demoCompanyCsv({ rows: 300, seed: 2 }), { target: "base_pay_eur" });
+const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+const text = modelToText(model);
+
+// deno-lint-ignore no-explicit-any
+type Doc = Record<string, any>;
+async function forged(name: string, edit: (doc: Doc) => void): Promise<string> {
+  const { checksum: _, ...doc } = JSON.parse(text) as Doc;
+  edit(doc);
+  const body = JSON.stringify(doc);
+  const path = `${dir}/${name}.json`;
+  await Deno.writeTextFile(
+    path,
+    `${body.slice(0, -1)},"checksum":"${createHash("sha256").update(body).digest("hex")}"}`,
+  );
+  return path;
+}
+
+function bytes(values: ArrayLike<number>, Ctor: typeof Int32Array | typeof Float64Array): string {
+  const raw = new Uint8Array(Ctor.from(values as number[]).buffer);
+  let binary = "";
+  for (let i = 0; i < raw.length; i += 0x8000) {
+    binary += String.fromCharCode(...raw.subarray(i, i + 0x8000));
+  }
+  return btoa(binary);
+}
+
+const CASES: [string, (doc: Doc) => void, RegExp][] = [
+  ["empty-ensemble", (doc) => (doc.ensemble.trees = []), /it has 0 trees, its settings say 3/],
+  [
+    "ordinal-without-levels",
+    (doc) => delete doc.features.find((f: Doc) => f.kind === "ordinal").levels,
+    /feature level is ordinal but has no levels/,
+  ],
+  [
+    "support-unknown-feature",
+    (doc) => (doc.support.levelRanges[0].ranges[0].feature = "shoe_size"),
+    /support figures name a numeric feature the model does not have/,
+  ],
+  [
+    "rows-used-50-million",
+    (doc) => (doc.rows.used = 50_000_000),
+    /fitted on 50000000 rows with 0 left out, but its table had 300/,
+  ],
+];
+
+Deno.test("edited model files are refused with status 1 and one sentence", async () => {
+  for (const [name, edit, message] of CASES) {
+    const path = await forged(name, edit);
+    for (const command of [["estimate", path], ["inspect", path, "--tree"]]) {
+      const run = await paygrove(command);
+      assert.equal(run.code, 1, `${name} ${command[0]}: ${run.stderr}`);
+      assert.match(run.stderr, message, name);
+      assert.doesNotMatch(run.stderr, /^\s+at /m, `${name}: a stack trace`);
+    }
+  }
+});
+
+Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", async () => {
+  const n = 40_001;
+  const f = model.features.findIndex((x) => x.kind === "numeric");
+  const left = new Array(n).fill(-1);
+  const right = new Array(n).fill(-1);
+  const feature = new Array(n).fill(-1);
+  const threshold = new Array(n).fill(NaN);
+  for (let k = 0; k + 2 < n; k += 2) {
+    feature[k] = f;
+    threshold[k] = -1e9 + k; // every real value goes right, down the chain
+    left[k] = k + 1;
+    right[k] = k + 2;
+  }
+  const path = await forged("deep-chain", (doc) => {
+    const t = doc.reference.tree;
+    Object.assign(t, {
+      nodeCount: n,
+      feature: bytes(feature, Int32Array),
+      threshold: bytes(threshold, Float64Array),
+      maskOffset: bytes(new Array(n).fill(-1), Int32Array),
+      masks: "",
+      masksLength: 0,
+      left: bytes(left, Int32Array),
+      right: bytes(right, Int32Array),
+      missingLeft: btoa("\0".repeat(n)),
+      value: bytes(new Array(n).fill(11), Float64Array),
+      rows: bytes(new Array(n).fill(5), Int32Array),
+    });
+    // As many rows as such a tree needs.
+    doc.rows.used = 5 * n;
+    doc.provenance.table.rows = 5 * n;
+  });
+  for (const command of [["estimate", path], ["inspect", path, "--tree"]]) {
+    const run = await paygrove(command);
+    assert.equal(run.code, 0, `${command[0]}: ${run.stderr.slice(0, 500)}`);
+  }
+  const run = await paygrove(["estimate", path]);
+  assert.match(run.stdout, /\.\.\. 19,970 more steps \(--json lists them all\)/);
+  assert.ok(run.stdout.split("\n").length < 80);
+});
