@@ -5,7 +5,8 @@
 // example writes the model the later examples read), and the block's output
 // is replaced by what the run printed. The
 // width is the block's own: 80 columns where its old output fits 80, else
-// 100. A block whose old output ended in "..." keeps as many lines before it.
+// 100. A block whose old output ended in "..." keeps as many lines before it;
+// one that left out the closing cautions and provenance leaves them out.
 // Screens of the guided flow are captured in tmux by hand and left alone.
 //
 // Run: deno run -A scripts/readme_examples.ts [--check]
@@ -76,6 +77,13 @@ for (let i = 0; i < lines.length; i++) {
   const kept = truncated ? old.length - 1 : Infinity;
   const width = old.every((l) => l.length <= 80) ? 80 : 100;
   let fresh = await capture(argsOf(command), width);
+  // A block that showed the output without its closing cautions and
+  // provenance (trimmed to keep the README short) stays trimmed.
+  const cautions = fresh.findIndex((l) => l.startsWith("These figures describe"));
+  if (cautions >= 0 && !old.some((l) => l.startsWith("These figures describe"))) {
+    fresh = fresh.slice(0, cautions);
+    while (fresh.length > 0 && fresh[fresh.length - 1] === "") fresh.pop();
+  }
   if (fresh.length > kept) fresh = [...fresh.slice(0, kept), "..."];
   if (fresh.join("\n") !== old.join("\n")) {
     changed++;
