@@ -11,11 +11,16 @@
  * @module
  */
 
-import { createHash } from "node:crypto";
 import { z } from "zod";
 import { DataError } from "../errors.ts";
 import { writeFileAtomic } from "../io/atomic_write.ts";
 import { readTextBounded } from "../io/read_bounded.ts";
+import {
+  arrayFromBase64,
+  arrayToBase64,
+  withChecksum,
+  withoutChecksum,
+} from "../io/checked_json.ts";
 import { STATE_WORDS } from "../ensemble/bootstrap.ts";
 import type { AnalystPart, Model } from "./types.ts";
 
@@ -73,14 +78,10 @@ export function analystToText(model: Model, modelSha256: string): string {
       trees: model.ensemble?.trees.length ?? 0,
       rows: model.rows.used,
     },
-    resamples: toBase64(
-      new Uint8Array(resamples.buffer, resamples.byteOffset, resamples.byteLength),
-    ),
+    resamples: arrayToBase64(resamples),
     rowKeys: model.analyst.rowKeys,
   };
-  const text = JSON.stringify(body);
-  const checksum = createHash("sha256").update(text).digest("hex");
-  return `${text.slice(0, -1)},"checksum":"${checksum}"}`;
+  return withChecksum(body);
 }
 
 /**
@@ -102,13 +103,8 @@ export function analystFromText(text: string, file: string, model: Model): Analy
   if (typeof raw !== "object" || raw === null || (raw as { kind?: unknown }).kind !== MARKER) {
     throw new DataError(`${file} is not a paygrove analyst's file`, { file });
   }
-  const { checksum, ...rest } = raw as { checksum?: unknown };
-  if (
-    typeof checksum !== "string" ||
-    createHash("sha256").update(JSON.stringify(rest)).digest("hex") !== checksum
-  ) {
-    throw damaged("its checksum does not match its contents");
-  }
+  const rest = withoutChecksum(raw);
+  if (rest === null) throw damaged("its checksum does not match its contents");
   const parsed = shape.safeParse(rest);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -127,14 +123,14 @@ export function analystFromText(text: string, file: string, model: Model): Analy
   if (doc.model.trees !== trees || doc.model.rows !== model.rows.used) {
     throw damaged("its counts of trees and rows are not the model's");
   }
-  const bytes = fromBase64(doc.resamples);
-  if (bytes.length !== trees * STATE_WORDS * 4) {
-    throw damaged(`it has ${bytes.length} bytes of resampling states for ${trees} trees`);
+  const resamples = arrayFromBase64(doc.resamples, Int32Array, trees * STATE_WORDS);
+  if (typeof resamples === "string") {
+    throw damaged(`its resampling states (${trees} trees) ${resamples}`);
   }
   if (doc.rowKeys !== null && doc.rowKeys.length !== 12 * model.rows.used) {
     throw damaged(`it has ${doc.rowKeys.length / 12} row keys for ${model.rows.used} rows`);
   }
-  return { resamples: new Int32Array(bytes.buffer), rowKeys: doc.rowKeys };
+  return { resamples, rowKeys: doc.rowKeys };
 }
 
 /**
@@ -160,24 +156,4 @@ export async function readAnalystFile(path: string, model: Model): Promise<Model
   const maxBytes = 4096 + 16 * (model.rows.used + 2 * (model.ensemble?.trees.length ?? 0) * 4);
   const text = await readTextBounded(path, { maxBytes, what: "analyst's file" });
   return { ...model, analyst: analystFromText(text, path, model) };
-}
-
-function toBase64(bytes: Uint8Array): string {
-  let text = "";
-  for (let i = 0; i < bytes.length; i += 0x8000) {
-    text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
-  }
-  return btoa(text);
-}
-
-function fromBase64(text: string): Uint8Array {
-  let binary: string;
-  try {
-    binary = atob(text);
-  } catch {
-    return new Uint8Array(0);
-  }
-  const bytes = new Uint8Array(binary.length);
-  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
-  return bytes;
 }

@@ -24,6 +24,13 @@ import { DataError } from "../errors.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import { VERSION } from "../version.ts";
 import { writeFileAtomic } from "../io/atomic_write.ts";
+import {
+  arrayFromBase64,
+  arrayToBase64,
+  type StoredArray,
+  withChecksum,
+  withoutChecksum,
+} from "../io/checked_json.ts";
 import { readTextBounded } from "../io/read_bounded.ts";
 import { legacyResampleStates } from "../ensemble/bootstrap.ts";
 import { type Model, MODEL_FORMAT, type ModelFileNote } from "./types.ts";
@@ -39,37 +46,19 @@ export const MAX_MODEL_BYTES = 512 * 1024 * 1024;
 /** The marker every paygrove model file starts with. */
 const MARKER = "paygrove-model";
 
-type Typed = Int32Array | Float64Array | Uint8Array | Uint32Array;
-
-function toBase64(array: Typed): string {
-  const bytes = new Uint8Array(array.buffer, array.byteOffset, array.byteLength);
-  let text = "";
-  for (let i = 0; i < bytes.length; i += 0x8000) {
-    text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
-  }
-  return btoa(text);
+function toBase64(array: StoredArray): string {
+  return arrayToBase64(array);
 }
 
-function fromBase64<T extends Typed>(
+function fromBase64<T extends StoredArray>(
   text: string,
   Ctor: { new (buffer: ArrayBuffer): T; BYTES_PER_ELEMENT: number },
   length: number,
   what: string,
 ): T {
-  let binary: string;
-  try {
-    binary = atob(text);
-  } catch {
-    throw damaged(`${what} is not base64`);
-  }
-  if (binary.length !== length * Ctor.BYTES_PER_ELEMENT) {
-    throw damaged(
-      `${what} has ${binary.length} bytes, expected ${length * Ctor.BYTES_PER_ELEMENT}`,
-    );
-  }
-  const bytes = new Uint8Array(binary.length);
-  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
-  return new Ctor(bytes.buffer);
+  const array = arrayFromBase64(text, Ctor, length);
+  if (typeof array === "string") throw damaged(`${what} ${array}`);
+  return array;
 }
 
 let currentFile = "model";
@@ -310,12 +299,7 @@ export function modelToText(model: Model): string {
     seconds: model.seconds,
   };
   // NaN is not JSON: it is written as null and read back as NaN.
-  const text = JSON.stringify(
-    body,
-    (_k, v) => (typeof v === "number" && Number.isNaN(v) ? null : v),
-  );
-  const checksum = createHash("sha256").update(text).digest("hex");
-  return `${text.slice(0, -1)},"checksum":"${checksum}"}`;
+  return withChecksum(body);
 }
 
 /**
@@ -347,13 +331,8 @@ export function modelFromText(text: string, file: string): Model {
       { file },
     );
   }
-  const { checksum, ...rest } = raw as { checksum?: unknown };
-  const body = JSON.stringify(rest);
-  if (
-    typeof checksum !== "string" || createHash("sha256").update(body).digest("hex") !== checksum
-  ) {
-    throw damaged("its checksum does not match its contents");
-  }
+  const rest = withoutChecksum(raw);
+  if (rest === null) throw damaged("its checksum does not match its contents");
   const parsed = documentShape.safeParse(rest);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];

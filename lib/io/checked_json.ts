@@ -1,0 +1,97 @@
+/**
+ * The framing of the JSON files paygrove writes for itself (model files,
+ * analysts' files): typed arrays as base64 of their little-endian bytes
+ * (compact and exact to the last bit), and a SHA-256 checksum of the
+ * document written as its last field, so that a truncated or edited file
+ * is told apart from a sound one.
+ *
+ * @module
+ */
+
+import { createHash } from "node:crypto";
+
+/** The typed arrays the files hold. */
+export type StoredArray = Int32Array | Float64Array | Uint8Array | Uint32Array;
+
+/**
+ * A typed array's bytes as base64.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { arrayFromBase64, arrayToBase64 } from "./checked_json.ts";
+ * const text = arrayToBase64(Int32Array.of(1, -2));
+ * assert.deepEqual(arrayFromBase64(text, Int32Array, 2), Int32Array.of(1, -2));
+ * ```
+ */
+export function arrayToBase64(array: StoredArray): string {
+  const bytes = new Uint8Array(array.buffer, array.byteOffset, array.byteLength);
+  let text = "";
+  for (let i = 0; i < bytes.length; i += 0x8000) {
+    text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  }
+  return btoa(text);
+}
+
+/**
+ * A typed array of `length` elements from base64, or a sentence saying why
+ * the text is not one (to be put in the caller's own error).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { arrayFromBase64 } from "./checked_json.ts";
+ * assert.equal(arrayFromBase64("AAAA", Float64Array, 1), "has 3 bytes, expected 8");
+ * assert.equal(arrayFromBase64("*", Int32Array, 1), "is not base64");
+ * ```
+ */
+export function arrayFromBase64<T extends StoredArray>(
+  text: string,
+  Ctor: { new (buffer: ArrayBuffer): T; BYTES_PER_ELEMENT: number },
+  length: number,
+): T | string {
+  let binary: string;
+  try {
+    binary = atob(text);
+  } catch {
+    return "is not base64";
+  }
+  const expected = length * Ctor.BYTES_PER_ELEMENT;
+  if (binary.length !== expected) return `has ${binary.length} bytes, expected ${expected}`;
+  const bytes = new Uint8Array(binary.length);
+  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
+  return new Ctor(bytes.buffer);
+}
+
+/**
+ * A document as compact JSON with its checksum as the last field (NaN,
+ * which JSON lacks, written as null).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { withChecksum, withoutChecksum } from "./checked_json.ts";
+ * const text = withChecksum({ kind: "x", n: NaN });
+ * assert.deepEqual(withoutChecksum(JSON.parse(text)), { kind: "x", n: null });
+ * assert.equal(withoutChecksum(JSON.parse(text.replace("null", "1"))), null);
+ * ```
+ */
+export function withChecksum(body: object): string {
+  const text = JSON.stringify(
+    body,
+    (_k, v) => (typeof v === "number" && Number.isNaN(v) ? null : v),
+  );
+  const checksum = createHash("sha256").update(text).digest("hex");
+  return `${text.slice(0, -1)},"checksum":"${checksum}"}`;
+}
+
+/**
+ * The parsed document without its checksum field, or null when the
+ * checksum is missing or does not match the rest.
+ */
+export function withoutChecksum(raw: object): Record<string, unknown> | null {
+  const { checksum, ...rest } = raw as { checksum?: unknown };
+  if (typeof checksum !== "string") return null;
+  const sum = createHash("sha256").update(JSON.stringify(rest)).digest("hex");
+  return sum === checksum ? rest : null;
+}
