@@ -223,3 +223,22 @@ export function findRow(model: Model, rows: ModelRows, id: string, file: string)
     { file },
   );
 }
+
+/**
+ * Whether `rows` were read from the very table the model was fitted on
+ * (the same SHA-256 of its bytes): then its people are the model's own, and
+ * their estimates include their own pay unless the analyst's file says
+ * which trees never saw them.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { isTrainingTable } from "./model_table.ts";
+ * const model = { provenance: { table: { sha256: "ab12" } } } as import("./types.ts").Model;
+ * const rows = { table: { source: { sha256: "ab12" } } } as import("./model_table.ts").ModelRows;
+ * assert.equal(isTrainingTable(model, rows), true);
+ * ```
+ */
+export function isTrainingTable(model: Model, rows: ModelRows): boolean {
+  return rows.table.source.sha256 === model.provenance.table.sha256;
+}

@@ -225,10 +225,16 @@ Deno.test("without the analyst's file, batch cannot tell training rows and says 
   assert.equal(doc.outOfBag, 0);
   assert.ok(doc.rows.every((r: { estimateSource: string }) => r.estimateSource === "ensemble"));
   const text = await paygrove(["batch", modelPath, demo, "--out", `${dir}/plain.csv`]);
+  // The demo table is the very file the model was fitted on: that much is
+  // known without the analyst's file, and said.
+  assert.equal(doc.trainingTable, true);
   assert.match(
     text.stderr,
-    /rows of the table the model learned from are not recognised without --analyst-file/,
+    /this is the table the model was fitted on: every row's estimate includes that person's own pay/,
   );
+  const alone = await paygrove(["estimate", modelPath, "--table", demo, "--row", "FH10003"]);
+  assert.equal(alone.code, 0, alone.stderr);
+  assert.match(alone.stdout, /FH10003 is in the table the model was fitted on \(the same file\)/);
 });
 
 Deno.test("fit --analyst-file writes a file only its owner reads, which says what it is", async () => {

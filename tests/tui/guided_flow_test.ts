@@ -249,7 +249,10 @@ Deno.test("from a newcomer's trial: values as typed, the person's own pay, a bad
   await demoFitted(driver);
   await driver.when("Start the profile from", KEY.down, KEY.enter);
   await driver.when("employee_id of the person (e.g. FH10001):", "fh10001", KEY.enter);
-  await driver.when("FH10001's pay in the table: €143,100");
+  // FH10001 is one of the model's own people: beside their pay, the
+  // estimate of the trees that never saw them (the flow keeps the draws of
+  // the model it fitted).
+  await driver.when(/FH10001's pay in the table: €143,100; from trees that never saw FH10001: €\d/);
   // G7 is the top level: no promotion to show.
   await driver.when("What next?", KEY.down, KEY.enter);
   await driver.when("G7 is the top level: there is no promotion to show.");

@@ -10,6 +10,7 @@ import {
   assertCanWrite,
   batchAnswer,
   type BatchRow,
+  isTrainingTable,
   type Model,
   openModel,
   OptionError,
@@ -118,6 +119,8 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         outOfBag: scored.filter((r) => r.estimateSource === "out-of-bag").length,
         // Without the analyst's file no row can be told to be a training row.
         trainingRowsRecognised: model.analyst !== null,
+        // The very table the model was fitted on: its people are the model's own.
+        trainingTable: isTrainingTable(model, rows),
       };
       if (flags.json) {
         terminal.out(
@@ -143,6 +146,9 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
           `paygrove batch: ${counts.scored} rows scored (${
             counts.trainingRowsRecognised
               ? `${counts.outOfBag} training rows given their out-of-bag estimate`
+              : counts.trainingTable
+              ? "this is the table the model was fitted on: every row's estimate includes that " +
+                "person's own pay; --analyst-file gives the estimates of trees that never saw them"
               : "rows of the table the model learned from are not recognised without " +
                 "--analyst-file, so their estimates include their own pay"
           }; ${flagged} unusual for the data, see the warnings column) -> ${

@@ -5,7 +5,7 @@
  */
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
-import { estimateProfile, openModel, outOfBagEstimate } from "../../mod.ts";
+import { estimateProfile, isTrainingTable, openModel, outOfBagEstimate } from "../../mod.ts";
 import { openModelFile } from "../open_model.ts";
 import { formatPay } from "../render/numbers.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
@@ -31,7 +31,7 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
   ).action(async (file, flags) => {
     const model = await openModelFile(terminal, file, flags.analystFile);
     const session = openModel(model);
-    const { profile, warnings, start, id } = await profileFromFlags(model, flags, terminal);
+    const { profile, warnings, start, id, rows } = await profileFromFlags(model, flags, terminal);
     const answer = estimateProfile(session, profile, flags.coverage, warnings);
     const oob = outOfBagEstimate(session, id, profile);
     if (oob !== null) {
@@ -39,6 +39,12 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
         `${id} is one of the people the model learned from, so this estimate includes their own ` +
           `pay; leaving them out (the out-of-bag estimate, as batch gives it) it is ` +
           formatPay(oob, moneyStyle(model, { locale: flags.locale })),
+      );
+    } else if (id !== "" && rows !== null && isTrainingTable(model, rows)) {
+      answer.warnings.unshift(
+        `${id} is in the table the model was fitted on (the same file), so this estimate ` +
+          `includes their own pay; with the analyst's file (--analyst-file) paygrove gives the ` +
+          `estimate of the trees that never saw them`,
       );
     }
     printAnswer(terminal, flags.json === true, model.provenance, { start, ...answer }, () => [

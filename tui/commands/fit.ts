@@ -288,7 +288,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
               style.warn(
                 `Analyst's file: ${terminalText(flags.analystFile)} (readable by you alone). ` +
                   `With a staff list it rebuilds every person's pay: keep it with the pay table, ` +
-                  `never share it. ${terminalText(flags.out)} is safe to share without it.`,
+                  `never share it. ${terminalText(flags.out)} can go to a manager without it.`,
               ),
               terminal.width,
             ).split("\n")),

@@ -172,6 +172,8 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
 }
 
 /** What a model file holds, in one sentence. */
-export const CONTENTS = "The model file holds the schema, settings, trees (node means over at " +
-  "least the privacy minimum of people), out-of-bag residual quantiles by estimate group, " +
-  "accuracy, importance, level-pair head counts and 8-byte hashes of training rows; no one's pay.";
+export const CONTENTS = "The model file holds the schema, settings, trees (splits; node means " +
+  "over at least the privacy minimum of people; counts of every training row per node), out-of-bag " +
+  "residuals by estimate group as means of blocks of people, accuracy, importance and level-pair " +
+  "head counts: no one's pay, and no trace of which people each tree drew. Share it as you would " +
+  "a table of average pay of groups of five: with a manager, not in public.";

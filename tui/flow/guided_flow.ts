@@ -33,6 +33,7 @@ import {
   type ModelSession,
   openModel,
   OptionError,
+  outOfBagEstimate,
   type Profile,
   readForModel,
   readModelFile,
@@ -344,12 +345,24 @@ async function whatIfLoop(
       lines.push(io.style.caution("Caution: a protected attribute shapes this estimate."));
     }
     if (built.person) {
+      // The person is one of the model's own: their estimate leans toward
+      // their pay, so the one from trees that never saw them is said beside
+      // it; after a change the pay is theirs as they are, not the changed
+      // profile's.
+      const who = terminalText(built.person.id);
+      const own = profile === built.profile;
+      const oob = own ? outOfBagEstimate(session, built.person.id, profile) : null;
       lines.splice(
         1,
         0,
         io.style.dim(
-          `  ${terminalText(built.person.id)}'s pay in the table: ` +
-            formatPay(built.person.pay, money),
+          own
+            ? `  ${who}'s pay in the table: ${formatPay(built.person.pay, money)}; ` +
+              (oob !== null
+                ? `from trees that never saw ${who}: ${formatPay(oob, money)}`
+                : "the estimate includes their own pay")
+            : `  ${who} as they are (before the changes) is paid ` +
+              formatPay(built.person.pay, money),
         ),
       );
     }
