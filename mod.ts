@@ -22,6 +22,7 @@ export {
   type DatasetResult,
   type DroppedColumn,
   type DroppedDetail,
+  isPayColumn,
   makeDataset,
   type MakeDatasetOptions,
   MAX_CLASSES,
@@ -135,6 +136,7 @@ export {
   assertCanWrite,
   type AtomicWriteOptions,
   removePendingFiles,
+  sameFile,
   writeFileAtomic,
 } from "./lib/io/atomic_write.ts";
 export * from "./lib/model/types.ts";
@@ -154,6 +156,12 @@ export {
 export * from "./lib/model/profile.ts";
 export * from "./lib/model/model_table.ts";
 export * from "./lib/model/answers.ts";
+export {
+  FIGURE_DIGITS,
+  MEAN_STEP_RMSE,
+  roundedFigures,
+  shareableReference,
+} from "./lib/model/shareable_figures.ts";
 export {
   ANALYST_FILE_WARNING,
   analystFromText,

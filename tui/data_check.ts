@@ -86,6 +86,9 @@ export function droppedReason(dropped: DroppedColumn): string {
   if (detail?.kind === "too-many-levels") {
     return `${count(detail.levels)} levels; at most ${count(detail.limit)} are split on`;
   }
+  if (detail?.kind === "pay") {
+    return "pay: pay never explains pay, and a model would show it in its split points";
+  }
   if (detail?.kind === "identifier-like") {
     return `looks like an identifier: ${count(detail.levels)} levels in ${count(detail.rows)} rows`;
   }

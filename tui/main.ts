@@ -26,7 +26,7 @@ import { startFlow } from "./flow/start_flow.ts";
 import { demoDataCommand } from "./commands/demo_data.ts";
 import { gapCommand } from "./commands/gap.ts";
 import { reviewCommand } from "./commands/review.ts";
-import { terminalGuard } from "./render/safe_text.ts";
+import { clipLongRuns, terminalGuard } from "./render/safe_text.ts";
 import { listenForStop } from "./stop_signals.ts";
 
 /** Exit statuses of the `paygrove` command. */
@@ -115,7 +115,7 @@ export async function run(args: string[], terminal: Terminal): Promise<number> {
   } catch (error) {
     return report(error, terminal);
   } finally {
-    stopListening();
+    await stopListening();
   }
 }
 
@@ -126,13 +126,14 @@ function report(error: unknown, terminal: Terminal): number {
     return error.exitCode === 0 ? EXIT.ok : EXIT.usage;
   }
   // Messages quote names from the data: shown with their control
-  // characters visible (line breaks between listed items stay).
+  // characters visible (line breaks between listed items stay) and
+  // overlong names cut to their ends.
   if (error instanceof OptionError) {
-    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(error.message, false)}`);
+    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(error.message), false)}`);
     return EXIT.usage;
   }
   if (error instanceof DataError) {
-    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(error.message, false)}`);
+    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(error.message), false)}`);
     return EXIT.data;
   }
   terminal.err(

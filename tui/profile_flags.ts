@@ -6,7 +6,7 @@
  * @module
  */
 
-import { type Command, InvalidArgumentError } from "@commander-js/extra-typings";
+import type { Command } from "@commander-js/extra-typings";
 import {
   applySets,
   findRow,
@@ -21,6 +21,7 @@ import {
 } from "../mod.ts";
 import { PROTECTED_CAUTION } from "./commands/fit.ts";
 import { ANALYST_FILE_OPTION } from "./open_model.ts";
+import { coverageOption } from "./option_values.ts";
 import { localeTag } from "./table_flags.ts";
 import { dataWarningLines } from "./data_check.ts";
 import type { Terminal } from "./terminal.ts";
@@ -40,14 +41,6 @@ function collect(text: string, previous: string[] = []): string[] {
   return [...previous, text];
 }
 
-function coverage(text: string): number {
-  const value = Number(text);
-  if (!(value >= 0.5 && value <= 0.99)) {
-    throw new InvalidArgumentError(`expected a share from 0.5 to 0.99, such as 0.9, got "${text}"`);
-  }
-  return value;
-}
-
 /** Adds the profile options to a command. */
 export function withProfileFlags<A extends unknown[], O extends Record<string, unknown>>(
   command: Command<A, O>,
@@ -57,7 +50,7 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
     .option("--table <table>", "a table with the model's columns, to start from one of its rows")
     .option("--row <id>", "the identifier of the row of --table to start from")
     .option("--set <column=value>", "set an attribute of the profile (repeatable)", collect)
-    .option("--coverage <share>", "coverage of the intervals", coverage, 0.9)
+    .option("--coverage <share>", "coverage of the intervals", coverageOption, 0.9)
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option(...ANALYST_FILE_OPTION)
     .option("--json", "print one JSON document on stdout instead of text") as unknown as Command<

@@ -22,21 +22,25 @@ export const STOP_SIGNALS = [
  * files, calls `say` with the signal's name (a failure to say it, as on a
  * closed terminal, is ignored) and exits with 128 + its number.
  *
- * @returns A function that stops listening.
+ * @returns A function that stops listening, once a signal that arrived
+ * while synchronous work held the thread has been handled: Deno delivers a
+ * signal only when the event loop turns, so without that turn a SIGTERM
+ * sent during the last busy stretch was dropped and the run ended in 0.
  *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
  * import { listenForStop } from "./stop_signals.ts";
- * const stop = listenForStop(() => {});
- * assert(typeof stop === "function");
- * stop();
+ * const said: string[] = [];
+ * const stop = listenForStop((name) => said.push(name));
+ * await stop();
+ * assert.deepEqual(said, []);
  * ```
  */
 export function listenForStop(
   say: (name: string) => void,
   exit: (status: number) => void = Deno.exit,
-): () => void {
+): () => Promise<void> {
   const added: [Deno.Signal, () => void][] = [];
   for (const { signal, number, name } of STOP_SIGNALS) {
     const handler = () => {
@@ -55,7 +59,8 @@ export function listenForStop(
       // Not a signal of this platform (Windows has SIGINT only).
     }
   }
-  return () => {
+  return async () => {
+    await new Promise((resolve) => setTimeout(resolve, 0));
     for (const [signal, handler] of added) Deno.removeSignalListener(signal, handler);
   };
 }

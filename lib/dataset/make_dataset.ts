@@ -4,9 +4,10 @@
  * @module
  */
 
-import { OptionError } from "../errors.ts";
+import { DataError, OptionError } from "../errors.ts";
 import { columnNamed } from "../table/column_named.ts";
 import type { Column, Table } from "../table/types.ts";
+import { isPayName } from "../table/money.ts";
 import type { Dataset, Feature } from "./types.ts";
 
 /** Options of {@linkcode makeDataset}. */
@@ -52,10 +53,65 @@ export const MAX_SPLIT_LEVELS = 1000;
  */
 export const MAX_CLASSES = 100;
 
+/**
+ * The largest size of a number an attribute may hold: beyond it sums of
+ * squares overflow (a value of 1.7e308 made every straight-line prediction
+ * undefined), and no count, rating, year or score of people comes near it.
+ */
+export const ATTRIBUTE_CEILING = 1e15;
+
+/**
+ * The smallest size of a number other than 0 an attribute may hold:
+ * below it a number loses its precision (a subnormal such as 5e-324), and
+ * dividing by a spread made of such numbers is undefined.
+ */
+export const ATTRIBUTE_FLOOR = 1e-300;
+
+// A numeric attribute with a number no table of people holds stops the
+// fit with the line, as implausible pay does.
+function checkUsableNumbers(c: Column, table: Table): void {
+  if (c.type !== "numeric") return;
+  for (let r = 0; r < c.values.length; r++) {
+    const x = c.values[r];
+    if (Number.isNaN(x)) continue;
+    const size = Math.abs(x);
+    if (size > ATTRIBUTE_CEILING || (size !== 0 && size < ATTRIBUTE_FLOOR)) {
+      throw new DataError(
+        `"${c.name}" has ${x} on line ${table.lines[r]}: no attribute of people holds a number ` +
+          `${size > ATTRIBUTE_CEILING ? "beyond 10^15" : "this close to 0 but not 0"}; ` +
+          `correct it, or leave the column out`,
+        { line: table.lines[r], column: c.name },
+      );
+    }
+  }
+}
+
 /** Why a column was left out, as data. */
 export type DroppedDetail =
   | { kind: "identifier-like"; levels: number; rows: number }
-  | { kind: "too-many-levels"; levels: number; limit: number };
+  | { kind: "too-many-levels"; levels: number; limit: number }
+  | { kind: "pay" };
+
+/**
+ * Whether a column other than the target is pay (money by its values or
+ * options, or named like pay: a bonus, an allowance, a second salary).
+ * Such a column is never an attribute: a tree splits on its values
+ * halfway between two people's pay, so a model file would show them (its
+ * thresholds and per-level ranges), and pay explained by pay says nothing
+ * about the pay structure.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { isPayColumn } from "./make_dataset.ts";
+ * const table = loadTable("level,bonus_eur,years\nL1,500,3\nL2,800,5\n");
+ * assert.deepEqual(table.columns.map(isPayColumn), [false, true, false]);
+ * ```
+ */
+export function isPayColumn(column: Column): boolean {
+  return column.type === "numeric" && (column.money !== undefined || isPayName(column.name));
+}
 
 /** Why a column is not a feature. */
 export interface DroppedColumn {
@@ -124,6 +180,12 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
             `unless you pass --allow-protected`,
         );
       }
+      if (isPayColumn(c)) {
+        throw new OptionError(
+          `--features: "${c.name}" is pay; pay is never an attribute (a model's split points ` +
+            `would show people's pay, and pay explained by pay explains nothing)`,
+        );
+      }
       if (c.type === "categorical" && c.levels.length > MAX_SPLIT_LEVELS) {
         throw new OptionError(
           `"${c.name}" has ${count(c.levels.length)} levels; a categorical attribute is split on ` +
@@ -151,6 +213,10 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
         : c.protected && !options.allowProtected
         ? "protected attribute"
         : undefined;
+      if (reason === undefined && isPayColumn(c)) {
+        dropped.push({ name: c.name, reason: "pay", detail: { kind: "pay" } });
+        continue;
+      }
       const detail = reason === undefined ? manyLevels(c) : undefined;
       if (reason) dropped.push({ name: c.name, reason });
       else if (detail) {
@@ -163,6 +229,7 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
     }
   }
 
+  for (const c of chosen) checkUsableNumbers(c, table);
   const keep: number[] = [];
   for (let r = 0; r < table.rows; r++) if (!targetMissing(targetColumn, r)) keep.push(r);
   const rowIndex = Int32Array.from(keep);

@@ -11,6 +11,7 @@
  * @module
  */
 
+import { resolve } from "node:path";
 import { DataError, OptionError } from "../errors.ts";
 
 /** Options of {@linkcode writeFileAtomic}. */
@@ -65,8 +66,9 @@ export function removePendingFiles(): number {
 /**
  * Writes `data` to `path` atomically.
  *
- * @throws {OptionError} when the path exists and `force` is not set, or it
- * is not a regular file.
+ * @param reading Files the run reads: the output may be none of them.
+ * @throws {OptionError} when the path exists and `force` is not set, it
+ * is not a regular file, or it is one of the files read.
  * @throws {DataError} when the folder cannot be written.
  *
  * @example
@@ -90,8 +92,9 @@ export async function writeFileAtomic(
   const temporary = temporaryBeside(path);
   const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
   // The temporary file is the owner's alone while it fills; then it takes
-  // the replaced file's mode, or stays 0600 for per-person pay.
-  const keep = existing?.mode != null ? existing.mode & 0o777 : null;
+  // the replaced file's mode, or stays 0600 for per-person pay (even over a
+  // file others could read: what it holds now is not for them).
+  const keep = !options.private && existing?.mode != null ? existing.mode & 0o777 : null;
   const restrict = keep !== null || options.private === true;
   pending.add(temporary);
   try {
@@ -128,8 +131,9 @@ export async function writeFileAtomic(
  * exist (unless `force`), and its folder exists and takes a new file (a
  * probe file is created there and removed at once).
  *
- * @throws {OptionError} when the path exists and `force` is not set, or it
- * is not a regular file.
+ * @param reading Files the run reads: the output may be none of them.
+ * @throws {OptionError} when the path exists and `force` is not set, it
+ * is not a regular file, or it is one of the files read.
  * @throws {DataError} when the folder does not exist or cannot be written.
  *
  * @example
@@ -142,7 +146,19 @@ export async function writeFileAtomic(
  * await assert.rejects(() => assertCanWrite("/no/such/folder/x.csv", false, "--out"), /folder does not exist/);
  * ```
  */
-export async function assertCanWrite(path: string, force: boolean, option: string): Promise<void> {
+export async function assertCanWrite(
+  path: string,
+  force: boolean,
+  option: string,
+  reading: readonly string[] = [],
+): Promise<void> {
+  for (const input of reading) {
+    if (await sameFile(path, input)) {
+      throw new OptionError(
+        `${option}: ${path} is ${input}, which this run reads; write the output elsewhere`,
+      );
+    }
+  }
   await checkTarget(path, force, option);
   const probe = temporaryBeside(path);
   pending.add(probe);
@@ -154,6 +170,29 @@ export async function assertCanWrite(path: string, force: boolean, option: strin
     throw new DataError(`${option}: cannot write ${path} (${writeProblem(error)})`);
   } finally {
     pending.delete(probe);
+  }
+}
+
+/**
+ * Whether two paths name the same file: the same path once made absolute
+ * and normalised (`./x.json` is `x.json`), or, when both exist, the same
+ * file on disk (a link, a different spelling).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { sameFile } from "./atomic_write.ts";
+ * assert(await sameFile("out/x.json", "./out/../out/x.json"));
+ * assert(!(await sameFile("x.json", "y.json")));
+ * ```
+ */
+export async function sameFile(a: string, b: string): Promise<boolean> {
+  if (resolve(a) === resolve(b)) return true;
+  try {
+    const [x, y] = await Promise.all([Deno.stat(a), Deno.stat(b)]);
+    return x.dev === y.dev && x.ino !== null && x.ino === y.ino;
+  } catch {
+    return false;
   }
 }
 

@@ -22,7 +22,8 @@ import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../gap/proxies.
 import type { DeclaredType } from "../table/infer_column.ts";
 import { binFeatures } from "../tree/bins.ts";
 import { crossValidateTree } from "../tree/cross_validate.ts";
-import { type FlatTree, leafCount, treeDepth } from "../tree/flat_tree.ts";
+import { leafCount, treeDepth } from "../tree/flat_tree.ts";
+import { roundedFigures, shareableReference } from "./shareable_figures.ts";
 import { shareTree } from "../tree/share_tree.ts";
 import { crossValidatedLinear } from "../linear/cross_validate_linear.ts";
 import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
@@ -355,28 +356,30 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       used: dataset.rows,
       dropped: table.rows + table.excluded.count - dataset.rows,
     },
+    // Exact figures over the people are kept as a shared file may hold
+    // them (shareable_figures.ts), in memory as in the file.
     reference: {
-      tree: withoutVariances(cv.tree),
-      alpha: chosen.alpha,
+      tree: shareableReference(cv.tree, regression ? chosen.cvRmse : 0),
+      alpha: roundedFigures(chosen.alpha),
       leaves: leafCount(cv.tree),
       depth: treeDepth(cv.tree),
-      pruningPath: cv.candidates.map((c) => ({
+      pruningPath: roundedFigures(cv.candidates.map((c) => ({
         alpha: c.alpha,
         leaves: c.leaves,
         risk: c.risk,
         cvError: c.cvError,
         cvSe: c.cvSe,
-      })),
+      }))),
     },
     ensemble: ensemble === null ? null : {
       trees: ensemble.trees.map((t) => shareTree(t, dataset.features, dataset.rows)),
-      alpha: prune === "none" ? 0 : minAlpha,
+      alpha: prune === "none" ? 0 : roundedFigures(minAlpha),
     },
     residuals,
-    quality,
-    importance,
-    proxies,
-    support: supportOf(dataset, importance, privacyMin),
+    quality: roundedFigures(quality),
+    importance: roundedFigures(importance),
+    proxies: roundedFigures(proxies),
+    support: supportOf(dataset, roundedFigures(importance), privacyMin),
     analyst: {
       resamples: ensemble?.resamples ?? new Int32Array(0),
       rowKeys: identifier && identifier.type === "identifier"
@@ -450,14 +453,6 @@ function checkSettings(trees: number, minLeaf: number, privacyMin: number, folds
   if (!Number.isInteger(folds) || folds < 2) {
     throw new OptionError(`--folds must be a whole number >= 2, got ${folds}`);
   }
-}
-
-// The reference tree is fitted on every row with weight 1, so its node
-// counts and means are what a staff list and the tree tell anyway; its
-// node variances would add the spread of each leaf's pay, so they are not
-// kept (a model read from a file has none either).
-function withoutVariances(tree: FlatTree): FlatTree {
-  return { ...tree, impurity: new Float64Array(tree.nodeCount).fill(NaN) };
 }
 
 /** Each row's prediction by the mean of the other folds' targets. */

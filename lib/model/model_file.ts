@@ -33,15 +33,24 @@ import {
 } from "../io/checked_json.ts";
 import { readTextBounded } from "../io/read_bounded.ts";
 import { legacyResampleStates } from "../ensemble/bootstrap.ts";
+import { ATTRIBUTE_CEILING } from "../dataset/make_dataset.ts";
 import { type Model, MODEL_FORMAT, type ModelFileNote } from "./types.ts";
 
 /**
- * The largest model file read: a JSON text longer than about 512 million
- * characters cannot be parsed by the JavaScript engine anyway, and no
- * model paygrove writes comes near it (the default CPS1988 model is 3.4 MB,
- * unpruned 36 MB).
+ * The largest model file read. No model paygrove writes comes near it (the
+ * default CPS1988 model is 3.4 MB, unpruned 36 MB), and the JavaScript
+ * engine's parser ran out of memory and stopped the process (not an error
+ * paygrove can catch) on a 300 MB file of one long string; 200 MiB parses.
  */
-export const MAX_MODEL_BYTES = 512 * 1024 * 1024;
+export const MAX_MODEL_BYTES = 200 * 1024 * 1024;
+
+/**
+ * The largest size of a value on the fitting scale: log pay within +/-40
+ * (e^40 is 2 x 10^17, beyond any pay), raw values within 10^15 (the pay
+ * ceiling of lib/table/implausible.ts). A larger one is an edited file, and
+ * would make an estimate or a chart overflow.
+ */
+const VALUE_BOUND = { log: 40, raw: 1e15 } as const;
 
 /** The marker every paygrove model file starts with. */
 const MARKER = "paygrove-model";
@@ -134,7 +143,8 @@ const accuracy = z.object({
   })).optional(),
 });
 const moneyUnit = z.object({
-  currency: z.string().optional(),
+  // An ISO 4217 code: anything else makes the number formatter throw.
+  currency: z.string().regex(/^[A-Z]{3}$/, "must be a currency code such as EUR").optional(),
   period: z.enum(["hour", "week", "month", "year"]).optional(),
 });
 
@@ -324,7 +334,12 @@ export function modelFromText(text: string, file: string): Model {
     throw new DataError(`${file} is not a paygrove model file`, { file });
   }
   const format = (raw as { format?: unknown }).format;
-  if (typeof format !== "number" || format > MODEL_FORMAT) {
+  if (typeof format !== "number" || !Number.isInteger(format) || format < 1) {
+    throw new DataError(`${file} is not a paygrove model file (its format is not a number)`, {
+      file,
+    });
+  }
+  if (format > MODEL_FORMAT) {
     throw new DataError(
       `${file} was written in model format ${format} by a newer paygrove; this paygrove ` +
         `(${VERSION}) reads format ${MODEL_FORMAT}. Refit the model or upgrade paygrove`,
@@ -345,6 +360,8 @@ export function modelFromText(text: string, file: string): Model {
     f.kind === "categorical" ? Math.ceil((f.levels?.length ?? 0) / 32) : 0
   );
   const width = doc.target.kind === "regression" ? 1 : (doc.target.classes?.length ?? 0);
+  // Class shares lie in [0, 1]; regression values within the scale's bound.
+  const bound = doc.target.kind === "regression" ? VALUE_BOUND[doc.target.scale] : 1;
   // A tree's leaves each hold at least the minimum leaf of the rows it was
   // fitted on, so it has at most this many nodes; a larger count is an
   // edited file (and would make every walk slow).
@@ -384,7 +401,7 @@ export function modelFromText(text: string, file: string): Model {
       weight: Float64Array.from(rows),
       impurity: new Float64Array(n).fill(NaN),
     };
-    checkTree(tree, doc.features, where);
+    checkTree(tree, doc.features, where, bound);
     return tree;
   };
   const reference = decodeTree(doc.reference.tree, "reference tree");
@@ -428,6 +445,9 @@ export function modelFromText(text: string, file: string): Model {
         for (let k = 1; k < GRID; k++) {
           if (!(grid[k] >= grid[k - 1])) throw damaged(`residual group ${g + 1} is not sorted`);
         }
+        if (!(Math.abs(grid[0]) <= bound && Math.abs(grid[GRID - 1]) <= bound)) {
+          throw damaged(`residual group ${g + 1} reaches beyond ${bound}`);
+        }
         return grid;
       }),
     };
@@ -463,6 +483,11 @@ function checkParts(doc: z.infer<typeof documentShape>): void {
   for (const f of doc.features) {
     if (f.kind === "numeric") {
       if (f.levels !== undefined) throw damaged(`feature ${f.name} is numeric but has levels`);
+      // The numbers an attribute may hold (lib/dataset/make_dataset.ts).
+      const figures = [f.typical, ...Object.values(f.range ?? {})];
+      if (figures.some((x) => Math.abs(x) > ATTRIBUTE_CEILING)) {
+        throw damaged(`feature ${f.name} has a range beyond 10^15`);
+      }
       continue;
     }
     const levels = f.levels ?? [];
@@ -487,6 +512,13 @@ function checkParts(doc: z.infer<typeof documentShape>): void {
     }
   }
   for (const group of doc.support.levelRanges) {
+    if (
+      group.ranges.some((r) =>
+        Math.abs(r.p01) > ATTRIBUTE_CEILING || Math.abs(r.p99) > ATTRIBUTE_CEILING
+      )
+    ) {
+      throw damaged(`its support figures hold a number beyond 10^15`);
+    }
     const f = byName.get(group.feature);
     if (f === undefined || !(f.levels ?? []).includes(group.level)) {
       throw damaged(`its support figures name ${group.feature} ${group.level}, which it lacks`);
@@ -511,14 +543,17 @@ function checkTree(
   tree: FlatTree,
   features: { kind: string; levels?: string[] }[],
   where: string,
+  bound: number,
 ): void {
   for (let i = 0; i < tree.nodeCount; i++) {
     const l = tree.left[i];
     const r = tree.right[i];
     const f = tree.feature[i];
     for (let c = 0; c < tree.width; c++) {
-      if (!Number.isFinite(tree.value[i * tree.width + c])) {
-        throw damaged(`${where}: node ${i} has no finite value`);
+      const v = tree.value[i * tree.width + c];
+      if (!Number.isFinite(v)) throw damaged(`${where}: node ${i} has no finite value`);
+      if (!(Math.abs(v) <= bound)) {
+        throw damaged(`${where}: node ${i} has the value ${v}, beyond ${bound}`);
       }
     }
     if (l === -1 && r === -1 && f === -1) continue;

@@ -10,8 +10,8 @@
  * @module
  */
 
-// The same plain-number syntax that amount.ts reads without further ado.
-const PLAIN = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+import { MAX_AMOUNT_CHARS, PLAIN_NUMBER } from "./amount.ts";
+
 // Texts shared while a column has at most this many distinct ones (levels);
 // past it (identifiers) sharing saves nothing.
 const SHARED_MAX = 65536;
@@ -85,7 +85,9 @@ export class CellColumn {
     if (this.#values !== null) {
       let value = NaN;
       const missing = this.#isMissing(text);
-      if (!missing) value = PLAIN.test(text) ? Number(text) : NaN;
+      if (!missing && text.length <= MAX_AMOUNT_CHARS && PLAIN_NUMBER.test(text)) {
+        value = Number(text);
+      }
       // Not plain, or too large to be a number (1e400): the column is text.
       if (!missing && !Number.isFinite(value)) {
         this.#toText(r);

@@ -58,7 +58,10 @@ const PHRASES = ["national origin", "country of origin", "sexual orientation"];
 export function nameWords(name: string): string[] {
   return name
     .replace(/([a-z0-9])([A-Z])/g, "$1 $2")
-    .replace(/([A-Z]+)([A-Z][a-z])/g, "$1 $2")
+    // A lookahead of fixed length, not `([A-Z]+)([A-Z][a-z])`: that one
+    // backtracks over every run of capitals and took 8.5 s on a header of
+    // 50,000 of them.
+    .replace(/([A-Z])(?=[A-Z][a-z])/g, "$1 ")
     .split(/[\s_\-./()]+/)
     .filter((w) => w !== "")
     .map((w) => w.toLowerCase());

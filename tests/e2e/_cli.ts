@@ -8,11 +8,22 @@
 const root = new URL("../../", import.meta.url).pathname;
 const config = JSON.parse(await Deno.readTextFile(`${root}deno.json`));
 
+// A task is `NAME=value ... deno run ...`: the settings, then the command.
+function taskWords(task: string): { settings: string[]; command: string[] } {
+  const words = (config.tasks[task] as string).split(/\s+/);
+  const first = words.findIndex((w) => !/^[A-Z_]+=/.test(w));
+  if (words[first] !== "deno") throw new Error(`task ${task} does not run deno`);
+  return { settings: words.slice(0, first), command: words.slice(first + 1) };
+}
+
 /** The `deno run ...` arguments of a task, after the word `deno`. */
 export function taskArgs(task: string): string[] {
-  const words = (config.tasks[task] as string).split(/\s+/);
-  if (words[0] !== "deno") throw new Error(`task ${task} does not start with deno`);
-  return words.slice(1);
+  return taskWords(task).command;
+}
+
+/** The environment settings a task puts before `deno` (`DENO_NO_UPDATE_CHECK=1`). */
+export function taskEnv(task: string): Record<string, string> {
+  return Object.fromEntries(taskWords(task).settings.map((w) => w.split("=", 2)));
 }
 
 /** What a run of the CLI printed and returned. */
@@ -22,15 +33,23 @@ export interface CliResult {
   stderr: string;
 }
 
-/** Runs `paygrove ARGS` from the project root. */
+/**
+ * Runs `paygrove ARGS` from the project root. With `killAfterSeconds`, a
+ * run still going then is killed (its status is then not 0, 1 or 2): for
+ * inputs built to make a slow path take hours, not for timing.
+ */
 export async function paygrove(
   args: string[],
   env: Record<string, string> = {},
+  killAfterSeconds?: number,
 ): Promise<CliResult> {
   const output = await new Deno.Command(Deno.execPath(), {
     args: [...taskArgs("paygrove"), ...args],
     cwd: root,
-    env: { NO_COLOR: "", ...env },
+    signal: killAfterSeconds === undefined
+      ? undefined
+      : AbortSignal.timeout(killAfterSeconds * 1000),
+    env: { ...taskEnv("paygrove"), NO_COLOR: "", ...env },
     stdin: "null",
     stdout: "piped",
     stderr: "piped",
@@ -68,6 +87,7 @@ export async function paygroveOnTerminal(
     env: {
       PATH: `${Deno.execPath().replace(/\/[^/]+$/, "")}:${Deno.env.get("PATH")}`,
       TERM: "xterm-256color",
+      ...taskEnv("paygrove"),
     },
     stdout: "piped",
     stderr: "piped",

@@ -156,9 +156,18 @@ Deno.test("an unknown encoding is bad usage", async () => {
 Deno.test("every task runs without network permission", async () => {
   const config = JSON.parse(await Deno.readTextFile(`${ROOT}deno.json`));
   for (const [name, command] of Object.entries(config.tasks as Record<string, string>)) {
-    if (!/^deno (run|test|bench)/.test(command)) continue;
+    if (!/^([A-Z_]+=\S+ )*deno (run|test|bench)/.test(command)) continue;
     assert.match(command, /--deny-net/, name);
     assert.doesNotMatch(command, /--allow-net|--allow-all|\s-A\b/, name);
+  }
+});
+
+Deno.test("the program's tasks turn off Deno's update check", async () => {
+  // Without it, `deno run` looks up dl.deno.land (a DNS query leaves the
+  // machine) before the program starts; --deny-net does not cover it.
+  const config = JSON.parse(await Deno.readTextFile(`${ROOT}deno.json`));
+  for (const name of ["start", "paygrove"]) {
+    assert.match(config.tasks[name], /^DENO_NO_UPDATE_CHECK=1 deno run /, name);
   }
 });
 
@@ -177,4 +186,43 @@ Deno.test("demo-data writes the invented company's table, and keeps an existing 
   assert.match(again.stderr, /already exists; add --force/);
   assert.equal(await Deno.readTextFile(file), demoCompanyCsv({ rows: 3 }));
   await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("numbers typed as options are refused unless written as such, with their bounds", async () => {
+  // Number("") is 0: `--trees ""` once fitted the reference tree alone, and
+  // `--seed ""` used seed 0, without a word. batch took any --coverage.
+  const demo = `${ROOT}fixtures/demo_company.csv`;
+  const out = `${await Deno.makeTempDir()}/never.json`;
+  const fit = ["fit", demo, "--target", "base_pay_eur", "--out", out];
+  const cases: [string[], RegExp][] = [
+    [
+      [...fit, "--trees", ""],
+      /--trees <n>' argument '' is invalid\. expected a whole number from 0 to 10,000/,
+    ],
+    [[...fit, "--trees", "20000"], /from 0 to 10,000, got "20000"/],
+    [[...fit, "--trees", "1e2"], /got "1e2"/],
+    [[...fit, "--seed", ""], /expected a whole number from 0 to 2,147,483,647, got ""/],
+    [[...fit, "--seed", "4294967297"], /from 0 to 2,147,483,647/],
+    [["demo-data", "--rows", "20000000"], /from 1 to 10,000,000/],
+    [["review", demo, "--target", "base_pay_eur", "--coverage", "1"], /full coverage/],
+    [["batch", out, demo, "--coverage", "5"], /a coverage from 0\.5 to 0\.99/],
+    [["estimate", out, "--coverage", "0.3"], /a coverage from 0\.5 to 0\.99/],
+    [["gap", demo, "--target", "base_pay_eur", "--group", "gender", "--threshold", ""], /a share/],
+  ];
+  for (const [args, message] of cases) {
+    const result = await paygrove(args);
+    assert.equal(result.code, 2, `${args.join(" ")}: ${result.stderr}`);
+    assert.match(result.stderr, message, args.join(" "));
+  }
+  await assert.rejects(Deno.stat(out), Deno.errors.NotFound);
+});
+
+Deno.test("a header that starts with two byte-order marks names its first column plainly", async () => {
+  const dir = await Deno.makeTempDir();
+  const path = `${dir}/two_marks.csv`;
+  await Deno.writeTextFile(path, "\ufeff\ufeffid,level,pay\nE1,L1,50000\nE2,L2,60000\n");
+  const result = await paygrove(["schema", path, "--json"]);
+  assert.equal(result.code, 0, result.stderr);
+  const names = JSON.parse(result.stdout).columns.map((c: { name: string }) => c.name);
+  assert.deepEqual(names, ["id", "level", "pay"]);
 });

@@ -275,3 +275,34 @@ Deno.test("a 10 MB cell in one row: fit, review and schema end with a result", a
   assert.ok((await Deno.stat(`${dir}/big_cell.json`)).size < 1_000_000);
   clean(await paygrove(["review", path, "--target", "pay", "--trees", "10"]), 0, "review");
 });
+
+Deno.test("cells and headers built to make the readers backtrack are read in linear time", async () => {
+  // Each of these took time quadratic in its length before (a header of
+  // 50,000 capitals 8.5 s, a digit, 40,000 spaces and a letter 18 s, 40,000
+  // digits and a letter 11 s): at 400,000 characters that is hours. A
+  // linear reader takes well under a second; the kill at 120 s only keeps
+  // a regression from hanging the suite.
+  const n = 400_000;
+  const hostile = ["1" + " ".repeat(n) + "x", "1".repeat(n) + "x", "1 ".repeat(n / 2) + "k"];
+  const write = async (name: string, cell: (r: number) => string) => {
+    const lines = [`id,level,years,${"A".repeat(n)},pay`];
+    for (let r = 0; r < 60; r++) {
+      lines.push(`E${r},L${1 + (r % 4)},${r % 13},${cell(r)},${40000 + 900 * (r % 13)}`);
+    }
+    await Deno.writeTextFile(`${dir}/${name}`, lines.join("\n") + "\n");
+    return `${dir}/${name}`;
+  };
+  // A text column holding the hostile cells: read, and the long header kept.
+  const text = await write("backtrack_text.csv", (r) => r < 3 ? hostile[r] : `note ${r}`);
+  const schema = await paygrove(["schema", text, "--json"], {}, 120);
+  clean(schema, 0, "schema");
+  const columns = JSON.parse(schema.stdout).columns as { name: string; kind: string }[];
+  assert.equal(columns.filter((c) => c.name.length === n).length, 1);
+  // A numeric column with the hostile cells: refused in one short line that
+  // names the column by its ends, not by 400,000 capitals.
+  const mixed = await write("backtrack_mixed.csv", (r) => r < 3 ? hostile[r] : `${r}`);
+  const refused = await paygrove(["schema", mixed], {}, 120);
+  clean(refused, 1, "schema of a mixed column");
+  assert.ok(refused.stderr.length < 1000, `${refused.stderr.length} characters`);
+  assert.match(refused.stderr, /A{60}\.\.\.A+:? \(40000[01] characters\)/);
+});

@@ -7,6 +7,7 @@ import {
   applyChanges,
   applySets,
   compareAnswer,
+  crossValidateTree,
   estimateProfile,
   fitEnsembleParallel,
   loadTableFile,
@@ -276,11 +277,16 @@ Deno.test("batch on the training table gives each row its out-of-bag estimate", 
     ...dataset,
     target: { ...dataset.target, values: dataset.target.values.map(Math.log) },
   };
+  // The exact alpha (the file keeps it to 4 significant digits) from the
+  // same cross-validation the fit ran.
+  const cv = crossValidateTree(logData, { folds: 5, seed: 7, grow: { minLeaf: 5 } });
+  const alpha = cv.candidates[cv.best].alpha;
+  assert.equal(model.ensemble!.alpha, Number(alpha.toPrecision(4)));
   const ensemble = await fitEnsembleParallel(logData, {
     trees: 40,
     seed: 7,
     prune: "alpha",
-    alpha: model.ensemble!.alpha,
+    alpha,
     grow: { minLeaf: 5 },
     workers: 1,
   });

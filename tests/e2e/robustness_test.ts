@@ -24,6 +24,50 @@ Deno.test("a network call under the paygrove task's permissions is denied", asyn
   );
 });
 
+// strace (Debian package strace) watches every connect(2) of the task and
+// its children; with CI=true a missing strace fails rather than skips.
+const HAS_STRACE = await new Deno.Command("strace", {
+  args: ["-V"],
+  stdout: "null",
+  stderr: "null",
+})
+  .output().then((o) => o.success, () => false);
+
+Deno.test({
+  name: "a run of the paygrove task opens no network connection, not even a DNS query",
+  ignore: !HAS_STRACE && Deno.env.get("CI") !== "true",
+  fn: async () => {
+    const dir = await Deno.makeTempDir();
+    const log = `${dir}/connect.log`;
+    const output = await new Deno.Command("strace", {
+      args: [
+        "-f",
+        "-e",
+        "trace=connect",
+        "-o",
+        log,
+        Deno.execPath(),
+        "task",
+        "paygrove",
+        "schema",
+        `${ROOT}fixtures/demo_company.csv`,
+      ],
+      cwd: ROOT,
+      // The packages are cached by now (this suite loaded them), so any
+      // lookup would be Deno's update check or the program's own.
+      env: { NO_COLOR: "1" },
+      stdout: "null",
+      stderr: "piped",
+    }).output();
+    assert.equal(output.code, 0, new TextDecoder().decode(output.stderr));
+    const calls = (await Deno.readTextFile(log)).split("\n").filter((l) => l.includes("connect("));
+    // Local sockets (the name-service cache) are not the network.
+    const outside = calls.filter((l) => /AF_INET6?\b/.test(l));
+    assert.deepEqual(outside, []);
+    await Deno.remove(dir, { recursive: true });
+  },
+});
+
 const BROKEN: [string, string | Uint8Array, RegExp][] = [
   [
     "unclosed.csv",

@@ -259,6 +259,34 @@ Deno.test("SIGTERM and SIGHUP stop a run as Ctrl-C does: one line, nothing left 
   }
 });
 
+Deno.test("a SIGTERM sent during synchronous work is not lost when the work then ends", async () => {
+  // Deno hands a signal to its listener only when the event loop turns; a
+  // command that removed its listeners right after a busy stretch ended in
+  // status 0, as if never stopped.
+  const child = new Deno.Command(Deno.execPath(), {
+    args: ["run", `${ROOT}tests/e2e/_busy_then_stop.ts`],
+    stdout: "null",
+    stderr: "piped",
+  }).spawn();
+  const reader = child.stderr.pipeThrough(new TextDecoderStream()).getReader();
+  let said = "";
+  while (!said.includes("busy")) {
+    const { value, done } = await reader.read();
+    if (done) break;
+    said += value;
+  }
+  child.kill("SIGTERM");
+  for (;;) {
+    const { value, done } = await reader.read();
+    if (done) break;
+    said += value;
+  }
+  const status = await child.status;
+  assert.equal(status.code, 143, said);
+  assert.match(said, /stopped \(SIGTERM\)/);
+  assert.doesNotMatch(said, /ended normally/);
+});
+
 Deno.test("SIGTERM while the model file is being written removes the temporary file", async () => {
   // The temporary file exists only while the file is written: the signal
   // is sent the moment it appears. A write too quick to catch is tried again.

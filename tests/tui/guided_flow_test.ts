@@ -345,3 +345,26 @@ Deno.test("a protected attribute is never a what-if lever, even in a model fitte
   assert.deepEqual(names.sort(), ["job_family", "level"]);
   assert.ok(withGender.features.some((f) => f.name === "gender" && f.protected));
 });
+
+Deno.test("the gap step never tells the size of a group below the privacy minimum", async () => {
+  // The demo table with only four non-binary people.
+  const dir = await Deno.makeTempDir();
+  let kept = 0;
+  const lines = (await Deno.readTextFile(DEMO)).trim().split("\n").filter((line, i) =>
+    i === 0 || !line.includes(",Non-binary,") || ++kept <= 4
+  );
+  await Deno.writeTextFile(`${dir}/demo.csv`, lines.join("\n") + "\n");
+  const driver = flowDriver(60000);
+  const done = guidedFlow(driver.io, { demoPath: `${dir}/demo.csv`, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Check for pay gaps between groups first?", KEY.up, KEY.enter);
+  await driver.when("Compare which group with Man (the reference)?");
+  await driver.when("Non-binary (too few to report)", KEY.enter); // Woman, the largest
+  await driver.when("Compare within which categories of workers?", KEY.enter);
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  assert.doesNotMatch(driver.screen(), /Non-binary \(4 people\)|\b4 people\b/);
+});

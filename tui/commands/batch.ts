@@ -19,6 +19,7 @@ import {
 import type { Terminal } from "../terminal.ts";
 import { readTableForModel } from "../profile_flags.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
+import { coverageOption } from "../option_values.ts";
 import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
 import { PROTECTED_CAUTION } from "./fit.ts";
 import { dataWarningLines } from "../data_check.ts";
@@ -68,7 +69,7 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
     .option(
       "--coverage <share>",
       "coverage of the intervals, from 0.5 to 0.99",
-      (t: string) => Number(t),
+      coverageOption,
       0.9,
     )
     .option(...ANALYST_FILE_OPTION)
@@ -76,7 +77,13 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--force", "replace an existing --out file")
     .option("--json", "print one JSON document on stdout instead of CSV")
     .action(async (modelFile, profilesFile, flags) => {
-      if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
+      if (flags.out !== undefined) {
+        await assertCanWrite(flags.out, flags.force ?? false, "--out", [
+          modelFile,
+          profilesFile,
+          ...(flags.analystFile !== undefined ? [flags.analystFile] : []),
+        ]);
+      }
       const model = await openModelFile(terminal, modelFile, flags.analystFile);
       if (model.settings.allowProtected) {
         terminal.err(terminal.errStyle.caution(PROTECTED_CAUTION));

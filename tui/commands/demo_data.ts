@@ -7,7 +7,7 @@
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import { DEMO_COMPANY, demoCompanyCsv, writeFileAtomic } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
-import { wholeNumber } from "./fit.ts";
+import { MAX_DEMO_ROWS, seedOption, wholeNumber } from "../option_values.ts";
 
 /**
  * Builds the `demo-data` command.
@@ -17,8 +17,8 @@ import { wholeNumber } from "./fit.ts";
 export function demoDataCommand(terminal: Terminal): CommandUnknownOpts {
   return new Command("demo-data")
     .description(`Write the pay table of ${DEMO_COMPANY}, an invented company, as CSV`)
-    .option("--rows <n>", "people in the table", wholeNumber(1), 2000)
-    .option("--seed <s>", "seed of the generator", wholeNumber(0), 2026)
+    .option("--rows <n>", "people in the table", wholeNumber(1, MAX_DEMO_ROWS), 2000)
+    .option("--seed <s>", "seed of the generator", seedOption, 2026)
     .option("--out <file>", "write here instead of standard output")
     .option("--force", "replace an existing --out file")
     .action(async (flags) => {

@@ -17,6 +17,7 @@ import {
   fitModel,
   type Model,
   OptionError,
+  sameFile,
   writeAnalystFile,
   writeModelFile,
 } from "../../mod.ts";
@@ -24,6 +25,7 @@ import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
+import { MAX_TREES, seedOption, wholeNumber } from "../option_values.ts";
 import { cappedWorkers } from "../workers.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
 import { withCautions } from "../render/cautions.ts";
@@ -35,17 +37,6 @@ import {
   leftOutJson,
   screenPayFlags,
 } from "../data_check.ts";
-
-/** Parses a whole number of at least `min`. */
-export function wholeNumber(min: number) {
-  return (text: string): number => {
-    const value = Number(text);
-    if (!Number.isInteger(value) || value < min) {
-      throw new InvalidArgumentError(`expected a whole number >= ${min}, got "${text}"`);
-    }
-    return value;
-  };
-}
 
 /** Collects repeated `COLUMN=VALUE` options into alternatives per column. */
 export function collectWhere(text: string, previous: Record<string, string[]> = {}) {
@@ -167,7 +158,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
     .option(
       "--trees <n>",
       "trees in the ensemble; 0 fits the reference tree alone",
-      wholeNumber(0),
+      wholeNumber(0, MAX_TREES),
       200,
     )
     .option("--min-leaf <n>", "fewest people in a leaf", wholeNumber(1), 5)
@@ -181,7 +172,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       new Option("--prune <how>", "'none' grows the ensemble's trees without pruning")
         .choices(["none"] as const),
     )
-    .option("--seed <s>", "seed of folds, resamples and shuffles", wholeNumber(0), 1)
+    .option("--seed <s>", "seed of folds, resamples and shuffles", seedOption, 1)
     .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
     .option(
       "--privacy-min <n>",
@@ -203,12 +194,16 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           "fit needs --target COLUMN: the column to estimate (e.g. --target base_pay)",
         );
       }
-      await assertCanWrite(flags.out, flags.force ?? false, "--out");
+      await assertCanWrite(flags.out, flags.force ?? false, "--out", [file]);
       if (flags.analystFile !== undefined) {
-        if (flags.analystFile === flags.out) {
-          throw new OptionError("--analyst-file must not be the --out file");
+        // Never the model file under another spelling (./m.json), nor the table.
+        if (await sameFile(flags.analystFile, flags.out)) {
+          throw new OptionError(
+            `--analyst-file: ${flags.analystFile} is the --out file; the two must be apart ` +
+              `(the model file can be shared, the analyst's file never)`,
+          );
         }
-        await assertCanWrite(flags.analystFile, flags.force ?? false, "--analyst-file");
+        await assertCanWrite(flags.analystFile, flags.force ?? false, "--analyst-file", [file]);
       }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);

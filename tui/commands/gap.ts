@@ -6,11 +6,7 @@
  * @module
  */
 
-import {
-  Command,
-  type CommandUnknownOpts,
-  InvalidArgumentError,
-} from "@commander-js/extra-typings";
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
   gapCheck,
@@ -25,29 +21,10 @@ import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
-import { collectWhere, wholeNumber } from "./fit.ts";
+import { collectWhere } from "./fit.ts";
+import { MAX_TREES, seedOption, shareOption, wholeNumber } from "../option_values.ts";
 import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 import { makeStyle } from "../render/style.ts";
-
-/**
- * Parses a share given as a fraction (0.05) or a percentage (5%).
- *
- * @example
- * ```ts
- * import assert from "node:assert/strict";
- * import { shareOption } from "./gap.ts";
- * assert(shareOption("5%") === 0.05 && shareOption("0.02") === 0.02);
- * ```
- */
-export function shareOption(text: string): number {
-  const percent = text.trim().endsWith("%");
-  const value = Number(percent ? text.trim().slice(0, -1) : text);
-  const share = percent ? value / 100 : value;
-  if (!Number.isFinite(share) || share < 0 || share >= 1) {
-    throw new InvalidArgumentError(`expected a share such as 0.05 or 5%, got "${text}"`);
-  }
-  return share;
-}
 
 /**
  * Builds the `gap` command.
@@ -109,8 +86,8 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       wholeNumber(3),
       5,
     )
-    .option("--trees <n>", "trees in each ensemble", wholeNumber(10), 200)
-    .option("--seed <s>", "seed of resamples", wholeNumber(0), 1)
+    .option("--trees <n>", "trees in each ensemble", wholeNumber(10, MAX_TREES), 200)
+    .option("--seed <s>", "seed of resamples", seedOption, 1)
     .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
     .option("--report <file>", "also write a Markdown report")
     .option("--force", "replace an existing report")
@@ -125,7 +102,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
         );
       }
       if (flags.report !== undefined) {
-        await assertCanWrite(flags.report, flags.force ?? false, "--report");
+        await assertCanWrite(flags.report, flags.force ?? false, "--report", [file]);
       }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);

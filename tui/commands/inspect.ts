@@ -156,11 +156,10 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
       ];
       if (flags.importance) lines.push("", ...renderImportance(model, view));
       if (flags.tree) {
-        lines.push(
-          "",
-          style.bold("Reference tree (typical pay and people in each node)"),
-          ...renderTreeOutline(model, view),
-        );
+        lines.push("", style.bold("Reference tree (typical pay and people in each node)"));
+        // One push per line: a tree of 400,000 nodes is too many arguments
+        // for one call.
+        for (const line of renderTreeOutline(model, view)) lines.push(line);
       }
       lines.push(
         "",

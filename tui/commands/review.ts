@@ -8,11 +8,7 @@
  */
 
 import wrapAnsi from "wrap-ansi";
-import {
-  Command,
-  type CommandUnknownOpts,
-  InvalidArgumentError,
-} from "@commander-js/extra-typings";
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
   OptionError,
@@ -30,21 +26,13 @@ import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { csvCell, forTerminal, terminalText } from "../render/safe_text.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
-import { collectWhere, wholeNumber } from "./fit.ts";
-import { shareOption } from "./gap.ts";
+import { collectWhere } from "./fit.ts";
+import { coverageOption, MAX_TREES, seedOption, wholeNumber } from "../option_values.ts";
 import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
 const SHOWN_ID = 40;
-
-function coverageOption(text: string): number {
-  const share = shareOption(text);
-  if (share === 0) {
-    throw new InvalidArgumentError(`expected a share such as 0.9 or 90%, got "${text}"`);
-  }
-  return share;
-}
 
 /**
  * Every person as CSV (RFC 4180), one row each, in table order; text cells
@@ -210,8 +198,8 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       "leave out rows whose pay no pay table holds (more than 10,000 times from the median, " +
         "beyond 10^15, or not finite) instead of stopping",
     )
-    .option("--trees <n>", "trees in the ensemble", wholeNumber(10), 200)
-    .option("--seed <s>", "seed of resamples", wholeNumber(0), 1)
+    .option("--trees <n>", "trees in the ensemble", wholeNumber(10, MAX_TREES), 200)
+    .option("--seed <s>", "seed of resamples", seedOption, 1)
     .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
     .option("--out <file>", "write every person as CSV")
     .option("--force", "replace an existing --out file")
@@ -222,7 +210,9 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
           "review needs --target COLUMN: the pay column (e.g. --target base_pay)",
         );
       }
-      if (flags.out !== undefined) await assertCanWrite(flags.out, flags.force ?? false, "--out");
+      if (flags.out !== undefined) {
+        await assertCanWrite(flags.out, flags.force ?? false, "--out", [file]);
+      }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
       const read = await readTable(file, options, progress);

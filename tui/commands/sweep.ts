@@ -17,7 +17,7 @@ import { printAnswer } from "../render/cautions.ts";
 import { forTerminal } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
-import { wholeNumber } from "./fit.ts";
+import { wholeNumber } from "../option_values.ts";
 import { openModelFile } from "../open_model.ts";
 
 function finiteNumber(text: string): number {
@@ -43,7 +43,7 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
     .requiredOption("--vary <column>", "the attribute to vary")
     .option("--from <a>", "first value of a numeric attribute (default: 1% quantile)", finiteNumber)
     .option("--to <b>", "last value of a numeric attribute (default: 99% quantile)", finiteNumber)
-    .option("--steps <n>", "points of a numeric attribute", wholeNumber(2), 20)
+    .option("--steps <n>", "points of a numeric attribute", wholeNumber(2, 1000), 20)
     .option("--average", "also average the estimate over the rows of --table (partial dependence)")
     .action(async (file, flags) => {
       const model = await openModelFile(terminal, file, flags.analystFile);

@@ -99,7 +99,17 @@ export async function offerGapCheck(
     const chosen = await io.choose(
       `Compare which group with ${reference} (the reference)?`,
       [
-        ...others.map((g) => ({ name: `${g.name} (${g.people} people)`, value: g.name })),
+        // A group below the privacy minimum is never compared, and its size
+        // is not told (lib/gap/gap_check.ts).
+        ...others.map((g) =>
+          g.people >= model.settings.privacyMin
+            ? { name: `${g.name} (${g.people} people)`, value: g.name }
+            : {
+              name: `${g.name} (too few to report)`,
+              value: g.name,
+              disabled: `fewer than ${model.settings.privacyMin} people`,
+            }
+        ),
         {
           name: "All of them at once",
           value: "",

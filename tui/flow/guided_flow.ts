@@ -24,6 +24,7 @@ import {
   type GapReport,
   type ImplausiblePay,
   ImplausiblePayError,
+  isPayColumn,
   isPayName,
   loadTable,
   type LoadTableOptions,
@@ -68,6 +69,11 @@ export interface FlowOptions {
   demoPath: string;
   /** Where to write the session report, if given on the command line. */
   report?: string;
+  /**
+   * Replace an existing report (and its .json) given on the command line.
+   * @default {false}
+   */
+  force?: boolean;
   /** Locale of numbers. */
   locale?: string;
   /** Trees of the ensemble (tests use fewer). */
@@ -80,6 +86,15 @@ export interface FlowOptions {
 export const DEMO_READ: LoadTableOptions = {
   currency: "EUR",
   periods: { base_pay_eur: "year" },
+};
+
+// What the what-if loop and saving share: the gap check and rows left out,
+// to put in the report, and the report files this session wrote (which it
+// may write again without asking).
+type SessionOptions = FlowOptions & {
+  gap: GapReport | null;
+  leftOut: ImplausiblePay | null;
+  written: Set<string>;
 };
 
 /** Runs the flow until the person quits. */
@@ -108,7 +123,12 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
   const gap = tableText !== null && source !== null
     ? await offerGapCheck(io, model, source, money)
     : null;
-  await whatIfLoop(io, session, tableText, money, { ...options, gap, leftOut });
+  await whatIfLoop(io, session, tableText, money, {
+    ...options,
+    gap,
+    leftOut,
+    written: new Set(),
+  });
 }
 
 /** Asks for the data and returns a fitted (or loaded) model. */
@@ -271,6 +291,7 @@ async function chooseColumns(
   // Unticked by default, with the reason: protected attributes, and level
   // columns the default features leave out (identifier-like, too many levels).
   const why = (c: Table["columns"][number]): string | undefined => {
+    if (isPayColumn(c)) return "pay: never an attribute";
     if (c.protected) return "protected attribute; unticked by default";
     if (c.type !== "categorical" && c.type !== "ordinal") return undefined;
     if (c.identifierLike) {
@@ -288,6 +309,8 @@ async function chooseColumns(
       name: why(c) ? `${c.name} (${why(c)})` : c.name,
       value: c.name,
       checked: why(c) === undefined,
+      // Pay cannot be ticked: the library refuses it (make_dataset.ts).
+      ...(isPayColumn(c) ? { disabled: true } : {}),
     })),
   );
   if (features.length === 0) {
@@ -328,7 +351,7 @@ async function whatIfLoop(
   session: ModelSession,
   tableText: string | null,
   money: NumberStyle,
-  options: FlowOptions & { gap: GapReport | null; leftOut: ImplausiblePay | null },
+  options: SessionOptions,
 ): Promise<void> {
   const { model } = session;
   const view = { style: io.style, width: io.width, money };
@@ -420,6 +443,7 @@ async function whatIfLoop(
       options.report,
       options.gap,
       options.leftOut,
+      (options.force ?? false) || options.written.has(options.report),
     );
   }
   io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
@@ -637,7 +661,7 @@ async function save(
   model: Model,
   scenarios: Scenario[],
   whatIfs: CompareAnswer[],
-  options: FlowOptions & { gap: GapReport | null; leftOut: ImplausiblePay | null },
+  options: SessionOptions,
 ) {
   const path = await io.ask("Save the model as:", { default: "paygrove-model.json" });
   let force = false;
@@ -652,11 +676,60 @@ async function save(
   io.say(
     io.style.dim(`Saved the model to ${terminalText(path)} (${(bytes / 1e6).toFixed(1)} MB).`),
   );
-  const report = options.report ??
-    await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
-      default: "paygrove-report.md",
-    });
-  await writeReport(io, model, scenarios, whatIfs, report, options.gap, options.leftOut);
+  if (options.report !== undefined) {
+    await writeReport(
+      io,
+      model,
+      scenarios,
+      whatIfs,
+      options.report,
+      options.gap,
+      options.leftOut,
+      (options.force ?? false) || options.written.has(options.report),
+    );
+    options.written.add(options.report);
+    return;
+  }
+  const report = await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
+    default: "paygrove-report.md",
+    validate: (text) =>
+      text.trim().endsWith(".md") ? true : "A report's name ends in .md (the .json goes beside it)",
+  });
+  // Neither the report nor the .json beside it replaces a file unasked.
+  const taken = [report.trim(), reportJsonPath(report.trim())].filter((p) => existsSync(p));
+  let replace = false;
+  if (taken.length > 0) {
+    replace = await io.choose(`${taken.map(terminalText).join(" and ")} exist. Replace?`, [
+      { name: "No, keep them", value: false },
+      { name: "Yes, replace them", value: true },
+    ]);
+    if (!replace) return;
+  }
+  await writeReport(
+    io,
+    model,
+    scenarios,
+    whatIfs,
+    report.trim(),
+    options.gap,
+    options.leftOut,
+    replace,
+  );
+  options.written.add(report.trim());
+}
+
+/**
+ * The .json written beside a Markdown report.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { reportJsonPath } from "./guided_flow.ts";
+ * assert.equal(reportJsonPath("out/session.md"), "out/session.json");
+ * ```
+ */
+export function reportJsonPath(path: string): string {
+  return path.replace(/\.md$/, "") + ".json";
 }
 
 async function writeReport(
@@ -667,8 +740,9 @@ async function writeReport(
   path: string,
   gap: GapReport | null,
   leftOut: ImplausiblePay | null,
+  force: boolean,
 ) {
-  const jsonPath = path.replace(/\.md$/, "") + ".json";
+  const jsonPath = reportJsonPath(path);
   // The gap check, when one was run in the session, follows the scenarios.
   // Rows left out for implausible pay are said right after the scenarios.
   const markdown = reportMarkdown(model, scenarios, whatIfs) +
@@ -679,14 +753,8 @@ async function writeReport(
     leftOutImplausible: leftOutJson(leftOut ? [leftOut] : []),
     ...(gap ? { gap } : {}),
   };
-  await writeFileAtomic(path, markdown, {
-    force: true,
-    option: "report",
-  });
-  await writeFileAtomic(jsonPath, jsonText(json), {
-    force: true,
-    option: "report",
-  });
+  await writeFileAtomic(path, markdown, { force, option: "report" });
+  await writeFileAtomic(jsonPath, jsonText(json), { force, option: "report" });
   io.say(
     io.style.dim(`Wrote the report to ${terminalText(path)} and ${terminalText(jsonPath)}.`),
   );

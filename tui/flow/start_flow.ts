@@ -7,11 +7,12 @@
 
 import { Command } from "@commander-js/extra-typings";
 import process from "node:process";
-import { assertCanWrite } from "../../mod.ts";
+import { assertCanWrite, OptionError } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
 import { localeTag } from "../table_flags.ts";
+import { MAX_TREES, wholeNumber } from "../option_values.ts";
 import { streamFlowIO } from "./flow_io.ts";
-import { guidedFlow } from "./guided_flow.ts";
+import { guidedFlow, reportJsonPath } from "./guided_flow.ts";
 import { setAscii } from "../render/glyphs.ts";
 import { listenForStop } from "../stop_signals.ts";
 
@@ -32,7 +33,8 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       "write the session's scenarios to FILE (Markdown) and a .json beside it",
     )
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
-    .option("--trees <n>", "trees in the ensemble", (t: string) => Number(t))
+    .option("--force", "replace an existing --report file and its .json")
+    .option("--trees <n>", "trees in the ensemble", wholeNumber(10, MAX_TREES))
     .exitOverride()
     .configureOutput({
       writeOut: (text) => terminal.out(text.replace(/\n$/, "")),
@@ -44,7 +46,17 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     .opts();
   setAscii(options.ascii ?? false);
   // A report that could not be written is said now, not after the session.
-  if (options.report !== undefined) await assertCanWrite(options.report, true, "--report");
+  if (options.report !== undefined) {
+    if (!options.report.endsWith(".md")) {
+      throw new OptionError(
+        `--report: ${options.report} should end in .md (the report is Markdown, and its .json ` +
+          `goes beside it)`,
+      );
+    }
+    for (const path of [options.report, reportJsonPath(options.report)]) {
+      await assertCanWrite(path, options.force ?? false, "--report", [DEMO_TABLE]);
+    }
+  }
   if (!Deno.stdin.isTerminal()) {
     terminal.err(
       "paygrove: the guided flow needs a terminal to ask its questions, and standard input is " +
@@ -70,6 +82,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     await guidedFlow(io, {
       demoPath: DEMO_TABLE,
       report: options.report,
+      force: options.force ?? false,
       locale: options.locale,
       trees: options.trees,
     });
@@ -83,7 +96,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     }
     throw error;
   } finally {
-    stopListening();
+    await stopListening();
   }
   return 0;
 }

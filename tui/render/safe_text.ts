@@ -245,3 +245,29 @@ function mapStrings<T>(value: T, map: (text: string) => string): T {
   });
   return (changed ? Object.fromEntries(entries) : value) as T;
 }
+
+// A run of this many characters without a space or punctuation that ends a
+// name in a message is no name a person reads.
+const LONG_RUN = /[^\s:;,"]{121,}/g;
+
+/**
+ * Text for one line of a message, with every run of more than 120
+ * characters without a space cut to its start and end and its length:
+ * error messages quote column names and cells from the data, and a header
+ * of 400,000 characters is to be named, not printed.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { clipLongRuns } from "./safe_text.ts";
+ * const clipped = clipLongRuns(`column ${"A".repeat(500)}: not a number`);
+ * assert(clipped === `column ${"A".repeat(60)}...${"A".repeat(20)} (500 characters): not a number`);
+ * assert(clipLongRuns("column level: 3 levels") === "column level: 3 levels");
+ * ```
+ */
+export function clipLongRuns(text: string): string {
+  return text.replace(
+    LONG_RUN,
+    (run) => `${run.slice(0, 60)}...${run.slice(-20)} (${run.length} characters)`,
+  );
+}

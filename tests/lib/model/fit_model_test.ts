@@ -15,6 +15,11 @@ import {
 } from "../../../mod.ts";
 import { demoModel } from "./_demo_model.ts";
 
+// Kept to 4 significant digits: equal to what the figure rounds to.
+function sameTo4(kept: number, exact: number): boolean {
+  return kept === Number(exact.toPrecision(4));
+}
+
 const { table, model } = await demoModel();
 const { dataset } = makeDataset(table, { target: "base_pay_eur" });
 if (dataset.target.kind !== "regression") throw new Error("regression expected");
@@ -38,7 +43,8 @@ Deno.test("a money target is fitted on logs, protected and identifier columns le
 Deno.test("the baselines and the reference tree's figures match their own computations", () => {
   const cv = crossValidateTree(logData, { folds: 5, seed: 3, grow: { minLeaf: 5 } });
   const chosen = cv.candidates[cv.chosen];
-  assert.ok(Math.abs(model.quality.reference.log!.rmse - chosen.cvRmse) < 1e-12);
+  // Figures are kept to 4 significant digits (lib/model/shareable_figures.ts).
+  assert.ok(sameTo4(model.quality.reference.log!.rmse, chosen.cvRmse));
   assert.equal(model.reference.leaves, chosen.leaves);
   // Constant: each fold predicted by the mean log pay of the other folds.
   const y = logData.target.values;
@@ -53,12 +59,12 @@ Deno.test("the baselines and the reference tree's figures match their own comput
     }
     return s / n;
   });
-  assert.ok(Math.abs(model.quality.constant.log!.rmse - rmse(y, constant)) < 1e-12);
+  assert.ok(sameTo4(model.quality.constant.log!.rmse, rmse(y, constant)));
   assert.ok(
-    Math.abs(model.quality.constant.money!.rmse - rmse(pay, constant.map(Math.exp))) < 1e-6,
+    sameTo4(model.quality.constant.money!.rmse, rmse(pay, constant.map(Math.exp))),
   );
   const linear = crossValidatedLinearPredictions(logData, cv.fold);
-  assert.ok(Math.abs(model.quality.linear!.money!.rmse - rmse(pay, linear.map(Math.exp))) < 1e-6);
+  assert.ok(sameTo4(model.quality.linear!.money!.rmse, rmse(pay, linear.map(Math.exp))));
   // Money CV RMSE of the reference tree: the square root of the mean
   // squared money error, which cannot be below the money RMSE of the best
   // constant; and the trees beat the line on this table.
@@ -76,7 +82,7 @@ Deno.test("the ensemble's out-of-bag accuracy is that of the same ensemble fitte
     grow: { minLeaf: 5 },
     workers: 1,
   });
-  assert.equal(model.ensemble!.alpha, cv.candidates[cv.best].alpha);
+  assert.equal(model.ensemble!.alpha, Number(cv.candidates[cv.best].alpha.toPrecision(4)));
   for (let b = 0; b < 60; b++) {
     const kept = model.ensemble!.trees[b];
     const fitted = ensemble.trees[b];
@@ -90,7 +96,7 @@ Deno.test("the ensemble's out-of-bag accuracy is that of the same ensemble fitte
   const rows: number[] = [];
   for (let r = 0; r < pay.length; r++) if (ensemble.oobTrees[r] > 0) rows.push(r);
   const expected = rmse(rows.map((r) => pay[r]), rows.map((r) => Math.exp(ensemble.oob[r])));
-  assert.ok(Math.abs(model.quality.ensemble!.money!.rmse - expected) < 1e-6);
+  assert.ok(sameTo4(model.quality.ensemble!.money!.rmse, expected));
 });
 
 Deno.test("no node of any tree holds fewer people than the privacy minimum", () => {
