@@ -114,6 +114,7 @@ export {
   residualGroupCount,
   type WhatIf,
 } from "./lib/ensemble/read_profile.ts";
+export { type EstimateCenter, estimateCenter } from "./lib/ensemble/estimate_center.ts";
 export {
   BAND_HIGH,
   BAND_LOW,
@@ -162,6 +163,12 @@ export {
   roundedFigures,
   shareableReference,
 } from "./lib/model/shareable_figures.ts";
+export {
+  compareWithLine,
+  type LineComparison,
+  type MeasureComparison,
+  TIE_SHARE,
+} from "./lib/model/line_comparison.ts";
 export {
   ANALYST_FILE_WARNING,
   analystFromText,

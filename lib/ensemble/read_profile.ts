@@ -12,6 +12,7 @@ import normalQuantile from "@stdlib/stats-base-dists-normal-quantile";
 import type { Dataset } from "../dataset/types.ts";
 import { STATE_WORDS } from "./bootstrap.ts";
 import { DEFAULT_HOW_SURE } from "./defaults.ts";
+import { type EstimateCenter, estimateCenter } from "./estimate_center.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 import {
   groupedRange,
@@ -59,6 +60,12 @@ export interface ProfileReader {
   jackknifeWithheld: boolean;
   /** Training rows by leaf, when the table is at hand (the forest range). */
   members: LeafMembers | null;
+  /**
+   * On the log scale, the shift that makes the estimate a median and the
+   * smearing factor (estimate_center.ts); null on the raw scale, where the
+   * estimate is the trees' mean.
+   */
+  center: EstimateCenter | null;
 }
 
 /**
@@ -88,6 +95,7 @@ export function profileReader(
     ),
     trainingRows: dataset.rows,
     resamples: ensemble.resamples,
+    center: scale === "log" ? estimateCenter(ensemble.oob, dataset.target.values) : null,
   });
   if (options.withTable) reader.members = leafMembers(ensemble, dataset);
   return reader;
@@ -114,6 +122,7 @@ export function readerFromParts(parts: {
   groups: ResidualGroups;
   trainingRows: number;
   resamples: Int32Array | null;
+  center?: EstimateCenter | null;
 }): ProfileReader {
   const rows = parts.trainingRows;
   // Readings need only the trees; a saved model keeps no out-of-bag
@@ -137,12 +146,16 @@ export function readerFromParts(parts: {
     bag: jackknife && canRegenerate ? inBagCounts(ensemble, rows) : null,
     jackknifeWithheld: jackknife && !canRegenerate,
     members: null,
+    center: parts.scale === "log" ? parts.center ?? null : null,
   };
 }
 
 /** What the model says about one profile, in money. */
 export interface ProfileReading {
-  /** The estimate: the trees' mean (its exp, the median pay, on the log scale). */
+  /**
+   * The estimate: on the log scale exp(trees' mean + the center's shift),
+   * the median pay of comparable people; on the raw scale the trees' mean.
+   */
   estimate: number;
   /**
    * How sure the estimate is: the percentile interval of the trees'
@@ -158,9 +171,9 @@ export interface ProfileReading {
   range: Interval;
   /** How the range was made. */
   rangeMethod: "grouped-residuals" | "quantile-forest";
-  /** Every tree's estimate in money, in tree order. */
+  /** Every tree's estimate in money (shifted as the estimate is), in tree order. */
   trees: Float64Array;
-  /** The trees' estimates on the fitting scale. */
+  /** The trees' estimates on the fitting scale (not shifted). */
   fitted: Float64Array;
 }
 
@@ -190,6 +203,11 @@ export function readProfile(
   coverage = 0.9,
 ): ProfileReading {
   const { ensemble, scale } = reader;
+  // The estimate, its "how sure" interval and the trees move by the shift;
+  // the range does not: its residuals were measured from the unshifted
+  // estimate, so it keeps its measured coverage.
+  const shift = reader.center?.shift ?? 0;
+  const money = (v: number) => toMoney(v + shift, scale);
   const fitted = treeEstimates(ensemble, profile);
   const center = mean(fitted);
   const spread = percentileInterval(fitted, coverage);
@@ -200,8 +218,8 @@ export function readProfile(
     jackknife = {
       se: ij.se,
       interval: {
-        low: toMoney(center - z * ij.se, scale),
-        high: toMoney(center + z * ij.se, scale),
+        low: money(center - z * ij.se),
+        high: money(center + z * ij.se),
         coverage,
       },
     };
@@ -210,12 +228,12 @@ export function readProfile(
     ? quantileForestRange(ensemble, reader.members, profile, coverage)
     : groupedRange(center, reader.groups, coverage);
   return {
-    estimate: toMoney(center, scale),
-    howSure: { low: toMoney(spread.low, scale), high: toMoney(spread.high, scale), coverage },
+    estimate: money(center),
+    howSure: { low: money(spread.low), high: money(spread.high), coverage },
     jackknife,
     range: { low: toMoney(range.low, scale), high: toMoney(range.high, scale), coverage },
     rangeMethod: reader.members !== null ? "quantile-forest" : "grouped-residuals",
-    trees: fitted.map((v) => toMoney(v, scale)),
+    trees: fitted.map(money),
     fitted,
   };
 }
@@ -233,8 +251,8 @@ export interface WhatIf {
   difference: Interval & { estimate: number };
   /**
    * The change as a share of the base (0.1 = +10%), with the percentile
-   * interval of the trees' paired relative changes; on the log scale this
-   * is exp(per-tree log change) - 1.
+   * interval of the trees' paired relative changes; on the log scale
+   * exp(percentiles of the per-tree log changes) - 1.
    */
   relative: Interval & { estimate: number };
 }
@@ -253,16 +271,24 @@ export function compareProfiles(
   const a = readProfile(reader, base, coverage);
   const b = readProfile(reader, changed, coverage);
   const money = b.trees.map((v, t) => v - a.trees[t]);
-  const ratio = reader.scale === "log"
-    ? b.fitted.map((v, t) => Math.expm1(v - a.fitted[t]))
-    : b.trees.map((v, t) => v / a.trees[t] - 1);
-  const relativeEstimate = reader.scale === "log"
-    ? Math.expm1(mean(b.fitted) - mean(a.fitted))
-    : b.estimate / a.estimate - 1;
+  let relative: WhatIf["relative"];
+  if (reader.scale === "log") {
+    // exp of the percentiles of the per-tree log changes, minus 1.
+    const logChange = percentileInterval(b.fitted.map((v, t) => v - a.fitted[t]), coverage);
+    relative = {
+      estimate: Math.expm1(mean(b.fitted) - mean(a.fitted)),
+      low: Math.expm1(logChange.low),
+      high: Math.expm1(logChange.high),
+      coverage,
+    };
+  } else {
+    const ratio = b.trees.map((v, t) => v / a.trees[t] - 1);
+    relative = { estimate: b.estimate / a.estimate - 1, ...percentileInterval(ratio, coverage) };
+  }
   return {
     base: a,
     changed: b,
     difference: { estimate: b.estimate - a.estimate, ...percentileInterval(money, coverage) },
-    relative: { estimate: relativeEstimate, ...percentileInterval(ratio, coverage) },
+    relative,
   };
 }

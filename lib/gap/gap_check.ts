@@ -101,6 +101,18 @@ export interface GapFigure {
   low: number | null;
   /** High end of its confidence interval. */
   high: number | null;
+  /**
+   * The interval at the family-wise level of the Holm flags: per category,
+   * Bonferroni over the m figures shown (each at 1 - 0.05 / m), so that an
+   * interval excluding 0 always comes with a significant Holm test (Holm
+   * rejects whatever Bonferroni does; it may also flag a figure whose
+   * family-wise interval touches 0). Overall: the 95% interval (one test).
+   */
+  familyLow: number | null;
+  /** High end of the family-wise interval. */
+  familyHigh: number | null;
+  /** The figures in the family (1 overall; the figures shown per category). */
+  family: number;
   /** b in log points. */
   coefficient: number | null;
   /** Robust standard error of b. */
@@ -146,6 +158,8 @@ export interface GapRegression {
 export interface GapReport {
   /** The pay column. */
   target: string;
+  /** The pay column's currency (ISO 4217 code), where the table or the options state it. */
+  currency: string | null;
   /** The group column. */
   group: string;
   /** The reference group. */
@@ -190,7 +204,7 @@ export interface GapReport {
   regression: GapRegression | null;
   /** The same for every compared group. */
   regressions: GapRegression[];
-  /** Log pay on the factors plus group indicators (ordinary least squares, classical SE). */
+  /** Log pay on the factors plus group indicators (ordinary least squares, HC1 errors). */
   linear: GapRegression[] | null;
   /**
    * Terms the linear version left out as combinations of other columns
@@ -464,6 +478,9 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
         adjusted: interval?.gap ?? null,
         low: interval?.low ?? null,
         high: interval?.high ?? null,
+        familyLow: interval?.low ?? null,
+        familyHigh: interval?.high ?? null,
+        family: 1,
         coefficient: coefficient?.coefficient ?? null,
         se: coefficient?.se ?? null,
         p: coefficient?.p ?? null,
@@ -501,7 +518,13 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   // Holm across every figure shown per category.
   const shown = categories.flatMap((c) => (c.suppressed ? [] : c.gaps.filter((g) => g.p !== null)));
   const adjusted = holmAdjust(shown.map((g) => g.p!));
-  shown.forEach((g, i) => (g.pAdjusted = adjusted[i]));
+  shown.forEach((g, i) => {
+    g.pAdjusted = adjusted[i];
+    const family = gapFromCoefficient(g.coefficient!, g.se!, 1 - (1 - confidence) / shown.length);
+    g.familyLow = family.low;
+    g.familyHigh = family.high;
+    g.family = shown.length;
+  });
   for (const c of categories) if (!c.suppressed) c.gaps.forEach(flag);
 
   const regressions: GapRegression[] = overallHidden
@@ -587,6 +610,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
 
   return {
     target: options.target,
+    currency: pay.money?.currency ?? null,
     group: options.group,
     reference,
     referenceReason,
@@ -780,7 +804,9 @@ function linearGaps(
     const b = fit.coefficients[at];
     // A group indicator that follows from the factors has no linear figure.
     if (Number.isNaN(b)) return [];
-    const se = fit.standardErrors[at];
+    // HC1, as the adjusted gap's residual regression: one kind of error
+    // for both figures a reader sets side by side.
+    const se = fit.robustStandardErrors[at];
     const interval = gapFromCoefficient(b, se, confidence);
     return {
       group: g,

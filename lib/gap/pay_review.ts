@@ -14,6 +14,7 @@
  * @module
  */
 
+import { estimateCenter } from "../ensemble/estimate_center.ts";
 import { makeDataset } from "../dataset/make_dataset.ts";
 import { DataError, OptionError } from "../errors.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
@@ -194,6 +195,9 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
     onProgress: options.onProgress,
   });
   const oob = ensemble.oob;
+  // Each person's estimate is the median pay of people like them, as
+  // `estimate` gives it; their range comes from the unshifted estimates.
+  const { shift } = estimateCenter(oob, logPay);
   const groups = summarizeResidualGroups(
     groupResiduals(oob, logPay, residualGroupCount(dataset.rows)),
     privacyMin,
@@ -234,7 +238,7 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
       id,
       line: filtered.lines[tableRow],
       pay,
-      estimate: Math.exp(oob[r]),
+      estimate: Math.exp(oob[r] + shift),
       low,
       high,
       // A range of no width has no positions in it.

@@ -8,6 +8,7 @@
  * @module
  */
 
+import { inverse, Matrix } from "ml-matrix";
 import { pivotedQr, qrCoefficients, unscaledVariances } from "./pivoted_qr.ts";
 
 /** A least-squares fit. */
@@ -18,6 +19,12 @@ export interface LinearFit {
   coefficients: Float64Array;
   /** Classical (homoscedastic) standard errors; `NaN` for an aliased column. */
   standardErrors: Float64Array;
+  /**
+   * Heteroskedasticity-robust standard errors, HC1 (White's sandwich with
+   * the n / (n - rank) correction, R's `sandwich::vcovHC(type = "HC1")`);
+   * `NaN` for an aliased column or when n = rank.
+   */
+  robustStandardErrors: Float64Array;
   /** Residual standard deviation, sqrt(SSE / (n - rank)); `NaN` when n = rank. */
   residualSd: number;
   /** Coefficients estimated (columns judged linearly independent). */
@@ -65,10 +72,21 @@ export function fitLeastSquares(
   const standardErrors = unscaledVariances(qr).map((v) => Math.sqrt(sigma2 * v));
   const aliased: number[] = [];
   coefficients.forEach((b, j) => Number.isNaN(b) && aliased.push(j));
+  const all = [null, ...design.columns];
+  const kept = Array.from(coefficients.keys()).filter((j) => !Number.isNaN(coefficients[j]));
+  const robust = new Float64Array(coefficients.length).fill(NaN);
+  if (n > qr.rank) {
+    const column = (j: number, r: number) => (j === 0 ? 1 : all[j]![r]);
+    const residuals = Float64Array.from(y, (v, r) => v - fitted[r]);
+    hc1Variances(kept.length, n, (a, r) => column(kept[a], r), residuals).forEach((v, a) => {
+      robust[kept[a]] = Math.sqrt(v);
+    });
+  }
   return {
     names: ["(Intercept)", ...design.names],
     coefficients,
     standardErrors,
+    robustStandardErrors: robust,
     residualSd: Math.sqrt(sigma2),
     rank: qr.rank,
     aliased,
@@ -102,4 +120,36 @@ export function predictLinear(
     for (let r = 0; r < rows; r++) out[r] += b * column[r];
   });
   return out;
+}
+
+// The HC1 variances of p coefficients: (X'X)^-1 X' diag(e^2) X (X'X)^-1
+// times n / (n - p), with x(a, r) the design's column a at row r.
+function hc1Variances(
+  p: number,
+  n: number,
+  x: (a: number, r: number) => number,
+  residuals: Float64Array,
+): Float64Array {
+  const xtx = new Matrix(p, p);
+  const meat = new Matrix(p, p);
+  const row = new Float64Array(p);
+  for (let r = 0; r < n; r++) {
+    for (let a = 0; a < p; a++) row[a] = x(a, r);
+    const e2 = residuals[r] ** 2;
+    for (let a = 0; a < p; a++) {
+      for (let b = a; b < p; b++) {
+        xtx.set(a, b, xtx.get(a, b) + row[a] * row[b]);
+        meat.set(a, b, meat.get(a, b) + e2 * row[a] * row[b]);
+      }
+    }
+  }
+  for (let a = 0; a < p; a++) {
+    for (let b = 0; b < a; b++) {
+      xtx.set(a, b, xtx.get(b, a));
+      meat.set(a, b, meat.get(b, a));
+    }
+  }
+  const bread = inverse(xtx);
+  const covariance = bread.mmul(meat).mmul(bread).mul(n / (n - p));
+  return Float64Array.from({ length: p }, (_, a) => Math.max(covariance.get(a, a), 0));
 }

@@ -80,7 +80,25 @@ export interface EstimateAnswer {
     /** Per class, the percentile interval of the trees' leaf shares (null without an ensemble). */
     intervals: Record<string, { low: number; high: number }> | null;
   };
-  /** The reference tree's own estimate (its leaf). */
+  /**
+   * What the estimate is (regression; null for a class): `median`, the
+   * median pay of comparable people (log scale with the measured shift);
+   * `geometric-mean`, exp of a mean of log pay (the reference tree's leaf,
+   * or a model written before the shift); `mean` (raw scale). With
+   * `meanOverEstimate`, mean pay of people like this over the estimate
+   * (Duan's smearing factor over the shift), where it is measured, and
+   * `meanPay`, the estimate times it.
+   */
+  center: {
+    kind: "median" | "geometric-mean" | "mean";
+    shift: number;
+    meanOverEstimate: number | null;
+    meanPay: number | null;
+  } | null;
+  /**
+   * The reference tree's own estimate: its leaf's mean on the fitting scale
+   * in money (a geometric mean on the log scale, not shifted).
+   */
   referenceTree: number;
   /** How sure the estimate is (null without an ensemble). */
   confidence: NamedInterval | null;
@@ -129,6 +147,7 @@ export function openModel(model: Model): ModelSession {
       groups: model.residuals,
       trainingRows: model.rows.used,
       resamples: resamplesOf(model),
+      center: model.target.center ?? null,
     })
     : null;
   return { model, reader };
@@ -235,6 +254,7 @@ export function estimateProfile(
         ),
       },
       referenceTree: tree.value[leafNode * width + best],
+      center: null,
       confidence: null,
       jackknife: null,
       jackknifeNeedsAnalystFile: false,
@@ -250,6 +270,12 @@ export function estimateProfile(
       ...base,
       estimate: referenceTree,
       referenceTree,
+      center: {
+        kind: scale === "log" ? "geometric-mean" : "mean",
+        shift: 0,
+        meanOverEstimate: null,
+        meanPay: null,
+      },
       confidence: null,
       jackknife: null,
       jackknifeNeedsAnalystFile: false,
@@ -270,8 +296,31 @@ export function estimateProfile(
     ...fromReading(reading),
     jackknifeNeedsAnalystFile: reader.jackknifeWithheld,
     referenceTree,
+    center: estimateCenterOf(reader, reading.estimate),
     warnings,
   };
+}
+
+/** What an ensemble's estimate is, from its reader (see `EstimateAnswer.center`). */
+function estimateCenterOf(reader: ProfileReader, estimate: number): EstimateAnswer["center"] {
+  const none = { shift: 0, meanOverEstimate: null, meanPay: null };
+  if (reader.scale === "raw") return { kind: "mean", ...none };
+  if (reader.center === null) return { kind: "geometric-mean", ...none };
+  return {
+    kind: "median",
+    shift: reader.center.shift,
+    meanOverEstimate: reader.center.meanOverEstimate,
+    meanPay: estimate * reader.center.meanOverEstimate,
+  };
+}
+
+/**
+ * A log-scale estimate in money, moved by the model's measured shift to a
+ * median (batch and sweep figures, as `readProfile` moves the estimate).
+ */
+function shiftedMoney(model: Model, value: number): number {
+  const shift = model.target.scale === "log" ? model.target.center?.shift ?? 0 : 0;
+  return toMoney(value + shift, model.target.scale);
 }
 
 const NO_ENSEMBLE = "this model has no ensemble (fitted with --trees 0): the estimate is the " +
@@ -349,7 +398,9 @@ export interface CompareAnswer {
   changes: { feature: string; from: string | number | null; to: string | number | null }[];
   /**
    * The change in money (changed minus base), with the interval of the
-   * trees' paired changes, and the same divided by the base estimate.
+   * trees' paired changes; `relative`, the change as a share of the base
+   * with the interval of the trees' paired relative changes (on the log
+   * scale, exp of the percentiles of the per-tree log changes, minus 1).
    */
   difference: {
     estimate: number;
@@ -388,18 +439,15 @@ export function compareAnswer(
   let difference: CompareAnswer["difference"];
   if (reader !== null) {
     const w = compareProfiles(reader, base, changed, coverage);
-    // The share is the money change over the base estimate, interval
-    // included, so that the two always read alike.
+    // The share's interval is that of the trees' paired relative changes
+    // (on the log scale exp(per-tree log change) - 1), not the money
+    // interval over the base: the trees disagree about the base too.
     difference = {
       estimate: w.difference.estimate,
       low: w.difference.low,
       high: w.difference.high,
       coverage,
-      relative: {
-        estimate: w.difference.estimate / a.estimate,
-        low: w.difference.low / a.estimate,
-        high: w.difference.high / a.estimate,
-      },
+      relative: { estimate: w.relative.estimate, low: w.relative.low, high: w.relative.high },
       method: "percentile interval of the trees' paired differences",
     };
   } else {
@@ -558,7 +606,9 @@ function averageEstimate(session: ModelSession, rows: ModelRows, feature: number
     profile[feature] = v;
     let s = 0;
     for (const t of trees) s += t.value[applyValues(t, profile)];
-    sum += toMoney(s / trees.length, model.target.scale);
+    sum += model.ensemble === null
+      ? toMoney(s / trees.length, model.target.scale)
+      : shiftedMoney(model, s / trees.length);
   }
   return sum / rows.rows;
 }
@@ -652,7 +702,7 @@ export function batchAnswer(
       if (index !== undefined) {
         const oob = outOfBag(ensemble, counts, index, profile);
         if (oob !== null) {
-          row.estimate = toMoney(oob, scale);
+          row.estimate = shiftedMoney(model, oob);
           row.estimateSource = "out-of-bag";
         }
       }
@@ -699,7 +749,7 @@ export function outOfBagEstimate(
   if (index === undefined) return null;
   const counts = model.ensemble.trees.map((_, b) => bootstrapCounts(model.rows.used, resamples, b));
   const oob = outOfBag(model.ensemble, counts, index, profile);
-  return oob === null ? null : toMoney(oob, model.target.scale);
+  return oob === null ? null : shiftedMoney(model, oob);
 }
 
 // Training row keys -> training row index.

@@ -164,6 +164,12 @@ const documentShape = z.object({
     classes: z.array(z.string()).optional(),
     money: moneyUnit.optional(),
     scale: z.enum(["log", "raw"]),
+    center: z.object({
+      shift: z.number().min(-10).max(10),
+      duan: z.number().positive().max(1e6),
+      meanOverEstimate: z.number().positive().max(1e6),
+      rows: z.number().int().min(0),
+    }).optional(),
   }),
   features: z.array(z.object({
     name: z.string(),

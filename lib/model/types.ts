@@ -18,6 +18,7 @@ import type { DecimalMark } from "../table/amount.ts";
 import type { MoneyUnit, PayPeriod } from "../table/types.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import type { PayScale } from "../ensemble/pay_scale.ts";
+import type { EstimateCenter } from "../ensemble/estimate_center.ts";
 import type { ResidualGroups } from "../ensemble/grouped_range.ts";
 import type { RegressionMetrics } from "../tree/metrics.ts";
 import type { AliasedTerm } from "../linear/cross_validate_linear.ts";
@@ -59,6 +60,12 @@ export interface TargetSchema {
   money?: MoneyUnit;
   /** The scale the trees were fitted on (raw for classification). */
   scale: PayScale;
+  /**
+   * On the log scale with an ensemble: the shift that makes the estimate a
+   * median, and Duan's smearing factor (lib/ensemble/estimate_center.ts).
+   * Absent in files written before it (their estimate is a geometric mean).
+   */
+  center?: EstimateCenter;
 }
 
 /** How the training table was read, so other tables are read alike. */

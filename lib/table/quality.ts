@@ -165,15 +165,18 @@ function farOut(
     }
   }
   if (count === 0) return undefined;
+  // A fence below zero for a column with no negative value (years, counts)
+  // is no bound anyone can fall under: only the upper one is said.
+  const bounds = low < 0 && sorted[0] >= 0
+    ? `above ${formatPlain(high)}`
+    : `below ${formatPlain(low)} or above ${formatPlain(high)}`;
   return {
     kind: "outlier",
     column: column.name,
     count,
     lines,
     message: `"${column.name}": ${count} value${count === 1 ? " is" : "s are"} far from the ` +
-      `rest, below ${formatPlain(low)} or above ${formatPlain(high)} (${
-        lineList(lines, count)
-      }); ` +
+      `rest, ${bounds} (${lineList(lines, count)}); ` +
       `worth a check, they are kept (bounds: 3 interquartile ranges beyond the quartiles` +
       `${logScale ? " of log pay" : ""})`,
   };

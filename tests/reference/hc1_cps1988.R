@@ -1,7 +1,8 @@
 # Writes heteroskedasticity-robust (HC1) standard errors of two least-squares
 # fits on CPS1988 (R package AER; Debian r-cran-aer), computed by the
 # sandwich package (a dependency of AER) with vcovHC(type = "HC1"), as JSON
-# for the check of paygrove's residual regression (lib/gap/partial_out.ts).
+# for the checks of paygrove's residual regression (lib/gap/partial_out.ts)
+# and of the linear gap's robust errors (lib/linear/least_squares.ts).
 # Usage: Rscript tests/reference/hc1_cps1988.R OUTFILE
 args <- commandArgs(trailingOnly = TRUE)
 out <- if (length(args) >= 1) args[1] else "fixtures/reference/hc1_cps1988.json"
@@ -30,7 +31,8 @@ json <- paste0(
   '  "rows": ', nrow(CPS1988), ",\n",
   '  "fits": {\n',
   fitJson("one", log(wage) ~ education), ",\n",
-  fitJson("two", log(wage) ~ education + experience), "\n",
+  fitJson("two", log(wage) ~ education + experience), ",\n",
+  fitJson("three", log(wage) ~ experience + I(experience^2) + education + ethnicity), "\n",
   "  }\n}\n"
 )
 cat(json, file = out)

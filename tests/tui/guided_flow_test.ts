@@ -321,8 +321,9 @@ Deno.test("the gap step: women against men within job families, as paygrove gap 
   assert.ok(!field.suppressed);
   if (!field.suppressed) {
     const f = field.gaps[0];
-    const shown = `${formatPercent(f.adjusted!)} (${formatPercent(f.low!).replace("%", "")}..` +
-      `${formatPercent(f.high!).replace("%", "")})`;
+    const shown =
+      `${formatPercent(f.adjusted!)} (${formatPercent(f.familyLow!).replace("%", "")}..` +
+      `${formatPercent(f.familyHigh!).replace("%", "")})`;
     assert.ok(flagged[0].includes(shown), `${flagged[0]} vs ${shown}`);
   }
   const markdown = await Deno.readTextFile(`${dir}/r.md`);

@@ -141,7 +141,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       }
       // No infinite or undefined figure is written or shown.
       assertFiniteFigures(report, flags.target);
-      const numbers = { locale: flags.locale };
+      const numbers = { locale: flags.locale, currency: report.currency ?? undefined };
       const check = { style: terminal.style, width: terminal.width };
       if (flags.report !== undefined) {
         // The report says what the screen says about the data first.

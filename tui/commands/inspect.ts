@@ -156,7 +156,12 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
       ];
       if (flags.importance) lines.push("", ...renderImportance(model, view));
       if (flags.tree) {
-        lines.push("", style.bold("Reference tree (typical pay and people in each node)"));
+        const what = model.target.kind === "classification"
+          ? "the likeliest class with its share"
+          : model.target.scale === "log"
+          ? "geometric mean pay"
+          : "mean pay";
+        lines.push("", style.bold(`Reference tree (${what} and people in each node)`));
         // One push per line: a tree of 400,000 nodes is too many arguments
         // for one call.
         for (const line of renderTreeOutline(model, view)) lines.push(line);

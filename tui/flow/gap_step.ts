@@ -21,7 +21,7 @@ import {
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { renderGap } from "../render/gap_view.ts";
-import type { NumberStyle } from "../render/numbers.ts";
+import { formatNumber, type NumberStyle } from "../render/numbers.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { forTerminal, terminalGuard, terminalText } from "../render/safe_text.ts";
 
@@ -103,7 +103,7 @@ export async function offerGapCheck(
         // is not told (lib/gap/gap_check.ts).
         ...others.map((g) =>
           g.people >= model.settings.privacyMin
-            ? { name: `${g.name} (${g.people} people)`, value: g.name }
+            ? { name: `${g.name} (${formatNumber(g.people, numbers, 0)} people)`, value: g.name }
             : {
               name: `${g.name} (too few to report)`,
               value: g.name,

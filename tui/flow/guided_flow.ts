@@ -54,7 +54,7 @@ import { cautionLines } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalGuard, terminalText } from "../render/safe_text.ts";
 import { gapMarkdown } from "../render/gap_view.ts";
 import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
-import { formatPay, type NumberStyle } from "../render/numbers.ts";
+import { formatNumber, formatPay, type NumberStyle } from "../render/numbers.ts";
 import CliTable from "cli-table3";
 import { tableChars } from "../render/glyphs.ts";
 import { renderSchemaBrief } from "../render/schema_view.ts";
@@ -164,7 +164,7 @@ async function chooseAndFit(
     model = await readModelFile(path);
     io.say(style.dim(
       `Loaded ${terminalText(path)}: ${terminalText(model.target.name)}, ` +
-        `${model.rows.used} people.`,
+        `${formatNumber(model.rows.used, {}, 0)} people.`,
     ));
     if (model.fileNotes?.some((n) => n.kind === "rebuildsPay")) {
       io.say(style.caution(REBUILDS_PAY_WARNING));

@@ -38,7 +38,10 @@ const PERIOD: Record<string, string> = {
 function unitText(answer: EstimateAnswer, money: NumberStyle): string {
   const currency = money.currency ?? answer.target.currency;
   const period = answer.target.period ? ` ${PERIOD[answer.target.period]}` : "";
-  return `${currency ?? "units"}${period}`;
+  // No currency known: say so rather than "units a year".
+  return currency === undefined || currency === null
+    ? `pay${period}, currency not stated`
+    : `${currency}${period}`;
 }
 
 function profileText(profile: Record<string, string | number | null>): string {
@@ -49,6 +52,39 @@ function profileText(profile: Record<string, string | number | null>): string {
       }`
     )
     .join(", ");
+}
+
+// What the estimate is, in the words of its heading.
+const ESTIMATE_WORDS: Record<"median" | "geometric-mean" | "mean", string> = {
+  median: "median pay of people like this",
+  "geometric-mean": "geometric mean pay",
+  mean: "mean pay",
+};
+
+// What the "how sure" interval locates.
+const WHAT_IS_SURE: Record<"median" | "geometric-mean" | "mean", string> = {
+  median: "median pay",
+  "geometric-mean": "geometric mean pay",
+  mean: "mean pay",
+};
+
+// Mean pay beside a median estimate, where pay is skewed enough to matter
+// (a gap of at least 0.5%).
+function meanPayLines(
+  answer: EstimateAnswer,
+  pay: (x: number) => string,
+  wrap: (text: string, indent?: string) => string[],
+): string[] {
+  const c = answer.center;
+  if (c === null || c.meanPay === null || c.meanOverEstimate === null) return [];
+  const gap = c.meanOverEstimate - 1;
+  if (Math.abs(gap) < 0.005) return [];
+  const why = gap > 0
+    ? "above the median: a few high earners pull the mean up"
+    : "below the median: a few low earners pull the mean down";
+  return wrap(
+    `Mean pay of such people: about ${pay(c.meanPay)} (${formatPercent(Math.abs(gap))} ${why})`,
+  );
 }
 
 /** The estimate screen. */
@@ -85,7 +121,7 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
       ).map((l) => `  ${l}`),
     );
   } else {
-    const what = answer.target.scale === "log" ? "typical (median) pay" : "mean pay";
+    const what = ESTIMATE_WORDS[answer.center?.kind ?? "mean"];
     lines.push(
       `${style.bold(`Estimate of ${answer.target.name}`)} (${unitText(answer, money)}, ${what}): ` +
         style.bold(pay(answer.estimate)),
@@ -102,12 +138,15 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
       "",
       ...wrap(
         `${style.bold(`How sure (${pct}):`)} ${pay(c.low)} to ${pay(c.high)}` +
-          style.dim("  where the typical pay of such a profile lies"),
+          style.dim(
+            `  where the ${WHAT_IS_SURE[answer.center?.kind ?? "mean"]} of such a profile lies`,
+          ),
       ),
       ...wrap(
         `${style.bold(`Range for comparable people (${pct}):`)} ${pay(r.low)} to ${pay(r.high)}` +
           style.dim("  where one such person's pay falls"),
       ),
+      ...meanPayLines(answer, pay, wrap),
     );
     const axis = Math.max(20, Math.min(50, options.width - 40));
     lines.push(

@@ -16,7 +16,7 @@ import {
   type GapReport,
   type PayQuartile,
 } from "../../mod.ts";
-import { formatNumber, formatPercent, type NumberStyle } from "./numbers.ts";
+import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { isAscii } from "./glyphs.ts";
 import { alignColumns } from "./text_columns.ts";
@@ -49,7 +49,11 @@ function pct(value: number | null, numbers: NumberStyle, signed = false): string
 
 /** The flags of a figure as short words. */
 function flagWords(f: GapFigure): string {
-  return [f.rawFlag ? "raw" : "", f.unexplainedFlag ? "unexpl." : ""].filter(Boolean).join(" ");
+  // "small": significant after Holm's adjustment but below the materiality,
+  // so that an interval clear of 0 never stands unflagged without a reason.
+  const small = !f.unexplainedFlag && f.pAdjusted !== null && f.pAdjusted <= 0.05;
+  return [f.rawFlag ? "raw" : "", f.unexplainedFlag ? "unexpl." : "", small ? "small" : ""]
+    .filter(Boolean).join(" ");
 }
 
 // "0.9% to 2.0%" on one side of zero; "-2.0% to +2.4%" across it, where the sign matters.
@@ -70,7 +74,7 @@ function intervalWords(low: number, high: number, numbers: NumberStyle): string 
  * const sentence = gapSentence("Man", {
  *   group: "Woman", rows: 10, referenceRows: 10, rawMean: 0.12, rawMedian: 0.1,
  *   variableMean: null, variableMedian: null, adjusted: 0.013, low: 0.002, high: 0.024,
- *   coefficient: -0.013, se: 0.0056, p: 0.02, pAdjusted: 0.02, residualDifference: 0.01,
+ *   familyLow: 0.002, familyHigh: 0.024, family: 1, coefficient: -0.013, se: 0.0056, p: 0.02, pAdjusted: 0.02, residualDifference: 0.01,
  *   rawFlag: true, unexplainedFlag: false,
  * }, {});
  * assert(sentence.startsWith("Woman: mean pay 12.0% below Man's"));
@@ -154,9 +158,11 @@ function tableRows(report: GapReport, numbers: NumberStyle): string[][] {
   const head = ["", ...(many ? ["group"] : []), people, "raw mean", "median"];
   head.push("unexplained", "flags");
   const rows: string[][] = [head];
+  // Per category the family-wise interval, the one that matches the Holm
+  // flags; overall (one test) the 95% interval.
   const interval = (f: GapFigure) => {
     const bare = (x: number | null) => pct(x, numbers).replace("%", "");
-    return `${pct(f.adjusted, numbers)} (${bare(f.low)}..${bare(f.high)})`;
+    return `${pct(f.adjusted, numbers)} (${bare(f.familyLow)}..${bare(f.familyHigh)})`;
   };
   const figureRow = (label: string, f: GapFigure) => [
     label,
@@ -224,20 +230,23 @@ export function renderGap(report: GapReport, view: GapView): string[] {
         ...wrap(style.dim(
           brief
             ? `Unexplained: the gap left with the other factors held equal, and its 95% ` +
-              `interval. Flags: raw = a raw mean gap of ${
+              `interval (per category: family-wise, Bonferroni across the categories). Flags: raw = a raw mean gap of ${
                 pct(report.threshold, numbers)
               } or more either ` +
               `way (a joint pay assessment under Directive (EU) 2023/970, Art. 10, unless ` +
               `justified); unexpl. = significant after Holm's adjustment and at least ` +
-              `${pct(report.materiality, numbers)}.`
+              `${pct(report.materiality, numbers)}; small = significant but below it.`
             : `Unexplained: the gap left with the other factors held equal, and its 95% ` +
-              `interval. Flags: raw = a raw mean gap of ${
+              `interval; per category the interval is family-wise (Bonferroni: each at ` +
+              `1 - 5% / the number of figures), the level of the flags, so one clear of 0 ` +
+              `always comes with a significant test (Holm may also flag one that touches 0). ` +
+              `Flags: raw = a raw mean gap of ${
                 pct(report.threshold, numbers)
               } or more either way (Directive ` +
               `(EU) 2023/970, Art. 10: a joint pay assessment unless objective, gender-neutral criteria ` +
               `justify it, which only the employer can judge); unexpl. = the adjusted gap differs ` +
               `from 0 at the 5% level after Holm's adjustment across categories and is at least ` +
-              `${pct(report.materiality, numbers)}.`,
+              `${pct(report.materiality, numbers)}; small = it differs from 0 but is below that.`,
         )),
       );
     }
@@ -253,7 +262,7 @@ export function renderGap(report: GapReport, view: GapView): string[] {
       high: number | null;
     }[] = [];
     const add = (label: string, f: GapFigure) =>
-      axisRows.push({ label, value: f.adjusted, low: f.low, high: f.high });
+      axisRows.push({ label, value: f.adjusted, low: f.familyLow, high: f.familyHigh });
     if (!report.overall.suppressed) {
       for (const f of report.overall.gaps) add(many ? `Overall ${f.group}` : "Overall", f);
     }
@@ -383,10 +392,14 @@ export function renderGap(report: GapReport, view: GapView): string[] {
  * assert.equal(quartileBounds(q, {}), "under 41,250");
  * assert.equal(quartileBounds({ ...q, quartile: 4, low: 72300, high: null }, {}), "72,300 and above");
  * assert.equal(quartileBounds({ ...q, quartile: 2, low: 41250, high: 52000 }, {}), "41,250 to 52,000");
+ * const hourly = { ...q, quartile: 2, low: 1, high: 5.25 };
+ * assert.equal(quartileBounds(hourly, { currency: "USD" }), "$1.00 to $5.25");
  * ```
  */
 export function quartileBounds(q: PayQuartile, numbers: NumberStyle): string {
-  const pay = (x: number) => formatNumber(x, numbers, 0);
+  // As pay is shown everywhere: its currency, and cents below 100 (hourly
+  // rates of $1.00 to $5.25 are not "1 to 5").
+  const pay = (x: number) => formatPay(x, numbers);
   if (q.low === null) return q.high === null ? "" : `under ${pay(q.high)}`;
   if (q.high === null) return `${pay(q.low)} and above`;
   return `${pay(q.low)} to ${pay(q.high)}`;
@@ -415,7 +428,9 @@ export function gapMarkdown(data: GapReport, numbers: NumberStyle, created: stri
     `# Pay gap by ${report.group}`,
     "",
     `${report.groups.join(", ")} against ${report.reference} (the reference: ` +
-      `${report.referenceReason}). ${report.target}, ${report.rows} people` +
+      `${report.referenceReason}). ${report.target}, ${
+        formatNumber(report.rows, numbers, 0)
+      } people` +
       (report.within.length ? `, categories by ${report.within.join(" x ")}` : "") +
       ". Gaps are shares of the reference group's pay: 5.0% means paid 5% less.",
     "",

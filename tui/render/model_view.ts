@@ -5,6 +5,7 @@
  * @module
  */
 
+import { compareWithLine, type LineComparison, type MeasureComparison } from "../../mod.ts";
 import Table from "cli-table3";
 import wrapAnsi from "wrap-ansi";
 import type { Accuracy, Model } from "../../mod.ts";
@@ -41,9 +42,13 @@ export function describeTarget(model: Model, numbers: NumberStyle): string {
     return `${model.target.name} (a class: ${model.target.classes!.join(", ")})`;
   }
   const unit = describeUnit(model.target.money ?? {}, numbers.currency);
-  const scale = model.target.scale === "log"
-    ? "fitted on the log scale: estimates are typical (median) pay"
-    : "fitted on the raw scale: estimates are mean pay";
+  const center = model.target.center;
+  const scale = model.target.scale === "raw"
+    ? "fitted on the raw scale: estimates are mean pay"
+    : center === undefined
+    ? "fitted on the log scale: estimates are geometric mean pay"
+    : "fitted on the log scale: estimates are the median pay of people like the profile " +
+      `(mean pay is ${center.meanOverEstimate.toFixed(3)} x the estimate)`;
   return `${model.target.name} (${unit}), ${scale}`;
 }
 
@@ -200,12 +205,19 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     "RMSE",
     "MAE",
     isAscii() ? "R^2" : "R²",
-    ...(log ? ["log RMSE"] : []),
+    ...(log ? ["log RMSE", "log MAE"] : []),
     "measured by",
   ];
   const table = new Table({
     head: head.map(style.bold),
-    colAligns: ["left", "right", "right", "right", ...(log ? ["right" as const] : []), "left"],
+    colAligns: [
+      "left",
+      "right",
+      "right",
+      "right",
+      ...(log ? ["right" as const, "right" as const] : []),
+      "left",
+    ],
     style: { head: [], border: [], compact: true },
     ...(tableChars() ? { chars: tableChars() } : {}),
   });
@@ -216,33 +228,30 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
       formatPay(a.money.rmse, money),
       formatPay(a.money.mae, money),
       formatNumber(a.money.r2, options.numbers, 3),
-      ...(log ? [formatNumber(a.log?.rmse ?? NaN, options.numbers, 4)] : []),
+      ...(log
+        ? [
+          formatNumber(a.log?.rmse ?? NaN, options.numbers, 4),
+          formatNumber(a.log?.mae ?? NaN, options.numbers, 4),
+        ]
+        : []),
       by(a),
     ]);
   }
   const lines = [
     style.bold(
-      `Accuracy (RMSE and MAE in ${money.currency ?? "the target's units"}, on pay itself)`,
+      `Accuracy (RMSE, MAE and ${isAscii() ? "R^2" : "R²"} on pay itself, in ${
+        money.currency ?? "the target's units"
+      }${log ? "; log RMSE and log MAE on log pay, the scale the trees are fitted on" : ""})`,
     ),
     ...table.toString().split("\n"),
   ];
-  const best = q.ensemble ?? q.reference;
-  const line = q.linear?.money;
-  if (best.money && line) {
-    const gain = 1 - best.money.rmse / line.rmse;
-    const who = q.ensemble ? "The ensemble" : "The reference tree";
-    const verdict = gain > 0.01
-      ? `${who}'s typical error is ${formatPercent(gain)} below the straight line's: ` +
-        `the data has steps or interactions a line misses.`
-      : gain < -0.01
-      ? `${who}'s typical error is ${formatPercent(-gain)} above the straight line's: ` +
-        `pay here follows a straight line; prefer the linear figures.`
-      : `${who} and the straight line err about equally: pay here is close to a straight line.`;
+  const comparison = compareWithLine(q.ensemble, q.reference, q.linear);
+  if (comparison !== null) {
     lines.push(
       ...wrapAnsi(
         style.dim(
-          `RMSE: the typical size of an error in ${money.currency ?? "units"} (MAE: the average ` +
-            `size). ${verdict}`,
+          `RMSE: the typical size of an error (MAE: the average size). ` +
+            lineVerdict(comparison, money.currency ?? "the target's units"),
         ),
         options.width,
       ).split("\n"),
@@ -251,6 +260,40 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
   const aliased = straightLineSentence(q.linear?.aliased ?? [], model.settings.folds);
   if (aliased !== null) lines.push(...wrapAnsi(style.dim(aliased), options.width).split("\n"));
   return lines;
+}
+
+// Words for each measure of the comparison with the straight line.
+const MEASURE_WORDS: Record<MeasureComparison["measure"], string> = {
+  rmse: "RMSE",
+  mae: "MAE",
+  "log-rmse": "log RMSE",
+  "log-mae": "log MAE",
+};
+
+/**
+ * The sentence under the accuracy table: a verdict only where the measures
+ * agree, and never a recommendation of the trees where the line is as good.
+ */
+function lineVerdict(c: LineComparison, currency: string): string {
+  const who = c.who === "ensemble" ? "The ensemble" : "The reference tree";
+  const list = (better: "model" | "line") =>
+    c.measures.filter((m) => m.better === better).map((m) => MEASURE_WORDS[m.measure]).join(", ");
+  const rmse = c.measures[0];
+  switch (c.verdict) {
+    case "model":
+      return `${who} errs less than the straight line on ${list("model")} (RMSE ` +
+        `${formatPercent(rmse.gain)} lower, in ${currency}): the data has steps or ` +
+        `interactions a line misses.`;
+    case "line":
+      return `The straight line errs less than ${who.toLowerCase()} on ${list("line")} and no ` +
+        `more on the rest: pay here follows a straight line as well as the trees can say.`;
+    case "mixed":
+      return `The figures disagree: ${who.toLowerCase()} errs less on ${list("model")}, the ` +
+        `straight line on ${list("line")}; neither is clearly better on this table.`;
+    case "tie":
+      return `${who} and the straight line err about equally (within 1% on every measure): ` +
+        `pay here is close to a straight line.`;
+  }
 }
 
 /** Importance as horizontal bars. */
@@ -278,7 +321,9 @@ export function renderImportance(model: Model, options: ModelViewOptions): strin
     })
     .sort((a, b) => b.value - a.value);
   const title = permutation
-    ? "Importance: how much the typical error grows when an attribute is scrambled"
+    ? `Importance: how much the typical error (RMSE${
+      model.target.scale === "log" ? " of log pay" : ""
+    }) grows when an attribute is scrambled`
     : "Importance: share of the trees' impurity decrease (favours many-valued attributes)";
   return [
     ...wrapAnsi(style.bold(title), options.width).split("\n"),

@@ -70,7 +70,14 @@ Deno.test("the linear version reproduces R's lm() ethnicity coefficient on CPS19
   const linear = report.linear!.find((l) => l.group === "afam")!;
   const r = reference.coefficients.ethnicityafam;
   relClose(linear.coefficient, r.estimate, 1e-8, "ethnicity coefficient");
-  relClose(linear.se, r.se, 1e-8, "its standard error");
+  // HC1, as the adjusted gap's: sandwich::vcovHC(type = "HC1") of the same
+  // lm() (fixtures/reference/hc1_cps1988.json, fit "three").
+  const hc1 = JSON.parse(
+    await Deno.readTextFile(`${ROOT}fixtures/reference/hc1_cps1988.json`),
+  ).fits.three.ethnicityafam;
+  relClose(hc1.estimate, r.estimate, 1e-9, "the two R runs' coefficient");
+  relClose(linear.se, hc1.se, 1e-9, "its HC1 standard error");
+  assert.ok(Math.abs(linear.se - r.se) > 1e-4, "not the classical error");
   relClose(linear.gap, 1 - Math.exp(r.estimate), 1e-8, "as a gap");
 });
 
@@ -165,4 +172,39 @@ Deno.test("simulation: the planted 6% gap is found, others are not flagged, as c
       JSON.stringify(committed, (_k, v) => (typeof v === "number" ? Number(v.toPrecision(10)) : v)),
     ),
   );
+});
+
+Deno.test("per-category intervals are family-wise (Bonferroni) and agree with the Holm flags", async () => {
+  const table = await loadTableFile(`${ROOT}fixtures/demo_company.csv`, {
+    target: "base_pay_eur",
+  });
+  const report = await gapCheck(table, {
+    target: "base_pay_eur",
+    group: "gender",
+    within: ["job_family"],
+    trees: 20,
+    workers: 1,
+  });
+  const shown = report.categories.flatMap((c) => c.suppressed ? [] : c.gaps)
+    .filter((g) => g.coefficient !== null);
+  assert.ok(shown.length >= 3, `${shown.length} figures`);
+  // The z of each level, printed by R 4.2.2 (Debian r-base-core):
+  // sprintf("%.17g", qnorm(1 - 0.05 / (2 * m))) for m = the figures shown.
+  const zFamily: Record<number, number> = {
+    3: 2.3939797998185104,
+    4: 2.4977054744123737,
+    5: 2.5758293035488999,
+    6: 2.6382572734767509,
+  };
+  const z = zFamily[shown.length];
+  assert.ok(z !== undefined, `no z for ${shown.length} figures`);
+  for (const g of shown) {
+    assert.equal(g.family, shown.length);
+    relClose(1 - g.familyLow!, Math.exp(g.coefficient! + z * g.se!), 1e-12, "family low");
+    relClose(1 - g.familyHigh!, Math.exp(g.coefficient! - z * g.se!), 1e-12, "family high");
+    // Wider than the single 95% interval.
+    assert.ok(g.familyLow! <= g.low! && g.familyHigh! >= g.high!);
+    // Clear of 0 -> significant after Holm (flagged, or below the materiality).
+    if (g.familyLow! > 0 || g.familyHigh! < 0) assert.ok(g.pAdjusted! <= 0.05, g.group);
+  }
 });

@@ -9,6 +9,7 @@ import {
   fitEnsembleParallel,
   fitModel,
   loadTable,
+  loadTableFile,
   makeDataset,
   OptionError,
   shareTree,
@@ -146,4 +147,33 @@ Deno.test("--where keeps only the matching rows", async () => {
       .length;
   assert.equal(sub.rows.used, expected);
   assert.equal(sub.rows.dropped, 2000 - expected);
+});
+
+Deno.test("a class target's constant baseline is the majority class of the other folds", async () => {
+  // CPS1985 (AER, fixtures/cps1985.csv): the most common occupation is
+  // 29.2% of people; the constant row once read 35.4%, the accuracy of the
+  // fold trees pruned at the root's alpha, which split.
+  const cpsPath = new URL("../../../fixtures/cps1985.csv", import.meta.url).pathname;
+  const cps = await loadTableFile(cpsPath, { target: "occupation" });
+  const fitted = await fitModel(cps, { target: "occupation", trees: 0, folds: 10, seed: 1 });
+  const { dataset: d } = makeDataset(cps, {
+    target: "occupation",
+    features: fitted.features.map((f) => f.name),
+  });
+  const y = d.target.values;
+  const { fold } = crossValidateTree(d, { folds: 10, seed: 1, grow: { minLeaf: 5 } });
+  // A hand count: per fold, the class most common among the other folds.
+  let right = 0;
+  for (let r = 0; r < y.length; r++) {
+    const counts = new Map<number, number>();
+    for (let i = 0; i < y.length; i++) {
+      if (fold[i] !== fold[r]) counts.set(y[i], (counts.get(y[i]) ?? 0) + 1);
+    }
+    const top = Math.max(...counts.values());
+    const guess = Math.min(...[...counts].filter(([, n]) => n === top).map(([c]) => c));
+    if (y[r] === guess) right++;
+  }
+  const constant = fitted.quality.constant as { accuracy: number };
+  assert.ok(sameTo4(constant.accuracy, right / y.length), `${constant.accuracy}`);
+  assert.equal(constant.accuracy.toFixed(3), "0.292");
 });

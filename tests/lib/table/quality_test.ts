@@ -56,6 +56,11 @@ Deno.test("far-out values are flagged beyond 3 IQR of the quartiles", () => {
   const found = warning(rows("tenure", values), "outlier");
   assert.equal(found?.count, 1);
   assert.deepEqual(found?.lines, [23]);
+  // Tenure is never negative: the fence of -25.25 is not said.
+  assert.match(found!.message, /far from the rest, above 48\.25 \(line 23\)/);
+  // With a negative value in the column, both fences are.
+  const signed = warning(rows("change", [...values.slice(0, 21), "-1", "60"]), "outlier");
+  assert.match(signed!.message, /below -2\d\.\d+ or above 4\d\.\d+/);
 });
 
 Deno.test("clean data has no warnings", () => {
