@@ -13,7 +13,8 @@
 // The root program has no options of its own to type, so it uses commander's
 // plain types; subcommands use extra-typings for typed option values.
 import { Command, CommanderError } from "commander";
-import { DataError, OptionError, VERSION } from "../mod.ts";
+import { DataError, OptionError, UnknownNameError, VERSION } from "../mod.ts";
+import { unknownNameText } from "./column_names.ts";
 import { schemaCommand } from "./commands/schema.ts";
 import { fitCommand } from "./commands/fit.ts";
 import { estimateCommand } from "./commands/estimate.ts";
@@ -129,7 +130,9 @@ function report(error: unknown, terminal: Terminal): number {
   // characters visible (line breaks between listed items stay) and
   // overlong names cut to their ends.
   if (error instanceof OptionError) {
-    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(error.message), false)}`);
+    // A name that matched nothing: worded here from what the lookup found.
+    const message = error instanceof UnknownNameError ? unknownNameText(error) : error.message;
+    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(message), false)}`);
     return EXIT.usage;
   }
   if (error instanceof DataError) {

@@ -10,6 +10,7 @@ import type { Command } from "@commander-js/extra-typings";
 import {
   applySets,
   findRow,
+  matchName,
   type Model,
   type ModelRows,
   OptionError,
@@ -22,12 +23,14 @@ import {
 import { PROTECTED_CAUTION } from "./commands/fit.ts";
 import { ANALYST_FILE_OPTION } from "./open_model.ts";
 import { coverageOption } from "./option_values.ts";
-import { localeTag } from "./table_flags.ts";
+import { localeTag, type ReadFlags, readOverrides, withReadFlags } from "./table_flags.ts";
 import { dataWarningLines } from "./data_check.ts";
 import type { Terminal } from "./terminal.ts";
+import { caseNote } from "./column_names.ts";
+import { terminalText } from "./render/safe_text.ts";
 
-/** Parsed profile options. */
-export type ProfileFlags = {
+/** Parsed profile options (with the options that say how --table is read). */
+export type ProfileFlags = ReadFlags & {
   table?: string;
   row?: string;
   set?: string[];
@@ -46,7 +49,8 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
   command: Command<A, O>,
 ): Command<A, O & ProfileFlags> {
   // An explicit return type keeps type checking of the option chain fast.
-  return command
+  // The reading options apply to --table; the model's own settings are the defaults.
+  return withReadFlags(command)
     .option("--table <table>", "a table with the model's columns, to start from one of its rows")
     .option("--row <id>", "the identifier of the row of --table to start from")
     .option("--set <column=value>", "set an attribute of the profile (repeatable)", collect)
@@ -59,13 +63,17 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
     >;
 }
 
-/** Reads a table for a model from a path (piece by piece, up to a stated size). */
+/**
+ * Reads a table for a model from a path (piece by piece, up to a stated
+ * size), as the model's own table was read except where `flags` say otherwise.
+ */
 export function readTableForModel(
   model: Model,
   path: string,
   amounts: readonly string[] = [],
+  flags: ReadFlags = {},
 ): Promise<ModelRows> {
-  return readTableFileForModel(model, path, amounts);
+  return readTableFileForModel(model, path, amounts, false, readOverrides(flags));
 }
 
 /**
@@ -100,7 +108,7 @@ export async function profileFromFlags(
   }
   let id = "";
   if (flags.table !== undefined) {
-    rows = await readTableForModel(model, flags.table);
+    rows = await readTableForModel(model, flags.table, [], flags);
     // The table's data-quality warnings, briefly, on stderr.
     for (
       const line of dataWarningLines(rows.table.warnings, flags.table, {
@@ -113,6 +121,15 @@ export async function profileFromFlags(
       start = `row ${flags.row} of ${flags.table}`;
       // Only the model's own identifier column can name a training row.
       if (rows.idColumn === model.read.identifier) id = flags.row;
+    }
+  }
+  // A name right but for its case is taken, with a note.
+  const attributes = model.features.map((f) => f.name);
+  for (const set of flags.set ?? []) {
+    const asked = set.slice(0, Math.max(0, set.indexOf("="))).trim();
+    const match = matchName(asked, attributes);
+    if (match.kind === "case") {
+      terminal.err(`paygrove: note: ${terminalText(caseNote("--set", asked, match.name))}`);
     }
   }
   const { profile, warnings } = applySets(model, base, flags.set ?? []);

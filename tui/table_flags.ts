@@ -12,6 +12,7 @@ import {
   loadTableFile,
   type LoadTableOptions,
   type PayPeriod,
+  type ReadOverrides,
   type Table,
 } from "../mod.ts";
 import type { Progress } from "./progress.ts";
@@ -126,7 +127,69 @@ export function localeTag(text: string): string {
 }
 
 /**
- * Adds the table-reading options to a command.
+ * Adds the options that say how a file's bytes are read (delimiter, decimal
+ * mark, encoding, missing texts, currency, pay periods, FTE): every command
+ * that reads a table has them, those that read one for a saved model too
+ * (there they override what the model remembers of its own table).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { Command } from "@commander-js/extra-typings";
+ * import { withReadFlags } from "./table_flags.ts";
+ * const command = withReadFlags(new Command("x")).exitOverride();
+ * command.parse(["--decimal", ",", "--delimiter", "semicolon"], { from: "user" });
+ * assert.equal(command.opts().decimal, ",");
+ * assert.equal(command.opts().delimiter, ";");
+ * assert.equal(command.opts().encoding, undefined);
+ * ```
+ */
+export function withReadFlags<A extends unknown[], O extends Record<string, unknown>>(
+  command: Command<A, O>,
+): Command<A, O & ReadFlags> {
+  const chained = command
+    .option(
+      "--delimiter <char>",
+      "field delimiter: comma, semicolon, tab or pipe (default: detected)",
+      (text: string) => {
+        const delimiter = DELIMITERS[text];
+        if (!delimiter) {
+          throw new InvalidArgumentError(`use comma, semicolon, tab or pipe, got "${text}"`);
+        }
+        return delimiter;
+      },
+    )
+    .addOption(
+      new Option(
+        "--decimal <mark>",
+        "decimal mark of numbers in the file (default: read from a semicolon file's cells " +
+          "where they settle it, else .)",
+      ).choices([".", ","] as const),
+    )
+    .option("--encoding <label>", "text encoding of the file, e.g. windows-1252 (default: utf-8)")
+    .option(
+      "--missing <list>",
+      "comma-separated texts that mean missing (default: NA,N/A,#N/A,NaN,null,-; an empty cell always does)",
+      list,
+    )
+    .option("--currency <code>", "ISO 4217 currency of pay columns, e.g. EUR", currencyCode)
+    .option("--hours-per-year <n>", "annualise hourly pay with this many hours", positiveNumber)
+    .option(
+      "--fte <column>",
+      "column of full-time-equivalent fractions; pay is divided by it",
+    )
+    .option(
+      "--period <column=period>",
+      "pay period of a column whose cells do not say it: hour, week, month or year (repeatable)",
+      collectPair(oneOf(PERIODS, "a period")),
+    );
+  return chained as unknown as Command<A, O & ReadFlags>;
+}
+
+/**
+ * Adds the table-reading options to a command: {@linkcode withReadFlags}
+ * and the options that say what the columns are (target, types, orders,
+ * protected attributes) and how output is written (locale).
  *
  * @example
  * ```ts
@@ -145,30 +208,7 @@ export function withTableFlags<A extends unknown[], O extends Record<string, unk
   // The explicit return type matters: left to inference, the type of this
   // chain of options is deep enough that type checking it together with
   // other modules could take minutes.
-  const chained = command
-    .option("--target <column>", targetHelp)
-    .option(
-      "--delimiter <char>",
-      "field delimiter: comma, semicolon, tab or pipe (default: detected)",
-      (text: string) => {
-        const delimiter = DELIMITERS[text];
-        if (!delimiter) {
-          throw new InvalidArgumentError(`use comma, semicolon, tab or pipe, got "${text}"`);
-        }
-        return delimiter;
-      },
-    )
-    .addOption(
-      new Option("--decimal <mark>", "decimal mark of numbers in the file")
-        .choices([".", ","] as const)
-        .default("." as const),
-    )
-    .option("--encoding <label>", "text encoding of the file, e.g. windows-1252", "utf-8")
-    .option(
-      "--missing <list>",
-      "comma-separated texts that mean missing (default: NA,N/A,#N/A,NaN,null,-; an empty cell always does)",
-      list,
-    )
+  const chained = withReadFlags(command.option("--target <column>", targetHelp))
     .option(
       "--type <column=type>",
       "declare a column's type: numeric, categorical, ordinal or identifier (repeatable)",
@@ -180,36 +220,58 @@ export function withTableFlags<A extends unknown[], O extends Record<string, unk
       collectPair((value) => list(value)),
     )
     .option("--protected <columns>", "further protected attributes, comma-separated", list)
-    .option("--currency <code>", "ISO 4217 currency of pay columns, e.g. EUR", currencyCode)
-    .option("--locale <tag>", "locale for numbers and money in output, e.g. de-DE", localeTag)
-    .option("--hours-per-year <n>", "annualise hourly pay with this many hours", positiveNumber)
-    .option(
-      "--fte <column>",
-      "column of full-time-equivalent fractions; pay is divided by it",
-    )
-    .option(
-      "--period <column=period>",
-      "pay period of a column whose cells do not say it: hour, week, month or year (repeatable)",
-      collectPair(oneOf(PERIODS, "a period")),
-    );
+    .option("--locale <tag>", "locale for numbers and money in output, e.g. de-DE", localeTag);
   return chained as unknown as Command<A, O & TableFlags>;
 }
 
-/** The parsed values of {@linkcode withTableFlags}' options. */
-export interface TableFlags {
-  target?: string;
+/** The parsed values of {@linkcode withReadFlags}' options. */
+export type ReadFlags = {
   delimiter?: string;
-  decimal: "." | ",";
-  encoding: string;
+  decimal?: "." | ",";
+  encoding?: string;
   missing?: string[];
-  type?: Record<string, DeclaredType>;
-  order?: Record<string, string[]>;
-  protected?: string[];
   currency?: string;
-  locale?: string;
   hoursPerYear?: number;
   fte?: string;
   period?: Record<string, PayPeriod>;
+};
+
+/**
+ * The reading options given, as the library's overrides of what a model
+ * remembers of its own table (options not given are left out, so the
+ * model's settings stand).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readOverrides } from "./table_flags.ts";
+ * assert.deepEqual(readOverrides({ decimal: ".", encoding: "utf-8" }), {
+ *   decimal: ".",
+ *   encoding: "utf-8",
+ * });
+ * assert.deepEqual(readOverrides({}), {});
+ * ```
+ */
+export function readOverrides(flags: ReadFlags): ReadOverrides {
+  const out: ReadOverrides = {};
+  if (flags.delimiter !== undefined) out.delimiter = flags.delimiter;
+  if (flags.decimal !== undefined) out.decimal = flags.decimal;
+  if (flags.encoding !== undefined) out.encoding = flags.encoding;
+  if (flags.missing !== undefined) out.missing = flags.missing;
+  if (flags.currency !== undefined) out.currency = flags.currency;
+  if (flags.hoursPerYear !== undefined) out.hoursPerYear = flags.hoursPerYear;
+  if (flags.fte !== undefined) out.fte = flags.fte;
+  if (flags.period !== undefined) out.periods = flags.period;
+  return out;
+}
+
+/** The parsed values of {@linkcode withTableFlags}' options. */
+export interface TableFlags extends ReadFlags {
+  target?: string;
+  type?: Record<string, DeclaredType>;
+  order?: Record<string, string[]>;
+  protected?: string[];
+  locale?: string;
 }
 
 /**
@@ -224,11 +286,9 @@ export interface TableFlags {
  * ```
  */
 export function loadOptions(flags: TableFlags, file: string): LoadTableOptions {
-  const options: LoadTableOptions = {
-    file,
-    decimal: flags.decimal,
-    encoding: flags.encoding,
-  };
+  const options: LoadTableOptions = { file, encoding: flags.encoding ?? "utf-8" };
+  // Not given: read from the file's cells where they settle it.
+  if (flags.decimal !== undefined) options.decimal = flags.decimal;
   if (flags.target !== undefined) options.target = flags.target;
   if (flags.delimiter !== undefined) options.delimiter = flags.delimiter;
   if (flags.missing !== undefined) options.missing = flags.missing;

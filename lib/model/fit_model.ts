@@ -647,7 +647,8 @@ function readSettings(
   if (identifier !== undefined) types[identifier] = "identifier";
   return {
     ...(load.delimiter ? { delimiter: load.delimiter } : {}),
-    decimal: load.decimal ?? ".",
+    // The mark the table was read with, given or settled by its cells.
+    decimal: table.source.decimal?.mark ?? load.decimal ?? ".",
     encoding: load.encoding ?? "utf-8",
     ...(load.missing ? { missing: [...load.missing] } : {}),
     types,

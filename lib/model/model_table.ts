@@ -12,7 +12,7 @@ import { loadTable, type LoadTableOptions } from "../table/load_table.ts";
 import { decodeText, readCsv } from "../table/read_csv.ts";
 import { readTableText } from "../table/load_table_file.ts";
 import type { Table } from "../table/types.ts";
-import type { Model } from "./types.ts";
+import type { Model, ReadSettings } from "./types.ts";
 
 /** A table encoded for a model. */
 export interface ModelRows {
@@ -36,11 +36,45 @@ export interface ModelRows {
 }
 
 /**
+ * How to read a table for a model where it differs from how the model's own
+ * table was read (the model's settings are the defaults): a file exported
+ * another way, say with commas and decimal points in UTF-8.
+ */
+export type ReadOverrides = Pick<
+  LoadTableOptions,
+  "delimiter" | "decimal" | "encoding" | "missing" | "currency" | "hoursPerYear" | "fte" | "periods"
+>;
+
+/**
+ * The model's reading settings with `overrides` put over them.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readSettingsWith } from "./model_table.ts";
+ * import type { ReadSettings } from "./types.ts";
+ * const read: ReadSettings = { decimal: ",", encoding: "windows-1252", delimiter: ";", types: {}, orders: {} };
+ * const mixed = readSettingsWith(read, { decimal: ".", encoding: "utf-8" });
+ * assert.equal(mixed.decimal, ".");
+ * assert.equal(mixed.encoding, "utf-8");
+ * assert.equal(mixed.delimiter, ";");
+ * ```
+ */
+export function readSettingsWith(read: ReadSettings, overrides: ReadOverrides = {}): ReadSettings {
+  const out: ReadSettings = { ...read };
+  for (const [key, value] of Object.entries(overrides)) {
+    if (value !== undefined) (out as unknown as Record<string, unknown>)[key] = value;
+  }
+  return out;
+}
+
+/**
  * Reads CSV bytes (or text) for a model and encodes them.
  *
  * @param file The file's name, for messages.
  * @param requireTarget Whether the target column must be there.
  * @param amounts Further columns to read as numbers (e.g. offers), when present.
+ * @param overrides Reading options that differ from the model's own table's.
  * @throws {DataError} listing the schema differences.
  */
 export function readForModel(
@@ -49,8 +83,9 @@ export function readForModel(
   file: string,
   requireTarget = false,
   amounts: readonly string[] = [],
+  overrides: ReadOverrides = {},
 ): ModelRows {
-  const read = model.read;
+  const read = readSettingsWith(model.read, overrides);
   const text = typeof input === "string" ? input : decodeText(input, read.encoding, file);
   const raw = readCsv(text, { file, delimiter: read.delimiter });
   const header = raw.header;
@@ -169,6 +204,7 @@ export function readForModel(
  * at once with a DataError), then as {@linkcode readForModel}.
  *
  * @param amounts Further columns to read as numbers (e.g. offers), when present.
+ * @param overrides Reading options that differ from the model's own table's.
  * @throws {DataError} when the file cannot be read or does not match the model.
  *
  * @example
@@ -182,9 +218,10 @@ export async function readTableFileForModel(
   path: string,
   amounts: readonly string[] = [],
   requireTarget = false,
+  overrides: ReadOverrides = {},
 ): Promise<ModelRows> {
-  const text = await readTableText(path, model.read.encoding);
-  return readForModel(model, text, path, requireTarget, amounts);
+  const text = await readTableText(path, overrides.encoding ?? model.read.encoding);
+  return readForModel(model, text, path, requireTarget, amounts, overrides);
 }
 
 /** The profile of row `r`. */

@@ -7,6 +7,7 @@
  */
 
 import { OptionError } from "../errors.ts";
+import { matchName, nearest, unknownLevel, UnknownNameError } from "../table/column_named.ts";
 import type { FeatureSchema, Model } from "./types.ts";
 
 /** A profile: one value per model feature (level codes for level features, NaN for missing). */
@@ -28,42 +29,7 @@ export function typicalProfile(model: Model): Profile {
   return Float64Array.from(model.features, (f) => f.typical);
 }
 
-/**
- * The distance between two words in edits (Levenshtein), for "did you mean".
- */
-export function editDistance(a: string, b: string): number {
-  const row = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    let previous = row[0];
-    row[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const saved = row[j];
-      row[j] = Math.min(
-        row[j] + 1,
-        row[j - 1] + 1,
-        previous + (a[i - 1].toLowerCase() === b[j - 1].toLowerCase() ? 0 : 1),
-      );
-      previous = saved;
-    }
-  }
-  return row[b.length];
-}
-
-/** The closest of `options` to `word`, if it is close enough to be a slip. */
-export function nearest(word: string, options: readonly string[]): string | undefined {
-  let best: string | undefined;
-  let bestDistance = Infinity;
-  for (const option of options) {
-    const d = editDistance(word, option);
-    if (d < bestDistance) {
-      best = option;
-      bestDistance = d;
-    }
-  }
-  return best !== undefined && bestDistance <= Math.max(2, Math.floor(word.length / 3))
-    ? best
-    : undefined;
-}
+export { editDistance, nearest } from "../table/column_named.ts";
 
 /** The feature named `name`, or an OptionError listing the model's features. */
 export function findFeature(model: Model, name: string, option: string): number {
@@ -80,12 +46,21 @@ export function findFeature(model: Model, name: string, option: string): number 
         names.join(", "),
     );
   }
+  const folded = matchName(name, names);
+  if (folded.kind === "case") return names.indexOf(folded.name);
   const guess = nearest(name, names);
-  throw new OptionError(
+  throw new UnknownNameError(
     `${option}: the model has no attribute "${name}"${
       guess ? ` (did you mean "${guess}"?)` : ""
     }; ` +
       `its attributes are: ${names.join(", ")}`,
+    {
+      option,
+      what: "attribute",
+      asked: name,
+      known: names,
+      ...(guess !== undefined ? { nearest: guess } : {}),
+    },
   );
 }
 
@@ -119,13 +94,7 @@ export function valueOf(feature: FeatureSchema, text: string, option: string): n
   if (code >= 0) return code;
   const folded = levels.findIndex((l) => l.toLowerCase() === text.toLowerCase());
   if (folded >= 0) return folded;
-  const guess = nearest(text, levels);
-  throw new OptionError(
-    `${option}: "${feature.name}" has no level "${text}"${
-      guess ? ` (did you mean "${guess}"?)` : ""
-    }; ` +
-      `its levels are: ${levels.join(", ")}`,
-  );
+  throw unknownLevel(option, feature.name, text, levels);
 }
 
 /** Splits `COLUMN=VALUE`. */

@@ -16,6 +16,9 @@ import { MAX_AMOUNT_CHARS, PLAIN_NUMBER } from "./amount.ts";
 // past it (identifiers) sharing saves nothing.
 const SHARED_MAX = 65536;
 
+// A digit and a point or comma somewhere: a cell a decimal mark could change.
+const NUMBER_LIKE = /\d.*[.,]|[.,].*\d/;
+
 /**
  * Whether `String(value)` is `text` again, deciding most cells without
  * formatting the number (the costly part of reading a large table): a
@@ -132,6 +135,33 @@ export class CellColumn {
       out[this.#asideRows[i]] = this.#asideTexts[i];
     }
     return out;
+  }
+
+  /**
+   * The distinct texts of this column's cells that hold a digit and a point
+   * or a comma (the cells a decimal mark could change), at most `limit` of
+   * them, for judging the file's decimal mark.
+   */
+  numberLikeTexts(limit = 1000): string[] {
+    const found = new Set<string>();
+    const add = (text: string) => {
+      if (found.size < limit && NUMBER_LIKE.test(text)) found.add(text);
+    };
+    if (this.#values !== null) {
+      const values = this.#values;
+      // Text given back by the number: only non-integers hold a point.
+      const aside = this.#asideRows;
+      let a = 0;
+      for (let r = 0; r < this.#length && found.size < limit; r++) {
+        while (a < aside.length && aside[a] < r) a++;
+        if (a < aside.length && aside[a] === r) add(this.#asideTexts[a]);
+        else if (!Number.isInteger(values[r]) && !Number.isNaN(values[r])) add(String(values[r]));
+      }
+    } else {
+      const texts = this.#texts!;
+      for (let r = 0; r < texts.length && found.size < limit; r++) add(texts[r]);
+    }
+    return [...found];
   }
 
   /** Keeps only the cells at `rows` (ascending), e.g. the rows whose target is present. */

@@ -7,7 +7,7 @@
  */
 
 import { OptionError } from "../errors.ts";
-import { columnNamed } from "./column_named.ts";
+import { columnNamed, matchLevel, unknownLevel } from "./column_named.ts";
 import type { Column, Table } from "./types.ts";
 
 /**
@@ -86,13 +86,9 @@ function rowTest(table: Table, name: string, values: readonly string[]): (r: num
   }
   if (column.type === "categorical" || column.type === "ordinal") {
     const codes = values.map((v) => {
-      const code = column.levels.indexOf(v);
-      if (code < 0) {
-        throw new OptionError(
-          `--where: "${name}" has no level "${v}"; its levels are: ${column.levels.join(", ")}`,
-        );
-      }
-      return code;
+      const match = matchLevel(v, column.levels);
+      if (match.kind === "unknown") throw unknownLevel("--where", column.name, v, column.levels);
+      return column.levels.indexOf(match.name);
     });
     return (r) => codes.includes(column.codes[r]);
   }

@@ -8,8 +8,10 @@
 
 import { createHash } from "node:crypto";
 import { DataError, OptionError } from "../errors.ts";
+import { matchName, unknownColumn } from "./column_named.ts";
 import { type DecimalMark, parseAmount } from "./amount.ts";
 import { type DeclaredType, inferColumn, inferPlainColumn } from "./infer_column.ts";
+import { type DecimalMarkReading, judgeDecimalMark } from "./decimal_mark.ts";
 import { DEFAULT_MISSING_TOKENS, missingTest } from "./missing.ts";
 import { applyFte, isPayName } from "./money.ts";
 import { isProtectedName } from "./protected_names.ts";
@@ -142,11 +144,16 @@ function buildTable(
   source: { bytes: number; sha256: string },
 ): Table {
   const file = options.file ?? "input";
-  checkOptionColumns(raw.header, options);
+  const nameMatches: { option: string; asked: string; name: string }[] = [];
+  options = resolveOptionColumns(raw.header, options, nameMatches);
   if (options.hoursPerYear !== undefined && !(options.hoursPerYear > 0)) {
     throw new OptionError(`--hours-per-year must be a positive number of hours`);
   }
   const isMissing = missingTest(options.missing ?? DEFAULT_MISSING_TOKENS);
+  // The mark given, else the one the cells settle (semicolon files only).
+  const decimal: DecimalMarkReading = options.decimal !== undefined
+    ? { mark: options.decimal, how: "given" }
+    : judgeDecimalMark(numberLikeCells(raw), raw.delimiter);
 
   let lines = raw.lines;
   const excludedLines: number[] = [];
@@ -180,7 +187,7 @@ function buildTable(
   const columns = raw.header.map((name, c) => {
     const infer = {
       file,
-      decimal: options.decimal ?? ".",
+      decimal: decimal.mark,
       isMissing,
       missingTokens: options.missing ?? DEFAULT_MISSING_TOKENS,
       // A pay target is declared numeric so that stray text is quoted back.
@@ -201,6 +208,14 @@ function buildTable(
   });
 
   const notes = [`delimiter: ${describeDelimiter(raw.delimiter)}`];
+  if (decimal.how === "detected" && decimal.mark === ",") {
+    notes.push(`decimal mark: comma, read from cells such as "${decimal.example}"`);
+  } else if (decimal.how === "ambiguous") {
+    notes.push(
+      `decimal mark: point, though the file does not settle it (cells such as ` +
+        `"${decimal.example}" read differently with a comma)`,
+    );
+  }
   if (options.fte !== undefined) applyFteToPay(columns, options.fte, lines, file);
   if (options.target !== undefined) {
     checkTarget(columns[raw.header.indexOf(options.target)], targetKind, file);
@@ -213,9 +228,10 @@ function buildTable(
     excluded: { count: excludedLines.length, lines: excludedLines.slice(0, 10) },
     warnings: [],
     notes,
-    source: { file: options.file, delimiter: raw.delimiter, ...source },
+    source: { file: options.file, delimiter: raw.delimiter, ...source, decimal },
   };
   if (options.target !== undefined) table.target = options.target;
+  if (nameMatches.length > 0) table.nameMatches = nameMatches;
   if (excludedLines.length > 0) {
     notes.push(
       `${excludedLines.length} row${excludedLines.length === 1 ? "" : "s"} left out: ` +
@@ -223,27 +239,43 @@ function buildTable(
     );
   }
   table.warnings = findQualityWarnings(table);
-  const misread = decimalMarkWarning(columns, options.decimal ?? ".");
+  const misread = decimalMarkWarning(columns, decimal.mark);
   if (misread) table.warnings.unshift(misread);
   return table;
 }
 
-function checkOptionColumns(header: readonly string[], options: LoadTableOptions): void {
-  const known = new Set(header);
-  const named: [string, string][] = [];
-  if (options.target !== undefined) named.push(["--target", options.target]);
-  if (options.fte !== undefined) named.push(["--fte", options.fte]);
-  for (const name of Object.keys(options.types ?? {})) named.push(["--type", name]);
-  for (const name of Object.keys(options.orders ?? {})) named.push(["--order", name]);
-  for (const name of Object.keys(options.periods ?? {})) named.push(["--period", name]);
-  for (const name of options.protected ?? []) named.push(["--protected", name]);
-  for (const [option, name] of named) {
-    if (!known.has(name)) {
-      throw new OptionError(
-        `${option}: no column named "${name}"; the columns are: ${header.join(", ")}`,
-      );
-    }
+// Each column's distinct number-like texts, one after another.
+function* numberLikeCells(raw: ReadColumns): Iterable<string> {
+  for (const column of raw.columns) yield* column.numberLikeTexts();
+}
+
+// The columns the options name, each matched exactly or else without case
+// (the match recorded); an unknown one is an UnknownNameError with the nearest.
+function resolveOptionColumns(
+  header: readonly string[],
+  options: LoadTableOptions,
+  matches: { option: string; asked: string; name: string }[],
+): LoadTableOptions {
+  const resolve = (option: string, asked: string): string => {
+    const match = matchName(asked, header);
+    if (match.kind === "unknown") throw unknownColumn(option, asked, header);
+    if (match.kind === "case") matches.push({ option, asked, name: match.name });
+    return match.name;
+  };
+  const keys = <V>(record: Readonly<Record<string, V>> | undefined, option: string) =>
+    record === undefined
+      ? undefined
+      : Object.fromEntries(Object.entries(record).map(([name, v]) => [resolve(option, name), v]));
+  const resolved: LoadTableOptions = { ...options };
+  if (options.target !== undefined) resolved.target = resolve("--target", options.target);
+  if (options.fte !== undefined) resolved.fte = resolve("--fte", options.fte);
+  if (options.types !== undefined) resolved.types = keys(options.types, "--type");
+  if (options.orders !== undefined) resolved.orders = keys(options.orders, "--order");
+  if (options.periods !== undefined) resolved.periods = keys(options.periods, "--period");
+  if (options.protected !== undefined) {
+    resolved.protected = options.protected.map((name) => resolve("--protected", name));
   }
+  return resolved;
 }
 
 function applyFteToPay(columns: Column[], fteName: string, lines: number[], file: string) {
@@ -316,7 +348,8 @@ function checkTarget(column: Column, kind: TargetKind | undefined, file: string)
 // (more than half of their levels, and more than under the current mark; a
 // stray "TBD" must not hide a pay column): the usual sign of a decimal-comma
 // file read without --decimal ",".
-// Not guessed automatically: "85,000" reads under both marks, and a wrong
+// The mark is read from the cells only where they settle it, in semicolon
+// files (decimal_mark.ts): "85,000" reads under both marks, and a wrong
 // guess would silently divide pay by a thousand.
 function decimalMarkWarning(columns: Column[], decimal: DecimalMark): QualityWarning | undefined {
   const other: DecimalMark = decimal === "." ? "," : ".";

@@ -8,7 +8,19 @@ export * from "./types.ts";
 export { type Amount, type DecimalMark, parseAmount, parseNumber } from "./amount.ts";
 export { DEFAULT_MISSING_TOKENS, missingTest } from "./missing.ts";
 export { isProtectedName, nameWords } from "./protected_names.ts";
-export { ladderOrder } from "./ordinal.ts";
+export { LADDER, ladderOrder } from "./ordinal.ts";
+export {
+  columnNamed,
+  matchLevel,
+  matchName,
+  type NameKind,
+  type NameMatch,
+  unknownColumn,
+  unknownLevel,
+  type UnknownName,
+  UnknownNameError,
+} from "./column_named.ts";
+export { type DecimalMarkHow, type DecimalMarkReading, judgeDecimalMark } from "./decimal_mark.ts";
 export { isPayName, periodFromName } from "./money.ts";
 export type { DeclaredType } from "./infer_column.ts";
 export {

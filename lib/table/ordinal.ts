@@ -4,7 +4,18 @@
  * @module
  */
 
-const LADDER = /^([A-Za-z]{1,3})[ _-]?(\d{1,2})$/;
+/**
+ * A level of a ladder: a short prefix and a number (`G7`, `IC 4`).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { LADDER } from "./ordinal.ts";
+ * assert.deepEqual(LADDER.exec("IC 4")?.slice(1), ["IC", "4"]);
+ * assert.equal(LADDER.exec("Senior"), null);
+ * ```
+ */
+export const LADDER = /^([A-Za-z]{1,3})[ _-]?(\d{1,2})$/;
 
 /**
  * Returns the levels ordered by their number when every level is a short

@@ -8,6 +8,8 @@
  * @module
  */
 
+import type { DecimalMarkReading } from "./decimal_mark.ts";
+
 /** The kinds of column a pay table can hold. */
 export type ColumnType = "numeric" | "categorical" | "ordinal" | "identifier" | "constant";
 
@@ -126,5 +128,12 @@ export interface Table {
     bytes: number;
     /** SHA-256 of the input bytes (hex): the table's fingerprint. */
     sha256: string;
+    /** The decimal mark the numbers were read with, and how it was chosen. */
+    decimal?: DecimalMarkReading;
   };
+  /**
+   * Names the options gave that matched a column only without case, and the
+   * column each was taken as.
+   */
+  nameMatches?: { option: string; asked: string; name: string }[];
 }

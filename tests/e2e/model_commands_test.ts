@@ -355,7 +355,7 @@ Deno.test("bad profile input gets clear messages", async () => {
     [
       ["--set", "level=G9"],
       2,
-      /--set: "level" has no level "G9" \(did you mean "G1"\?\); its levels are: G1, G2, G3, G4, G5, G6, G7/,
+      /--set: "level" has no level "G9": it is above the highest level, G7; its levels are: G1, G2, G3, G4, G5, G6, G7/,
     ],
     [
       ["--set", "years_experience=ten"],

@@ -18,6 +18,7 @@ import {
 } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
 import { readTableForModel } from "../profile_flags.ts";
+import { withReadFlags } from "../table_flags.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
 import { coverageOption } from "../option_values.ts";
 import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
@@ -58,7 +59,8 @@ function share(x: number | null | undefined): string {
  * @param terminal Where output goes.
  */
 export function batchCommand(terminal: Terminal): CommandUnknownOpts {
-  return new Command("batch")
+  // The reading options: the model's own settings are the defaults.
+  return withReadFlags(new Command("batch"))
     .description(
       "Score every row of a CSV with the model's columns: estimate, intervals and, with --offer, " +
         "where each offer sits in the range",
@@ -93,6 +95,7 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         model,
         profilesFile,
         flags.offer === undefined ? [] : [flags.offer],
+        flags,
       );
       let offers: Float64Array | null = null;
       if (flags.offer !== undefined) {

@@ -5,6 +5,7 @@
  * @module
  */
 
+import { resolveColumnFlags } from "../column_names.ts";
 import wrapAnsi from "wrap-ansi";
 import {
   Command,
@@ -208,6 +209,9 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
       const read = await readTable(file, options, progress);
+      // Every option naming a column: matched without case (with a note) or refused
+      // with the nearest column.
+      Object.assign(flags, resolveColumnFlags(read, flags, terminal));
       // Implausible pay stops the fit (or is left out); a rating or score
       // target is not pay and is not screened.
       const { table, leftOut } = screenPayFlags(

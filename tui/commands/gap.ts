@@ -6,6 +6,7 @@
  * @module
  */
 
+import { resolveColumnFlags } from "../column_names.ts";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
@@ -107,6 +108,9 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
       const read = await readTable(file, options, progress);
+      // Every option naming a column: matched without case (with a note) or refused
+      // with the nearest column.
+      Object.assign(flags, resolveColumnFlags(read, flags, terminal));
       const { table, leftOut } = screenPayFlags(
         read,
         [

@@ -7,6 +7,7 @@
  * @module
  */
 
+import { resolveColumnFlags } from "../column_names.ts";
 import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
@@ -216,6 +217,9 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
       const read = await readTable(file, options, progress);
+      // Every option naming a column: matched without case (with a note) or refused
+      // with the nearest column.
+      Object.assign(flags, resolveColumnFlags(read, flags, terminal));
       const { table, leftOut } = screenPayFlags(
         read,
         [{ column: flags.target }],

@@ -79,7 +79,7 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
         feature,
         grid,
         flags.coverage,
-        flags.average ? rows ?? await readTableForModel(model, flags.table!) : null,
+        flags.average ? rows ?? await readTableForModel(model, flags.table!, [], flags) : null,
         warnings,
       );
       printAnswer(

@@ -38,6 +38,7 @@ import {
   type Profile,
   readForModel,
   readModelFile,
+  type ReadOverrides,
   readTableText,
   rowProfile,
   screenPay,
@@ -62,6 +63,7 @@ import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 import { offerGapCheck, type TableSource } from "./gap_step.ts";
 import { droppedReason, leftOutJson, leftOutSentence } from "../data_check.ts";
+import { askDecimalMark } from "./decimal_step.ts";
 
 /** Settings of a flow run. */
 export interface FlowOptions {
@@ -80,6 +82,8 @@ export interface FlowOptions {
   trees?: number;
   /** Workers for fitting. */
   workers?: number;
+  /** How to read a CSV of one's own (the command line's reading options). */
+  read?: ReadOverrides;
 }
 
 /** How the demo table is read: its pay is in EUR a year. */
@@ -181,11 +185,15 @@ async function chooseAndFit(
     } else {
       const path = await io.ask("Path of the CSV file:", { validate: fileExists });
       // Piece by piece, up to a stated size: a wrong path stops with a sentence.
-      tableText = await readTableText(path);
-      readOptions = { file: path };
+      tableText = await readTableText(path, options.read?.encoding);
+      readOptions = { ...options.read, file: path };
       label = path;
     }
     table = loadTable(tableText, readOptions);
+    if (table.source.decimal?.how === "ambiguous") {
+      readOptions = { ...readOptions, decimal: await askDecimalMark(io, table.source.decimal) };
+      table = loadTable(tableText, readOptions);
+    }
 
     io.say(
       renderSchemaBrief(forTerminal(describeSchema(table)), {

@@ -9,7 +9,7 @@ import { Command } from "@commander-js/extra-typings";
 import process from "node:process";
 import { assertCanWrite, OptionError } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
-import { localeTag } from "../table_flags.ts";
+import { localeTag, readOverrides, withReadFlags } from "../table_flags.ts";
 import { MAX_TREES, wholeNumber } from "../option_values.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow, reportJsonPath } from "./guided_flow.ts";
@@ -26,7 +26,8 @@ export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta
  * SIGINT), 2 without a terminal to talk to.
  */
 export async function startFlow(args: string[], terminal: Terminal): Promise<number> {
-  const options = new Command("paygrove")
+  // The reading options apply to a CSV of one's own.
+  const options = withReadFlags(new Command("paygrove"))
     .option("--ascii", "plain ASCII only: no box drawing or arrows")
     .option(
       "--report <file>",
@@ -85,6 +86,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       force: options.force ?? false,
       locale: options.locale,
       trees: options.trees,
+      read: readOverrides(options),
     });
   } catch (error) {
     // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and

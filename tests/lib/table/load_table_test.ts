@@ -241,12 +241,13 @@ Deno.test("a column declared numeric must hold numbers", () => {
 });
 
 Deno.test("comma-decimal numbers read without --decimal get a hint", () => {
-  const values = range(20, (i) => `${i},5`);
+  // A comma file (a semicolon file's cells would settle the mark: see decimal_mark_test.ts).
+  const values = range(20, (i) => `"${i},5"`);
   dataFails(
     () =>
       loadTable(rows("rating", values), {
         file: "t.csv",
-        delimiter: ";",
+        delimiter: ",",
         types: { rating: "numeric" },
       }),
     't.csv: rating: line 2 has "0,5", line 3 has "1,5", line 4 has "2,5", line 5 has "3,5", ' +
@@ -343,7 +344,8 @@ Deno.test("bytes are decoded with the given encoding", () => {
 });
 
 Deno.test("a decimal-comma file read without --decimal gets a warning, not a guess", () => {
-  const csv = 'site;years;salary\nA;5,5;"72.500,00 €"\nB;2;61.000,00 €\nC;9;95.250,00 €\n';
+  // Comma-delimited: only a semicolon file's cells settle the mark.
+  const csv = 'site,years,salary\nA,"5,5","72.500,00 €"\nB,2,"61.000,00 €"\nC,9,"95.250,00 €"\n';
   const table = loadTable(csv);
   assert.equal(table.columns[2].type, "categorical");
   const found = table.warnings.find((w) => w.kind === "decimal-mark");
@@ -434,7 +436,7 @@ Deno.test("warnings count every line concerned, listing the first five", () => {
 });
 
 Deno.test("a decimal-comma pay column with stray text still gets the decimal hint", () => {
-  const csv = "site;base_salary\nA;72.500,00 €\nB;61.000,00 €\nC;95.250,00 €\nD;TBD\n";
+  const csv = 'site,base_salary\nA,"72.500,00 €"\nB,"61.000,00 €"\nC,"95.250,00 €"\nD,TBD\n';
   const found = loadTable(csv).warnings.find((w) => w.kind === "decimal-mark");
   assert.equal(
     found?.message,
