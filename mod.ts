@@ -83,6 +83,7 @@ export {
 } from "./lib/ensemble/sweep.ts";
 export {
   groupedRange,
+  groupedShareBelow,
   groupResiduals,
   type ResidualGroups,
   summarizeResidualGroups,
@@ -109,6 +110,7 @@ export {
   type ProfileReader,
   profileReader,
   type ProfileReading,
+  rangeShareBelow,
   readerFromParts,
   readProfile,
   residualGroupCount,
@@ -157,6 +159,7 @@ export {
 export * from "./lib/model/profile.ts";
 export * from "./lib/model/model_table.ts";
 export * from "./lib/model/answers.ts";
+export * from "./lib/model/offer.ts";
 export {
   FIGURE_DIGITS,
   MEAN_STEP_RMSE,

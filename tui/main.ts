@@ -4,6 +4,7 @@
  *
  * Exit statuses: 0 success; 1 the data cannot be used; 2 bad usage (an
  * unknown option, a bad option value, a column that does not exist);
+ * 3 `batch` scored some rows and refused others (listed on stderr);
  * 70 an internal error (a bug in paygrove); 128 + the signal's number when
  * stopped by SIGINT (130), SIGTERM (143) or SIGHUP (129).
  *
@@ -20,7 +21,7 @@ import { fitCommand } from "./commands/fit.ts";
 import { estimateCommand } from "./commands/estimate.ts";
 import { compareCommand } from "./commands/compare.ts";
 import { sweepCommand } from "./commands/sweep.ts";
-import { batchCommand } from "./commands/batch.ts";
+import { batchCommand, SomeRowsRefused } from "./commands/batch.ts";
 import { inspectCommand } from "./commands/inspect.ts";
 import { processTerminal, type Terminal } from "./terminal.ts";
 import { startFlow } from "./flow/start_flow.ts";
@@ -31,7 +32,7 @@ import { clipLongRuns, terminalGuard } from "./render/safe_text.ts";
 import { listenForStop } from "./stop_signals.ts";
 
 /** Exit statuses of the `paygrove` command. */
-export const EXIT = { ok: 0, data: 1, usage: 2, internal: 70 } as const;
+export const EXIT = { ok: 0, data: 1, usage: 2, rowsRefused: 3, internal: 70 } as const;
 
 /**
  * Builds the program with all its subcommands.
@@ -122,6 +123,8 @@ export async function run(args: string[], terminal: Terminal): Promise<number> {
 
 function report(error: unknown, terminal: Terminal): number {
   const style = terminal.errStyle;
+  // The command has written its output and said which rows it refused.
+  if (error instanceof SomeRowsRefused) return EXIT.rowsRefused;
   if (error instanceof CommanderError) {
     // Commander has already printed its message (and help where asked).
     return error.exitCode === 0 ? EXIT.ok : EXIT.usage;

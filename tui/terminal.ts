@@ -21,6 +21,11 @@ export interface Terminal {
   /** Width of standard output in characters. */
   width: number;
   /**
+   * Whether standard output is a terminal (a person reads it) rather than a
+   * pipe or a file; undefined counts as not.
+   */
+  outIsTerminal?: boolean;
+  /**
    * Redraws one progress line in place on standard error; undefined when
    * standard error is not a terminal (progress is then not shown at all).
    */
@@ -72,6 +77,7 @@ export function processTerminal(): Terminal {
     style,
     errStyle,
     width,
+    outIsTerminal: Deno.stdout.isTerminal(),
   };
   if (Deno.stderr.isTerminal()) {
     terminal.progress = (text) => {

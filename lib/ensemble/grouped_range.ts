@@ -65,15 +65,84 @@ export function groupedRange(estimate: number, groups: ResidualGroups, coverage:
   if (!(coverage > 0 && coverage < 1)) {
     throw new RangeError(`coverage must lie strictly between 0 and 1, got ${coverage}`);
   }
-  let g = 0;
-  while (g < groups.edges.length - 1 && estimate > groups.edges[g]) g++;
   const tail = (1 - coverage) / 2;
-  const residuals = groups.residuals[g];
+  const residuals = groups.residuals[groupOf(estimate, groups)];
   return {
     low: estimate + quantile(residuals, tail),
     high: estimate + quantile(residuals, 1 - tail),
     coverage,
   };
+}
+
+// The group a profile's estimate falls in (the same for its range and its shares).
+function groupOf(estimate: number, groups: ResidualGroups): number {
+  let g = 0;
+  while (g < groups.edges.length - 1 && estimate > groups.edges[g]) g++;
+  return g;
+}
+
+/**
+ * The share of comparable people paid less than `value`, read from the same
+ * residual quantiles as {@linkcode groupedRange}: the p whose quantile
+ * (R's type 7 over the group's sorted residuals or kept grid) puts
+ * estimate + quantile(p) at `value`, so that the range's ends sit at the
+ * shares (1 - coverage) / 2 and (1 + coverage) / 2. Below the lowest kept
+ * residual it is 0, above the highest 1. Where the quantiles are flat (a
+ * kept grid is, beyond its outermost block means) every p of the flat
+ * stretch fits; the one nearest the range's nearer end share is taken, so
+ * an end of the range reads its nominal share at every coverage.
+ *
+ * @param estimate The profile's estimate on the fitting scale.
+ * @param value The amount to place, on the fitting scale.
+ * @param coverage The range's coverage (it settles flat stretches only).
+ *
+ * @example The ends of the range sit at 5% and 95%
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { groupedRange, groupedShareBelow, groupResiduals } from "./grouped_range.ts";
+ * const est = Float64Array.from({ length: 101 }, () => 100);
+ * const y = est.map((e, i) => e + i - 50);
+ * const groups = groupResiduals(est, y, 1);
+ * const range = groupedRange(100, groups, 0.9);
+ * assert(Math.abs(groupedShareBelow(100, groups, range.low, 0.9) - 0.05) < 1e-12);
+ * assert(Math.abs(groupedShareBelow(100, groups, range.high, 0.9) - 0.95) < 1e-12);
+ * assert.equal(groupedShareBelow(100, groups, 100, 0.9), 0.5);
+ * assert.equal(groupedShareBelow(100, groups, -1e9, 0.9), 0);
+ * ```
+ */
+export function groupedShareBelow(
+  estimate: number,
+  groups: ResidualGroups,
+  value: number,
+  coverage: number,
+): number {
+  if (!(coverage > 0 && coverage < 1)) {
+    throw new RangeError(`coverage must lie strictly between 0 and 1, got ${coverage}`);
+  }
+  if (Number.isNaN(value)) return NaN;
+  const sorted = groups.residuals[groupOf(estimate, groups)];
+  const m = sorted.length;
+  const r = value - estimate;
+  if (r < sorted[0]) return 0;
+  if (r > sorted[m - 1]) return 1;
+  if (m === 1) return 0.5;
+  // The flat stretch [first, last] of positions h (0 to m - 1) where the
+  // interpolated quantile equals r: first = inf{h : Q(h) >= r},
+  // last = sup{h : Q(h) <= r}.
+  let i = 0;
+  while (i < m - 1 && sorted[i + 1] < r) i++;
+  const first = sorted[i] >= r ? i : i + (r - sorted[i]) / (sorted[i + 1] - sorted[i]);
+  let j = m - 1;
+  while (j > 0 && sorted[j - 1] > r) j--;
+  const last = sorted[j] <= r ? j : j - (sorted[j] - r) / (sorted[j] - sorted[j - 1]);
+  const from = first / (m - 1);
+  const to = last / (m - 1);
+  if (from >= to) return from;
+  const tail = (1 - coverage) / 2;
+  const clamp = (p: number) => Math.min(to, Math.max(from, p));
+  const low = clamp(tail);
+  const high = clamp(1 - tail);
+  return Math.abs(low - tail) <= Math.abs(high - (1 - tail)) ? low : high;
 }
 
 /**

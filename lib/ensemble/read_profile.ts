@@ -16,6 +16,7 @@ import { type EstimateCenter, estimateCenter } from "./estimate_center.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 import {
   groupedRange,
+  groupedShareBelow,
   groupResiduals,
   type ResidualGroups,
   summarizeResidualGroups,
@@ -29,7 +30,7 @@ import {
   percentileInterval,
   treeEstimates,
 } from "./intervals.ts";
-import { type PayScale, toMoney } from "./pay_scale.ts";
+import { type PayScale, toFitScale, toMoney } from "./pay_scale.ts";
 import { type LeafMembers, leafMembers, quantileForestRange } from "./quantile_forest.ts";
 
 /** The z value of a central interval of `coverage` (standard normal quantile). */
@@ -226,7 +227,7 @@ export function readProfile(
   }
   const range = reader.members !== null
     ? quantileForestRange(ensemble, reader.members, profile, coverage)
-    : groupedRange(center, reader.groups, coverage);
+    : groupedRange(rangeCenter(fitted), reader.groups, coverage);
   return {
     estimate: money(center),
     howSure: { low: money(spread.low), high: money(spread.high), coverage },
@@ -236,6 +237,55 @@ export function readProfile(
     trees: fitted.map(money),
     fitted,
   };
+}
+
+// Where a profile's grouped range is centred (fitting scale): one place, so
+// that the range and the shares read from it cannot drift apart.
+function rangeCenter(fitted: Float64Array): number {
+  return mean(fitted);
+}
+
+/**
+ * The share of comparable people paid less than `amount` (money), read
+ * from the same residual quantiles as the profile's range
+ * ({@linkcode groupedShareBelow}): the range's ends sit at (1 - coverage) / 2
+ * and (1 + coverage) / 2. An amount of zero or less on the log scale has no
+ * one paid less (0).
+ *
+ * @throws {TypeError} for a reader whose range comes from quantile forest
+ * weights (a table at hand), which this share does not read.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble, profileReader, rangeShareBelow, readProfile } from "../../mod.ts";
+ * const years = Array.from({ length: 200 }, (_, i) => i % 20);
+ * const pay = years.map((y, i) => Math.log(40000 + 2000 * y + (i % 5) * 500));
+ * const dataset = {
+ *   rows: 200,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(pay) },
+ * };
+ * const ensemble = fitEnsemble(dataset, { trees: 30, prune: "none", grow: { minLeaf: 5 } });
+ * const reader = profileReader(ensemble, dataset, "log");
+ * const { range } = readProfile(reader, [10], 0.8);
+ * assert(Math.abs(rangeShareBelow(reader, [10], range.low, 0.8) - 0.1) < 1e-9);
+ * assert(Math.abs(rangeShareBelow(reader, [10], range.high, 0.8) - 0.9) < 1e-9);
+ * ```
+ */
+export function rangeShareBelow(
+  reader: ProfileReader,
+  profile: ArrayLike<number>,
+  amount: number,
+  coverage = 0.9,
+): number {
+  if (reader.members !== null) {
+    throw new TypeError("rangeShareBelow reads grouped residual ranges, not forest weights");
+  }
+  if (reader.scale === "log" && !(amount > 0)) return 0;
+  const center = rangeCenter(treeEstimates(reader.ensemble, profile));
+  const value = toFitScale([amount], reader.scale, "amount")[0];
+  return groupedShareBelow(center, reader.groups, value, coverage);
 }
 
 /** A what-if: base and changed readings with the paired change between them. */

@@ -15,6 +15,7 @@ import {
   compareProfiles,
   type ProfileReader,
   type ProfileReading,
+  rangeShareBelow,
   readerFromParts,
   readProfile,
 } from "../ensemble/read_profile.ts";
@@ -25,6 +26,7 @@ import { rowKey } from "./fit_model.ts";
 import { describeProfile, type Profile, type ProfileWarning, rangeWarnings } from "./profile.ts";
 import type { ModelRows } from "./model_table.ts";
 import type { Model, Provenance } from "./types.ts";
+import type { OfferAnswer } from "./offer.ts";
 
 /** An interval with its coverage and how it was made. */
 export interface NamedInterval {
@@ -122,6 +124,8 @@ export interface EstimateAnswer {
   trees: number[];
   /** Warnings for the user. */
   warnings: string[];
+  /** With an offer (`estimate --offer`): where it sits ({@linkcode checkOffer}). */
+  offer?: OfferAnswer;
   /** Where it came from. */
   provenance: Provenance;
 }
@@ -615,12 +619,14 @@ function averageEstimate(session: ModelSession, rows: ModelRows, feature: number
 
 /** One scored row of `batch`. */
 export interface BatchRow {
-  /** The estimate in money (out-of-bag for training rows). */
-  estimate: number;
-  /** Where the estimate came from. */
-  estimateSource: "out-of-bag" | "ensemble" | "reference-tree";
-  /** The reference tree's leaf value. */
-  referenceTree: number;
+  /** The estimate in money (out-of-bag for training rows; null for a refused row). */
+  estimate: number | null;
+  /** Where the estimate came from; `not-scored` for a refused row. */
+  estimateSource: "out-of-bag" | "ensemble" | "reference-tree" | "not-scored";
+  /** The reference tree's leaf value (null for a refused row). */
+  referenceTree: number | null;
+  /** Why the row was not scored (a level the model never saw), or null. */
+  refused: string | null;
   /** How sure. */
   ciLow: number | null;
   /** How sure. */
@@ -635,6 +641,11 @@ export interface BatchRow {
   rangePosition?: number | null;
   /** With an offer: under, within or over the range. */
   offerPosition?: "under" | "within" | "over" | null;
+  /**
+   * With an offer: the share of comparable people paid less than it, from
+   * the residual quantiles the range is read from (as `estimate --offer`).
+   */
+  shareBelow?: number | null;
   /** Why the row is unusual for the data, or outside it ("" when it is not). */
   warnings: string;
 }
@@ -642,7 +653,9 @@ export interface BatchRow {
 /**
  * Scores every row of a table. Rows that are the model's own training rows
  * (same identifier and feature values) get their out-of-bag estimate: the
- * mean of the trees that never saw them, as at fitting time.
+ * mean of the trees that never saw them, as at fitting time. Rows listed
+ * in `rows.refused` are not scored: their figures are null and `refused`
+ * says why.
  *
  * @param offers Each row's offer in money (NaN where none), or null.
  */
@@ -666,7 +679,26 @@ export function batchAnswer(
     : [];
   const out: BatchRow[] = [];
   const profile = new Float64Array(model.features.length);
+  const refused = new Map((rows.refused ?? []).map((x) => [x.row, x.reasons.join("; ")]));
   for (let r = 0; r < rows.rows; r++) {
+    const why = refused.get(r);
+    if (why !== undefined) {
+      out.push({
+        estimate: null,
+        estimateSource: "not-scored",
+        referenceTree: null,
+        refused: why,
+        ciLow: null,
+        ciHigh: null,
+        rangeLow: null,
+        rangeHigh: null,
+        ...(offers !== null
+          ? { offerToEstimate: null, rangePosition: null, offerPosition: null, shareBelow: null }
+          : {}),
+        warnings: "",
+      });
+      continue;
+    }
     for (let g = 0; g < profile.length; g++) profile[g] = rows.features[g][r];
     const tree = model.reference.tree;
     const leaf = applyValues(tree, profile);
@@ -678,6 +710,7 @@ export function batchAnswer(
         estimate: referenceTree,
         estimateSource: "reference-tree",
         referenceTree,
+        refused: null,
         ciLow: null,
         ciHigh: null,
         rangeLow: null,
@@ -690,6 +723,7 @@ export function batchAnswer(
         estimate: reading.estimate,
         estimateSource: "ensemble",
         referenceTree,
+        refused: null,
         ciLow: reading.howSure.low,
         ciHigh: reading.howSure.high,
         rangeLow: reading.range.low,
@@ -710,17 +744,24 @@ export function batchAnswer(
     if (offers !== null) {
       const offer = offers[r];
       if (Number.isNaN(offer) || row.rangeLow === null || row.rangeHigh === null) {
-        row.offerToEstimate = Number.isNaN(offer) ? null : offer / row.estimate;
+        row.offerToEstimate = Number.isNaN(offer) ? null : offer / row.estimate!;
         row.rangePosition = null;
         row.offerPosition = null;
+        row.shareBelow = null;
       } else {
-        row.offerToEstimate = offer / row.estimate;
+        row.offerToEstimate = offer / row.estimate!;
         row.rangePosition = (offer - row.rangeLow) / (row.rangeHigh - row.rangeLow);
         row.offerPosition = offer < row.rangeLow
           ? "under"
           : offer > row.rangeHigh
           ? "over"
           : "within";
+        const tail = (1 - coverage) / 2;
+        row.shareBelow = offer === row.rangeLow
+          ? tail
+          : offer === row.rangeHigh
+          ? 1 - tail
+          : rangeShareBelow(reader!, profile, offer, coverage);
       }
     }
     out.push(row);

@@ -33,6 +33,53 @@ export interface ModelRows {
   target: Float64Array | null;
   /** The file's header and cell texts as read (`cells[c][r]`), to echo input back. */
   raw: { header: string[]; cells: string[][] };
+  /**
+   * Rows that cannot be scored (a level the model never saw), in row order;
+   * their attribute values are NaN. Only a {@linkcode RowsRefusedError}
+   * carries rows with any.
+   */
+  refused?: RefusedRow[];
+}
+
+/** A row a model cannot score, and why. */
+export interface RefusedRow {
+  /** The row's index (0-based, in table order). */
+  row: number;
+  /** Its line in the file (1-based, the header is line 1). */
+  line: number;
+  /** Why, one sentence each. */
+  reasons: string[];
+}
+
+/**
+ * The table matches the model except for levels it never saw in some rows:
+ * the whole table is refused (a DataError like any other), and `rows`
+ * holds every row read, those that cannot be scored listed in
+ * `rows.refused`, for a caller that can score the others (`batch`).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { DataError, RowsRefusedError } from "../../mod.ts";
+ * const rows = { rows: 2, refused: [{ row: 1, line: 3, reasons: ["level G9 unknown"] }] };
+ * const error = new RowsRefusedError("t.csv does not match", rows as never);
+ * assert(error instanceof DataError && error.rows.refused![0].line === 3);
+ * ```
+ */
+export class RowsRefusedError extends DataError {
+  /** Every row read, with the refused ones listed. */
+  readonly rows: ModelRows;
+
+  /**
+   * @param message The whole table's refusal, as a DataError says it.
+   * @param rows Every row read.
+   * @param file The file's name, for messages.
+   */
+  constructor(message: string, rows: ModelRows, file?: string) {
+    super(message, file === undefined ? {} : { file });
+    this.name = "DataError";
+    this.rows = rows;
+  }
 }
 
 /**
@@ -134,10 +181,20 @@ export function readForModel(
   const table = loadTable(text, options);
 
   const differences: string[] = [];
+  // Unknown levels refuse the rows that hold them; any other difference
+  // refuses the whole table.
+  let otherDifferences = 0;
+  const refusedReasons = new Map<number, string[]>();
+  const refuseRow = (r: number, reason: string) => {
+    const list = refusedReasons.get(r);
+    if (list === undefined) refusedReasons.set(r, [reason]);
+    else list.push(reason);
+  };
   const features = model.features.map((f) => {
     const column = table.columns.find((c) => c.name === f.name)!;
     if (f.kind === "numeric") {
       if (column.type !== "numeric") {
+        otherDifferences++;
         differences.push(`"${f.name}" is ${column.type} here, numeric in the model`);
         return new Float64Array(table.rows);
       }
@@ -149,9 +206,14 @@ export function readForModel(
         const code = column.value === undefined ? NaN : f.levels!.indexOf(column.value);
         if (code < 0) {
           differences.push(`"${f.name}" has the level "${column.value}", unknown to the model`);
+          for (let r = 0; r < table.rows; r++) {
+            refuseRow(r, `${f.name} "${column.value}" is a level the model never saw`);
+          }
+          return new Float64Array(table.rows).fill(NaN);
         }
         return new Float64Array(table.rows).fill(code);
       }
+      otherDifferences++;
       differences.push(`"${f.name}" is ${column.type} here, ${f.kind} in the model`);
       return new Float64Array(table.rows);
     }
@@ -169,15 +231,16 @@ export function readForModel(
         } ` +
           `the model never saw (it knows ${f.levels!.join(", ")})`,
       );
+      column.codes.forEach((code, r) => {
+        if (code >= 0 && map[code] < 0) {
+          refuseRow(r, `${f.name} "${column.levels[code]}" is a level the model never saw`);
+        }
+      });
     }
-    return Float64Array.from(column.codes, (code) => (code < 0 ? NaN : map[code]));
+    return Float64Array.from(column.codes, (code) => (code < 0 || map[code] < 0 ? NaN : map[code]));
   });
-  if (differences.length > 0) {
-    throw new DataError(
-      `${file} does not match the model's schema:\n  - ${differences.join("\n  - ")}`,
-      { file },
-    );
-  }
+  const message = `${file} does not match the model's schema:\n  - ${differences.join("\n  - ")}`;
+  if (otherDifferences > 0) throw new DataError(message, { file });
   const idColumn = table.columns.find((c) => c.name === read.identifier) ??
     table.columns.find((c) => c.type === "identifier");
   const ids = idColumn?.type === "identifier"
@@ -187,7 +250,7 @@ export function readForModel(
     : new Array<string>(table.rows).fill("");
   const targetColumn = table.columns.find((c) => c.name === model.target.name);
   const target = targetColumn?.type === "numeric" ? Float64Array.from(targetColumn.values) : null;
-  return {
+  const rows: ModelRows = {
     table,
     rows: table.rows,
     features,
@@ -196,6 +259,17 @@ export function readForModel(
     target,
     raw: { header: raw.header, cells: raw.cells },
   };
+  if (differences.length > 0) {
+    // A refused row is not scored as a row with missing values.
+    for (const r of refusedReasons.keys()) for (const values of features) values[r] = NaN;
+    rows.refused = [...refusedReasons].sort((a, b) => a[0] - b[0]).map(([row, reasons]) => ({
+      row,
+      line: raw.lines[row] ?? row + 2,
+      reasons,
+    }));
+    throw new RowsRefusedError(message, rows, file);
+  }
+  return rows;
 }
 
 /**

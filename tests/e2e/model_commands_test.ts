@@ -265,7 +265,7 @@ Deno.test("batch on the training table gives each row its out-of-bag estimate", 
   assert.equal(run.code, 0, run.stderr);
   assert.match(
     run.stderr,
-    /2000 rows scored \(2000 training rows given their out-of-bag estimate; \d+ unusual for the data/,
+    /2000 rows scored \(2000 training rows given their out-of-bag estimate\); \d+ unusual for the data/,
   );
   const lines = (await Deno.readTextFile(out)).trim().split("\n");
   const header = lines[0].split(",");

@@ -95,7 +95,13 @@ Deno.test("messages that name data show its control characters visibly", async (
   const cases: [string[], number, RegExp][] = [
     // A level the model does not know: the message lists the levels it knows.
     [["estimate", model, "--set", "site=\x1b]0;other\x07"], 2, /site/],
-    [["batch", model, unseen], 1, /does not match the model's schema/],
+    // One row with a level the model never saw: the others are scored (status 3),
+    // and the refused row's line names the level with its control characters visible.
+    [
+      ["batch", model, unseen],
+      3,
+      /line 4 .*: site "\\x1b\]0;new\\x07" is a level the model never saw/,
+    ],
     [["schema", twice], 1, /twice/],
     [["sweep", model, "--vary", "\x1b[2Jnope"], 2, /vary/],
     [["estimate", model, "--table", table, "--row", "\x1b]0;nobody\x07"], 1, /row/],

@@ -369,3 +369,31 @@ Deno.test("the gap step never tells the size of a group below the privacy minimu
   await done;
   assert.doesNotMatch(driver.screen(), /Non-binary \(4 people\)|\b4 people\b/);
 });
+
+Deno.test("check an offer on the profile: the range with the offer marked, and its figures", async () => {
+  const driver = flowDriver();
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await demoFitted(driver);
+  await driver.when("Start the profile from", KEY.enter);
+  // Check an offer: the seventh choice (after undo).
+  await driver.when("What next?", ...Array(6).fill(KEY.down), KEY.enter);
+  await driver.when("Offer (e.g.", "$61,000", KEY.enter);
+  await driver.when("is in USD; the model's pay is in EUR");
+  await driver.when("Offer (e.g.", ..."\x7f".repeat(7), "€61.000", KEY.enter);
+  await driver.when("To reach the estimate");
+  await driver.when("What next?", KEY.up, KEY.enter); // Quit
+  await done;
+  const screen = driver.screen();
+  const profile = typicalProfile(model);
+  const answer = estimateProfile(session, profile, 0.9);
+  const { checkOffer, parseOffer } = await import("../../mod.ts");
+  const offer = checkOffer(session, profile, answer, parseOffer(model, "61k"));
+  const words = { under: "under", within: "inside", over: "above" }[offer.position!];
+  assert.ok(
+    screen.includes(`Offer €61,000: ${words} the 90% range, at range position`),
+    screen.slice(-1500),
+  );
+  assert.ok(screen.includes(formatPercent(offer.shareBelow!)) || offer.shareBelow! % 1 === 0);
+  assert.match(screen, /\n {2}offer +[ <^>]+ +€61,000\n/);
+  assert.ok(screen.includes(`To reach the estimate: ${pay(answer.estimate)}`));
+});

@@ -12,8 +12,11 @@ import {
   type BatchRow,
   isTrainingTable,
   type Model,
+  type ModelRows,
   openModel,
   OptionError,
+  type RefusedRow,
+  RowsRefusedError,
   writeFileAtomic,
 } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
@@ -24,6 +27,8 @@ import { coverageOption } from "../option_values.ts";
 import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
 import { PROTECTED_CAUTION } from "./fit.ts";
 import { dataWarningLines } from "../data_check.ts";
+import { formatPay, type NumberStyle } from "../render/numbers.ts";
+import { moneyStyle } from "../render/model_view.ts";
 
 /** The columns batch adds, in order. */
 export const BATCH_COLUMNS = [
@@ -37,7 +42,71 @@ export const BATCH_COLUMNS = [
 ] as const;
 
 /** The columns added with `--offer`. */
-export const OFFER_COLUMNS = ["offer_to_estimate", "range_position", "offer_position"] as const;
+export const OFFER_COLUMNS = [
+  "offer_to_estimate",
+  "range_position",
+  "offer_position",
+  "share_paid_less",
+] as const;
+
+/** The last columns: why a row is unusual (or was refused), and the model it was scored with. */
+export const TRAILING_COLUMNS = ["warnings", "model_sha256"] as const;
+
+/**
+ * The model's fingerprint in every row: the first 12 hex digits of the
+ * model file's SHA-256 (the full provenance is in the provenance file).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { modelFingerprint } from "./batch.ts";
+ * const model = { provenance: { modelFile: { path: "m.json", sha256: "b22a86edd9df2ee8ecd7" } } };
+ * assert.equal(modelFingerprint(model as never), "b22a86edd9df");
+ * ```
+ */
+export function modelFingerprint(model: Model): string {
+  return model.provenance.modelFile?.sha256.slice(0, 12) ?? "unknown";
+}
+
+/**
+ * Where the provenance of a scored CSV is written: beside it, `.csv`
+ * replaced by `.provenance.json`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { provenancePath } from "./batch.ts";
+ * assert.equal(provenancePath("out/scored.csv"), "out/scored.provenance.json");
+ * assert.equal(provenancePath("scored"), "scored.provenance.json");
+ * ```
+ */
+export function provenancePath(out: string): string {
+  return `${out.replace(/\.csv$/i, "")}.provenance.json`;
+}
+
+/**
+ * Thrown by `batch` after its output is written when some rows were
+ * refused: the program then ends with status 3 (`EXIT.rowsRefused`)
+ * without another message.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { SomeRowsRefused } from "./batch.ts";
+ * assert.equal(new SomeRowsRefused(2).refused, 2);
+ * ```
+ */
+export class SomeRowsRefused extends Error {
+  /** How many rows were refused. */
+  readonly refused: number;
+
+  /** @param refused How many rows were refused. */
+  constructor(refused: number) {
+    super(`${refused} rows refused`);
+    this.name = "SomeRowsRefused";
+    this.refused = refused;
+  }
+}
 
 function provenanceText(model: Model): string {
   const p = model.provenance;
@@ -79,6 +148,12 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--force", "replace an existing --out file")
     .option("--json", "print one JSON document on stdout instead of CSV")
     .action(async (modelFile, profilesFile, flags) => {
+      if (flags.out !== undefined && !flags.json) {
+        await assertCanWrite(provenancePath(flags.out), flags.force ?? false, "--out", [
+          modelFile,
+          profilesFile,
+        ]);
+      }
       if (flags.out !== undefined) {
         await assertCanWrite(flags.out, flags.force ?? false, "--out", [
           modelFile,
@@ -96,7 +171,7 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         profilesFile,
         flags.offer === undefined ? [] : [flags.offer],
         flags,
-      );
+      ).catch(scoreTheOthers);
       let offers: Float64Array | null = null;
       if (flags.offer !== undefined) {
         const column = rows.table.columns.find((c) => c.name === flags.offer);
@@ -124,8 +199,11 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
           })
         ) terminal.err(line);
       }
+      const refused = rows.refused ?? [];
+      const summary = summarize(scored);
       const counts = {
-        scored: scored.length,
+        scored: summary.scored,
+        refused: refused.length,
         outOfBag: scored.filter((r) => r.estimateSource === "out-of-bag").length,
         // Without the analyst's file no row can be told to be a training row.
         trainingRowsRecognised: model.analyst !== null,
@@ -137,38 +215,175 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
           jsonText({
             rows: scored.map((r, i) => ({ input: inputRow(rows.raw, i), ...r })),
             ...counts,
+            refusedRows: refused,
+            summary,
             dataWarnings,
             provenance: model.provenance,
           }),
         );
+        if (refused.length > 0) throw new SomeRowsRefused(refused.length);
         return;
       }
-      const csv = toCsv(rows.raw, scored, offers !== null, provenanceText(model));
+      const withOffer = offers !== null;
+      const fingerprint = modelFingerprint(model);
+      let provenanceFile: string | null = null;
       if (flags.out !== undefined) {
+        const csv = toCsv(rows.raw, scored, withOffer, fingerprint);
         // Per-person pay: a new file is its owner's alone (0600).
         await writeFileAtomic(flags.out, csv, {
           force: flags.force ?? false,
           option: "--out",
           private: true,
         });
-        const flagged = scored.filter((r) => r.warnings !== "").length;
-        terminal.err(
-          `paygrove batch: ${counts.scored} rows scored (${
-            counts.trainingRowsRecognised
-              ? `${counts.outOfBag} training rows given their out-of-bag estimate`
-              : counts.trainingTable
-              ? "this is the table the model was fitted on: every row's estimate includes that " +
-                "person's own pay; --analyst-file gives the estimates of trees that never saw them"
-              : "rows of the table the model learned from are not recognised without " +
-                "--analyst-file, so their estimates include their own pay"
-          }; ${flagged} unusual for the data, see the warnings column) -> ${
-            terminalText(flags.out)
-          }`,
+        provenanceFile = provenancePath(flags.out);
+        await writeFileAtomic(
+          provenanceFile,
+          jsonText({
+            kind: "paygrove-batch-provenance",
+            scoredFile: flags.out,
+            modelSha256Column: fingerprint,
+            profiles: { file: profilesFile, sha256: rows.table.source.sha256, rows: rows.rows },
+            coverage: flags.coverage,
+            offerColumn: flags.offer ?? null,
+            ...counts,
+            summary,
+            provenance: model.provenance,
+          }) + "\n",
+          { force: flags.force ?? false, option: "--out" },
         );
+      } else if (terminal.outIsTerminal === true) {
+        const style: NumberStyle = moneyStyle(model, {});
+        for (const line of readableRows(rows, scored, style)) terminal.out(line);
       } else {
-        terminal.out(csv.replace(/\n$/, ""));
+        terminal.out(toCsv(rows.raw, scored, withOffer, fingerprint).replace(/\n$/, ""));
       }
+      for (const line of refusedLines(refused, rows.ids, profilesFile)) terminal.err(line);
+      const training = counts.trainingRowsRecognised
+        ? `${counts.outOfBag} training rows given their out-of-bag estimate`
+        : counts.trainingTable
+        ? "this is the table the model was fitted on: every row's estimate includes that " +
+          "person's own pay; --analyst-file gives the estimates of trees that never saw them"
+        : "rows of the table the model learned from are not recognised without " +
+          "--analyst-file, so their estimates include their own pay";
+      const pct = `${Math.round(flags.coverage * 100)}%`;
+      terminal.err(
+        `paygrove batch: ${counts.scored} rows scored` +
+          (refused.length > 0 ? `, ${refused.length} refused (listed above)` : "") +
+          ` (${training})` +
+          (withOffer
+            ? `; offers: ${summary.under} under, ${summary.within} within, ${summary.over} over ` +
+              `the ${pct} range` +
+              (summary.noOffer > 0 ? `, ${summary.noOffer} without an offer` : "")
+            : "") +
+          `; ${summary.unusual} unusual for the data${
+            summary.unusual > 0 && terminal.outIsTerminal !== true
+              ? ", see the warnings column"
+              : ""
+          }` +
+          (flags.out !== undefined
+            ? ` -> ${terminalText(flags.out)}; provenance in ${terminalText(provenanceFile!)}`
+            : `; model ${fingerprint} is ${provenanceText(model)}`),
+      );
+      if (refused.length > 0) throw new SomeRowsRefused(refused.length);
     });
+}
+
+// A table with levels the model never saw in some rows: the other rows are
+// scored (all refused is the whole table refused, as before).
+function scoreTheOthers(error: unknown): ModelRows {
+  if (
+    error instanceof RowsRefusedError && error.rows.refused !== undefined &&
+    error.rows.refused.length < error.rows.rows
+  ) return error.rows;
+  throw error;
+}
+
+/** Batch's closing counts: rows scored, offers under, within and over the range, unusual rows. */
+export interface BatchSummary {
+  /** Rows scored. */
+  scored: number;
+  /** Offers under the range. */
+  under: number;
+  /** Offers within the range. */
+  within: number;
+  /** Offers over the range. */
+  over: number;
+  /** Scored rows without an offer (or without a range to place it in). */
+  noOffer: number;
+  /** Scored rows unusual for the data (their warnings column is not empty). */
+  unusual: number;
+}
+
+/**
+ * Counts scored rows by where their offers sit, and the unusual ones.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { summarize } from "./batch.ts";
+ * const rows = [
+ *   { estimateSource: "ensemble", offerPosition: "under", warnings: "" },
+ *   { estimateSource: "ensemble", offerPosition: "within", warnings: "level G7 and ..." },
+ *   { estimateSource: "not-scored", offerPosition: null, warnings: "" },
+ * ];
+ * assert.deepEqual(summarize(rows as never), {
+ *   scored: 2, under: 1, within: 1, over: 0, noOffer: 0, unusual: 1,
+ * });
+ * ```
+ */
+export function summarize(scored: readonly BatchRow[]): BatchSummary {
+  const out: BatchSummary = { scored: 0, under: 0, within: 0, over: 0, noOffer: 0, unusual: 0 };
+  for (const row of scored) {
+    if (row.estimateSource === "not-scored") continue;
+    out.scored++;
+    if (row.offerPosition === "under") out.under++;
+    else if (row.offerPosition === "within") out.within++;
+    else if (row.offerPosition === "over") out.over++;
+    else out.noOffer++;
+    if (row.warnings !== "") out.unusual++;
+  }
+  return out;
+}
+
+// The refused rows on stderr: line, identifier, why (the first 20).
+function refusedLines(refused: readonly RefusedRow[], ids: string[], file: string): string[] {
+  if (refused.length === 0) return [];
+  const lines = [
+    `paygrove batch: ${refused.length} row${refused.length > 1 ? "s" : ""} of ` +
+    `${terminalText(file)} not scored:`,
+  ];
+  for (const row of refused.slice(0, 20)) {
+    const id = ids[row.row] ? ` (${terminalText(ids[row.row])})` : "";
+    lines.push(`  line ${row.line}${id}: ${terminalText(row.reasons.join("; "))}`);
+  }
+  if (refused.length > 20) lines.push(`  ... and ${refused.length - 20} more (--json lists all)`);
+  return lines;
+}
+
+// One line per row for a person at a terminal: id, estimate, range, offer.
+function readableRows(rows: ModelRows, scored: BatchRow[], style: NumberStyle): string[] {
+  const pay = (x: number | null) => (x === null ? "" : formatPay(x, style));
+  const table = scored.map((row, r) => {
+    const id = terminalText(rows.ids[r] || `row ${r + 1}`);
+    if (row.estimateSource === "not-scored") {
+      return [id, "not scored", "", terminalText(row.refused ?? "")];
+    }
+    const offer = row.offerPosition === undefined || row.offerPosition === null
+      ? ""
+      : `${row.offerPosition} (${row.rangePosition!.toFixed(2)})`;
+    return [
+      id,
+      pay(row.estimate),
+      row.rangeLow === null ? "" : `${pay(row.rangeLow)} - ${pay(row.rangeHigh)}`,
+      offer + (row.warnings !== "" ? `${offer === "" ? "" : " "}! unusual` : ""),
+    ];
+  });
+  const head = ["id", "estimate", "range", "offer (range position)"];
+  const widths = head.map((h, c) => Math.max(h.length, ...table.map((t) => t[c].length)));
+  const line = (cells: string[]) =>
+    cells.map((cell, c) => c === 1 ? cell.padStart(widths[c]) : cell.padEnd(widths[c])).join("  ")
+      .trimEnd();
+  return [line(head), ...table.map(line)];
 }
 
 function inputRow(raw: { header: string[]; cells: string[][] }, r: number): Record<string, string> {
@@ -179,13 +394,13 @@ function toCsv(
   raw: { header: string[]; cells: string[][] },
   scored: BatchRow[],
   withOffer: boolean,
-  provenance: string,
+  fingerprint: string,
 ): string {
   const header = [
     ...raw.header,
     ...BATCH_COLUMNS,
     ...(withOffer ? OFFER_COLUMNS : []),
-    "provenance",
+    ...TRAILING_COLUMNS,
   ];
   const lines = [header.map(csvCell).join(",")];
   scored.forEach((row, r) => {
@@ -199,9 +414,15 @@ function toCsv(
       money(row.rangeLow),
       money(row.rangeHigh),
       ...(withOffer
-        ? [share(row.offerToEstimate), share(row.rangePosition), row.offerPosition ?? ""]
+        ? [
+          share(row.offerToEstimate),
+          share(row.rangePosition),
+          row.offerPosition ?? "",
+          share(row.shareBelow),
+        ]
         : []),
-      provenance,
+      row.refused !== null ? `not scored: ${row.refused}` : row.warnings,
+      fingerprint,
     ];
     lines.push(cells.map(csvCell).join(","));
   });

@@ -5,7 +5,14 @@
  */
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
-import { estimateProfile, isTrainingTable, openModel, outOfBagEstimate } from "../../mod.ts";
+import {
+  checkOffer,
+  estimateProfile,
+  isTrainingTable,
+  openModel,
+  outOfBagEstimate,
+  parseOffer,
+} from "../../mod.ts";
 import { openModelFile } from "../open_model.ts";
 import { formatPay } from "../render/numbers.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
@@ -27,12 +34,19 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
         "Estimate pay for one profile: how sure the estimate is, the range for comparable " +
           "people, the decision path and how many people support it",
       )
-      .argument("<model>", "model file written by paygrove fit"),
+      .argument("<model>", "model file written by paygrove fit")
+      .option(
+        "--offer <amount>",
+        "an offer to place in the range, read like the table's amounts (61000, 61k, €61,000)",
+      ),
   ).action(async (file, flags) => {
     const model = await openModelFile(terminal, file, flags.analystFile);
     const session = openModel(model);
+    // A bad offer is said before any table is read.
+    const offer = flags.offer === undefined ? null : parseOffer(model, flags.offer);
     const { profile, warnings, start, id, rows } = await profileFromFlags(model, flags, terminal);
     const answer = estimateProfile(session, profile, flags.coverage, warnings);
+    if (offer !== null) answer.offer = checkOffer(session, profile, answer, offer);
     const oob = outOfBagEstimate(session, id, profile);
     if (oob !== null) {
       answer.warnings.unshift(

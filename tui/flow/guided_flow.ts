@@ -12,6 +12,7 @@ import { existsSync } from "node:fs";
 import {
   applyChanges,
   applySets,
+  checkOffer,
   type CompareAnswer,
   compareAnswer,
   DataError,
@@ -35,6 +36,7 @@ import {
   openModel,
   OptionError,
   outOfBagEstimate,
+  parseOffer,
   type Profile,
   readForModel,
   readModelFile,
@@ -50,7 +52,7 @@ import {
   writeModelFile,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
-import { renderCompare, renderResult, renderSweep } from "../render/answer_view.ts";
+import { renderCompare, renderOffer, renderResult, renderSweep } from "../render/answer_view.ts";
 import { cautionLines } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalGuard, terminalText } from "../render/safe_text.ts";
 import { gapMarkdown } from "../render/gap_view.ts";
@@ -345,6 +347,7 @@ function fileExists(path: string): string | true {
 type Next =
   | "change"
   | "promote"
+  | "offer"
   | "sweep"
   | "keep"
   | "list"
@@ -418,6 +421,10 @@ async function whatIfLoop(
           value: "undo" as const,
           ...(history.length === 0 ? { disabled: "(nothing to undo yet)" } : {}),
         },
+        // After undo, so that the choices above keep their places.
+        ...(model.target.kind === "regression"
+          ? [{ name: "Check an offer against this profile", value: "offer" as const }]
+          : []),
         { name: "Start over with a new profile", value: "restart" },
         { name: "Save the model and a report", value: "save" },
         { name: "Quit", value: "quit" },
@@ -480,6 +487,21 @@ async function whatIfLoop(
       history.push(profile);
       profile = changed;
       answer = what.changed;
+    } else if (next === "offer") {
+      const text = await io.ask("Offer (e.g. 61000, 61k or 61,000):", {
+        validate: (t: string) => {
+          try {
+            parseOffer(model, t);
+            return true;
+          } catch (error) {
+            if (error instanceof OptionError) return error.message.replace(/^--offer:? /, "");
+            throw error;
+          }
+        },
+      });
+      const offer = parseOffer(model, text);
+      const checked = { ...answer, offer: checkOffer(session, profile, answer, offer) };
+      io.say(["", ...renderOffer(forTerminal(checked), view)].join("\n"));
     } else if (next === "sweep") {
       const f = await io.choose(
         "Sweep which attribute?",

@@ -8,7 +8,7 @@
 import asciichart from "asciichart";
 import Table from "cli-table3";
 import wrapAnsi from "wrap-ansi";
-import type { CompareAnswer, EstimateAnswer, SweepAnswer } from "../../mod.ts";
+import type { CompareAnswer, EstimateAnswer, OfferAnswer, SweepAnswer } from "../../mod.ts";
 import { barChart, histogram, intervalChart } from "./charts.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
@@ -157,8 +157,11 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
         ],
         answer.estimate,
         axis,
+        answer.offer &&
+          { label: "offer", value: answer.offer.amount, text: pay(answer.offer.amount) },
       ).map((l) => `  ${l}`),
     );
+    if (answer.offer) lines.push(...offerWords(answer.offer, options).map((l) => `  ${l}`));
     if (answer.jackknife) {
       lines.push(
         ...wrap(
@@ -240,6 +243,99 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
         .map((l) => `  ${l}`),
     );
   }
+  return lines;
+}
+
+const POSITION_WORDS = { under: "under", within: "inside", over: "above" } as const;
+
+// The offer's figures in words, wrapped to the width less an indent of 2.
+function offerWords(offer: OfferAnswer, options: AnswerViewOptions) {
+  const { style, money } = options;
+  const pay = (x: number) => formatPay(x, money);
+  const lines: string[] = [];
+  const say = (text: string) =>
+    lines.push(...wrapAnsi(text, options.width - 2, { hard: true }).split("\n"));
+  const ratio = offer.offerToEstimate - 1;
+  const vsEstimate = Math.abs(ratio) < 0.0005
+    ? "the estimate itself"
+    : `${formatPercent(Math.abs(ratio))} ${ratio < 0 ? "below" : "above"} the estimate`;
+  if (offer.position === null) {
+    say(
+      `${style.bold(`Offer ${pay(offer.amount)}:`)} ${vsEstimate} (no range: the model has ` +
+        `no ensemble).`,
+    );
+  } else {
+    const pct = formatPercent(offer.coverage!).replace(".0", "");
+    say(
+      `${style.bold(`Offer ${pay(offer.amount)}:`)} ${POSITION_WORDS[offer.position]} the ` +
+        `${pct} range, at range position ${formatNumber(offer.rangePosition!, money, 2)} ` +
+        `(0 its low end, 1 its high end); ${vsEstimate}.`,
+    );
+    const share = offer.shareBelow!;
+    say(
+      share === 0
+        ? `It is below the pay of every comparable person the model kept.`
+        : share === 1
+        ? `It is above the pay of every comparable person the model kept.`
+        : `About ${formatPercent(share)} of comparable people are paid less than this offer.`,
+    );
+  }
+  const reach = (what: string, target: { offer: number; change: number }) =>
+    target.change > 0
+      ? `${what} ${pay(target.offer)} (${pay(target.change)} more)`
+      : `${what} ${pay(target.offer)} (the offer is ${pay(-target.change)} above it)`;
+  say(
+    reach("To reach the estimate:", offer.reach.estimate) +
+      (offer.reach.rangeLow ? `; ${reach("the range's low end:", offer.reach.rangeLow)}.` : "."),
+  );
+  if (offer.readAs !== null) say(style.dim(`(${offer.readAs})`));
+  return lines;
+}
+
+/**
+ * The offer check on its own (the guided flow's "Check an offer"): the
+ * range with the offer marked, then the figures in words.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { renderOffer } from "./answer_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const answer = {
+ *   estimate: 64000,
+ *   range: { coverage: 0.9, low: 57000, high: 71000, method: "" },
+ *   offer: {
+ *     amount: 61000, text: "61k", readAs: null, position: "within", rangePosition: 4 / 14,
+ *     offerToEstimate: 61 / 64, shareBelow: 0.31, coverage: 0.9,
+ *     reach: { estimate: { offer: 64000, change: 3000 }, rangeLow: { offer: 57000, change: -4000 } },
+ *     method: "",
+ *   },
+ * } as unknown as import("../../mod.ts").EstimateAnswer;
+ * const lines = renderOffer(answer, { style: makeStyle(false), width: 80, money: { currency: "EUR" } });
+ * assert.match(lines.join("\n"), /Offer €61,000: inside the 90% range, at range position 0\.29/);
+ * assert.match(lines.join("\n"), /About 31\.0% of comparable people are paid less/);
+ * assert.match(lines.join("\n"), /To reach the estimate: €64,000 \(€3,000 more\)/);
+ * assert(lines.some((l) => l.includes("^")));
+ * ```
+ */
+export function renderOffer(answer: EstimateAnswer, options: AnswerViewOptions): string[] {
+  const offer = answer.offer;
+  if (offer === undefined) return [];
+  const pay = (x: number) => formatPay(x, options.money);
+  const lines: string[] = [];
+  if (answer.range) {
+    const r = answer.range;
+    const axis = Math.max(20, Math.min(40, options.width - 30));
+    lines.push(
+      ...intervalChart(
+        [{ label: "range", low: r.low, high: r.high, text: `${pay(r.low)} - ${pay(r.high)}` }],
+        answer.estimate,
+        axis,
+        { label: "offer", value: offer.amount, text: pay(offer.amount) },
+      ).map((l) => `  ${l}`),
+    );
+  }
+  lines.push(...offerWords(offer, options).map((l) => `  ${l}`));
   return lines;
 }
 

@@ -42,9 +42,22 @@ export interface IntervalRow {
   text: string;
 }
 
+/** A value marked on an interval chart's axis, on a line of its own (an offer). */
+export interface ChartMark {
+  /** Label on the left. */
+  label: string;
+  /** The value. */
+  value: number;
+  /** Text on the right. */
+  text: string;
+}
+
 /**
  * Intervals on one axis, with the estimate marked `|`: each line shows
- * where its interval lies relative to the others.
+ * where its interval lies relative to the others. With `mark`, a last line
+ * puts `^` under its value; the axis stretches to hold it up to the
+ * intervals' own span on either side, and a value beyond that is drawn at
+ * the edge as `<` or `>` (its text says the figure).
  *
  * @example
  * ```ts
@@ -57,18 +70,36 @@ export interface IntervalRow {
  * assert(lines[0] === "sure            [|]           45-55");
  * assert(lines[1] === "range  [=========|=========]  0-100");
  * ```
+ *
+ * @example An offer marked under the range, and one far beyond it
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { intervalChart } from "./charts.ts";
+ * const range = [{ label: "range", low: 0, high: 100, text: "0-100" }];
+ * const [, under] = intervalChart(range, 50, 21, { label: "offer", value: 25, text: "25" });
+ * assert.equal(under, "offer       ^                 25");
+ * const [squeezed, far] = intervalChart(range, 50, 21, { label: "offer", value: 1e6, text: "1e6" });
+ * assert.equal(squeezed, "range  [====|====]            0-100");
+ * assert.equal(far, "offer                      >  1e6");
+ * ```
  */
 export function intervalChart(
   rows: readonly IntervalRow[],
   estimate: number,
   axisWidth: number,
+  mark?: ChartMark,
 ): string[] {
-  const low = Math.min(...rows.map((r) => r.low), estimate);
-  const high = Math.max(...rows.map((r) => r.high), estimate);
+  let low = Math.min(...rows.map((r) => r.low), estimate);
+  let high = Math.max(...rows.map((r) => r.high), estimate);
+  const own = high - low || 1;
+  if (mark !== undefined) {
+    low = Math.min(low, Math.max(mark.value, low - own));
+    high = Math.max(high, Math.min(mark.value, high + own));
+  }
   const span = high - low || 1;
   const at = (x: number) => Math.round(((x - low) / span) * (axisWidth - 1));
-  const labelWidth = Math.max(...rows.map((r) => r.label.length));
-  return rows.map((r) => {
+  const labelWidth = Math.max(...rows.map((r) => r.label.length), mark?.label.length ?? 0);
+  const lines = rows.map((r) => {
     const cells = new Array(axisWidth).fill(" ");
     const a = at(r.low);
     const b = at(r.high);
@@ -79,6 +110,14 @@ export function intervalChart(
     if (e > a && e < b) cells[e] = "|";
     return `${r.label.padEnd(labelWidth)}  ${cells.join("")}  ${r.text}`;
   });
+  if (mark !== undefined) {
+    const cells = new Array(axisWidth).fill(" ");
+    if (mark.value < low) cells[0] = "<";
+    else if (mark.value > high) cells[axisWidth - 1] = ">";
+    else cells[at(mark.value)] = "^";
+    lines.push(`${mark.label.padEnd(labelWidth)}  ${cells.join("")}  ${mark.text}`);
+  }
+  return lines;
 }
 
 /**
