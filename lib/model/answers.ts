@@ -21,6 +21,7 @@ import {
 } from "../ensemble/read_profile.ts";
 import { applyValues, type FlatTree } from "../tree/flat_tree.ts";
 import { explainPath } from "../tree/explain.ts";
+import { mergePath } from "../tree/merge_path.ts";
 import { OptionError } from "../errors.ts";
 import { rowKey } from "./fit_model.ts";
 import { describeProfile, type Profile, type ProfileWarning, rangeWarnings } from "./profile.ts";
@@ -40,11 +41,42 @@ export interface NamedInterval {
   method: string;
 }
 
-/** One step of the reference tree's decision path. */
+/**
+ * One condition of the reference tree's decision path: every split on one
+ * attribute merged into what they mean together (`level G2 to G4`).
+ */
 export interface PathAnswer {
+  /** The attribute. */
+  feature: string;
+  /** How it splits: numeric bounds, an ordinal run of levels, a categorical set. */
+  kind: "numeric" | "ordinal" | "categorical";
+  /** The merged condition in words. */
+  condition: string;
+  /** Numeric: the value is above this (exclusive); null when unbounded. */
+  above: number | null;
+  /** Numeric: the value is at most this (inclusive); null when unbounded. */
+  atMost: number | null;
+  /** Ordinal: the levels allowed, lowest first; categorical: the levels left; numeric: null. */
+  levels: string[] | null;
+  /** Whether a missing value follows these splits too. */
+  missing: boolean;
+  /** Whether any known value does (false when a split sent every known value the other way). */
+  known: boolean;
+  /** The split steps it covers (1-based numbers of `pathSplits`). */
+  steps: number[];
+  /** Training rows in the node reached after its last step. */
+  rows: number;
+  /** Typical pay of that node (money; null for fewer rows than the privacy minimum). */
+  value: number | null;
+}
+
+/** One split of the reference tree's decision path, as the tree tests it. */
+export interface PathSplitAnswer {
+  /** Its number along the path (1-based). */
+  step: number;
   /** The feature tested. */
   feature: string;
-  /** The condition the profile met. */
+  /** The condition the profile met at this split. */
   condition: string;
   /** Training rows in the node reached. */
   rows: number;
@@ -114,8 +146,10 @@ export interface EstimateAnswer {
   jackknifeNeedsAnalystFile: boolean;
   /** The range comparable people's pay falls in (null without an ensemble). */
   range: NamedInterval | null;
-  /** The reference tree's decision path. */
+  /** The reference tree's decision path, one merged condition per attribute. */
   path: PathAnswer[];
+  /** The same path split by split (an attribute may be tested more than once). */
+  pathSplits: PathSplitAnswer[];
   /** The leaf the path ends in. */
   leaf: { rows: number; value: number | null };
   /** Support. */
@@ -197,11 +231,25 @@ export function estimateProfile(
   const steps = explainPath(tree, model.features, profile, classes);
   const shown = (rows: number, value: number) =>
     rows >= privacy ? (model.target.kind === "regression" ? toMoney(value, scale) : value) : null;
-  const path = steps.map((s) => ({
+  const pathSplits = steps.map((s, i) => ({
+    step: i + 1,
     feature: s.feature,
     condition: s.condition,
     rows: s.rows,
     value: shown(s.rows, s.value),
+  }));
+  const path = mergePath(tree, model.features, profile, classes).map((c) => ({
+    feature: c.feature,
+    kind: c.kind,
+    condition: c.condition,
+    above: c.above,
+    atMost: c.atMost,
+    levels: c.levels,
+    missing: c.missing,
+    known: c.known,
+    steps: c.steps,
+    rows: c.rows,
+    value: shown(c.rows, c.value),
   }));
   const leafNode = applyValues(tree, profile);
   const leafRows = tree.rows[leafNode];
@@ -225,6 +273,7 @@ export function estimateProfile(
       period: model.target.money?.period ?? null,
     },
     path,
+    pathSplits,
     leaf: { rows: leafRows, value: shown(leafRows, tree.value[leafNode * tree.width]) },
     support,
     provenance: model.provenance,
@@ -414,7 +463,10 @@ export interface CompareAnswer {
     relative: { estimate: number; low: number | null; high: number | null };
     method: string;
   };
-  /** The first step of the decision path that differs (1-based), or null if the paths agree. */
+  /**
+   * The first condition of the (merged) decision path that differs (1-based), or null if the
+   * paths agree.
+   */
   pathChange: { step: number; base: string | null; changed: string | null } | null;
   /** Where it came from. */
   provenance: Provenance;

@@ -47,4 +47,5 @@ export {
   regressionMetrics,
 } from "./metrics.ts";
 export { describeCondition, explainPath, type PathStep } from "./explain.ts";
+export { meetsCondition, mergePath, type PathCondition } from "./merge_path.ts";
 export { shareTree } from "./share_tree.ts";

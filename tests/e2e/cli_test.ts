@@ -155,11 +155,24 @@ Deno.test("an unknown encoding is bad usage", async () => {
 
 Deno.test("every task runs without network permission", async () => {
   const config = JSON.parse(await Deno.readTextFile(`${ROOT}deno.json`));
+  let sets = 0;
   for (const [name, command] of Object.entries(config.tasks as Record<string, string>)) {
     if (!/^([A-Z_]+=\S+ )*deno (run|test|bench)/.test(command)) continue;
-    assert.match(command, /--deny-net/, name);
-    assert.doesNotMatch(command, /--allow-net|--allow-all|\s-A\b/, name);
+    assert.doesNotMatch(command, /--allow-net|--allow-all|\s-A\b|\s-N\b/, name);
+    // A task names its permissions either as flags or as a permission set of
+    // deno.json (`-P` is the set named "default", `-P=NAME` another).
+    const set = command.match(/\s(?:-P|--permission-set)(?:=(\S+))?\s/);
+    if (set === null) {
+      assert.match(command, /--deny-net/, name);
+      continue;
+    }
+    sets++;
+    const permissions = config.permissions?.[set[1] ?? "default"];
+    assert.ok(permissions, `${name}: no permission set ${set[1] ?? "default"} in deno.json`);
+    assert.deepEqual(permissions.net, { deny: true }, name);
+    assert.equal(permissions.all, undefined, name);
   }
+  assert.equal(sets, 2, "start and paygrove use the permission set");
 });
 
 Deno.test("the program's tasks turn off Deno's update check", async () => {

@@ -12,7 +12,8 @@ import type { CompareAnswer, EstimateAnswer, OfferAnswer, SweepAnswer } from "..
 import { barChart, histogram, intervalChart } from "./charts.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
-import { chartSymbols, isAscii, tableChars } from "./glyphs.ts";
+import { chartSymbols, isAscii } from "./glyphs.ts";
+import { fitTable } from "./fit_table.ts";
 
 /** What the views need. */
 export interface AnswerViewOptions {
@@ -123,8 +124,12 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
   } else {
     const what = ESTIMATE_WORDS[answer.center?.kind ?? "mean"];
     lines.push(
-      `${style.bold(`Estimate of ${answer.target.name}`)} (${unitText(answer, money)}, ${what}): ` +
-        style.bold(pay(answer.estimate)),
+      ...wrap(
+        `${style.bold(`Estimate of ${answer.target.name}`)} (${
+          unitText(answer, money)
+        }, ${what}): ` +
+          style.bold(pay(answer.estimate)),
+      ),
     );
   }
   lines.push(...wrap(style.dim(`for: ${profileText(answer.profile)}`), "  "));
@@ -194,7 +199,7 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
   });
   for (const { step, i } of shownSteps(answer.path)) {
     if (step === null) {
-      table.push(["", `... ${formatNumber(i, money)} more steps (--json lists them all)`, "", ""]);
+      table.push(["", `... ${formatNumber(i, money)} more (--json lists them all)`, "", ""]);
       continue;
     }
     table.push([
@@ -374,21 +379,24 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
           .join(", "),
     ),
   );
-  const table = new Table({
-    head: ["", "estimate", `typical pay, ${pct} sure`, `one person, ${pct} range`].map(style.bold),
-    colAligns: ["left", "right", "right", "right"],
-    style: { head: [], border: [], compact: true },
-    ...(tableChars() ? { chars: tableChars() } : {}),
-  });
+  const compared: string[][] = [];
   for (const [name, a] of [["base", answer.base], ["changed", answer.changed]] as const) {
-    table.push([
+    compared.push([
       name,
       pay(a.estimate),
       a.confidence ? `${pay(a.confidence.low)} - ${pay(a.confidence.high)}` : "-",
       a.range ? `${pay(a.range.low)} - ${pay(a.range.high)}` : "-",
     ]);
   }
-  lines.push(...table.toString().split("\n"));
+  // Narrow terminals: "how sure" goes first, then the range; then a list.
+  const table = fitTable({
+    width: options.width,
+    head: ["", "estimate", `typical pay, ${pct} sure`, `one person, ${pct} range`],
+    rows: compared,
+    drop: [2],
+    styleHead: style.bold,
+  });
+  lines.push(...table.lines);
   if (answer.changes.length === 0) {
     lines.push("", ...wrap("No change: the changed profile is the same as the base."));
     return lines;
@@ -424,7 +432,7 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
     ...wrap(
       p === null
         ? "Decision path: the same leaf for both; the reference tree sees no difference."
-        : `Decision path: step ${p.step} changes from "${p.base ?? "(the leaf)"}" to ` +
+        : `Decision path: condition ${p.step} changes from "${p.base ?? "(the leaf)"}" to ` +
           `"${p.changed ?? "(the leaf)"}".`,
     ),
   );
@@ -493,36 +501,41 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
     }${last}`,
   );
   lines.push(
-    style.dim(
-      hasIntervals
-        ? `middle line: estimate; outer lines: range for comparable people (${pct})` +
-          (points.some((p) => p.average !== undefined) ? "; fourth: averaged over the table" : "")
-        : "estimate only (the model has no ensemble)",
-    ),
+    ...wrapAnsi(
+      style.dim(
+        hasIntervals
+          ? `middle line: estimate; outer lines: range for comparable people (${pct})` +
+            (points.some((p) => p.average !== undefined) ? "; fourth: averaged over the table" : "")
+          : "estimate only (the model has no ensemble)",
+      ),
+      options.width,
+    ).split("\n"),
   );
-  const table = new Table({
+  const swept: string[][] = points.map((p) => [
+    typeof p.value === "number" ? formatNumber(p.value, money, 2) : p.value,
+    pay(p.estimate),
+    p.confidence ? `${pay(p.confidence.low)} - ${pay(p.confidence.high)}` : "-",
+    p.range ? `${pay(p.range.low)} - ${pay(p.range.high)}` : "-",
+    ...(p.average !== undefined ? [pay(p.average)] : []),
+  ]);
+  // Narrow terminals: "how sure" goes first, then the averaged column; then a list.
+  const table = fitTable({
+    width: options.width,
     head: [
       answer.feature,
       "estimate",
       `how sure (${pct})`,
       `range (${pct})`,
       ...(points[0].average !== undefined ? ["averaged over table"] : []),
-    ].map(style.bold),
-    colAligns: ["left", "right", "right", "right", "right"],
-    style: { head: [], border: [], compact: true },
-    ...(tableChars() ? { chars: tableChars() } : {}),
+    ],
+    rows: swept,
+    drop: points[0].average !== undefined ? [2, 4] : [2],
+    styleHead: style.bold,
   });
-  for (const p of points) {
-    table.push([
-      typeof p.value === "number" ? formatNumber(p.value, money, 2) : p.value,
-      pay(p.estimate),
-      p.confidence ? `${pay(p.confidence.low)} - ${pay(p.confidence.high)}` : "-",
-      p.range ? `${pay(p.range.low)} - ${pay(p.range.high)}` : "-",
-      ...(p.average !== undefined ? [pay(p.average)] : []),
-    ]);
+  lines.push("", ...table.lines);
+  for (const w of answer.warnings) {
+    lines.push(...wrapAnsi(style.warn(`! ${w}`), options.width).split("\n"));
   }
-  lines.push("", ...table.toString().split("\n"));
-  for (const w of answer.warnings) lines.push(style.warn(`! ${w}`));
   return lines;
 }
 
@@ -620,7 +633,7 @@ export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions)
   });
   for (const { step, i } of shownSteps(answer.path)) {
     table.push(
-      step === null ? ["", `... ${formatNumber(i, money)} more steps`, "", ""] : [
+      step === null ? ["", `... ${formatNumber(i, money)} more`, "", ""] : [
         `${i + 1}`,
         step.condition,
         formatNumber(step.rows, money),

@@ -18,6 +18,7 @@ import {
   type NumberStyle,
 } from "./numbers.ts";
 import type { Style } from "./style.ts";
+import { fitTable } from "./fit_table.ts";
 import { isAscii, tableChars } from "./glyphs.ts";
 import { straightLineSentence } from "./aliased_terms.ts";
 
@@ -208,22 +209,10 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     ...(log ? ["log RMSE", "log MAE"] : []),
     "measured by",
   ];
-  const table = new Table({
-    head: head.map(style.bold),
-    colAligns: [
-      "left",
-      "right",
-      "right",
-      "right",
-      ...(log ? ["right" as const, "right" as const] : []),
-      "left",
-    ],
-    style: { head: [], border: [], compact: true },
-    ...(tableChars() ? { chars: tableChars() } : {}),
-  });
+  const body: string[][] = [];
   for (const [name, a] of rows) {
     if (a === null || a.money === undefined) continue;
-    table.push([
+    body.push([
       name,
       formatPay(a.money.rmse, money),
       formatPay(a.money.mae, money),
@@ -237,14 +226,35 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
       by(a),
     ]);
   }
+  // Narrow terminals: "measured by" goes first (a line under the table says it), then MAE.
+  const fitted = fitTable({
+    width: options.width,
+    head,
+    rows: body,
+    aligns: [
+      "left",
+      "right",
+      "right",
+      "right",
+      ...(log ? ["right" as const, "right" as const] : []),
+      "left",
+    ],
+    // "measured by", then log MAE, then MAE.
+    drop: [head.length - 1, ...(log ? [head.length - 2] : []), 2],
+    styleHead: style.bold,
+  });
   const lines = [
     style.bold(
       `Accuracy (RMSE, MAE and ${isAscii() ? "R^2" : "R²"} on pay itself, in ${
         money.currency ?? "the target's units"
       }${log ? "; log RMSE and log MAE on log pay, the scale the trees are fitted on" : ""})`,
     ),
-    ...table.toString().split("\n"),
+    ...fitted.lines,
   ];
+  if (fitted.dropped.includes("measured by")) {
+    const measured = body.map((r) => `${r[0]}: ${r[r.length - 1]}`).join("; ");
+    lines.push(...wrapAnsi(style.dim(`Measured by ${measured}.`), options.width).split("\n"));
+  }
   const comparison = compareWithLine(q.ensemble, q.reference, q.linear);
   if (comparison !== null) {
     lines.push(

@@ -60,6 +60,24 @@ export function renderSchema(summary: SchemaSummary, options: SchemaViewOptions)
     9,
   ];
   const rest = Math.max(16, options.width - fixed.reduce((a, b) => a + b, 0) - 3 * 5 - 1);
+  if (fixed.reduce((a, b) => a + b, 0) + 3 * 5 + 1 + rest > options.width) {
+    // Too narrow for the table: one block per column, its values wrapped at spaces below it.
+    lines.push(...schemaList(summary, options));
+  } else {
+    lines.push(...schemaTable(summary, options, fixed, rest));
+  }
+  return [...lines, ...schemaNotes(summary, options)];
+}
+
+// The columns as a bordered table, "levels or range" wrapped within its cell.
+function schemaTable(
+  summary: SchemaSummary,
+  options: SchemaViewOptions,
+  fixed: number[],
+  rest: number,
+): string[] {
+  const { style } = options;
+  const lines: string[] = [];
   const table = new Table({
     head: ["column", "type", "missing", "levels or range", "protected"].map(style.bold),
     colWidths: [fixed[0] + 2, fixed[1] + 2, fixed[2] + 2, rest + 2, fixed[3] + 2],
@@ -79,7 +97,33 @@ export function renderSchema(summary: SchemaSummary, options: SchemaViewOptions)
     ]);
   }
   lines.push(...table.toString().split("\n"));
+  return lines;
+}
 
+// The columns as a list: name, type, missing count and "protected" on one
+// line, the levels or range below it (at most three lines).
+function schemaList(summary: SchemaSummary, options: SchemaViewOptions): string[] {
+  const { style } = options;
+  const lines: string[] = [];
+  const indent = "    ";
+  for (const column of summary.columns) {
+    lines.push(
+      `${style.bold(column.name)}  ${column.type}, ` +
+        `${formatNumber(column.missing, options.numbers)} missing` +
+        (column.protected ? `, ${style.caution("protected")}` : ""),
+    );
+    const room = Math.max(20, options.width - indent.length);
+    const values = wrapAnsi(clip(describeValues(column, options.numbers), room * 3 - 6), room, {
+      hard: false,
+    }).split("\n");
+    lines.push(...values.map((l) => indent + l));
+  }
+  return lines;
+}
+
+function schemaNotes(summary: SchemaSummary, options: SchemaViewOptions): string[] {
+  const { style } = options;
+  const lines: string[] = [];
   const notes = [
     ...summary.notes,
     ...summary.columns.flatMap((c) => c.notes.map((n) => `${c.name}: ${n}`)),
