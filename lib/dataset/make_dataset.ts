@@ -113,6 +113,54 @@ export function isPayColumn(column: Column): boolean {
   return column.type === "numeric" && (column.money !== undefined || isPayName(column.name));
 }
 
+/** A numeric column correlated with a numeric target at least this much is pay under another name. */
+export const COPY_CORRELATION = 0.99;
+
+/**
+ * Whether a numeric column is pay under a name no list knows ("stipend",
+ * "payroll_amount", "eur"): Pearson's correlation with a numeric target of
+ * at least {@linkcode COPY_CORRELATION} over the rows where both are known.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../../mod.ts";
+ * import { copiesTarget } from "./make_dataset.ts";
+ * const csv = "years,stipend,pay\n9,40100,40000\n1,52000,52000\n5,61050,61000\n2,45000,45000\n";
+ * const [years, stipend, pay] = loadTable(csv).columns;
+ * assert(copiesTarget(stipend, pay) && !copiesTarget(years, pay));
+ * ```
+ */
+export function copiesTarget(column: Column, target: Column): boolean {
+  if (column.type !== "numeric" || target.type !== "numeric" || column === target) return false;
+  const x = column.values;
+  const y = target.values;
+  let n = 0;
+  let sx = 0;
+  let sy = 0;
+  for (let r = 0; r < x.length; r++) {
+    if (x[r] === x[r] && y[r] === y[r]) {
+      n++;
+      sx += x[r];
+      sy += y[r];
+    }
+  }
+  if (n < 3) return false;
+  const mx = sx / n;
+  const my = sy / n;
+  let sxy = 0;
+  let sxx = 0;
+  let syy = 0;
+  for (let r = 0; r < x.length; r++) {
+    if (x[r] === x[r] && y[r] === y[r]) {
+      sxy += (x[r] - mx) * (y[r] - my);
+      sxx += (x[r] - mx) ** 2;
+      syy += (y[r] - my) ** 2;
+    }
+  }
+  return sxx > 0 && syy > 0 && sxy / Math.sqrt(sxx * syy) >= COPY_CORRELATION;
+}
+
 /** Why a column is not a feature. */
 export interface DroppedColumn {
   /** Column name. */
@@ -180,7 +228,7 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
             `unless you pass --allow-protected`,
         );
       }
-      if (isPayColumn(c)) {
+      if (isPayColumn(c) || copiesTarget(c, targetColumn)) {
         throw new OptionError(
           `--features: "${c.name}" is pay; pay is never an attribute (a model's split points ` +
             `would show people's pay, and pay explained by pay explains nothing)`,
@@ -213,7 +261,7 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
         : c.protected && !options.allowProtected
         ? "protected attribute"
         : undefined;
-      if (reason === undefined && isPayColumn(c)) {
+      if (reason === undefined && (isPayColumn(c) || copiesTarget(c, targetColumn))) {
         dropped.push({ name: c.name, reason: "pay", detail: { kind: "pay" } });
         continue;
       }

@@ -8,6 +8,8 @@
  * @module
  */
 
+import { diverseLeaves } from "../tree/diverse_leaves.ts";
+import { bootstrapCounts } from "../ensemble/bootstrap.ts";
 import { createHash } from "node:crypto";
 import type { Dataset } from "../dataset/types.ts";
 import { makeDataset } from "../dataset/make_dataset.ts";
@@ -322,6 +324,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     };
   });
   const identifier = filtered.columns.find((c) => c.type === "identifier");
+  const payInMoney = regression ? Float64Array.from(y as ArrayLike<number>, back) : null;
 
   return {
     provenance: {
@@ -381,7 +384,22 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       }))),
     },
     ensemble: ensemble === null ? null : {
-      trees: ensemble.trees.map((t) => shareTree(t, dataset.features, dataset.rows)),
+      // No leaf whose value is a drawn member's pay, then covers only.
+      trees: ensemble.trees.map((t, b) =>
+        shareTree(
+          regression
+            ? diverseLeaves(
+              t,
+              dataset.features,
+              bootstrapCounts(dataset.rows, ensemble!.resamples, b),
+              payInMoney!,
+              back,
+            )
+            : t,
+          dataset.features,
+          dataset.rows,
+        )
+      ),
       alpha: prune === "none" ? 0 : roundedFigures(minAlpha),
     },
     residuals,

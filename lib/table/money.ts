@@ -23,7 +23,23 @@ const PAY_WORDS = new Set([
   "income",
   "bonus",
   "remuneration",
+  // Found as copies of pay an outside trial slipped past the words above.
+  "gross",
+  "brutto",
+  "netto",
+  "gehalt",
+  "lohn",
+  "salaire",
+  "salario",
+  "sueldo",
+  "ote",
+  "ctc",
+  "tcc",
+  "cash",
 ]);
+
+// "base" is pay beside a word of time or kind ("annual_base", "prior_year_base").
+const BASE_WITH = new Set(["annual", "year", "yearly", "prior", "current", "new", "old"]);
 
 /** Words in a pay column's name that say its period. */
 const NAME_PERIODS: Record<string, PayPeriod> = {
@@ -56,12 +72,16 @@ export const PERIODS_PER_YEAR: Readonly<Record<Exclude<PayPeriod, "hour">, numbe
  * import assert from "node:assert/strict";
  * import { isPayName } from "./money.ts";
  * assert(isPayName("base_pay") && !isPayName("payroll_id"));
+ * assert(isPayName("salary2024") && isPayName("gross_eur") && isPayName("prior_year_base"));
+ * assert(!isPayName("base_site"));
  * assert(!isPayName("years_experience"));
  * ```
  */
 export function isPayName(name: string): boolean {
-  const words = nameWords(name);
+  // "salary2024", "pay_2024": a year or number glued to the word.
+  const words = nameWords(name).map((w) => w.replace(/[0-9]+$/, ""));
   if (words.some((w) => PAY_WORDS.has(w))) return true;
+  if (words.includes("base") && words.some((w) => BASE_WITH.has(w))) return true;
   // "hourly_rate", "day rate", "monthly rate": a rate paid per period.
   return words.includes("rate") && words.some((w) => w in NAME_PERIODS || w === "day");
 }

@@ -21,6 +21,7 @@ export {
 export { canonicalRowOrder, type GrowInput, type GrowOptions, growTree } from "./grow_tree.ts";
 export {
   collapsedWithin,
+  collapseNodes,
   distinctSteps,
   PRUNE_TOLERANCE,
   pruneTree,
@@ -49,3 +50,4 @@ export {
 export { describeCondition, explainPath, type PathStep } from "./explain.ts";
 export { meetsCondition, mergePath, type PathCondition } from "./merge_path.ts";
 export { shareTree } from "./share_tree.ts";
+export { diverseLeaves, SAME_PAY_SHARE } from "./diverse_leaves.ts";

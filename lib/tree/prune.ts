@@ -377,3 +377,26 @@ function collapse(tree: FlatTree, collapsed: ArrayLike<number>): FlatTree {
   }
   return out;
 }
+
+/**
+ * The tree with each of `nodes` made a leaf (its fitted value kept, the
+ * subtree below removed), renumbered in id order.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, collapseNodes, growTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "y", values: new Float64Array([1, 1, 1, 5, 5, 5]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * const stump = collapseNodes(tree, [0]);
+ * assert.equal(stump.nodeCount, 1);
+ * assert.equal(stump.value[0], 3);
+ * ```
+ */
+export function collapseNodes(tree: FlatTree, nodes: ArrayLike<number>): FlatTree {
+  return collapse(tree, nodes);
+}

@@ -71,7 +71,7 @@ Deno.test({
       await when("Check for pay gaps between groups first?", "Enter");
       await when("Start the profile from", "Enter");
       await when("What next?", "Down", "Enter");
-      await when("Decision path: step");
+      await when("Decision path: condition");
       const seconds = (performance.now() - started) / 1000;
       const shown = await screen();
       await when("What next?", "Up", "Enter");

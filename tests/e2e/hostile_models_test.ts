@@ -103,6 +103,12 @@ Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", a
     assert.equal(run.code, 0, `${command[0]}: ${run.stderr.slice(0, 500)}`);
   }
   const run = await paygrove(["estimate", path]);
-  assert.match(run.stdout, /\.\.\. 19,970 more steps \(--json lists them all\)/);
+  // Every step tests the same attribute: the path is one condition, and
+  // the JSON keeps the 20,000 splits.
+  assert.match(run.stdout, /1\. +years_experience above -999960000 /);
+  assert.doesNotMatch(run.stdout, /^ +2\. /m);
   assert.ok(run.stdout.split("\n").length < 80);
+  const json = JSON.parse((await paygrove(["estimate", path, "--json"])).stdout);
+  assert.equal(json.path.length, 1);
+  assert.equal(json.pathSplits.length, 20_000);
 });

@@ -54,3 +54,39 @@ Deno.test("pay named as an attribute is refused with the reason", async () => {
       /"base_pay_eur" is pay; pay is never an attribute/.test(e.message),
   );
 });
+
+Deno.test("copies of pay under other names are left out too (names an outside trial used)", async () => {
+  // Each name once slipped past the pay-word list; "stipend", "paid" and
+  // "eur" name no pay word and are caught by their values (a correlation
+  // of at least 0.99 with the pay being modelled).
+  const names = [
+    "Gehalt",
+    "gross_eur",
+    "total_cash",
+    "OTE",
+    "CTC",
+    "salary2024",
+    "annual_base",
+    "pay2024",
+    "Brutto",
+    "prior_year_base",
+    "salario",
+    "stipend",
+    "paid",
+    "eur",
+  ];
+  const [head, ...lines] = CSV.trim().split("\n");
+  const at = head.split(",").indexOf("base_pay_eur");
+  const withCopies = [
+    `${head},${names.join(",")}`,
+    ...lines.map((l) => `${l}${`,${l.split(",")[at]}`.repeat(names.length)}`),
+  ].join("\n");
+  const copies = loadTable(withCopies, { target: "base_pay_eur" });
+  const model = await fitModel(copies, { target: "base_pay_eur", trees: 5, workers: 1 });
+  const features = model.features.map((f) => f.name);
+  for (const name of names) assert.ok(!features.includes(name), `${name} is an attribute`);
+  assert.deepEqual(
+    model.dropped.filter((d) => names.includes(d.name)).map((d) => d.reason),
+    names.map(() => "pay"),
+  );
+});

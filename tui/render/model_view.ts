@@ -244,11 +244,14 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     styleHead: style.bold,
   });
   const lines = [
-    style.bold(
-      `Accuracy (RMSE, MAE and ${isAscii() ? "R^2" : "R²"} on pay itself, in ${
-        money.currency ?? "the target's units"
-      }${log ? "; log RMSE and log MAE on log pay, the scale the trees are fitted on" : ""})`,
-    ),
+    ...wrapAnsi(
+      style.bold(
+        `Accuracy (RMSE, MAE and ${isAscii() ? "R^2" : "R²"} on pay itself, in ${
+          money.currency ?? "the target's units"
+        }${log ? "; log RMSE and log MAE on log pay, the scale the trees are fitted on" : ""})`,
+      ),
+      options.width,
+    ).split("\n"),
     ...fitted.lines,
   ];
   if (fitted.dropped.includes("measured by")) {
