@@ -115,11 +115,15 @@ export function isPayColumn(column: Column): boolean {
 
 /** A numeric column correlated with a numeric target at least this much is pay under another name. */
 export const COPY_CORRELATION = 0.99;
+/** ...and whose typical value is within this factor of pay's (either way). */
+export const COPY_RATIO = 1 / 20;
 
 /**
  * Whether a numeric column is pay under a name no list knows ("stipend",
  * "payroll_amount", "eur"): Pearson's correlation with a numeric target of
- * at least {@linkcode COPY_CORRELATION} over the rows where both are known.
+ * at least {@linkcode COPY_CORRELATION} over the rows where both are known,
+ * and a median ratio to it between 1/20 and 20 (so that years on a rigid
+ * pay scale, perfectly correlated but not pay, stay attributes).
  *
  * @example
  * ```ts
@@ -129,6 +133,8 @@ export const COPY_CORRELATION = 0.99;
  * const csv = "years,stipend,pay\n9,40100,40000\n1,52000,52000\n5,61050,61000\n2,45000,45000\n";
  * const [years, stipend, pay] = loadTable(csv).columns;
  * assert(copiesTarget(stipend, pay) && !copiesTarget(years, pay));
+ * const scale = loadTable("years,pay\n1,40900\n2,41800\n3,42700\n").columns;
+ * assert(!copiesTarget(scale[0], scale[1])); // pay by years exactly: years stay
  * ```
  */
 export function copiesTarget(column: Column, target: Column): boolean {
@@ -158,7 +164,17 @@ export function copiesTarget(column: Column, target: Column): boolean {
       syy += (y[r] - my) ** 2;
     }
   }
-  return sxx > 0 && syy > 0 && sxy / Math.sqrt(sxx * syy) >= COPY_CORRELATION;
+  if (!(sxx > 0 && syy > 0 && sxy / Math.sqrt(sxx * syy) >= COPY_CORRELATION)) return false;
+  // On pay's own scale too (a monthly copy is 1/12 of yearly pay): a rigid
+  // pay scale by years of service correlates as well, and years are an
+  // attribute, not pay.
+  const ratios: number[] = [];
+  for (let r = 0; r < x.length; r++) {
+    if (x[r] === x[r] && y[r] === y[r] && y[r] !== 0) ratios.push(x[r] / y[r]);
+  }
+  ratios.sort((a, b) => a - b);
+  const median = ratios[ratios.length >> 1];
+  return median >= COPY_RATIO && median <= 1 / COPY_RATIO;
 }
 
 /** Why a column is not a feature. */

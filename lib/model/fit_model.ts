@@ -393,7 +393,6 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
               dataset.features,
               bootstrapCounts(dataset.rows, ensemble!.resamples, b),
               payInMoney!,
-              back,
             )
             : t,
           dataset.features,

@@ -1,13 +1,14 @@
 /**
- * Leaves whose value is someone's pay, merged away before a tree is shared.
- * A leaf of five drawn people whose pay is the same (a pay scale paid
- * exactly), or arranged so that their mean falls on one of them, has that
- * person's pay as its value; a staff list then tells who may be in it, and
- * the value repeats across trees. Unpruned ensembles gave 173 of the demo's
- * 2,000 people their exact pay this way. A leaf whose value lies within
- * `tolerance` (relative) of a drawn member's pay is merged with its sibling
- * (its parent made a leaf, the parent's drawn-row mean its value) until no
- * leaf is; the tree then predicts what a coarser tree would.
+ * Leaves whose value is everyone's pay in them, merged away before a tree
+ * is shared. A leaf of five drawn people paid the same (a pay scale paid
+ * exactly) has their pay as its value; a staff list then tells who may be
+ * in it, and the value recurs across trees. Unpruned ensembles gave 173 of
+ * the demo's 2,000 people their exact pay this way. A leaf whose drawn
+ * members' pay spans no more than `tolerance` (relative) is merged with its
+ * sibling (its parent made a leaf, the parent's drawn-row mean its value)
+ * until none is; the tree then predicts what a coarser tree would. (A
+ * mean that falls on one member of a mixed group by chance does not recur
+ * across trees, and names no one.)
  *
  * @module
  */
@@ -16,15 +17,15 @@ import type { Feature } from "../dataset/types.ts";
 import { applyRow, type FlatTree } from "./flat_tree.ts";
 import { collapseNodes } from "./prune.ts";
 
-/** A leaf value within this share of a member's pay is that member's pay (0.05%). */
+/** Drawn members whose pay spans no more than this share are paid the same (0.05%). */
 export const SAME_PAY_SHARE = 5e-4;
 
 /**
- * The tree with every leaf whose value is a drawn member's pay merged into
- * its parent (regression trees; a class tree is returned as it is).
+ * The tree with every leaf whose drawn members are paid the same merged
+ * into its parent (regression trees; a class tree is returned as it is).
  *
  * @param tree A tree grown on drawn rows (`counts` > 0).
- * @param money The target in money, row by row; `toMoney` maps a leaf value to money.
+ * @param money The target in money, row by row.
  *
  * @example
  * ```ts
@@ -38,7 +39,7 @@ export const SAME_PAY_SHARE = 5e-4;
  * };
  * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
  * assert.equal(tree.value[1], 50); // a leaf of three people paid 50 each
- * const shared = diverseLeaves(tree, dataset.features, new Float64Array(6).fill(1), pay, (v) => v);
+ * const shared = diverseLeaves(tree, dataset.features, new Float64Array(6).fill(1), pay);
  * assert.equal(shared.nodeCount, 1);
  * ```
  */
@@ -47,22 +48,24 @@ export function diverseLeaves(
   features: readonly Feature[],
   counts: ArrayLike<number>,
   money: ArrayLike<number>,
-  toMoney: (value: number) => number,
   tolerance = SAME_PAY_SHARE,
 ): FlatTree {
   if (tree.task !== "regression") return tree;
   let current = tree;
   for (;;) {
-    const leafMoney = new Float64Array(current.nodeCount);
-    for (let k = 0; k < current.nodeCount; k++) {
-      if (current.left[k] === -1) leafMoney[k] = toMoney(current.value[k]);
-    }
-    const revealing = new Uint8Array(current.nodeCount);
+    // Each leaf's drawn members' lowest and highest pay.
+    const low = new Float64Array(current.nodeCount).fill(Infinity);
+    const high = new Float64Array(current.nodeCount).fill(-Infinity);
     for (let r = 0; r < counts.length; r++) {
       if (!(counts[r] > 0)) continue;
       const leaf = applyRow(current, features, r);
-      if (Math.abs(leafMoney[leaf] - money[r]) <= tolerance * Math.abs(money[r])) {
-        revealing[leaf] = 1;
+      if (money[r] < low[leaf]) low[leaf] = money[r];
+      if (money[r] > high[leaf]) high[leaf] = money[r];
+    }
+    const revealing = new Uint8Array(current.nodeCount);
+    for (let k = 0; k < current.nodeCount; k++) {
+      if (current.left[k] === -1 && high[k] - low[k] <= tolerance * Math.abs(high[k])) {
+        revealing[k] = 1;
       }
     }
     const parents: number[] = [];
