@@ -143,13 +143,17 @@ export {
   writeFileAtomic,
 } from "./lib/io/atomic_write.ts";
 export * from "./lib/model/types.ts";
+export { fitModel, type FitModelOptions, rowKey, typicalValue } from "./lib/model/fit_model.ts";
 export {
-  fitModel,
-  type FitModelOptions,
+  checkedPrivacyMin,
+  DEFAULT_PRIVACY_MIN,
+  type OutOfBagFigures,
+  outOfBagFigures,
+  type PayRows,
+  payRows,
+  type PayRowsOptions,
   PRIVACY_FLOOR,
-  rowKey,
-  typicalValue,
-} from "./lib/model/fit_model.ts";
+} from "./lib/model/pay_pipeline.ts";
 export {
   modelFromText,
   modelToText,
@@ -194,7 +198,7 @@ export {
   PROXY_THRESHOLD,
   type ProxyFigure,
   proxyFigures,
-} from "./lib/gap/proxies.ts";
+} from "./lib/ensemble/proxies.ts";
 export {
   chooseReference,
   GAP_CAUTIONS,
@@ -222,3 +226,10 @@ export {
   tableProvenance,
   withinColumns,
 } from "./lib/gap/categories.ts";
+export {
+  type ImportanceGrowth,
+  importanceGrowth,
+  type OutlineNode,
+  treeOutline,
+  typicalErrorShare,
+} from "./lib/model/model_card.ts";

@@ -69,11 +69,11 @@ for (const perLevel of [100, 300]) {
       seed: draw,
       workers: 2,
     });
-    const bag = inBagCounts(model.ensemble, dataset.rows);
+    const bag = inBagCounts(model.ensemble!, dataset.rows);
     // The default 200 trees, then the ratios of trees to rows.
     for (const ratio of [200 / dataset.rows, ...RATIOS]) {
       const trees = Math.round(ratio * dataset.rows);
-      const ensemble = firstTrees(model.ensemble, trees);
+      const ensemble = firstTrees(model.ensemble!, trees);
       const t: Tally = {
         n: dataset.rows,
         trees,

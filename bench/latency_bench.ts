@@ -20,7 +20,7 @@ const small = subsetRows(full, Array.from({ length: 1000 }, (_, i) => i * 28));
 const models = [];
 for (const [name, dataset] of [["CPS1988", full], ["1,000 rows", small]] as const) {
   const model = await fitDefaultEnsemble(dataset, { trees: 500, seed: 1, workers: 2 });
-  const reader = profileReader(model.ensemble, dataset, "log");
+  const reader = profileReader(model.ensemble!, dataset, "log");
   models.push({ name, dataset, model, reader });
 }
 
@@ -33,7 +33,7 @@ for (const { name, dataset, model, reader } of models) {
   const jackknife = reader.bag !== null ? " with jackknife" : "";
   Deno.bench(`${name}: one what-if, 500 trees${jackknife}`, () => {
     compareProfiles(reader, base, changed, 0.9);
-    explainPath(model.reference.tree, dataset.features, changed);
+    explainPath(model.reference!.tree, dataset.features, changed);
   });
   const grid = sweepGrid(dataset.features[experience], { steps: 50 });
   Deno.bench(`${name}: 50-point sweep, 500 trees${jackknife}`, () => {

@@ -2,6 +2,9 @@
  * The default model in one call: the reference tree chosen by
  * cross-validation, and the ensemble whose trees are pruned as
  * {@linkcode DEFAULT_PRUNING} says, at the alpha that cross-validation gave.
+ * The one recipe every command's ensemble comes from (lib/model/pay_pipeline.ts
+ * prepares its rows); the gap check asks for unpruned trees and no
+ * cross-validation.
  *
  * @module
  */
@@ -10,6 +13,7 @@ import type { Dataset } from "../dataset/types.ts";
 import { binFeatures } from "../tree/bins.ts";
 import { type CrossValidatedTree, crossValidateTree } from "../tree/cross_validate.ts";
 import type { GrowOptions } from "../tree/grow_tree.ts";
+import type { CrossValidateOptions } from "../tree/cross_validate.ts";
 import { DEFAULT_PRUNING } from "./defaults.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 import { fitEnsembleParallel } from "./fit_parallel.ts";
@@ -17,17 +21,37 @@ import { fitEnsembleParallel } from "./fit_parallel.ts";
 /** Options of {@linkcode fitDefaultEnsemble}. */
 export interface DefaultEnsembleOptions {
   /**
-   * Trees in the ensemble.
+   * Trees in the ensemble; 0 fits the reference tree alone.
    * @default {200}
    */
   trees?: number;
+  /**
+   * How the ensemble's trees are pruned: at the alpha {@linkcode DEFAULT_PRUNING}
+   * names, or not at all ("none": then no cross-validation is run unless
+   * `crossValidate` asks for it).
+   * @default {"alpha-min"}
+   */
+  prune?: "alpha-min" | "none";
+  /**
+   * Whether to cross-validate the reference tree.
+   * @default {true, unless prune is "none"}
+   */
+  crossValidate?: boolean;
+  /**
+   * Rule for the reference tree's size (the ensemble's alpha follows
+   * {@linkcode DEFAULT_PRUNING} whatever this says).
+   * @default {"one-se"}
+   */
+  rule?: "one-se" | "min";
+  /** Further losses measured over the folds (see crossValidateTree). */
+  extraLosses?: CrossValidateOptions["extraLosses"];
   /**
    * Seed of the ensemble's resamples.
    * @default {1}
    */
   seed?: number;
   /**
-   * Folds of the reference tree's cross-validation.
+   * Folds of the reference tree's cross-validation (never more than rows).
    * @default {10}
    */
   folds?: number;
@@ -42,16 +66,20 @@ export interface DefaultEnsembleOptions {
   grow?: GrowOptions;
   /** Called as trees are done. */
   onProgress?: (done: number, total: number) => void;
+  /** Called as folds are done. */
+  onCrossValidation?: (done: number, total: number) => void;
 }
 
 /** The reference tree, the alpha the trees were pruned at, and the ensemble. */
 export interface DefaultEnsemble {
-  /** The cross-validated reference tree. */
-  reference: CrossValidatedTree;
-  /** The alpha every tree of the ensemble was pruned at. */
+  /** The cross-validated reference tree (null when not cross-validated). */
+  reference: CrossValidatedTree | null;
+  /** The alpha every tree of the ensemble was pruned at (0: unpruned). */
   alpha: number;
-  /** The ensemble. */
-  ensemble: Ensemble;
+  /** The ensemble (null for 0 trees). */
+  ensemble: Ensemble | null;
+  /** The folds used (fewer than asked when there are fewer rows). */
+  folds: number;
 }
 
 /**
@@ -68,7 +96,8 @@ export interface DefaultEnsemble {
  *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(years, (y) => 40 + y) },
  * };
  * const model = await fitDefaultEnsemble(dataset, { trees: 10, folds: 5, workers: 1 });
- * assert(model.ensemble.alphas.every((a) => a === model.alpha));
+ * assert(model.ensemble!.alphas.every((a) => a === model.alpha));
+ * assert.equal(model.alpha, model.reference!.candidates[model.reference!.best].alpha);
  * ```
  */
 export async function fitDefaultEnsemble(
@@ -76,21 +105,32 @@ export async function fitDefaultEnsemble(
   options: DefaultEnsembleOptions = {},
 ): Promise<DefaultEnsemble> {
   const bins = binFeatures(dataset);
-  const reference = crossValidateTree(dataset, {
-    folds: options.folds ?? 10,
-    seed: options.foldSeed ?? 1,
-    rule: DEFAULT_PRUNING.alphaRule,
-    grow: options.grow,
-  }, bins);
-  const alpha = reference.candidates[reference.chosen].alpha;
-  const ensemble = await fitEnsembleParallel(dataset, {
-    trees: options.trees ?? 200,
+  const prune = options.prune ?? "alpha-min";
+  const trees = options.trees ?? 200;
+  // Each fold holds at least one row.
+  const folds = Math.min(options.folds ?? 10, dataset.rows);
+  const reference = (options.crossValidate ?? prune !== "none")
+    ? crossValidateTree(dataset, {
+      folds,
+      seed: options.foldSeed ?? 1,
+      rule: options.rule ?? "one-se",
+      grow: options.grow,
+      extraLosses: options.extraLosses,
+      onProgress: options.onCrossValidation,
+    }, bins)
+    : null;
+  // The alpha of the lowest cross-validated error (DEFAULT_PRUNING.alphaRule).
+  const alpha = prune === "none" || reference === null
+    ? 0
+    : reference.candidates[reference.best].alpha;
+  const ensemble = trees === 0 ? null : await fitEnsembleParallel(dataset, {
+    trees,
     seed: options.seed ?? 1,
-    prune: DEFAULT_PRUNING.mode,
-    alpha,
+    prune: prune === "none" ? "none" : DEFAULT_PRUNING.mode,
+    alpha: prune === "none" ? undefined : alpha,
     grow: options.grow,
     workers: options.workers,
     onProgress: options.onProgress,
   }, bins);
-  return { reference, alpha, ensemble };
+  return { reference, alpha, ensemble, folds };
 }

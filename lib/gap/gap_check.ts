@@ -12,10 +12,9 @@
  */
 
 import type { Dataset } from "../dataset/types.ts";
-import { makeDataset } from "../dataset/make_dataset.ts";
 import { OptionError } from "../errors.ts";
-import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
-import { toFitScale } from "../ensemble/pay_scale.ts";
+import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
+import { checkedPrivacyMin, payRows } from "../model/pay_pipeline.ts";
 import { designOf, type DesignTerm } from "../linear/design.ts";
 import { fitLeastSquares } from "../linear/least_squares.ts";
 import { filterRows, subsetRows } from "../table/filter_rows.ts";
@@ -31,7 +30,12 @@ import {
   withinColumns,
 } from "./categories.ts";
 import { gapFromCoefficient, holmAdjust, residualRegression, twoSidedP } from "./partial_out.ts";
-import { oobBalancedAccuracy, PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "./proxies.ts";
+import {
+  oobBalancedAccuracy,
+  PROXY_THRESHOLD,
+  type ProxyFigure,
+  proxyFigures,
+} from "../ensemble/proxies.ts";
 import { type PayQuartile, payQuartiles, rawGaps } from "./raw_gaps.ts";
 import { type Suppression, suppressSmallGroups } from "./suppress.ts";
 
@@ -269,13 +273,12 @@ export const GAP_CAUTIONS = "These figures describe the table as it is. A gap th
 export async function gapCheck(table: Table, options: GapOptions): Promise<GapReport> {
   const threshold = options.threshold ?? 0.05;
   const materiality = options.materiality ?? 0.02;
-  const privacyMin = options.privacyMin ?? 5;
+  const privacyMin = checkedPrivacyMin(options.privacyMin);
   const proxyThreshold = options.proxyThreshold ?? PROXY_THRESHOLD;
   const trees = options.trees ?? 200;
   const seed = options.seed ?? 1;
   const confidence = 0.95;
   const within = options.within ?? [];
-  if (privacyMin < 3) throw new OptionError(`--privacy-min is never below 3, got ${privacyMin}`);
   if (!(threshold >= 0 && threshold < 1)) {
     throw new OptionError(`--threshold must be between 0 and 1 (0.05 = 5%), got ${threshold}`);
   }
@@ -380,33 +383,35 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       `--features: "${options.group}" is the group compared; it cannot adjust itself`,
     );
   }
-  const { dataset: encoded } = makeDataset(rowsTable, {
+  const { encoded, dataset: payDataset } = payRows(rowsTable, {
     target: options.target,
     features: options.features,
     drop: options.features ? undefined : [...new Set(drop)].filter((d) => d !== options.target),
+    scale: "log",
   });
   if (encoded.features.length === 0) {
     throw new OptionError(
       "no legitimate factors are left to adjust for; name them with --features",
     );
   }
-  const logPay = toFitScale(encoded.target.values, "log", options.target);
-  const payDataset: Dataset = {
-    ...encoded,
-    target: { ...encoded.target, values: logPay } as Dataset["target"],
-  };
+  const logPay = payDataset.target.values as Float64Array;
   const n = payDataset.rows;
   const minLeaf = Math.max(options.minLeaf ?? 5, 1);
-
-  options.onProgress?.("pay model", 0, trees);
-  const payModel = await fitEnsembleParallel(payDataset, {
+  // Both ensembles unpruned: the adjustment wants each tree's low bias, and
+  // their out-of-bag averages do the smoothing.
+  const unpruned = {
     trees,
     seed,
-    prune: "none",
+    prune: "none" as const,
     grow: { minLeaf },
     workers: options.workers,
+  };
+
+  options.onProgress?.("pay model", 0, trees);
+  const payModel = (await fitDefaultEnsemble(payDataset, {
+    ...unpruned,
     onProgress: (done, total) => options.onProgress?.("pay model", done, total),
-  });
+  })).ensemble!;
   const groupCode = Int32Array.from(groupName, (g) => allGroups.indexOf(g));
   const groupDataset: Dataset = {
     rows: n,
@@ -414,14 +419,10 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     target: { kind: "classification", name: options.group, classes: allGroups, values: groupCode },
   };
   options.onProgress?.("group model", 0, trees);
-  const groupModel = await fitEnsembleParallel(groupDataset, {
-    trees,
-    seed,
-    prune: "none",
-    grow: { minLeaf },
-    workers: options.workers,
+  const groupModel = (await fitDefaultEnsemble(groupDataset, {
+    ...unpruned,
     onProgress: (done, total) => options.onProgress?.("group model", done, total),
-  });
+  })).ensemble!;
 
   // Out-of-bag residuals; rows every tree drew (rare) are left out of the adjustment.
   const payResidual = new Float64Array(n);

@@ -14,18 +14,10 @@
  * @module
  */
 
-import { estimateCenter } from "../ensemble/estimate_center.ts";
-import { makeDataset } from "../dataset/make_dataset.ts";
 import { DataError, OptionError } from "../errors.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
-import {
-  groupedRange,
-  groupResiduals,
-  summarizeResidualGroups,
-} from "../ensemble/grouped_range.ts";
-import { toFitScale } from "../ensemble/pay_scale.ts";
-import { residualGroupCount } from "../ensemble/read_profile.ts";
-import { filterRows } from "../table/filter_rows.ts";
+import { groupedRange } from "../ensemble/grouped_range.ts";
+import { checkedPrivacyMin, outOfBagFigures, payRows } from "../model/pay_pipeline.ts";
 import type { MoneyUnit, Table } from "../table/types.ts";
 import {
   categoriesOf,
@@ -151,25 +143,26 @@ export interface PayReview {
  */
 export async function payReview(table: Table, options: ReviewOptions): Promise<PayReview> {
   const coverage = options.coverage ?? 0.9;
-  const privacyMin = options.privacyMin ?? 5;
+  const privacyMin = checkedPrivacyMin(options.privacyMin);
   const seed = options.seed ?? 1;
   const trees = options.trees ?? 200;
-  if (privacyMin < 3) throw new OptionError(`--privacy-min is never below 3, got ${privacyMin}`);
   if (!(coverage > 0 && coverage < 1)) {
     throw new OptionError(`--coverage must lie between 0 and 1 (0.9 = 90%), got ${coverage}`);
   }
-  const filtered = filterRows(table, options.where ?? {});
-  const payColumn = filtered.columns.find((c) => c.name === options.target);
+  // A column's type is the same before and after rows are kept.
+  const payColumn = table.columns.find((c) => c.name === options.target);
   if (payColumn !== undefined && payColumn.type !== "numeric") {
     throw new OptionError(`--target: "${options.target}" is not numeric; a review needs pay`);
   }
   const within = options.within ?? [];
-  const withinCols = withinColumns(filtered, within, [options.target]);
-  const { dataset: encoded, rowIndex } = makeDataset(filtered, {
+  const { table: filtered, encoded, dataset, rowIndex } = payRows(table, {
     target: options.target,
     features: options.features,
     drop: options.drop,
+    where: options.where,
+    scale: "log",
   });
+  const withinCols = withinColumns(filtered, within, [options.target]);
   if (encoded.features.length === 0) {
     throw new OptionError("no factors are left to compare people on; name them with --features");
   }
@@ -182,26 +175,19 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
         `needs at least ${2 * minLeaf} (two groups of the fewest people in a leaf, ${minLeaf})`,
     );
   }
-  const logPay = toFitScale(encoded.target.values, "log", options.target);
-  const dataset = { ...encoded, target: { ...encoded.target, values: logPay } } as typeof encoded;
+  const logPay = dataset.target.values as Float64Array;
   const { ensemble } = await fitDefaultEnsemble(dataset, {
     trees,
     seed,
     foldSeed: seed,
     workers: options.workers,
-    // Each fold of the reference tree's cross-validation holds at least one person.
-    folds: Math.min(10, encoded.rows),
     grow: { minLeaf },
     onProgress: options.onProgress,
   });
-  const oob = ensemble.oob;
+  const oob = ensemble!.oob;
   // Each person's estimate is the median pay of people like them, as
-  // `estimate` gives it; their range comes from the unshifted estimates.
-  const { shift } = estimateCenter(oob, logPay);
-  const groups = summarizeResidualGroups(
-    groupResiduals(oob, logPay, residualGroupCount(dataset.rows)),
-    privacyMin,
-  );
+  // \`estimate\` gives it; their range comes from the unshifted estimates.
+  const { residuals: groups, center: { shift } } = outOfBagFigures(oob, logPay, privacyMin);
   const idColumn = filtered.columns.find((c) => c.type === "identifier");
   const people: ReviewPerson[] = Array.from(rowIndex, (tableRow, r) => {
     const pay = encoded.target.values[r];

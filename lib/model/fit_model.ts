@@ -12,30 +12,23 @@ import { diverseLeaves } from "../tree/diverse_leaves.ts";
 import { bootstrapCounts } from "../ensemble/bootstrap.ts";
 import { createHash } from "node:crypto";
 import type { Dataset } from "../dataset/types.ts";
-import { makeDataset } from "../dataset/make_dataset.ts";
 import { OptionError } from "../errors.ts";
 import { VERSION } from "../version.ts";
-import { filterRows } from "../table/filter_rows.ts";
-import { isPayName } from "../table/money.ts";
 import { quantile } from "../table/quality.ts";
 import type { LoadTableOptions } from "../table/load_table.ts";
 import type { LevelColumn, Table } from "../table/types.ts";
-import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../gap/proxies.ts";
+import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../ensemble/proxies.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
-import { binFeatures } from "../tree/bins.ts";
-import { crossValidateTree } from "../tree/cross_validate.ts";
 import { leafCount, treeDepth } from "../tree/flat_tree.ts";
 import { roundedFigures, shareableReference } from "./shareable_figures.ts";
-import { estimateCenter } from "../ensemble/estimate_center.ts";
 import { shareTree } from "../tree/share_tree.ts";
 import { crossValidatedLinear } from "../linear/cross_validate_linear.ts";
-import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
+import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
+import { checkedPrivacyMin, outOfBagFigures, payRows, PRIVACY_FLOOR } from "./pay_pipeline.ts";
 import type { Ensemble } from "../ensemble/fit_ensemble.ts";
-import { groupResiduals, summarizeResidualGroups } from "../ensemble/grouped_range.ts";
 import { featureImportance, impurityDecrease } from "../ensemble/importance.ts";
 import { oobClassificationMetrics } from "../ensemble/intervals.ts";
-import { accuracyInMoney, type PayScale, toFitScale, toMoney } from "../ensemble/pay_scale.ts";
-import { residualGroupCount } from "../ensemble/read_profile.ts";
+import { accuracyInMoney, type PayScale, toMoney } from "../ensemble/pay_scale.ts";
 import {
   type Accuracy,
   type FeatureSchema,
@@ -45,9 +38,6 @@ import {
   type ReadSettings,
   type SupportFigures,
 } from "./types.ts";
-
-/** The smallest privacy minimum allowed. */
-export const PRIVACY_FLOOR = 3;
 
 /** Options of {@linkcode fitModel}. */
 export interface FitModelOptions {
@@ -143,19 +133,21 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   const minLeaf = options.minLeaf ?? 5;
   const requestedFolds = options.folds ?? 10;
   const seed = options.seed ?? 1;
-  const privacyMin = options.privacyMin ?? 5;
+  const privacyMin = checkedPrivacyMin(options.privacyMin);
   const rule = options.rule ?? "one-se";
   const prune = options.prune ?? "alpha-min";
   const where = options.where ?? {};
   checkSettings(trees, minLeaf, privacyMin, requestedFolds);
 
-  const filtered = filterRows(table, where);
-  const { dataset: encoded, dropped, rowIndex } = makeDataset(filtered, {
+  const rows = payRows(table, {
     target: options.target,
     features: options.features,
     drop: options.drop,
+    where,
     allowProtected: options.allowProtected,
+    scale: options.scale,
   });
+  const { table: filtered, encoded, dataset, dropped, rowIndex, scale, money } = rows;
   if (encoded.features.length === 0) {
     const why = dropped.map((d) => `${d.name} (${d.reason})`).join(", ");
     throw new OptionError(`no attributes are left to learn from${why ? `: left out ${why}` : ""}`);
@@ -166,37 +158,17 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
         `for one split with --min-leaf ${minLeaf}`,
     );
   }
-  // Each fold holds at least one row: fewer rows than folds, fewer folds
-  // (one row each); settings.folds records the number used.
-  const folds = Math.min(requestedFolds, encoded.rows);
-  const targetColumn = filtered.columns.find((c) => c.name === options.target)!;
-  const money = targetColumn.type === "numeric" ? targetColumn.money : undefined;
-  let scale: PayScale = "raw";
-  let dataset: Dataset = encoded;
-  if (encoded.target.kind === "regression") {
-    const isMoney = money !== undefined || isPayName(options.target);
-    scale = options.scale ?? (isMoney ? "log" : "raw");
-    if (scale === "log") {
-      dataset = {
-        ...encoded,
-        target: {
-          ...encoded.target,
-          values: toFitScale(encoded.target.values, "log", options.target),
-        },
-      };
-    }
-  } else if (options.scale === "log") {
-    throw new OptionError(`--scale log needs a numeric target; "${options.target}" is a class`);
-  }
   const regression = dataset.target.kind === "regression";
   const y = dataset.target.values;
 
-  const bins = binFeatures(dataset);
   const back = (v: number) => toMoney(v, scale);
-  const cv = crossValidateTree(dataset, {
-    folds,
+  const fitted = await fitDefaultEnsemble(dataset, {
+    trees,
     seed,
+    foldSeed: seed,
+    folds: requestedFolds,
     rule,
+    prune,
     grow: { minLeaf },
     extraLosses: regression
       ? [
@@ -205,22 +177,14 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
         (a, p) => Math.abs(a - p),
       ]
       : [],
-    onProgress: (done, total) => options.onProgress?.("cross-validation", done, total),
-  }, bins);
+    workers: options.workers,
+    onCrossValidation: (done, total) => options.onProgress?.("cross-validation", done, total),
+    onProgress: (done, total) => options.onProgress?.("trees", done, total),
+  });
+  const cv = fitted.reference!;
+  const ensemble = fitted.ensemble;
+  const folds = fitted.folds;
   const minAlpha = cv.candidates[cv.best].alpha;
-
-  let ensemble: Ensemble | null = null;
-  if (trees > 0) {
-    ensemble = await fitEnsembleParallel(dataset, {
-      trees,
-      seed,
-      prune: prune === "none" ? "none" : "alpha",
-      alpha: prune === "none" ? undefined : minAlpha,
-      grow: { minLeaf },
-      workers: options.workers,
-      onProgress: (done, total) => options.onProgress?.("trees", done, total),
-    }, bins);
-  }
 
   // Accuracy side by side, all from the same folds (and out-of-bag rows).
   const root = cv.candidates[cv.candidates.length - 1];
@@ -298,11 +262,8 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     };
   }
 
-  const residuals = regression && ensemble !== null
-    ? summarizeResidualGroups(
-      groupResiduals(ensemble.oob, y, residualGroupCount(dataset.rows)),
-      privacyMin,
-    )
+  const outOfBag = regression && ensemble !== null
+    ? outOfBagFigures(ensemble.oob, y, privacyMin)
     : null;
 
   options.onProgress?.("importance", 0, 1);
@@ -346,9 +307,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       scale,
       // The estimate's shift to a median and the smearing factor, measured
       // on the out-of-bag residuals (4 digits, as every other figure).
-      ...(regression && ensemble !== null && scale === "log"
-        ? { center: roundedFigures(estimateCenter(ensemble.oob, y)) }
-        : {}),
+      ...(outOfBag !== null && scale === "log" ? { center: roundedFigures(outOfBag.center) } : {}),
     },
     features,
     dropped,
@@ -401,7 +360,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       ),
       alpha: prune === "none" ? 0 : roundedFigures(minAlpha),
     },
-    residuals,
+    residuals: outOfBag?.residuals ?? null,
     quality: roundedFigures(quality),
     importance: roundedFigures(importance),
     proxies: roundedFigures(proxies),
@@ -460,11 +419,6 @@ async function possibleProxies(
 function checkSettings(trees: number, minLeaf: number, privacyMin: number, folds: number): void {
   if (!Number.isInteger(trees) || trees < 0) {
     throw new OptionError(`--trees must be a whole number >= 0, got ${trees}`);
-  }
-  if (!Number.isInteger(privacyMin) || privacyMin < PRIVACY_FLOOR) {
-    throw new OptionError(
-      `--privacy-min must be a whole number of at least ${PRIVACY_FLOOR}, got ${privacyMin}`,
-    );
   }
   if (!Number.isInteger(minLeaf) || minLeaf < 1) {
     throw new OptionError(`--min-leaf must be a whole number >= 1, got ${minLeaf}`);

@@ -11,7 +11,7 @@
  * @module
  */
 
-import type { ProxyFigure } from "../gap/proxies.ts";
+import type { ProxyFigure } from "../ensemble/proxies.ts";
 import type { FeatureKind } from "../dataset/types.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import type { DecimalMark } from "../table/amount.ts";

@@ -5,7 +5,7 @@
  */
 
 import type { Feature } from "../dataset/types.ts";
-import { type FlatTree, goesLeft, predictedClass } from "./flat_tree.ts";
+import { type FlatTree, goesLeft, predictedClass, splitLevels } from "./flat_tree.ts";
 
 /** One step of a decision path. */
 export interface PathStep {
@@ -100,13 +100,7 @@ export function describeCondition(
   if (Number.isNaN(x)) return `${feature.name} is missing -> ${side}`;
   if (feature.kind === "categorical") {
     const levels = feature.levels ?? [];
-    const words = tree.maskWords[tree.feature[node]];
-    // The set for the side taken: left levels at the offset, right ones after.
-    const offset = tree.maskOffset[node] + (left ? 0 : words);
-    const inSet: string[] = [];
-    for (let code = 0; code < levels.length; code++) {
-      if ((tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1) inSet.push(levels[code]);
-    }
+    const inSet = splitLevels(tree, node, left, levels.length).map((code) => levels[code]);
     const level = levels[x] ?? String(x);
     if (!inSet.includes(level)) return `${feature.name} = ${level} (not seen here) -> ${side}`;
     return `${feature.name} in {${inSet.join(", ")}}`;

@@ -103,6 +103,42 @@ export function applyValues(tree: FlatTree, profile: ArrayLike<number>): number 
 }
 
 /**
+ * The level codes a categorical split sends to one side: the one decoder
+ * of a node's level masks (left levels at `maskOffset`, right ones after).
+ *
+ * @param levels How many levels the feature has.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, splitLevels } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "site", kind: "categorical" as const, levels: ["A", "B", "C"], values: new Float64Array([0, 1, 2, 0, 1, 2]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 90, 51, 50, 90, 51]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * assert.deepEqual(splitLevels(tree, 0, true, 3), [0, 2]); // A and C, paid about 50
+ * assert.deepEqual(splitLevels(tree, 0, false, 3), [1]);
+ * ```
+ */
+export function splitLevels(tree: FlatTree, node: number, left: boolean, levels: number): number[] {
+  const offset = tree.maskOffset[node];
+  if (offset < 0) return [];
+  const words = tree.maskWords[tree.feature[node]];
+  const out: number[] = [];
+  for (let code = 0; code < Math.min(levels, 32 * words); code++) {
+    if (inMask(tree, offset + (left ? 0 : words), code)) out.push(code);
+  }
+  return out;
+}
+
+/** Whether level `code` is in the mask starting at `offset`. */
+function inMask(tree: FlatTree, offset: number, code: number): boolean {
+  return ((tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1) === 1;
+}
+
+/**
  * Whether a value goes to the left child at an internal node. Missing
  * values, and at a categorical split levels outside the node's mask that it
  * never saw, follow the node's missing direction.
@@ -113,8 +149,8 @@ export function goesLeft(tree: FlatTree, node: number, x: number): boolean {
   if (offset < 0) return x <= tree.threshold[node];
   const words = tree.maskWords[tree.feature[node]];
   if (x >= 32 * words) return tree.missingLeft[node] === 1;
-  if (((tree.masks[offset + (x >>> 5)] >>> (x & 31)) & 1) === 1) return true;
-  if (((tree.masks[offset + words + (x >>> 5)] >>> (x & 31)) & 1) === 1) return false;
+  if (inMask(tree, offset, x)) return true;
+  if (inMask(tree, offset + words, x)) return false;
   return tree.missingLeft[node] === 1;
 }
 

@@ -16,6 +16,7 @@ export {
   pathOfRow,
   predictedClass,
   predictRows,
+  splitLevels,
   treeDepth,
 } from "./flat_tree.ts";
 export { canonicalRowOrder, type GrowInput, type GrowOptions, growTree } from "./grow_tree.ts";

@@ -93,7 +93,8 @@ export async function coverageByLevel(
     ...train.dataset,
     target: { kind: "regression", name: "pay", values: train.pay.map(forward) },
   };
-  const { ensemble } = await fitDefaultEnsemble(dataset, { trees: 200, seed: 3, workers: 2 });
+  const ensemble = (await fitDefaultEnsemble(dataset, { trees: 200, seed: 3, workers: 2 }))
+    .ensemble!;
   const residuals = oobResiduals(ensemble, dataset.target.values);
   const groups = groupResiduals(ensemble.oob, dataset.target.values, 10);
   const members = method === "quantile-forest" ? leafMembers(ensemble, dataset) : undefined;
@@ -116,4 +117,20 @@ export async function coverageByLevel(
     overall: hits.reduce((a, b) => a + b, 0) / counts.reduce((a, b) => a + b, 0),
     perLevel: Array.from({ length: 7 }, (_, i) => hits[i + 1] / counts[i + 1]),
   };
+}
+
+/**
+ * The simulated rows as a pay table's CSV (level L1..L7, years, site,
+ * pay_eur), for checks that run the shipped path from a table.
+ */
+export function simulatedCsv(sim: SimulatedPay): string {
+  const [level, years, site] = sim.dataset.features;
+  const lines = ["level,years,site,pay_eur"];
+  for (let r = 0; r < sim.dataset.rows; r++) {
+    lines.push(
+      `${level.levels![level.values[r]]},${years.values[r]},${site.levels![site.values[r]]},` +
+        `${sim.pay[r].toFixed(2)}`,
+    );
+  }
+  return lines.join("\n") + "\n";
 }

@@ -20,7 +20,7 @@ import { cps1988LogWage, heldOutSplit } from "../_cps1988.ts";
 
 const { train, test } = heldOutSplit(await cps1988LogWage(), 1988);
 if (DEFAULT_RANGE.scale !== "log") throw new Error("this check assumes the log scale");
-const { ensemble } = await fitDefaultEnsemble(train, { trees: 200, seed: 5, workers: 2 });
+const ensemble = (await fitDefaultEnsemble(train, { trees: 200, seed: 5, workers: 2 })).ensemble!;
 const groups = groupResiduals(ensemble.oob, train.target.values, 10);
 const members = leafMembers(ensemble, train);
 let inside = 0;

@@ -22,7 +22,7 @@ import { cps1988LogWage, heldOutSplit } from "../_cps1988.ts";
 
 async function heldOutShares(all: Dataset, seed: number) {
   const { train, test } = heldOutSplit(all, seed);
-  const { ensemble } = await fitDefaultEnsemble(train, { trees: 100, seed, workers: 2 });
+  const ensemble = (await fitDefaultEnsemble(train, { trees: 100, seed, workers: 2 })).ensemble!;
   const reader = profileReader(ensemble, train, "log");
   let below = 0;
   let belowGeometric = 0;

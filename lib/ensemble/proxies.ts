@@ -12,9 +12,9 @@
  */
 
 import type { Dataset, Feature } from "../dataset/types.ts";
-import type { Ensemble } from "../ensemble/fit_ensemble.ts";
-import { fitEnsembleParallel } from "../ensemble/fit_parallel.ts";
-import { oobClassificationMetrics } from "../ensemble/intervals.ts";
+import type { Ensemble } from "./fit_ensemble.ts";
+import { fitEnsembleParallel } from "./fit_parallel.ts";
+import { oobClassificationMetrics } from "./intervals.ts";
 
 // Rows below which the single-feature ensembles are grown in this thread.
 const IN_THREAD_BELOW = 100_000;
