@@ -162,7 +162,11 @@ export {
 } from "./lib/model/model_file.ts";
 export * from "./lib/model/profile.ts";
 export * from "./lib/model/model_table.ts";
-export * from "./lib/model/answers.ts";
+export * from "./lib/model/model_session.ts";
+export * from "./lib/model/estimate_answer.ts";
+export * from "./lib/model/compare_answer.ts";
+export * from "./lib/model/sweep_answer.ts";
+export * from "./lib/model/batch_answer.ts";
 export * from "./lib/model/offer.ts";
 export {
   FIGURE_DIGITS,
@@ -233,3 +237,4 @@ export {
   treeOutline,
   typicalErrorShare,
 } from "./lib/model/model_card.ts";
+export { type ClassVotes, classVotes } from "./lib/ensemble/class_votes.ts";

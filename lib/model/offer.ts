@@ -13,7 +13,8 @@
 import { type DecimalMark, parseAmount } from "../table/amount.ts";
 import { rangeShareBelow } from "../ensemble/read_profile.ts";
 import { OptionError } from "../errors.ts";
-import type { EstimateAnswer, ModelSession } from "./answers.ts";
+import type { EstimateAnswer } from "./estimate_answer.ts";
+import type { ModelSession } from "./model_session.ts";
 import type { Profile } from "./profile.ts";
 import type { Model } from "./types.ts";
 

@@ -207,7 +207,11 @@ Deno.test("a class target (level): shares as bars with intervals, and the confus
 Deno.test("Esc at a question stops the flow (as Ctrl-C does); arrow keys do not", async () => {
   const driver = flowDriver();
   const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
-  await driver.when("What do you want to work with?", KEY.down, KEY.up, "\x1b");
+  // Each arrow must leave the question open and move the pointer: the next
+  // screen is waited for, so an arrow that stopped the flow fails here.
+  await driver.when("What do you want to work with?", KEY.down);
+  await driver.when(/❯ A CSV pay table of your own/, KEY.up);
+  await driver.when(/❯ The demo company/, "\x1b");
   await assert.rejects(() => done, (e) => (e as Error).name === "AbortPromptError");
 });
 

@@ -1,0 +1,225 @@
+/**
+ * Batch scoring: every row of a table with the model's columns, training
+ * rows with their out-of-bag estimate, offers placed in the range.
+ *
+ * @module
+ */
+
+import { bootstrapCounts } from "../ensemble/bootstrap.ts";
+import { toMoney } from "../ensemble/pay_scale.ts";
+import { rangeShareBelow, readProfile } from "../ensemble/read_profile.ts";
+import { applyValues, type FlatTree } from "../tree/flat_tree.ts";
+import { OptionError } from "../errors.ts";
+import { rowKey } from "./fit_model.ts";
+import type { Profile } from "./profile.ts";
+import type { ModelRows } from "./model_table.ts";
+import type { Model } from "./types.ts";
+import { checkCoverage, type ModelSession, resamplesOf, shiftedMoney } from "./model_session.ts";
+import { profileSupport } from "./estimate_answer.ts";
+
+/** One scored row of `batch`. */
+export interface BatchRow {
+  /** The estimate in money (out-of-bag for training rows; null for a refused row). */
+  estimate: number | null;
+  /** Where the estimate came from; `not-scored` for a refused row. */
+  estimateSource: "out-of-bag" | "ensemble" | "reference-tree" | "not-scored";
+  /** The reference tree's leaf value (null for a refused row). */
+  referenceTree: number | null;
+  /** Why the row was not scored (a level the model never saw), or null. */
+  refused: string | null;
+  /** How sure. */
+  ciLow: number | null;
+  /** How sure. */
+  ciHigh: number | null;
+  /** Range. */
+  rangeLow: number | null;
+  /** Range. */
+  rangeHigh: number | null;
+  /** With an offer: offer / estimate. */
+  offerToEstimate?: number | null;
+  /** With an offer: (offer - range_low) / (range_high - range_low). */
+  rangePosition?: number | null;
+  /** With an offer: under, within or over the range. */
+  offerPosition?: "under" | "within" | "over" | null;
+  /**
+   * With an offer: the share of comparable people paid less than it, from
+   * the residual quantiles the range is read from (as `estimate --offer`).
+   */
+  shareBelow?: number | null;
+  /** Why the row is unusual for the data, or outside it ("" when it is not). */
+  warnings: string;
+}
+
+/**
+ * Scores every row of a table. Rows that are the model's own training rows
+ * (same identifier and feature values) get their out-of-bag estimate: the
+ * mean of the trees that never saw them, as at fitting time. Rows listed
+ * in `rows.refused` are not scored: their figures are null and `refused`
+ * says why.
+ *
+ * @param offers Each row's offer in money (NaN where none), or null.
+ */
+export function batchAnswer(
+  session: ModelSession,
+  rows: ModelRows,
+  coverage = 0.9,
+  offers: Float64Array | null = null,
+): BatchRow[] {
+  checkCoverage(coverage);
+  const { model, reader } = session;
+  if (model.target.kind !== "regression") {
+    throw new OptionError(`batch needs a model of pay (a numeric target)`);
+  }
+  const scale = model.target.scale;
+  const training = trainingIndex(model);
+  const ensemble = model.ensemble;
+  const resamples = resamplesOf(model);
+  const counts = ensemble !== null && resamples !== null && training.size > 0
+    ? ensemble.trees.map((_, b) => bootstrapCounts(model.rows.used, resamples, b))
+    : [];
+  const out: BatchRow[] = [];
+  const profile = new Float64Array(model.features.length);
+  const refused = new Map((rows.refused ?? []).map((x) => [x.row, x.reasons.join("; ")]));
+  for (let r = 0; r < rows.rows; r++) {
+    const why = refused.get(r);
+    if (why !== undefined) {
+      out.push({
+        estimate: null,
+        estimateSource: "not-scored",
+        referenceTree: null,
+        refused: why,
+        ciLow: null,
+        ciHigh: null,
+        rangeLow: null,
+        rangeHigh: null,
+        ...(offers !== null
+          ? { offerToEstimate: null, rangePosition: null, offerPosition: null, shareBelow: null }
+          : {}),
+        warnings: "",
+      });
+      continue;
+    }
+    for (let g = 0; g < profile.length; g++) profile[g] = rows.features[g][r];
+    const tree = model.reference.tree;
+    const leaf = applyValues(tree, profile);
+    const referenceTree = toMoney(tree.value[leaf], scale);
+    const reasons = profileSupport(model, profile, tree.rows[leaf]).reasons;
+    let row: BatchRow;
+    if (reader === null || ensemble === null) {
+      row = {
+        estimate: referenceTree,
+        estimateSource: "reference-tree",
+        referenceTree,
+        refused: null,
+        ciLow: null,
+        ciHigh: null,
+        rangeLow: null,
+        rangeHigh: null,
+        warnings: reasons.join("; "),
+      };
+    } else {
+      const reading = readProfile(reader, profile, coverage);
+      row = {
+        estimate: reading.estimate,
+        estimateSource: "ensemble",
+        referenceTree,
+        refused: null,
+        ciLow: reading.howSure.low,
+        ciHigh: reading.howSure.high,
+        rangeLow: reading.range.low,
+        rangeHigh: reading.range.high,
+        warnings: reasons.join("; "),
+      };
+      const index = rows.ids[r] === "" || counts.length === 0
+        ? undefined
+        : training.get(rowKey(rows.ids[r], profile));
+      if (index !== undefined) {
+        const oob = outOfBag(ensemble, counts, index, profile);
+        if (oob !== null) {
+          row.estimate = shiftedMoney(model, oob);
+          row.estimateSource = "out-of-bag";
+        }
+      }
+    }
+    if (offers !== null) {
+      const offer = offers[r];
+      if (Number.isNaN(offer) || row.rangeLow === null || row.rangeHigh === null) {
+        row.offerToEstimate = Number.isNaN(offer) ? null : offer / row.estimate!;
+        row.rangePosition = null;
+        row.offerPosition = null;
+        row.shareBelow = null;
+      } else {
+        row.offerToEstimate = offer / row.estimate!;
+        row.rangePosition = (offer - row.rangeLow) / (row.rangeHigh - row.rangeLow);
+        row.offerPosition = offer < row.rangeLow
+          ? "under"
+          : offer > row.rangeHigh
+          ? "over"
+          : "within";
+        const tail = (1 - coverage) / 2;
+        row.shareBelow = offer === row.rangeLow
+          ? tail
+          : offer === row.rangeHigh
+          ? 1 - tail
+          : rangeShareBelow(reader!, profile, offer, coverage);
+      }
+    }
+    out.push(row);
+  }
+  return out;
+}
+
+/**
+ * The out-of-bag estimate (money) of a profile that is one of the model's
+ * training rows (same identifier and attributes), or null when it is not
+ * one, the model has no ensemble, or the analyst's part (which alone can
+ * tell training rows and their trees' resamples) is not at hand.
+ */
+export function outOfBagEstimate(
+  session: ModelSession,
+  id: string,
+  profile: Profile,
+): number | null {
+  const { model } = session;
+  const resamples = resamplesOf(model);
+  if (
+    model.ensemble === null || resamples === null || id === "" ||
+    model.target.kind !== "regression"
+  ) return null;
+  const index = trainingIndex(model).get(rowKey(id, profile));
+  if (index === undefined) return null;
+  const counts = model.ensemble.trees.map((_, b) => bootstrapCounts(model.rows.used, resamples, b));
+  const oob = outOfBag(model.ensemble, counts, index, profile);
+  return oob === null ? null : shiftedMoney(model, oob);
+}
+
+// Training row keys -> training row index.
+function trainingIndex(model: Model): Map<string, number> {
+  const map = new Map<string, number>();
+  const keys = model.analyst?.rowKeys ?? null;
+  if (keys === null) return map;
+  // Each key is 12 characters of base64 (8 bytes).
+  for (let i = 0; i * 12 < keys.length; i++) {
+    const key = keys.slice(12 * i, 12 * i + 12);
+    // A key seen twice (duplicate rows) cannot say which row it is.
+    map.set(key, map.has(key) ? -1 : i);
+  }
+  for (const [key, i] of map) if (i < 0) map.delete(key);
+  return map;
+}
+
+function outOfBag(
+  ensemble: { trees: readonly FlatTree[] },
+  counts: Float64Array[],
+  row: number,
+  profile: Profile,
+): number | null {
+  let sum = 0;
+  let n = 0;
+  ensemble.trees.forEach((tree, b) => {
+    if (counts[b][row] !== 0) return;
+    sum += tree.value[applyValues(tree, profile)];
+    n++;
+  });
+  return n > 0 ? sum / n : null;
+}

@@ -1,0 +1,85 @@
+/**
+ * A model opened for answers: the reader of its ensemble built once, the
+ * checks every answer shares (coverage), and the shift of log-scale
+ * figures to a measured median.
+ *
+ * @module
+ */
+
+import { STATE_WORDS } from "../ensemble/bootstrap.ts";
+import { toMoney } from "../ensemble/pay_scale.ts";
+import { type ProfileReader, readerFromParts } from "../ensemble/read_profile.ts";
+import { OptionError } from "../errors.ts";
+import type { Model } from "./types.ts";
+
+/** A prepared model: the reader of its ensemble, built once. */
+export interface ModelSession {
+  /** The model. */
+  model: Model;
+  /** The ensemble's reader (regression with an ensemble), else null. */
+  reader: ProfileReader | null;
+}
+
+/**
+ * Prepares a model for answers (regenerates what the jackknife needs when
+ * the analyst's part is at hand).
+ */
+export function openModel(model: Model): ModelSession {
+  const reader = model.ensemble !== null && model.residuals !== null &&
+      model.target.kind === "regression"
+    ? readerFromParts({
+      ensemble: model.ensemble,
+      scale: model.target.scale,
+      groups: model.residuals,
+      trainingRows: model.rows.used,
+      resamples: resamplesOf(model),
+      center: model.target.center ?? null,
+    })
+    : null;
+  return { model, reader };
+}
+
+/**
+ * The trees' resampling states, when the analyst's part has one per tree
+ * (a shared model file has none: null).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { resamplesOf } from "./model_session.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * assert.equal(resamplesOf(model), model.analyst!.resamples);
+ * assert.equal(resamplesOf({ ...model, analyst: null }), null);
+ * ```
+ */
+export function resamplesOf(model: Model): Int32Array | null {
+  const states = model.analyst?.resamples;
+  const trees = model.ensemble?.trees.length ?? 0;
+  return states !== undefined && trees > 0 && states.length === trees * STATE_WORDS ? states : null;
+}
+
+/** Checks a coverage option. */
+export function checkCoverage(coverage: number): void {
+  if (!(coverage >= 0.5 && coverage <= 0.99)) {
+    throw new OptionError(`--coverage must be between 0.5 and 0.99, got ${coverage}`);
+  }
+}
+
+/**
+ * A log-scale estimate in money, moved by the model's measured shift to a
+ * median (batch and sweep figures, as `readProfile` moves the estimate).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { shiftedMoney } from "./model_session.ts";
+ * const model = { target: { scale: "log", center: { shift: 0.02 } } } as unknown as import("./types.ts").Model;
+ * assert(Math.abs(shiftedMoney(model, Math.log(50000)) - 50000 * Math.exp(0.02)) < 1e-6);
+ * ```
+ */
+export function shiftedMoney(model: Model, value: number): number {
+  const shift = model.target.scale === "log" ? model.target.center?.shift ?? 0 : 0;
+  return toMoney(value + shift, model.target.scale);
+}

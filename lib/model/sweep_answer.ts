@@ -1,0 +1,154 @@
+/**
+ * A sweep: one attribute walked over a grid with the rest of the profile
+ * fixed, each point's estimate and intervals, optionally averaged over a
+ * table's rows (partial dependence).
+ *
+ * @module
+ */
+
+import { toMoney } from "../ensemble/pay_scale.ts";
+import { applyValues } from "../tree/flat_tree.ts";
+import { OptionError } from "../errors.ts";
+import { describeProfile, type Profile, type ProfileWarning } from "./profile.ts";
+import type { ModelRows } from "./model_table.ts";
+import type { Model, Provenance } from "./types.ts";
+import { checkCoverage, type ModelSession, shiftedMoney } from "./model_session.ts";
+import { estimateProfile } from "./estimate_answer.ts";
+
+/** One point of a sweep. */
+export interface SweepAnswerPoint {
+  /** The value (a level name or a number). */
+  value: string | number;
+  /** The estimate in money. */
+  estimate: number;
+  /** How sure (null without an ensemble). */
+  confidence: { low: number; high: number } | null;
+  /** The range for comparable people (null without an ensemble). */
+  range: { low: number; high: number } | null;
+  /** Partial dependence (with `--average`): the estimate averaged over the table's rows. */
+  average?: number;
+  /** Whether the profile at this value is unusual for the data. */
+  unusual: boolean;
+}
+
+/** The `sweep --json` document. */
+export interface SweepAnswer {
+  /** The attribute swept. */
+  feature: string;
+  /** The rest of the profile. */
+  profile: Record<string, string | number | null>;
+  /** Coverage of the intervals. */
+  coverage: number;
+  /** The points. */
+  points: SweepAnswerPoint[];
+  /** Warnings. */
+  warnings: string[];
+  /** Where it came from. */
+  provenance: Provenance;
+}
+
+/**
+ * The grid of a sweep: every level, or `steps` values from `from` to `to`
+ * (default: the training data's 1% to 99% quantiles).
+ */
+export function sweepValues(
+  model: Model,
+  feature: number,
+  options: { from?: number; to?: number; steps?: number } = {},
+): number[] {
+  const f = model.features[feature];
+  if (f.kind !== "numeric") return f.levels!.map((_, i) => i);
+  const steps = options.steps ?? 20;
+  if (!Number.isInteger(steps) || steps < 2 || steps > 500) {
+    throw new OptionError(`--steps must be a whole number from 2 to 500, got ${steps}`);
+  }
+  const from = options.from ?? f.range!.p01;
+  const to = options.to ?? f.range!.p99;
+  if (!(to > from)) throw new OptionError(`--to must be above --from (got ${from} to ${to})`);
+  // Rounded to 10 significant digits, so that 1.1 + 7.0755 reads 8.1755.
+  return Array.from(
+    { length: steps },
+    (_, i) => Number((from + ((to - from) * i) / (steps - 1)).toPrecision(10)),
+  );
+}
+
+/**
+ * Estimates over one attribute with the rest of the profile held fixed;
+ * with `averageOver`, also the estimate averaged over those rows with the
+ * attribute set (partial dependence).
+ */
+export function sweepAnswer(
+  session: ModelSession,
+  profile: Profile,
+  feature: number,
+  grid: readonly number[],
+  coverage = 0.9,
+  averageOver: ModelRows | null = null,
+  warnings: ProfileWarning[] = [],
+): SweepAnswer {
+  checkCoverage(coverage);
+  const { model } = session;
+  if (model.target.kind !== "regression") {
+    throw new OptionError(`sweep needs a model of pay (a numeric target)`);
+  }
+  const f = model.features[feature];
+  const values = Float64Array.from(profile);
+  const points = grid.map((v): SweepAnswerPoint => {
+    values[feature] = v;
+    const answer = estimateProfile(session, values, coverage);
+    const point: SweepAnswerPoint = {
+      value: f.kind === "numeric" ? v : f.levels![v],
+      estimate: answer.estimate,
+      confidence: answer.confidence && { low: answer.confidence.low, high: answer.confidence.high },
+      range: answer.range && { low: answer.range.low, high: answer.range.high },
+      unusual: answer.support.unusual,
+    };
+    if (averageOver !== null) point.average = averageEstimate(session, averageOver, feature, v);
+    return point;
+  });
+  values[feature] = profile[feature];
+  const notes = [...warnings.map((w) => w.message)];
+  if (f.range !== undefined) {
+    const beyond = grid.filter((v) => v < f.range!.min || v > f.range!.max);
+    if (beyond.length > 0) {
+      notes.push(
+        `${f.name} outside ${f.range.min} to ${f.range.max} (the data's range) gets the ` +
+          `estimate at the nearest edge: trees cannot extrapolate`,
+      );
+    }
+  }
+  const unusual = points.filter((p) => p.unusual).map((p) =>
+    typeof p.value === "number" ? String(Number(p.value.toPrecision(4))) : p.value
+  );
+  if (unusual.length > 0) {
+    notes.push(
+      `unusual for the data (few comparable people) at ${f.name} ${unusual.join(", ")}; ` +
+        `treat those estimates with care`,
+    );
+  }
+  return {
+    feature: f.name,
+    profile: describeProfile(model, profile),
+    coverage,
+    points,
+    warnings: notes,
+    provenance: model.provenance,
+  };
+}
+
+function averageEstimate(session: ModelSession, rows: ModelRows, feature: number, v: number) {
+  const { model } = session;
+  const trees = model.ensemble?.trees ?? [model.reference.tree];
+  const profile = new Float64Array(model.features.length);
+  let sum = 0;
+  for (let r = 0; r < rows.rows; r++) {
+    for (let g = 0; g < profile.length; g++) profile[g] = rows.features[g][r];
+    profile[feature] = v;
+    let s = 0;
+    for (const t of trees) s += t.value[applyValues(t, profile)];
+    sum += model.ensemble === null
+      ? toMoney(s / trees.length, model.target.scale)
+      : shiftedMoney(model, s / trees.length);
+  }
+  return sum / rows.rows;
+}
