@@ -26,6 +26,11 @@ export interface Terminal {
    */
   outIsTerminal?: boolean;
   /**
+   * Whether standard error is a terminal: its long messages are then
+   * wrapped to the width, never at a figure; undefined counts as not.
+   */
+  errIsTerminal?: boolean;
+  /**
    * Redraws one progress line in place on standard error; undefined when
    * standard error is not a terminal (progress is then not shown at all).
    */
@@ -78,6 +83,7 @@ export function processTerminal(): Terminal {
     errStyle,
     width,
     outIsTerminal: Deno.stdout.isTerminal(),
+    errIsTerminal: Deno.stderr.isTerminal(),
   };
   if (Deno.stderr.isTerminal()) {
     terminal.progress = (text) => {

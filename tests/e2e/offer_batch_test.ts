@@ -172,8 +172,10 @@ Deno.test("batch on a terminal prints one readable line per row", async () => {
   assert.equal(out.length, 5);
   assert.match(out[0], /^id +estimate +range +offer \(range position\)$/);
   assert.match(out[1], /^row 1 +€\d{2},\d{3} +€\d{2},\d{3} - €\d{2},\d{3} +under \(-0\.\d\d\)$/);
-  assert.match(out[2], /^row 2 +not scored +level "G9" is a level the model never saw$/);
-  assert.match(out[3], /^row 3 .* over \(\d\.\d\d\) ! unusual$/);
+  // Why a row was not scored is listed below the table, on stderr.
+  assert.match(out[2], /^row 2 +not scored +see below$/);
+  assert.match(terminal.stderr.join(""), /line 3: level "G9" is a level the model never saw/);
+  assert.match(out[3], /^row 3 .* over \(\d\.\d\d\) +! unusual$/);
   assert.match(out[4], /^=C-104|^row 4 .* within \(0\.\d\d\)$/);
   assert.ok(!terminal.stdout.join("").includes(",ensemble,"), "no raw CSV on a terminal");
 });

@@ -5,6 +5,7 @@
  * @module
  */
 
+import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
@@ -28,6 +29,7 @@ import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
 import { PROTECTED_CAUTION } from "./fit.ts";
 import { dataWarningLines } from "../data_check.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
+import { fitTable, leftOutNote } from "../render/fit_table.ts";
 import { moneyStyle } from "../render/model_view.ts";
 
 /** The columns batch adds, in order. */
@@ -108,10 +110,15 @@ export class SomeRowsRefused extends Error {
   }
 }
 
-function provenanceText(model: Model): string {
+// `short`: each SHA-256 to its first 12 digits, said (a terminal too narrow
+// for 64 digits on a line would cut them in two).
+function provenanceText(model: Model, short = false): string {
   const p = model.provenance;
+  const hash = (h: string) => (short ? `${h.slice(0, 12)}...` : h);
   return `paygrove ${p.paygrove}; model format ${p.format}; model sha256 ` +
-    `${p.modelFile?.sha256 ?? "unknown"}; table sha256 ${p.table.sha256}; seed ${p.seed}`;
+    `${p.modelFile ? hash(p.modelFile.sha256) : "unknown"}; table sha256 ` +
+    `${hash(p.table.sha256)}; seed ${p.seed}` +
+    (short ? " (sha256 shortened to fit the width; --json has them whole)" : "");
 }
 
 function money(x: number | null | undefined): string {
@@ -253,11 +260,22 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         );
       } else if (terminal.outIsTerminal === true) {
         const style: NumberStyle = moneyStyle(model, {});
-        for (const line of readableRows(rows, scored, style)) terminal.out(line);
+        for (const line of readableRows(rows, scored, style, withOffer, terminal.width)) {
+          terminal.out(line);
+        }
       } else {
         terminal.out(toCsv(rows.raw, scored, withOffer, fingerprint).replace(/\n$/, ""));
       }
-      for (const line of refusedLines(refused, rows.ids, profilesFile)) terminal.err(line);
+      // On a terminal, stderr's lines are wrapped at spaces (never inside a figure).
+      const say = (text: string) => {
+        if (terminal.errIsTerminal !== true) return terminal.err(text);
+        const indent = /^ */.exec(text)![0];
+        const wrapped = wrapAnsi(text.slice(indent.length), terminal.width - indent.length - 2);
+        terminal.err(
+          wrapped.split("\n").map((l, i) => `${indent}${i > 0 ? "  " : ""}${l}`).join("\n"),
+        );
+      };
+      for (const line of refusedLines(refused, rows.ids, profilesFile)) say(line);
       const training = counts.trainingRowsRecognised
         ? `${counts.outOfBag} training rows given their out-of-bag estimate`
         : counts.trainingTable
@@ -266,7 +284,7 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         : "rows of the table the model learned from are not recognised without " +
           "--analyst-file, so their estimates include their own pay";
       const pct = `${Math.round(flags.coverage * 100)}%`;
-      terminal.err(
+      say(
         `paygrove batch: ${counts.scored} rows scored` +
           (refused.length > 0 ? `, ${refused.length} refused (listed above)` : "") +
           ` (${training})` +
@@ -282,7 +300,9 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
           }` +
           (flags.out !== undefined
             ? ` -> ${terminalText(flags.out)}; provenance in ${terminalText(provenanceFile!)}`
-            : `; model ${fingerprint} is ${provenanceText(model)}`),
+            : `; model ${fingerprint} is ${
+              provenanceText(model, terminal.errIsTerminal === true && terminal.width < 68)
+            }`),
       );
       if (refused.length > 0) throw new SomeRowsRefused(refused.length);
     });
@@ -360,13 +380,22 @@ function refusedLines(refused: readonly RefusedRow[], ids: string[], file: strin
   return lines;
 }
 
-// One line per row for a person at a terminal: id, estimate, range, offer.
-function readableRows(rows: ModelRows, scored: BatchRow[], style: NumberStyle): string[] {
+// One line per row for a person at a terminal: id, estimate, range, offer,
+// and a mark for rows unusual for the data. A row not scored says so; why is
+// listed below it, on stderr. Narrow screens: the marks go first, then the
+// range (both said in a line above the table); then a list.
+function readableRows(
+  rows: ModelRows,
+  scored: BatchRow[],
+  style: NumberStyle,
+  withOffer: boolean,
+  width: number,
+): string[] {
   const pay = (x: number | null) => (x === null ? "" : formatPay(x, style));
   const table = scored.map((row, r) => {
     const id = terminalText(rows.ids[r] || `row ${r + 1}`);
     if (row.estimateSource === "not-scored") {
-      return [id, "not scored", "", terminalText(row.refused ?? "")];
+      return [id, "not scored", "", ...(withOffer ? [""] : []), "see below"];
     }
     const offer = row.offerPosition === undefined || row.offerPosition === null
       ? ""
@@ -375,15 +404,21 @@ function readableRows(rows: ModelRows, scored: BatchRow[], style: NumberStyle): 
       id,
       pay(row.estimate),
       row.rangeLow === null ? "" : `${pay(row.rangeLow)} - ${pay(row.rangeHigh)}`,
-      offer + (row.warnings !== "" ? `${offer === "" ? "" : " "}! unusual` : ""),
+      ...(withOffer ? [offer] : []),
+      row.warnings !== "" ? "! unusual" : "",
     ];
   });
-  const head = ["id", "estimate", "range", "offer (range position)"];
-  const widths = head.map((h, c) => Math.max(h.length, ...table.map((t) => t[c].length)));
-  const line = (cells: string[]) =>
-    cells.map((cell, c) => c === 1 ? cell.padStart(widths[c]) : cell.padEnd(widths[c])).join("  ")
-      .trimEnd();
-  return [line(head), ...table.map(line)];
+  const head = ["id", "estimate", "range", ...(withOffer ? ["offer (range position)"] : []), ""];
+  const fitted = fitTable({
+    width,
+    head,
+    rows: table,
+    aligns: head.map((_, c) => (c === 1 ? "right" : "left")),
+    drop: [head.length - 1, 2],
+    borders: "none",
+  });
+  const said = leftOutNote(fitted.dropped.map((d) => d === "" ? "the unusual marks" : d));
+  return [...(said === null ? [] : wrapAnsi(said, width).split("\n")), ...fitted.lines];
 }
 
 function inputRow(raw: { header: string[]; cells: string[][] }, r: number): Record<string, string> {

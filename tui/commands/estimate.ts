@@ -4,6 +4,7 @@
  * @module
  */
 
+import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   checkOffer,
@@ -67,7 +68,8 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
         width: terminal.width,
         money: moneyStyle(model, { locale: flags.locale }),
       }),
-      terminal.style.dim(`Started from ${terminalText(start)}.`),
+      ...wrapAnsi(terminal.style.dim(`Started from ${terminalText(start)}.`), terminal.width)
+        .split("\n"),
     ]);
   });
 }

@@ -128,10 +128,16 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
       // The text card draws from the model with its names made visible.
       const model = forTerminal(read);
       const p = model.provenance;
+      // The table's SHA-256 is one word of 64 digits: whole where it fits on
+      // a line of the card, else its first 12 digits, said (never cut in two).
+      const sha256 = terminal.width - 4 >= p.table.sha256.length
+        ? p.table.sha256
+        : `${p.table.sha256.slice(0, 12)}... (sha256 shortened to fit the width; --json has it ` +
+          `whole)`;
       const card = [
         `  fitted ${p.created} by paygrove ${p.paygrove} (model format ${p.format})`,
         `  on ${p.table.file}: ${formatNumber(p.table.rows, {})} rows read, ` +
-        `${formatNumber(model.rows.used, {})} used; table sha256 ${p.table.sha256}`,
+        `${formatNumber(model.rows.used, {})} used; table sha256 ${sha256}`,
         `  target: ${describeTarget(model, {})}`,
         `  features: ${model.features.map((f) => `${f.name} (${f.kind})`).join(", ")}`,
         `  left out: ${

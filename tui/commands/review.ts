@@ -22,7 +22,7 @@ import { progressBar } from "../progress.ts";
 import { printTableAnswer } from "../render/cautions.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
 import type { Style } from "../render/style.ts";
-import { alignColumns } from "../render/text_columns.ts";
+import { fitTable, leftOutNote } from "../render/fit_table.ts";
 import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { csvCell, forTerminal, terminalText } from "../render/safe_text.ts";
@@ -34,6 +34,7 @@ import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
 const SHOWN_ID = 40;
+const TOO_FEW = "too few to report";
 
 /**
  * Every person as CSV (RFC 4180), one row each, in table order; text cells
@@ -102,16 +103,25 @@ export function renderReview(
     for (const c of review.categories) {
       rows.push(
         c.suppressed
-          ? [c.name, "too few to report", "", "", ""]
+          ? [c.name, TOO_FEW, "", "", ""]
           : [c.name, String(c.people), String(c.under), String(c.over), money(c.cost)],
       );
     }
-    lines.push(...alignColumns(rows).map((l, i) => (i === 0 ? style.bold(l) : l)), "");
+    const [head, ...body] = rows;
+    const table = fitTable({
+      width,
+      head,
+      rows: body,
+      borders: "none",
+      spanning: TOO_FEW,
+      styleHead: style.bold,
+    });
+    lines.push(...table.lines, "");
   }
   const listed = (title: string, people: ReviewPerson[]) => {
     if (people.length === 0) return;
-    lines.push(style.bold(title));
-    const rows = [["", "pay", "estimate", "range", "position"]];
+    lines.push(...wrap(style.bold(title)));
+    const rows: string[][] = [];
     for (const p of people.slice(0, REVIEW_LISTED)) {
       rows.push([
         // An identifier is shown to 40 characters (the CSV keeps it whole).
@@ -122,10 +132,23 @@ export function renderReview(
         p.position === null ? "-" : formatPercent(p.position, false, numbers),
       ]);
     }
-    lines.push(...alignColumns(rows));
+    // Narrow screens: the estimate goes first, then the range (the position
+    // in it stays); then a list, one block per person.
+    const table = fitTable({
+      width,
+      head: ["", "pay", "estimate", "range", "position"],
+      rows,
+      drop: [2, 3],
+      borders: "none",
+    });
+    const said = leftOutNote(table.dropped, "--json and --out FILE have");
+    if (said !== null) lines.push(...wrap(style.dim(said)));
+    lines.push(...table.lines);
     if (people.length > REVIEW_LISTED) {
       lines.push(
-        style.dim(`... and ${people.length - REVIEW_LISTED} more (--out FILE lists everyone)`),
+        ...wrap(
+          style.dim(`... and ${people.length - REVIEW_LISTED} more (--out FILE lists everyone)`),
+        ),
       );
     }
     lines.push("");

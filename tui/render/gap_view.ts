@@ -19,7 +19,7 @@ import {
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { isAscii } from "./glyphs.ts";
-import { alignColumns } from "./text_columns.ts";
+import { fitTable, leftOutNote } from "./fit_table.ts";
 import { linearVersionSentence } from "./aliased_terms.ts";
 import { forMarkdown } from "./safe_text.ts";
 
@@ -145,11 +145,6 @@ export function gapAxis(
   return lines;
 }
 
-// Aligned columns; a "too few to report" row spans the figures' columns.
-function columns(rows: string[][], gap: number, lastLeft = false): string[] {
-  return alignColumns(rows, { gap, lastLeft, spanning: TOO_FEW });
-}
-
 /** The rows of the main table: overall first, then each category. */
 function tableRows(report: GapReport, numbers: NumberStyle): string[][] {
   // With one group compared, the title names it and the column is left out.
@@ -214,16 +209,31 @@ export function renderGap(report: GapReport, view: GapView): string[] {
   const many = report.groups.length > 1;
   const tablePart = (): string[] => {
     const lines: string[] = [];
-    let rows = tableRows(report, numbers);
-    let table = columns(rows, width < 90 ? 1 : 2, true);
-    const median = rows[0].indexOf("median");
-    if (Math.max(...table.map((l) => l.length)) > width && median > 0) {
-      // Too wide for the screen: the median gaps stay in --json and --report.
-      rows = rows.map((r) => r.filter((_, j) => j !== median));
-      table = columns(rows, 1, true);
-      lines.push(style.dim("(median gaps left out to fit the width; see --json or --report)"));
-    }
-    lines.push(...table.map((l, i) => (i === 0 ? style.bold(l) : l)));
+    const [head, ...body] = tableRows(report, numbers);
+    const median = head.indexOf("median");
+    const people = many ? 2 : 1;
+    // Too wide for the screen: the median gaps go first, then the head
+    // counts (both stay in --json and --report); then a list, one block per
+    // row, each named by its category.
+    let category = "";
+    const table = fitTable({
+      width,
+      head,
+      rows: body,
+      aligns: head.map((_, j) => (j === 0 || j === head.length - 1 ? "left" : "right")),
+      drop: [median, people],
+      borders: "none",
+      gap: width < 90 ? 1 : 2,
+      spanning: TOO_FEW,
+      styleHead: style.bold,
+      listTitles: body.map((r) => (category = r[0] === "" ? category : r[0])),
+    });
+    const said = leftOutNote(
+      table.dropped.map((d) => (d === "median" ? "median gaps" : "people counts")),
+      "--json and --report have",
+    );
+    if (said !== null) lines.push(...wrap(style.dim(said)));
+    lines.push(...table.lines);
     const anyShown = !report.overall.suppressed || report.categories.some((c) => !c.suppressed);
     if (anyShown) {
       lines.push(
@@ -273,7 +283,7 @@ export function renderGap(report: GapReport, view: GapView): string[] {
     if (axisRows.some((r) => r.value !== null)) {
       const labelWidth = Math.max(...axisRows.map((r) => r.label.length));
       lines.push(
-        style.bold("Unexplained gap, 95% interval, one axis (right of 0: paid less)"),
+        ...wrap(style.bold("Unexplained gap, 95% interval, one axis (right of 0: paid less)")),
         ...gapAxis(axisRows, Math.max(20, Math.min(50, width - labelWidth - 4)), isAscii()),
         "",
       );
@@ -316,17 +326,21 @@ export function renderGap(report: GapReport, view: GapView): string[] {
     if (report.quartiles) {
       const groups = [report.reference, ...report.groups];
       lines.push(
-        style.bold("Pay quartiles (four equal groups of people by pay): share of each group"),
+        ...wrap(
+          style.bold("Pay quartiles (four equal groups of people by pay): share of each group"),
+        ),
       );
       lines.push(
-        ...columns([
-          ["", ...groups, "pay"],
-          ...report.quartiles.map((q) => [
+        ...fitTable({
+          width,
+          head: ["", ...groups, "pay"],
+          rows: report.quartiles.map((q) => [
             ["Q1 lowest", "Q2", "Q3", "Q4 highest"][q.quartile - 1],
             ...groups.map((g) => pct(q.shares[g] ?? 0, numbers)),
             quartileBounds(q, numbers),
           ]),
-        ], 2),
+          borders: "none",
+        }).lines,
         ...wrap(style.dim(quartileNote(report.privacyMin))),
         "",
       );
@@ -334,7 +348,7 @@ export function renderGap(report: GapReport, view: GapView): string[] {
 
     if (report.variable !== null) {
       lines.push(style.bold(`Variable pay (${report.variable}): raw gaps`));
-      const rows = [["", "group", "mean", "median"]];
+      const rows: string[][] = [];
       const push = (label: string, f: GapFigure) =>
         rows.push([label, f.group, pct(f.variableMean, numbers), pct(f.variableMedian, numbers)]);
       if (!report.overall.suppressed) report.overall.gaps.forEach((f) => push("Overall", f));
@@ -342,7 +356,11 @@ export function renderGap(report: GapReport, view: GapView): string[] {
         if (c.suppressed) rows.push([c.name, TOO_FEW, "", ""]);
         else c.gaps.forEach((f) => push(c.name, f));
       }
-      lines.push(...columns(rows, 2), "");
+      const head = ["", "group", "mean", "median"];
+      lines.push(
+        ...fitTable({ width, head, rows, borders: "none", spanning: TOO_FEW }).lines,
+        "",
+      );
     }
   }
 

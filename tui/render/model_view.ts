@@ -18,7 +18,7 @@ import {
   type NumberStyle,
 } from "./numbers.ts";
 import type { Style } from "./style.ts";
-import { fitTable } from "./fit_table.ts";
+import { fitTable, leftOutNote } from "./fit_table.ts";
 import { isAscii, tableChars } from "./glyphs.ts";
 import { straightLineSentence } from "./aliased_terms.ts";
 
@@ -258,6 +258,8 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     const measured = body.map((r) => `${r[0]}: ${r[r.length - 1]}`).join("; ");
     lines.push(...wrapAnsi(style.dim(`Measured by ${measured}.`), options.width).split("\n"));
   }
+  const said = leftOutNote(fitted.dropped.filter((d) => d !== "measured by"));
+  if (said !== null) lines.push(...wrapAnsi(style.dim(said), options.width).split("\n"));
   const comparison = compareWithLine(q.ensemble, q.reference, q.linear);
   if (comparison !== null) {
     lines.push(
