@@ -6,7 +6,7 @@
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import wrapAnsi from "wrap-ansi";
-import type { Model } from "../../mod.ts";
+import { treeOutline } from "../../mod.ts";
 import { openModelFile } from "../open_model.ts";
 import {
   describeTarget,
@@ -19,67 +19,6 @@ import { localeTag } from "../table_flags.ts";
 import type { Terminal } from "../terminal.ts";
 import { provenanceLine } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
-
-/**
- * One node of the tree for JSON, listed by node id (the root is 0): its
- * parent and depth, rows, value, and for a split its condition and its
- * children's ids. A flat list, not nested objects: a tree thousands of
- * levels deep nests too deep for JSON tools (and for JSON.stringify).
- */
-interface OutlineNode {
-  parent: number | null;
-  depth: number;
-  rows: number;
-  value: number | null;
-  split?: { feature: string; threshold?: number; left?: string[]; right?: string[] };
-  children?: [number, number];
-}
-
-function outline(model: Model): OutlineNode[] {
-  const tree = model.reference.tree;
-  const privacy = model.settings.privacyMin;
-  const nodes: OutlineNode[] = [];
-  // Children come after their parent (checked when the file is read), so one
-  // pass in id order meets every parent first: no recursion, however deep.
-  const parent = new Int32Array(tree.nodeCount).fill(-1);
-  const depth = new Int32Array(tree.nodeCount);
-  for (let node = 0; node < tree.nodeCount; node++) {
-    const raw = tree.value[node * tree.width];
-    const value = tree.rows[node] < privacy
-      ? null
-      : model.target.kind === "regression" && model.target.scale === "log"
-      ? Math.exp(raw)
-      : raw;
-    const out: OutlineNode = {
-      parent: parent[node] < 0 ? null : parent[node],
-      depth: depth[node],
-      rows: tree.rows[node],
-      value,
-    };
-    nodes.push(out);
-    const [l, r] = [tree.left[node], tree.right[node]];
-    if (l === -1) continue;
-    parent[l] = parent[r] = node;
-    depth[l] = depth[r] = depth[node] + 1;
-    const f = model.features[tree.feature[node]];
-    if (f.kind === "categorical") {
-      const words = tree.maskWords[tree.feature[node]];
-      const set = (offset: number) =>
-        f.levels!.filter((_, code) =>
-          ((tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1) === 1
-        );
-      out.split = {
-        feature: f.name,
-        left: set(tree.maskOffset[node]),
-        right: set(tree.maskOffset[node] + words),
-      };
-    } else {
-      out.split = { feature: f.name, threshold: tree.threshold[node] };
-    }
-    out.children = [l, r];
-  }
-  return nodes;
-}
 
 /**
  * Builds the `inspect` command.
@@ -110,7 +49,7 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
               leaves: model.reference.leaves,
               depth: model.reference.depth,
               alpha: model.reference.alpha,
-              ...(flags.tree ? { outline: outline(model) } : {}),
+              ...(flags.tree ? { outline: treeOutline(model) } : {}),
             },
             pruningPath: model.reference.pruningPath,
             ensemble: model.ensemble === null

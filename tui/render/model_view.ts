@@ -5,7 +5,14 @@
  * @module
  */
 
-import { compareWithLine, type LineComparison, type MeasureComparison } from "../../mod.ts";
+import {
+  compareWithLine,
+  importanceGrowth,
+  type LineComparison,
+  type MeasureComparison,
+  treeOutline,
+  typicalErrorShare,
+} from "../../mod.ts";
 import Table from "cli-table3";
 import wrapAnsi from "wrap-ansi";
 import type { Accuracy, Model } from "../../mod.ts";
@@ -115,7 +122,8 @@ export function inShort(model: Model, numbers: NumberStyle): string | null {
   if (best.money === undefined) return null;
   const money = moneyStyle(model, numbers);
   // On logs, exp(RMSE) - 1 is the typical error as a share of pay.
-  const share = best.log ? ` (about ${formatPercent(Math.expm1(best.log.rmse))})` : "";
+  const errorShare = typicalErrorShare(best);
+  const share = errorShare !== null ? ` (about ${formatPercent(errorShare)})` : "";
   return `for one person, the estimate is typically off by ${formatPay(best.money.rmse, money)}` +
     `${share}, judged on people it did not learn from; ${top} matters most.`;
 }
@@ -316,18 +324,13 @@ export function renderImportance(model: Model, options: ModelViewOptions): strin
   const { style } = options;
   const permutation = model.importance.some((i) => !Number.isNaN(i.permutation));
   // Permutation importance read as "how much larger the typical error gets
-  // when the attribute is scrambled": sqrt(1 + rise / out-of-bag MSE) - 1,
-  // on the scale the trees were fitted on.
-  const oob = model.quality.ensemble;
-  const rmse = model.target.scale === "log" ? oob?.log?.rmse : oob?.money?.rmse;
-  const mse = rmse !== undefined ? rmse * rmse : NaN;
-  const growth = (rise: number) => Math.sqrt(1 + Math.max(0, rise) / mse) - 1;
+  // when the attribute is scrambled" (importanceGrowth, on the fitting scale).
   const growthText = (
     g: number,
   ) => (g < 0.001 ? "+0%" : `+${formatPercent(g).replace(".0%", "%")}`);
-  const items = [...model.importance]
+  const items = importanceGrowth(model)
     .map((i) => {
-      const g = growth(i.permutation);
+      const g = i.growth;
       return {
         label: i.feature,
         value: permutation ? g : i.impurity,
@@ -352,33 +355,23 @@ export function renderImportance(model: Model, options: ModelViewOptions): strin
  */
 export function renderTreeOutline(model: Model, options: ModelViewOptions): string[] {
   const tree = model.reference.tree;
+  const nodes = treeOutline(model);
   const money = moneyStyle(model, options.numbers);
   const lines: string[] = [];
   const privacy = model.settings.privacyMin;
   const valueText = (node: number) => {
-    if (tree.rows[node] < privacy) return `fewer than ${privacy} people`;
-    if (model.target.kind === "classification") {
-      const width = tree.width;
-      let best = 0;
-      for (let c = 1; c < width; c++) {
-        if (tree.value[node * width + c] > tree.value[node * width + best]) best = c;
-      }
-      return `${model.target.classes![best]} ${formatPercent(tree.value[node * width + best])}`;
-    }
-    const v = tree.value[node];
-    return formatPay(model.target.scale === "log" ? Math.exp(v) : v, money);
+    const n = nodes[node];
+    if (n.value === null) return `fewer than ${privacy} people`;
+    if (n.predicted) return `${n.predicted.class} ${formatPercent(n.predicted.share)}`;
+    return formatPay(n.value, money);
   };
   const conditionText = (node: number, left: boolean) => {
+    const split = nodes[node].split!;
     const f = model.features[tree.feature[node]];
-    const t = tree.threshold[node];
-    if (f.kind === "categorical") {
-      const words = tree.maskWords[tree.feature[node]];
-      const offset = tree.maskOffset[node] + (left ? 0 : words);
-      const set = f.levels!.filter((_, code) =>
-        ((tree.masks[offset + (code >>> 5)] >>> (code & 31)) & 1) === 1
-      );
-      return `${f.name} in {${set.join(", ")}}`;
+    if (split.left !== undefined) {
+      return `${f.name} in {${(left ? split.left : split.right!).join(", ")}}`;
     }
+    const t = split.threshold!;
     if (t === Infinity) return left ? `${f.name} is known` : `${f.name} is missing`;
     if (f.kind === "ordinal") {
       const last = Math.floor(t);
