@@ -1,0 +1,136 @@
+import assert from "node:assert/strict";
+import fc from "fast-check";
+import { CellColumn } from "../../../lib/table/cell_column.ts";
+import { missingTest } from "../../../lib/table/missing.ts";
+
+const isMissing = missingTest();
+
+function column(texts: readonly string[]): CellColumn {
+  const c = new CellColumn(isMissing);
+  for (const t of texts) c.push(t);
+  return c;
+}
+
+// The plain model the compact column must agree with: every text kept as is; numbers while
+// every cell is a plain decimal (or missing), Number(text) each, NaN for missing.
+const PLAIN = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+function model(texts: readonly string[]): { plain: number[] | null; texts: string[] } {
+  const values: number[] = [];
+  for (const t of texts) {
+    if (isMissing(t)) values.push(NaN);
+    else if (t.length <= 100 && PLAIN.test(t) && Number.isFinite(Number(t))) values.push(Number(t));
+    else return { plain: null, texts: [...texts] };
+  }
+  return { plain: values, texts: [...texts] };
+}
+
+Deno.test("numbers that do not give their text back keep their text", () => {
+  const texts = ["85000", "40.10", "007", "-0", "+5", ".5", "-.5", "1e3", "1E3", "40.", "-0.0"];
+  texts.push("0.0000001", "123456789012345678", "NA", "", "0", "-12.25", "3.14159265358979");
+  const c = column(texts);
+  assert.deepEqual(c.texts(), texts);
+  const plain = c.plain!;
+  assert.deepEqual(Array.from(plain.subarray(0, 11)), [
+    85000,
+    40.1,
+    7,
+    -0,
+    5,
+    0.5,
+    -0.5,
+    1000,
+    1000,
+    40,
+    -0,
+  ]);
+  assert.ok(Number.isNaN(plain[13]) && Number.isNaN(plain[14]) && plain[12] === 123456789012345678);
+  assert.equal(c.length, texts.length);
+});
+
+Deno.test("the first cell that is no number turns the column into text, earlier cells kept", () => {
+  const c = column(["1", "2.50", "NA", "", "L2", "3", "L2"]);
+  assert.equal(c.plain, null);
+  assert.deepEqual(c.texts(), ["1", "2.50", "NA", "", "L2", "3", "L2"]);
+  // Infinity and numbers too large for a double are text, not numbers.
+  assert.equal(column(["1", "1e400"]).plain, null);
+  assert.equal(column(["Infinity"]).plain, null);
+  assert.equal(column(["1".repeat(101)]).plain, null);
+});
+
+Deno.test("an empty column has no cells and an empty plain array", () => {
+  const c = column([]);
+  assert.equal(c.length, 0);
+  assert.deepEqual(Array.from(c.plain!), []);
+  assert.deepEqual(c.texts(), []);
+  assert.deepEqual(c.numberLikeTexts(), []);
+});
+
+Deno.test("more than 1,024 cells grow the store and keep every value", () => {
+  const texts = Array.from({ length: 5000 }, (_, i) => (i % 7 === 0 ? `${i}.50` : String(i * 3)));
+  const c = column(texts);
+  assert.equal(c.plain!.length, 5000);
+  assert.equal(c.plain![4999], 4999 * 3);
+  assert.equal(c.plain![4998], 4998.5);
+  assert.deepEqual(c.texts(), texts);
+});
+
+Deno.test("numberLikeTexts lists distinct texts with a digit and a point or comma", () => {
+  const numeric = column(["1.5", "2", "1.5", "40.10", "NA", "3,5"]);
+  // "3,5" is not a plain number: the column is text from there on.
+  assert.deepEqual(numeric.numberLikeTexts(), ["1.5", "40.10", "3,5"]);
+  const plain = column(["1.5", "2", "1.5", "40.10", "NA", "7.25"]);
+  assert.deepEqual(plain.numberLikeTexts(), ["1.5", "40.10", "7.25"]);
+  assert.deepEqual(plain.numberLikeTexts(2), ["1.5", "40.10"]);
+  assert.deepEqual(column(["North", "1,000", "x.", ".y"]).numberLikeTexts(), ["1,000"]);
+});
+
+Deno.test("keep retains the rows given, their aside texts included", () => {
+  const numeric = column(["1", "40.10", "NA", "7", "007"]);
+  numeric.keep([1, 3, 4]);
+  assert.equal(numeric.length, 3);
+  assert.deepEqual(Array.from(numeric.plain!), [40.1, 7, 7]);
+  assert.deepEqual(numeric.texts(), ["40.10", "7", "007"]);
+  const text = column(["a", "b", "c", "d"]);
+  text.keep([0, 3]);
+  assert.deepEqual(text.texts(), ["a", "d"]);
+  const none = column(["1", "2"]);
+  none.keep([]);
+  assert.equal(none.length, 0);
+  assert.deepEqual(none.texts(), []);
+  // Cells pushed after keep follow on.
+  none.push("5");
+  assert.deepEqual(none.texts(), ["5"]);
+});
+
+Deno.test("hostile texts are kept byte for byte", () => {
+  const texts = [
+    "=cmd|' /C calc'!A0",
+    "\u001b[31mred",
+    "a\u0000b",
+    "日本語",
+    "😀",
+    "1".repeat(70000),
+  ];
+  assert.deepEqual(column(texts).texts(), texts);
+});
+
+Deno.test("the compact column agrees with the plain model on generated columns", () => {
+  const cell = fc.oneof(
+    fc.integer({ min: -1e9, max: 1e9 }).map(String),
+    fc.double({ noNaN: true, noDefaultInfinity: true }).map(String),
+    fc.double({ min: -1e6, max: 1e6, noNaN: true }).map((x) => x.toFixed(2)),
+    fc.constantFrom("NA", "", "-", "007", "-0", "+1", ".5", "1.", "0.000001", "1e-7", "L1", "1,5"),
+    fc.stringMatching(/^-?\d{1,20}(\.\d{0,20})?$/),
+  );
+  fc.assert(
+    fc.property(fc.array(cell, { maxLength: 60 }), fc.boolean(), (texts, numeric) => {
+      const cells = numeric ? texts.filter((t) => t !== "L1" && t !== "1,5") : texts;
+      const c = column(cells);
+      const expected = model(cells);
+      assert.deepEqual(c.texts(), expected.texts);
+      if (expected.plain === null) assert.equal(c.plain, null);
+      else assert.deepEqual(Array.from(c.plain!), expected.plain);
+    }),
+    { seed: 15, numRuns: 400 },
+  );
+});
