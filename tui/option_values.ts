@@ -111,3 +111,25 @@ export function coverageOption(text: string): number {
   }
   return share;
 }
+
+/**
+ * Collects repeated `COLUMN=VALUE` options into alternatives per column.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { collectWhere } from "./option_values.ts";
+ * const once = collectWhere("site=North");
+ * assert.deepEqual(collectWhere("site=Harbor", once), { site: ["North", "Harbor"] });
+ * assert.throws(() => collectWhere("site="), /expected COLUMN=VALUE/);
+ * ```
+ */
+export function collectWhere(text: string, previous: Record<string, string[]> = {}) {
+  const at = text.indexOf("=");
+  if (at <= 0 || at === text.length - 1) {
+    throw new InvalidArgumentError(`expected COLUMN=VALUE, got "${text}"`);
+  }
+  const column = text.slice(0, at).trim();
+  const value = text.slice(at + 1).trim();
+  return { ...previous, [column]: [...(previous[column] ?? []), value] };
+}

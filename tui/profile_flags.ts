@@ -20,7 +20,7 @@ import {
   rowProfile,
   typicalProfile,
 } from "../mod.ts";
-import { PROTECTED_CAUTION } from "./commands/fit.ts";
+import { PROTECTED_CAUTION } from "./render/cautions.ts";
 import { ANALYST_FILE_OPTION } from "./open_model.ts";
 import { coverageOption } from "./option_values.ts";
 import { localeTag, type ReadFlags, readOverrides, withReadFlags } from "./table_flags.ts";

@@ -108,8 +108,54 @@ export function splitAssignment(text: string, option: string): [string, string] 
  * Refuses a protected attribute as a lever of a pay estimate unless the
  * model was fitted with protected attributes allowed.
  */
+/**
+ * Whether an attribute may be changed in a what-if, and by whom: the one
+ * place this policy is decided. A protected attribute is never offered as
+ * a lever by the guided flow ("offered"), even in a model fitted with
+ * protected attributes allowed; a command accepts one ("accepted") only in
+ * such a model (with the caution the terminal shows for it).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { isLever } from "./profile.ts";
+ * const model = { settings: { allowProtected: true } } as unknown as import("./types.ts").Model;
+ * const gender = { name: "gender", protected: true } as unknown as import("./types.ts").FeatureSchema;
+ * assert.equal(isLever(model, gender, "offered"), false);
+ * assert.equal(isLever(model, gender, "accepted"), true);
+ * const shut = { settings: { allowProtected: false } } as unknown as import("./types.ts").Model;
+ * assert.equal(isLever(shut, gender, "accepted"), false);
+ * ```
+ */
+export function isLever(
+  model: Model,
+  feature: Pick<FeatureSchema, "protected">,
+  how: "offered" | "accepted",
+): boolean {
+  if (!feature.protected) return true;
+  return how === "accepted" && model.settings.allowProtected;
+}
+
+/**
+ * The attributes the guided flow offers as what-if levers (indices).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { offeredLevers } from "./profile.ts";
+ * const model = {
+ *   settings: { allowProtected: true },
+ *   features: [{ name: "level", protected: false }, { name: "gender", protected: true }],
+ * } as unknown as import("./types.ts").Model;
+ * assert.deepEqual(offeredLevers(model), [0]);
+ * ```
+ */
+export function offeredLevers(model: Model): number[] {
+  return model.features.flatMap((f, i) => (isLever(model, f, "offered") ? [i] : []));
+}
+
 function checkLever(model: Model, feature: FeatureSchema, option: string): void {
-  if (feature.protected && !model.settings.allowProtected) {
+  if (!isLever(model, feature, "accepted")) {
     throw new OptionError(
       `${option}: "${feature.name}" is a protected attribute and cannot be changed in a pay ` +
         `estimate`,

@@ -26,7 +26,7 @@ import { withReadFlags } from "../table_flags.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
 import { coverageOption } from "../option_values.ts";
 import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
-import { PROTECTED_CAUTION } from "./fit.ts";
+import { PROTECTED_CAUTION } from "../render/cautions.ts";
 import { dataWarningLines } from "../data_check.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
 import { fitTable, leftOutNote } from "../render/fit_table.ts";

@@ -7,12 +7,7 @@
 
 import { resolveColumnFlags } from "../column_names.ts";
 import wrapAnsi from "wrap-ansi";
-import {
-  Command,
-  type CommandUnknownOpts,
-  InvalidArgumentError,
-  Option,
-} from "@commander-js/extra-typings";
+import { Command, type CommandUnknownOpts, Option } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
   fitModel,
@@ -26,10 +21,10 @@ import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
-import { MAX_TREES, seedOption, wholeNumber } from "../option_values.ts";
+import { collectWhere, MAX_TREES, seedOption, wholeNumber } from "../option_values.ts";
 import { cappedWorkers } from "../workers.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
-import { withCautions } from "../render/cautions.ts";
+import { PROTECTED_CAUTION, withCautions } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
 import {
   assertFiniteFigures,
@@ -38,17 +33,6 @@ import {
   leftOutJson,
   screenPayFlags,
 } from "../data_check.ts";
-
-/** Collects repeated `COLUMN=VALUE` options into alternatives per column. */
-export function collectWhere(text: string, previous: Record<string, string[]> = {}) {
-  const at = text.indexOf("=");
-  if (at <= 0 || at === text.length - 1) {
-    throw new InvalidArgumentError(`expected COLUMN=VALUE, got "${text}"`);
-  }
-  const column = text.slice(0, at).trim();
-  const value = text.slice(at + 1).trim();
-  return { ...previous, [column]: [...(previous[column] ?? []), value] };
-}
 
 /** The `fit --json` document. */
 export function fitJson(
@@ -322,8 +306,3 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       );
     });
 }
-
-/** The caution printed whenever protected attributes are allowed. */
-export const PROTECTED_CAUTION = "Caution: --allow-protected lets sex, race, age and other " +
-  "protected attributes shape pay estimates. Setting pay on them risks unlawful discrimination; " +
-  "use such a model only to study gaps, with counsel.";

@@ -22,7 +22,7 @@ import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
-import { collectWhere } from "./fit.ts";
+import { collectWhere } from "../option_values.ts";
 import { MAX_TREES, seedOption, shareOption, wholeNumber } from "../option_values.ts";
 import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 import { makeStyle } from "../render/style.ts";

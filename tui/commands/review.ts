@@ -8,170 +8,25 @@
  */
 
 import { resolveColumnFlags } from "../column_names.ts";
-import wrapAnsi from "wrap-ansi";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
   OptionError,
   type PayReview,
   payReview,
-  type ReviewPerson,
   writeFileAtomic,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { printTableAnswer } from "../render/cautions.ts";
-import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
-import type { Style } from "../render/style.ts";
-import { fitTable, leftOutNote } from "../render/fit_table.ts";
 import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
-import { csvCell, forTerminal, terminalText } from "../render/safe_text.ts";
+import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
-import { collectWhere } from "./fit.ts";
+import { collectWhere } from "../option_values.ts";
 import { coverageOption, MAX_TREES, seedOption, wholeNumber } from "../option_values.ts";
 import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 
-/** How many people under and over range the text output lists. */
-export const REVIEW_LISTED = 10;
-const SHOWN_ID = 40;
-const TOO_FEW = "too few to report";
-
-/**
- * Every person as CSV (RFC 4180), one row each, in table order; text cells
- * through {@linkcode csvCell}, so no identifier runs as a formula.
- */
-export function reviewCsv(review: PayReview): string {
-  const num = (x: number | null, digits: number) =>
-    x === null || !Number.isFinite(x) ? "" : String(Number(x.toFixed(digits)));
-  const lines = ["id,line,pay,estimate,range_low,range_high,range_position,status,shortfall"];
-  for (const p of review.people) {
-    lines.push([
-      csvCell(p.id),
-      String(p.line),
-      num(p.pay, 2),
-      num(p.estimate, 2),
-      num(p.low, 2),
-      num(p.high, 2),
-      num(p.position, 4),
-      csvCell(p.status ?? ""),
-      num(p.shortfall, 2),
-    ].join(","));
-  }
-  return lines.join("\n") + "\n";
-}
-
-/** The review as terminal lines (without the cautions). */
-export function renderReview(
-  review: PayReview,
-  view: { style: Style; width: number; numbers: NumberStyle },
-): string[] {
-  const { style, width, numbers } = view;
-  const wrap = (t: string) => wrapAnsi(t, width).split("\n");
-  const money = (x: number) => formatPay(x, numbers, true);
-  const lines: string[] = [];
-  const share = formatPercent(review.coverage, false, numbers).replace(".0%", "%");
-  const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
-  lines.push(
-    ...wrap(
-      style.bold(`Pay review: ${review.target} against the ${share} range of comparable people`),
-    ),
-    ...wrap(style.dim(
-      `Each person's estimate comes from trees that never saw them (out of bag), so their own ` +
-        `pay does not pull it. Compared on: ${review.features.join(", ")}.`,
-    )),
-    "",
-  );
-  const per = review.money?.period ? ` a ${review.money.period}` : "";
-  if (!review.overall.suppressed) {
-    const o = review.overall;
-    lines.push(
-      ...wrap(
-        `The range leaves about ${
-          formatPercent((1 - review.coverage) / 2, false, numbers).replace(".0%", "%")
-        } of people under it and as many over it by construction: that many outside is ` +
-          `expected; who they are, and by how much, is the finding. Here, of ` +
-          `${formatNumber(o.people, numbers, 0)} people, ${
-            plural(o.under, "is paid", "are paid")
-          } under their range (bringing each to its low end would cost ${money(o.cost)}${per} ` +
-          `in total) and ${o.over} over it.`,
-      ),
-      "",
-    );
-  }
-  if (review.categories.length > 0) {
-    const rows = [["", "people", "under", "over", "cost to low end"]];
-    for (const c of review.categories) {
-      rows.push(
-        c.suppressed
-          ? [c.name, TOO_FEW, "", "", ""]
-          : [c.name, String(c.people), String(c.under), String(c.over), money(c.cost)],
-      );
-    }
-    const [head, ...body] = rows;
-    const table = fitTable({
-      width,
-      head,
-      rows: body,
-      borders: "none",
-      spanning: TOO_FEW,
-      styleHead: style.bold,
-    });
-    lines.push(...table.lines, "");
-  }
-  const listed = (title: string, people: ReviewPerson[]) => {
-    if (people.length === 0) return;
-    lines.push(...wrap(style.bold(title)));
-    const rows: string[][] = [];
-    for (const p of people.slice(0, REVIEW_LISTED)) {
-      rows.push([
-        // An identifier is shown to 40 characters (the CSV keeps it whole).
-        p.id.length > SHOWN_ID ? `${p.id.slice(0, SHOWN_ID - 3)}...` : p.id,
-        money(p.pay),
-        money(p.estimate!),
-        `${money(p.low!)}-${money(p.high!)}`,
-        p.position === null ? "-" : formatPercent(p.position, false, numbers),
-      ]);
-    }
-    // Narrow screens: the estimate goes first, then the range (the position
-    // in it stays); then a list, one block per person.
-    const table = fitTable({
-      width,
-      head: ["", "pay", "estimate", "range", "position"],
-      rows,
-      drop: [2, 3],
-      borders: "none",
-    });
-    const said = leftOutNote(table.dropped, "--json and --out FILE have");
-    if (said !== null) lines.push(...wrap(style.dim(said)));
-    lines.push(...table.lines);
-    if (people.length > REVIEW_LISTED) {
-      lines.push(
-        ...wrap(
-          style.dim(`... and ${people.length - REVIEW_LISTED} more (--out FILE lists everyone)`),
-        ),
-      );
-    }
-    lines.push("");
-  };
-  // Both lists by position in the range, so they read alike.
-  // (A range of no width has no position: such people come last.)
-  const under = review.people.filter((p) => p.status === "under")
-    .sort((a, b) => (a.position ?? Infinity) - (b.position ?? Infinity));
-  const over = review.people.filter((p) => p.status === "over")
-    .sort((a, b) => (b.position ?? -Infinity) - (a.position ?? -Infinity));
-  listed("Furthest under their range, by position (0% = the range's low end)", under);
-  listed("Furthest over their range, by position (100% = the range's high end)", over);
-  for (const note of review.notes) lines.push(...wrap(style.warn(note)));
-  const missing = review.people.filter((p) => p.status === null).length;
-  if (missing > 0) {
-    lines.push(
-      ...wrap(
-        style.dim(`${missing} people were drawn by every tree and have no out-of-bag estimate.`),
-      ),
-    );
-  }
-  return lines;
-}
+import { renderReview, reviewCsv } from "../render/review_view.ts";
 
 /**
  * Builds the `review` command.

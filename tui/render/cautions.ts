@@ -123,3 +123,8 @@ export function printTableAnswer(
 
 // Kept here too for the modules that import it from here.
 export { jsonNumbers } from "./safe_text.ts";
+
+/** The caution printed whenever protected attributes are allowed. */
+export const PROTECTED_CAUTION = "Caution: --allow-protected lets sex, race, age and other " +
+  "protected attributes shape pay estimates. Setting pay on them risks unlawful discrimination; " +
+  "use such a model only to study gaps, with counsel.";
