@@ -20,6 +20,8 @@ export interface Terminal {
   errStyle: Style;
   /** Width of standard output in characters. */
   width: number;
+  /** Height of standard output in lines, when it is a terminal whose size is known. */
+  rows?: number;
   /**
    * Whether standard output is a terminal (a person reads it) rather than a
    * pipe or a file; undefined counts as not.
@@ -65,9 +67,10 @@ export function processTerminal(): Terminal {
     }
   };
   let width = DEFAULT_WIDTH;
+  let rows: number | undefined;
   if (Deno.stdout.isTerminal()) {
     try {
-      width = Deno.consoleSize().columns;
+      ({ columns: width, rows } = Deno.consoleSize());
     } catch {
       // Keep the default when the size cannot be read.
     }
@@ -82,6 +85,7 @@ export function processTerminal(): Terminal {
     style,
     errStyle,
     width,
+    ...(rows !== undefined ? { rows } : {}),
     outIsTerminal: Deno.stdout.isTerminal(),
     errIsTerminal: Deno.stderr.isTerminal(),
   };

@@ -10,6 +10,12 @@ import { checkbox, input, select } from "@inquirer/prompts";
 import { terminalGuard, terminalText } from "../render/safe_text.ts";
 import type { Style } from "../render/style.ts";
 
+/**
+ * Choices a select prompt shows at once (more scroll): it takes one line
+ * for its question and one per choice shown.
+ */
+export const CHOOSE_PAGE_SIZE = 10;
+
 /** A choice of a select prompt. */
 export interface Choice<T> {
   /** What is shown. */
@@ -30,13 +36,16 @@ export interface FlowIO {
   style: Style;
   /** Screen width in characters. */
   width: number;
+  /** Screen height in lines, when known (a flow assumes 24 when not). */
+  rows?: number;
   /** Plain ASCII only (no box drawing or arrows). */
   ascii: boolean;
   /** Redraws one progress line in place, if the screen can. */
   progress?: (text: string) => void;
   /**
-   * Asks to pick one of `choices`; `brief` leaves out the key help line
-   * (for a menu asked again and again, under a result that needs the room).
+   * Asks to pick one of `choices`; `brief` leaves out the key help line and
+   * shows every choice (for a menu asked again and again, under a result
+   * that needs the room: its question and one line per choice).
    */
   choose<T>(message: string, choices: Choice<T>[], defaultValue?: T, brief?: boolean): Promise<T>;
   /** Asks to tick some of `choices`. */
@@ -71,7 +80,13 @@ export interface PromptStreams {
  */
 export function streamFlowIO(
   streams: PromptStreams,
-  options: { style: Style; width: number; ascii: boolean; progress?: (text: string) => void },
+  options: {
+    style: Style;
+    width: number;
+    rows?: number;
+    ascii: boolean;
+    progress?: (text: string) => void;
+  },
 ): FlowIO {
   // Esc alone (not the start of an arrow key's sequence, which arrives in
   // the same chunk) stops the prompt, as Ctrl-C does.
@@ -122,6 +137,7 @@ export function streamFlowIO(
     },
     style: options.style,
     width: options.width,
+    rows: options.rows,
     ascii: options.ascii,
     progress: options.progress,
     choose: (message, choices, defaultValue, brief) =>
@@ -130,7 +146,8 @@ export function streamFlowIO(
           message: terminalText(message),
           choices: shown(choices),
           default: defaultValue,
-          pageSize: 10,
+          // A menu under a result shows all its choices (it has at most a dozen).
+          pageSize: brief ? Math.max(CHOOSE_PAGE_SIZE, choices.length) : CHOOSE_PAGE_SIZE,
           // A help line of "" is dropped with the blank line above it.
           theme: brief ? { ...selectTheme, style: { keysHelpTip: () => "" } } : selectTheme,
         }, context)

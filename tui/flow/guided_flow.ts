@@ -52,14 +52,14 @@ import {
   writeModelFile,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
-import { renderCompare, renderOffer, renderResult, renderSweep } from "../render/answer_view.ts";
+import { fitResult, renderCompare, renderOffer, renderSweep } from "../render/answer_view.ts";
 import { cautionLines } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalGuard, terminalText } from "../render/safe_text.ts";
 import { gapMarkdown } from "../render/gap_view.ts";
-import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
+import { inShort, moneyStyle, renderModelSummary } from "../render/model_view.ts";
 import { formatNumber, formatPay, type NumberStyle } from "../render/numbers.ts";
-import CliTable from "cli-table3";
-import { tableChars } from "../render/glyphs.ts";
+import wrapAnsi from "wrap-ansi";
+import { fitTable } from "../render/fit_table.ts";
 import { renderSchemaBrief } from "../render/schema_view.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
@@ -106,7 +106,10 @@ type SessionOptions = FlowOptions & {
 /** Runs the flow until the person quits. */
 export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void> {
   const { style } = io;
-  io.say(style.bold("paygrove: what would our pay structure pay a person like this?"));
+  io.say(
+    wrapped(io, style.bold("paygrove: what would our pay structure pay a person like this?"))
+      .join("\n"),
+  );
   io.say([...cautionLines(style, io.width), ""].join("\n"));
 
   let model: Model | undefined;
@@ -135,6 +138,16 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
     leftOut,
     written: new Set(),
   });
+}
+
+// Text wrapped at spaces to the screen's width.
+function wrapped(io: FlowIO, text: string): string[] {
+  return wrapAnsi(text, io.width).split("\n");
+}
+
+/** Lines of the screen: as the terminal says, else 24. */
+export function screenRows(io: Pick<FlowIO, "rows">): number {
+  return io.rows !== undefined && io.rows > 0 ? io.rows : 24;
 }
 
 /** Asks for the data and returns a fitted (or loaded) model. */
@@ -244,24 +257,33 @@ async function chooseAndFit(
     } finally {
       bar.finish();
     }
+    const shown = forTerminal({
+      ...model,
+      dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })),
+      // Rows left out for implausible pay are said below, apart.
+      rows: { ...model.rows, dropped: model.rows.dropped - (leftOut?.count ?? 0) },
+    });
+    const numbers = { locale: options.locale };
+    const summary = renderModelSummary(shown, { style, width: io.width, numbers });
+    // The summary's one-sentence answer comes last, right above the next
+    // question, where a 24-line terminal still shows it.
+    const sentence = inShort(shown, numbers);
+    const short = sentence === null ? [] : wrapped(io, `${style.bold("In short:")} ${sentence}`);
+    const leads = short.length > 0 && short.every((line, i) => summary[i] === line);
     io.say(
       [
         "",
         style.bold(`Fitted in ${model.seconds.toFixed(1)} s`),
-        ...renderModelSummary(
-          forTerminal({
-            ...model,
-            dropped: model.dropped.map((d) => ({ ...d, reason: droppedReason(d) })),
-            // Rows left out for implausible pay are said below, apart.
-            rows: { ...model.rows, dropped: model.rows.dropped - (leftOut?.count ?? 0) },
-          }),
-          { style, width: io.width, numbers: { locale: options.locale } },
+        ...(leads ? summary.slice(short.length) : summary),
+        ...wrapped(
+          io,
+          style.dim(
+            "The tree beside the ensemble is the reference tree whose decision path you will " +
+              "see; the ensemble averages many such trees for steadier estimates.",
+          ),
         ),
-        style.dim(
-          "The tree beside the ensemble is the reference tree whose decision path you will see; " +
-            "the ensemble averages many such trees for steadier estimates.",
-        ),
-        ...(leftOut ? [style.warn(leftOutSentence(leftOut, ", as you chose"))] : []),
+        ...(leftOut ? wrapped(io, style.warn(leftOutSentence(leftOut, ", as you chose"))) : []),
+        ...short,
       ].join("\n"),
     );
   }
@@ -346,6 +368,7 @@ function fileExists(path: string): string | true {
 
 type Next =
   | "change"
+  | "whole"
   | "promote"
   | "offer"
   | "sweep"
@@ -373,11 +396,49 @@ async function whatIfLoop(
   const scenarios: Scenario[] = [];
   const whatIfs: CompareAnswer[] = [];
   let answer = estimateProfile(session, profile, 0.9);
-  const showResult = () => {
-    const lines = renderResult(forTerminal(answer), result);
-    if (model.settings.allowProtected) {
-      lines.push(io.style.caution("Caution: a protected attribute shapes this estimate."));
-    }
+  const ladder = promotionFeature(model);
+  const typical = describeProfile(model, typicalProfile(model));
+  // The menu under every screen of the loop; `whole` when the result was
+  // shortened to fit the screen above it.
+  const menu = (whole: boolean) => [
+    { name: "Change one attribute", value: "change" as const },
+    ...(ladder >= 0
+      ? [{ name: `Promote one ${model.features[ladder].name}`, value: "promote" as const }]
+      : []),
+    { name: "Sweep one attribute (chart)", value: "sweep" as const },
+    { name: "Keep this profile as a scenario", value: "keep" as const },
+    { name: `Show the scenarios side by side (${scenarios.length})`, value: "list" as const },
+    // Always listed, so the choices keep their places; off until there is a change.
+    {
+      name: "Undo the last change",
+      value: "undo" as const,
+      ...(history.length === 0 ? { disabled: "(nothing to undo yet)" } : {}),
+    },
+    // After undo, so that the choices above keep their places.
+    ...(model.target.kind === "regression"
+      ? [{ name: "Check an offer against this profile", value: "offer" as const }]
+      : []),
+    ...(whole
+      ? [{ name: "Show the whole profile and decision path", value: "whole" as const }]
+      : []),
+    { name: "Start over with a new profile", value: "restart" as const },
+    { name: "Save the model and a report", value: "save" as const },
+    { name: "Quit", value: "quit" as const },
+  ];
+  // Lines the menu takes (its question, the choices in view), so that
+  // what is shown above it can stay in view on a screen of `rows`.
+  const menuLines = 1 + menu(true).length;
+  const room = () => screenRows(io) - menuLines;
+  // The result within the room the menu leaves (less the lines said beside it).
+  const fitted = (extra: number) =>
+    fitResult(forTerminal(answer), {
+      ...result,
+      maxLines: room() - extra,
+      typical: forTerminal(typical),
+    });
+  // Said under the estimate's line: the person's own pay, and a caution.
+  const beside = (): string[] => {
+    const lines: string[] = [];
     if (built.person) {
       // The person is one of the model's own: their estimate leans toward
       // their pay, so the one from trees that never saw them is said beside
@@ -386,52 +447,37 @@ async function whatIfLoop(
       const who = terminalText(built.person.id);
       const own = profile === built.profile;
       const oob = own ? outOfBagEstimate(session, built.person.id, profile) : null;
-      lines.splice(
-        1,
-        0,
-        io.style.dim(
-          own
-            ? `  ${who}'s pay in the table: ${formatPay(built.person.pay, money)}; ` +
-              (oob !== null
-                ? `from trees that never saw ${who}: ${formatPay(oob, money)}`
-                : "the estimate includes their own pay")
-            : `  ${who} as they are (before the changes) is paid ` +
-              formatPay(built.person.pay, money),
-        ),
+      lines.push(
+        ...wrapAnsi(
+          io.style.dim(
+            own
+              ? `${who}'s pay in the table: ${formatPay(built.person.pay, money)}; ` +
+                (oob !== null
+                  ? `from trees that never saw ${who}: ${formatPay(oob, money)}`
+                  : "the estimate includes their own pay")
+              : `${who} as they are (before the changes) is paid ` +
+                formatPay(built.person.pay, money),
+          ),
+          io.width - 2,
+        ).split("\n").map((l) => `  ${l}`),
       );
     }
+    if (model.settings.allowProtected) {
+      lines.push(io.style.caution("Caution: a protected attribute shapes this estimate."));
+    }
+    return lines;
+  };
+  const showResult = () => {
+    const said = beside();
+    const lines = fitted(said.length).lines;
+    lines.splice(1, 0, ...said);
     io.say(["", ...lines].join("\n"));
   };
   showResult();
-  const ladder = promotionFeature(model);
   for (;;) {
-    const next: Next = await io.choose(
-      "What next?",
-      [
-        { name: "Change one attribute", value: "change" },
-        ...(ladder >= 0
-          ? [{ name: `Promote one ${model.features[ladder].name}`, value: "promote" as const }]
-          : []),
-        { name: "Sweep one attribute (chart)", value: "sweep" },
-        { name: "Keep this profile as a scenario", value: "keep" },
-        { name: `Show the scenarios side by side (${scenarios.length})`, value: "list" },
-        // Always listed, so the choices keep their places; off until there is a change.
-        {
-          name: "Undo the last change",
-          value: "undo" as const,
-          ...(history.length === 0 ? { disabled: "(nothing to undo yet)" } : {}),
-        },
-        // After undo, so that the choices above keep their places.
-        ...(model.target.kind === "regression"
-          ? [{ name: "Check an offer against this profile", value: "offer" as const }]
-          : []),
-        { name: "Start over with a new profile", value: "restart" },
-        { name: "Save the model and a report", value: "save" },
-        { name: "Quit", value: "quit" },
-      ],
-      undefined,
-      true,
-    );
+    // The whole result is offered whenever the current one would not fit.
+    const cut = fitted(beside().length).cut;
+    const next: Next = await io.choose("What next?", menu(cut), undefined, true);
     if (next === "quit") break;
     try {
       await act(next);
@@ -461,7 +507,12 @@ async function whatIfLoop(
       (options.force ?? false) || options.written.has(options.report),
     );
   }
-  io.say(io.style.dim("Done. Figures describe the current pay structure; see the cautions above."));
+  io.say(
+    wrapped(
+      io,
+      io.style.dim("Done. Figures describe the current pay structure; see the cautions above."),
+    ).join("\n"),
+  );
 
   async function act(next: Next): Promise<void> {
     if (next === "change" || next === "promote") {
@@ -482,7 +533,8 @@ async function whatIfLoop(
         changed = applySets(model, profile, [await editOne(io, model, profile)]).profile;
       }
       const what = compareAnswer(session, profile, changed, 0.9);
-      io.say(["", ...renderCompare(forTerminal(what), { ...view, compact: true })].join("\n"));
+      const shown = renderCompare(forTerminal(what), { ...view, compact: true, maxLines: room() });
+      io.say(["", ...shown].join("\n"));
       whatIfs.push(what);
       history.push(profile);
       profile = changed;
@@ -508,7 +560,10 @@ async function whatIfLoop(
         levers(model).map((i) => ({ name: model.features[i].name, value: i })),
       );
       const sweep = sweepAnswer(session, profile, f, sweepValues(model, f, { steps: 12 }), 0.9);
-      io.say(["", ...renderSweep(forTerminal(sweep), view)].join("\n"));
+      // The table first, then the chart, sized to stay in view with the menu.
+      io.say(["", ...renderSweep(forTerminal(sweep), { ...view, chartLines: room() })].join("\n"));
+    } else if (next === "whole") {
+      io.say(["", ...fitResult(forTerminal(answer), result).lines].join("\n"));
     } else if (next === "keep") {
       const name = await io.ask("Name of this scenario:", {
         default: `scenario ${scenarios.length + 1}`,
@@ -645,43 +700,39 @@ function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO):
     return [io.style.dim('No scenario kept yet: choose "Keep this profile".')];
   }
   const pay = (x: number) => formatPay(x, money);
-  // Side by side: one column per scenario (the last four fit 80 columns),
+  // Side by side: one column per scenario (the last four at most),
   // the attributes that differ first, then the figures.
   const shown = scenarios.slice(-4);
   const names = Object.keys(shown[0].answer.profile);
   const differs = names.filter((n) =>
     shown.some((s) => String(s.answer.profile[n]) !== String(shown[0].answer.profile[n]))
   );
-  const table = new CliTable({
-    head: ["", ...shown.map((s) => s.name)].map(io.style.bold),
-    colAligns: ["left", ...shown.map(() => "right" as const)],
-    style: { head: [], border: [], compact: true },
-    ...(tableChars() ? { chars: tableChars() } : {}),
-  });
-  for (const n of differs) {
-    table.push([
-      n,
-      ...shown.map((s) => String(s.answer.profile[n] ?? "missing")),
-    ]);
-  }
-  table.push(["estimate", ...shown.map((s) => pay(s.answer.estimate))]);
-  table.push([
+  const rows: string[][] = differs.map((n) => [
+    n,
+    ...shown.map((s) => String(s.answer.profile[n] ?? "missing")),
+  ]);
+  rows.push(["estimate", ...shown.map((s) => pay(s.answer.estimate))]);
+  rows.push([
     "typical pay, 90% sure",
-    ...shown.map((
-      s,
-    ) => (s.answer.confidence
-      ? `${pay(s.answer.confidence.low)}-${pay(s.answer.confidence.high)}`
-      : "-")
+    ...shown.map((s) =>
+      s.answer.confidence ? `${pay(s.answer.confidence.low)}-${pay(s.answer.confidence.high)}` : "-"
     ),
   ]);
-  table.push([
+  rows.push([
     "one person, 90% range",
-    ...shown.map((
-      s,
-    ) => (s.answer.range ? `${pay(s.answer.range.low)}-${pay(s.answer.range.high)}` : "-")),
+    ...shown.map((s) =>
+      s.answer.range ? `${pay(s.answer.range.low)}-${pay(s.answer.range.high)}` : "-"
+    ),
   ]);
+  // Too wide for the screen: one block per row, no figure wrapped.
+  const table = fitTable({
+    width: io.width,
+    head: ["", ...shown.map((s) => s.name)],
+    rows,
+    styleHead: io.style.bold,
+  });
   const lines = [io.style.bold(`Scenarios${scenarios.length > 4 ? " (the last four)" : ""}`)];
-  lines.push(...table.toString().split("\n"));
+  lines.push(...table.lines);
   if (differs.length === 0) lines.push(io.style.dim("The scenarios have the same attributes."));
   return lines;
 }

@@ -71,6 +71,7 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     {
       style: terminal.style,
       width: terminal.width,
+      rows: terminal.rows,
       ascii: options.ascii ?? false,
       progress: terminal.progress,
     },

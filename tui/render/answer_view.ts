@@ -362,8 +362,26 @@ const NO_BORDERS = {
   middle: " ",
 };
 
-/** The what-if screen: base vs changed, the paired change, the path step that changed. */
-export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions): string[] {
+/**
+ * The what-if screen: base vs changed, the paired change, the path step that
+ * changed. With `maxLines` (the flow's room above its menu), a screen
+ * longer than that draws its table without borders, three lines fewer.
+ */
+export function renderCompare(
+  answer: CompareAnswer,
+  options: AnswerViewOptions & { maxLines?: number },
+): string[] {
+  const boxed = compareLines(answer, options, "box");
+  return options.maxLines !== undefined && boxed.length > options.maxLines
+    ? compareLines(answer, options, "none")
+    : boxed;
+}
+
+function compareLines(
+  answer: CompareAnswer,
+  options: AnswerViewOptions,
+  borders: "box" | "none",
+): string[] {
   const { style, money } = options;
   // Changes of a salary (base from 100 up) in whole units, like the salaries.
   const whole = Math.abs(answer.base.estimate) >= 100;
@@ -395,6 +413,7 @@ export function renderCompare(answer: CompareAnswer, options: AnswerViewOptions)
     rows: compared,
     drop: [2],
     styleHead: style.bold,
+    borders,
   });
   lines.push(...table.lines);
   if (answer.changes.length === 0) {
@@ -446,16 +465,35 @@ function signed(x: number, pay: (x: number) => string): string {
   return `${x >= 0 ? "+" : "-"}${pay(Math.abs(x))}`;
 }
 
-/** The sweep screen: a line chart of the estimate and both intervals, then a table. */
-export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): string[] {
+/** How the flow lays a sweep out under its menu. */
+export interface SweepLayout {
+  /**
+   * The table first and the chart last, the chart (from its title to its
+   * legend) in this many lines at most, so that it stays in view above a
+   * menu; the chart keeps at least 4 rows. @default {the chart first, 11 rows}
+   */
+  chartLines?: number;
+}
+
+/**
+ * The sweep screen: a line chart of the estimate and both intervals, then a
+ * table (or, with `chartLines`, the table, then a chart of that many lines).
+ */
+export function renderSweep(
+  answer: SweepAnswer,
+  options: AnswerViewOptions & SweepLayout,
+): string[] {
   const { style, money } = options;
   const pay = (x: number) => formatPay(x, money);
   const points = answer.points;
   const lines: string[] = [];
   const pct = formatPercent(answer.coverage).replace(".0", "");
   lines.push(
-    style.bold(`Estimate as ${answer.feature} varies`) +
-      style.dim(` (the rest held at the profile)`),
+    ...wrapAnsi(
+      style.bold(`Estimate as ${answer.feature} varies`) +
+        style.dim(` (the rest held at the profile)`),
+      options.width,
+    ).split("\n"),
   );
   const hasIntervals = points.every((p) => p.range !== null);
   const series = [points.map((p) => p.estimate)];
@@ -475,8 +513,22 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
     );
   const all = series.flat().filter(Number.isFinite);
   const labelWidth = Math.max(pay(Math.min(...all)).length, pay(Math.max(...all)).length) + 1;
+  const legend = wrapAnsi(
+    style.dim(
+      hasIntervals
+        ? `middle line: estimate; outer lines: range for comparable people (${pct})` +
+          (points.some((p) => p.average !== undefined) ? "; fourth: averaged over the table" : "")
+        : "estimate only (the model has no ensemble)",
+    ),
+    options.width,
+  ).split("\n");
+  // asciichart draws height + 1 rows; the title, the x axis's labels and
+  // the legend take the rest.
+  const height = options.chartLines === undefined
+    ? 10
+    : Math.max(3, options.chartLines - lines.length - 2 - legend.length);
   const chart = asciichart.plot(series.map(stretch), {
-    height: 10,
+    height,
     ...(chartSymbols() ? { symbols: chartSymbols() } : {}),
     // Every label as wide as the widest, so the axis stays in one column.
     format: (x: number) => pay(x).padStart(labelWidth),
@@ -500,17 +552,7 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
       " ".repeat(Math.max(1, width - first.length - last.length))
     }${last}`,
   );
-  lines.push(
-    ...wrapAnsi(
-      style.dim(
-        hasIntervals
-          ? `middle line: estimate; outer lines: range for comparable people (${pct})` +
-            (points.some((p) => p.average !== undefined) ? "; fourth: averaged over the table" : "")
-          : "estimate only (the model has no ensemble)",
-      ),
-      options.width,
-    ).split("\n"),
-  );
+  lines.push(...legend);
   const swept: string[][] = points.map((p) => [
     typeof p.value === "number" ? formatNumber(p.value, money, 2) : p.value,
     pay(p.estimate),
@@ -532,11 +574,12 @@ export function renderSweep(answer: SweepAnswer, options: AnswerViewOptions): st
     drop: points[0].average !== undefined ? [2, 4] : [2],
     styleHead: style.bold,
   });
-  lines.push("", ...table.lines);
-  for (const w of answer.warnings) {
-    lines.push(...wrapAnsi(style.warn(`! ${w}`), options.width).split("\n"));
-  }
-  return lines;
+  const warnings = answer.warnings.flatMap((w) =>
+    wrapAnsi(style.warn(`! ${w}`), options.width).split("\n")
+  );
+  return options.chartLines === undefined
+    ? [...lines, "", ...table.lines, ...warnings]
+    : [...table.lines, ...warnings, "", ...lines];
 }
 
 /**
@@ -565,30 +608,98 @@ export function sparkline(values: readonly number[], bins: number): string {
     .join("");
 }
 
+/** What {@linkcode renderResult} may leave out to fit a screen. */
+export interface ResultFit {
+  /**
+   * Lines the result may take, from the estimate's line down (the flow's
+   * screen less its menu). The profile is then said by what differs from
+   * `typical`, and the path shows its first and last conditions; at the
+   * least the estimate, one profile line, the intervals and the path's last
+   * condition are shown. @default {no limit}
+   */
+  maxLines?: number;
+  /** The typical profile, as described, that a shortened profile is said against. */
+  typical?: Record<string, string | number | null>;
+}
+
 /**
  * The guided flow's result screen: the same answer as
  * {@linkcode renderEstimate} in about 14 lines, so that it and the next
  * question fit an 80 x 24 terminal.
  */
 export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions): string[] {
-  if (answer.classes) return renderEstimate(answer, { ...options, compact: true });
+  return fitResult(answer, options).lines;
+}
+
+/**
+ * The result screen within `maxLines`, and whether it left anything out
+ * (the profile said in part, conditions of the path left out), so that the
+ * flow can offer the whole of it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitResult } from "./answer_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const step = (condition: string, rows: number, value: number) => ({
+ *   condition, rows, value, splits: [],
+ * });
+ * const answer = {
+ *   target: { name: "pay", scale: "log", period: "year" },
+ *   estimate: 61000,
+ *   profile: { grade: "G4", site: "North", years: 12, department: "Assembly" },
+ *   warnings: [],
+ *   path: [
+ *     step("grade G4", 900, 60000), step("site North", 400, 61000),
+ *     step("years above 10", 150, 62000), step("years up to 14", 80, 61500),
+ *   ],
+ *   support: { rows: 80, peers: null },
+ *   trees: [],
+ * } as unknown as import("../../mod.ts").EstimateAnswer;
+ * const options = { style: makeStyle(false), width: 50, money: { currency: "EUR" } };
+ * const whole = fitResult(answer, options);
+ * assert.equal(whole.cut, false);
+ * assert.equal(whole.lines.length, 9);
+ * const typical = { grade: "G4", site: "North", years: 10, department: "Assembly" };
+ * const { lines, cut } = fitResult(answer, { ...options, maxLines: 7, typical });
+ * assert.equal(cut, true);
+ * assert.equal(lines.length, 7);
+ * assert.equal(lines[1], "  for the typical person with years 12");
+ * assert.match(lines[4], /^ +1 +grade G4 +900 +€60,000$/);
+ * assert.match(lines[5], /^ +\.\.\. 2 more conditions$/);
+ * assert.match(lines[6], /^ +4 +years up to 14 +80 +€61,500$/);
+ * ```
+ */
+export function fitResult(
+  answer: EstimateAnswer,
+  options: AnswerViewOptions & ResultFit,
+): { lines: string[]; cut: boolean } {
+  if (answer.classes) {
+    return { lines: renderEstimate(answer, { ...options, compact: true }), cut: false };
+  }
   const { style, money } = options;
   const pay = (x: number) => formatPay(x, money);
   const wrap = (text: string, indent = "") =>
     wrapAnsi(text, options.width - indent.length).split("\n").map((l) => indent + l);
   const what = answer.target.scale === "log" ? "typical pay" : "mean pay";
   const period = answer.target.period ? ` ${PERIOD[answer.target.period]}` : "";
-  const lines = [
+  const max = options.maxLines ?? Infinity;
+  const head = wrap(
     `${style.bold(`Estimate of ${answer.target.name}:`)} ${style.bold(pay(answer.estimate))}` +
-    `${period} (${what})`,
-    ...wrap(style.dim(`for ${profileText(answer.profile)}`), "  "),
-  ];
-  for (const w of answer.warnings) lines.push(...wrap(style.warn(`! ${w}`)));
+      `${period} (${what})`,
+  );
+  let profile = wrap(style.dim(`for ${profileText(answer.profile)}`), "  ");
+  const warnings = answer.warnings.flatMap((w) => wrap(style.warn(`! ${w}`)));
+  const intervals: string[] = [];
   if (answer.confidence && answer.range) {
     const c = answer.confidence;
     const r = answer.range;
     const pct = formatPercent(c.coverage).replace(".0", "");
-    const axis = Math.max(12, Math.min(32, options.width - 48));
+    const a = `${pay(c.low)} - ${pay(c.high)}`;
+    const b = `${pay(r.low)} - ${pay(r.high)}`;
+    const width = Math.max(a.length, b.length);
+    // The bands take what the labels and figures leave of the width.
+    const axis = Math.max(8, Math.min(32, options.width - 27 - width));
     const [sure, range] = intervalChart(
       [
         { label: "", low: c.low, high: c.high, text: "" },
@@ -597,54 +708,118 @@ export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions)
       answer.estimate,
       axis,
     ).map((l) => l.slice(2).trimEnd());
-    const a = `${pay(c.low)} - ${pay(c.high)}`;
-    const b = `${pay(r.low)} - ${pay(r.high)}`;
-    const width = Math.max(a.length, b.length);
-    lines.push(
-      // Labels that say what each band is about, in place of a legend.
+    const low = pay(Math.min(...answer.trees));
+    const high = pay(Math.max(...answer.trees));
+    const bins = Math.max(8, Math.min(20, options.width - 27 - low.length - high.length));
+    intervals.push(
+      // Labels that say what each band is about, in place of a legend
+      // (the trees' line last: the first line a short screen leaves out).
       `  ${`typical pay, ${pct} sure`.padEnd(21)}  ${a.padEnd(width)}  ${sure}`,
       `  ${`one person, ${pct} range`.padEnd(21)}  ${b.padEnd(width)}  ${range}`,
-      `  ${`the ${answer.trees.length} trees`.padEnd(21)}  ${pay(Math.min(...answer.trees))} ` +
-        `${sparkline(answer.trees, 20)} ${pay(Math.max(...answer.trees))}`,
+      `  ${`the ${answer.trees.length} trees`.padEnd(21)}  ${low} ` +
+        `${sparkline(answer.trees, bins)} ${high}`,
     );
   }
   // The last step shows the leaf's people and pay; the header says how
   // many people share the profile's two most important levels.
   const peers = answer.support.peers;
-  lines.push(
-    ...wrap(
+  let withPeers = peers !== null;
+  let withHead = answer.path.length > 0;
+  const pathHead = () =>
+    wrap(
       style.bold("Decision path of one readable tree") +
-        (peers
+        (peers && withPeers
           ? style.dim(
             ` (${formatNumber(peers.rows, money)} people share ${peers.levels[0]} and ${
               peers.levels[1]
             })`,
           )
           : ""),
-    ),
-  );
+    );
+  // Lines but the path's steps.
+  const fixed = () =>
+    head.length + profile.length + warnings.length + intervals.length + pathHead().length +
+    (withHead ? 1 : 0);
+  const steps = shownSteps(answer.path);
+  // At the least, the path shows a count of the conditions left out and its last.
+  const least = Math.min(steps.length, 2);
+  let cut = false;
+  // Too long, in this order: the profile by what differs from the typical
+  // person, on one line; the path's first conditions (below); the people
+  // sharing the profile's levels; the path's column headings; the trees' line.
+  if (fixed() + steps.length > max && profile.length > 1) {
+    profile = wrap(style.dim(`for ${shortProfile(answer.profile, options.typical)}`), "  ");
+    if (profile.length > 1) profile = [`${profile[0].replace(/,[^,]*$/, "")}, ...`];
+    cut = true;
+  }
+  const shorter = [
+    () => (withPeers = false),
+    () => (withHead = false),
+    () => intervals.length > 0 && intervals.pop(),
+  ];
+  for (const drop of shorter) {
+    if (fixed() + least <= max) break;
+    drop();
+    cut = true;
+  }
+  // The path's first conditions that fit, a count of those left out, and
+  // its last (the group the person falls in).
+  let shown: { step: PathAnswer | null; i: number }[] = steps;
+  const room = max - fixed();
+  if (answer.path.length > 2 && steps.length > room) {
+    const first = Math.max(0, room - 2);
+    shown = [
+      ...answer.path.slice(0, first).map((step, i) => ({ step, i })),
+      { step: null, i: answer.path.length - first - 1 },
+      { step: answer.path[answer.path.length - 1], i: answer.path.length - 1 },
+    ];
+    cut = true;
+  }
   const table = new Table({
     chars: NO_BORDERS,
-    head: ["", "", "people", answer.target.scale === "log" ? "typical pay" : "mean pay"].map(
-      style.dim,
-    ),
+    ...(withHead
+      ? {
+        head: ["", "", "people", answer.target.scale === "log" ? "typical pay" : "mean pay"].map(
+          style.dim,
+        ),
+      }
+      : {}),
     style: { head: [], border: [], "padding-left": 0, "padding-right": 2 },
     colAligns: ["right", "left", "right", "right"],
   });
-  for (const { step, i } of shownSteps(answer.path)) {
+  for (const { step, i } of shown) {
     table.push(
-      step === null ? ["", `... ${formatNumber(i, money)} more`, "", ""] : [
-        `${i + 1}`,
-        step.condition,
-        formatNumber(step.rows, money),
-        step.value === null ? "too few" : pay(step.value),
-      ],
+      step === null
+        ? ["", `... ${formatNumber(i, money)} more condition${i === 1 ? "" : "s"}`, "", ""]
+        : [
+          `${i + 1}`,
+          step.condition,
+          formatNumber(step.rows, money),
+          step.value === null ? "too few" : pay(step.value),
+        ],
     );
   }
+  const lines = [...head, ...profile, ...warnings, ...intervals, ...pathHead()];
   if (answer.path.length > 0) {
     lines.push(...table.toString().split("\n").map((l) => `  ${l.trimEnd()}`));
   }
-  return lines;
+  return { lines, cut };
+}
+
+type PathAnswer = EstimateAnswer["path"][number];
+
+// A profile by what differs from the typical one (all of it without one).
+function shortProfile(
+  profile: Record<string, string | number | null>,
+  typical: Record<string, string | number | null> | undefined,
+): string {
+  if (typical === undefined) return profileText(profile);
+  const differs = Object.fromEntries(
+    Object.entries(profile).filter(([k, v]) => String(v) !== String(typical[k])),
+  );
+  return Object.keys(differs).length === 0
+    ? "the typical person"
+    : `the typical person with ${profileText(differs)}`;
 }
 
 /** Steps of a decision path drawn in full; a longer path shows its ends. */
