@@ -138,6 +138,9 @@ const MASKED = new Set([
   "bytes", // the model file's size: its timestamp's digits vary
 ]);
 
+/** Fields that carry notes as data beside their words: new ones are allowed. */
+const NOTE_CODES = new Set(["code", "kind", "noteCodes", "warningCodes"]);
+
 /** The paths where `now` differs from `before`, masked fields and new note codes aside. */
 export function differences(
   before: unknown,
@@ -171,7 +174,7 @@ export function differences(
     }
     for (const key of Object.keys(now)) {
       // A new field is allowed when it is a note's code (typed notes added).
-      if (!(key in before) && !MASKED.has(key) && key !== "code" && key !== "notes") {
+      if (!(key in before) && !MASKED.has(key) && !NOTE_CODES.has(key)) {
         out.push(`${path}.${key}: new`);
       }
     }

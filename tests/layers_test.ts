@@ -107,7 +107,7 @@ Deno.test("no import in the library runs backwards", async () => {
 // The library still names flags in these many lines of code (its error
 // messages and a few notes); they are to become typed values the terminal
 // words. The count may only go down: a new flag name in lib/ fails here.
-const FLAG_LINES_LEFT = 90;
+const FLAG_LINES_LEFT = 89;
 
 Deno.test("the library writes no new command-line flag into its texts", async () => {
   const lib = await sources("lib");

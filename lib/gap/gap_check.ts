@@ -14,6 +14,7 @@
 import type { Dataset } from "../dataset/types.ts";
 import { OptionError } from "../errors.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
+import type { Ensemble } from "../ensemble/fit_ensemble.ts";
 import { checkedPrivacyMin, payRows } from "../model/pay_pipeline.ts";
 import { designOf, type DesignTerm } from "../linear/design.ts";
 import { fitLeastSquares } from "../linear/least_squares.ts";
@@ -225,8 +226,8 @@ export interface GapReport {
   proxyThreshold: number;
   /** How well the two ensembles did out of bag. */
   models: { trees: number; payR2Log: number; groupBalancedAccuracy: number };
-  /** Sentences about the method and the data. */
-  notes: string[];
+  /** What is withheld and how far to trust the adjusted gap, as data (the terminal words them). */
+  notes: GapNote[];
   /** Where the figures came from. */
   provenance: TableProvenance;
 }
@@ -271,21 +272,145 @@ export const GAP_CAUTIONS = "These figures describe the table as it is. A gap th
  * ```
  */
 export async function gapCheck(table: Table, options: GapOptions): Promise<GapReport> {
+  const settings = gapSettings(options);
+  // 1. Who is compared: people with pay and a group, groups large enough.
+  const who = comparedPeople(table, options, settings.privacyMin);
+  // 2. Residuals: pay and group membership each less what the factors predict.
+  const fit = await outOfBagResiduals(who, options, settings);
+  // 3. Figures: overall and per category, small categories suppressed, Holm across categories.
+  const shown = shownFigures(who, fit, settings);
+  const linearFit = shown.overallHidden
+    ? null
+    : linearGaps(fit.payDataset, fit.logPay, options.group, fit.groupCode, who.groups, CONFIDENCE);
+  const linear = linearFit?.gaps ?? null;
+  options.onProgress?.("proxies", 0, fit.payDataset.features.length);
+  const proxies = (await proxyFigures(
+    fit.payDataset.features,
+    fit.groupCode,
+    who.allGroups,
+    options.group,
+    { seed: settings.seed, minLeaf: settings.minLeaf, workers: options.workers },
+  )).filter((p) => p.balancedAccuracy >= settings.proxyThreshold);
+  options.onProgress?.("proxies", fit.payDataset.features.length, fit.payDataset.features.length);
+  const payR2Log = oobRSquared(fit.logPay, fit.payModel.oob);
+  // 4. Notes: what is withheld, and how far to trust the adjusted gap.
+  const notes = gapNotes(who, shown, settings, payR2Log, linear, fit.payDataset.rows);
+  const { seed } = settings;
+  return {
+    target: options.target,
+    currency: who.pay.money?.currency ?? null,
+    group: options.group,
+    reference: who.reference,
+    referenceReason: who.referenceReason,
+    groups: who.groups,
+    within: settings.within,
+    variable: options.variable ?? null,
+    threshold: settings.threshold,
+    materiality: settings.materiality,
+    privacyMin: settings.privacyMin,
+    confidence: CONFIDENCE,
+    rows: fit.payDataset.rows,
+    missingGroup: who.missingGroup,
+    leftOut: {
+      people: who.leftOutCounted ? who.otherGroupsLeftOut : null,
+      tooFew: who.tooFew,
+    },
+    overall: shown.overallHidden
+      ? { suppressed: true }
+      : { suppressed: false, rows: fit.payDataset.rows, gaps: shown.overallGaps },
+    quartiles: shown.overallHidden
+      ? null
+      : payQuartiles(who.payOf, who.groupName, settings.privacyMin),
+    regression: shown.regressions[0] ?? null,
+    regressions: shown.regressions,
+    linear,
+    linearAliased: linearFit?.aliased ?? [],
+    categories: shown.categories,
+    features: fit.payDataset.features.map((f) => f.name),
+    proxies,
+    proxyThreshold: settings.proxyThreshold,
+    models: {
+      trees: settings.trees,
+      payR2Log,
+      groupBalancedAccuracy: oobBalancedAccuracy(fit.groupModel, fit.groupCode),
+    },
+    notes,
+    provenance: who.leftOutCounted
+      ? tableProvenance(table, seed)
+      : withoutRowCount(tableProvenance(table, seed)),
+  };
+}
+
+/** Confidence level of every gap interval. */
+const CONFIDENCE = 0.95;
+
+/** The gap check's settings, checked, with their defaults. */
+interface GapSettings {
+  threshold: number;
+  materiality: number;
+  privacyMin: number;
+  proxyThreshold: number;
+  trees: number;
+  seed: number;
+  minLeaf: number;
+  within: string[];
+}
+
+function gapSettings(options: GapOptions): GapSettings {
   const threshold = options.threshold ?? 0.05;
   const materiality = options.materiality ?? 0.02;
   const privacyMin = checkedPrivacyMin(options.privacyMin);
-  const proxyThreshold = options.proxyThreshold ?? PROXY_THRESHOLD;
-  const trees = options.trees ?? 200;
-  const seed = options.seed ?? 1;
-  const confidence = 0.95;
-  const within = options.within ?? [];
   if (!(threshold >= 0 && threshold < 1)) {
     throw new OptionError(`--threshold must be between 0 and 1 (0.05 = 5%), got ${threshold}`);
   }
   if (!(materiality >= 0 && materiality < 1)) {
     throw new OptionError(`--materiality must be between 0 and 1 (0.02 = 2%), got ${materiality}`);
   }
+  return {
+    threshold,
+    materiality,
+    privacyMin,
+    proxyThreshold: options.proxyThreshold ?? PROXY_THRESHOLD,
+    trees: options.trees ?? 200,
+    seed: options.seed ?? 1,
+    minLeaf: Math.max(options.minLeaf ?? 5, 1),
+    within: options.within ?? [],
+  };
+}
 
+/** Stage 1's result: who is compared with whom. */
+interface ComparedPeople {
+  /** The pay column of the table after `where`. */
+  pay: NumericColumn;
+  /** The people compared, as a table. */
+  rowsTable: Table;
+  /** Their rows in the table after `where`. */
+  keep: number[];
+  /** The columns the categories come from. */
+  withinCols: ReturnType<typeof withinColumns>;
+  /** The variable-pay column, when asked. */
+  variable: NumericColumn | undefined;
+  reference: string;
+  referenceReason: string;
+  /** Groups with fewer than the privacy minimum: never compared. */
+  tooFew: string[];
+  /** People of groups not compared (not named, or too few). */
+  otherGroupsLeftOut: number;
+  /** Whether that number may be shown (none, or at least the privacy minimum). */
+  leftOutCounted: boolean;
+  /** Rows without a group. */
+  missingGroup: number;
+  /** Each compared person's pay and group name. */
+  payOf: Float64Array;
+  groupName: string[];
+  /** People per group. */
+  counts: Map<string, number>;
+  /** Groups compared with the reference, and all of them (the reference first). */
+  groups: string[];
+  allGroups: string[];
+}
+
+function comparedPeople(table: Table, options: GapOptions, privacyMin: number): ComparedPeople {
   const filtered = filterRows(table, options.where ?? {});
   const column = (name: string, option: string) => columnNamed(filtered, name, option);
   const pay = column(options.target, "--target");
@@ -299,7 +424,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
         `(declare it with --type ${options.group}=categorical if it holds codes)`,
     );
   }
-  const withinCols = withinColumns(filtered, within, [options.group, options.target]);
+  const withinCols = withinColumns(filtered, options.within ?? [], [options.group, options.target]);
   const variable = options.variable === undefined
     ? undefined
     : column(options.variable, "--variable");
@@ -365,7 +490,6 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       );
     }
   }
-  const leftOutCounted = otherGroupsLeftOut === 0 || otherGroupsLeftOut >= privacyMin;
   const rowsTable = subsetRows(filtered, keep, "people with pay and a group");
   const payOf = (rowsTable.columns.find((c) => c.name === options.target) as NumericColumn).values;
   const groupOf = rowsTable.columns.find((c) => c.name === options.group) as LevelColumn;
@@ -373,8 +497,50 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   const counts = new Map<string, number>();
   for (const g of groupName) counts.set(g, (counts.get(g) ?? 0) + 1);
   const groups = [...counts.keys()].filter((g) => g !== reference).sort();
-  const allGroups = [reference, ...groups];
+  return {
+    pay,
+    rowsTable,
+    keep,
+    withinCols,
+    variable: variable === undefined
+      ? undefined
+      : rowsTable.columns.find((c) => c.name === variable.name) as NumericColumn,
+    reference,
+    referenceReason,
+    tooFew,
+    otherGroupsLeftOut,
+    leftOutCounted: otherGroupsLeftOut === 0 || otherGroupsLeftOut >= privacyMin,
+    missingGroup,
+    payOf,
+    groupName,
+    counts,
+    groups,
+    allGroups: [reference, ...groups],
+  };
+}
 
+/** Stage 2's result: the two ensembles and their out-of-bag residuals. */
+interface Residuals {
+  /** The legitimate factors and log pay. */
+  payDataset: Dataset;
+  logPay: Float64Array;
+  /** Each person's group as its index in `allGroups`. */
+  groupCode: Int32Array;
+  payModel: Ensemble;
+  groupModel: Ensemble;
+  /** Log pay less its out-of-bag estimate. */
+  payResidual: Float64Array;
+  /** Per compared group: membership (0/1) less its out-of-bag share. */
+  groupResidual: Float64Array[];
+  /** Rows with an out-of-bag estimate in both models (rows every tree drew are left out). */
+  usable: boolean[];
+}
+
+async function outOfBagResiduals(
+  who: ComparedPeople,
+  options: GapOptions,
+  settings: GapSettings,
+): Promise<Residuals> {
   // The legitimate factors: never the group, the variable pay or the target.
   const drop = [...(options.drop ?? []), options.group];
   if (options.variable !== undefined) drop.push(options.variable);
@@ -383,7 +549,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       `--features: "${options.group}" is the group compared; it cannot adjust itself`,
     );
   }
-  const { encoded, dataset: payDataset } = payRows(rowsTable, {
+  const { encoded, dataset: payDataset } = payRows(who.rowsTable, {
     target: options.target,
     features: options.features,
     drop: options.features ? undefined : [...new Set(drop)].filter((d) => d !== options.target),
@@ -396,7 +562,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   }
   const logPay = payDataset.target.values as Float64Array;
   const n = payDataset.rows;
-  const minLeaf = Math.max(options.minLeaf ?? 5, 1);
+  const { trees, seed, minLeaf } = settings;
   // Both ensembles unpruned: the adjustment wants each tree's low bias, and
   // their out-of-bag averages do the smoothing.
   const unpruned = {
@@ -412,11 +578,16 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     ...unpruned,
     onProgress: (done, total) => options.onProgress?.("pay model", done, total),
   })).ensemble!;
-  const groupCode = Int32Array.from(groupName, (g) => allGroups.indexOf(g));
+  const groupCode = Int32Array.from(who.groupName, (g) => who.allGroups.indexOf(g));
   const groupDataset: Dataset = {
     rows: n,
     features: payDataset.features,
-    target: { kind: "classification", name: options.group, classes: allGroups, values: groupCode },
+    target: {
+      kind: "classification",
+      name: options.group,
+      classes: who.allGroups,
+      values: groupCode,
+    },
   };
   options.onProgress?.("group model", 0, trees);
   const groupModel = (await fitDefaultEnsemble(groupDataset, {
@@ -424,27 +595,50 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     onProgress: (done, total) => options.onProgress?.("group model", done, total),
   })).ensemble!;
 
-  // Out-of-bag residuals; rows every tree drew (rare) are left out of the adjustment.
   const payResidual = new Float64Array(n);
-  const groupResidual = groups.map(() => new Float64Array(n));
+  const groupResidual = who.groups.map(() => new Float64Array(n));
   const usable: boolean[] = [];
-  const width = allGroups.length;
+  const width = who.allGroups.length;
   for (let r = 0; r < n; r++) {
     const ok = payModel.oobTrees[r] > 0 && groupModel.oobTrees[r] > 0;
     usable.push(ok);
     payResidual[r] = logPay[r] - payModel.oob[r];
-    groups.forEach((_, j) => {
+    who.groups.forEach((_, j) => {
       groupResidual[j][r] = (groupCode[r] === j + 1 ? 1 : 0) - groupModel.oob[r * width + j + 1];
     });
   }
+  return {
+    payDataset,
+    logPay,
+    groupCode,
+    payModel,
+    groupModel,
+    payResidual,
+    groupResidual,
+    usable,
+  };
+}
 
+/** Stage 3's result: the figures shown, and what is withheld. */
+interface ShownFigures {
+  overallHidden: boolean;
+  overallGaps: GapFigure[];
+  categories: GapCategory[];
+  regressions: GapRegression[];
+  categoryNames: string[];
+  /** People of each group (allGroups order) per category. */
+  countsPer: number[][];
+  suppression: Suppression;
+}
+
+function shownFigures(who: ComparedPeople, fit: Residuals, settings: GapSettings): ShownFigures {
+  const { groups, allGroups, groupName, reference, payOf } = who;
+  const { privacyMin, threshold, materiality } = settings;
+  const n = fit.payDataset.rows;
   // Categories: each combination of the within columns' levels that occurs.
-  const { names: categoryNames, members: categoryRows } = categoriesOf(withinCols, keep);
+  const { names: categoryNames, members: categoryRows } = categoriesOf(who.withinCols, who.keep);
   const allRows = Array.from({ length: n }, (_, r) => r);
-
-  const variableOf = variable === undefined
-    ? undefined
-    : (rowsTable.columns.find((c) => c.name === variable.name) as NumericColumn).values;
+  const variableOf = who.variable?.values;
 
   const figures = (rows: number[]): GapFigure[] => {
     const raw = rawGaps(
@@ -456,16 +650,16 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       ? []
       : variableGaps(rows, variableOf, groupName, reference, privacyMin);
     const fitted = residualRegression(
-      payResidual,
-      groupResidual,
-      rows.filter((r) => usable[r]),
+      fit.payResidual,
+      fit.groupResidual,
+      rows.filter((r) => fit.usable[r]),
     );
     return groups.map((g, j) => {
       const rawOne = raw.find((x) => x.group === g)!;
       const referenceRows = rows.filter((r) => groupName[r] === reference).length;
       const coefficient = fitted?.[j];
       const interval = coefficient
-        ? gapFromCoefficient(coefficient.coefficient, coefficient.se, confidence)
+        ? gapFromCoefficient(coefficient.coefficient, coefficient.se, CONFIDENCE)
         : null;
       const v = variableRaw.find((x) => x.group === g);
       return {
@@ -486,7 +680,14 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
         se: coefficient?.se ?? null,
         p: coefficient?.p ?? null,
         pAdjusted: coefficient?.p ?? null,
-        residualDifference: residualDifference(rows, usable, payResidual, groupName, g, reference),
+        residualDifference: residualDifference(
+          rows,
+          fit.usable,
+          fit.payResidual,
+          groupName,
+          g,
+          reference,
+        ),
         rawFlag: Math.abs(rawOne.meanGap) >= threshold,
         unexplainedFlag: false,
       };
@@ -501,9 +702,9 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   const countsPer = categoryRows.map((rows) =>
     allGroups.map((g) => rows.filter((r) => groupName[r] === g).length)
   );
-  const suppression = withinCols.length > 0
+  const suppression = who.withinCols.length > 0
     ? suppressSmallGroups(countsPer, privacyMin)
-    : suppressSmallGroups([allGroups.map((g) => counts.get(g)!)], privacyMin);
+    : suppressSmallGroups([allGroups.map((g) => who.counts.get(g)!)], privacyMin);
 
   const overallHidden = suppression.overallHidden;
   const overallGaps = overallHidden ? [] : figures(allRows);
@@ -516,12 +717,12 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       gaps: figures(categoryRows[c]),
     }
   );
-  // Holm across every figure shown per category.
+  // Holm across every figure shown per category; intervals at the family-wise level.
   const shown = categories.flatMap((c) => (c.suppressed ? [] : c.gaps.filter((g) => g.p !== null)));
   const adjusted = holmAdjust(shown.map((g) => g.p!));
   shown.forEach((g, i) => {
     g.pAdjusted = adjusted[i];
-    const family = gapFromCoefficient(g.coefficient!, g.se!, 1 - (1 - confidence) / shown.length);
+    const family = gapFromCoefficient(g.coefficient!, g.se!, 1 - (1 - CONFIDENCE) / shown.length);
     g.familyLow = family.low;
     g.familyHigh = family.high;
     g.family = shown.length;
@@ -542,111 +743,105 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
         p: f.p!,
       }]
     );
-  const notes: string[] = [];
-  const linearFit = overallHidden
-    ? null
-    : linearGaps(payDataset, logPay, options.group, groupCode, groups, confidence);
-  const linear = linearFit?.gaps ?? null;
-
-  options.onProgress?.("proxies", 0, payDataset.features.length);
-  const proxies = (await proxyFigures(payDataset.features, groupCode, allGroups, options.group, {
-    seed,
-    minLeaf,
-    workers: options.workers,
-  })).filter((p) => p.balancedAccuracy >= proxyThreshold);
-  options.onProgress?.("proxies", payDataset.features.length, payDataset.features.length);
-
-  if (tooFew.length > 0) {
-    notes.push(
-      `${tooFew.join(", ")}: too few to report (fewer than ${privacyMin} people each), so never ` +
-        `compared; no figure here tells how many they are.`,
-    );
-  }
-  if (otherGroupsLeftOut > 0 && leftOutCounted) {
-    notes.push(
-      `${otherGroupsLeftOut} people of other groups than ${allGroups.join(" and ")} are left ` +
-        `out of this comparison.`,
-    );
-  }
-  const hiddenCount = suppression.hidden.filter(Boolean).length;
-  if (hiddenCount > 0 && withinCols.length > 0) {
-    notes.push(...suppressionNotes(categoryNames, countsPer, allGroups, suppression, privacyMin));
-  }
-  if (overallHidden) {
-    notes.push(
-      `The overall figures are withheld: a group has fewer than ${privacyMin} people, or the ` +
-        `hidden categories could be worked out from them.`,
-    );
-  }
-  const payR2Log = oobRSquared(logPay, payModel.oob);
-  if (payR2Log < WEAK_MODEL_R2 || n < FEW_PEOPLE) {
-    const linearText = linear?.[0]
-      ? ` Compare the linear version (${(100 * linear[0].gap).toFixed(1)}% for ${linear[0].group}).`
-      : "";
-    notes.unshift(
-      `Take the adjusted gap with care: ` +
-        (n < FEW_PEOPLE ? `only ${n} people` : "") +
-        (n < FEW_PEOPLE && payR2Log < WEAK_MODEL_R2 ? ", and " : "") +
-        (payR2Log < WEAK_MODEL_R2
-          ? `the other factors explain only ${(100 * Math.max(0, payR2Log)).toFixed(0)}% of the ` +
-            `spread of log pay out of bag`
-          : "") +
-        `, so the adjusted gap is fragile: it moves with what the trees get wrong.` +
-        linearText,
-    );
-  }
-  if (variable !== undefined && !variable.money && !isPayName(variable.name)) {
-    notes.push(
-      `"${variable.name}" does not look like pay (no currency, not named like pay); it is gapped ` +
-        `as variable pay all the same, and left out of the factors.`,
-    );
-  } else if (variable !== undefined) {
-    notes.push(`The variable pay "${variable.name}" is not one of the factors.`);
-  }
-  notes.push(
-    "The residual difference compares the groups' average out-of-bag pay residuals from the " +
-      "pay model alone; it tends to understate the gap when a group is concentrated in some " +
-      "levels or families, because the pay model then learns part of the gap as the level's.",
-  );
-
   return {
-    target: options.target,
-    currency: pay.money?.currency ?? null,
-    group: options.group,
-    reference,
-    referenceReason,
-    groups,
-    within,
-    variable: options.variable ?? null,
-    threshold,
-    materiality,
-    privacyMin,
-    confidence,
-    rows: n,
-    missingGroup,
-    leftOut: { people: leftOutCounted ? otherGroupsLeftOut : null, tooFew },
-    overall: overallHidden
-      ? { suppressed: true }
-      : { suppressed: false, rows: n, gaps: overallGaps },
-    quartiles: overallHidden ? null : payQuartiles(payOf, groupName, privacyMin),
-    regression: regressions[0] ?? null,
-    regressions,
-    linear,
-    linearAliased: linearFit?.aliased ?? [],
+    overallHidden,
+    overallGaps,
     categories,
-    features: payDataset.features.map((f) => f.name),
-    proxies,
-    proxyThreshold,
-    models: {
-      trees,
-      payR2Log,
-      groupBalancedAccuracy: oobBalancedAccuracy(groupModel, groupCode),
-    },
-    notes,
-    provenance: leftOutCounted
-      ? tableProvenance(table, seed)
-      : withoutRowCount(tableProvenance(table, seed)),
+    regressions,
+    categoryNames,
+    countsPer,
+    suppression,
   };
+}
+
+/**
+ * What the gap report says besides its figures, as data; the terminal
+ * words each kind.
+ */
+export type GapNote =
+  /** The adjusted gap is fragile: few people, or factors that explain little. */
+  | {
+    kind: "fragileAdjustment";
+    /** People analysed, when fewer than {@linkcode FEW_PEOPLE} (else null). */
+    people: number | null;
+    /** Out-of-bag R² of log pay, when below {@linkcode WEAK_MODEL_R2} (else null). */
+    r2: number | null;
+    /** The linear version's first figure, to compare with. */
+    linear: { group: string; gap: number } | null;
+  }
+  /** Groups of fewer than the privacy minimum, never compared. */
+  | { kind: "groupsTooFew"; groups: string[]; privacyMin: number }
+  /** People of other groups left out of the comparison. */
+  | { kind: "otherGroupsLeftOut"; people: number; compared: string[] }
+  /** Categories where a group is too small; the other groups it could be left out for. */
+  | {
+    kind: "categoriesTooFew";
+    group: string;
+    categories: string[];
+    privacyMin: number;
+    /** The groups to compare instead so those categories show (null: none would help). */
+    compareInstead: string[] | null;
+  }
+  /** Categories withheld so that the hidden ones cannot be worked out. */
+  | { kind: "complementaryWithheld"; categories: string[] }
+  /** The overall figures are withheld. */
+  | { kind: "overallWithheld"; privacyMin: number }
+  /** The variable-pay column does not look like pay. */
+  | { kind: "variableNotPay"; column: string }
+  /** The variable-pay column is not a factor. */
+  | { kind: "variableNotFactor"; column: string }
+  /** How the residual difference reads (always said). */
+  | { kind: "residualDifference" };
+
+function gapNotes(
+  who: ComparedPeople,
+  shown: ShownFigures,
+  settings: GapSettings,
+  payR2Log: number,
+  linear: GapRegression[] | null,
+  n: number,
+): GapNote[] {
+  const { privacyMin } = settings;
+  const notes: GapNote[] = [];
+  if (payR2Log < WEAK_MODEL_R2 || n < FEW_PEOPLE) {
+    notes.push({
+      kind: "fragileAdjustment",
+      people: n < FEW_PEOPLE ? n : null,
+      r2: payR2Log < WEAK_MODEL_R2 ? payR2Log : null,
+      linear: linear?.[0] ? { group: linear[0].group, gap: linear[0].gap } : null,
+    });
+  }
+  if (who.tooFew.length > 0) {
+    notes.push({ kind: "groupsTooFew", groups: who.tooFew, privacyMin });
+  }
+  if (who.otherGroupsLeftOut > 0 && who.leftOutCounted) {
+    notes.push({
+      kind: "otherGroupsLeftOut",
+      people: who.otherGroupsLeftOut,
+      compared: who.allGroups,
+    });
+  }
+  const hiddenCount = shown.suppression.hidden.filter(Boolean).length;
+  if (hiddenCount > 0 && who.withinCols.length > 0) {
+    notes.push(
+      ...suppressionNotes(
+        shown.categoryNames,
+        shown.countsPer,
+        who.allGroups,
+        shown.suppression,
+        privacyMin,
+      ),
+    );
+  }
+  if (shown.overallHidden) notes.push({ kind: "overallWithheld", privacyMin });
+  const variable = who.variable;
+  if (variable !== undefined && !variable.money && !isPayName(variable.name)) {
+    notes.push({ kind: "variableNotPay", column: variable.name });
+  } else if (variable !== undefined) {
+    notes.push({ kind: "variableNotFactor", column: variable.name });
+  }
+  notes.push({ kind: "residualDifference" });
+  return notes;
 }
 
 // The table's row count, less everyone analysed and counted, would be the
@@ -702,8 +897,8 @@ function suppressionNotes(
   groups: string[],
   suppression: Suppression,
   minimum: number,
-): string[] {
-  const notes: string[] = [];
+): GapNote[] {
+  const notes: GapNote[] = [];
   const smallIn = new Map<string, string[]>();
   names.forEach((name, c) => {
     if (!suppression.primary[c]) return;
@@ -713,21 +908,17 @@ function suppressionNotes(
   });
   for (const [g, where] of smallIn) {
     const others = groups.slice(1).filter((x) => x !== g && !smallIn.has(x));
-    notes.push(
-      `Too few to report: ${where.join(", ")}, where ${g} has fewer than ${minimum} people` +
-        (g !== groups[0] && others.length > 0
-          ? `; leave ${g} out of the comparison (--groups ${others.join(",")}) to see them.`
-          : "."),
-    );
+    notes.push({
+      kind: "categoriesTooFew",
+      group: g,
+      categories: where,
+      privacyMin: minimum,
+      compareInstead: g !== groups[0] && others.length > 0 ? others : null,
+    });
   }
   const complementary = names.filter((_, c) => suppression.hidden[c] && !suppression.primary[c]);
   if (complementary.length > 0) {
-    notes.push(
-      `Also withheld: ${
-        complementary.join(", ")
-      }, so that the hidden categories cannot be worked ` +
-        `out by subtracting the shown ones from the overall figures.`,
-    );
+    notes.push({ kind: "complementaryWithheld", categories: complementary });
   }
   return notes;
 }

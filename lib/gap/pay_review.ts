@@ -93,6 +93,17 @@ export type ReviewCategory =
   | { name: string; suppressed: true }
   | { name: string; suppressed: false; people: number; under: number; over: number; cost: number };
 
+/** What the review says besides its figures, as data; the terminal words each kind. */
+export type ReviewNote =
+  /** Categories too small to report, and those withheld so they cannot be worked out. */
+  | { kind: "categoriesTooFew"; categories: string[]; privacyMin: number; alsoWithheld: string[] }
+  /**
+   * The ranges rest on little: fewer than {@linkcode FEW_PEOPLE} people
+   * (`people`, else null), or an out-of-bag R² of log pay below
+   * {@linkcode WEAK_MODEL_R2} (`r2` is always given).
+   */
+  | { kind: "fragileRanges"; people: number | null; r2: number };
+
 /** Everything `paygrove review` reports. */
 export interface PayReview {
   /** The pay column. */
@@ -119,8 +130,8 @@ export interface PayReview {
   privacyMin: number;
   /** Out-of-bag R^2 of log pay. */
   oobR2Log: number;
-  /** Sentences about what is withheld and how far to trust the ranges. */
-  notes: string[];
+  /** What is withheld and how far to trust the ranges, as data (the terminal words them). */
+  notes: ReviewNote[];
   /** Where the figures came from. */
   provenance: TableProvenance;
 }
@@ -251,25 +262,23 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
       : { name, suppressed: false as const, ...summary(members[c]) }
   );
   const oobR2Log = oobRSquared(logPay, oob);
-  const notes: string[] = [];
+  const notes: ReviewNote[] = [];
   const primary = names.filter((_, c) => suppression.primary[c]);
   const complementary = names.filter((_, c) => suppression.hidden[c] && !suppression.primary[c]);
   if (primary.length > 0) {
-    notes.push(
-      `Too few to report: ${primary.join(", ")} (fewer than ${privacyMin} people)` +
-        (complementary.length > 0
-          ? `; also withheld: ${complementary.join(", ")}, so that those cannot be worked out ` +
-            `from the totals.`
-          : "."),
-    );
+    notes.push({
+      kind: "categoriesTooFew",
+      categories: primary,
+      privacyMin,
+      alsoWithheld: complementary,
+    });
   }
   if (oobR2Log < WEAK_MODEL_R2 || dataset.rows < FEW_PEOPLE) {
-    notes.push(
-      `Take the ranges with care: ` +
-        (dataset.rows < FEW_PEOPLE ? `only ${dataset.rows} people, ` : "") +
-        `and the factors explain ${(100 * Math.max(0, oobR2Log)).toFixed(0)}% of the spread ` +
-        `of log pay out of bag; ranges are then wide, and who falls outside them says little.`,
-    );
+    notes.push({
+      kind: "fragileRanges",
+      people: dataset.rows < FEW_PEOPLE ? dataset.rows : null,
+      r2: oobR2Log,
+    });
   }
   return {
     target: options.target,

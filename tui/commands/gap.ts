@@ -18,6 +18,7 @@ import {
 import { progressBar } from "../progress.ts";
 import { gapMarkdown, renderGap } from "../render/gap_view.ts";
 import { printTableAnswer } from "../render/cautions.ts";
+import { gapJson } from "../render/report_notes.ts";
 import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
@@ -161,7 +162,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       const view = { ...check, numbers };
       // Everything the screen says about the data is in the JSON too.
       const doc = {
-        ...report,
+        ...gapJson(report),
         leftOutImplausible: leftOutJson(leftOut),
         dataWarnings: table.warnings,
       };

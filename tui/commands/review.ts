@@ -18,6 +18,7 @@ import {
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { printTableAnswer } from "../render/cautions.ts";
+import { reviewJson } from "../render/report_notes.ts";
 import type { Terminal } from "../terminal.ts";
 import { cappedWorkers } from "../workers.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
@@ -135,7 +136,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       const check = { style: terminal.style, width: terminal.width };
       // Everything the screen says about the data is in the JSON too.
       const doc = {
-        ...review,
+        ...reviewJson(review),
         leftOutImplausible: leftOutJson(leftOut),
         dataWarnings: table.warnings,
       };

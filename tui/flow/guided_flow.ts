@@ -55,6 +55,7 @@ import { progressBar } from "../progress.ts";
 import { fitResult, renderCompare, renderOffer, renderSweep } from "../render/answer_view.ts";
 import { cautionLines } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalGuard, terminalText } from "../render/safe_text.ts";
+import { gapJson } from "../render/report_notes.ts";
 import { gapMarkdown } from "../render/gap_view.ts";
 import { inShort, moneyStyle, renderModelSummary } from "../render/model_view.ts";
 import { formatNumber, formatPay, type NumberStyle } from "../render/numbers.ts";
@@ -832,7 +833,7 @@ async function writeReport(
   const json = {
     ...reportJson(model, scenarios, whatIfs),
     leftOutImplausible: leftOutJson(leftOut ? [leftOut] : []),
-    ...(gap ? { gap } : {}),
+    ...(gap ? { gap: gapJson(gap) } : {}),
   };
   await writeFileAtomic(path, markdown, { force, option: "report" });
   await writeFileAtomic(jsonPath, jsonText(json), { force, option: "report" });

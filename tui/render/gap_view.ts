@@ -22,6 +22,7 @@ import { isAscii } from "./glyphs.ts";
 import { fitTable, leftOutNote } from "./fit_table.ts";
 import { linearVersionSentence } from "./aliased_terms.ts";
 import { forMarkdown } from "./safe_text.ts";
+import { gapNoteText } from "./report_notes.ts";
 
 /** How a gap report is drawn. */
 export interface GapView {
@@ -391,8 +392,8 @@ export function renderGap(report: GapReport, view: GapView): string[] {
   );
   for (const note of report.notes) {
     // Brief: only what changes how to read the figures shown.
-    if (brief && /^The residual difference/.test(note)) continue;
-    lines.push(...wrap(style.dim(note)));
+    if (brief && note.kind === "residualDifference") continue;
+    lines.push(...wrap(style.dim(gapNoteText(note))));
   }
   if (!brief) lines.push(...wrap(style.dim("Sources: " + GAP_SOURCES.join(" "))));
   return lines;
@@ -532,7 +533,14 @@ export function gapMarkdown(data: GapReport, numbers: NumberStyle, created: stri
       `${report.models.groupBalancedAccuracy.toFixed(2)}.`,
     "",
   );
-  if (report.notes.length) md.push("## Notes", "", ...report.notes.map((n) => `- ${n}`), "");
+  if (report.notes.length) {
+    md.push(
+      "## Notes",
+      "",
+      ...report.notes.map((n) => `- ${gapNoteText(n)}`),
+      "",
+    );
+  }
   md.push("## Sources", "", ...GAP_SOURCES.map((s) => `- ${s}`), "");
   const p = report.provenance;
   md.push(

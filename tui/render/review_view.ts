@@ -12,6 +12,7 @@ import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numb
 import type { Style } from "./style.ts";
 import { fitTable, leftOutNote } from "./fit_table.ts";
 import { csvCell } from "./safe_text.ts";
+import { reviewNoteText } from "./report_notes.ts";
 
 /** How many people under and over range the text output lists. */
 export const REVIEW_LISTED = 10;
@@ -174,7 +175,7 @@ export function renderReview(
     .sort((a, b) => (b.position ?? -Infinity) - (a.position ?? -Infinity));
   listed("Furthest under their range, by position (0% = the range's low end)", under);
   listed("Furthest over their range, by position (100% = the range's high end)", over);
-  for (const note of review.notes) lines.push(...wrap(style.warn(note)));
+  for (const note of review.notes) lines.push(...wrap(style.warn(reviewNoteText(note))));
   const missing = review.people.filter((p) => p.status === null).length;
   if (missing > 0) {
     lines.push(
