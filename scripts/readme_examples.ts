@@ -34,13 +34,18 @@ function argsOf(command: string): string[] {
   return words.slice(start);
 }
 
+// The exit status of the last command run (for a `$ echo $?` line).
+let lastStatus = 0;
+
 async function capture(args: string[], width: number): Promise<string[]> {
   const terminal = recordingTerminal(width);
   const cwd = Deno.cwd();
   Deno.chdir(work);
   try {
     const status = await run(args, terminal);
-    if (status !== 0) {
+    lastStatus = status;
+    // 3 is batch's documented "some rows refused".
+    if (status !== 0 && status !== 3) {
       throw new Error(
         `paygrove ${args.join(" ")} ended with ${status}: ${terminal.stderr.join("")}`,
       );
@@ -48,7 +53,24 @@ async function capture(args: string[], width: number): Promise<string[]> {
   } finally {
     Deno.chdir(cwd);
   }
-  return terminal.stdout.join("").replace(/\n$/, "").split("\n");
+  // A command whose answer goes to a file shows what it said on stderr.
+  const stdout = terminal.stdout.join("");
+  const shown = stdout !== "" ? stdout : terminal.stderr.join("");
+  return shown.replace(/\n$/, "").split("\n");
+}
+
+// `$ echo $?` and `$ cat FILE` after a command: the status and the file it wrote.
+async function shellLine(command: string): Promise<string[] | null> {
+  if (command === "echo $?") return [String(lastStatus)];
+  const cat = /^cat (\S+)$/.exec(command);
+  if (cat) {
+    try {
+      return (await Deno.readTextFile(`${work}/${cat[1]}`)).replace(/\n$/, "").split("\n");
+    } catch {
+      return null; // a file the README made by hand (candidates.csv is kept as it is)
+    }
+  }
+  return null;
 }
 
 const lines = readme.split("\n");
@@ -58,6 +80,21 @@ for (let i = 0; i < lines.length; i++) {
   const line = lines[i];
   if (!/^\$ (deno task )?paygrove /.test(line)) {
     out.push(line);
+    const shell = /^\$ (.*)$/.exec(line);
+    const fresh = shell && !shell[1].startsWith("cat candidates")
+      ? await shellLine(shell[1])
+      : null;
+    if (fresh !== null) {
+      const old: string[] = [];
+      while (i + 1 < lines.length && lines[i + 1] !== "```" && !lines[i + 1].startsWith("$ ")) {
+        old.push(lines[++i]);
+      }
+      if (fresh.join("\n") !== old.join("\n")) {
+        changed++;
+        console.log(`${check ? "would change" : "recaptured"}: ${line.slice(2, 72)}`);
+      }
+      out.push(...fresh);
+    }
     continue;
   }
   // The command, with its continuation lines.

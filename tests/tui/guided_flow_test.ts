@@ -78,7 +78,7 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
   assert.ok(screen.includes(`${pay(first.estimate)}`), pay(first.estimate));
   assert.ok(
     screen.includes(
-      `typical pay, 90% sure  ${pay(first.confidence!.low)} - ${pay(first.confidence!.high)}`,
+      `median pay, 90% sure   ${pay(first.confidence!.low)} - ${pay(first.confidence!.high)}`,
     ),
   );
   assert.ok(
@@ -96,7 +96,7 @@ Deno.test("demo data, fit, typical person, promote one level, keep, undo, quit",
   const afterPromotion = screen.slice(screen.indexOf(line));
   assert.ok(
     afterPromotion.includes(
-      `Estimate of base_pay_eur: ${pay(first.estimate)} a year (typical pay)`,
+      `Estimate of base_pay_eur: ${pay(first.estimate)} a year (median pay of people like this)`,
     ),
   );
   // The report holds the kept scenario with the promoted estimate.

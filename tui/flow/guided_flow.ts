@@ -52,7 +52,13 @@ import {
   writeModelFile,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
-import { fitResult, renderCompare, renderOffer, renderSweep } from "../render/answer_view.ts";
+import {
+  fitResult,
+  renderCompare,
+  renderOffer,
+  renderSweep,
+  sureOfWhat,
+} from "../render/answer_view.ts";
 import { cautionLines } from "../render/cautions.ts";
 import { forTerminal, jsonText, terminalGuard, terminalText } from "../render/safe_text.ts";
 import { gapJson } from "../render/report_notes.ts";
@@ -714,7 +720,7 @@ function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO):
   ]);
   rows.push(["estimate", ...shown.map((s) => pay(s.answer.estimate))]);
   rows.push([
-    "typical pay, 90% sure",
+    `${sureOfWhat(shown[0].answer)}, 90% sure`,
     ...shown.map((s) =>
       s.answer.confidence ? `${pay(s.answer.confidence.low)}-${pay(s.answer.confidence.high)}` : "-"
     ),

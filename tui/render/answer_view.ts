@@ -69,6 +69,22 @@ const WHAT_IS_SURE: Record<"median" | "geometric-mean" | "mean", string> = {
   mean: "mean pay",
 };
 
+/**
+ * What the "how sure" interval locates, in two words for table headings
+ * and labels ("median pay" for an estimate shifted to a measured median).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { sureOfWhat } from "./answer_view.ts";
+ * assert.equal(sureOfWhat({ center: { kind: "median" } }), "median pay");
+ * assert.equal(sureOfWhat({ center: null }), "mean pay");
+ * ```
+ */
+export function sureOfWhat(answer: { center: { kind: keyof typeof WHAT_IS_SURE } | null }): string {
+  return WHAT_IS_SURE[answer.center?.kind ?? "mean"];
+}
+
 // Mean pay beside a median estimate, where pay is skewed enough to matter
 // (a gap of at least 0.5%).
 function meanPayLines(
@@ -409,7 +425,7 @@ function compareLines(
   // Narrow terminals: "how sure" goes first, then the range; then a list.
   const table = fitTable({
     width: options.width,
-    head: ["", "estimate", `typical pay, ${pct} sure`, `one person, ${pct} range`],
+    head: ["", "estimate", `${sureOfWhat(answer.base)}, ${pct} sure`, `one person, ${pct} range`],
     rows: compared,
     drop: [2],
     styleHead: style.bold,
@@ -681,7 +697,7 @@ export function fitResult(
   const pay = (x: number) => formatPay(x, money);
   const wrap = (text: string, indent = "") =>
     wrapAnsi(text, options.width - indent.length).split("\n").map((l) => indent + l);
-  const what = answer.target.scale === "log" ? "typical pay" : "mean pay";
+  const what = ESTIMATE_WORDS[answer.center?.kind ?? "mean"];
   const period = answer.target.period ? ` ${PERIOD[answer.target.period]}` : "";
   const max = options.maxLines ?? Infinity;
   const head = wrap(
@@ -714,7 +730,7 @@ export function fitResult(
     intervals.push(
       // Labels that say what each band is about, in place of a legend
       // (the trees' line last: the first line a short screen leaves out).
-      `  ${`typical pay, ${pct} sure`.padEnd(21)}  ${a.padEnd(width)}  ${sure}`,
+      `  ${`${sureOfWhat(answer)}, ${pct} sure`.padEnd(21)}  ${a.padEnd(width)}  ${sure}`,
       `  ${`one person, ${pct} range`.padEnd(21)}  ${b.padEnd(width)}  ${range}`,
       `  ${`the ${answer.trees.length} trees`.padEnd(21)}  ${low} ` +
         `${sparkline(answer.trees, bins)} ${high}`,
