@@ -9,12 +9,13 @@ import {
   fitModel,
   gapCheck,
   loadTable,
+  offeredLevers,
   openModel,
   readModelFile,
   typicalProfile,
   writeModelFile,
 } from "../../mod.ts";
-import { DEMO_READ, guidedFlow, levers } from "../../tui/flow/guided_flow.ts";
+import { DEMO_READ, guidedFlow } from "../../tui/flow/guided_flow.ts";
 import { formatPay, formatPercent } from "../../tui/render/numbers.ts";
 import { setAscii } from "../../tui/render/glyphs.ts";
 import { flowDriver, KEY } from "./_flow_driver.ts";
@@ -350,7 +351,7 @@ Deno.test("a protected attribute is never a what-if lever, even in a model fitte
     trees: 5,
     workers: 1,
   });
-  const names = levers(withGender).map((i) => withGender.features[i].name);
+  const names = offeredLevers(withGender).map((i) => withGender.features[i].name);
   assert.deepEqual(names.sort(), ["job_family", "level"]);
   assert.ok(withGender.features.some((f) => f.name === "gender" && f.protected));
 });

@@ -12,7 +12,8 @@ import type { Terminal } from "../terminal.ts";
 import { localeTag, readOverrides, withReadFlags } from "../table_flags.ts";
 import { MAX_TREES, wholeNumber } from "../option_values.ts";
 import { streamFlowIO } from "./flow_io.ts";
-import { guidedFlow, reportJsonPath } from "./guided_flow.ts";
+import { guidedFlow } from "./guided_flow.ts";
+import { reportJsonPath } from "./save_step.ts";
 import { setAscii } from "../render/glyphs.ts";
 import { listenForStop } from "../stop_signals.ts";
 

@@ -1,0 +1,130 @@
+/**
+ * Saving the model and the session report (Markdown and JSON) from the
+ * flow, never over a file without asking.
+ *
+ * @module
+ */
+
+import { existsSync } from "node:fs";
+import {
+  type CompareAnswer,
+  type GapReport,
+  type ImplausiblePay,
+  type Model,
+  writeFileAtomic,
+  writeModelFile,
+} from "../../mod.ts";
+import { jsonText, terminalText } from "../render/safe_text.ts";
+import { gapJson } from "../render/report_notes.ts";
+import { gapMarkdown } from "../render/gap_view.ts";
+import { moneyStyle } from "../render/model_view.ts";
+import type { FlowIO } from "./flow_io.ts";
+import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
+import { leftOutJson, leftOutSentence } from "../data_check.ts";
+import type { SessionOptions } from "./guided_flow.ts";
+
+/** Asks where to save the model and the report, and writes them (never over a file unasked). */
+export async function save(
+  io: FlowIO,
+  model: Model,
+  scenarios: Scenario[],
+  whatIfs: CompareAnswer[],
+  options: SessionOptions,
+) {
+  const path = await io.ask("Save the model as:", { default: "paygrove-model.json" });
+  let force = false;
+  if (existsSync(path)) {
+    force = await io.choose(`${path} exists. Replace it?`, [
+      { name: "No, keep it", value: false },
+      { name: "Yes, replace it", value: true },
+    ]);
+    if (!force) return;
+  }
+  const { bytes } = await writeModelFile(path, model, force, "save");
+  io.say(
+    io.style.dim(`Saved the model to ${terminalText(path)} (${(bytes / 1e6).toFixed(1)} MB).`),
+  );
+  if (options.report !== undefined) {
+    await writeReport(
+      io,
+      model,
+      scenarios,
+      whatIfs,
+      options.report,
+      options.gap,
+      options.leftOut,
+      (options.force ?? false) || options.written.has(options.report),
+    );
+    options.written.add(options.report);
+    return;
+  }
+  const report = await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
+    default: "paygrove-report.md",
+    validate: (text) =>
+      text.trim().endsWith(".md") ? true : "A report's name ends in .md (the .json goes beside it)",
+  });
+  // Neither the report nor the .json beside it replaces a file unasked.
+  const taken = [report.trim(), reportJsonPath(report.trim())].filter((p) => existsSync(p));
+  let replace = false;
+  if (taken.length > 0) {
+    replace = await io.choose(`${taken.map(terminalText).join(" and ")} exist. Replace?`, [
+      { name: "No, keep them", value: false },
+      { name: "Yes, replace them", value: true },
+    ]);
+    if (!replace) return;
+  }
+  await writeReport(
+    io,
+    model,
+    scenarios,
+    whatIfs,
+    report.trim(),
+    options.gap,
+    options.leftOut,
+    replace,
+  );
+  options.written.add(report.trim());
+}
+
+/**
+ * The .json written beside a Markdown report.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { reportJsonPath } from "./save_step.ts";
+ * assert.equal(reportJsonPath("out/session.md"), "out/session.json");
+ * ```
+ */
+export function reportJsonPath(path: string): string {
+  return path.replace(/\.md$/, "") + ".json";
+}
+
+/** Writes the session report (Markdown, and JSON beside it) and says where. */
+export async function writeReport(
+  io: FlowIO,
+  model: Model,
+  scenarios: Scenario[],
+  whatIfs: CompareAnswer[],
+  path: string,
+  gap: GapReport | null,
+  leftOut: ImplausiblePay | null,
+  force: boolean,
+) {
+  const jsonPath = reportJsonPath(path);
+  // The gap check, when one was run in the session, follows the scenarios.
+  // Rows left out for implausible pay are said right after the scenarios.
+  const markdown = reportMarkdown(model, scenarios, whatIfs) +
+    (leftOut ? `${leftOutSentence(leftOut, ", as you chose")}\n` : "") +
+    (gap ? "\n" + gapMarkdown(gap, moneyStyle(model, {}), new Date().toISOString()) : "");
+  const json = {
+    ...reportJson(model, scenarios, whatIfs),
+    leftOutImplausible: leftOutJson(leftOut ? [leftOut] : []),
+    ...(gap ? { gap: gapJson(gap) } : {}),
+  };
+  await writeFileAtomic(path, markdown, { force, option: "report" });
+  await writeFileAtomic(jsonPath, jsonText(json), { force, option: "report" });
+  io.say(
+    io.style.dim(`Wrote the report to ${terminalText(path)} and ${terminalText(jsonPath)}.`),
+  );
+}
