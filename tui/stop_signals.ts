@@ -17,6 +17,9 @@ export const STOP_SIGNALS = [
   { signal: "SIGHUP", number: 1, name: "SIGHUP" },
 ] as const;
 
+/** How long stopping to listen waits for a signal already sent (milliseconds). */
+export const SIGNAL_WAIT_MS = 25;
+
 /**
  * Listens for the stop signals: on one, removes the pending temporary
  * files, calls `say` with the signal's name (a failure to say it, as on a
@@ -60,7 +63,10 @@ export function listenForStop(
     }
   }
   return async () => {
-    await new Promise((resolve) => setTimeout(resolve, 0));
+    // A timer of 0 ms can fire without the runtime ever waiting on its
+    // reactor, where a pending signal is read; a wait of a few milliseconds
+    // parks it there, so a signal already sent is handled first.
+    await new Promise((resolve) => setTimeout(resolve, SIGNAL_WAIT_MS));
     for (const [signal, handler] of added) Deno.removeSignalListener(signal, handler);
   };
 }
