@@ -17,7 +17,6 @@ import {
 } from "../../mod.ts";
 import { DEMO_READ, guidedFlow } from "../../tui/flow/guided_flow.ts";
 import { formatPay, formatPercent } from "../../tui/render/numbers.ts";
-import { setAscii } from "../../tui/render/glyphs.ts";
 import { flowDriver, KEY } from "./_flow_driver.ts";
 
 const DEMO = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
@@ -135,26 +134,21 @@ Deno.test("an existing person by id, change one attribute, sweep a level attribu
 });
 
 Deno.test("--ascii: every character on screen is ASCII", async () => {
-  setAscii(true);
-  try {
-    const driver = flowDriver(60000, true);
-    const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
-    await driver.when("What do you want to work with?", KEY.enter);
-    await driver.when("Which column should paygrove estimate?", KEY.enter);
-    await driver.when("Which attributes may explain it?", KEY.enter);
-    await driver.when("Check for pay gaps between groups first?", KEY.enter);
-    await driver.when("Start the profile from", KEY.enter);
-    await driver.when("What next?", KEY.down, KEY.down, KEY.enter); // Sweep
-    await driver.when("Sweep which attribute?", KEY.down, KEY.enter);
-    await driver.when("What next?", KEY.up, KEY.enter);
-    await done;
-    const screen = driver.screen();
-    const wide = [...screen].filter((c) => c.charCodeAt(0) > 127);
-    assert.deepEqual([...new Set(wide)], []);
-    assert.match(screen, /EUR \d{2},\d{3}/);
-  } finally {
-    setAscii(false);
-  }
+  const driver = flowDriver(60000, true);
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await driver.when("What do you want to work with?", KEY.enter);
+  await driver.when("Which column should paygrove estimate?", KEY.enter);
+  await driver.when("Which attributes may explain it?", KEY.enter);
+  await driver.when("Check for pay gaps between groups first?", KEY.enter);
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.down, KEY.down, KEY.enter); // Sweep
+  await driver.when("Sweep which attribute?", KEY.down, KEY.enter);
+  await driver.when("What next?", KEY.up, KEY.enter);
+  await done;
+  const screen = driver.screen();
+  const wide = [...screen].filter((c) => c.charCodeAt(0) > 127);
+  assert.deepEqual([...new Set(wide)], []);
+  assert.match(screen, /EUR \d{2},\d{3}/);
 });
 
 Deno.test("an unusable CSV is said and the first question comes again; then a saved model", async () => {

@@ -105,7 +105,7 @@ export async function chooseAndFit(
         file: terminalText(label),
         style,
         width: io.width,
-        numbers: { locale: options.locale, currency: readOptions.currency },
+        numbers: { locale: options.locale, currency: readOptions.currency, ascii: io.style.ascii },
       }).join("\n"),
     );
     const { target, features, allowProtected } = await chooseColumns(io, table);
@@ -153,7 +153,7 @@ export async function chooseAndFit(
       // Rows left out for implausible pay are said below, apart.
       rows: { ...model.rows, dropped: model.rows.dropped - (leftOut?.count ?? 0) },
     });
-    const numbers = { locale: options.locale };
+    const numbers = { locale: options.locale, ascii: io.style.ascii };
     const summary = renderModelSummary(shown, { style, width: io.width, numbers });
     // The summary's one-sentence answer comes last, right above the next
     // question, where a 24-line terminal still shows it.

@@ -135,7 +135,8 @@ export function streamFlowIO(
       const safe = terminalGuard(text, options.style.enabled);
       streams.output.write(safe.endsWith("\n") ? safe : `${safe}\n`);
     },
-    style: options.style,
+    // Every screen of the flow draws with the glyphs --ascii chose.
+    style: { ...options.style, ascii: options.ascii },
     width: options.width,
     rows: options.rows,
     ascii: options.ascii,

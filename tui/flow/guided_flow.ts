@@ -87,7 +87,7 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
     }
   }
   const session = openModel(model);
-  const money = moneyStyle(model, { locale: options.locale });
+  const money = moneyStyle(model, { locale: options.locale, ascii: io.style.ascii });
   const gap = tableText !== null && source !== null
     ? await offerGapCheck(io, model, source, money)
     : null;

@@ -49,6 +49,7 @@ export function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: F
     head: ["", ...shown.map((s) => s.name)],
     rows,
     styleHead: io.style.bold,
+    ascii: io.style.ascii,
   });
   const lines = [io.style.bold(`Scenarios${scenarios.length > 4 ? " (the last four)" : ""}`)];
   lines.push(...table.lines);

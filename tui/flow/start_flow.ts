@@ -14,7 +14,6 @@ import { MAX_TREES, wholeNumber } from "../option_values.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow } from "./guided_flow.ts";
 import { reportJsonPath } from "./save_step.ts";
-import { setAscii } from "../render/glyphs.ts";
 import { listenForStop } from "../stop_signals.ts";
 
 /** The committed demo table, relative to this module. */
@@ -46,7 +45,6 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     })
     .parse(args, { from: "user" })
     .opts();
-  setAscii(options.ascii ?? false);
   // A report that could not be written is said now, not after the session.
   if (options.report !== undefined) {
     if (!options.report.endsWith(".md")) {

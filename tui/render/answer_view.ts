@@ -12,7 +12,7 @@ import type { CompareAnswer, EstimateAnswer, OfferAnswer, SweepAnswer } from "..
 import { barChart, histogram, intervalChart } from "./charts.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
-import { chartSymbols, isAscii } from "./glyphs.ts";
+import { chartSymbols } from "./glyphs.ts";
 import { fitTable } from "./fit_table.ts";
 
 /** What the views need. */
@@ -429,6 +429,7 @@ function compareLines(
     rows: compared,
     drop: [2],
     styleHead: style.bold,
+    ascii: style.ascii,
     borders,
   });
   lines.push(...table.lines);
@@ -545,7 +546,7 @@ export function renderSweep(
     : Math.max(3, options.chartLines - lines.length - 2 - legend.length);
   const chart = asciichart.plot(series.map(stretch), {
     height,
-    ...(chartSymbols() ? { symbols: chartSymbols() } : {}),
+    ...(chartSymbols(style.ascii) ? { symbols: chartSymbols(style.ascii) } : {}),
     // Every label as wide as the widest, so the axis stays in one column.
     format: (x: number) => pay(x).padStart(labelWidth),
     colors: style.enabled
@@ -589,6 +590,7 @@ export function renderSweep(
     rows: swept,
     drop: points[0].average !== undefined ? [2, 4] : [2],
     styleHead: style.bold,
+    ascii: style.ascii,
   });
   const warnings = answer.warnings.flatMap((w) =>
     wrapAnsi(style.warn(`! ${w}`), options.width).split("\n")
@@ -609,8 +611,8 @@ export function renderSweep(
  * assert(sparkline([1, 2, 2, 3, 3, 3], 3) === "▃▅█");
  * ```
  */
-export function sparkline(values: readonly number[], bins: number): string {
-  const steps = isAscii() ? " .:-=+*#" : " ▁▂▃▄▅▆▇█";
+export function sparkline(values: readonly number[], bins: number, ascii = false): string {
+  const steps = ascii ? " .:-=+*#" : " ▁▂▃▄▅▆▇█";
   const low = Math.min(...values);
   const high = Math.max(...values);
   const counts = new Array(bins).fill(0);
@@ -733,7 +735,7 @@ export function fitResult(
       `  ${`${sureOfWhat(answer)}, ${pct} sure`.padEnd(21)}  ${a.padEnd(width)}  ${sure}`,
       `  ${`one person, ${pct} range`.padEnd(21)}  ${b.padEnd(width)}  ${range}`,
       `  ${`the ${answer.trees.length} trees`.padEnd(21)}  ${low} ` +
-        `${sparkline(answer.trees, bins)} ${high}`,
+        `${sparkline(answer.trees, bins, style.ascii)} ${high}`,
     );
   }
   // The last step shows the leaf's people and pay; the header says how

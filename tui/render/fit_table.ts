@@ -24,6 +24,8 @@ export interface FitTableOptions {
   drop?: number[];
   /** Styles a heading (e.g. bold). @default {no styling} */
   styleHead?: (text: string) => string;
+  /** ASCII borders in place of box drawing (`--ascii`). @default {false} */
+  ascii?: boolean;
   /** Borders: box drawing (or ASCII) or none. @default {"box"} */
   borders?: "box" | "none";
   /** Without borders, the spaces between columns. @default {2} */
@@ -89,7 +91,7 @@ export function fitTable(options: FitTableOptions): FittedTable {
   for (let k = 0; k <= drop.length; k++) {
     const lines = options.borders === "none"
       ? drawPlain(kept, head, rows, aligns, styleHead, options.gap ?? 2, options.spanning)
-      : draw(kept, head, rows, aligns, styleHead);
+      : draw(kept, head, rows, aligns, styleHead, options.ascii ?? false);
     if (lines.every((l) => visible(l) <= width)) {
       return { lines, dropped: head.filter((_, j) => !kept.includes(j)), list: false };
     }
@@ -108,8 +110,9 @@ function draw(
   rows: string[][],
   aligns: ("left" | "right")[],
   styleHead: (s: string) => string,
+  ascii: boolean,
 ): string[] {
-  const chars = tableChars();
+  const chars = tableChars(ascii);
   const table = new Table({
     head: kept.map((j) => styleHead(head[j])),
     colAligns: kept.map((j) => aligns[j]),

@@ -18,7 +18,6 @@ import {
 } from "../../mod.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
-import { isAscii } from "./glyphs.ts";
 import { fitTable, leftOutNote } from "./fit_table.ts";
 import { linearVersionSentence } from "./aliased_terms.ts";
 import { forMarkdown } from "./safe_text.ts";
@@ -227,6 +226,7 @@ export function renderGap(report: GapReport, view: GapView): string[] {
       gap: width < 90 ? 1 : 2,
       spanning: TOO_FEW,
       styleHead: style.bold,
+      ascii: style.ascii,
       listTitles: body.map((r) => (category = r[0] === "" ? category : r[0])),
     });
     const said = leftOutNote(
@@ -285,7 +285,7 @@ export function renderGap(report: GapReport, view: GapView): string[] {
       const labelWidth = Math.max(...axisRows.map((r) => r.label.length));
       lines.push(
         ...wrap(style.bold("Unexplained gap, 95% interval, one axis (right of 0: paid less)")),
-        ...gapAxis(axisRows, Math.max(20, Math.min(50, width - labelWidth - 4)), isAscii()),
+        ...gapAxis(axisRows, Math.max(20, Math.min(50, width - labelWidth - 4)), style.ascii),
         "",
       );
     }

@@ -5,22 +5,20 @@
  * @module
  */
 
-/** Whether screens are limited to ASCII; set once at start by `--ascii`. */
-let asciiOnly = false;
-
-/** Limits (or not) every screen to ASCII characters. */
-export function setAscii(on: boolean): void {
-  asciiOnly = on;
-}
-
-/** Whether screens are limited to ASCII. */
-export function isAscii(): boolean {
-  return asciiOnly;
-}
-
-/** cli-table3 border characters: box drawing, or ASCII under `--ascii`. */
-export function tableChars(): Record<string, string> | undefined {
-  if (!asciiOnly) return undefined;
+/**
+ * cli-table3 border characters: box drawing (cli-table3's own), or ASCII
+ * under `--ascii` (the style's `ascii`).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { tableChars } from "./glyphs.ts";
+ * assert.equal(tableChars(false), undefined);
+ * assert(Object.values(tableChars(true)!).every((c) => c.charCodeAt(0) < 128));
+ * ```
+ */
+export function tableChars(ascii: boolean): Record<string, string> | undefined {
+  if (!ascii) return undefined;
   return {
     top: "-",
     "top-mid": "+",
@@ -40,7 +38,17 @@ export function tableChars(): Record<string, string> | undefined {
   };
 }
 
-/** asciichart's symbols: its defaults, or ASCII under `--ascii`. */
-export function chartSymbols(): string[] | undefined {
-  return asciiOnly ? ["+", "|", "-", "-", "-", "\\", "/", "\\", "/", "|"] : undefined;
+/**
+ * asciichart's symbols: its defaults, or ASCII under `--ascii`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { chartSymbols } from "./glyphs.ts";
+ * assert.equal(chartSymbols(false), undefined);
+ * assert(chartSymbols(true)!.every((c) => c.charCodeAt(0) < 128));
+ * ```
+ */
+export function chartSymbols(ascii: boolean): string[] | undefined {
+  return ascii ? ["+", "|", "-", "-", "-", "\\", "/", "\\", "/", "|"] : undefined;
 }

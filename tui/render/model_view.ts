@@ -26,7 +26,7 @@ import {
 } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { fitTable, leftOutNote } from "./fit_table.ts";
-import { isAscii, tableChars } from "./glyphs.ts";
+import { tableChars } from "./glyphs.ts";
 import { straightLineSentence } from "./aliased_terms.ts";
 
 /** What the views need besides the model. */
@@ -39,9 +39,25 @@ export interface ModelViewOptions {
   numbers: NumberStyle;
 }
 
-/** The currency the model's money is shown in. */
+/**
+ * The currency the model's money is shown in (the one given, else the
+ * model's), with the locale and glyphs given.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { moneyStyle } from "./model_view.ts";
+ * const model = { target: { money: { currency: "EUR" } } } as unknown as import("../../mod.ts").Model;
+ * assert.deepEqual(moneyStyle(model, { locale: "de-DE", ascii: true }), { locale: "de-DE", currency: "EUR", ascii: true });
+ * assert.equal(moneyStyle(model, { currency: "USD" }).currency, "USD");
+ * ```
+ */
 export function moneyStyle(model: Model, numbers: NumberStyle): NumberStyle {
-  return { locale: numbers.locale, currency: numbers.currency ?? model.target.money?.currency };
+  return {
+    locale: numbers.locale,
+    currency: numbers.currency ?? model.target.money?.currency,
+    ...(numbers.ascii ? { ascii: true } : {}),
+  };
 }
 
 /** The target's unit and scale in words. */
@@ -167,7 +183,7 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
       head: ["model", "accuracy", "measured by"].map(style.bold),
       colAligns: ["left", "right", "left"],
       style: { head: [], border: [], compact: true },
-      ...(tableChars() ? { chars: tableChars() } : {}),
+      ...(tableChars(style.ascii) ? { chars: tableChars(style.ascii) } : {}),
     });
     for (const [name, a] of rows) {
       if (a === null) continue;
@@ -185,7 +201,7 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
         head: ["actual", ...names, "recall"].map(style.bold),
         colAligns: ["left", ...names.map(() => "right" as const), "right"],
         style: { head: [], border: [], compact: true },
-        ...(tableChars() ? { chars: tableChars() } : {}),
+        ...(tableChars(style.ascii) ? { chars: tableChars(style.ascii) } : {}),
       });
       names.forEach((name, a) => {
         matrix.push([
@@ -213,7 +229,7 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     "model",
     "RMSE",
     "MAE",
-    isAscii() ? "R^2" : "R²",
+    style.ascii ? "R^2" : "R²",
     ...(log ? ["log RMSE", "log MAE"] : []),
     "measured by",
   ];
@@ -250,11 +266,12 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
     // "measured by", then log MAE, then MAE.
     drop: [head.length - 1, ...(log ? [head.length - 2] : []), 2],
     styleHead: style.bold,
+    ascii: style.ascii,
   });
   const lines = [
     ...wrapAnsi(
       style.bold(
-        `Accuracy (RMSE, MAE and ${isAscii() ? "R^2" : "R²"} on pay itself, in ${
+        `Accuracy (RMSE, MAE and ${style.ascii ? "R^2" : "R²"} on pay itself, in ${
           money.currency ?? "the target's units"
         }${log ? "; log RMSE and log MAE on log pay, the scale the trees are fitted on" : ""})`,
       ),

@@ -5,7 +5,6 @@
  */
 
 import type { MoneyUnit } from "../../mod.ts";
-import { isAscii } from "./glyphs.ts";
 
 /** How to format money and numbers. */
 export interface NumberStyle {
@@ -16,6 +15,11 @@ export interface NumberStyle {
   locale?: string;
   /** ISO 4217 currency to show money in, overriding the column's. */
   currency?: string;
+  /**
+   * Limit money to ASCII (`EUR 61,235`, no symbol, no no-break space).
+   * @default {false}
+   */
+  ascii?: boolean;
 }
 
 const PERIOD_WORDS: Record<string, string> = {
@@ -59,8 +63,8 @@ export function formatMoney(value: number, style: NumberStyle): string {
   return new Intl.NumberFormat(style.locale ?? "en-US", {
     style: "currency",
     currency: style.currency,
-    currencyDisplay: isAscii() ? "code" : "symbol",
-  }).format(value).replace(isAscii() ? /[\u00a0\u202f]/g : /(?!)/, " ");
+    currencyDisplay: style.ascii === true ? "code" : "symbol",
+  }).format(value).replace(style.ascii === true ? /[\u00a0\u202f]/g : /(?!)/, " ");
 }
 
 /**
@@ -102,11 +106,11 @@ export function formatPay(value: number, style: NumberStyle, wholeUnits = false)
     style: "currency",
     currency: style.currency,
     // Under --ascii, "EUR 61,235" rather than a symbol outside ASCII.
-    currencyDisplay: isAscii() ? "code" : "symbol",
+    currencyDisplay: style.ascii === true ? "code" : "symbol",
     minimumFractionDigits: digits,
     maximumFractionDigits: digits,
     // Intl puts a no-break space after a currency code: a plain one under --ascii.
-  }).format(value).replace(isAscii() ? /[\u00a0\u202f]/g : /(?!)/, " ");
+  }).format(value).replace(style.ascii === true ? /[\u00a0\u202f]/g : /(?!)/, " ");
 }
 
 /**

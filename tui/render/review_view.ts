@@ -129,6 +129,7 @@ export function renderReview(
       borders: "none",
       spanning: TOO_FEW,
       styleHead: style.bold,
+      ascii: style.ascii,
     });
     lines.push(...table.lines, "");
   }

@@ -83,7 +83,7 @@ function schemaTable(
     colWidths: [fixed[0] + 2, fixed[1] + 2, fixed[2] + 2, rest + 2, fixed[3] + 2],
     colAligns: ["left", "left", "right", "left", "left"],
     style: { head: [], border: [], compact: true },
-    ...(tableChars() ? { chars: tableChars() } : {}),
+    ...(tableChars(style.ascii) ? { chars: tableChars(style.ascii) } : {}),
     wordWrap: true,
   });
   for (const column of summary.columns) {

@@ -9,6 +9,8 @@
 export interface Style {
   /** True when ANSI styling is on. */
   enabled: boolean;
+  /** True when screens are limited to ASCII characters (`--ascii`). */
+  ascii: boolean;
   /** Emphasis for headings and key figures. */
   bold(text: string): string;
   /** Secondary text: notes, hints. */
@@ -27,6 +29,7 @@ const same = (text: string) => text;
  * Makes a style.
  *
  * @param enabled Whether to emit ANSI codes.
+ * @param ascii Whether screens are limited to ASCII (box drawing, symbols).
  *
  * @example
  * ```ts
@@ -36,10 +39,17 @@ const same = (text: string) => text;
  * assert(makeStyle(true).bold("x") === "\x1b[1mx\x1b[22m");
  * ```
  */
-export function makeStyle(enabled: boolean): Style {
+export function makeStyle(enabled: boolean, ascii = false): Style {
   return enabled
-    ? { enabled, bold: wrap(1, 22), dim: wrap(2, 22), warn: wrap(33, 39), caution: wrap(35, 39) }
-    : { enabled, bold: same, dim: same, warn: same, caution: same };
+    ? {
+      enabled,
+      ascii,
+      bold: wrap(1, 22),
+      dim: wrap(2, 22),
+      warn: wrap(33, 39),
+      caution: wrap(35, 39),
+    }
+    : { enabled, ascii, bold: same, dim: same, warn: same, caution: same };
 }
 
 /**
