@@ -169,6 +169,8 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     folds: requestedFolds,
     rule,
     prune,
+    // The reference tree is cross-validated whatever the ensemble's pruning.
+    crossValidate: true,
     grow: { minLeaf },
     extraLosses: regression
       ? [
