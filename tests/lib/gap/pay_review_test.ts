@@ -3,7 +3,16 @@
 // any level); the review must find every one of them from out-of-bag
 // estimates, and its costs must be the sum of the shortfalls it lists.
 import assert from "node:assert/strict";
-import { demoCompanyCsv, loadTable, payReview } from "../../../mod.ts";
+import {
+  bootstrapCounts,
+  DataError,
+  demoCompanyCsv,
+  loadTable,
+  OptionError,
+  payReview,
+  resampleStates,
+} from "../../../mod.ts";
+import { HAND_TABLE } from "./_hand_table.ts";
 
 const PLANTED = Array.from({ length: 12 }, (_, i) => 37 + 163 * i);
 
@@ -58,4 +67,68 @@ Deno.test("review finds every planted underpaid person and costs their shortfall
   }
   // A 90% range leaves about 5% under it; the planted twelve come on top.
   assert.ok(under.length > 12 && under.length < 0.1 * review.people.length, `${under.length}`);
+});
+
+// The hand table (tests/lib/gap/_hand_table.ts): 39 invented people, family
+// Kiln has two women.
+Deno.test("a review with few trees: people every tree drew get no estimate; small categories withheld", async () => {
+  const table = loadTable(HAND_TABLE, { target: "pay", file: "hand.csv" });
+  const trees = 5;
+  const review = await payReview(table, {
+    target: "pay",
+    within: ["family", "gender"],
+    trees,
+    minLeaf: 3,
+    workers: 1,
+  });
+  // Which people every tree drew, from the resamples keyed by seed 1 and log pay.
+  const logPay = Float64Array.from(
+    HAND_TABLE.trim().split("\n").slice(1),
+    (line) => Math.log(Number(line.split(",")[4])),
+  );
+  const states = resampleStates(1, logPay, trees);
+  const drawnByAll = Array.from(
+    logPay,
+    (_, r) =>
+      Array.from({ length: trees }, (_, b) => bootstrapCounts(39, states, b)[r]).every((c) =>
+        c > 0
+      ),
+  );
+  assert(drawnByAll.some(Boolean), "some person is in every resample");
+  review.people.forEach((p, r) => {
+    assert.equal(p.estimate === null, drawnByAll[r], p.id);
+    if (p.estimate === null) {
+      assert.equal(p.status, null);
+      assert.equal(p.shortfall, 0);
+    }
+  });
+  // Kiln / Woman has 2 people: withheld for itself, and one more category with it.
+  const hidden = review.categories.filter((c) => c.suppressed).map((c) => c.name);
+  assert.equal(hidden.length, 2);
+  assert(hidden.includes("Kiln / Woman"));
+  assert.equal(review.overall.suppressed, false);
+  assert(review.notes.some((n) => n.includes("Kiln / Woman")));
+  // 39 people, fewer than 100: the ranges are said to need care.
+  assert(review.notes.some((n) => n.includes("39")));
+});
+
+Deno.test("review refusals name what they refuse", async () => {
+  const table = loadTable(HAND_TABLE, { target: "pay" });
+  await assert.rejects(
+    payReview(table, { target: "pay", coverage: 1 }),
+    (e: Error) => e instanceof OptionError && e.message.includes("1"),
+  );
+  const byFamily = loadTable(HAND_TABLE, { target: "family" });
+  await assert.rejects(
+    payReview(byFamily, { target: "family" }),
+    (e: Error) => e instanceof OptionError && e.message.includes('"family"'),
+  );
+  await assert.rejects(
+    payReview(table, { target: "pay", drop: ["family", "years"] }),
+    OptionError,
+  );
+  await assert.rejects(
+    payReview(table, { target: "pay", minLeaf: 30 }),
+    (e: Error) => e instanceof DataError && e.message.includes("39") && e.message.includes("60"),
+  );
 });
