@@ -107,9 +107,13 @@ Deno.test("a review with few trees: people every tree drew get no estimate; smal
   assert.equal(hidden.length, 2);
   assert(hidden.includes("Kiln / Woman"));
   assert.equal(review.overall.suppressed, false);
-  assert(review.notes.some((n) => n.includes("Kiln / Woman")));
+  // The notes are data: the category named as too few, the other withheld beside it.
+  const tooFew = review.notes.find((n) => n.kind === "categoriesTooFew");
+  assert(tooFew?.kind === "categoriesTooFew" && tooFew.categories.includes("Kiln / Woman"));
+  assert.equal(tooFew.categories.length + tooFew.alsoWithheld.length, 2);
   // 39 people, fewer than 100: the ranges are said to need care.
-  assert(review.notes.some((n) => n.includes("39")));
+  const fragile = review.notes.find((n) => n.kind === "fragileRanges");
+  assert(fragile?.kind === "fragileRanges" && fragile.people === 39);
 });
 
 Deno.test("review refusals name what they refuse", async () => {
