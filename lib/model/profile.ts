@@ -200,11 +200,13 @@ export function applyChanges(
     const feature = model.features[f];
     checkLever(model, feature, "--change");
     const step = /^[+-]\d+$/.exec(value);
+    // A step from a missing value has nowhere to start (a number plus NaN
+    // would be NaN, said nowhere).
+    if (step !== null && feature.kind !== "categorical" && Number.isNaN(out[f])) {
+      throw new OptionError(`--change: "${name}" is missing in the base profile; set it first`);
+    }
     if (step !== null && feature.kind === "ordinal") {
       const levels = feature.levels!;
-      if (Number.isNaN(out[f])) {
-        throw new OptionError(`--change: "${name}" is missing in the base profile; set it first`);
-      }
       const to = out[f] + Number(value);
       if (to < 0 || to >= levels.length) {
         throw new OptionError(

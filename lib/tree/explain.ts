@@ -118,6 +118,23 @@ export function describeCondition(
   return `${feature.name} ${left ? "<=" : ">"} ${formatThreshold(t)}`;
 }
 
-function formatThreshold(t: number): string {
-  return String(Number(t.toPrecision(6)));
+/**
+ * A split's threshold as a condition says it: at least 6 significant
+ * digits, and every digit before the point and two after it (at 6 alone a
+ * split at 1234567.5 read "x > 1234570", false for someone at 1234569 who
+ * went right); no last-bit noise of a midpoint (0.30000000000000004).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { formatThreshold } from "./explain.ts";
+ * assert.equal(formatThreshold(1234567.5), "1234567.5");
+ * assert.equal(formatThreshold(0.1 + 0.2), "0.3");
+ * assert.equal(formatThreshold(1 / 3), "0.333333");
+ * assert.equal(formatThreshold(52345.675), "52345.68");
+ * ```
+ */
+export function formatThreshold(t: number): string {
+  const whole = Math.abs(t) >= 1 ? Math.floor(Math.log10(Math.abs(t))) + 1 : 0;
+  return String(Number(t.toPrecision(Math.min(17, Math.max(6, whole + 2)))));
 }

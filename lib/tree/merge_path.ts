@@ -6,6 +6,7 @@
  */
 
 import type { Feature } from "../dataset/types.ts";
+import { formatThreshold } from "./explain.ts";
 import { type FlatTree, goesLeft, predictedClass } from "./flat_tree.ts";
 
 /** The conditions of a decision path on one attribute, merged. */
@@ -170,8 +171,8 @@ function condition(
       ? `${name(from)} or above`
       : `${name(from)} to ${name(to)}`;
   } else {
-    const lo = r.above === -Infinity ? null : number(r.above);
-    const hi = r.atMost === Infinity ? null : number(r.atMost);
+    const lo = r.above === -Infinity ? null : formatThreshold(r.above);
+    const hi = r.atMost === Infinity ? null : formatThreshold(r.atMost);
     words = lo !== null && hi !== null
       ? `${lo} to ${hi}`
       : lo !== null
@@ -209,10 +210,6 @@ function orList(items: readonly string[]): string {
   return items.length <= 1
     ? items.join("")
     : `${items.slice(0, -1).join(", ")} or ${items[items.length - 1]}`;
-}
-
-function number(t: number): string {
-  return String(Number(t.toPrecision(6)));
 }
 
 /**

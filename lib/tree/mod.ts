@@ -48,7 +48,7 @@ export {
   type RegressionMetrics,
   regressionMetrics,
 } from "./metrics.ts";
-export { describeCondition, explainPath, type PathStep } from "./explain.ts";
+export { describeCondition, explainPath, formatThreshold, type PathStep } from "./explain.ts";
 export { meetsCondition, mergePath, type PathCondition } from "./merge_path.ts";
 export { shareTree } from "./share_tree.ts";
 export { diverseLeaves, SAME_PAY_SHARE } from "./diverse_leaves.ts";

@@ -7,6 +7,7 @@
 
 import {
   compareWithLine,
+  formatThreshold,
   importanceGrowth,
   type LineComparison,
   type MeasureComparison,
@@ -394,7 +395,7 @@ export function renderTreeOutline(model: Model, options: ModelViewOptions): stri
       const last = Math.floor(t);
       return left ? `${f.name} <= ${f.levels![last]}` : `${f.name} >= ${f.levels![last + 1]}`;
     }
-    return `${f.name} ${left ? "<=" : ">"} ${Number(t.toPrecision(6))}`;
+    return `${f.name} ${left ? "<=" : ">"} ${formatThreshold(t)}`;
   };
   // Depth first, left before right, with an explicit stack: a tree of any
   // depth is drawn without recursion. Indentation stops growing at

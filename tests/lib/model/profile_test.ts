@@ -96,6 +96,10 @@ Deno.test("applyChanges: +N and -N steps of a ladder or a number, else a value",
   assert.throws(() => applyChanges(model, base, ["level=+2"]), names("G1 to G3"));
   const missing = Float64Array.of(NaN, 8, 0);
   assert.throws(() => applyChanges(model, missing, ["level=+1"]), names('"level"'));
+  // A number's step from a missing value is refused too (it gave NaN, said nowhere).
+  const noYears = Float64Array.of(1, NaN, 0);
+  assert.throws(() => applyChanges(model, noYears, ["years=+2"]), names('"years"'));
+  assert.deepEqual(Array.from(applyChanges(model, noYears, ["years=3"]).profile), [1, 3, 0]);
   assert.equal(applyChanges(model, base, ["years=+20"]).warnings.length, 1);
 });
 

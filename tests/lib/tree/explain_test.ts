@@ -128,3 +128,19 @@ Deno.test("a class tree's steps carry the likeliest class of the node reached an
     [],
   );
 });
+
+Deno.test("a threshold of a large number is said as it is: the condition holds for the person", () => {
+  // Split midway between 1,234,567 and 1,234,568. At 6 significant digits
+  // it read "salary_code > 1234570", false for 1,234,569 who went right.
+  const big = [{ name: "salary_code", kind: "numeric" as const }];
+  const tree = handTree(
+    [{ feature: 0, split: 1234567.5, left: 1, right: 2 }, null, null],
+    big,
+    [15, 10, 20],
+    [10, 5, 5],
+  );
+  const steps = explainPath(tree, big, [1234569]);
+  assert.equal(steps[0].condition, "salary_code > 1234567.5");
+  const said = Number(steps[0].condition.split("> ")[1]);
+  assert.ok(1234569 > said, "the condition is true of the person it describes");
+});
