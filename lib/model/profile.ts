@@ -105,10 +105,6 @@ export function splitAssignment(text: string, option: string): [string, string] 
 }
 
 /**
- * Refuses a protected attribute as a lever of a pay estimate unless the
- * model was fitted with protected attributes allowed.
- */
-/**
  * Whether an attribute may be changed in a what-if, and by whom: the one
  * place this policy is decided. A protected attribute is never offered as
  * a lever by the guided flow ("offered"), even in a model fitted with
@@ -154,6 +150,8 @@ export function offeredLevers(model: Model): number[] {
   return model.features.flatMap((f, i) => (isLever(model, f, "offered") ? [i] : []));
 }
 
+// Refuses a protected attribute as a lever of a pay estimate unless the
+// model was fitted with protected attributes allowed.
 function checkLever(model: Model, feature: FeatureSchema, option: string): void {
   if (!isLever(model, feature, "accepted")) {
     throw new OptionError(
@@ -199,7 +197,9 @@ export function applyChanges(
     const f = findFeature(model, name, "--change");
     const feature = model.features[f];
     checkLever(model, feature, "--change");
-    const step = /^[+-]\d+$/.exec(value);
+    // A signed value is a step: whole levels of a ladder, any amount of a
+    // number (years=+2.5 adds two and a half years; it set 2.5 before).
+    const step = (feature.kind === "numeric" ? /^[+-]\d+(\.\d+)?$/ : /^[+-]\d+$/).exec(value);
     // A step from a missing value has nowhere to start (a number plus NaN
     // would be NaN, said nowhere).
     if (step !== null && feature.kind !== "categorical" && Number.isNaN(out[f])) {

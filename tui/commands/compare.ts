@@ -31,7 +31,7 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
   )
     .option(
       "--change <column=value>",
-      "the change to make; +N or -N moves an ordinal N steps (repeatable)",
+      "the change to make; +N or -N moves an ordinal N steps, adds to a number (repeatable)",
       (text: string, previous: string[] = []) => [...previous, text],
     )
     .action(async (file, flags) => {

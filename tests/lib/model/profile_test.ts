@@ -101,6 +101,10 @@ Deno.test("applyChanges: +N and -N steps of a ladder or a number, else a value",
   assert.throws(() => applyChanges(model, noYears, ["years=+2"]), names('"years"'));
   assert.deepEqual(Array.from(applyChanges(model, noYears, ["years=3"]).profile), [1, 3, 0]);
   assert.equal(applyChanges(model, base, ["years=+20"]).warnings.length, 1);
+  // A number's step may have decimals: 8 + 2.5 and 8 - 1.5 (it set 2.5 and -1.5 before).
+  assert.equal(applyChanges(model, base, ["years=+2.5"]).profile[1], 10.5);
+  assert.equal(applyChanges(model, base, ["years=-1.5"]).profile[1], 6.5);
+  assert.throws(() => applyChanges(model, base, ["level=+1.5"]));
 });
 
 Deno.test("rangeWarnings and describeProfile", () => {
