@@ -31,7 +31,21 @@ export function makeRng(seed: number): Rng {
   return xoroshiro128plus(seed);
 }
 
-/** A uniform integer in `[low, high]` (both included), advancing `rng`. */
+/**
+ * A uniform integer in `[low, high]` (both included), advancing `rng`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { makeRng, randomInt } from "./random.ts";
+ * const rng = makeRng(7);
+ * const seen = new Set<number>();
+ * for (let i = 0; i < 200; i++) seen.add(randomInt(rng, 3, 5));
+ * // 200 draws from three values: each of 3, 4, 5 turns up, nothing else does.
+ * assert.deepEqual([...seen].sort(), [3, 4, 5]);
+ * assert.equal(randomInt(makeRng(1), 9, 9), 9);
+ * ```
+ */
 export function randomInt(rng: Rng, low: number, high: number): number {
   return uniformInt(rng, low, high);
 }

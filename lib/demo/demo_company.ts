@@ -124,7 +124,18 @@ export function logPayRule(p: DemoPerson): number {
     (p.family === GAP.family && p.gender === GAP.group ? GAP.logPoints : 0);
 }
 
-/** Standard deviation of the noise at level index k. */
+/**
+ * Standard deviation of the noise at level index k.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { noiseSd } from "./demo_company.ts";
+ * // 0.035 + 0.008 per level from the first: G1 0.043, G7 (index 6) 0.091.
+ * assert(Math.abs(noiseSd(0) - 0.043) < 1e-12);
+ * assert(Math.abs(noiseSd(6) - 0.091) < 1e-12);
+ * ```
+ */
 export function noiseSd(level: number): number {
   return 0.035 + 0.008 * (level + 1);
 }

@@ -26,7 +26,30 @@ function shared<T extends Float64Array | Int32Array | Uint16Array | Uint32Array>
   return copy;
 }
 
-/** Copies a dataset, its bins and its row order into shared memory. */
+/**
+ * Copies a dataset, its bins and its row order into shared memory.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { shareData } from "./_shared_data.ts";
+ * const dataset = {
+ *   rows: 3,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(10, 20, 30) },
+ * };
+ * const data = shareData(dataset, binFeatures(dataset), Int32Array.of(2, 0, 1));
+ * // Copies, in shared memory, of the same values.
+ * assert(data.target.values.buffer instanceof SharedArrayBuffer);
+ * assert(data.features[0].values.buffer instanceof SharedArrayBuffer);
+ * assert.notEqual(data.features[0].values, dataset.features[0].values);
+ * assert.deepEqual([...data.target.values], [10, 20, 30]);
+ * assert.deepEqual([...data.order], [2, 0, 1]);
+ * // x's three distinct values are bins 0, 1, 2.
+ * assert.deepEqual([...data.bins[0].ids], [0, 1, 2]);
+ * ```
+ */
 export function shareData(dataset: Dataset, bins: FeatureBins[], order: Int32Array): SharedData {
   const target = dataset.target.kind === "regression"
     ? {
@@ -54,7 +77,26 @@ export function shareData(dataset: Dataset, bins: FeatureBins[], order: Int32Arr
   };
 }
 
-/** The dataset view of shared data (no copy). */
+/**
+ * The dataset view of shared data (no copy).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { datasetOf, shareData } from "./_shared_data.ts";
+ * const dataset = {
+ *   rows: 2,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(5, 6) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(7, 8) },
+ * };
+ * const data = shareData(dataset, binFeatures(dataset), Int32Array.of(0, 1));
+ * const view = datasetOf(data);
+ * assert.equal(view.rows, 2);
+ * assert.equal(view.features, data.features); // the shared arrays themselves
+ * assert.equal(view.target, data.target);
+ * ```
+ */
 export function datasetOf(data: SharedData): Dataset {
   return { rows: data.rows, features: data.features, target: data.target };
 }

@@ -120,6 +120,19 @@ export function fitEnsemble(
 
 /**
  * Checks ensemble options, throwing a RangeError for bad ones.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { checkEnsembleOptions } from "./fit_ensemble.ts";
+ * checkEnsembleOptions({ trees: 5, alpha: 0 });
+ * checkEnsembleOptions({ prune: "none" });
+ * assert.throws(() => checkEnsembleOptions({ trees: 0, prune: "none" }), RangeError);
+ * assert.throws(() => checkEnsembleOptions({ trees: 1.5, prune: "none" }), RangeError);
+ * // Pruning at one alpha (the default mode) needs the alpha.
+ * assert.throws(() => checkEnsembleOptions({ trees: 5 }), /needs an alpha/);
+ * assert.throws(() => checkEnsembleOptions({ alpha: -1 }), /needs an alpha/);
+ * ```
  */
 export function checkEnsembleOptions(options: EnsembleOptions): void {
   const count = options.trees ?? 200;
@@ -136,6 +149,40 @@ export function checkEnsembleOptions(options: EnsembleOptions): void {
 /**
  * Grows and prunes tree `index`, whose resample comes from its generator
  * state in `states`; the same arguments give the same tree in any thread.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { canonicalRowOrder } from "../tree/grow_tree.ts";
+ * import { bootstrapCounts, resampleStates } from "./bootstrap.ts";
+ * import { fitOneTree } from "./fit_ensemble.ts";
+ * // Three rows at each x = 1..4; pay 10 up to x = 2, 30 above.
+ * const x = Float64Array.from({ length: 12 }, (_, i) => 1 + (i % 4));
+ * const y = x.map((v) => (v <= 2 ? 10 : 30));
+ * const dataset = {
+ *   rows: 12,
+ *   features: [{ name: "x", kind: "numeric" as const, values: x }],
+ *   target: { kind: "regression" as const, name: "pay", values: y },
+ * };
+ * const states = resampleStates(5, y, 3);
+ * const args = [dataset, binFeatures(dataset), canonicalRowOrder(dataset), states, 2] as const;
+ * const fitted = fitOneTree(...args, { prune: "none", grow: { minLeaf: 1 } });
+ * assert.equal(fitted.alpha, 0);
+ * // Rows the tree drew get NaN; the others its prediction, which (grown to
+ * // pure leaves) is the row's pay wherever a row of the same x was drawn.
+ * const drawn = bootstrapCounts(12, states, 2);
+ * let checked = 0;
+ * for (let r = 0; r < 12; r++) {
+ *   if (drawn[r] > 0) assert(Number.isNaN(fitted.oob[r]));
+ *   else if (drawn.some((n, s) => n > 0 && x[s] === x[r])) {
+ *     assert.equal(fitted.oob[r], y[r]);
+ *     checked++;
+ *   }
+ * }
+ * assert(checked > 0);
+ * assert.equal(fitOneTree(...args, { alpha: 5 }).alpha, 5);
+ * ```
  */
 export function fitOneTree(
   dataset: Dataset,
@@ -176,6 +223,26 @@ export function fitOneTree(
  *
  * @param oobValues Per tree, its prediction for each row it did not draw
  * (`width` values per row; NaN for rows it drew), from `fitOneTree`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { growTree } from "../tree/grow_tree.ts";
+ * import { assembleEnsemble } from "./fit_ensemble.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(2, 2, 6, 8) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) });
+ * // Tree 0 left out rows 1 and 2, tree 1 rows 0 and 2; no tree left out row 3.
+ * const oobValues = [Float64Array.of(NaN, 2, 4, NaN), Float64Array.of(6, NaN, 8, NaN)];
+ * const ensemble = assembleEnsemble(dataset, [tree, tree], new Float64Array(2), oobValues, new Int32Array(8));
+ * assert.deepEqual([...ensemble.oob], [6, 2, 6, NaN]); // row 2: (4 + 8) / 2
+ * assert.deepEqual([...ensemble.oobTrees], [1, 1, 2, 0]);
+ * assert.equal(ensemble.width, 1);
+ * ```
  */
 export function assembleEnsemble(
   dataset: Dataset,

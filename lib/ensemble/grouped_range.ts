@@ -60,6 +60,22 @@ export function groupResiduals(
 /**
  * The range for a profile whose estimate is `estimate`: the estimate plus
  * the residual quantiles of its group.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { groupedRange } from "./grouped_range.ts";
+ * // Estimates up to 10 have residuals -1, 0, 1; larger ones -5..5.
+ * const groups = {
+ *   edges: Float64Array.of(10, Infinity),
+ *   residuals: [Float64Array.of(-1, 0, 1), Float64Array.from({ length: 11 }, (_, i) => i - 5)],
+ * };
+ * // Coverage 0.5: quantiles 0.25 and 0.75 (type 7). Of -1, 0, 1: -0.5 and 0.5.
+ * assert.deepEqual(groupedRange(10, groups, 0.5), { low: 9.5, high: 10.5, coverage: 0.5 });
+ * // Of -5..5: h = 10 x 0.25 = 2.5, so -2.5 and 2.5.
+ * assert.deepEqual(groupedRange(20, groups, 0.5), { low: 17.5, high: 22.5, coverage: 0.5 });
+ * assert.throws(() => groupedRange(20, groups, 1), RangeError);
+ * ```
  */
 export function groupedRange(estimate: number, groups: ResidualGroups, coverage: number): Interval {
   if (!(coverage > 0 && coverage < 1)) {

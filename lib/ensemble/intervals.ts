@@ -40,7 +40,17 @@ export function treeEstimates(ensemble: Ensemble, profile: ArrayLike<number>): F
   return Float64Array.from(ensemble.trees, (tree) => tree.value[applyValues(tree, profile)]);
 }
 
-/** The mean of values. */
+/**
+ * The mean of values.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { mean } from "./intervals.ts";
+ * assert.equal(mean([1, 2, 3, 6]), 3);
+ * assert.equal(mean(Float64Array.of(-4, 5)), 0.5);
+ * ```
+ */
 export function mean(values: ArrayLike<number>): number {
   let sum = 0;
   for (let i = 0; i < values.length; i++) sum += values[i];
@@ -78,6 +88,22 @@ export function percentileInterval(values: ArrayLike<number>, coverage: number):
 /**
  * The out-of-bag residuals y - yhat(OOB) of the rows that have an
  * out-of-bag prediction (regression).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { oobResiduals } from "./intervals.ts";
+ * // Row 1 was drawn by every tree: no out-of-bag prediction.
+ * const ensemble = {
+ *   trees: [],
+ *   resamples: new Int32Array(0),
+ *   alphas: new Float64Array(0),
+ *   width: 1,
+ *   oob: Float64Array.of(10, NaN, 25, 40),
+ *   oobTrees: Int32Array.of(2, 0, 1, 3),
+ * };
+ * assert.deepEqual([...oobResiduals(ensemble, [12, 20, 20, 41])], [2, -5, 1]);
+ * ```
  */
 export function oobResiduals(ensemble: Ensemble, y: ArrayLike<number>): Float64Array {
   const out: number[] = [];
@@ -153,6 +179,27 @@ export function pairedDifference(
 /**
  * Out-of-bag accuracy of a regression ensemble: RMSE, MAE and R-squared of
  * the out-of-bag predictions, over the rows that have one.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { oobRegressionMetrics } from "./intervals.ts";
+ * // Row 1 has no out-of-bag prediction; the others have residuals 2, -5, 1.
+ * const ensemble = {
+ *   trees: [],
+ *   resamples: new Int32Array(0),
+ *   alphas: new Float64Array(0),
+ *   width: 1,
+ *   oob: Float64Array.of(10, NaN, 25, 40),
+ *   oobTrees: Int32Array.of(2, 0, 1, 3),
+ * };
+ * const m = oobRegressionMetrics(ensemble, [12, 20, 20, 41]);
+ * assert.equal(m.rows, 3);
+ * assert(Math.abs(m.rmse - Math.sqrt(30 / 3)) < 1e-12);
+ * assert(Math.abs(m.mae - 8 / 3) < 1e-12);
+ * // Actual 12, 20, 41: SST = 2225 - 73^2 / 3 = 1346 / 3, SSE = 30.
+ * assert(Math.abs(m.r2 - (1 - 90 / 1346)) < 1e-12);
+ * ```
  */
 export function oobRegressionMetrics(
   ensemble: Ensemble,
@@ -175,6 +222,26 @@ export function oobRegressionMetrics(
  * largest averaged share per row, against the row's class.
  *
  * @param classes Each row's class code.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { oobClassificationMetrics } from "./intervals.ts";
+ * // Two classes; row 2 has no out-of-bag trees. Largest shares: 0, 1, -, 0.
+ * const ensemble = {
+ *   trees: [],
+ *   resamples: new Int32Array(0),
+ *   alphas: new Float64Array(0),
+ *   width: 2,
+ *   oob: Float64Array.of(0.8, 0.2, 0.3, 0.7, 0.5, 0.5, 0.6, 0.4),
+ *   oobTrees: Int32Array.of(4, 2, 0, 3),
+ * };
+ * const m = oobClassificationMetrics(ensemble, [0, 1, 1, 1]);
+ * // Rows 0, 1, 3: classes 0, 1, 1 predicted 0, 1, 0.
+ * assert.equal(m.rows, 3);
+ * assert(Math.abs(m.accuracy - 2 / 3) < 1e-12);
+ * assert.deepEqual(m.confusion, [[1, 0], [1, 1]]);
+ * ```
  */
 export function oobClassificationMetrics(
   ensemble: Ensemble,
@@ -257,6 +324,39 @@ export function inBagCounts(
  *
  * @param bag The trees' counts from {@linkcode inBagCounts}, to reuse
  * across profiles (regenerated when omitted).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { growTree } from "../tree/grow_tree.ts";
+ * import { infinitesimalJackknife } from "./intervals.ts";
+ * // Two one-leaf trees estimating 10 and 14 (mean 12, deviations -2 and 2).
+ * const leaf = (pay: number) => {
+ *   const dataset = {
+ *     rows: 2,
+ *     features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2) }],
+ *     target: { kind: "regression" as const, name: "pay", values: Float64Array.of(pay, pay) },
+ *   };
+ *   return growTree({ dataset, bins: binFeatures(dataset) });
+ * };
+ * const ensemble = {
+ *   trees: [leaf(10), leaf(14)],
+ *   resamples: new Int32Array(0),
+ *   alphas: new Float64Array(2),
+ *   width: 1,
+ *   oob: new Float64Array(2),
+ *   oobTrees: new Int32Array(2),
+ * };
+ * // Tree 0 drew row 0 twice, tree 1 row 1 twice:
+ * // Cov_0 = ((2 - 1)(-2) + (0 - 1)(2)) / 2 = -2, Cov_1 = 2, so V = 8;
+ * // the correction takes (n / B^2) x 8 = 4, leaving 4: SE 2.
+ * const ij = infinitesimalJackknife(ensemble, 2, [1], { rows: 2, counts: Uint8Array.of(2, 0, 0, 2) });
+ * assert.deepEqual(ij, { se: 2, clamped: false, uncorrectedSe: Math.sqrt(8) });
+ * // Every row drawn once by each tree: V = 0, corrected -4, clamped at 0.
+ * const flat = infinitesimalJackknife(ensemble, 2, [1], { rows: 2, counts: Uint8Array.of(1, 1, 1, 1) });
+ * assert.deepEqual(flat, { se: 0, clamped: true, uncorrectedSe: 0 });
+ * ```
  */
 export function infinitesimalJackknife(
   ensemble: Ensemble,

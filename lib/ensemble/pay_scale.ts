@@ -47,6 +47,14 @@ export function toFitScale(values: ArrayLike<number>, scale: PayScale, name: str
  * A value on the fitting scale back in money (exp for log: the median of
  * pay, since the mean of log pay is the log of the median when its spread
  * is symmetric).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { toMoney } from "./pay_scale.ts";
+ * assert(Math.abs(toMoney(Math.log(52000), "log") - 52000) < 1e-8);
+ * assert.equal(toMoney(52000, "raw"), 52000);
+ * ```
  */
 export function toMoney(value: number, scale: PayScale): number {
   return scale === "log" ? Math.exp(value) : value;

@@ -32,6 +32,40 @@ export interface LeafMembers {
  * (all training rows, as in Meinshausen 2006, not only a tree's in-bag rows).
  *
  * @param dataset The table the ensemble was fitted on.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { applyRow } from "../tree/flat_tree.ts";
+ * import { growTree } from "../tree/grow_tree.ts";
+ * import { leafMembers } from "./quantile_forest.ts";
+ * const values = Float64Array.of(1, 2, 3, 4);
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(1, 1, 5, 5) },
+ * };
+ * // Tree 0 splits x into {1, 2} and {3, 4}; tree 1 is a single leaf (grown on constant pay).
+ * const split = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * const flat = { ...dataset, target: { ...dataset.target, values: Float64Array.of(3, 3, 3, 3) } };
+ * const root = growTree({ dataset: flat, bins: binFeatures(flat) });
+ * const ensemble = {
+ *   trees: [split, root],
+ *   resamples: new Int32Array(0),
+ *   alphas: new Float64Array(2),
+ *   width: 1,
+ *   oob: new Float64Array(4),
+ *   oobTrees: new Int32Array(4),
+ * };
+ * const m = leafMembers(ensemble, dataset);
+ * const rowsOf = (b: number, leaf: number) => [...m.rows[b].subarray(m.start[b][leaf], m.start[b][leaf + 1])];
+ * assert.deepEqual(rowsOf(0, applyRow(split, dataset.features, 0)), [0, 1]);
+ * assert.deepEqual(rowsOf(0, applyRow(split, dataset.features, 3)), [2, 3]);
+ * assert.deepEqual(rowsOf(0, 0), []); // the root is not a leaf
+ * assert.deepEqual(rowsOf(1, 0), [0, 1, 2, 3]);
+ * assert.deepEqual([...m.target], [1, 1, 5, 5]);
+ * ```
  */
 export function leafMembers(ensemble: Ensemble, dataset: Dataset): LeafMembers {
   if (dataset.target.kind !== "regression") {

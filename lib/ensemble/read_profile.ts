@@ -77,6 +77,32 @@ export interface ProfileReader {
  * which need everyone's pay; otherwise from out-of-bag residuals grouped by
  * estimate and kept as a saved model keeps them (block means of at least
  * `privacyMin` residuals, default 5).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble } from "./fit_ensemble.ts";
+ * import { profileReader } from "./read_profile.ts";
+ * const years = Array.from({ length: 200 }, (_, i) => i % 20);
+ * const pay = years.map((y, i) => Math.log(40000 + 2000 * y + (i % 5) * 500));
+ * const dataset = {
+ *   rows: 200,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(pay) },
+ * };
+ * const ensemble = fitEnsemble(dataset, { trees: 30, prune: "none", grow: { minLeaf: 5 } });
+ * const reader = profileReader(ensemble, dataset, "log");
+ * // 200 rows: 4 groups of 50 residuals; 30 trees are fewer than one per row: no jackknife.
+ * assert.equal(reader.groups.edges.length, 4);
+ * assert.equal(reader.groups.edges[3], Infinity);
+ * assert.equal(reader.trainingRows, 200);
+ * assert.equal(reader.bag, null);
+ * assert.equal(reader.members, null);
+ * // On logs the centre is measured on every row with an out-of-bag estimate.
+ * assert.equal(reader.center!.rows, ensemble.oobTrees.filter((n) => n > 0).length);
+ * assert.equal(profileReader(ensemble, dataset, "raw").center, null);
+ * assert.equal(profileReader(ensemble, dataset, "log", { withTable: true }).members!.rows.length, 30);
+ * ```
  */
 export function profileReader(
   ensemble: Ensemble,
@@ -106,6 +132,14 @@ export function profileReader(
  * How many groups of similar estimates the range uses: 10, fewer for small
  * tables so that each group keeps at least 50 rows (a 90% range from fewer
  * residuals rests on two or three people at each end).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { residualGroupCount } from "./read_profile.ts";
+ * // floor(rows / 50), at least 1 and at most 10.
+ * assert.deepEqual([20, 120, 499, 5000].map(residualGroupCount), [1, 2, 9, 10]);
+ * ```
  */
 export function residualGroupCount(rows: number): number {
   return Math.max(1, Math.min(10, Math.floor(rows / 50)));
@@ -116,6 +150,42 @@ export function residualGroupCount(rows: number): number {
  * residual quantiles and the training row count, with the trees'
  * resampling states when the analyst's part is at hand (the jackknife
  * regenerates the in-bag counts from them when it is shown).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readProfile } from "./read_profile.ts";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { growTree } from "../tree/grow_tree.ts";
+ * import { readerFromParts } from "./read_profile.ts";
+ * // Two trees split after x = 2: one says 10 or 30, the other 10 or 40.
+ * const tree = (high: number) => {
+ *   const dataset = {
+ *     rows: 4,
+ *     features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4) }],
+ *     target: { kind: "regression" as const, name: "pay", values: Float64Array.of(10, 10, high, high) },
+ *   };
+ *   return growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * };
+ * // One group of residuals -1, 0, 1 for every estimate.
+ * const groups = { edges: Float64Array.of(Infinity), residuals: [Float64Array.of(-1, 0, 1)] };
+ * const reader = readerFromParts({
+ *   ensemble: { trees: [tree(30), tree(40)] },
+ *   scale: "raw",
+ *   groups,
+ *   trainingRows: 10,
+ *   resamples: null,
+ * });
+ * // Two trees for ten rows: no jackknife, and none withheld.
+ * assert.equal(reader.bag, null);
+ * assert.equal(reader.jackknifeWithheld, false);
+ * assert.equal(reader.center, null);
+ * // At x = 4 the trees say 30 and 40: estimate 35; coverage 0.5 reads the
+ * // residuals' quantiles 0.25 and 0.75 (-0.5 and 0.5).
+ * const reading = readProfile(reader, [4], 0.5);
+ * assert.equal(reading.estimate, 35);
+ * assert.deepEqual(reading.range, { low: 34.5, high: 35.5, coverage: 0.5 });
+ * ```
  */
 export function readerFromParts(parts: {
   ensemble: Pick<Ensemble, "trees">;
@@ -311,6 +381,41 @@ export interface WhatIf {
  * Base vs changed profile, with the per-tree paired differences: each tree
  * estimates both, so their shared errors cancel and the interval of the
  * change is far narrower than the two profiles' intervals suggest.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { compareProfiles } from "./read_profile.ts";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { growTree } from "../tree/grow_tree.ts";
+ * import { readerFromParts } from "./read_profile.ts";
+ * // Two trees split after x = 2: one says 10 or 30, the other 10 or 40.
+ * const tree = (high: number) => {
+ *   const dataset = {
+ *     rows: 4,
+ *     features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4) }],
+ *     target: { kind: "regression" as const, name: "pay", values: Float64Array.of(10, 10, high, high) },
+ *   };
+ *   return growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * };
+ * // One group of residuals -1, 0, 1 for every estimate.
+ * const groups = { edges: Float64Array.of(Infinity), residuals: [Float64Array.of(-1, 0, 1)] };
+ * const reader = readerFromParts({
+ *   ensemble: { trees: [tree(30), tree(40)] },
+ *   scale: "raw",
+ *   groups,
+ *   trainingRows: 10,
+ *   resamples: null,
+ * });
+ * // From x = 1 (10 and 10) to x = 4 (30 and 40): the trees' changes are 20
+ * // and 30, their quantiles 0.25 and 0.75 22.5 and 27.5; the estimate
+ * // moves from 10 to 35.
+ * const whatIf = compareProfiles(reader, [1], [4], 0.5);
+ * assert.deepEqual(whatIf.difference, { estimate: 25, low: 22.5, high: 27.5, coverage: 0.5 });
+ * // Relative: 35 / 10 - 1 = 2.5; per tree 2 and 3, quantiles 2.25 and 2.75.
+ * assert.deepEqual(whatIf.relative, { estimate: 2.5, low: 2.25, high: 2.75, coverage: 0.5 });
+ * assert.equal(whatIf.base.estimate, 10);
+ * ```
  */
 export function compareProfiles(
   reader: ProfileReader,

@@ -52,6 +52,38 @@ export interface SweepPoint extends ProfileReading {
 /**
  * Readings of one profile (estimate, how sure, range, all in money) as one
  * feature runs over a grid with the others held fixed.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { sweepProfile } from "./sweep.ts";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { growTree } from "../tree/grow_tree.ts";
+ * import { readerFromParts } from "./read_profile.ts";
+ * // Two trees split after x = 2: one says 10 or 30, the other 10 or 40.
+ * const tree = (high: number) => {
+ *   const dataset = {
+ *     rows: 4,
+ *     features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4) }],
+ *     target: { kind: "regression" as const, name: "pay", values: Float64Array.of(10, 10, high, high) },
+ *   };
+ *   return growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * };
+ * // One group of residuals -1, 0, 1 for every estimate.
+ * const groups = { edges: Float64Array.of(Infinity), residuals: [Float64Array.of(-1, 0, 1)] };
+ * const reader = readerFromParts({
+ *   ensemble: { trees: [tree(30), tree(40)] },
+ *   scale: "raw",
+ *   groups,
+ *   trainingRows: 10,
+ *   resamples: null,
+ * });
+ * // x from 1 to 4: both trees say 10 up to x = 2, then 30 and 40 (mean 35).
+ * const points = sweepProfile(reader, [0], 0, [1, 2, 3, 4]);
+ * assert.deepEqual(points.map((p) => p.value), [1, 2, 3, 4]);
+ * assert.deepEqual(points.map((p) => p.estimate), [10, 10, 35, 35]);
+ * assert.deepEqual([...points[3].trees], [30, 40]);
+ * ```
  */
 export function sweepProfile(
   reader: ProfileReader,

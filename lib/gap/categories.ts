@@ -144,7 +144,30 @@ export interface TableProvenance {
   seed: number;
 }
 
-/** The provenance of figures computed straight from a table. */
+/**
+ * The provenance of figures computed straight from a table.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { VERSION } from "../version.ts";
+ * import { tableProvenance } from "./categories.ts";
+ * const text = "pay,x\n50000,1\n,2\n60000,3\n";
+ * const table = loadTable(text, { target: "pay", file: "pay.csv" });
+ * // Three rows read, one left out for its missing pay: rows counts all three.
+ * // The SHA-256 is `printf 'pay,x\n50000,1\n,2\n60000,3\n' | sha256sum`.
+ * assert.deepEqual(tableProvenance(table, 17), {
+ *   paygrove: VERSION,
+ *   table: {
+ *     file: "pay.csv",
+ *     sha256: "0eb9f6b9c1c9bffb6c54efb72ca7c9bc5e336090042215c49c019782beb083be",
+ *     rows: 3,
+ *   },
+ *   seed: 17,
+ * });
+ * ```
+ */
 export function tableProvenance(table: Table, seed: number): TableProvenance {
   return {
     paygrove: VERSION,

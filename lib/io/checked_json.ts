@@ -88,6 +88,17 @@ export function withChecksum(body: object): string {
 /**
  * The parsed document without its checksum field, or null when the
  * checksum is missing or does not match the rest.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { withoutChecksum } from "./checked_json.ts";
+ * // SHA-256 of the text {"a":1,"b":[2]}, from `echo -n '{"a":1,"b":[2]}' | sha256sum`.
+ * const sum = "0855bfc20eb6cfaa4be7d6b510c63dd22997718bddadcb1a4915cec3a16145b9";
+ * assert.deepEqual(withoutChecksum({ a: 1, b: [2], checksum: sum }), { a: 1, b: [2] });
+ * assert.equal(withoutChecksum({ a: 2, b: [2], checksum: sum }), null);
+ * assert.equal(withoutChecksum({ a: 1, b: [2] }), null);
+ * ```
  */
 export function withoutChecksum(raw: object): Record<string, unknown> | null {
   const { checksum, ...rest } = raw as { checksum?: unknown };

@@ -90,6 +90,26 @@ export function analystToText(model: Model, modelSha256: string): string {
  *
  * @throws {DataError} when it is not an analyst's file, is damaged, or
  * belongs to another model file.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { analystFromText, analystToText } from "./analyst_file.ts";
+ * const model = {
+ *   rows: { used: 2, dropped: 0 },
+ *   ensemble: { trees: [{}], alpha: 0 },
+ *   analyst: { resamples: Int32Array.of(1, 2, 3, 4), rowKeys: "AAAAAAAAAAA=BBBBBBBBBBB=" },
+ *   provenance: { modelFile: { path: "m.json", sha256: "a".repeat(64) } },
+ * } as unknown as import("./types.ts").Model;
+ * const text = analystToText(model, "a".repeat(64));
+ * const part = analystFromText(text, "m.analyst", model);
+ * assert.deepEqual([...part.resamples], [1, 2, 3, 4]);
+ * assert.equal(part.rowKeys, "AAAAAAAAAAA=BBBBBBBBBBB=");
+ * // Written for another model file's SHA-256, or edited, or not JSON: refused.
+ * assert.throws(() => analystFromText(analystToText(model, "b".repeat(64)), "m.analyst", model), /belongs to another model file/);
+ * assert.throws(() => analystFromText(text.replace("BBBB", "CCCC"), "m.analyst", model), /checksum does not match/);
+ * assert.throws(() => analystFromText("{", "m.analyst", model), /not valid JSON/);
+ * ```
  */
 export function analystFromText(text: string, file: string, model: Model): AnalystPart {
   const damaged = (why: string) =>
@@ -136,6 +156,25 @@ export function analystFromText(text: string, file: string, model: Model): Analy
 /**
  * Writes the analyst's file (mode 0600) for the model file just written
  * with SHA-256 `modelSha256`; an existing file is kept unless `force`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { analystToText, writeAnalystFile } from "./analyst_file.ts";
+ * const model = {
+ *   rows: { used: 2, dropped: 0 },
+ *   ensemble: { trees: [{}], alpha: 0 },
+ *   analyst: { resamples: Int32Array.of(1, 2, 3, 4), rowKeys: "AAAAAAAAAAA=BBBBBBBBBBB=" },
+ *   provenance: { modelFile: { path: "m.json", sha256: "a".repeat(64) } },
+ * } as unknown as import("./types.ts").Model;
+ * const path = `${Deno.makeTempDirSync()}/m.analyst`;
+ * await writeAnalystFile(path, model, "a".repeat(64));
+ * assert.equal(Deno.readTextFileSync(path), analystToText(model, "a".repeat(64)));
+ * if (Deno.build.os !== "windows") assert.equal(Deno.statSync(path).mode! & 0o777, 0o600);
+ * // Not over an existing file without force.
+ * await assert.rejects(() => writeAnalystFile(path, model, "a".repeat(64)));
+ * await writeAnalystFile(path, model, "a".repeat(64), { force: true });
+ * ```
  */
 export async function writeAnalystFile(
   path: string,
@@ -150,6 +189,24 @@ export async function writeAnalystFile(
  * Reads the analyst's file for `model` and joins it to the model.
  *
  * @throws {DataError} as {@linkcode analystFromText}.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readAnalystFile, writeAnalystFile } from "./analyst_file.ts";
+ * const model = {
+ *   rows: { used: 2, dropped: 0 },
+ *   ensemble: { trees: [{}], alpha: 0 },
+ *   analyst: { resamples: Int32Array.of(1, 2, 3, 4), rowKeys: "AAAAAAAAAAA=BBBBBBBBBBB=" },
+ *   provenance: { modelFile: { path: "m.json", sha256: "a".repeat(64) } },
+ * } as unknown as import("./types.ts").Model;
+ * const path = `${Deno.makeTempDirSync()}/m.analyst`;
+ * await writeAnalystFile(path, model, "a".repeat(64));
+ * // A model read from its shared file has no analyst's part; this joins it back.
+ * const joined = await readAnalystFile(path, { ...model, analyst: null });
+ * assert.deepEqual(joined.analyst, model.analyst);
+ * assert.equal(joined.rows, model.rows);
+ * ```
  */
 export async function readAnalystFile(path: string, model: Model): Promise<Model> {
   // Row keys take 12 bytes a row, states 16 bytes a tree, in base64.

@@ -58,6 +58,42 @@ export interface BatchRow {
  * says why.
  *
  * @param offers Each row's offer in money (NaN where none), or null.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { batchAnswer } from "./batch_answer.ts";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { bootstrapCounts } from "../ensemble/bootstrap.ts";
+ * import { applyValues } from "../tree/flat_tree.ts";
+ * import { openModel } from "./model_session.ts";
+ * import { readForModel, rowProfile } from "./model_table.ts";
+ * const csv = demoCompanyCsv({ rows: 200, seed: 4 });
+ * const table = loadTable(csv, { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * const session = openModel(model);
+ * const trees = model.ensemble!.trees;
+ * // A training row's out-of-bag estimate, worked out from the trees that did
+ * // not draw it (their in-bag counts regenerated from the resampling states).
+ * const counts = trees.map((_, b) => bootstrapCounts(200, model.analyst!.resamples, b));
+ * const r = counts[0].findIndex((n) => n === 0); // a row tree 0 never drew
+ * const rows = readForModel(model, csv, "demo.csv");
+ * const p = rowProfile(rows, r);
+ * const logs = trees.filter((_, b) => counts[b][r] === 0).map((t) => t.value[applyValues(t, p)]);
+ * const oob = Math.exp(logs.reduce((a, b) => a + b) / logs.length + model.target.center!.shift);
+ * const scored = batchAnswer(session, rows);
+ * assert.equal(scored.length, 200);
+ * assert.equal(scored[r].estimateSource, "out-of-bag");
+ * assert(Math.abs(scored[r].estimate! - oob) <= 1e-9 * oob);
+ * // An offer at the range's low end sits at position 0, share 5% (coverage 0.9).
+ * const offers = new Float64Array(200).fill(NaN);
+ * offers[r] = scored[r].rangeLow!;
+ * const placed = batchAnswer(session, rows, 0.9, offers)[r];
+ * assert.equal(placed.rangePosition, 0);
+ * assert.equal(placed.offerPosition, "within");
+ * assert(Math.abs(placed.shareBelow! - 0.05) < 1e-12);
+ * assert.equal(batchAnswer(session, rows, 0.9, offers)[r === 0 ? 1 : 0].offerPosition, null);
+ * ```
  */
 export function batchAnswer(
   session: ModelSession,
@@ -174,6 +210,35 @@ export function batchAnswer(
  * training rows (same identifier and attributes), or null when it is not
  * one, the model has no ensemble, or the analyst's part (which alone can
  * tell training rows and their trees' resamples) is not at hand.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { outOfBagEstimate } from "./batch_answer.ts";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { bootstrapCounts } from "../ensemble/bootstrap.ts";
+ * import { applyValues } from "../tree/flat_tree.ts";
+ * import { openModel } from "./model_session.ts";
+ * import { readForModel, rowProfile } from "./model_table.ts";
+ * const csv = demoCompanyCsv({ rows: 200, seed: 4 });
+ * const table = loadTable(csv, { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * const session = openModel(model);
+ * const trees = model.ensemble!.trees;
+ * // A training row's out-of-bag estimate, worked out from the trees that did
+ * // not draw it (their in-bag counts regenerated from the resampling states).
+ * const counts = trees.map((_, b) => bootstrapCounts(200, model.analyst!.resamples, b));
+ * const r = counts[0].findIndex((n) => n === 0); // a row tree 0 never drew
+ * const rows = readForModel(model, csv, "demo.csv");
+ * const p = rowProfile(rows, r);
+ * const logs = trees.filter((_, b) => counts[b][r] === 0).map((t) => t.value[applyValues(t, p)]);
+ * const oob = Math.exp(logs.reduce((a, b) => a + b) / logs.length + model.target.center!.shift);
+ * const estimate = outOfBagEstimate(session, rows.ids[r], p)!;
+ * assert(Math.abs(estimate - oob) <= 1e-9 * oob);
+ * // Another identifier, or a shared model without the analyst's part: no training row.
+ * assert.equal(outOfBagEstimate(session, "NOT-AN-ID", p), null);
+ * assert.equal(outOfBagEstimate(openModel({ ...model, analyst: null }), rows.ids[r], p), null);
+ * ```
  */
 export function outOfBagEstimate(
   session: ModelSession,

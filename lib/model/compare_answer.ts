@@ -43,7 +43,39 @@ export interface CompareAnswer {
   provenance: Provenance;
 }
 
-/** Base vs changed profile. */
+/**
+ * Base vs changed profile.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { applyValues } from "../tree/flat_tree.ts";
+ * import { compareAnswer } from "./compare_answer.ts";
+ * import { openModel } from "./model_session.ts";
+ * import { applyChanges, typicalProfile } from "./profile.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * // On the log scale the estimate is exp(the trees' mean leaf value + the measured shift).
+ * const estimateOf = (p: Float64Array) => {
+ *   const logs = model.ensemble!.trees.map((t) => t.value[applyValues(t, p)]);
+ *   return Math.exp(logs.reduce((a, b) => a + b) / logs.length + model.target.center!.shift);
+ * };
+ * const near = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.abs(b);
+ * const base = typicalProfile(model);
+ * const changed = applyChanges(model, base, ["level=+1"]).profile;
+ * const answer = compareAnswer(openModel(model), base, changed);
+ * const levels = model.features.find((f) => f.name === "level")!.levels!;
+ * const code = base[model.features.findIndex((f) => f.name === "level")];
+ * assert.deepEqual(answer.changes, [{ feature: "level", from: levels[code], to: levels[code + 1] }]);
+ * const [a, b] = [estimateOf(base), estimateOf(changed)];
+ * assert(near(answer.base.estimate, a) && near(answer.changed.estimate, b));
+ * assert(Math.abs(answer.difference.estimate - (b - a)) < 1e-6);
+ * // The shift cancels in the ratio: relative change b / a - 1.
+ * assert(Math.abs(answer.difference.relative.estimate - (b / a - 1)) < 1e-9);
+ * assert.equal(answer.difference.coverage, 0.9);
+ * ```
+ */
 export function compareAnswer(
   session: ModelSession,
   base: Profile,

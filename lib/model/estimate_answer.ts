@@ -164,6 +164,37 @@ const RANGE_METHOD = "out-of-bag residual quantiles of people with similar estim
  * The answer for one profile.
  *
  * @param extraWarnings Warnings from building the profile (e.g. `--set`).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { applyValues } from "../tree/flat_tree.ts";
+ * import { estimateProfile } from "./estimate_answer.ts";
+ * import { openModel } from "./model_session.ts";
+ * import { typicalProfile } from "./profile.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * // On the log scale the estimate is exp(the trees' mean leaf value + the measured shift).
+ * const estimateOf = (p: Float64Array) => {
+ *   const logs = model.ensemble!.trees.map((t) => t.value[applyValues(t, p)]);
+ *   return Math.exp(logs.reduce((a, b) => a + b) / logs.length + model.target.center!.shift);
+ * };
+ * const near = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.abs(b);
+ * const profile = typicalProfile(model);
+ * const answer = estimateProfile(openModel(model), profile, 0.9);
+ * assert(near(answer.estimate, estimateOf(profile)));
+ * assert.equal(answer.trees.length, 6);
+ * // The reference tree's own figure: its leaf's geometric mean, not shifted.
+ * const tree = model.reference.tree;
+ * const leaf = applyValues(tree, profile);
+ * assert(near(answer.referenceTree, Math.exp(tree.value[leaf])));
+ * assert.equal(answer.leaf.rows, tree.rows[leaf]);
+ * const level = model.features.findIndex((f) => f.name === "level");
+ * assert.equal(answer.profile.level, model.features[level].levels![profile[level]]);
+ * assert(answer.range!.low < answer.estimate && answer.estimate < answer.range!.high);
+ * assert.equal(answer.range!.coverage, 0.9);
+ * ```
  */
 export function estimateProfile(
   session: ModelSession,

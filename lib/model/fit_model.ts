@@ -485,7 +485,21 @@ function variance(values: ArrayLike<number>): number {
   return ss / values.length;
 }
 
-/** Median of the known values (numeric) or the most common level code. */
+/**
+ * Median of the known values (numeric) or the most common level code.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { typicalValue } from "./fit_model.ts";
+ * // Known values 1, 2, 3, 10: median (2 + 3) / 2.
+ * assert.equal(typicalValue(Float64Array.of(3, NaN, 1, 10, 2), "numeric"), 2.5);
+ * // Codes 1 and 2 are both most common (twice): the lower code wins.
+ * assert.equal(typicalValue(Float64Array.of(2, 1, 2, 1, 0), "categorical"), 1);
+ * assert.equal(typicalValue(Float64Array.of(0, 3, 3), "ordinal"), 3);
+ * assert(Number.isNaN(typicalValue(Float64Array.of(NaN), "numeric")));
+ * ```
+ */
 export function typicalValue(values: Float64Array, kind: FeatureSchema["kind"]): number {
   const known = values.filter((v) => !Number.isNaN(v));
   if (known.length === 0) return NaN;
@@ -580,6 +594,16 @@ function supportOf(
  * The key of a training row: the first 8 bytes (base64) of the SHA-256 of
  * its identifier and feature values, so `batch` can tell a training row
  * from a new one without the model keeping the rows.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { rowKey } from "./fit_model.ts";
+ * // SHA-256 of "E7\u00012\u0001NA\u00013.5", first 8 bytes in base64, from Python:
+ * // base64.b64encode(hashlib.sha256(t.encode()).digest()[:8]).
+ * assert.equal(rowKey("E7", [2, NaN, 3.5]), "IQYqfhnp1QU=");
+ * assert.notEqual(rowKey("E8", [2, NaN, 3.5]), "IQYqfhnp1QU=");
+ * ```
  */
 export function rowKey(identifier: string, values: ArrayLike<number>): string {
   const text = `${identifier}\u0001${

@@ -324,6 +324,22 @@ export function modelToText(model: Model): string {
  *
  * @param file The file's name, for messages.
  * @throws {DataError} naming what is wrong.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { modelFromText, modelToText } from "./model_file.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * const text = modelToText(model);
+ * const read = modelFromText(text, "m.json");
+ * assert.deepEqual(read.features.map((f) => f.name), model.features.map((f) => f.name));
+ * assert.deepEqual(read.rows, { used: 200, dropped: 0 });
+ * assert.equal(read.ensemble!.trees.length, 6);
+ * assert.equal(read.analyst, null); // the shared file holds no resampling states
+ * assert.throws(() => modelFromText(text.slice(0, 100), "m.json"), /not valid JSON/);
+ * ```
  */
 export function modelFromText(text: string, file: string): Model {
   currentFile = file;
@@ -613,6 +629,24 @@ export async function readModelFile(path: string): Promise<Model> {
  * Writes a model file atomically; an existing file is kept unless `force`.
  *
  * @returns The file's size in bytes and the SHA-256 of its bytes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { createHash } from "node:crypto";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { readModelFile, writeModelFile } from "./model_file.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * const path = `${Deno.makeTempDirSync()}/m.json`;
+ * const written = await writeModelFile(path, model);
+ * const bytes = Deno.readFileSync(path);
+ * assert.equal(written.bytes, bytes.length);
+ * assert.equal(written.sha256, createHash("sha256").update(bytes).digest("hex"));
+ * assert.equal((await readModelFile(path)).provenance.modelFile!.sha256, written.sha256);
+ * // Not over an existing file without force.
+ * await assert.rejects(() => writeModelFile(path, model));
+ * ```
  */
 export async function writeModelFile(
   path: string,

@@ -23,6 +23,24 @@ export interface ModelSession {
 /**
  * Prepares a model for answers (regenerates what the jackknife needs when
  * the analyst's part is at hand).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { openModel } from "./model_session.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * const session = openModel(model);
+ * assert.equal(session.model, model);
+ * assert.equal(session.reader!.trainingRows, 200);
+ * assert.equal(session.reader!.ensemble.trees, model.ensemble!.trees);
+ * assert.equal(session.reader!.groups, model.residuals);
+ * // 6 trees for 200 rows: fewer than one a row, so no jackknife counts.
+ * assert.equal(session.reader!.bag, null);
+ * // Without an ensemble only the reference tree answers: no reader.
+ * assert.equal(openModel({ ...model, ensemble: null }).reader, null);
+ * ```
  */
 export function openModel(model: Model): ModelSession {
   const reader = model.ensemble !== null && model.residuals !== null &&
@@ -60,7 +78,21 @@ export function resamplesOf(model: Model): Int32Array | null {
   return states !== undefined && trees > 0 && states.length === trees * STATE_WORDS ? states : null;
 }
 
-/** Checks a coverage option. */
+/**
+ * Checks a coverage option.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { OptionError } from "../errors.ts";
+ * import { checkCoverage } from "./model_session.ts";
+ * checkCoverage(0.5);
+ * checkCoverage(0.99);
+ * assert.throws(() => checkCoverage(0.49), OptionError);
+ * assert.throws(() => checkCoverage(0.995), /between 0.5 and 0.99, got 0.995/);
+ * assert.throws(() => checkCoverage(NaN), OptionError);
+ * ```
+ */
 export function checkCoverage(coverage: number): void {
   if (!(coverage >= 0.5 && coverage <= 0.99)) {
     throw new OptionError(`--coverage must be between 0.5 and 0.99, got ${coverage}`);

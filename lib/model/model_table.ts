@@ -123,6 +123,36 @@ export function readSettingsWith(read: ReadSettings, overrides: ReadOverrides = 
  * @param amounts Further columns to read as numbers (e.g. offers), when present.
  * @param overrides Reading options that differ from the model's own table's.
  * @throws {DataError} listing the schema differences.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readForModel, RowsRefusedError } from "./model_table.ts";
+ * const model = {
+ *   target: { name: "pay" },
+ *   read: { decimal: ".", encoding: "utf-8", types: {}, orders: {}, identifier: "id" },
+ *   features: [
+ *     { name: "site", kind: "categorical", levels: ["North", "South"] },
+ *     { name: "years", kind: "numeric" },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * // Columns in another order, a level in other case, a missing number.
+ * const rows = readForModel(model, "id,years,site\nA1,3,South\nA2,,North\nA3,7,south\n", "c.csv");
+ * assert.equal(rows.rows, 3);
+ * assert.deepEqual([...rows.features[0]], [1, 0, 1]); // the model's codes: North 0, South 1
+ * assert.deepEqual([...rows.features[1]], [3, NaN, 7]);
+ * assert.deepEqual(rows.ids, ["A1", "A2", "A3"]);
+ * assert.equal(rows.target, null); // no pay column
+ * // A level the model never saw refuses its row (line 3), not the others.
+ * try {
+ *   readForModel(model, "id,years,site\nA1,3,South\nA2,4,West\n", "c.csv");
+ *   assert.fail("West is no level of the model");
+ * } catch (e) {
+ *   assert(e instanceof RowsRefusedError);
+ *   assert.deepEqual(e.rows.refused!.map((x) => [x.row, x.line]), [[1, 3]]);
+ * }
+ * assert.throws(() => readForModel(model, "id,site\nA1,North\n", "c.csv"), /lacks the column "years"/);
+ * ```
  */
 export function readForModel(
   model: Model,
@@ -298,7 +328,18 @@ export async function readTableFileForModel(
   return readForModel(model, text, path, requireTarget, amounts, overrides);
 }
 
-/** The profile of row `r`. */
+/**
+ * The profile of row `r`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { rowProfile } from "./model_table.ts";
+ * const rows = { features: [Float64Array.of(1, 0, 1), Float64Array.of(3, NaN, 7)] } as unknown as import("./model_table.ts").ModelRows;
+ * assert.deepEqual([...rowProfile(rows, 2)], [1, 7]);
+ * assert.deepEqual([...rowProfile(rows, 1)], [0, NaN]);
+ * ```
+ */
 export function rowProfile(rows: ModelRows, r: number): Float64Array {
   return Float64Array.from(rows.features, (values) => values[r]);
 }
@@ -307,6 +348,23 @@ export function rowProfile(rows: ModelRows, r: number): Float64Array {
  * The index of the row whose identifier is `id`.
  *
  * @throws {DataError} when the table has no identifier column or no such row.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { findRow } from "./model_table.ts";
+ * const model = { target: { name: "pay" }, features: [{ name: "years" }] } as unknown as import("./types.ts").Model;
+ * const withIds = { idColumn: "id", ids: ["A1", "A2", "A3"] } as unknown as import("./model_table.ts").ModelRows;
+ * assert.equal(findRow(model, withIds, "A3", "c.csv"), 2);
+ * assert.throws(() => findRow(model, withIds, "A9", "c.csv"), /has no row with id "A9"/);
+ * // Without an identifier column: the one row naming it in a column that is no attribute.
+ * const named = {
+ *   ids: ["", ""],
+ *   raw: { header: ["candidate", "years"], cells: [["Ann", "Bo"], ["3", "5"]] },
+ * } as unknown as import("./model_table.ts").ModelRows;
+ * assert.equal(findRow(model, named, "Bo", "c.csv"), 1);
+ * assert.throws(() => findRow(model, named, "5", "c.csv"), /no row of c.csv is named "5"/);
+ * ```
  */
 export function findRow(model: Model, rows: ModelRows, id: string, file: string): number {
   if (rows.idColumn !== undefined) {

@@ -24,6 +24,23 @@ export interface ProfileWarning {
 /**
  * The typical profile: each numeric feature at its median, each level
  * feature at its most common level.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { typicalProfile } from "./profile.ts";
+ * const model = {
+ *   target: { name: "pay" },
+ *   dropped: [{ name: "employee_id", reason: "an identifier" }],
+ *   settings: { allowProtected: false },
+ *   features: [
+ *     { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"], typical: 1, protected: false },
+ *     { name: "years", kind: "numeric", typical: 6, range: { min: 0, max: 30 }, protected: false },
+ *     { name: "gender", kind: "categorical", levels: ["Man", "Woman"], typical: 0, protected: true },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * assert.deepEqual([...typicalProfile(model)], [1, 6, 0]);
+ * ```
  */
 export function typicalProfile(model: Model): Profile {
   return Float64Array.from(model.features, (f) => f.typical);
@@ -31,7 +48,30 @@ export function typicalProfile(model: Model): Profile {
 
 export { editDistance, nearest } from "../table/column_named.ts";
 
-/** The feature named `name`, or an OptionError listing the model's features. */
+/**
+ * The feature named `name`, or an OptionError listing the model's features.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { findFeature } from "./profile.ts";
+ * const model = {
+ *   target: { name: "pay" },
+ *   dropped: [{ name: "employee_id", reason: "an identifier" }],
+ *   settings: { allowProtected: false },
+ *   features: [
+ *     { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"], typical: 1, protected: false },
+ *     { name: "years", kind: "numeric", typical: 6, range: { min: 0, max: 30 }, protected: false },
+ *     { name: "gender", kind: "categorical", levels: ["Man", "Woman"], typical: 0, protected: true },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * assert.equal(findFeature(model, "years", "--set"), 1);
+ * assert.equal(findFeature(model, "LEVEL", "--set"), 0); // a case match
+ * assert.throws(() => findFeature(model, "pay", "--set"), /what the model estimates/);
+ * assert.throws(() => findFeature(model, "employee_id", "--set"), /not used by this model \(an identifier\)/);
+ * assert.throws(() => findFeature(model, "yeers", "--set"), /did you mean "years"/);
+ * ```
+ */
 export function findFeature(model: Model, name: string, option: string): number {
   const index = model.features.findIndex((f) => f.name === name);
   if (index >= 0) return index;
@@ -69,6 +109,20 @@ export function findFeature(model: Model, name: string, option: string): number 
  *
  * @throws {OptionError} for an unseen level (listing the levels, suggesting
  * the nearest) or a value that is not a number for a numeric feature.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { valueOf } from "./profile.ts";
+ * const level = { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"] } as unknown as import("./types.ts").FeatureSchema;
+ * const years = { name: "years", kind: "numeric" } as unknown as import("./types.ts").FeatureSchema;
+ * assert.equal(valueOf(level, "L3", "--set"), 2);
+ * assert.equal(valueOf(level, "l2", "--set"), 1); // levels match without case
+ * assert.equal(valueOf(years, "1_000.5", "--set"), 1000.5);
+ * assert(Number.isNaN(valueOf(years, "NA", "--set")));
+ * assert.throws(() => valueOf(years, "4,5", "--set"), /write decimals with a point: 4\.5/);
+ * assert.throws(() => valueOf(level, "L9", "--set"));
+ * ```
  */
 export function valueOf(feature: FeatureSchema, text: string, option: string): number {
   if (text === "") {
@@ -97,7 +151,19 @@ export function valueOf(feature: FeatureSchema, text: string, option: string): n
   throw unknownLevel(option, feature.name, text, levels);
 }
 
-/** Splits `COLUMN=VALUE`. */
+/**
+ * Splits `COLUMN=VALUE`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { splitAssignment } from "./profile.ts";
+ * // At the first "=", both sides trimmed.
+ * assert.deepEqual(splitAssignment(" site = Harbour=side ", "--set"), ["site", "Harbour=side"]);
+ * assert.throws(() => splitAssignment("=5", "--set"), /expected COLUMN=VALUE/);
+ * assert.throws(() => splitAssignment("site", "--set"), /expected COLUMN=VALUE/);
+ * ```
+ */
 export function splitAssignment(text: string, option: string): [string, string] {
   const at = text.indexOf("=");
   if (at <= 0) throw new OptionError(`${option}: expected COLUMN=VALUE, got "${text}"`);
@@ -165,6 +231,30 @@ function checkLever(model: Model, feature: FeatureSchema, option: string): void 
  * Applies `--set COLUMN=VALUE` edits to a profile (a copy is returned).
  *
  * @returns The profile and warnings (values outside the training range).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { applySets } from "./profile.ts";
+ * const model = {
+ *   target: { name: "pay" },
+ *   dropped: [{ name: "employee_id", reason: "an identifier" }],
+ *   settings: { allowProtected: false },
+ *   features: [
+ *     { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"], typical: 1, protected: false },
+ *     { name: "years", kind: "numeric", typical: 6, range: { min: 0, max: 30 }, protected: false },
+ *     { name: "gender", kind: "categorical", levels: ["Man", "Woman"], typical: 0, protected: true },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * const base = Float64Array.of(1, 6, 0);
+ * const set = applySets(model, base, ["level=L3", "years=40"]);
+ * assert.deepEqual([...set.profile], [2, 40, 0]);
+ * assert.deepEqual([...base], [1, 6, 0]); // the base is left as it was
+ * // 40 lies beyond the 0-30 the model saw.
+ * assert.deepEqual(set.warnings.map((w) => w.feature), ["years"]);
+ * // A protected attribute is no lever in a model fitted without them.
+ * assert.throws(() => applySets(model, base, ["gender=Woman"]), /protected attribute/);
+ * ```
  */
 export function applySets(
   model: Model,
@@ -185,6 +275,28 @@ export function applySets(
 /**
  * Applies `--change COLUMN=VALUE` edits; for an ordinal, `+N` / `-N` moves
  * N steps up or down its order (a promotion is `level=+1`).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { applyChanges } from "./profile.ts";
+ * const model = {
+ *   target: { name: "pay" },
+ *   dropped: [{ name: "employee_id", reason: "an identifier" }],
+ *   settings: { allowProtected: false },
+ *   features: [
+ *     { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"], typical: 1, protected: false },
+ *     { name: "years", kind: "numeric", typical: 6, range: { min: 0, max: 30 }, protected: false },
+ *     { name: "gender", kind: "categorical", levels: ["Man", "Woman"], typical: 0, protected: true },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * const base = Float64Array.of(1, 6, 0);
+ * // L2 up one step is L3; 6 years plus 3 is 9; a level named outright is set.
+ * assert.deepEqual([...applyChanges(model, base, ["level=+1", "years=+3"]).profile], [2, 9, 0]);
+ * assert.deepEqual([...applyChanges(model, base, ["level=L1"]).profile], [0, 6, 0]);
+ * // L2 two steps up would leave the ladder L1 to L3.
+ * assert.throws(() => applyChanges(model, base, ["level=+2"]), /beyond the ladder \(L1 to L3\)/);
+ * ```
  */
 export function applyChanges(
   model: Model,
@@ -224,7 +336,29 @@ export function applyChanges(
   return { profile: out, warnings: rangeWarnings(model, out) };
 }
 
-/** Warnings for numeric values outside the range the model saw. */
+/**
+ * Warnings for numeric values outside the range the model saw.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { rangeWarnings } from "./profile.ts";
+ * const model = {
+ *   target: { name: "pay" },
+ *   dropped: [{ name: "employee_id", reason: "an identifier" }],
+ *   settings: { allowProtected: false },
+ *   features: [
+ *     { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"], typical: 1, protected: false },
+ *     { name: "years", kind: "numeric", typical: 6, range: { min: 0, max: 30 }, protected: false },
+ *     { name: "gender", kind: "categorical", levels: ["Man", "Woman"], typical: 0, protected: true },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * // years runs 0 to 30 in the training data; 30 is inside, -1 and 31 are not.
+ * assert.deepEqual(rangeWarnings(model, Float64Array.of(2, 30, 0)), []);
+ * assert.deepEqual(rangeWarnings(model, Float64Array.of(2, 31, 0)).map((w) => w.feature), ["years"]);
+ * assert.match(rangeWarnings(model, Float64Array.of(2, -1, 0))[0].message, /years -1 is outside the training data \(0 to 30\)/);
+ * ```
+ */
 export function rangeWarnings(model: Model, profile: Profile): ProfileWarning[] {
   const warnings: ProfileWarning[] = [];
   model.features.forEach((f, i) => {
@@ -241,7 +375,30 @@ export function rangeWarnings(model: Model, profile: Profile): ProfileWarning[] 
   return warnings;
 }
 
-/** The profile in words: feature name -> value (level name, number, or null for missing). */
+/**
+ * The profile in words: feature name -> value (level name, number, or null for missing).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { describeProfile } from "./profile.ts";
+ * const model = {
+ *   target: { name: "pay" },
+ *   dropped: [{ name: "employee_id", reason: "an identifier" }],
+ *   settings: { allowProtected: false },
+ *   features: [
+ *     { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"], typical: 1, protected: false },
+ *     { name: "years", kind: "numeric", typical: 6, range: { min: 0, max: 30 }, protected: false },
+ *     { name: "gender", kind: "categorical", levels: ["Man", "Woman"], typical: 0, protected: true },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * assert.deepEqual(describeProfile(model, Float64Array.of(2, 7.5, NaN)), {
+ *   level: "L3",
+ *   years: 7.5,
+ *   gender: null,
+ * });
+ * ```
+ */
 export function describeProfile(
   model: Model,
   profile: Profile,

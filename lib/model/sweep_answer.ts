@@ -50,6 +50,25 @@ export interface SweepAnswer {
 /**
  * The grid of a sweep: every level, or `steps` values from `from` to `to`
  * (default: the training data's 1% to 99% quantiles).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { sweepValues } from "./sweep_answer.ts";
+ * const model = {
+ *   features: [
+ *     { name: "years", kind: "numeric", range: { min: 0, max: 40, p01: 1, p99: 31 } },
+ *     { name: "level", kind: "ordinal", levels: ["L1", "L2", "L3"] },
+ *   ],
+ * } as unknown as import("./types.ts").Model;
+ * // 1 to 31 in 4 steps of 10; a level feature sweeps every level's code.
+ * assert.deepEqual(sweepValues(model, 0, { steps: 4 }), [1, 11, 21, 31]);
+ * assert.deepEqual(sweepValues(model, 1), [0, 1, 2]);
+ * // 1.1 + (8.1755 - 1.1) is 8.175500000000001 in floating point; read as 8.1755.
+ * assert.deepEqual(sweepValues(model, 0, { from: 1.1, to: 8.1755, steps: 2 }), [1.1, 8.1755]);
+ * assert.throws(() => sweepValues(model, 0, { steps: 1 }), /--steps/);
+ * assert.throws(() => sweepValues(model, 0, { from: 5, to: 5 }), /--to must be above --from/);
+ * ```
  */
 export function sweepValues(
   model: Model,
@@ -76,6 +95,39 @@ export function sweepValues(
  * Estimates over one attribute with the rest of the profile held fixed;
  * with `averageOver`, also the estimate averaged over those rows with the
  * attribute set (partial dependence).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { applyValues } from "../tree/flat_tree.ts";
+ * import { openModel } from "./model_session.ts";
+ * import { typicalProfile } from "./profile.ts";
+ * import { sweepAnswer } from "./sweep_answer.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 6, folds: 5, workers: 1 });
+ * // On the log scale the estimate is exp(the trees' mean leaf value + the measured shift).
+ * const estimateOf = (p: Float64Array) => {
+ *   const logs = model.ensemble!.trees.map((t) => t.value[applyValues(t, p)]);
+ *   return Math.exp(logs.reduce((a, b) => a + b) / logs.length + model.target.center!.shift);
+ * };
+ * const near = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.abs(b);
+ * const profile = typicalProfile(model);
+ * const f = model.features.findIndex((x) => x.name === "level");
+ * const levels = model.features[f].levels!;
+ * const sweep = sweepAnswer(openModel(model), profile, f, levels.map((_, i) => i));
+ * assert.equal(sweep.feature, "level");
+ * assert.deepEqual(sweep.points.map((p) => p.value), levels);
+ * sweep.points.forEach((point, i) => {
+ *   const at = Float64Array.from(profile);
+ *   at[f] = i;
+ *   assert(near(point.estimate, estimateOf(at)));
+ * });
+ * // A value beyond the data's range is said to take the edge's estimate.
+ * const years = model.features.findIndex((x) => x.name === "years_experience");
+ * const beyond = sweepAnswer(openModel(model), profile, years, [model.features[years].range!.max + 5]);
+ * assert.match(beyond.warnings.join(" "), /years_experience outside .* trees cannot extrapolate/);
+ * ```
  */
 export function sweepAnswer(
   session: ModelSession,

@@ -104,7 +104,23 @@ export function findImplausiblePay(
   };
 }
 
-/** A pay column holds implausible values (see {@linkcode findImplausiblePay}). */
+/**
+ * A pay column holds implausible values (see {@linkcode findImplausiblePay}).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { DataError } from "../errors.ts";
+ * import { loadTable } from "./load_table.ts";
+ * import { findImplausiblePay, ImplausiblePayError } from "./implausible.ts";
+ * // Line 3 (the header is line 1) holds 1e308, beyond the 10^15 ceiling.
+ * const table = loadTable("pay\n50000\n1e308\n61000\n", { target: "pay" });
+ * const error = new ImplausiblePayError(findImplausiblePay(table, "pay")!, "t.csv");
+ * assert(error instanceof DataError);
+ * assert.equal(error.finding.count, 1);
+ * assert(error.message.startsWith('t.csv: "pay": line 3 has 1e+308; no plausible pay table'));
+ * ```
+ */
 export class ImplausiblePayError extends DataError {
   /** What was found. */
   readonly finding: ImplausiblePay;

@@ -132,6 +132,23 @@ export function inferColumn(
  *
  * @param values The numbers, NaN where missing.
  * @param texts The cells' texts, asked for only when the column is an identifier.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { inferPlainColumn } from "./infer_column.ts";
+ * import { missingTest } from "./missing.ts";
+ * const options = { file: "t.csv", decimal: "." as const, isMissing: missingTest(), protected: false };
+ * const values = Float64Array.of(30, NaN, 41, 52);
+ * const col = inferPlainColumn("age", values, [2, 3, 4, 5], options, () => []);
+ * // Three numbers and one missing cell: numeric, the values kept as given.
+ * assert(col?.type === "numeric");
+ * assert.equal(col.missing, 1);
+ * assert.deepEqual([...col.values], [30, NaN, 41, 52]);
+ * // A decimal comma, or no number at all, needs the full inference.
+ * assert.equal(inferPlainColumn("age", values, [2, 3, 4, 5], { ...options, decimal: "," }, () => []), undefined);
+ * assert.equal(inferPlainColumn("age", Float64Array.of(NaN), [2], options, () => []), undefined);
+ * ```
  */
 export function inferPlainColumn(
   name: string,

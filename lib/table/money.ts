@@ -136,6 +136,27 @@ export interface SettledMoney {
  * @param values Parsed values, converted in place; `NaN` where missing.
  * @param amounts The parsed cell for each row (undefined where missing).
  * @param lines Source line of each row, for messages.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { settleMoney } from "./money.ts";
+ * // 4,000 a month is 48,000 a year; 25 an hour at 2,000 hours is 50,000.
+ * const values = Float64Array.of(4000, 52000, 25);
+ * const settled = settleMoney(values, [
+ *   { value: 4000, period: "month" },
+ *   { value: 52000, period: "year" },
+ *   { value: 25, period: "hour" },
+ * ], [2, 3, 4], { column: "pay", file: "t.csv", hoursPerYear: 2000 });
+ * assert.deepEqual([...values], [48000, 52000, 50000]);
+ * assert.deepEqual(settled.unit, { period: "year" });
+ * // Two currencies cannot be compared without exchange rates.
+ * assert.throws(() =>
+ *   settleMoney(Float64Array.of(1, 2), [
+ *     { value: 1, currency: "EUR" },
+ *     { value: 2, currency: "GBP" },
+ *   ], [2, 3], { column: "pay", file: "t.csv" }), /mixes currencies/);
+ * ```
  */
 export function settleMoney(
   values: Float64Array,
@@ -243,6 +264,22 @@ export function settleMoney(
  * read as percentages. A missing or invalid fraction makes the pay missing.
  *
  * @returns How the fractions were read and how many pay values became missing.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { applyFte } from "./money.ts";
+ * const names = { pay: "pay", fte: "fte", file: "t.csv" };
+ * // 30,000 at half time is 60,000 full time; a missing fraction makes pay missing.
+ * const pay = Float64Array.of(30000, 50000, 40000);
+ * const read = applyFte(pay, Float64Array.of(0.5, 1, NaN), [2, 3, 4], names);
+ * assert.deepEqual([...pay], [60000, 50000, NaN]);
+ * assert.deepEqual(read, { percent: false, madeMissing: 1 });
+ * // Largest value 100: percentages, so 80 means 0.8 (32,000 / 0.8 = 40,000).
+ * const pay2 = Float64Array.of(32000, 45000);
+ * assert.equal(applyFte(pay2, Float64Array.of(80, 100), [2, 3], names).percent, true);
+ * assert.deepEqual([...pay2], [40000, 45000]);
+ * ```
  */
 export function applyFte(
   pay: Float64Array,

@@ -283,6 +283,17 @@ function present(values: Float64Array): Float64Array {
 /**
  * The q-quantile of sorted values by linear interpolation between order
  * statistics (the default of R's `quantile`, type 7).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { quantile } from "./quality.ts";
+ * // Type 7 on 1, 2, 3, 4: h = 3q, so q = 0.25 gives 1.75 and q = 0.5 gives 2.5
+ * // (R: quantile(1:4, c(0.25, 0.5)) is 1.75 2.50).
+ * assert.equal(quantile([1, 2, 3, 4], 0.25), 1.75);
+ * assert.equal(quantile([1, 2, 3, 4], 0.5), 2.5);
+ * assert.equal(quantile([1, 2, 3, 4], 1), 4);
+ * ```
  */
 export function quantile(sorted: ArrayLike<number>, q: number): number {
   if (sorted.length === 0) throw new RangeError("quantile of no values");

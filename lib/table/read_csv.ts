@@ -402,6 +402,15 @@ function incompleteTail(chunk: Uint8Array): Uint8Array {
 /**
  * Names a delimiter for people: "comma", "semicolon", "tab" or the quoted
  * character.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { describeDelimiter } from "./read_csv.ts";
+ * assert.equal(describeDelimiter(";"), "semicolon");
+ * assert.equal(describeDelimiter("\t"), "tab");
+ * assert.equal(describeDelimiter("|"), '"|"');
+ * ```
  */
 export function describeDelimiter(delimiter: string): string {
   return ({ ",": "comma", ";": "semicolon", "\t": "tab" } as Record<string, string>)[delimiter] ??

@@ -105,6 +105,24 @@ const rowMajorCache = new WeakMap<FeatureBins[], Uint32Array>();
  * set of bins and cached, since every tree of an ensemble reads it.
  *
  * @param offsets `offsets[f]`: where feature f's bins start in the flat histogram.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, rowMajorBins } from "./bins.ts";
+ * const bins = binFeatures({
+ *   rows: 4,
+ *   features: [
+ *     { name: "x", kind: "numeric", values: new Float64Array([3, 1, NaN, 3]) },
+ *     { name: "site", kind: "categorical", levels: ["A", "B"], values: new Float64Array([1, 0, 0, NaN]) },
+ *   ],
+ *   target: { kind: "regression", name: "y", values: new Float64Array(4) },
+ * });
+ * // x's bins: 1 below 3, 0 for 1, 2 for missing (3 bins, so site starts at 3);
+ * // site's: its codes, 2 for missing, each shifted by 3.
+ * const flat = rowMajorBins(bins, 4, Int32Array.of(0, 3));
+ * assert.deepEqual([...flat], [1, 4, 0, 3, 2, 3, 1, 5]);
+ * ```
  */
 export function rowMajorBins(
   bins: FeatureBins[],

@@ -187,6 +187,27 @@ export function crossValidateTree(
  * @param heldOut Whether a row is scored.
  * @param scoredAt Alphas in increasing order.
  * @param extra Further regression losses, each added into its own sums.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree } from "../../mod.ts";
+ * import { scoreSubtrees } from "./cross_validate.ts";
+ * // Pay 1, 2, 5, 6 over x = 1..4, leaves of 2: one split, means 1.5 and 5.5.
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([1, 2, 5, 6]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 2 });
+ * const sum = new Float64Array(2);
+ * const sumSq = new Float64Array(2);
+ * // Rows 0, 2, 3 held out; alpha 0 keeps the split, 1e9 leaves the root (mean 3.5).
+ * scoreSubtrees(tree, dataset, (r) => r !== 1, [0, 1e9], sum, sumSq);
+ * // Split: losses 0.25 each. Root: 2.5^2 + 1.5^2 + 2.5^2 = 14.75.
+ * assert.deepEqual([...sum], [0.75, 14.75]);
+ * assert.deepEqual([...sumSq], [3 * 0.0625, 2 * 39.0625 + 5.0625]);
+ * ```
  */
 export function scoreSubtrees(
   foldTree: FlatTree,

@@ -142,6 +142,25 @@ function inMask(tree: FlatTree, offset: number, code: number): boolean {
  * Whether a value goes to the left child at an internal node. Missing
  * values, and at a categorical split levels outside the node's mask that it
  * never saw, follow the node's missing direction.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, goesLeft, growTree } from "../../mod.ts";
+ * // Sites A and C are paid about 50, B 90: the root sends A and C one way.
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "site", kind: "categorical" as const, levels: ["A", "B", "C", "D"], values: new Float64Array([0, 1, 2, 0, 1, 2]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([50, 90, 51, 50, 90, 51]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * const left = goesLeft(tree, 0, 0);
+ * assert.equal(goesLeft(tree, 0, 2), left);
+ * assert.equal(goesLeft(tree, 0, 1), !left);
+ * // D (code 3), never seen, and a missing value follow the missing direction.
+ * assert.equal(goesLeft(tree, 0, 3), tree.missingLeft[0] === 1);
+ * assert.equal(goesLeft(tree, 0, NaN), tree.missingLeft[0] === 1);
+ * ```
  */
 export function goesLeft(tree: FlatTree, node: number, x: number): boolean {
   if (Number.isNaN(x)) return tree.missingLeft[node] === 1;
@@ -257,7 +276,26 @@ export function leafCount(tree: FlatTree): number {
   return leaves;
 }
 
-/** Depth of the deepest leaf (the root alone has depth 0). */
+/**
+ * Depth of the deepest leaf (the root alone has depth 0).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree, leafCount, treeDepth } from "../../mod.ts";
+ * // Pay 0 for x = 1..6, then 10 and 20: the root splits after x = 6 (squared
+ * // error 0 + 50, below every other split), the pure left side stays a leaf
+ * // and the right one splits once more: 3 leaves, depth 2.
+ * const dataset = {
+ *   rows: 8,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 4, 5, 6, 7, 8]) }],
+ *   target: { kind: "regression" as const, name: "pay", values: new Float64Array([0, 0, 0, 0, 0, 0, 10, 20]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * assert.equal(treeDepth(tree), 2);
+ * assert.equal(leafCount(tree), 3);
+ * ```
+ */
 export function treeDepth(tree: FlatTree): number {
   const depth = new Int32Array(tree.nodeCount);
   let deepest = 0;

@@ -51,6 +51,17 @@ export const PRUNE_TOLERANCE = 1e-9;
  * `limit`: at or below it, or above it by no more than
  * {@linkcode PRUNE_TOLERANCE}. The one rule behind {@linkcode pruneTree},
  * {@linkcode stepAt} and cross-validation.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { collapsedWithin } from "./prune.ts";
+ * assert.equal(collapsedWithin(1, 2, 10), true); // below the limit
+ * assert.equal(collapsedWithin(2, 1, 10), false); // above it by 1
+ * // Above by 1e-12 of 1, within PRUNE_TOLERANCE (1e-9 relative): still collapsed.
+ * assert.equal(collapsedWithin(1 + 1e-12, 1, 0), true);
+ * assert.equal(collapsedWithin(1.001, 1, 0), false);
+ * ```
  */
 export function collapsedWithin(step: number, limit: number, rootRisk: number): boolean {
   return step <= limit || sameAlpha(step, limit, rootRisk, PRUNE_TOLERANCE);
@@ -90,6 +101,20 @@ export function distinctSteps(path: PruningPath): number[] {
  * step whose alpha is not {@linkcode collapsedWithin} it. With
  * {@linkcode subtreeAfter} this gives the same tree as
  * {@linkcode pruneTree}(tree, alpha) from a path computed once.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { stepAt } from "./prune.ts";
+ * const path = {
+ *   alphas: new Float64Array([0, 2, 2, 5]),
+ *   risks: new Float64Array([0, 1, 2, 9]),
+ *   leaves: new Int32Array([4, 3, 2, 1]),
+ *   nodes: new Int32Array([-1, 3, 4, 0]),
+ * };
+ * // Below 2 nothing is collapsed; at 2 both steps of alpha 2; at 5 the root.
+ * assert.deepEqual([0, 1.9, 2, 4.9, 5, 100].map((a) => stepAt(path, a)), [0, 0, 2, 2, 3, 3]);
+ * ```
  */
 export function stepAt(path: PruningPath, alpha: number): number {
   const rootRisk = path.risks[path.risks.length - 1];
