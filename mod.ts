@@ -15,7 +15,7 @@
  */
 
 export * from "./lib/table/mod.ts";
-export { DataError, type DataErrorLocation, OptionError } from "./lib/errors.ts";
+export { DataError, type DataErrorLocation, OptionError, optionText } from "./lib/errors.ts";
 export { VERSION } from "./lib/version.ts";
 export * from "./lib/dataset/types.ts";
 export {

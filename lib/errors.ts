@@ -8,6 +8,32 @@
  * @module
  */
 
+/**
+ * A library text's references to options, `{privacyMin}`, in words: the
+ * option's own name by default (what a library caller passed), or what
+ * `word` makes of it (the terminal writes the flag, `--privacy-min`). A
+ * reference the terminal filled with a flag already, `{--report}`, is
+ * kept as it is.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { optionText } from "./errors.ts";
+ * const text = "{minLeaf} 2 is below the privacy minimum 5 (see {privacyMin})";
+ * assert.equal(optionText(text), "minLeaf 2 is below the privacy minimum 5 (see privacyMin)");
+ * const flag = (name: string) => `--${name.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`;
+ * assert.equal(optionText(text, flag), "--min-leaf 2 is below the privacy minimum 5 (see --privacy-min)");
+ * assert.equal(optionText("{--report}: exists", flag), "--report: exists");
+ * assert.equal(optionText("site in {North, South}", flag), "site in {North, South}");
+ * ```
+ */
+export function optionText(text: string, word: (option: string) => string = (o) => o): string {
+  return text.replace(
+    /\{(--[a-z][a-z-]*|[a-z][A-Za-z]*)\}/g,
+    (_, name: string) => (name.startsWith("--") ? name : word(name)),
+  );
+}
+
 /** Where in an input file a problem was found. */
 export interface DataErrorLocation {
   /** File name as the user gave it. */
@@ -34,15 +60,19 @@ export interface DataErrorLocation {
 export class DataError extends Error {
   /** Where the problem is, as far as known. */
   readonly location: DataErrorLocation;
+  /** The sentence with its option references, `{option}` (see {@linkcode optionText}). */
+  readonly template: string;
 
   /**
-   * @param message One sentence for the user, no stack trace needed.
+   * @param message One sentence for the user, no stack trace needed;
+   * options named as `{option}`.
    * @param location Where the problem is.
    */
   constructor(message: string, location: DataErrorLocation = {}) {
-    super(message);
+    super(optionText(message));
     this.name = "DataError";
     this.location = location;
+    this.template = message;
   }
 }
 
@@ -54,16 +84,22 @@ export class DataError extends Error {
  * ```ts
  * import assert from "node:assert/strict";
  * import { OptionError } from "./errors.ts";
- * const error = new OptionError("--target: no column named \"salry\"");
+ * const error = new OptionError('{target}: no column named "salry"');
  * assert(error.name === "OptionError");
+ * assert.equal(error.message, 'target: no column named "salry"');
  * ```
  */
 export class OptionError extends Error {
+  /** The sentence with its option references, `{option}` (see {@linkcode optionText}). */
+  readonly template: string;
+
   /**
-   * @param message One sentence for the user, naming the option.
+   * @param message One sentence for the user, naming the option as
+   * `{option}` (the library's name; the terminal writes its flag).
    */
   constructor(message: string) {
-    super(message);
+    super(optionText(message));
     this.name = "OptionError";
+    this.template = message;
   }
 }

@@ -7,6 +7,7 @@
  * @module
  */
 
+import { flagOf } from "./option_words.ts";
 import { matchName, type Table, unknownColumn, type UnknownName } from "../mod.ts";
 import type { Terminal } from "./terminal.ts";
 import { clipLongRuns, terminalGuard } from "./render/safe_text.ts";
@@ -41,12 +42,14 @@ export function unknownNameText(error: UnknownName): string {
   const known = error.known.join(", ");
   switch (error.what) {
     case "column":
-      return `${error.option}: no column named "${error.asked}"${guess}; the columns are: ${known}`;
+      return `${
+        flagOf(error.option)
+      }: no column named "${error.asked}"${guess}; the columns are: ${known}`;
     case "attribute":
-      return `${error.option}: the model has no attribute "${error.asked}"${guess}; ` +
+      return `${flagOf(error.option)}: the model has no attribute "${error.asked}"${guess}; ` +
         `its attributes are: ${known}`;
     case "level":
-      return `${error.option}: "${error.column}" has no level "${error.asked}"${guess}; ` +
+      return `${flagOf(error.option)}: "${error.column}" has no level "${error.asked}"${guess}; ` +
         `its levels are: ${known}`;
   }
 }
@@ -62,7 +65,7 @@ export function unknownNameText(error: UnknownName): string {
  * ```
  */
 export function caseNote(option: string, asked: string, name: string): string {
-  return `${option} "${asked}" is taken as the column "${name}"`;
+  return `${flagOf(option)} "${asked}" is taken as the column "${name}"`;
 }
 
 /** The options of a command that name columns of the table it read. */

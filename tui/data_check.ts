@@ -7,6 +7,7 @@
  * @module
  */
 
+import { errorWords } from "./option_words.ts";
 import wrapAnsi from "wrap-ansi";
 import {
   DataError,
@@ -162,7 +163,9 @@ export function screenPayFlags(
     } catch (error) {
       if (!(error instanceof ImplausiblePayError)) throw error;
       throw new DataError(
-        `${error.message}; correct the table, or pass --drop-implausible to leave such rows out`,
+        `${
+          errorWords(error)
+        }; correct the table, or pass --drop-implausible to leave such rows out`,
         error.location,
       );
     }

@@ -13,6 +13,7 @@
 
 // The root program has no options of its own to type, so it uses commander's
 // plain types; subcommands use extra-typings for typed option values.
+import { errorWords } from "./option_words.ts";
 import { Command, CommanderError } from "commander";
 import { DataError, OptionError, UnknownNameError, VERSION } from "../mod.ts";
 import { unknownNameText } from "./column_names.ts";
@@ -134,12 +135,14 @@ function report(error: unknown, terminal: Terminal): number {
   // overlong names cut to their ends.
   if (error instanceof OptionError) {
     // A name that matched nothing: worded here from what the lookup found.
-    const message = error instanceof UnknownNameError ? unknownNameText(error) : error.message;
+    const message = error instanceof UnknownNameError ? unknownNameText(error) : errorWords(error);
     terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(message), false)}`);
     return EXIT.usage;
   }
   if (error instanceof DataError) {
-    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(error.message), false)}`);
+    terminal.err(
+      `${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(errorWords(error)), false)}`,
+    );
     return EXIT.data;
   }
   terminal.err(

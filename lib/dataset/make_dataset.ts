@@ -219,8 +219,8 @@ export interface DatasetResult {
  */
 export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetResult {
   const column = (name: string, option: string): Column => columnNamed(table, name, option);
-  const targetColumn = column(options.target, "--target");
-  for (const name of options.drop ?? []) column(name, "--drop");
+  const targetColumn = column(options.target, "target");
+  for (const name of options.drop ?? []) column(name, "drop");
 
   const dropped: DroppedColumn[] = [];
   let chosen: Column[];
@@ -228,25 +228,25 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
     if (options.features.length === 0) {
       throw new OptionError("the list of features is empty: name at least one column");
     }
-    chosen = options.features.map((name) => column(name, "--features"));
+    chosen = options.features.map((name) => column(name, "features"));
     for (const c of chosen) {
-      if (c === targetColumn) throw new OptionError(`--features: "${c.name}" is the target`);
+      if (c === targetColumn) throw new OptionError(`{features}: "${c.name}" is the target`);
       if (c.type === "identifier" || c.type === "constant") {
         throw new OptionError(
-          `--features: "${c.name}" is ${
+          `{features}: "${c.name}" is ${
             c.type === "identifier" ? "an identifier" : "constant"
           } and cannot be a feature`,
         );
       }
       if (c.protected && !options.allowProtected) {
         throw new OptionError(
-          `--features: "${c.name}" is a protected attribute; it is kept out of pay estimates ` +
-            `unless you pass --allow-protected`,
+          `{features}: "${c.name}" is a protected attribute; it is kept out of pay estimates ` +
+            `unless you pass {allowProtected}`,
         );
       }
       if (isPayColumn(c) || copiesTarget(c, targetColumn)) {
         throw new OptionError(
-          `--features: "${c.name}" is pay; pay is never an attribute (a model's split points ` +
+          `{features}: "${c.name}" is pay; pay is never an attribute (a model's split points ` +
             `would show people's pay, and pay explained by pay explains nothing)`,
         );
       }
@@ -321,7 +321,7 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
     };
   } else {
     throw new OptionError(
-      `--target: "${targetColumn.name}" is ${
+      `{target}: "${targetColumn.name}" is ${
         targetColumn.type === "identifier" ? "an identifier" : "constant"
       }; there is nothing to predict`,
     );

@@ -34,13 +34,13 @@ export function withinColumns(
   exclude: readonly string[],
 ): LevelColumn[] {
   return names.map((name) => {
-    const column = columnNamed(table, name, "--within");
+    const column = columnNamed(table, name, "within");
     if (exclude.includes(name)) {
-      throw new OptionError(`--within: "${name}" cannot define categories of itself`);
+      throw new OptionError(`{within}: "${name}" cannot define categories of itself`);
     }
     if (column.type !== "categorical" && column.type !== "ordinal") {
       throw new OptionError(
-        `--within: "${name}" is ${column.type}; categories come from columns of named levels ` +
+        `{within}: "${name}" is ${column.type}; categories come from columns of named levels ` +
           `(job family, level), never cut from numbers by paygrove`,
       );
     }

@@ -361,10 +361,10 @@ function gapSettings(options: GapOptions): GapSettings {
   const materiality = options.materiality ?? 0.02;
   const privacyMin = checkedPrivacyMin(options.privacyMin);
   if (!(threshold >= 0 && threshold < 1)) {
-    throw new OptionError(`--threshold must be between 0 and 1 (0.05 = 5%), got ${threshold}`);
+    throw new OptionError(`{threshold} must be between 0 and 1 (0.05 = 5%), got ${threshold}`);
   }
   if (!(materiality >= 0 && materiality < 1)) {
-    throw new OptionError(`--materiality must be between 0 and 1 (0.02 = 2%), got ${materiality}`);
+    throw new OptionError(`{materiality} must be between 0 and 1 (0.02 = 2%), got ${materiality}`);
   }
   return {
     threshold,
@@ -413,23 +413,23 @@ interface ComparedPeople {
 function comparedPeople(table: Table, options: GapOptions, privacyMin: number): ComparedPeople {
   const filtered = filterRows(table, options.where ?? {});
   const column = (name: string, option: string) => columnNamed(filtered, name, option);
-  const pay = column(options.target, "--target");
+  const pay = column(options.target, "target");
   if (pay.type !== "numeric") {
-    throw new OptionError(`--target: "${options.target}" is not numeric; a gap needs pay`);
+    throw new OptionError(`{target}: "${options.target}" is not numeric; a gap needs pay`);
   }
-  const groupColumn = column(options.group, "--group");
+  const groupColumn = column(options.group, "group");
   if (groupColumn.type !== "categorical" && groupColumn.type !== "ordinal") {
     throw new OptionError(
-      `--group: "${options.group}" is ${groupColumn.type}; it needs a few named groups ` +
-        `(declare it with --type ${options.group}=categorical if it holds codes)`,
+      `{group}: "${options.group}" is ${groupColumn.type}; it needs a few named groups ` +
+        `(declare it with {type} ${options.group}=categorical if it holds codes)`,
     );
   }
   const withinCols = withinColumns(filtered, options.within ?? [], [options.group, options.target]);
   const variable = options.variable === undefined
     ? undefined
-    : column(options.variable, "--variable");
+    : column(options.variable, "variable");
   if (variable !== undefined && variable.type !== "numeric") {
-    throw new OptionError(`--variable: "${options.variable}" is not numeric`);
+    throw new OptionError(`{variable}: "${options.variable}" is not numeric`);
   }
 
   // People with pay and a group.
@@ -446,7 +446,7 @@ function comparedPeople(table: Table, options: GapOptions, privacyMin: number): 
     }
   }
   if (allCounts.size < 2) {
-    throw new OptionError(`--group: "${options.group}" has only one group among people with pay`);
+    throw new OptionError(`{group}: "${options.group}" has only one group among people with pay`);
   }
   const { reference, reason: referenceReason } = chooseReference(
     options.group,
@@ -455,7 +455,7 @@ function comparedPeople(table: Table, options: GapOptions, privacyMin: number): 
   );
   if (allCounts.get(reference)! < privacyMin) {
     throw new OptionError(
-      `--reference: ${reference} has fewer than ${privacyMin} people with pay; no gap against ` +
+      `{reference}: ${reference} has fewer than ${privacyMin} people with pay; no gap against ` +
         `it can be shown`,
     );
   }
@@ -466,11 +466,11 @@ function comparedPeople(table: Table, options: GapOptions, privacyMin: number): 
   if (options.compare !== undefined) {
     const known = [...allCounts.keys()].sort();
     const wanted = new Set(
-      options.compare.map((name) => groupNamed(known, name, options.group, "--groups")),
+      options.compare.map((name) => groupNamed(known, name, options.group, "groups")),
     );
     wanted.delete(reference);
     if (wanted.size === 0) {
-      throw new OptionError(`--groups: name at least one group besides the reference ${reference}`);
+      throw new OptionError(`{groups}: name at least one group besides the reference ${reference}`);
     }
     const before = keep.length;
     keep = keep.filter((r) => {
@@ -485,7 +485,7 @@ function comparedPeople(table: Table, options: GapOptions, privacyMin: number): 
     otherGroupsLeftOut += before - keep.length;
     if ([...new Set(keep.map((r) => groupColumn.codes[r]))].length < 2) {
       throw new OptionError(
-        `--group: every group besides ${reference} has fewer than ${privacyMin} people ` +
+        `{group}: every group besides ${reference} has fewer than ${privacyMin} people ` +
           `(${tooFew.join(", ")}); no gap can be shown without telling their pay`,
       );
     }
@@ -546,7 +546,7 @@ async function outOfBagResiduals(
   if (options.variable !== undefined) drop.push(options.variable);
   if (options.features?.includes(options.group)) {
     throw new OptionError(
-      `--features: "${options.group}" is the group compared; it cannot adjust itself`,
+      `{features}: "${options.group}" is the group compared; it cannot adjust itself`,
     );
   }
   const { encoded, dataset: payDataset } = payRows(who.rowsTable, {
@@ -557,7 +557,7 @@ async function outOfBagResiduals(
   });
   if (encoded.features.length === 0) {
     throw new OptionError(
-      "no legitimate factors are left to adjust for; name them with --features",
+      "no legitimate factors are left to adjust for; name them with {features}",
     );
   }
   const logPay = payDataset.target.values as Float64Array;
@@ -873,7 +873,7 @@ export function chooseReference(
   const groups = [...counts.keys()].sort();
   if (named !== undefined) {
     return {
-      reference: groupNamed(groups, named, column, "--reference"),
+      reference: groupNamed(groups, named, column, "reference"),
       reason: "named with --reference",
     };
   }
@@ -928,7 +928,7 @@ function groupNamed(groups: readonly string[], name: string, column: string, opt
   const found = groups.find((g) => g.toLowerCase() === name.toLowerCase());
   if (found === undefined) {
     throw new OptionError(
-      `${option}: "${name}" is not a group of "${column}"; the groups are: ${groups.join(", ")}`,
+      `{${option}}: "${name}" is not a group of "${column}"; the groups are: ${groups.join(", ")}`,
     );
   }
   return found;

@@ -158,12 +158,12 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
   const seed = options.seed ?? 1;
   const trees = options.trees ?? 200;
   if (!(coverage > 0 && coverage < 1)) {
-    throw new OptionError(`--coverage must lie between 0 and 1 (0.9 = 90%), got ${coverage}`);
+    throw new OptionError(`{coverage} must lie between 0 and 1 (0.9 = 90%), got ${coverage}`);
   }
   // A column's type is the same before and after rows are kept.
   const payColumn = table.columns.find((c) => c.name === options.target);
   if (payColumn !== undefined && payColumn.type !== "numeric") {
-    throw new OptionError(`--target: "${options.target}" is not numeric; a review needs pay`);
+    throw new OptionError(`{target}: "${options.target}" is not numeric; a review needs pay`);
   }
   const within = options.within ?? [];
   const { table: filtered, encoded, dataset, rowIndex } = payRows(table, {
@@ -175,7 +175,7 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
   });
   const withinCols = withinColumns(filtered, within, [options.target]);
   if (encoded.features.length === 0) {
-    throw new OptionError("no factors are left to compare people on; name them with --features");
+    throw new OptionError("no factors are left to compare people on; name them with {features}");
   }
   // Comparable people are those sharing a leaf: with fewer than two leaves'
   // worth of rows no tree can split, and every estimate would be the mean.

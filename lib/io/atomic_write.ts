@@ -87,7 +87,7 @@ export async function writeFileAtomic(
   data: string | Uint8Array,
   options: AtomicWriteOptions = {},
 ): Promise<void> {
-  const option = options.option ?? "--out";
+  const option = options.option ?? "out";
   const existing = await checkTarget(path, options.force ?? false, option);
   const temporary = temporaryBeside(path);
   const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
@@ -121,7 +121,7 @@ export async function writeFileAtomic(
     pending.delete(temporary);
     await Deno.remove(temporary).catch(() => {});
     if (error instanceof OptionError || error instanceof DataError) throw error;
-    throw new DataError(`${option}: cannot write ${path} (${writeProblem(error)})`);
+    throw new DataError(`{${option}}: cannot write ${path} (${writeProblem(error)})`);
   }
 }
 
@@ -155,7 +155,7 @@ export async function assertCanWrite(
   for (const input of reading) {
     if (await sameFile(path, input)) {
       throw new OptionError(
-        `${option}: ${path} is ${input}, which this run reads; write the output elsewhere`,
+        `{${option}}: ${path} is ${input}, which this run reads; write the output elsewhere`,
       );
     }
   }
@@ -167,7 +167,7 @@ export async function assertCanWrite(
     await Deno.remove(probe);
   } catch (error) {
     await Deno.remove(probe).catch(() => {});
-    throw new DataError(`${option}: cannot write ${path} (${writeProblem(error)})`);
+    throw new DataError(`{${option}}: cannot write ${path} (${writeProblem(error)})`);
   } finally {
     pending.delete(probe);
   }
@@ -207,19 +207,19 @@ async function checkTarget(
     info = await Deno.lstat(path);
   } catch (error) {
     if (error instanceof Deno.errors.NotFound) return null;
-    throw new DataError(`${option}: cannot check ${path} (${firstLine(error)})`);
+    throw new DataError(`{${option}}: cannot check ${path} (${firstLine(error)})`);
   }
   if (info.isDirectory) {
-    throw new OptionError(`${option}: ${path} is a folder; give the path of a file to write`);
+    throw new OptionError(`{${option}}: ${path} is a folder; give the path of a file to write`);
   }
   if (!info.isFile) {
     throw new OptionError(
-      `${option}: ${path} is not a regular file (${kindOf(info)}); paygrove only replaces ` +
+      `{${option}}: ${path} is not a regular file (${kindOf(info)}); paygrove only replaces ` +
         `regular files, so give another path`,
     );
   }
   if (!force) {
-    throw new OptionError(`${option}: ${path} already exists; add --force to replace it`);
+    throw new OptionError(`{${option}}: ${path} already exists; add {force} to replace it`);
   }
   return info;
 }

@@ -155,7 +155,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   if (encoded.rows < 2 * minLeaf) {
     throw new OptionError(
       `only ${encoded.rows} rows have "${options.target}"; at least ${2 * minLeaf} are needed ` +
-        `for one split with --min-leaf ${minLeaf}`,
+        `for one split with {minLeaf} ${minLeaf}`,
     );
   }
   const regression = dataset.target.kind === "regression";
@@ -420,20 +420,20 @@ async function possibleProxies(
 
 function checkSettings(trees: number, minLeaf: number, privacyMin: number, folds: number): void {
   if (!Number.isInteger(trees) || trees < 0) {
-    throw new OptionError(`--trees must be a whole number >= 0, got ${trees}`);
+    throw new OptionError(`{trees} must be a whole number >= 0, got ${trees}`);
   }
   if (!Number.isInteger(minLeaf) || minLeaf < 1) {
-    throw new OptionError(`--min-leaf must be a whole number >= 1, got ${minLeaf}`);
+    throw new OptionError(`{minLeaf} must be a whole number >= 1, got ${minLeaf}`);
   }
   if (minLeaf < privacyMin) {
     throw new OptionError(
-      `--min-leaf ${minLeaf} is below the privacy minimum ${privacyMin}: a leaf of fewer people ` +
-        `would keep their pay in the model file (use --min-leaf ${privacyMin} or more; ` +
-        `--privacy-min can go down to ${PRIVACY_FLOOR})`,
+      `{minLeaf} ${minLeaf} is below the privacy minimum ${privacyMin}: a leaf of fewer people ` +
+        `would keep their pay in the model file (use {minLeaf} ${privacyMin} or more; ` +
+        `{privacyMin} can go down to ${PRIVACY_FLOOR})`,
     );
   }
   if (!Number.isInteger(folds) || folds < 2) {
-    throw new OptionError(`--folds must be a whole number >= 2, got ${folds}`);
+    throw new OptionError(`{folds} must be a whole number >= 2, got ${folds}`);
   }
 }
 

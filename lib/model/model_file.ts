@@ -652,7 +652,7 @@ export async function writeModelFile(
   path: string,
   model: Model,
   force = false,
-  option = "--out",
+  option = "out",
 ): Promise<{ bytes: number; sha256: string }> {
   const text = modelToText(model);
   await writeFileAtomic(path, text, { force, option });

@@ -95,7 +95,7 @@ export function resamplesOf(model: Model): Int32Array | null {
  */
 export function checkCoverage(coverage: number): void {
   if (!(coverage >= 0.5 && coverage <= 0.99)) {
-    throw new OptionError(`--coverage must be between 0.5 and 0.99, got ${coverage}`);
+    throw new OptionError(`{coverage} must be between 0.5 and 0.99, got ${coverage}`);
   }
 }
 

@@ -370,7 +370,7 @@ export function findRow(model: Model, rows: ModelRows, id: string, file: string)
   if (rows.idColumn !== undefined) {
     const r = rows.ids.indexOf(id);
     if (r < 0) {
-      throw new DataError(`--row: ${file} has no row with ${rows.idColumn} "${id}"`, { file });
+      throw new DataError(`{row}: ${file} has no row with ${rows.idColumn} "${id}"`, { file });
     }
     return r;
   }
@@ -387,8 +387,8 @@ export function findRow(model: Model, rows: ModelRows, id: string, file: string)
   if (hits.length === 1) return hits[0];
   throw new DataError(
     hits.length === 0
-      ? `--row: no row of ${file} is named "${id}" (in any column besides the attributes)`
-      : `--row: "${id}" names ${hits.length} rows of ${file}; use --set instead`,
+      ? `{row}: no row of ${file} is named "${id}" (in any column besides the attributes)`
+      : `{row}: "${id}" names ${hits.length} rows of ${file}; use {set} instead`,
     { file },
   );
 }

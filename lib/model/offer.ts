@@ -109,7 +109,7 @@ const THOUSANDS_ONLY = /^\d{1,3}[.,]\d{3}$/;
 export function parseOffer(model: Model, text: string): ParsedOffer {
   if (model.target.kind !== "regression") {
     throw new OptionError(
-      `--offer needs a model of pay (a numeric target); "${model.target.name}" is a class`,
+      `{offer} needs a model of pay (a numeric target); "${model.target.name}" is a class`,
     );
   }
   const given = text.trim();
@@ -128,23 +128,23 @@ export function parseOffer(model: Model, text: string): ParsedOffer {
   }
   if (read === undefined) {
     throw new OptionError(
-      `--offer: "${given}" is not an amount (write it like 61000, 61k or 61,000)`,
+      `{offer}: "${given}" is not an amount (write it like 61000, 61k or 61,000)`,
     );
   }
   if (!(read.value > 0 && Number.isFinite(read.value))) {
-    throw new OptionError(`--offer must be above zero, got ${given}`);
+    throw new OptionError(`{offer} must be above zero, got ${given}`);
   }
   const unit = model.target.money;
   if (
     read.currency !== undefined && unit?.currency !== undefined && read.currency !== unit.currency
   ) {
     throw new OptionError(
-      `--offer: "${given}" is in ${read.currency}; the model's pay is in ${unit.currency}`,
+      `{offer}: "${given}" is in ${read.currency}; the model's pay is in ${unit.currency}`,
     );
   }
   if (read.period !== undefined && unit?.period !== undefined && read.period !== unit.period) {
     throw new OptionError(
-      `--offer: "${given}" is pay per ${read.period}; the model's pay is per ${unit.period}`,
+      `{offer}: "${given}" is pay per ${read.period}; the model's pay is per ${unit.period}`,
     );
   }
   return { amount: read.value, text: given, readAs };

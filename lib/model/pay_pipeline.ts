@@ -53,7 +53,7 @@ export function checkedPrivacyMin(privacyMin: number | undefined): number {
   const value = privacyMin ?? DEFAULT_PRIVACY_MIN;
   if (!Number.isInteger(value) || value < PRIVACY_FLOOR) {
     throw new OptionError(
-      `--privacy-min must be a whole number of at least ${PRIVACY_FLOOR}, got ${value}`,
+      `{privacyMin} must be a whole number of at least ${PRIVACY_FLOOR}, got ${value}`,
     );
   }
   return value;
@@ -139,7 +139,7 @@ export function payRows(table: Table, options: PayRowsOptions): PayRows {
       };
     }
   } else if (options.scale === "log") {
-    throw new OptionError(`--scale log needs a numeric target; "${options.target}" is a class`);
+    throw new OptionError(`{scale} log needs a numeric target; "${options.target}" is a class`);
   }
   return {
     table: filtered,

@@ -77,12 +77,12 @@ export function findFeature(model: Model, name: string, option: string): number 
   if (index >= 0) return index;
   const names = model.features.map((f) => f.name);
   if (name === model.target.name) {
-    throw new OptionError(`${option}: "${name}" is what the model estimates, not an attribute`);
+    throw new OptionError(`{${option}}: "${name}" is what the model estimates, not an attribute`);
   }
   const dropped = model.dropped.find((d) => d.name === name);
   if (dropped !== undefined) {
     throw new OptionError(
-      `${option}: "${name}" is not used by this model (${dropped.reason}); its attributes are: ` +
+      `{${option}}: "${name}" is not used by this model (${dropped.reason}); its attributes are: ` +
         names.join(", "),
     );
   }
@@ -90,7 +90,7 @@ export function findFeature(model: Model, name: string, option: string): number 
   if (folded.kind === "case") return names.indexOf(folded.name);
   const guess = nearest(name, names);
   throw new UnknownNameError(
-    `${option}: the model has no attribute "${name}"${
+    `{${option}}: the model has no attribute "${name}"${
       guess ? ` (did you mean "${guess}"?)` : ""
     }; ` +
       `its attributes are: ${names.join(", ")}`,
@@ -127,7 +127,7 @@ export function findFeature(model: Model, name: string, option: string): number 
 export function valueOf(feature: FeatureSchema, text: string, option: string): number {
   if (text === "") {
     throw new OptionError(
-      `${option}: "${feature.name}=" has no value; give one, or ${feature.name}=NA for missing`,
+      `{${option}}: "${feature.name}=" has no value; give one, or ${feature.name}=NA for missing`,
     );
   }
   if (text.toUpperCase() === "NA") return NaN;
@@ -138,7 +138,7 @@ export function valueOf(feature: FeatureSchema, text: string, option: string): n
         ? ` (write decimals with a point: ${text.replace(",", ".")})`
         : "";
       throw new OptionError(
-        `${option}: "${feature.name}" is a number, and "${text}" is not one${comma}`,
+        `{${option}}: "${feature.name}" is a number, and "${text}" is not one${comma}`,
       );
     }
     return value;
@@ -166,7 +166,7 @@ export function valueOf(feature: FeatureSchema, text: string, option: string): n
  */
 export function splitAssignment(text: string, option: string): [string, string] {
   const at = text.indexOf("=");
-  if (at <= 0) throw new OptionError(`${option}: expected COLUMN=VALUE, got "${text}"`);
+  if (at <= 0) throw new OptionError(`{${option}}: expected COLUMN=VALUE, got "${text}"`);
   return [text.slice(0, at).trim(), text.slice(at + 1).trim()];
 }
 
@@ -221,7 +221,7 @@ export function offeredLevers(model: Model): number[] {
 function checkLever(model: Model, feature: FeatureSchema, option: string): void {
   if (!isLever(model, feature, "accepted")) {
     throw new OptionError(
-      `${option}: "${feature.name}" is a protected attribute and cannot be changed in a pay ` +
+      `{${option}}: "${feature.name}" is a protected attribute and cannot be changed in a pay ` +
         `estimate`,
     );
   }
@@ -260,7 +260,7 @@ export function applySets(
   model: Model,
   profile: Profile,
   sets: readonly string[],
-  option = "--set",
+  option = "set",
 ): { profile: Profile; warnings: ProfileWarning[] } {
   const out = Float64Array.from(profile);
   for (const text of sets) {
@@ -305,24 +305,24 @@ export function applyChanges(
 ): { profile: Profile; warnings: ProfileWarning[] } {
   const out = Float64Array.from(profile);
   for (const text of changes) {
-    const [name, value] = splitAssignment(text, "--change");
-    const f = findFeature(model, name, "--change");
+    const [name, value] = splitAssignment(text, "change");
+    const f = findFeature(model, name, "change");
     const feature = model.features[f];
-    checkLever(model, feature, "--change");
+    checkLever(model, feature, "change");
     // A signed value is a step: whole levels of a ladder, any amount of a
     // number (years=+2.5 adds two and a half years; it set 2.5 before).
     const step = (feature.kind === "numeric" ? /^[+-]\d+(\.\d+)?$/ : /^[+-]\d+$/).exec(value);
     // A step from a missing value has nowhere to start (a number plus NaN
     // would be NaN, said nowhere).
     if (step !== null && feature.kind !== "categorical" && Number.isNaN(out[f])) {
-      throw new OptionError(`--change: "${name}" is missing in the base profile; set it first`);
+      throw new OptionError(`{change}: "${name}" is missing in the base profile; set it first`);
     }
     if (step !== null && feature.kind === "ordinal") {
       const levels = feature.levels!;
       const to = out[f] + Number(value);
       if (to < 0 || to >= levels.length) {
         throw new OptionError(
-          `--change: ${name}=${value} moves ${levels[out[f]]} beyond the ladder ` +
+          `{change}: ${name}=${value} moves ${levels[out[f]]} beyond the ladder ` +
             `(${levels[0]} to ${levels[levels.length - 1]})`,
         );
       }
@@ -330,7 +330,7 @@ export function applyChanges(
     } else if (step !== null && feature.kind === "numeric") {
       out[f] = out[f] + Number(value);
     } else {
-      out[f] = valueOf(feature, value, "--change");
+      out[f] = valueOf(feature, value, "change");
     }
   }
   return { profile: out, warnings: rangeWarnings(model, out) };

@@ -66,8 +66,8 @@ export interface SweepAnswer {
  * assert.deepEqual(sweepValues(model, 1), [0, 1, 2]);
  * // 1.1 + (8.1755 - 1.1) is 8.175500000000001 in floating point; read as 8.1755.
  * assert.deepEqual(sweepValues(model, 0, { from: 1.1, to: 8.1755, steps: 2 }), [1.1, 8.1755]);
- * assert.throws(() => sweepValues(model, 0, { steps: 1 }), /--steps/);
- * assert.throws(() => sweepValues(model, 0, { from: 5, to: 5 }), /--to must be above --from/);
+ * assert.throws(() => sweepValues(model, 0, { steps: 1 }), /steps must be a whole number/);
+ * assert.throws(() => sweepValues(model, 0, { from: 5, to: 5 }), /to must be above from/);
  * ```
  */
 export function sweepValues(
@@ -79,11 +79,11 @@ export function sweepValues(
   if (f.kind !== "numeric") return f.levels!.map((_, i) => i);
   const steps = options.steps ?? 20;
   if (!Number.isInteger(steps) || steps < 2 || steps > 500) {
-    throw new OptionError(`--steps must be a whole number from 2 to 500, got ${steps}`);
+    throw new OptionError(`{steps} must be a whole number from 2 to 500, got ${steps}`);
   }
   const from = options.from ?? f.range!.p01;
   const to = options.to ?? f.range!.p99;
-  if (!(to > from)) throw new OptionError(`--to must be above --from (got ${from} to ${to})`);
+  if (!(to > from)) throw new OptionError(`{to} must be above {from} (got ${from} to ${to})`);
   // Rounded to 10 significant digits, so that 1.1 + 7.0755 reads 8.1755.
   return Array.from(
     { length: steps },

@@ -233,7 +233,7 @@ export function unknownColumn(
 ): UnknownNameError {
   const match = matchName(asked, columns);
   return new UnknownNameError(
-    `${option === "" ? "" : `${option}: `}no column named "${asked}"; the columns are: ${
+    `${option === "" ? "" : `{${option}}: `}no column named "${asked}"; the columns are: ${
       columns.join(", ")
     }`,
     {
@@ -269,7 +269,7 @@ export function unknownLevel(
   const found: { nearest?: string; beyond?: { side: "above" | "below"; level: string } } =
     match.kind === "unknown" ? match : {};
   return new UnknownNameError(
-    `${option}: "${column}" has no level "${asked}"; its levels are: ${levels.join(", ")}`,
+    `{${option}}: "${column}" has no level "${asked}"; its levels are: ${levels.join(", ")}`,
     {
       option,
       what: "level",

@@ -37,7 +37,7 @@ export function filterRows(
   for (let r = 0; r < table.rows; r++) if (tests.every((t) => t(r))) keep.push(r);
   if (keep.length === 0) {
     throw new OptionError(
-      `--where: no row has ${names.map((n) => `${n}=${where[n].join(" or ")}`).join(" and ")}`,
+      `{where}: no row has ${names.map((n) => `${n}=${where[n].join(" or ")}`).join(" and ")}`,
     );
   }
   return subsetRows(
@@ -73,12 +73,12 @@ function describe(where: Readonly<Record<string, readonly string[]>>): string {
 }
 
 function rowTest(table: Table, name: string, values: readonly string[]): (r: number) => boolean {
-  const column = columnNamed(table, name, "--where");
+  const column = columnNamed(table, name, "where");
   if (column.type === "numeric") {
     const wanted = values.map((v) => {
       const x = Number(v);
       if (!Number.isFinite(x)) {
-        throw new OptionError(`--where: "${name}" is numeric, and "${v}" is not a number`);
+        throw new OptionError(`{where}: "${name}" is numeric, and "${v}" is not a number`);
       }
       return x;
     });
@@ -87,7 +87,7 @@ function rowTest(table: Table, name: string, values: readonly string[]): (r: num
   if (column.type === "categorical" || column.type === "ordinal") {
     const codes = values.map((v) => {
       const match = matchLevel(v, column.levels);
-      if (match.kind === "unknown") throw unknownLevel("--where", column.name, v, column.levels);
+      if (match.kind === "unknown") throw unknownLevel("where", column.name, v, column.levels);
       return column.levels.indexOf(match.name);
     });
     return (r) => codes.includes(column.codes[r]);

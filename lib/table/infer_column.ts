@@ -229,7 +229,7 @@ function notNumbers(
     : "";
   const otherDecimal: DecimalMark = options.decimal === "." ? "," : ".";
   const commaHint = failures.every((r) => parseAmount(cells[r], otherDecimal) !== undefined)
-    ? `; the values read as numbers with --decimal "${otherDecimal}"`
+    ? `; the values read as numbers with {decimal} "${otherDecimal}"`
     : "";
   // A letter O or l among digits is a common typing slip ("85,0OO").
   const slip = failures.some((r) => /\d[oOlI]|[oOlI]\d/.test(cells[r]))
@@ -237,7 +237,7 @@ function notNumbers(
     : "";
   const hint = options.type === "numeric" || isPayName(name)
     ? ""
-    : `; if the column is not numeric, declare it with --type ${name}=categorical`;
+    : `; if the column is not numeric, declare it with {type} ${name}=categorical`;
   const tokens = ["empty", ...(options.missingTokens ?? DEFAULT_MISSING_TOKENS)];
   const said = tokens.length > 1
     ? `${tokens.slice(0, -1).join(", ")} or ${tokens[tokens.length - 1]}`
@@ -363,7 +363,7 @@ function levels(
       order = [...counts.keys()].sort((a, b) => collator.compare(a, b) || (a < b ? -1 : 1));
       if (forced === "ordinal") {
         throw new OptionError(
-          `--type ${name}=ordinal needs an order: give --order ${name}=${order.join(",")} ` +
+          `{type} ${name}=ordinal needs an order: give {order} ${name}=${order.join(",")} ` +
             `with the levels lowest first`,
         );
       }
@@ -393,7 +393,7 @@ function checkOrder(
 ): string[] {
   const declared = new Set(order);
   if (declared.size !== order.length) {
-    throw new OptionError(`--order ${name}: a level is listed twice`);
+    throw new OptionError(`{order} ${name}: a level is listed twice`);
   }
   const unknown = [...counts.keys()].filter((level) => !declared.has(level));
   if (unknown.length > 0) {
@@ -402,7 +402,7 @@ function checkOrder(
       return `"${level}" (line ${lines[r]})`;
     });
     throw new OptionError(
-      `--order ${name}: the data has level${unknown.length === 1 ? "" : "s"} not in the order: ` +
+      `{order} ${name}: the data has level${unknown.length === 1 ? "" : "s"} not in the order: ` +
         `${where.join(", ")}${unknown.length > 5 ? ` and ${unknown.length - 5} more` : ""}`,
     );
   }

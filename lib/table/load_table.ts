@@ -147,7 +147,7 @@ function buildTable(
   const nameMatches: { option: string; asked: string; name: string }[] = [];
   options = resolveOptionColumns(raw.header, options, nameMatches);
   if (options.hoursPerYear !== undefined && !(options.hoursPerYear > 0)) {
-    throw new OptionError(`--hours-per-year must be a positive number of hours`);
+    throw new OptionError(`{hoursPerYear} must be a positive number of hours`);
   }
   const isMissing = missingTest(options.missing ?? DEFAULT_MISSING_TOKENS);
   // The mark given, else the one the cells settle (semicolon files only).
@@ -267,13 +267,13 @@ function resolveOptionColumns(
       ? undefined
       : Object.fromEntries(Object.entries(record).map(([name, v]) => [resolve(option, name), v]));
   const resolved: LoadTableOptions = { ...options };
-  if (options.target !== undefined) resolved.target = resolve("--target", options.target);
-  if (options.fte !== undefined) resolved.fte = resolve("--fte", options.fte);
-  if (options.types !== undefined) resolved.types = keys(options.types, "--type");
-  if (options.orders !== undefined) resolved.orders = keys(options.orders, "--order");
-  if (options.periods !== undefined) resolved.periods = keys(options.periods, "--period");
+  if (options.target !== undefined) resolved.target = resolve("target", options.target);
+  if (options.fte !== undefined) resolved.fte = resolve("fte", options.fte);
+  if (options.types !== undefined) resolved.types = keys(options.types, "type");
+  if (options.orders !== undefined) resolved.orders = keys(options.orders, "order");
+  if (options.periods !== undefined) resolved.periods = keys(options.periods, "period");
   if (options.protected !== undefined) {
-    resolved.protected = options.protected.map((name) => resolve("--protected", name));
+    resolved.protected = options.protected.map((name) => resolve("protected", name));
   }
   return resolved;
 }
@@ -281,12 +281,12 @@ function resolveOptionColumns(
 function applyFteToPay(columns: Column[], fteName: string, lines: number[], file: string) {
   const fte = columns.find((c) => c.name === fteName)!;
   if (fte.type !== "numeric") {
-    throw new OptionError(`--fte ${fteName}: the column is ${fte.type}, not numeric fractions`);
+    throw new OptionError(`{fte} ${fteName}: the column is ${fte.type}, not numeric fractions`);
   }
   const pay = columns.filter((c) => c.type === "numeric" && c.money && c !== fte);
   if (pay.length === 0) {
     throw new OptionError(
-      `--fte ${fteName}: no pay column found to adjust (name one with pay, salary or wage in ` +
+      `{fte} ${fteName}: no pay column found to adjust (name one with pay, salary or wage in ` +
         `its name, or write amounts with a currency)`,
     );
   }

@@ -198,7 +198,7 @@ export function settleMoney(
     const wanted = options.currency.toUpperCase();
     if (currency !== undefined && currency !== wanted && !ambiguous) {
       throw new OptionError(
-        `--currency ${wanted}: "${column}" is written in ${currency} (${
+        `{currency} ${wanted}: "${column}" is written in ${currency} (${
           lineList(currencies.get(currency)!)
         })`,
       );
@@ -222,7 +222,7 @@ export function settleMoney(
     if (unstatedCount > 0) {
       throw new DataError(
         `${file}: "${column}" mixes pay periods (${[...periods.keys()].join(", ")}), and ` +
-          `${lineList(unstated, unstatedCount)} state none; give --period ${column}=PERIOD ` +
+          `${lineList(unstated, unstatedCount)} state none; give {period} ${column}=PERIOD ` +
           `for the values that do not say`,
         { file, column, line: unstated[0] },
       );
@@ -234,7 +234,7 @@ export function settleMoney(
       throw new DataError(
         `${file}: "${column}" mixes hourly pay (${lineList(hours)}) with pay per ${others[0][0]} (${
           lineList(others[0][1])
-        }); give --hours-per-year to annualise the hourly values`,
+        }); give {hoursPerYear} to annualise the hourly values`,
         { file, column, line: hours[0] },
       );
     }

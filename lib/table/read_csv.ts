@@ -236,7 +236,7 @@ export class CsvColumnsReader {
           (this.#options.delimiter
             ? ""
             : ` (delimiter detected: ${describeDelimiter(this.#tokenizer!.delimiter)}; give ` +
-              `--delimiter if the file uses another)`),
+              `{delimiter} if the file uses another)`),
         { file, line: this.#ragged[0].line },
       );
     }
@@ -342,7 +342,7 @@ export class ChunkDecoder {
           this.#decoder = new TextDecoder(this.#encoding, { fatal: true, ignoreBOM: false });
         } catch {
           throw new OptionError(
-            `--encoding: unknown text encoding "${this.#encoding}" (e.g. utf-8, windows-1252, ` +
+            `{encoding}: unknown text encoding "${this.#encoding}" (e.g. utf-8, windows-1252, ` +
               `iso-8859-15)`,
           );
         }
@@ -369,7 +369,7 @@ export class ChunkDecoder {
       const line = this.#lines + countLines(loose, loose.indexOf("\ufffd")) - 1;
       throw new DataError(
         `${this.#file} line ${line} is not valid ${this.#encoding} text; re-save the file as ` +
-          `UTF-8, or name its encoding (e.g. --encoding windows-1252)`,
+          `UTF-8, or name its encoding (e.g. {encoding} windows-1252)`,
         { file: this.#file, line },
       );
     }

@@ -6,6 +6,7 @@
  * @module
  */
 
+import { errorWords } from "../option_words.ts";
 import { REBUILDS_PAY_WARNING } from "../open_model.ts";
 import { existsSync } from "node:fs";
 import {
@@ -123,7 +124,7 @@ export async function chooseAndFit(
       ({ table, leftOut } = screenPay(table, target, { moneyOnly: true }));
     } catch (error) {
       if (!(error instanceof ImplausiblePayError)) throw error;
-      io.say(style.warn(`! ${error.message}.`));
+      io.say(style.warn(`! ${errorWords(error)}.`));
       const n = error.finding.count;
       const go = await io.choose(`Leave ${n} row${n === 1 ? "" : "s"} out and go on?`, [
         { name: `Yes, leave ${n === 1 ? "it" : "them"} out`, value: true },

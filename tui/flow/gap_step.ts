@@ -8,6 +8,7 @@
  * @module
  */
 
+import { errorWords } from "../option_words.ts";
 import wrapAnsi from "wrap-ansi";
 import {
   chooseReference,
@@ -145,7 +146,9 @@ export async function offerGapCheck(
     });
   } catch (error) {
     if (!(error instanceof OptionError || error instanceof DataError)) throw error;
-    io.say(io.style.warn(`! The gap check could not run: ${terminalGuard(error.message, false)}`));
+    io.say(
+      io.style.warn(`! The gap check could not run: ${terminalGuard(errorWords(error), false)}`),
+    );
     return null;
   } finally {
     bar.finish();

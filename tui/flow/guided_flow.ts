@@ -7,6 +7,7 @@
  * @module
  */
 
+import { errorWords } from "../option_words.ts";
 import {
   DataError,
   type GapReport,
@@ -82,7 +83,7 @@ export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void
       ({ model, tableText, source, leftOut } = await chooseAndFit(io, options));
     } catch (error) {
       if (!(error instanceof DataError || error instanceof OptionError)) throw error;
-      io.say(io.style.warn(`! ${terminalGuard(error.message, false)}`));
+      io.say(io.style.warn(`! ${terminalGuard(errorWords(error), false)}`));
       io.say(io.style.dim("Choose again, or Ctrl-C to stop."));
     }
   }

@@ -6,6 +6,7 @@
  * @module
  */
 
+import { errorWords } from "../option_words.ts";
 import {
   applyChanges,
   applySets,
@@ -161,7 +162,7 @@ export async function whatIfLoop(
         continue;
       }
       if (error instanceof DataError || error instanceof OptionError) {
-        io.say(io.style.warn(`! ${terminalGuard(error.message, false)}`));
+        io.say(io.style.warn(`! ${terminalGuard(errorWords(error), false)}`));
         continue;
       }
       throw error;
@@ -218,7 +219,7 @@ export async function whatIfLoop(
             parseOffer(model, t);
             return true;
           } catch (error) {
-            if (error instanceof OptionError) return error.message.replace(/^--offer:? /, "");
+            if (error instanceof OptionError) return errorWords(error).replace(/^--offer:? /, "");
             throw error;
           }
         },

@@ -1,4 +1,4 @@
-// Categories of workers from --within columns, out-of-bag R-squared and
+// Categories of workers from within columns, out-of-bag R-squared and
 // the table's provenance, on small invented tables worked out by hand.
 import assert from "node:assert/strict";
 import { loadTable, OptionError, UnknownNameError, VERSION } from "../../../mod.ts";
@@ -38,7 +38,7 @@ Deno.test("withinColumns refuses numbers, excluded columns and unknown names, na
     () => withinColumns(t, ["famly"], ["pay"]),
     (e: Error) =>
       e instanceof UnknownNameError && e.asked === "famly" && e.nearest === "family" &&
-      e.option === "--within",
+      e.option === "within",
   );
 });
 

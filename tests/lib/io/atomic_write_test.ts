@@ -45,7 +45,7 @@ Deno.test("an existing file is kept unless force, then replaced keeping its mode
   if (posix) Deno.chmodSync(path, 0o640);
   const error = await rejection(() => writeFileAtomic(path, "new", { option: "--model" }));
   assert.ok(error instanceof OptionError);
-  assert.equal(error.message, `--model: ${path} already exists; add --force to replace it`);
+  assert.equal(error.message, `--model: ${path} already exists; add force to replace it`);
   assert.equal(Deno.readTextFileSync(path), "old");
   await writeFileAtomic(path, "new", { force: true });
   assert.equal(Deno.readTextFileSync(path), "new");
@@ -78,7 +78,7 @@ Deno.test("folders, links and FIFOs are never replaced, even with force", async 
   Deno.mkdirSync(sub);
   const asFolder = await rejection(() => writeFileAtomic(sub, "x", { force: true }));
   assert.ok(asFolder instanceof OptionError);
-  assert.equal(asFolder.message, `--out: ${sub} is a folder; give the path of a file to write`);
+  assert.equal(asFolder.message, `out: ${sub} is a folder; give the path of a file to write`);
   if (!posix) return;
   Deno.writeTextFileSync(`${folder}/target.txt`, "kept");
   Deno.symlinkSync(`${folder}/target.txt`, `${folder}/link`);
@@ -113,7 +113,7 @@ Deno.test("a path under a regular file cannot be checked", async () => {
   const file = Deno.makeTempFileSync();
   const error = await rejection(() => writeFileAtomic(`${file}/out.csv`, "x"));
   assert.ok(error instanceof DataError);
-  assert.match(error.message, new RegExp(`^--out: cannot check ${file}/out.csv \\(`));
+  assert.match(error.message, new RegExp(`^out: cannot check ${file}/out.csv \\(`));
 });
 
 Deno.test("assertCanWrite leaves no probe behind and refuses the files read", async () => {
@@ -122,15 +122,15 @@ Deno.test("assertCanWrite leaves no probe behind and refuses the files read", as
   assert.deepEqual(listing(folder), []);
   Deno.writeTextFileSync(`${folder}/pay.csv`, "pay\n1\n");
   const error = await rejection(() =>
-    assertCanWrite(`${folder}/./pay.csv`, true, "--out", [`${folder}/pay.csv`])
+    assertCanWrite(`${folder}/./pay.csv`, true, "out", [`${folder}/pay.csv`])
   );
   assert.ok(error instanceof OptionError);
   assert.equal(
     error.message,
-    `--out: ${folder}/./pay.csv is ${folder}/pay.csv, which this run reads; write the output elsewhere`,
+    `out: ${folder}/./pay.csv is ${folder}/pay.csv, which this run reads; write the output elsewhere`,
   );
   // A different file among those read does not stop it (with force, as it exists).
-  await assertCanWrite(`${folder}/pay.csv`, true, "--out", [`${folder}/other.csv`]);
+  await assertCanWrite(`${folder}/pay.csv`, true, "out", [`${folder}/other.csv`]);
   assert.deepEqual(listing(folder), ["pay.csv"]);
 });
 

@@ -112,14 +112,13 @@ Deno.test("privacy and size options are checked before fitting", async () => {
   });
   await assert.rejects(
     () => fitModel(small, { target: "pay", minLeaf: 2 }),
-    (e) =>
-      e instanceof OptionError && /--min-leaf 2 is below the privacy minimum 5/.test(e.message),
+    (e) => e instanceof OptionError && /minLeaf 2 is below the privacy minimum 5/.test(e.message),
   );
   await assert.rejects(
     () => fitModel(small, { target: "pay", privacyMin: 2, minLeaf: 2 }),
     (e) =>
       e instanceof OptionError &&
-      /--privacy-min must be a whole number of at least 3/.test(e.message),
+      /privacyMin must be a whole number of at least 3/.test(e.message),
   );
   // Fewer rows than folds: one fold per row (each fold needs at least one).
   const loo = await fitModel(small, { target: "pay", privacyMin: 3, minLeaf: 3, trees: 0 });
@@ -128,7 +127,7 @@ Deno.test("privacy and size options are checked before fitting", async () => {
     () => fitModel(small, { target: "pay", privacyMin: 3, minLeaf: 4, folds: 2 }),
     (e) =>
       e instanceof OptionError &&
-      e.message === 'only 6 rows have "pay"; at least 8 are needed for one split with --min-leaf 4',
+      e.message === 'only 6 rows have "pay"; at least 8 are needed for one split with minLeaf 4',
   );
 });
 

@@ -172,7 +172,7 @@ Deno.test("writing keeps an existing file unless forced, and leaves no temporary
   await writeModelFile(path, model);
   await assert.rejects(
     () => writeModelFile(path, model),
-    /--out: .*m\.json already exists; add --force/,
+    /out: .*m\.json already exists; add force/,
   );
   await writeModelFile(path, model, true);
   const back = await readModelFile(path);
@@ -205,7 +205,7 @@ Deno.test("the file holds neither the trees' resampling states nor the training 
 });
 
 // fixtures/legacy/format1_demo300.json: written by paygrove 0.1.0 (commit
-// de79dc9) with `fit --target base_pay_eur --trees 20` on the invented demo
+// de79dc9) with `fit target base_pay_eur trees 20` on the invented demo
 // table demoCompanyCsv({ rows: 300, seed: 11 }).
 const LEGACY = new URL("../../../fixtures/legacy/format1_demo300.json", import.meta.url).pathname;
 

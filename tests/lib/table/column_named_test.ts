@@ -60,7 +60,7 @@ Deno.test("columnNamed and loadTable carry the lookup as data on their error", (
   });
   assert.equal(read.target, "Pay");
   assert.deepEqual(read.nameMatches, [
-    { option: "--target", asked: "pay", name: "Pay" },
-    { option: "--protected", asked: "sex", name: "Sex" },
+    { option: "target", asked: "pay", name: "Pay" },
+    { option: "protected", asked: "sex", name: "Sex" },
   ]);
 });

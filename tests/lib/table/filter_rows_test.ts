@@ -85,13 +85,13 @@ Deno.test("numeric columns compare by number; identifiers by text; missing never
   assert.deepEqual(Array.from(filterRows(table, { years: ["5.0", "2"] }).lines), [2, 3, 5, 6]);
   assert.deepEqual(Array.from(filterRows(table, { id: ["a4", "a1"] }).lines), [2, 5]);
   const error = refusal(() => filterRows(table, { years: ["NA"] }));
-  assert.equal(error.message, '--where: "years" is numeric, and "NA" is not a number');
+  assert.equal(error.message, 'where: "years" is numeric, and "NA" is not a number');
 });
 
 Deno.test("a constant column keeps every row or none", () => {
   assert.equal(filterRows(table, { country: ["DE"] }).rows, 6);
   const none = refusal(() => filterRows(table, { country: ["FR"] }));
-  assert.equal(none.message, "--where: no row has country=FR");
+  assert.equal(none.message, "where: no row has country=FR");
 });
 
 Deno.test("no condition returns the same table", () => {
@@ -100,8 +100,8 @@ Deno.test("no condition returns the same table", () => {
 
 Deno.test("no matching row, an unknown column or level is an OptionError", () => {
   const none = refusal(() => filterRows(table, { site: ["East"], level: ["L3"] }));
-  assert.equal(none.message, "--where: no row has site=East and level=L3");
-  assert.match(refusal(() => filterRows(table, { sight: ["North"] })).message, /--where/);
+  assert.equal(none.message, "where: no row has site=East and level=L3");
+  assert.match(refusal(() => filterRows(table, { sight: ["North"] })).message, /where/);
   assert.match(refusal(() => filterRows(table, { site: ["West"] })).message, /West/);
 });
 

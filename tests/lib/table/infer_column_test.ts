@@ -125,19 +125,19 @@ Deno.test("a declared order makes the column ordinal and is checked", () => {
   assert.deepEqual((column as { levels: string[] }).levels, order);
   assert.deepEqual(levelsOf(column), ["Senior", "Junior", "?"]);
   const twice = thrown(() => infer("grade", ["Mid"], { order: ["Mid", "Mid"] }), OptionError);
-  assert.equal(twice.message, "--order grade: a level is listed twice");
+  assert.equal(twice.message, "order grade: a level is listed twice");
   const unknown = thrown(
     () => infer("grade", ["Junior", "Lead", "Mid", "Lead"], { order: ["Junior", "Mid"] }),
     OptionError,
   );
   assert.equal(
     unknown.message,
-    '--order grade: the data has level not in the order: "Lead" (line 3)',
+    'order grade: the data has level not in the order: "Lead" (line 3)',
   );
   const needs = thrown(() => infer("grade", ["Mid", "Junior"], { type: "ordinal" }), OptionError);
   assert.equal(
     needs.message,
-    "--type grade=ordinal needs an order: give --order grade=Junior,Mid with the levels lowest first",
+    "type grade=ordinal needs an order: give order grade=Junior,Mid with the levels lowest first",
   );
 });
 
@@ -148,7 +148,7 @@ Deno.test("a numeric column with a stray text is refused, quoting it with its li
   assert.equal(
     error.message,
     `t.csv: years: line 32 has "n.a.", not a number; if the column is not numeric, declare it ` +
-      `with --type years=categorical ${MISSING_SAID}`,
+      `with type years=categorical ${MISSING_SAID}`,
   );
   assert.deepEqual(error.location, { file: "t.csv", line: 32, column: "years" });
 });
@@ -157,9 +157,9 @@ Deno.test("the message hints at a decimal comma and at a letter typed for a digi
   // A pay column with fewer than half its values failing must be numbers.
   const comma = thrown(() => infer("pay", ["50000", "1,5", "61000", "72000", "2,25"]), DataError);
   assert.match(comma.message, /^t\.csv: pay: line 3 has "1,5", line 6 has "2,25", not a number/);
-  assert.match(comma.message, /the values read as numbers with --decimal ","/);
-  // A pay column gets no --type hint.
-  assert.doesNotMatch(comma.message, /--type/);
+  assert.match(comma.message, /the values read as numbers with decimal ","/);
+  // A pay column gets no type hint.
+  assert.doesNotMatch(comma.message, /type/);
   const slip = thrown(() => infer("salary", ["50000", "85,0OO", "61000"]), DataError);
   assert.match(slip.message, /; a letter O or l typed for a digit\?/);
   // Half or more failing in a pay column: text, not numbers.

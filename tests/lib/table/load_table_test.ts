@@ -93,11 +93,11 @@ Deno.test("a declared order makes a column ordinal in that order", () => {
   assert.deepEqual([...title.codes], [1, 0, 2, 1, 3]);
   optionFails(
     () => loadTable(csv, { orders: { title: ["Associate", "Senior", "Staff"] } }),
-    '--order title: the data has level not in the order: "Principal" (line 6)',
+    'order title: the data has level not in the order: "Principal" (line 6)',
   );
   optionFails(
     () => loadTable(csv, { types: { title: "ordinal" } }),
-    "--type title=ordinal needs an order: give --order title=Associate,Principal,Senior,Staff " +
+    "type title=ordinal needs an order: give order title=Associate,Principal,Senior,Staff " +
       "with the levels lowest first",
   );
 });
@@ -162,7 +162,7 @@ Deno.test("--currency names the currency, and cannot contradict the data", () =>
   assert.deepEqual(pay.money, { currency: "CAD" });
   optionFails(
     () => loadTable(rows("pay", quoted("€85,000", "€61,000")), { currency: "USD" }),
-    '--currency USD: "pay" is written in EUR (lines 2, 3)',
+    'currency USD: "pay" is written in EUR (lines 2, 3)',
   );
 });
 
@@ -180,7 +180,7 @@ Deno.test("hourly pay is annualised with --hours-per-year; mixed periods go to p
   assert.deepEqual([...mixed.values], [60000, 70000, 52000]);
   dataFails(
     () => loadTable(rows("pay", quoted("25/hour", "70,000/year")), { file: "t.csv" }),
-    't.csv: "pay" mixes hourly pay (line 2) with pay per year (line 3); give --hours-per-year ' +
+    't.csv: "pay" mixes hourly pay (line 2) with pay per year (line 3); give hoursPerYear ' +
       "to annualise the hourly values",
     2,
   );
@@ -251,7 +251,7 @@ Deno.test("comma-decimal numbers read without --decimal get a hint", () => {
         types: { rating: "numeric" },
       }),
     't.csv: rating: line 2 has "0,5", line 3 has "1,5", line 4 has "2,5", line 5 has "3,5", ' +
-      'line 6 has "4,5", and 15 more, not a number; the values read as numbers with --decimal "," ' +
+      'line 6 has "4,5", and 15 more, not a number; the values read as numbers with decimal "," ' +
       "(missing values may be written as empty, NA, N/A, #N/A, NaN, null or -)",
   );
 });
@@ -300,24 +300,24 @@ Deno.test("unknown column names in options list the columns", () => {
   const listed = "the columns are: site, pay";
   optionFails(
     () => loadTable(csv, { target: "salary" }),
-    `--target: no column named "salary"; ${listed}`,
+    `target: no column named "salary"; ${listed}`,
   );
   optionFails(
     () => loadTable(csv, { types: { wage: "numeric" } }),
-    `--type: no column named "wage"; ${listed}`,
+    `type: no column named "wage"; ${listed}`,
   );
   optionFails(
     () => loadTable(csv, { orders: { level: ["a"] } }),
-    `--order: no column named "level"; ${listed}`,
+    `order: no column named "level"; ${listed}`,
   );
   optionFails(
     () => loadTable(csv, { protected: ["sex"] }),
-    `--protected: no column named "sex"; ${listed}`,
+    `protected: no column named "sex"; ${listed}`,
   );
-  optionFails(() => loadTable(csv, { fte: "fte" }), `--fte: no column named "fte"; ${listed}`);
+  optionFails(() => loadTable(csv, { fte: "fte" }), `fte: no column named "fte"; ${listed}`);
   optionFails(
     () => loadTable(csv, { periods: { w: "hour" } }),
-    `--period: no column named "w"; ${listed}`,
+    `period: no column named "w"; ${listed}`,
   );
 });
 
@@ -408,7 +408,7 @@ Deno.test("mixed pay periods with values that state none are refused", () => {
       loadTable(rows("pay", quoted("4,000/month", "52,000", "61,000", "70,000/year")), {
         file: "t.csv",
       }),
-    't.csv: "pay" mixes pay periods (month, year), and lines 3, 4 state none; give --period ' +
+    't.csv: "pay" mixes pay periods (month, year), and lines 3, 4 state none; give period ' +
       "pay=PERIOD for the values that do not say",
     3,
   );

@@ -98,7 +98,7 @@ Deno.test("--currency must agree with a stated code, settles an ambiguous symbol
     () => settleMoney(Float64Array.of(1), eur, lines, { ...opts, currency: "usd" }),
     OptionError,
   );
-  assert.equal(error.message, '--currency USD: "pay" is written in EUR (line 2)');
+  assert.equal(error.message, 'currency USD: "pay" is written in EUR (line 2)');
   const dollar: Amount[] = [{ value: 1, currency: "USD", currencyAmbiguous: true }];
   assert.deepEqual(
     settleMoney(Float64Array.of(1), dollar, lines, { ...opts, currency: "cad" }).unit,
@@ -166,7 +166,7 @@ Deno.test("mixed periods with some unstated, or hourly without hours, are refuse
   assert.equal(
     error.message,
     'pay.csv: "pay" mixes pay periods (month, week), and lines 3, 4 state none; ' +
-      "give --period pay=PERIOD for the values that do not say",
+      "give period pay=PERIOD for the values that do not say",
   );
   assert.equal(error.location.line, 3);
   // One stated period with the rest unstated is read as that period for all (no change).
@@ -187,7 +187,7 @@ Deno.test("mixed periods with some unstated, or hourly without hours, are refuse
   assert.equal(
     noHours.message,
     'pay.csv: "pay" mixes hourly pay (line 2) with pay per month (line 3); ' +
-      "give --hours-per-year to annualise the hourly values",
+      "give hoursPerYear to annualise the hourly values",
   );
 });
 

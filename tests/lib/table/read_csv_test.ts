@@ -86,7 +86,7 @@ Deno.test("binary and wrongly encoded files are refused", () => {
   fails(
     () => decodeText(latin, "utf-8", "t.csv"),
     "t.csv line 2 is not valid utf-8 text; re-save the file as UTF-8, or name its encoding " +
-      "(e.g. --encoding windows-1252)",
+      "(e.g. encoding windows-1252)",
     2,
   );
   assert.equal(decodeText(latin, "windows-1252"), "name\ncafé\n");
@@ -127,7 +127,7 @@ Deno.test("invalid UTF-8 is placed on its line when a chunk cuts a character in 
 
 function decodeMessage(line: number): string {
   return `t.csv line ${line} is not valid utf-8 text; re-save the file as UTF-8, or name its ` +
-    "encoding (e.g. --encoding windows-1252)";
+    "encoding (e.g. encoding windows-1252)";
 }
 
 Deno.test("a UTF-16 byte-order mark is seen even when the first piece holds one byte", () => {

@@ -84,7 +84,7 @@ Deno.test("makeDataset keeps identifiers, constants and protected attributes out
   assert.ok(allowed.dataset.features.some((f) => f.name === "gender"));
   assert.throws(
     () => makeDataset(table, { target: "pay", features: ["gender"] }),
-    /"gender" is a protected attribute; it is kept out of pay estimates unless you pass --allow-protected/,
+    /"gender" is a protected attribute; it is kept out of pay estimates unless you pass allowProtected/,
   );
   const levelTarget = makeDataset(table, { target: "level" });
   assert.equal(levelTarget.dataset.target.kind, "classification");
