@@ -105,7 +105,8 @@ Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", a
   const run = await paygrove(["estimate", path]);
   // Every step tests the same attribute: the path is one condition, and
   // the JSON keeps the 20,000 splits.
-  assert.match(run.stdout, /1\. +years_experience above -999960000 /);
+  // The deepest threshold, -1e9 + 39,998, said in full (not rounded to 6 digits).
+  assert.match(run.stdout, /1\. +years_experience above -999960002 /);
   assert.doesNotMatch(run.stdout, /^ +2\. /m);
   assert.ok(run.stdout.split("\n").length < 80);
   const json = JSON.parse((await paygrove(["estimate", path, "--json"])).stdout);
