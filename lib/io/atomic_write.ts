@@ -21,7 +21,7 @@ export interface AtomicWriteOptions {
    * @default {false}
    */
   force?: boolean;
-  /** The option that named the path, for messages (e.g. `--out`). */
+  /** The option that named the path, for messages (e.g. `out`; a flag given is kept). */
   option?: string;
   /**
    * The file holds per-person pay: a new file is created with mode 0600.

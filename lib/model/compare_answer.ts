@@ -12,7 +12,7 @@ import type { Provenance } from "./types.ts";
 import type { ModelSession } from "./model_session.ts";
 import { type EstimateAnswer, estimateProfile } from "./estimate_answer.ts";
 
-/** The `compare --json` document. */
+/** A what-if's answer (the compare command's JSON document). */
 export interface CompareAnswer {
   /** The base profile's answer. */
   base: EstimateAnswer;

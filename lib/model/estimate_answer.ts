@@ -86,7 +86,7 @@ export interface SupportAnswer {
   reasons: string[];
 }
 
-/** The answer for one profile (the `estimate --json` document). */
+/** The answer for one profile (the estimate command's JSON document). */
 export interface EstimateAnswer {
   /** The profile in words. */
   profile: Record<string, string | number | null>;
@@ -148,7 +148,7 @@ export interface EstimateAnswer {
   trees: number[];
   /** Warnings for the user. */
   warnings: string[];
-  /** With an offer (`estimate --offer`): where it sits ({@linkcode checkOffer}). */
+  /** With an offer: where it sits ({@linkcode checkOffer}). */
   offer?: OfferAnswer;
   /** Where it came from. */
   provenance: Provenance;

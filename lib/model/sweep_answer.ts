@@ -25,13 +25,13 @@ export interface SweepAnswerPoint {
   confidence: { low: number; high: number } | null;
   /** The range for comparable people (null without an ensemble). */
   range: { low: number; high: number } | null;
-  /** Partial dependence (with `--average`): the estimate averaged over the table's rows. */
+  /** Partial dependence (when asked): the estimate averaged over the table's rows. */
   average?: number;
   /** Whether the profile at this value is unusual for the data. */
   unusual: boolean;
 }
 
-/** The `sweep --json` document. */
+/** A sweep's answer (the sweep command's JSON document). */
 export interface SweepAnswer {
   /** The attribute swept. */
   feature: string;

@@ -214,7 +214,7 @@ export interface Model {
   read: ReadSettings;
   /** Settings. */
   settings: ModelSettings;
-  /** Rows used to fit, and rows of the table left out (missing target, --where). */
+  /** Rows used to fit, and rows of the table left out (missing target, `where`). */
   rows: { used: number; dropped: number };
   /** The reference tree. */
   reference: ReferenceTree;

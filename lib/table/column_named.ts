@@ -151,7 +151,7 @@ export type NameKind = "column" | "attribute" | "level";
 
 /** The fields of an {@linkcode UnknownNameError}. */
 export interface UnknownName {
-  /** The option that gave the name (e.g. `--within`). */
+  /** The option that gave the name (e.g. `within`; a flag given is kept). */
   option: string;
   /** What the name should have named. */
   what: NameKind;
