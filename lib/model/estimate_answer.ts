@@ -13,7 +13,7 @@ import { type ProfileReader, type ProfileReading, readProfile } from "../ensembl
 import { classVotes } from "../ensemble/class_votes.ts";
 import { applyValues } from "../tree/flat_tree.ts";
 import { explainPath } from "../tree/explain.ts";
-import { mergePath } from "../tree/merge_path.ts";
+import { mergePath, type PathCondition } from "../tree/merge_path.ts";
 import { describeProfile, type Profile, type ProfileWarning, rangeWarnings } from "./profile.ts";
 import type { Model, Provenance } from "./types.ts";
 import type { OfferAnswer } from "./offer.ts";
@@ -35,30 +35,10 @@ export interface NamedInterval {
  * One condition of the reference tree's decision path: every split on one
  * attribute merged into what they mean together (`level G2 to G4`).
  */
-export interface PathAnswer {
-  /** The attribute. */
-  feature: string;
-  /** How it splits: numeric bounds, an ordinal run of levels, a categorical set. */
-  kind: "numeric" | "ordinal" | "categorical";
-  /** The merged condition in words. */
-  condition: string;
-  /** Numeric: the value is above this (exclusive); null when unbounded. */
-  above: number | null;
-  /** Numeric: the value is at most this (inclusive); null when unbounded. */
-  atMost: number | null;
-  /** Ordinal: the levels allowed, lowest first; categorical: the levels left; numeric: null. */
-  levels: string[] | null;
-  /** Whether a missing value follows these splits too. */
-  missing: boolean;
-  /** Whether any known value does (false when a split sent every known value the other way). */
-  known: boolean;
-  /** The split steps it covers (1-based numbers of `pathSplits`). */
-  steps: number[];
-  /** Training rows in the node reached after its last step. */
-  rows: number;
-  /** Typical pay of that node (money; null for fewer rows than the privacy minimum). */
+export type PathAnswer = Omit<PathCondition, "profileMissing" | "node" | "value"> & {
+  /** Typical pay of the node reached (money; null for fewer rows than the privacy minimum). */
   value: number | null;
-}
+};
 
 /** One split of the reference tree's decision path, as the tree tests it. */
 export interface PathSplitAnswer {
