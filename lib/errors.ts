@@ -25,13 +25,19 @@
  * assert.equal(optionText(text, flag), "--min-leaf 2 is below the privacy minimum 5 (see --privacy-min)");
  * assert.equal(optionText("{--report}: exists", flag), "--report: exists");
  * assert.equal(optionText("site in {North, South}", flag), "site in {North, South}");
+ * // A column named "{where}" is quoted data, left as it is.
+ * assert.equal(optionText('{where}: no column named "{where}"', flag), '--where: no column named "{where}"');
  * ```
  */
 export function optionText(text: string, word: (option: string) => string = (o) => o): string {
-  return text.replace(
-    /\{(--[a-z][a-z-]*|[a-z][A-Za-z]*)\}/g,
-    (_, name: string) => (name.startsWith("--") ? name : word(name)),
-  );
+  // Names from the data are quoted ("{where}" as a column's name): only
+  // the text outside double quotes is the library's own.
+  return text.split('"').map((part, i) =>
+    i % 2 === 1 ? part : part.replace(
+      /\{(--[a-z][a-z-]*|[a-z][A-Za-z]*)\}/g,
+      (_, name: string) => (name.startsWith("--") ? name : word(name)),
+    )
+  ).join('"');
 }
 
 /** Where in an input file a problem was found. */
