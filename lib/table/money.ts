@@ -210,7 +210,9 @@ export function settleMoney(
 
   let period: PayPeriod | undefined = periods.size === 1 ? [...periods.keys()][0] : undefined;
   const hours = periods.get("hour");
-  if (periods.size > 1 && options.defaultPeriod === undefined) {
+  // Values that state no period beside values that do: one period stated
+  // on a few cells ("4000/month") would otherwise name the whole column's.
+  if (periods.size >= 1 && options.defaultPeriod === undefined) {
     const unstated: number[] = [];
     let unstatedCount = 0;
     for (let r = 0; r < amounts.length; r++) {
@@ -220,9 +222,15 @@ export function settleMoney(
       }
     }
     if (unstatedCount > 0) {
+      const [only, at] = [...periods][0];
       throw new DataError(
-        `${file}: "${column}" mixes pay periods (${[...periods.keys()].join(", ")}), and ` +
-          `${lineList(unstated, unstatedCount)} state none; give {period} ${column}=PERIOD ` +
+        (periods.size > 1
+          ? `${file}: "${column}" mixes pay periods (${[...periods.keys()].join(", ")}), and `
+          : `${file}: "${column}" states pay per ${only} on ${lineList(at)}, and `) +
+          `${lineList(unstated, unstatedCount)} ${
+            unstatedCount === 1 ? "states" : "state"
+          } none; ` +
+          `give {period} ${column}=PERIOD ` +
           `for the values that do not say`,
         { file, column, line: unstated[0] },
       );

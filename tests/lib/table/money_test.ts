@@ -169,16 +169,34 @@ Deno.test("mixed periods with some unstated, or hourly without hours, are refuse
       "give period pay=PERIOD for the values that do not say",
   );
   assert.equal(error.location.line, 3);
-  // One stated period with the rest unstated is read as that period for all (no change).
-  const one = Float64Array.of(4000, 4100);
+  // One period stated on a few cells and none on the others is refused too:
+  // it used to name the whole column's period ("4000/month" beside 85,000
+  // made every value a month's pay), said nowhere.
+  const one = thrown(
+    () =>
+      settleMoney(
+        Float64Array.of(4000, 85000),
+        [{ value: 4000, period: "month" }, { value: 85000 }],
+        lines,
+        opts,
+      ),
+    DataError,
+  );
+  assert.equal(
+    one.message,
+    'pay.csv: "pay" states pay per month on line 2, and line 3 states none; ' +
+      "give period pay=PERIOD for the values that do not say",
+  );
+  // Every value stating the period: that period, no change.
+  const all = Float64Array.of(4000, 4100);
   const settled = settleMoney(
-    one,
-    [{ value: 4000, period: "month" }, { value: 4100 }],
+    all,
+    [{ value: 4000, period: "month" }, { value: 4100, period: "month" }],
     lines,
     opts,
   );
   assert.deepEqual(settled.unit, { period: "month" });
-  assert.deepEqual(Array.from(one), [4000, 4100]);
+  assert.deepEqual(Array.from(all), [4000, 4100]);
   const hourly: Amount[] = [{ value: 20, period: "hour" }, { value: 5000, period: "month" }];
   const noHours = thrown(
     () => settleMoney(Float64Array.of(20, 5000), hourly, lines, opts),
