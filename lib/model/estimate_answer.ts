@@ -257,11 +257,7 @@ export function estimateProfile(
       },
       referenceTree: tree.value[leafNode * width + best],
       center: null,
-      confidence: null,
-      jackknife: null,
-      jackknifeNeedsAnalystFile: false,
-      range: null,
-      trees: [],
+      ...NO_INTERVALS,
       warnings,
     };
   }
@@ -278,11 +274,7 @@ export function estimateProfile(
         meanOverEstimate: null,
         meanPay: null,
       },
-      confidence: null,
-      jackknife: null,
-      jackknifeNeedsAnalystFile: false,
-      range: null,
-      trees: [],
+      ...NO_INTERVALS,
       warnings,
     };
   }
@@ -315,6 +307,16 @@ function estimateCenterOf(reader: ProfileReader, estimate: number): EstimateAnsw
     meanPay: estimate * reader.center.meanOverEstimate,
   };
 }
+
+// An answer without an ensemble (a class model's or a tree alone) has no
+// interval, range or trees.
+const NO_INTERVALS = {
+  confidence: null,
+  jackknife: null,
+  jackknifeNeedsAnalystFile: false,
+  range: null,
+  trees: [] as number[],
+};
 
 const NO_ENSEMBLE = "this model has no ensemble (fitted with --trees 0): the estimate is the " +
   "reference tree's leaf and carries no interval";
