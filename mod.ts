@@ -164,6 +164,7 @@ export * from "./lib/model/profile.ts";
 export * from "./lib/model/model_table.ts";
 export * from "./lib/model/model_session.ts";
 export * from "./lib/model/estimate_answer.ts";
+export * from "./lib/model/answer_notes.ts";
 export * from "./lib/model/compare_answer.ts";
 export * from "./lib/model/sweep_answer.ts";
 export * from "./lib/model/batch_answer.ts";

@@ -177,7 +177,7 @@ const MASKED = new Set([
 ]);
 
 /** Fields that carry notes as data beside their words: new ones are allowed. */
-const NOTE_CODES = new Set(["code", "kind", "noteCodes", "warningCodes"]);
+const NOTE_CODES = new Set(["code", "kind", "noteCodes", "warningCodes", "reasonCodes"]);
 
 /** The paths where `now` differs from `before`, masked fields and new note codes aside. */
 export function differences(

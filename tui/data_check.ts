@@ -7,7 +7,7 @@
  * @module
  */
 
-import { errorWords } from "./option_words.ts";
+import { errorWords, optionWords } from "./option_words.ts";
 import wrapAnsi from "wrap-ansi";
 import {
   DataError,
@@ -128,7 +128,7 @@ export function dataWarningLines(
 ): string[] {
   if (warnings.length === 0) return [];
   const n = warnings.length;
-  const quoted = warnings.slice(0, QUOTED_WARNINGS).map((w) => w.message).join("; ");
+  const quoted = warnings.slice(0, QUOTED_WARNINGS).map((w) => optionWords(w.message)).join("; ");
   const more = n > QUOTED_WARNINGS ? `; and ${n - QUOTED_WARNINGS} more` : "";
   const text = `! ${n} data-quality warning${n === 1 ? "" : "s"}: ${quoted}${more}. ` +
     `paygrove schema ${file} lists them with line numbers.`;

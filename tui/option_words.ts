@@ -6,7 +6,13 @@
  * @module
  */
 
-import { DataError, OptionError, optionText } from "../mod.ts";
+import {
+  DataError,
+  OptionError,
+  optionText,
+  type QualityWarning,
+  type SchemaSummary,
+} from "../mod.ts";
 
 /**
  * The flag of a library option (a flag given already is kept).
@@ -45,4 +51,64 @@ export function errorWords(error: Error): string {
     return optionText(error.template, flagOf);
   }
   return error.message;
+}
+
+/**
+ * A library note's text with its options written as flags (`{currency}`
+ * -> `--currency`); names quoted from the data are left as they are.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { optionWords } from "./option_words.ts";
+ * assert.equal(
+ *   optionWords("the symbol was read as USD; give {currency} to say otherwise"),
+ *   "the symbol was read as USD; give --currency to say otherwise",
+ * );
+ * ```
+ */
+export function optionWords(text: string): string {
+  return optionText(text, flagOf);
+}
+
+/**
+ * A table's data-quality warnings with their options written as flags,
+ * for `--json` and the screen alike.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { wordedWarnings } from "./option_words.ts";
+ * const [w] = wordedWarnings([
+ *   { kind: "decimal-mark", count: 1, lines: [], message: '"pay" reads as numbers only with {decimal} ","' },
+ * ]);
+ * assert.equal(w.message, '"pay" reads as numbers only with --decimal ","');
+ * assert.equal(w.kind, "decimal-mark");
+ * ```
+ */
+export function wordedWarnings(warnings: readonly QualityWarning[]): QualityWarning[] {
+  return warnings.map((w) => ({ ...w, message: optionWords(w.message) }));
+}
+
+/**
+ * A schema summary with the options in its notes and warnings written as
+ * flags.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { describeSchema, loadTable } from "../mod.ts";
+ * import { wordedSchema } from "./option_words.ts";
+ * const summary = describeSchema(loadTable("level,pay\nL1,$50000\nL2,$52000\nL1,$51000\n"));
+ * assert.match(describeSchema(loadTable("pay\n$1\n$2\n")).columns[0].notes.join(" "), /\{currency\}/);
+ * assert.match(wordedSchema(summary).columns[1].notes.join(" "), /give --currency to say otherwise/);
+ * ```
+ */
+export function wordedSchema(summary: SchemaSummary): SchemaSummary {
+  return {
+    ...summary,
+    notes: summary.notes.map(optionWords),
+    columns: summary.columns.map((c) => ({ ...c, notes: c.notes.map(optionWords) })),
+    warnings: wordedWarnings(summary.warnings),
+  };
 }

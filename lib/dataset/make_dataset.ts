@@ -269,7 +269,7 @@ export function makeDataset(table: Table, options: MakeDatasetOptions): DatasetR
     for (const c of table.columns) {
       if (c === targetColumn) continue;
       const reason = drop.has(c.name)
-        ? "dropped by --drop"
+        ? "dropped on request"
         : c.type === "identifier"
         ? "identifier"
         : c.type === "constant"

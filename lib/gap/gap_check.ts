@@ -874,7 +874,7 @@ export function chooseReference(
   if (named !== undefined) {
     return {
       reference: groupNamed(groups, named, column, "reference"),
-      reason: "named with --reference",
+      reason: "named by the user",
     };
   }
   const words = nameWords(column);

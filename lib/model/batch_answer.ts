@@ -16,6 +16,7 @@ import type { ModelRows } from "./model_table.ts";
 import type { Model } from "./types.ts";
 import { checkCoverage, type ModelSession, resamplesOf, shiftedMoney } from "./model_session.ts";
 import { profileSupport } from "./estimate_answer.ts";
+import type { SupportReason } from "./answer_notes.ts";
 
 /** One scored row of `batch`. */
 export interface BatchRow {
@@ -46,8 +47,8 @@ export interface BatchRow {
    * the residual quantiles the range is read from (as `estimate --offer`).
    */
   shareBelow?: number | null;
-  /** Why the row is unusual for the data, or outside it ("" when it is not). */
-  warnings: string;
+  /** Why the row is unusual for the data, or outside it (none when it is not). */
+  reasons: SupportReason[];
 }
 
 /**
@@ -131,7 +132,7 @@ export function batchAnswer(
         ...(offers !== null
           ? { offerToEstimate: null, rangePosition: null, offerPosition: null, shareBelow: null }
           : {}),
-        warnings: "",
+        reasons: [],
       });
       continue;
     }
@@ -151,7 +152,7 @@ export function batchAnswer(
         ciHigh: null,
         rangeLow: null,
         rangeHigh: null,
-        warnings: reasons.join("; "),
+        reasons,
       };
     } else {
       const reading = readProfile(reader, profile, coverage);
@@ -164,7 +165,7 @@ export function batchAnswer(
         ciHigh: reading.howSure.high,
         rangeLow: reading.range.low,
         rangeHigh: reading.range.high,
-        warnings: reasons.join("; "),
+        reasons,
       };
       const index = rows.ids[r] === "" || counts.length === 0
         ? undefined

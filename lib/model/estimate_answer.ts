@@ -15,6 +15,7 @@ import { applyValues } from "../tree/flat_tree.ts";
 import { explainPath } from "../tree/explain.ts";
 import { mergePath, type PathCondition } from "../tree/merge_path.ts";
 import { describeProfile, type Profile, type ProfileWarning, rangeWarnings } from "./profile.ts";
+import { type AnswerNote, distinctNotes, type SupportReason } from "./answer_notes.ts";
 import type { Model, Provenance } from "./types.ts";
 import type { OfferAnswer } from "./offer.ts";
 import { checkCoverage, type ModelSession } from "./model_session.ts";
@@ -62,8 +63,8 @@ export interface SupportAnswer {
   peers: { features: string[]; levels: string[]; rows: number } | null;
   /** Whether the profile is unusual for the data. */
   unusual: boolean;
-  /** Why, one sentence each. */
-  reasons: string[];
+  /** Why, as notes ({@linkcode SupportReason}). */
+  reasons: SupportReason[];
 }
 
 /** The answer for one profile (the estimate command's JSON document). */
@@ -126,8 +127,8 @@ export interface EstimateAnswer {
   support: SupportAnswer;
   /** Each tree's estimate (money), for the chart. */
   trees: number[];
-  /** Warnings for the user. */
-  warnings: string[];
+  /** What to bear in mind about the estimate ({@linkcode AnswerNote}). */
+  warnings: AnswerNote[];
   /** With an offer: where it sits ({@linkcode checkOffer}). */
   offer?: OfferAnswer;
   /** Where it came from. */
@@ -213,17 +214,12 @@ export function estimateProfile(
   }));
   const leafNode = applyValues(tree, profile);
   const leafRows = tree.rows[leafNode];
-  const warnings = [...extraWarnings.map((w) => w.message)];
-  for (const w of rangeWarnings(model, profile)) {
-    if (!warnings.includes(w.message)) warnings.push(w.message);
-  }
+  const warnings: AnswerNote[] = distinctNotes([
+    ...extraWarnings,
+    ...rangeWarnings(model, profile),
+  ]);
   const support = profileSupport(model, profile, leafRows);
-  if (support.unusual) {
-    warnings.push(
-      `unusual profile for this data: ${support.reasons.join("; ")}. Estimates for it rest on ` +
-        `few comparable people; treat them with care`,
-    );
-  }
+  if (support.unusual) warnings.push({ kind: "unusualProfile", reasons: support.reasons });
   const base = {
     profile: describeProfile(model, profile),
     target: {
@@ -241,7 +237,7 @@ export function estimateProfile(
   if (model.target.kind === "classification") {
     const width = tree.width;
     const { shares, perTree, best } = classVotes(model.ensemble?.trees ?? [tree], profile);
-    if (model.ensemble === null) warnings.push(NO_ENSEMBLE);
+    if (model.ensemble === null) warnings.push({ kind: "noEnsemble" });
     return {
       ...base,
       estimate: shares[best],
@@ -263,7 +259,7 @@ export function estimateProfile(
   }
   const referenceTree = toMoney(tree.value[leafNode], scale);
   if (reader === null) {
-    warnings.push(NO_ENSEMBLE);
+    warnings.push({ kind: "noEnsemble" });
     return {
       ...base,
       estimate: referenceTree,
@@ -280,10 +276,7 @@ export function estimateProfile(
   }
   const reading = readProfile(reader, profile, coverage);
   if (reading.howSure.low < reading.range.low || reading.howSure.high > reading.range.high) {
-    warnings.push(
-      "the trees disagree about such a profile more than comparable people's pay differs: " +
-        "there are few people like it, so both intervals rest on little",
-    );
+    warnings.push({ kind: "treesDisagree" });
   }
   return {
     ...base,
@@ -318,9 +311,6 @@ const NO_INTERVALS = {
   trees: [] as number[],
 };
 
-const NO_ENSEMBLE = "this model has no ensemble (fitted with --trees 0): the estimate is the " +
-  "reference tree's leaf and carries no interval";
-
 function fromReading(reading: ProfileReading) {
   return {
     estimate: reading.estimate,
@@ -353,11 +343,12 @@ function fromReading(reading: ProfileReading) {
  * const old = Float64Array.from(typical);
  * old[years] = 99;
  * const support = profileSupport(model, old, 40);
- * assert(support.unusual && support.reasons.some((r) => r.startsWith("years_experience")));
+ * assert(support.unusual);
+ * assert(support.reasons.some((r) => r.kind !== "fewPeers" && r.feature === "years_experience"));
  * ```
  */
 export function profileSupport(model: Model, profile: Profile, leafRows: number): SupportAnswer {
-  const reasons: string[] = [];
+  const reasons: SupportReason[] = [];
   const privacy = model.settings.privacyMin;
   const byName = new Map(model.features.map((f, i) => [f.name, i]));
   let peers: SupportAnswer["peers"] = null;
@@ -370,11 +361,7 @@ export function profileSupport(model: Model, profile: Profile, leafRows: number)
       const rows = p.counts[`${la}\u0000${lb}`] ?? 0;
       peers = { features: [...p.features], levels: [la, lb], rows };
       if (rows < privacy) {
-        reasons.push(
-          `${rows === 0 ? "no one" : `only ${rows} ${rows === 1 ? "person" : "people"}`} in the ` +
-            `training data ${rows === 1 ? "has" : "have"} ${p.features[0]} ${la} and ` +
-            `${p.features[1]} ${lb}`,
-        );
+        reasons.push({ kind: "fewPeers", features: [...p.features], levels: [la, lb], rows });
       }
     }
   }
@@ -385,20 +372,17 @@ export function profileSupport(model: Model, profile: Profile, leafRows: number)
       const g = byName.get(range.feature)!;
       const x = profile[g];
       if (Number.isNaN(x)) continue;
+      const beyond = { feature: range.feature, value: x, group: group.feature, level: group.level };
       if (x > range.p99) {
-        reasons.push(
-          `${range.feature} ${x} is above what 99% of people at ${group.feature} ${group.level} ` +
-            `have (up to ${round(range.p99)})`,
-        );
+        reasons.push({ kind: "aboveLevelRange", ...beyond, bound: round(range.p99) });
       } else if (x < range.p01) {
-        reasons.push(
-          `${range.feature} ${x} is below what 99% of people at ${group.feature} ${group.level} ` +
-            `have (from ${round(range.p01)})`,
-        );
+        reasons.push({ kind: "belowLevelRange", ...beyond, bound: round(range.p01) });
       }
     }
   }
-  for (const w of rangeWarnings(model, profile)) reasons.push(`${w.feature} is outside the data`);
+  for (const w of rangeWarnings(model, profile)) {
+    reasons.push({ kind: "outsideData", feature: w.feature });
+  }
   return { rows: leafRows, peers, unusual: reasons.length > 0, reasons };
 }
 

@@ -9,17 +9,13 @@
 import { OptionError } from "../errors.ts";
 import { matchName, nearest, unknownLevel, UnknownNameError } from "../table/column_named.ts";
 import type { FeatureSchema, Model } from "./types.ts";
+import type { OutsideDataNote } from "./answer_notes.ts";
 
 /** A profile: one value per model feature (level codes for level features, NaN for missing). */
 export type Profile = Float64Array;
 
-/** A warning about a profile, for the user. */
-export interface ProfileWarning {
-  /** The feature concerned. */
-  feature: string;
-  /** One sentence. */
-  message: string;
-}
+/** A warning about a profile: a value outside the data's range. */
+export type ProfileWarning = OutsideDataNote;
 
 /**
  * The typical profile: each numeric feature at its median, each level
@@ -356,7 +352,9 @@ export function applyChanges(
  * // years runs 0 to 30 in the training data; 30 is inside, -1 and 31 are not.
  * assert.deepEqual(rangeWarnings(model, Float64Array.of(2, 30, 0)), []);
  * assert.deepEqual(rangeWarnings(model, Float64Array.of(2, 31, 0)).map((w) => w.feature), ["years"]);
- * assert.match(rangeWarnings(model, Float64Array.of(2, -1, 0))[0].message, /years -1 is outside the training data \(0 to 30\)/);
+ * assert.deepEqual(rangeWarnings(model, Float64Array.of(2, -1, 0)), [
+ *   { kind: "valueOutsideData", feature: "years", value: -1, min: 0, max: 30 },
+ * ]);
  * ```
  */
 export function rangeWarnings(model: Model, profile: Profile): ProfileWarning[] {
@@ -366,9 +364,11 @@ export function rangeWarnings(model: Model, profile: Profile): ProfileWarning[] 
     if (f.range === undefined || Number.isNaN(x)) return;
     if (x < f.range.min || x > f.range.max) {
       warnings.push({
+        kind: "valueOutsideData",
         feature: f.name,
-        message: `${f.name} ${x} is outside the training data (${f.range.min} to ` +
-          `${f.range.max}); trees give the same estimate beyond the data's edge as at it`,
+        value: x,
+        min: f.range.min,
+        max: f.range.max,
       });
     }
   });

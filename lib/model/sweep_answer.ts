@@ -14,6 +14,7 @@ import type { ModelRows } from "./model_table.ts";
 import type { Model, Provenance } from "./types.ts";
 import { checkCoverage, type ModelSession, shiftedMoney } from "./model_session.ts";
 import { estimateProfile } from "./estimate_answer.ts";
+import type { AnswerNote } from "./answer_notes.ts";
 
 /** One point of a sweep. */
 export interface SweepAnswerPoint {
@@ -41,8 +42,8 @@ export interface SweepAnswer {
   coverage: number;
   /** The points. */
   points: SweepAnswerPoint[];
-  /** Warnings. */
-  warnings: string[];
+  /** What to bear in mind ({@linkcode AnswerNote}). */
+  warnings: AnswerNote[];
   /** Where it came from. */
   provenance: Provenance;
 }
@@ -126,7 +127,7 @@ export function sweepValues(
  * // A value beyond the data's range is said to take the edge's estimate.
  * const years = model.features.findIndex((x) => x.name === "years_experience");
  * const beyond = sweepAnswer(openModel(model), profile, years, [model.features[years].range!.max + 5]);
- * assert.match(beyond.warnings.join(" "), /years_experience outside .* trees cannot extrapolate/);
+ * assert(beyond.warnings.some((w) => w.kind === "sweepBeyondData" && w.feature === "years_experience"));
  * ```
  */
 export function sweepAnswer(
@@ -159,25 +160,15 @@ export function sweepAnswer(
     return point;
   });
   values[feature] = profile[feature];
-  const notes = [...warnings.map((w) => w.message)];
+  const notes: AnswerNote[] = [...warnings];
   if (f.range !== undefined) {
     const beyond = grid.filter((v) => v < f.range!.min || v > f.range!.max);
     if (beyond.length > 0) {
-      notes.push(
-        `${f.name} outside ${f.range.min} to ${f.range.max} (the data's range) gets the ` +
-          `estimate at the nearest edge: trees cannot extrapolate`,
-      );
+      notes.push({ kind: "sweepBeyondData", feature: f.name, min: f.range.min, max: f.range.max });
     }
   }
-  const unusual = points.filter((p) => p.unusual).map((p) =>
-    typeof p.value === "number" ? String(Number(p.value.toPrecision(4))) : p.value
-  );
-  if (unusual.length > 0) {
-    notes.push(
-      `unusual for the data (few comparable people) at ${f.name} ${unusual.join(", ")}; ` +
-        `treat those estimates with care`,
-    );
-  }
+  const unusual = points.filter((p) => p.unusual).map((p) => p.value);
+  if (unusual.length > 0) notes.push({ kind: "sweepUnusual", feature: f.name, values: unusual });
   return {
     feature: f.name,
     profile: describeProfile(model, profile),

@@ -370,7 +370,7 @@ function decimalMarkWarning(columns: Column[], decimal: DecimalMark): QualityWar
     lines: [],
     message: `${names.map((n) => `"${n}"`).join(", ")} ${
       names.length === 1 ? "reads" : "read"
-    } as numbers only with --decimal "${other}"; without it ${
+    } as numbers only with {decimal} "${other}"; without it ${
       names.length === 1 ? "it is" : "they are"
     } treated as text`,
   };

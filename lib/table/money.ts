@@ -205,7 +205,7 @@ export function settleMoney(
     }
     currency = wanted;
   } else if (ambiguous && currency !== undefined) {
-    notes.push(`the symbol was read as ${currency}; give --currency to say otherwise`);
+    notes.push(`the symbol was read as ${currency}; give {currency} to say otherwise`);
   }
 
   let period: PayPeriod | undefined = periods.size === 1 ? [...periods.keys()][0] : undefined;

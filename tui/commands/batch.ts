@@ -18,9 +18,11 @@ import {
   OptionError,
   type RefusedRow,
   RowsRefusedError,
+  type SupportReason,
   writeFileAtomic,
 } from "../../mod.ts";
 import type { Terminal } from "../terminal.ts";
+import { wordedWarnings } from "../option_words.ts";
 import { readTableForModel } from "../profile_flags.ts";
 import { withReadFlags } from "../table_flags.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
@@ -31,6 +33,7 @@ import { dataWarningLines } from "../data_check.ts";
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
 import { fitTable, leftOutNote } from "../render/fit_table.ts";
 import { moneyStyle } from "../render/model_view.ts";
+import { supportReasonText } from "../render/answer_notes.ts";
 
 /** The columns batch adds, in order. */
 export const BATCH_COLUMNS = [
@@ -220,11 +223,16 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
       if (flags.json) {
         terminal.out(
           jsonText({
-            rows: scored.map((r, i) => ({ input: inputRow(rows.raw, i), ...r })),
+            rows: scored.map(({ reasons, ...r }, i) => ({
+              input: inputRow(rows.raw, i),
+              ...r,
+              warnings: reasonsText(reasons),
+              warningCodes: reasons,
+            })),
             ...counts,
             refusedRows: refused,
             summary,
-            dataWarnings,
+            dataWarnings: wordedWarnings(dataWarnings),
             provenance: model.provenance,
           }),
         );
@@ -308,6 +316,11 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
     });
 }
 
+// Why a row is unusual for the data, as the warnings column says it.
+function reasonsText(reasons: readonly SupportReason[]): string {
+  return reasons.map(supportReasonText).join("; ");
+}
+
 // A table with levels the model never saw in some rows: the other rows are
 // scored (all refused is the whole table refused, as before).
 function scoreTheOthers(error: unknown): ModelRows {
@@ -342,9 +355,9 @@ export interface BatchSummary {
  * import assert from "node:assert/strict";
  * import { summarize } from "./batch.ts";
  * const rows = [
- *   { estimateSource: "ensemble", offerPosition: "under", warnings: "" },
- *   { estimateSource: "ensemble", offerPosition: "within", warnings: "level G7 and ..." },
- *   { estimateSource: "not-scored", offerPosition: null, warnings: "" },
+ *   { estimateSource: "ensemble", offerPosition: "under", reasons: [] },
+ *   { estimateSource: "ensemble", offerPosition: "within", reasons: [{ kind: "outsideData", feature: "years" }] },
+ *   { estimateSource: "not-scored", offerPosition: null, reasons: [] },
  * ];
  * assert.deepEqual(summarize(rows as never), {
  *   scored: 2, under: 1, within: 1, over: 0, noOffer: 0, unusual: 1,
@@ -360,7 +373,7 @@ export function summarize(scored: readonly BatchRow[]): BatchSummary {
     else if (row.offerPosition === "within") out.within++;
     else if (row.offerPosition === "over") out.over++;
     else out.noOffer++;
-    if (row.warnings !== "") out.unusual++;
+    if (row.reasons.length > 0) out.unusual++;
   }
   return out;
 }
@@ -405,7 +418,7 @@ function readableRows(
       pay(row.estimate),
       row.rangeLow === null ? "" : `${pay(row.rangeLow)} - ${pay(row.rangeHigh)}`,
       ...(withOffer ? [offer] : []),
-      row.warnings !== "" ? "! unusual" : "",
+      row.reasons.length > 0 ? "! unusual" : "",
     ];
   });
   const head = ["id", "estimate", "range", ...(withOffer ? ["offer (range position)"] : []), ""];
@@ -456,7 +469,7 @@ function toCsv(
           share(row.shareBelow),
         ]
         : []),
-      row.refused !== null ? `not scored: ${row.refused}` : row.warnings,
+      row.refused !== null ? `not scored: ${row.refused}` : reasonsText(row.reasons),
       fingerprint,
     ];
     lines.push(cells.map(csvCell).join(","));

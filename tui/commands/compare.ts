@@ -11,6 +11,7 @@ import { openModelFile } from "../open_model.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderCompare } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { wordedNotes } from "../render/answer_notes.ts";
 import { forTerminal } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
@@ -46,16 +47,22 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
         ...warnings,
         ...changed.warnings,
       ]);
+      const money = moneyStyle(model, { locale: flags.locale });
+      const json = {
+        ...answer,
+        base: wordedNotes(answer.base, money),
+        changed: wordedNotes(answer.changed, money),
+      };
       printAnswer(
         terminal,
         flags.json === true,
         model.provenance,
-        answer,
+        json,
         () =>
           renderCompare(forTerminal(answer), {
             style: terminal.style,
             width: terminal.width,
-            money: moneyStyle(model, { locale: flags.locale }),
+            money,
           }),
       );
     });

@@ -15,7 +15,7 @@ import {
   parseOffer,
 } from "../../mod.ts";
 import { openModelFile } from "../open_model.ts";
-import { formatPay } from "../render/numbers.ts";
+import { wordedNotes } from "../render/answer_notes.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderEstimate } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
@@ -50,23 +50,17 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
     if (offer !== null) answer.offer = checkOffer(session, profile, answer, offer);
     const oob = outOfBagEstimate(session, id, profile);
     if (oob !== null) {
-      answer.warnings.unshift(
-        `${id} is one of the people the model learned from, so this estimate includes their own ` +
-          `pay; leaving them out (the out-of-bag estimate, as batch gives it) it is ` +
-          formatPay(oob, moneyStyle(model, { locale: flags.locale })),
-      );
+      answer.warnings.unshift({ kind: "ownPayIncluded", id, outOfBag: oob });
     } else if (id !== "" && rows !== null && isTrainingTable(model, rows)) {
-      answer.warnings.unshift(
-        `${id} is in the table the model was fitted on (the same file), so this estimate ` +
-          `includes their own pay; with the analyst's file (--analyst-file) paygrove gives the ` +
-          `estimate of the trees that never saw them`,
-      );
+      answer.warnings.unshift({ kind: "inTrainingTable", id });
     }
-    printAnswer(terminal, flags.json === true, model.provenance, { start, ...answer }, () => [
+    const money = moneyStyle(model, { locale: flags.locale });
+    const json = { start, ...wordedNotes(answer, money) };
+    printAnswer(terminal, flags.json === true, model.provenance, json, () => [
       ...renderEstimate(forTerminal(answer), {
         style: terminal.style,
         width: terminal.width,
-        money: moneyStyle(model, { locale: flags.locale }),
+        money,
       }),
       ...wrapAnsi(terminal.style.dim(`Started from ${terminalText(start)}.`), terminal.width)
         .split("\n"),

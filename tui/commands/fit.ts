@@ -21,6 +21,7 @@ import { progressBar } from "../progress.ts";
 import { renderModelSummary } from "../render/model_view.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
+import { wordedWarnings } from "../option_words.ts";
 import { collectWhere, MAX_TREES, seedOption, wholeNumber } from "../option_values.ts";
 import { cappedWorkers } from "../workers.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
@@ -242,7 +243,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       const extra = {
         folds,
         leftOutImplausible: leftOutJson(leftOut),
-        dataWarnings: table.warnings,
+        dataWarnings: wordedWarnings(table.warnings),
       };
       if (flags.json) {
         terminal.out(

@@ -20,6 +20,7 @@ import { gapMarkdown, renderGap } from "../render/gap_view.ts";
 import { printTableAnswer } from "../render/cautions.ts";
 import { gapJson } from "../render/report_notes.ts";
 import type { Terminal } from "../terminal.ts";
+import { wordedWarnings } from "../option_words.ts";
 import { cappedWorkers } from "../workers.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
@@ -164,7 +165,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
       const doc = {
         ...gapJson(report),
         leftOutImplausible: leftOutJson(leftOut),
-        dataWarnings: table.warnings,
+        dataWarnings: wordedWarnings(table.warnings),
       };
       printTableAnswer(
         terminal,

@@ -20,6 +20,7 @@ import { progressBar } from "../progress.ts";
 import { printTableAnswer } from "../render/cautions.ts";
 import { reviewJson } from "../render/report_notes.ts";
 import type { Terminal } from "../terminal.ts";
+import { wordedWarnings } from "../option_words.ts";
 import { cappedWorkers } from "../workers.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { columnList, list, loadOptions, readTable, withTableFlags } from "../table_flags.ts";
@@ -138,7 +139,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       const doc = {
         ...reviewJson(review),
         leftOutImplausible: leftOutJson(leftOut),
-        dataWarnings: table.warnings,
+        dataWarnings: wordedWarnings(table.warnings),
       };
       printTableAnswer(
         terminal,

@@ -11,6 +11,7 @@ import { renderSchema } from "../render/schema_view.ts";
 import type { Terminal } from "../terminal.ts";
 import { loadOptions, withTableFlags } from "../table_flags.ts";
 import { withWordedNotes } from "../data_check.ts";
+import { wordedSchema } from "../option_words.ts";
 
 /**
  * Builds the `schema` command.
@@ -29,7 +30,7 @@ export function schemaCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
       const table = await loadTableFile(file, loadOptions(flags, file));
-      const summary = describeSchema(table);
+      const summary = wordedSchema(describeSchema(table));
       if (flags.json) {
         terminal.out(jsonText({ file, ...summary }));
         return;

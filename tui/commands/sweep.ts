@@ -14,6 +14,7 @@ import { findFeature, openModel, OptionError, sweepAnswer, sweepValues } from ".
 import { profileFromFlags, readTableForModel, withProfileFlags } from "../profile_flags.ts";
 import { renderSweep } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { wordedNotes } from "../render/answer_notes.ts";
 import { forTerminal } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
@@ -82,16 +83,17 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
         flags.average ? rows ?? await readTableForModel(model, flags.table!, [], flags) : null,
         warnings,
       );
+      const money = moneyStyle(model, { locale: flags.locale });
       printAnswer(
         terminal,
         flags.json === true,
         model.provenance,
-        answer,
+        wordedNotes(answer, money),
         () =>
           renderSweep(forTerminal(answer), {
             style: terminal.style,
             width: terminal.width,
-            money: moneyStyle(model, { locale: flags.locale }),
+            money,
           }),
       );
     });

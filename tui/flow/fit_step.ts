@@ -6,7 +6,7 @@
  * @module
  */
 
-import { errorWords } from "../option_words.ts";
+import { errorWords, wordedSchema } from "../option_words.ts";
 import { REBUILDS_PAY_WARNING } from "../open_model.ts";
 import { existsSync } from "node:fs";
 import {
@@ -102,7 +102,7 @@ export async function chooseAndFit(
     }
 
     io.say(
-      renderSchemaBrief(forTerminal(describeSchema(table)), {
+      renderSchemaBrief(forTerminal(wordedSchema(describeSchema(table))), {
         file: terminalText(label),
         style,
         width: io.width,

@@ -13,6 +13,7 @@ import { barChart, histogram, intervalChart } from "./charts.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { chartSymbols } from "./glyphs.ts";
+import { answerNoteText } from "./answer_notes.ts";
 import { fitTable } from "./fit_table.ts";
 
 /** What the views need. */
@@ -150,7 +151,7 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
   }
   lines.push(...wrap(style.dim(`for: ${profileText(answer.profile)}`), "  "));
   // Warnings come before the figures they qualify.
-  for (const w of answer.warnings) lines.push(...wrap(style.warn(`! ${w}`)));
+  for (const w of answer.warnings) lines.push(...wrap(style.warn(`! ${answerNoteText(w, money)}`)));
   if (answer.confidence && answer.range) {
     const c = answer.confidence;
     const r = answer.range;
@@ -472,7 +473,13 @@ function compareLines(
           `"${p.changed ?? "(the leaf)"}".`,
     ),
   );
-  const warnings = [...new Set([...answer.base.warnings, ...answer.changed.warnings])];
+  const warnings = [
+    ...new Set(
+      [...answer.base.warnings, ...answer.changed.warnings].map((w) =>
+        answerNoteText(w, options.money)
+      ),
+    ),
+  ];
   for (const w of warnings) lines.push(...wrap(style.warn(`! ${w}`)));
   // Under the flow's menu, blank lines cost the screen room.
   return options.compact ? lines.filter((l) => l !== "") : lines;
@@ -593,7 +600,7 @@ export function renderSweep(
     ascii: style.ascii,
   });
   const warnings = answer.warnings.flatMap((w) =>
-    wrapAnsi(style.warn(`! ${w}`), options.width).split("\n")
+    wrapAnsi(style.warn(`! ${answerNoteText(w, money)}`), options.width).split("\n")
   );
   return options.chartLines === undefined
     ? [...lines, "", ...table.lines, ...warnings]
@@ -707,7 +714,9 @@ export function fitResult(
       `${period} (${what})`,
   );
   let profile = wrap(style.dim(`for ${profileText(answer.profile)}`), "  ");
-  const warnings = answer.warnings.flatMap((w) => wrap(style.warn(`! ${w}`)));
+  const warnings = answer.warnings.flatMap((w) =>
+    wrap(style.warn(`! ${answerNoteText(w, money)}`))
+  );
   const intervals: string[] = [];
   if (answer.confidence && answer.range) {
     const c = answer.confidence;

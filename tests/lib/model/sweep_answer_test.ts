@@ -47,7 +47,7 @@ Deno.test("each point is the profile's estimate with the attribute set", () => {
   assert.deepEqual(answer.profile, { level: "G2", years: 8, site: "North" });
   // One note: unusual at 15.
   assert.equal(answer.warnings.length, 1);
-  assert.match(answer.warnings[0], /\b15\b/);
+  assert.deepEqual(answer.warnings[0], { kind: "sweepUnusual", feature: "years", values: [15] });
   // A level sweep names the levels.
   const levels = sweepAnswer(session, Float64Array.of(1, 5, 0), 0, [0, 1, 2]);
   assert.deepEqual(levels.points.map((p) => p.value), ["G1", "G2", "G3"]);
@@ -55,7 +55,12 @@ Deno.test("each point is the profile's estimate with the attribute set", () => {
 
 Deno.test("values beyond the data's range get a note", () => {
   const answer = sweepAnswer(openModel(handModel()), Float64Array.of(2, 8, 0), 1, [10, 25]);
-  assert(answer.warnings.some((w) => w.includes("0 to 20")));
+  assert.deepEqual(answer.warnings.find((w) => w.kind === "sweepBeyondData"), {
+    kind: "sweepBeyondData",
+    feature: "years",
+    min: 0,
+    max: 20,
+  });
   assert.deepEqual(answer.points.map((p) => p.unusual), [false, true]);
 });
 

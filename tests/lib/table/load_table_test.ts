@@ -351,7 +351,7 @@ Deno.test("a decimal-comma file read without --decimal gets a warning, not a gue
   const found = table.warnings.find((w) => w.kind === "decimal-mark");
   assert.equal(
     found?.message,
-    '"years", "salary" read as numbers only with --decimal ","; without it they are treated as text',
+    '"years", "salary" read as numbers only with {decimal} ","; without it they are treated as text',
   );
   const declared = loadTable(csv, { decimal: "," });
   assert.equal(declared.warnings.find((w) => w.kind === "decimal-mark"), undefined);
@@ -440,7 +440,7 @@ Deno.test("a decimal-comma pay column with stray text still gets the decimal hin
   const found = loadTable(csv).warnings.find((w) => w.kind === "decimal-mark");
   assert.equal(
     found?.message,
-    '"base_salary" reads as numbers only with --decimal ","; without it it is treated as text',
+    '"base_salary" reads as numbers only with {decimal} ","; without it it is treated as text',
   );
   // A column of words that happen to contain one number is no such column.
   const words = loadTable("site;team\nA;red\nB;blue\nC;1,5\n");

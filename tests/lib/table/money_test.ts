@@ -106,7 +106,7 @@ Deno.test("--currency must agree with a stated code, settles an ambiguous symbol
   );
   assert.deepEqual(settleMoney(Float64Array.of(1), dollar, lines, opts), {
     unit: { currency: "USD" },
-    notes: ["the symbol was read as USD; give --currency to say otherwise"],
+    notes: ["the symbol was read as USD; give {currency} to say otherwise"],
   });
   // A currency given for plain numbers is the unit.
   assert.deepEqual(
