@@ -9,6 +9,8 @@
 import type { CompareAnswer, EstimateAnswer, Model } from "../../mod.ts";
 import { formatPay, formatPercent } from "../render/numbers.ts";
 import { forMarkdown } from "../render/safe_text.ts";
+import { wordedNotes } from "../render/answer_notes.ts";
+import { moneyStyle } from "../render/model_view.ts";
 
 /** A profile kept by name, with what the model said about it. */
 export interface Scenario {
@@ -99,7 +101,10 @@ export function reportJson(
   return {
     target: model.target,
     caution: CAUTION,
-    scenarios: scenarios.map((s) => ({ name: s.name, ...s.answer })),
+    scenarios: scenarios.map((s) => ({
+      name: s.name,
+      ...wordedNotes(s.answer, moneyStyle(model, {})),
+    })),
     whatIfs: whatIfs.map((w) => ({
       changes: w.changes,
       base: w.base.estimate,
