@@ -38,13 +38,18 @@ function docAbove(lines: string[], line: number): string | undefined {
   return lines.slice(start, end + 1).join("\n");
 }
 
-/** The fenced code blocks of each `@example` in a JSDoc block. */
+/**
+ * The fenced code blocks of each `@example` in a JSDoc block, but those
+ * marked `ignore` (`deno test --doc` does not run them).
+ */
 function exampleCode(doc: string): string[] {
   const body = doc.split("\n").map((l) => l.replace(/^\s*\/?\*+\/?\s?/, "")).join("\n");
   const codes: string[] = [];
   for (const part of body.split(/^@example\b/m).slice(1)) {
     const example = part.split(/^@\w+/m)[0];
-    for (const m of example.matchAll(/^```[^\n]*\n([\s\S]*?)^```/gm)) codes.push(m[1]);
+    for (const m of example.matchAll(/^```([^\n]*)\n([\s\S]*?)^```/gm)) {
+      if (!/\bignore\b/.test(m[1])) codes.push(m[2]);
+    }
   }
   return codes;
 }
@@ -105,12 +110,22 @@ Deno.test("the reader finds examples that assert and only those", () => {
     "export interface I {}",
     'export { a as e } from "./a.ts";',
     "export const f = 3;",
+    "/**",
+    " * An example that is never run.",
+    " *",
+    " * @example",
+    " * ```ts ignore",
+    " * assert(g() === 1);",
+    " * ```",
+    " */",
+    "export const g = () => 1;",
   ].join("\n");
   assert.deepEqual(exportsWithoutAssertingExample("x.ts", text), [
     "x.ts:15:b",
     "x.ts:25:C",
     "x.ts:34:d",
     "x.ts:40:f",
+    "x.ts:49:g",
   ]);
 });
 
