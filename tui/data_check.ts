@@ -52,6 +52,17 @@ export function identifierLikeNote(
 /**
  * A schema summary with the identifier-like note added to such columns'
  * notes, for the text view (the JSON keeps the figures as data).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { describeSchema, loadTable } from "../mod.ts";
+ * import { identifierLikeNote, withWordedNotes } from "./data_check.ts";
+ * const rows = Array.from({ length: 100 }, (_, i) => `note ${i % 60} x,${50000 + i}`);
+ * const table = loadTable(`comment,pay\n${rows.join("\n")}\n`, { target: "pay" });
+ * const comment = withWordedNotes(describeSchema(table)).columns[0];
+ * assert.equal(comment.notes.at(-1), identifierLikeNote("comment", { levels: 60, rows: 100 }));
+ * ```
  */
 export function withWordedNotes(summary: SchemaSummary): SchemaSummary {
   return {
@@ -148,6 +159,19 @@ export interface PayCheck {
 /**
  * Checks pay columns as fit, gap and review do: implausible pay stops the
  * command with its lines, unless `--drop-implausible` leaves those rows out.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { DataError, loadTable } from "../mod.ts";
+ * import { screenPayFlags } from "./data_check.ts";
+ * const table = loadTable("pay\n50000\n9e12\n61000\n58000\n", { target: "pay" });
+ * const { table: kept, leftOut } = screenPayFlags(table, [{ column: "pay" }], true);
+ * assert.equal(kept.rows, 3);
+ * assert.deepEqual([leftOut[0].count, leftOut[0].lines], [1, [3]]);
+ * assert.throws(() => screenPayFlags(table, [{ column: "pay" }], false), (e: unknown) =>
+ *   e instanceof DataError && /pass --drop-implausible to leave such rows out/.test(e.message));
+ * ```
  */
 export function screenPayFlags(
   table: Table,
@@ -209,7 +233,20 @@ export function leftOutSentence(
     `(line${many ? "s" : ""} ${lines}).`;
 }
 
-/** The rows left out, for --json: per column, the count and the first lines (no values). */
+/**
+ * The rows left out, for --json: per column, the count and the first lines (no values).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { leftOutJson } from "./data_check.ts";
+ * const leftOut = {
+ *   kind: "implausible-pay" as const, column: "pay", ratio: true, median: 58000, count: 1,
+ *   rows: [1], lines: [3], values: [9e12],
+ * };
+ * assert.deepEqual(leftOutJson([leftOut]), [{ column: "pay", count: 1, lines: [3] }]);
+ * ```
+ */
 export function leftOutJson(
   leftOut: readonly ImplausiblePay[],
 ): { column: string; count: number; lines: number[] }[] {
@@ -219,6 +256,20 @@ export function leftOutJson(
 /**
  * The brief block every table-reading command prints before its result:
  * rows left out by --drop-implausible, then the data-quality warnings.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../mod.ts";
+ * import { dataCheckLines, screenPayFlags } from "./data_check.ts";
+ * import { makeStyle } from "./render/style.ts";
+ * const read = loadTable("pay\n50000\n9e12\n61000\n58000\n", { target: "pay" });
+ * const { table, leftOut } = screenPayFlags(read, [{ column: "pay" }], true);
+ * const lines = dataCheckLines(table, leftOut, "t.csv", { style: makeStyle(false), width: 200 });
+ * assert.match(lines[0], /^1 row left out \(--drop-implausible\): its "pay" is more than 10,000/);
+ * assert.equal(lines.at(-1), "");
+ * assert.deepEqual(dataCheckLines(table, [], "t.csv", { style: makeStyle(false), width: 80 }), []);
+ * ```
  */
 export function dataCheckLines(
   table: Table,

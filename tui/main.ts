@@ -32,13 +32,39 @@ import { reviewCommand } from "./commands/review.ts";
 import { clipLongRuns, terminalGuard } from "./render/safe_text.ts";
 import { listenForStop } from "./stop_signals.ts";
 
-/** Exit statuses of the `paygrove` command. */
+/**
+ * Exit statuses of the `paygrove` command.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { recordingTerminal } from "./terminal.ts";
+ * import { EXIT, run } from "./main.ts";
+ * const terminal = recordingTerminal();
+ * assert.equal(await run(["schema", "--no-such-option"], terminal), EXIT.usage);
+ * const missing = `${Deno.makeTempDirSync()}/none.csv`;
+ * assert.equal(await run(["schema", missing], terminal), EXIT.data);
+ * assert.equal(await run(["--version"], terminal), EXIT.ok);
+ * ```
+ */
 export const EXIT = { ok: 0, data: 1, usage: 2, rowsRefused: 3, internal: 70 } as const;
 
 /**
  * Builds the program with all its subcommands.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { recordingTerminal } from "./terminal.ts";
+ * import { buildProgram } from "./main.ts";
+ * const program = buildProgram(recordingTerminal());
+ * assert.deepEqual(program.commands.map((c) => c.name()), [
+ *   "schema", "fit", "estimate", "compare", "sweep", "batch", "inspect", "gap", "review",
+ *   "demo-data",
+ * ]);
+ * ```
  */
 export function buildProgram(terminal: Terminal): Command {
   const program = new Command("paygrove")
@@ -94,6 +120,21 @@ function configure(command: Command, terminal: Terminal): void {
  *
  * @param args Arguments after the program name.
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { VERSION } from "../mod.ts";
+ * import { recordingTerminal } from "./terminal.ts";
+ * import { run } from "./main.ts";
+ * const terminal = recordingTerminal();
+ * assert.equal(await run(["--version"], terminal), 0);
+ * assert.equal(terminal.stdout.join(""), `${VERSION}\n`);
+ * // An error is a message on standard error, never a throw.
+ * const missing = `${Deno.makeTempDirSync()}/none.csv`;
+ * assert.equal(await run(["schema", missing], terminal), 1);
+ * assert.match(terminal.stderr.join(""), /^paygrove: .*none\.csv/);
+ * ```
  */
 export async function run(args: string[], terminal: Terminal): Promise<number> {
   const program = buildProgram(terminal);

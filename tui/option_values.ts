@@ -10,11 +10,48 @@
 
 import { InvalidArgumentError } from "@commander-js/extra-typings";
 
-/** The most trees paygrove fits in one ensemble (200 is the default). */
+/**
+ * The most trees paygrove fits in one ensemble (200 is the default).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { recordingTerminal } from "./terminal.ts";
+ * import { run } from "./main.ts";
+ * import { MAX_TREES } from "./option_values.ts";
+ * const terminal = recordingTerminal();
+ * const args = ["fit", "pay.csv", "--target", "pay", "--out", "m.json"];
+ * assert.equal(await run([...args, "--trees", String(MAX_TREES + 1)], terminal), 2);
+ * assert.match(terminal.stderr.join(""), /expected a whole number from 0 to 10,000, got "10001"/);
+ * ```
+ */
 export const MAX_TREES = 10_000;
-/** The most people `demo-data` invents. */
+/**
+ * The most people `demo-data` invents.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { recordingTerminal } from "./terminal.ts";
+ * import { run } from "./main.ts";
+ * import { MAX_DEMO_ROWS } from "./option_values.ts";
+ * const terminal = recordingTerminal();
+ * assert.equal(await run(["demo-data", "--rows", String(MAX_DEMO_ROWS + 1)], terminal), 2);
+ * assert.match(terminal.stderr.join(""), /from 1 to 10,000,000/);
+ * ```
+ */
 export const MAX_DEMO_ROWS = 10_000_000;
-/** The largest seed: the generators take 32-bit seeds, so a larger one would alias a smaller. */
+/**
+ * The largest seed: the generators take 32-bit seeds, so a larger one would alias a smaller.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { MAX_SEED, seedOption } from "./option_values.ts";
+ * assert.equal(seedOption(String(MAX_SEED)), 2147483647);
+ * assert.throws(() => seedOption(String(MAX_SEED + 1)), /from 0 to 2,147,483,647/);
+ * ```
+ */
 export const MAX_SEED = 2 ** 31 - 1;
 
 const DIGITS = /^[0-9]+$/;

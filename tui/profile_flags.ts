@@ -44,7 +44,22 @@ function collect(text: string, previous: string[] = []): string[] {
   return [...previous, text];
 }
 
-/** Adds the profile options to a command. */
+/**
+ * Adds the profile options to a command.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { Command } from "@commander-js/extra-typings";
+ * import { withProfileFlags } from "./profile_flags.ts";
+ * const command = withProfileFlags(new Command("estimate"));
+ * command.parse(["--set", "level=G3", "--set", "site=Eastgate", "--coverage", "80%"], {
+ *   from: "user",
+ * });
+ * assert.deepEqual(command.opts().set, ["level=G3", "site=Eastgate"]);
+ * assert.equal(command.opts().coverage, 0.8);
+ * ```
+ */
 export function withProfileFlags<A extends unknown[], O extends Record<string, unknown>>(
   command: Command<A, O>,
 ): Command<A, O & ProfileFlags> {
@@ -66,6 +81,22 @@ export function withProfileFlags<A extends unknown[], O extends Record<string, u
 /**
  * Reads a table for a model from a path (piece by piece, up to a stated
  * size), as the model's own table was read except where `flags` say otherwise.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../mod.ts";
+ * import { readTableForModel } from "./profile_flags.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const path = `${Deno.makeTempDirSync()}/people.csv`;
+ * Deno.writeTextFileSync(path, demoCompanyCsv({ rows: 4, seed: 9 }));
+ * const rows = await readTableForModel(model, path);
+ * assert.equal(rows.rows, 4);
+ * assert.deepEqual(rows.ids, ["FH10001", "FH10002", "FH10003", "FH10004"]);
+ * Deno.removeSync(path);
+ * ```
  */
 export function readTableForModel(
   model: Model,
@@ -79,6 +110,27 @@ export function readTableForModel(
 /**
  * The profile the options describe: a row of `--table` or the typical
  * person, with `--set` applied.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, describeProfile, fitModel, loadTable } from "../mod.ts";
+ * import { recordingTerminal } from "./terminal.ts";
+ * import { profileFromFlags } from "./profile_flags.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const terminal = recordingTerminal();
+ * const { profile, start } = await profileFromFlags(
+ *   model,
+ *   { set: ["LEVEL=G6"], coverage: 0.9 },
+ *   terminal,
+ * );
+ * assert.equal(describeProfile(model, profile).level, "G6");
+ * assert.match(start, /^the typical person/);
+ * // A name right but for its case is taken, with a note.
+ * assert.match(terminal.stderr.join(""), /note: .*LEVEL/);
+ * ```
  */
 export async function profileFromFlags(
   model: Model,

@@ -10,14 +10,42 @@
 
 import { removePendingFiles } from "../mod.ts";
 
-/** The stop signals, with their numbers and how a person knows them. */
+/**
+ * The stop signals, with their numbers and how a person knows them.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { constants } from "node:os";
+ * import { STOP_SIGNALS } from "./stop_signals.ts";
+ * // The numbers as the platform knows them (Node's os.constants.signals), so
+ * // the exit statuses are 130, 143 and 129 as shells report them.
+ * for (const { signal, number } of STOP_SIGNALS) assert.equal(constants.signals[signal], number);
+ * assert.deepEqual(STOP_SIGNALS.map((s) => 128 + s.number), [130, 143, 129]);
+ * ```
+ */
 export const STOP_SIGNALS = [
   { signal: "SIGINT", number: 2, name: "Ctrl-C" },
   { signal: "SIGTERM", number: 15, name: "SIGTERM" },
   { signal: "SIGHUP", number: 1, name: "SIGHUP" },
 ] as const;
 
-/** How long stopping to listen waits for a signal already sent (milliseconds). */
+/**
+ * How long stopping to listen waits for a signal already sent (milliseconds).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { listenForStop, SIGNAL_WAIT_MS } from "./stop_signals.ts";
+ * // Stopping to listen waits a turn of the timers: a timer due sooner fires first.
+ * const order: string[] = [];
+ * const stop = listenForStop(() => {});
+ * setTimeout(() => order.push("sooner"), SIGNAL_WAIT_MS / 5);
+ * await stop();
+ * order.push("stopped");
+ * assert.deepEqual(order, ["sooner", "stopped"]);
+ * ```
+ */
 export const SIGNAL_WAIT_MS = 25;
 
 /**

@@ -40,7 +40,17 @@ function pair(text: string): [string, string] {
   return [text.slice(0, at).trim(), text.slice(at + 1).trim()];
 }
 
-/** Splits a comma-separated list, trimming items and dropping empty ones. */
+/**
+ * Splits a comma-separated list, trimming items and dropping empty ones.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { list } from "./table_flags.ts";
+ * assert.deepEqual(list(" job_family, level,,"), ["job_family", "level"]);
+ * assert.deepEqual(list(""), []);
+ * ```
+ */
 export function list(text: string): string[] {
   return text.split(",").map((s) => s.trim()).filter((s) => s !== "");
 }
@@ -306,6 +316,24 @@ export function loadOptions(flags: TableFlags, file: string): LoadTableOptions {
  * Reads a table file with the reading shown on the progress bar (in MB,
  * with the time left), the bar cleared afterwards so a message or the next
  * stage starts on a clean line.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readTable } from "./table_flags.ts";
+ * const path = `${Deno.makeTempDirSync()}/pay.csv`;
+ * Deno.writeTextFileSync(path, "level,pay\nL1,50000\nL2,61000\nL1,52000\n");
+ * const seen: string[] = [];
+ * let finished = 0;
+ * const table = await readTable(path, { target: "pay" }, {
+ *   update: (stage) => seen.push(stage),
+ *   finish: () => finished++,
+ * });
+ * assert.equal(table.rows, 3);
+ * assert(seen.length > 0 && seen.every((stage) => stage === "reading"));
+ * assert(finished >= 1); // the bar is cleared after reading
+ * Deno.removeSync(path);
+ * ```
  */
 export async function readTable(
   file: string,

@@ -46,9 +46,16 @@ const DEFAULT_WIDTH = 100;
  * The process's own terminal.
  *
  * @example
- * ```ts ignore
+ * ```ts
+ * import assert from "node:assert/strict";
  * import { processTerminal } from "./terminal.ts";
- * processTerminal().out("hello");
+ * const terminal = processTerminal();
+ * assert.equal(terminal.outIsTerminal, Deno.stdout.isTerminal());
+ * assert.equal(terminal.style.enabled, Deno.stdout.isTerminal() && !Deno.noColor);
+ * // Progress is redrawn in place only where standard error is a terminal.
+ * assert.equal(terminal.progress !== undefined, Deno.stderr.isTerminal());
+ * // Not a terminal (a pipe or a file): 100 columns.
+ * if (!Deno.stdout.isTerminal()) assert.equal(terminal.width, 100);
  * ```
  */
 export function processTerminal(): Terminal {

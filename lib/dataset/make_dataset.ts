@@ -42,6 +42,22 @@ export interface MakeDatasetOptions {
  * features and refused when named (grouping its levels is the user's
  * call: which ones belong together is not in the data). Ordinal and numeric
  * features split by threshold and need no bound.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { makeDataset, MAX_SPLIT_LEVELS } from "./make_dataset.ts";
+ * // A team column of one level more than the bound (each team twice, so not identifier-like).
+ * const teams = MAX_SPLIT_LEVELS + 1;
+ * const rows = Array.from({ length: 2 * teams }, (_, i) => `team ${i % teams} x,${50000 + i}`);
+ * const table = loadTable(`team,pay\n${rows.join("\n")}\n`, { target: "pay" });
+ * const { dropped } = makeDataset(table, { target: "pay" });
+ * assert.deepEqual(dropped[0], {
+ *   name: "team", reason: "too many levels",
+ *   detail: { kind: "too-many-levels", levels: 1001, limit: 1000 },
+ * });
+ * ```
  */
 export const MAX_SPLIT_LEVELS = 1000;
 
@@ -50,6 +66,25 @@ export const MAX_SPLIT_LEVELS = 1000;
  * a share for each class, and the split search a count per class and bin:
  * with 2,000 classes a default fit of 10,000 rows ran 100 s into 8 GB. A
  * hundred covers levels, grades, job families and departments.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { OptionError } from "../errors.ts";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { makeDataset, MAX_CLASSES } from "./make_dataset.ts";
+ * const table = (classes: number) => {
+ *   const rows = Array.from({ length: 3 * classes }, (_, i) => `${i % 7},grade ${i % classes} x`);
+ *   return loadTable(`years,grade\n${rows.join("\n")}\n`);
+ * };
+ * const { dataset } = makeDataset(table(MAX_CLASSES), { target: "grade" });
+ * assert.equal(dataset.target.kind, "classification");
+ * assert.throws(
+ *   () => makeDataset(table(MAX_CLASSES + 1), { target: "grade" }),
+ *   (e: unknown) =>
+ *     e instanceof OptionError && /101 classes; a class target has at most 100/.test(e.message),
+ * );
+ * ```
  */
 export const MAX_CLASSES = 100;
 
@@ -57,6 +92,23 @@ export const MAX_CLASSES = 100;
  * The largest size of a number an attribute may hold: beyond it sums of
  * squares overflow (a value of 1.7e308 made every straight-line prediction
  * undefined), and no count, rating, year or score of people comes near it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { DataError } from "../errors.ts";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { ATTRIBUTE_CEILING, makeDataset } from "./make_dataset.ts";
+ * const table = (score: number) =>
+ *   loadTable(`score,pay\n1,50000\n${score},61000\n2,52000\n`, { target: "pay" });
+ * const { dataset } = makeDataset(table(ATTRIBUTE_CEILING), { target: "pay" });
+ * assert.equal(dataset.features.length, 1);
+ * assert.throws(
+ *   () => makeDataset(table(2 * ATTRIBUTE_CEILING), { target: "pay" }),
+ *   (e: unknown) =>
+ *     e instanceof DataError && /"score" has 2000000000000000 on line 3: .*10\^15/.test(e.message),
+ * );
+ * ```
  */
 export const ATTRIBUTE_CEILING = 1e15;
 
@@ -64,6 +116,19 @@ export const ATTRIBUTE_CEILING = 1e15;
  * The smallest size of a number other than 0 an attribute may hold:
  * below it a number loses its precision (a subnormal such as 5e-324), and
  * dividing by a spread made of such numbers is undefined.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { ATTRIBUTE_FLOOR, makeDataset } from "./make_dataset.ts";
+ * const table = (score: number) =>
+ *   loadTable(`score,pay\n1,50000\n${score},61000\n2,52000\n`, { target: "pay" });
+ * // 0 and the floor itself are numbers; below the floor (a subnormal) is not.
+ * assert.equal(makeDataset(table(0), { target: "pay" }).dataset.features.length, 1);
+ * assert.equal(makeDataset(table(ATTRIBUTE_FLOOR), { target: "pay" }).dataset.features.length, 1);
+ * assert.throws(() => makeDataset(table(5e-324), { target: "pay" }), /this close to 0 but not 0/);
+ * ```
  */
 export const ATTRIBUTE_FLOOR = 1e-300;
 
@@ -113,9 +178,54 @@ export function isPayColumn(column: Column): boolean {
   return column.type === "numeric" && (column.money !== undefined || isPayName(column.name));
 }
 
-/** A numeric column correlated with a numeric target at least this much is pay under another name. */
+/**
+ * A numeric column correlated with a numeric target at least this much is pay under another name.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { COPY_CORRELATION, copiesTarget } from "./make_dataset.ts";
+ * const pearson = (x: ArrayLike<number>, y: ArrayLike<number>) => {
+ *   const n = x.length;
+ *   const mx = Array.from(x).reduce((s, v) => s + v, 0) / n;
+ *   const my = Array.from(y).reduce((s, v) => s + v, 0) / n;
+ *   let sxy = 0, sxx = 0, syy = 0;
+ *   for (let i = 0; i < n; i++) {
+ *     sxy += (x[i] - mx) * (y[i] - my);
+ *     sxx += (x[i] - mx) ** 2;
+ *     syy += (y[i] - my) ** 2;
+ *   }
+ *   return sxy / Math.sqrt(sxx * syy);
+ * };
+ * const csv = "near,loose,pay\n40100,41000,40000\n52300,50000,52000\n60800,64000,61000\n" +
+ *   "45200,43000,45000\n";
+ * const [near, loose, pay] = loadTable(csv).columns;
+ * const values = (c: typeof pay) => (c as { values: Float64Array }).values;
+ * assert(pearson(values(near), values(pay)) >= COPY_CORRELATION);
+ * assert.equal(copiesTarget(near, pay), true);
+ * assert(pearson(values(loose), values(pay)) < COPY_CORRELATION);
+ * assert.equal(copiesTarget(loose, pay), false);
+ * ```
+ */
 export const COPY_CORRELATION = 0.99;
-/** ...and whose typical value is within this factor of pay's (either way). */
+/**
+ * ...and whose typical value is within this factor of pay's (either way).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { COPY_RATIO, copiesTarget } from "./make_dataset.ts";
+ * // Pay a month (1/12 of pay) and pay in units of 40 (1/40): both perfectly correlated.
+ * const pay = [40000, 52000, 61000, 45000];
+ * const rows = pay.map((p) => `${p / 12},${p / 40},${p}`);
+ * const [month, fortieth, target] = loadTable(`m,q,pay\n${rows.join("\n")}\n`).columns;
+ * assert(1 / 12 >= COPY_RATIO && 1 / 40 < COPY_RATIO);
+ * assert.equal(copiesTarget(month, target), true);
+ * assert.equal(copiesTarget(fortieth, target), false);
+ * ```
+ */
 export const COPY_RATIO = 1 / 20;
 
 /**

@@ -32,10 +32,35 @@
 
 import { makeRng, randomInt } from "../random.ts";
 
-/** The invented company's name, shown wherever the demo table is. */
+/**
+ * The invented company's name, shown wherever the demo table is.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { DEMO_COMPANY } from "./demo_company.ts";
+ * // Marked invented wherever it is named, and plain enough for a CSV cell or
+ * // a one-line heading (no comma, quote or line break).
+ * assert.match(DEMO_COMPANY, /^[A-Z][a-z]+ [A-Z][a-z]+ \(invented\)$/);
+ * assert(!/[,"\n]/.test(DEMO_COMPANY));
+ * ```
+ */
 export const DEMO_COMPANY = "Fernhollow Instruments (invented)";
 
-/** Job levels, lowest first, with their base pay (EUR a year). */
+/**
+ * Job levels, lowest first, with their base pay (EUR a year).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { demoCompanyCsv, LEVEL_BASE } from "./demo_company.ts";
+ * // The table's levels read as a ladder, lowest first: the keys in order.
+ * const level = loadTable(demoCompanyCsv({ rows: 400, seed: 1 })).columns[2];
+ * assert(level.type === "ordinal");
+ * assert.deepEqual(level.levels, Object.keys(LEVEL_BASE));
+ * ```
+ */
 export const LEVEL_BASE: Readonly<Record<string, number>> = {
   G1: 34000,
   G2: 39000,
@@ -46,7 +71,18 @@ export const LEVEL_BASE: Readonly<Record<string, number>> = {
   G7: 124000,
 };
 
-/** What each level is called in the company's own ladder. */
+/**
+ * What each level is called in the company's own ladder.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { LEVEL_BASE, LEVEL_TITLES } from "./demo_company.ts";
+ * // A title for every level of the ladder, in the same order.
+ * assert.deepEqual(Object.keys(LEVEL_TITLES), Object.keys(LEVEL_BASE));
+ * assert.equal(LEVEL_TITLES.G5, "Lead"); // where people start to manage (the module notes)
+ * ```
+ */
 export const LEVEL_TITLES: Readonly<Record<string, string>> = {
   G1: "Entry",
   G2: "Developing",
@@ -57,7 +93,24 @@ export const LEVEL_TITLES: Readonly<Record<string, string>> = {
   G7: "Director",
 };
 
-/** Job families and their premium in log points. */
+/**
+ * Job families and their premium in log points.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { FAMILY_PREMIUM, logPayRule } from "./demo_company.ts";
+ * const person = (family: string, level: number) => ({
+ *   level, family, site: "Eastgate", experience: 5, tenure: 2, rating: 3, remote: false,
+ *   gender: "Man",
+ * });
+ * // The premium grows with level: times (1 + k / 2), so twice as large at G3 (k = 2).
+ * const gap = (k: number) => logPayRule(person("Sales", k)) - logPayRule(person("Operations", k));
+ * const premium = FAMILY_PREMIUM.Sales - FAMILY_PREMIUM.Operations;
+ * assert(Math.abs(gap(0) - premium) < 1e-12);
+ * assert(Math.abs(gap(2) - 2 * premium) < 1e-12);
+ * ```
+ */
 export const FAMILY_PREMIUM: Readonly<Record<string, number>> = {
   "Engineering": 0.08,
   "Field Service": 0.0,
@@ -67,7 +120,22 @@ export const FAMILY_PREMIUM: Readonly<Record<string, number>> = {
   "People": -0.02,
 };
 
-/** Sites and their pay zone in log points. */
+/**
+ * Sites and their pay zone in log points.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { logPayRule, SITE_ZONE } from "./demo_company.ts";
+ * const at = (site: string) =>
+ *   logPayRule({
+ *     level: 3, family: "Finance", site, experience: 8, tenure: 4, rating: 4, remote: false,
+ *     gender: "Woman",
+ *   });
+ * const zones = SITE_ZONE.Harbourside - SITE_ZONE["Cinder Hill"];
+ * assert(Math.abs(at("Harbourside") - at("Cinder Hill") - zones) < 1e-12);
+ * ```
+ */
 export const SITE_ZONE: Readonly<Record<string, number>> = {
   "Harbourside": 0.06,
   "Millbrook": -0.05,
@@ -75,13 +143,58 @@ export const SITE_ZONE: Readonly<Record<string, number>> = {
   "Cinder Hill": -0.09,
 };
 
-/** The pay zone of remote people, whatever their site (log points). */
+/**
+ * The pay zone of remote people, whatever their site (log points).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { logPayRule, REMOTE_ZONE } from "./demo_company.ts";
+ * const person = (site: string, remote: boolean) => ({
+ *   level: 2, family: "Engineering", site, experience: 6, tenure: 3, rating: 3, remote,
+ *   gender: "Man",
+ * });
+ * // Remote people are paid on the remote zone whatever their site (Eastgate's zone is 0).
+ * assert.equal(logPayRule(person("Harbourside", true)), logPayRule(person("Millbrook", true)));
+ * const shift = logPayRule(person("Eastgate", true)) - logPayRule(person("Eastgate", false));
+ * assert(Math.abs(shift - REMOTE_ZONE) < 1e-12);
+ * ```
+ */
 export const REMOTE_ZONE = -0.02;
 
-/** Pay bands: pay is held between these multiples of the level's base. */
+/**
+ * Pay bands: pay is held between these multiples of the level's base.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { BAND_LOW, demoCompanyCsv, LEVEL_BASE } from "./demo_company.ts";
+ * const rows = (bands: boolean) =>
+ *   demoCompanyCsv({ rows: 2000, seed: 5, bands }).trim().split("\n").slice(1)
+ *     .map((l) => l.split(","));
+ * const lowest = (table: string[][]) =>
+ *   Math.min(...table.map((c) => Number(c[10]) / LEVEL_BASE[c[2]]));
+ * // Held at the band's low end (to rounding to 50 EUR); without bands the noise reaches below it.
+ * assert(lowest(rows(true)) >= BAND_LOW - 25 / 34000);
+ * assert(lowest(rows(false)) < BAND_LOW);
+ * ```
+ */
 export const BAND_LOW = 0.97;
 
-/** Pay bands: pay is held between these multiples of the level's base. */
+/**
+ * Pay bands: pay is held between these multiples of the level's base.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { BAND_HIGH, demoCompanyCsv, LEVEL_BASE } from "./demo_company.ts";
+ * const rows = demoCompanyCsv({ rows: 2000, seed: 5 }).trim().split("\n").slice(1);
+ * const highest = Math.max(
+ *   ...rows.map((l) => l.split(",")).map((c) => Number(c[10]) / LEVEL_BASE[c[2]]),
+ * );
+ * assert(highest <= BAND_HIGH + 25 / 34000); // to rounding to 50 EUR
+ * ```
+ */
 export const BAND_HIGH = 1.55;
 
 /** One person's attributes as the pay rule reads them. */
@@ -140,10 +253,36 @@ export function noiseSd(level: number): number {
   return 0.035 + 0.008 * (level + 1);
 }
 
-/** Education, lowest first (no direct pay effect; see the module notes). */
+/**
+ * Education, lowest first (no direct pay effect; see the module notes).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, EDUCATION } from "./demo_company.ts";
+ * const cells = demoCompanyCsv({ rows: 2000, seed: 1 }).trim().split("\n").slice(1)
+ *   .map((l) => l.split(",")[7]);
+ * assert.deepEqual([...new Set(cells)].sort(), [...EDUCATION].sort());
+ * ```
+ */
 export const EDUCATION = ["Secondary", "Vocational", "Bachelor", "Master", "Doctorate"] as const;
 
-/** The deliberate unexplained gap: women in Field Service, in log points. */
+/**
+ * The deliberate unexplained gap: women in Field Service, in log points.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { GAP, logPayRule } from "./demo_company.ts";
+ * const person = (family: string, gender: string) => ({
+ *   level: 2, family, site: "Eastgate", experience: 6, tenure: 3, rating: 3, remote: false, gender,
+ * });
+ * const gap = (family: string) =>
+ *   logPayRule(person(family, "Man")) - logPayRule(person(family, "Woman"));
+ * assert(Math.abs(gap("Field Service") - GAP.logPoints) < 1e-12);
+ * assert.equal(gap("Engineering"), 0); // in one job family only
+ * ```
+ */
 export const GAP = { family: "Field Service", group: "Woman", logPoints: 0.06 } as const;
 
 // Share of people at each level (a pyramid).
@@ -171,7 +310,20 @@ export interface DemoOptions {
   seed?: number;
 }
 
-/** The columns of the demo table, in order. */
+/**
+ * The columns of the demo table, in order.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../table/load_table.ts";
+ * import { DEMO_COLUMNS, demoCompanyCsv } from "./demo_company.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 60, seed: 1 }));
+ * assert.deepEqual(table.columns.map((c) => c.name), [...DEMO_COLUMNS]);
+ * assert.deepEqual(table.columns.filter((c) => c.protected).map((c) => c.name), ["gender"]);
+ * assert.equal(table.columns[0].type, "identifier"); // employee_id
+ * ```
+ */
 export const DEMO_COLUMNS = [
   "employee_id",
   "job_family",

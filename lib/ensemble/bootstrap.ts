@@ -19,7 +19,19 @@ import { createHash } from "node:crypto";
 import { uniformInt } from "pure-rand/distribution/uniformInt";
 import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
 
-/** Words of one tree's generator state. */
+/**
+ * Words of one tree's generator state.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { resampleStates, STATE_WORDS } from "./bootstrap.ts";
+ * const states = resampleStates(7, Float64Array.of(50, 52, 61), 3);
+ * assert.equal(states.length, 3 * STATE_WORDS);
+ * // Four 32-bit words: xoroshiro128+'s 128 bits of state per tree.
+ * assert.equal(states.BYTES_PER_ELEMENT * 8 * STATE_WORDS, 128);
+ * ```
+ */
 export const STATE_WORDS = 4;
 
 /**

@@ -15,6 +15,27 @@
  * base pay: unpruned 0.0639, minimum-CV alpha 0.0641, own out-of-bag alpha
  * 0.0655, 1-SE alpha 0.0666.
  * Sources: tests/results/prune_modes_cps1988.json, prune_modes_demo.json.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitDefaultEnsemble } from "./fit_default.ts";
+ * import { DEFAULT_PRUNING } from "./defaults.ts";
+ * const years = Array.from({ length: 60 }, (_, i) => i % 30);
+ * const dataset = {
+ *   rows: 60,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: {
+ *     kind: "regression" as const, name: "pay",
+ *     values: Float64Array.from(years, (y, i) => 40 + y + (i % 7) / 2),
+ *   },
+ * };
+ * const fitted = await fitDefaultEnsemble(dataset, { trees: 5, folds: 5, workers: 1 });
+ * // Every tree pruned at the alpha of the reference tree's lowest cross-validated error.
+ * const lowest = fitted.reference!.candidates.reduce((a, c) => (c.cvError < a.cvError ? c : a));
+ * assert.equal(DEFAULT_PRUNING.alphaRule, "min");
+ * assert(fitted.ensemble!.alphas.every((alpha) => alpha === lowest.alpha));
+ * ```
  */
 export const DEFAULT_PRUNING = { mode: "alpha", alphaRule: "min" } as const;
 
@@ -30,6 +51,20 @@ export const DEFAULT_PRUNING = { mode: "alpha", alphaRule: "min" } as const;
  * top level on the raw scale (0.886 and 0.852 on logs), and they need the
  * training pay, which a model file does not keep.
  * Source: tests/results/range_coverage_sim.json.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { DEFAULT_RANGE } from "./defaults.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * assert.equal(model.target.scale, DEFAULT_RANGE.scale); // money: fitted on logs
+ * const { range } = estimateProfile(openModel(model), typicalProfile(model));
+ * assert.equal(range!.method, "out-of-bag residual quantiles of people with similar estimates");
+ * ```
  */
 export const DEFAULT_RANGE = { scale: "log", method: "grouped" } as const;
 
@@ -48,5 +83,24 @@ export const DEFAULT_RANGE = { scale: "log", method: "grouped" } as const;
  * overshot (variance below 0) for at most 1% of profiles in every draw
  * (at half a tree per row: up to 1.1%).
  * Source: tests/results/how_sure_sim.json.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { DEFAULT_HOW_SURE } from "./defaults.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 40, seed: 1 }));
+ * const answer = async (trees: number) => {
+ *   const model = await fitModel(table, { target: "base_pay_eur", trees, folds: 3, workers: 1 });
+ *   return estimateProfile(openModel(model), typicalProfile(model));
+ * };
+ * const perRow = DEFAULT_HOW_SURE.jackknifeFromTreesPerRow;
+ * const fewer = await answer(40 * perRow - 1);
+ * assert.match(fewer.confidence!.method, /^percentile interval of the trees' estimates/);
+ * assert.equal(fewer.jackknife, null);
+ * assert.match((await answer(40 * perRow)).jackknife!.method, /infinitesimal jackknife/);
+ * ```
  */
 export const DEFAULT_HOW_SURE = { interval: "percentile", jackknifeFromTreesPerRow: 1 } as const;

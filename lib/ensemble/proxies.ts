@@ -19,7 +19,26 @@ import { oobClassificationMetrics } from "./intervals.ts";
 // Rows below which the single-feature ensembles are grown in this thread.
 const IN_THREAD_BELOW = 100_000;
 
-/** The default balanced accuracy from which a feature is named a possible proxy. */
+/**
+ * The default balanced accuracy from which a feature is named a possible proxy.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitModel, loadTable } from "../../mod.ts";
+ * import { PROXY_THRESHOLD } from "./proxies.ts";
+ * // team follows gender exactly; level does not.
+ * const rows = Array.from({ length: 120 }, (_, i) => {
+ *   const k = (i >> 1) % 4;
+ *   const pay = 40000 + 5000 * k + 1000 * (i % 3);
+ *   return `${i % 2 ? "Woman" : "Man"},${i % 2 ? "Blue" : "Red"},G${k + 1},${pay}`;
+ * });
+ * const table = loadTable(`gender,team,level,pay\n${rows.join("\n")}\n`);
+ * const model = await fitModel(table, { target: "pay", trees: 3, folds: 3, workers: 1 });
+ * assert.deepEqual(model.proxies!.map((p) => p.feature), ["team"]);
+ * assert(model.proxies![0].balancedAccuracy >= PROXY_THRESHOLD);
+ * ```
+ */
 export const PROXY_THRESHOLD = 0.65;
 
 /**

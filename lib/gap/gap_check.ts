@@ -232,12 +232,58 @@ export interface GapReport {
   provenance: TableProvenance;
 }
 
-/** Below this out-of-bag R-squared of log pay, the adjusted gap is flagged as fragile. */
+/**
+ * Below this out-of-bag R-squared of log pay, the adjusted gap is flagged as fragile.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../../mod.ts";
+ * import { gapCheck, WEAK_MODEL_R2 } from "./gap_check.ts";
+ * // Pay that no factor explains (level has no bearing on it).
+ * const rows = Array.from({ length: 120 }, (_, i) =>
+ *   `${i % 2 ? "Woman" : "Man"},G${1 + (i % 3)},${40000 + ((i * 7919) % 10007)}`);
+ * const table = loadTable(`gender,level,pay\n${rows.join("\n")}\n`);
+ * const report = await gapCheck(table, { target: "pay", group: "gender", trees: 10, workers: 1 });
+ * const note = report.notes.find((n) => n.kind === "fragileAdjustment");
+ * assert(note?.kind === "fragileAdjustment" && note.r2 !== null && note.r2 < WEAK_MODEL_R2);
+ * assert.equal(note.r2, report.models.payR2Log);
+ * ```
+ */
 export const WEAK_MODEL_R2 = 0.5;
-/** Below this many people, the adjusted gap is flagged as fragile. */
+/**
+ * Below this many people, the adjusted gap is flagged as fragile.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, loadTable } from "../../mod.ts";
+ * import { FEW_PEOPLE, gapCheck } from "./gap_check.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 80, seed: 3 }));
+ * const report = await gapCheck(table, {
+ *   target: "base_pay_eur", group: "gender", trees: 10, workers: 1,
+ * });
+ * const note = report.notes.find((n) => n.kind === "fragileAdjustment");
+ * assert(note?.kind === "fragileAdjustment" && note.people !== null);
+ * assert(note.people < FEW_PEOPLE && note.people === report.rows);
+ * ```
+ */
 export const FEW_PEOPLE = 100;
 
-/** The sources cited under every gap report. */
+/**
+ * The sources cited under every gap report.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { GAP_SOURCES } from "./gap_check.ts";
+ * // Each figure's source is named: the Directive's articles, or authors with year and journal.
+ * assert.match(GAP_SOURCES[0], /Directive \(EU\) 2023\/970, Article 3\(1\)/);
+ * for (const source of GAP_SOURCES.slice(1)) {
+ *   assert.match(source, /[A-Z][a-z]+.* \((19|20)\d\d\), /);
+ * }
+ * ```
+ */
 export const GAP_SOURCES = [
   "Raw mean and median gaps and pay quartiles: Directive (EU) 2023/970, Article 3(1)(c), (e) and (f); " +
   "the 5% threshold: Article 10(1).",
@@ -247,7 +293,18 @@ export const GAP_SOURCES = [
   "Bagged trees: Breiman (1996), Machine Learning 24(2).",
 ];
 
-/** The cautions every gap and review output carries. */
+/**
+ * The cautions every gap and review output carries.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { GAP_CAUTIONS } from "./gap_check.ts";
+ * // Both ways: an unexplained gap proves nothing, nor does an explained one.
+ * assert.match(GAP_CAUTIONS, /not proof of discrimination.*not proof of its absence/);
+ * assert.match(GAP_CAUTIONS, /not legal advice/);
+ * ```
+ */
 export const GAP_CAUTIONS = "These figures describe the table as it is. A gap the model does not " +
   "explain is not proof of discrimination, and an explained gap is not proof of its absence: " +
   "the factors themselves (level, performance rating) can carry bias. Rules differ by country " +

@@ -29,7 +29,25 @@ import {
 import { suppressSmallGroups } from "./suppress.ts";
 import { FEW_PEOPLE, WEAK_MODEL_R2 } from "./gap_check.ts";
 
-/** Relative tolerance of the comparison of pay with its range's ends. */
+/**
+ * Relative tolerance of the comparison of pay with its range's ends.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../../mod.ts";
+ * import { payReview, RANGE_TOLERANCE } from "./pay_review.ts";
+ * // A pay scale paid exactly: each level's range is one value, up to exp(log(pay)) rounding.
+ * const scale = [40000, 50000, 60000];
+ * const rows = Array.from({ length: 150 }, (_, i) => `G${1 + (i % 3)},${scale[i % 3]}`);
+ * const review = await payReview(loadTable(`level,pay\n${rows.join("\n")}\n`), {
+ *   target: "pay", trees: 10, workers: 1,
+ * });
+ * const placed = review.people.filter((p) => p.status !== null);
+ * assert(placed.length > 0 && placed.every((p) => p.status === "within"));
+ * assert(placed.every((p) => Math.abs(p.pay - p.low!) <= RANGE_TOLERANCE * p.high!));
+ * ```
+ */
 export const RANGE_TOLERANCE = 1e-9;
 
 /** Options of {@linkcode payReview}. */

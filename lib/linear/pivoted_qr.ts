@@ -16,7 +16,22 @@
  * @module
  */
 
-/** R's `lm()` tolerance for a column to count as aliased. */
+/**
+ * R's `lm()` tolerance for a column to count as aliased.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { LM_TOLERANCE, pivotedQr } from "./pivoted_qr.ts";
+ * // Months that are twelve times the years but for 1e-8 in one row: aliased at
+ * // lm()'s tolerance (R's default tol = 1e-7), kept at a tighter one.
+ * const ones = [1, 1, 1, 1];
+ * const years = [1, 2, 3, 5];
+ * const months = years.map((y, i) => 12 * y + (i === 3 ? 1e-8 : 0));
+ * assert.equal(pivotedQr([ones, years, months], LM_TOLERANCE).rank, 2);
+ * assert.equal(pivotedQr([ones, years, months], 1e-12).rank, 3);
+ * ```
+ */
 export const LM_TOLERANCE = 1e-7;
 
 /** A pivoted QR decomposition, in LINPACK's compact form. */

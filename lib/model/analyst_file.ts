@@ -27,7 +27,22 @@ import type { AnalystPart, Model } from "./types.ts";
 const MARKER = "paygrove-analyst-file";
 const FORMAT = 1;
 
-/** What the file says of itself, in its own text. */
+/**
+ * What the file says of itself, in its own text.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { ANALYST_FILE_WARNING, analystToText } from "./analyst_file.ts";
+ * const model = {
+ *   rows: { used: 2, dropped: 0 },
+ *   ensemble: { trees: [{}], alpha: 0 },
+ *   analyst: { resamples: Int32Array.of(1, 2, 3, 4), rowKeys: "AAAAAAAAAAA=BBBBBBBBBBB=" },
+ * } as unknown as import("./types.ts").Model;
+ * // The file carries the warning in its own text, for whoever opens it.
+ * assert.equal(JSON.parse(analystToText(model, "a".repeat(64))).warning, ANALYST_FILE_WARNING);
+ * ```
+ */
 export const ANALYST_FILE_WARNING = "With a staff list (the table's rows without pay), this " +
   "file rebuilds every person's pay in the model's table to the cent. Keep it where the pay " +
   "table is kept; never share it. The model file it goes with is safe to share without it.";

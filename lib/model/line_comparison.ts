@@ -38,7 +38,24 @@ export interface LineComparison {
   verdict: "model" | "line" | "mixed" | "tie";
 }
 
-/** Measures closer than this share are called a tie. */
+/**
+ * Measures closer than this share are called a tie.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { compareWithLine, TIE_SHARE } from "./line_comparison.ts";
+ * const line = { measuredBy: "cross-validation" as const, money: { rmse: 100, mae: 80, r2: 0 } };
+ * const trees = (rmse: number) => ({
+ *   measuredBy: "out-of-bag" as const, money: { rmse, mae: 80, r2: 0 },
+ * });
+ * // RMSE lower by just under TIE_SHARE: a tie; by just over: the trees err less.
+ * const near = compareWithLine(trees(100 * (1 - TIE_SHARE) + 0.01), null, line)!;
+ * const far = compareWithLine(trees(100 * (1 - TIE_SHARE) - 0.01), null, line)!;
+ * assert.deepEqual([near.measures[0].better, near.verdict], ["tie", "tie"]);
+ * assert.deepEqual([far.measures[0].better, far.verdict], ["model", "model"]);
+ * ```
+ */
 export const TIE_SHARE = 0.01;
 
 /**

@@ -41,6 +41,21 @@ import { type Model, MODEL_FORMAT, type ModelFileNote } from "./types.ts";
  * default CPS1988 model is 3.4 MB, unpruned 36 MB), and the JavaScript
  * engine's parser ran out of memory and stopped the process (not an error
  * paygrove can catch) on a 300 MB file of one long string; 200 MiB parses.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readTextBounded } from "../io/read_bounded.ts";
+ * import { MAX_MODEL_BYTES } from "./model_file.ts";
+ * // The bound readModelFile reads to, as its message says it (a file of 200 MiB
+ * // and more is not read here: the bound itself is shown with a small one).
+ * const path = Deno.makeTempFileSync();
+ * Deno.writeTextFileSync(path, "{}");
+ * const read = await readTextBounded(path, { maxBytes: MAX_MODEL_BYTES, what: "model file" });
+ * assert.equal(read, "{}");
+ * assert.equal(MAX_MODEL_BYTES / 2 ** 20, 200);
+ * Deno.removeSync(path);
+ * ```
  */
 export const MAX_MODEL_BYTES = 200 * 1024 * 1024;
 

@@ -312,9 +312,22 @@ export function readForModel(
  * @throws {DataError} when the file cannot be read or does not match the model.
  *
  * @example
- * ```ts ignore
- * import { readTableFileForModel } from "./model_table.ts";
- * const rows = await readTableFileForModel(model, "candidates.csv");
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { readTableFileForModel, rowProfile } from "./model_table.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const path = `${Deno.makeTempDirSync()}/candidates.csv`;
+ * const text = demoCompanyCsv({ rows: 3, seed: 9 });
+ * Deno.writeTextFileSync(path, text);
+ * const rows = await readTableFileForModel(model, path);
+ * assert.equal(rows.rows, 3);
+ * // Encoded to the model's own codes: the second person's level as the file has it.
+ * const level = model.features.findIndex((f) => f.name === "level");
+ * const cell = text.split("\n")[2].split(",")[2];
+ * assert.equal(model.features[level].levels![rowProfile(rows, 1)[level]], cell);
+ * Deno.removeSync(path);
  * ```
  */
 export async function readTableFileForModel(

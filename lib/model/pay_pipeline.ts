@@ -30,10 +30,37 @@ import type { MoneyUnit, Table } from "../table/types.ts";
 /**
  * The smallest privacy minimum anything accepts: a group of fewer people
  * than this never has a figure of its own (no mean, no count, no leaf).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { OptionError } from "../errors.ts";
+ * import { checkedPrivacyMin, PRIVACY_FLOOR } from "./pay_pipeline.ts";
+ * assert.equal(checkedPrivacyMin(PRIVACY_FLOOR), 3);
+ * assert.throws(
+ *   () => checkedPrivacyMin(PRIVACY_FLOOR - 1),
+ *   (e: unknown) =>
+ *     e instanceof OptionError && /must be a whole number of at least 3, got 2/.test(e.message),
+ * );
+ * ```
  */
 export const PRIVACY_FLOOR = 3;
 
-/** The privacy minimum when none is given. */
+/**
+ * The privacy minimum when none is given.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { DEFAULT_PRIVACY_MIN } from "./pay_pipeline.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 60, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 0, folds: 3, workers: 1 });
+ * assert.equal(model.settings.privacyMin, DEFAULT_PRIVACY_MIN);
+ * // No node of the reference tree holds fewer people than that.
+ * assert(model.reference.tree.rows.every((n) => n >= DEFAULT_PRIVACY_MIN));
+ * ```
+ */
 export const DEFAULT_PRIVACY_MIN = 5;
 
 /**

@@ -29,10 +29,48 @@
 
 import type { FlatTree } from "../tree/flat_tree.ts";
 
-/** Steps of a reference node's mean, in cross-validated RMSEs over its people. */
+/**
+ * Steps of a reference node's mean, in cross-validated RMSEs over its people.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, growTree } from "../../mod.ts";
+ * import { MEAN_STEP_RMSE, shareableReference } from "./shareable_figures.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [
+ *     { name: "years", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 8, 9, 10) },
+ *   ],
+ *   target: {
+ *     kind: "regression" as const, name: "pay", values: Float64Array.of(50, 52, 54, 80, 82, 85),
+ *   },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * const rmse = 0.75;
+ * const kept = shareableReference(tree, rmse);
+ * // Every node's mean is a whole number of steps of MEAN_STEP_RMSE * rmse / its people.
+ * for (let k = 0; k < kept.nodeCount; k++) {
+ *   const steps = kept.value[k] / ((MEAN_STEP_RMSE * rmse) / kept.rows[k]);
+ *   assert(Math.abs(steps - Math.round(steps)) < 1e-9);
+ *   assert(Math.abs(kept.value[k] - tree.value[k]) <= (MEAN_STEP_RMSE * rmse) / kept.rows[k] / 2);
+ * }
+ * ```
+ */
 export const MEAN_STEP_RMSE = 4;
 
-/** Significant digits kept of figures computed over the people. */
+/**
+ * Significant digits kept of figures computed over the people.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { FIGURE_DIGITS, roundedFigures } from "./shareable_figures.ts";
+ * const kept = roundedFigures({ rmse: 2 / 3, mae: 123456.789 });
+ * assert.deepEqual(kept, { rmse: 0.6667, mae: 123500 });
+ * assert.equal(String(kept.rmse).replace("0.", "").length, FIGURE_DIGITS);
+ * ```
+ */
 export const FIGURE_DIGITS = 4;
 
 /**

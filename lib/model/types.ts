@@ -27,6 +27,22 @@ import type { AliasedTerm } from "../linear/cross_validate_linear.ts";
  * The model file format this version writes. Format 1 (paygrove 0.1)
  * stored each tree's resampling seed and the training rows' keys, which
  * rebuild pay; it is still read, with a warning.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, readModelFile } from "../../mod.ts";
+ * import { modelToText } from "./model_file.ts";
+ * import { MODEL_FORMAT } from "./types.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 60, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 2, folds: 3, workers: 1 });
+ * assert.equal(JSON.parse(modelToText(model)).format, MODEL_FORMAT);
+ * // A format-1 file (fixtures/legacy) is still read, with its warning.
+ * const legacy = new URL("../../fixtures/legacy/format1_demo300.json", import.meta.url).pathname;
+ * const old = await readModelFile(legacy);
+ * assert.equal(old.provenance.format, 1);
+ * assert(old.fileNotes!.some((n) => n.kind === "rebuildsPay"));
+ * ```
  */
 export const MODEL_FORMAT = 2;
 

@@ -94,6 +94,18 @@ const HAS_DIGIT = /\d/;
  * Written so that each character has one way to match (digits after a dot
  * only): the older `\d+\.?\d*` could split a run of digits n ways and took
  * 11 s on a cell of 40,000 digits and a letter.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { parseNumber, PLAIN_NUMBER } from "./amount.ts";
+ * for (const text of ["12", "-3.5", "+1e6", ".5", "7."]) assert.match(text, PLAIN_NUMBER);
+ * for (const text of ["1,000", "1.2.3", "0x10", "1e", "", "."]) {
+ *   assert.doesNotMatch(text, PLAIN_NUMBER);
+ * }
+ * // A plain number reads as JavaScript reads it.
+ * assert.equal(parseNumber("-3.5e2", "."), -350);
+ * ```
  */
 export const PLAIN_NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
@@ -103,6 +115,16 @@ export const PLAIN_NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
  * is text, and the bound keeps the suffix patterns below, which try every
  * start, from taking time quadratic in a cell's length (a cell of a digit,
  * 40,000 spaces and a letter took 18 s).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { MAX_AMOUNT_CHARS, parseAmount, parseNumber } from "./amount.ts";
+ * const longest = "1".padStart(MAX_AMOUNT_CHARS, "0"); // 100 characters
+ * assert.equal(parseNumber(longest, "."), 1);
+ * assert.equal(parseNumber(`0${longest}`, "."), undefined); // one more: text
+ * assert.equal(parseAmount(`EUR ${"0".repeat(MAX_AMOUNT_CHARS)}1`, "."), undefined);
+ * ```
  */
 export const MAX_AMOUNT_CHARS = 100;
 

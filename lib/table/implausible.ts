@@ -29,9 +29,37 @@ import { subsetRows } from "./filter_rows.ts";
 import { quantile } from "./quality.ts";
 import type { Table } from "./types.ts";
 
-/** How many times from the column's median a pay value may lie, either way. */
+/**
+ * How many times from the column's median a pay value may lie, either way.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "./load_table.ts";
+ * import { findImplausiblePay, PLAUSIBLE_FACTOR } from "./implausible.ts";
+ * // Median 50,000: up to 10^4 times it is pay; a little beyond is not.
+ * const table = (pay: number) => loadTable(`pay\n40000\n50000\n60000\n${pay}\n50000\n`);
+ * assert.equal(findImplausiblePay(table(50000 * PLAUSIBLE_FACTOR), "pay"), null);
+ * assert.deepEqual(findImplausiblePay(table(50000 * PLAUSIBLE_FACTOR * 1.01), "pay")!.lines, [5]);
+ * // Either way: ten-thousand times below the median too.
+ * assert.deepEqual(findImplausiblePay(table(4), "pay")!.lines, [5]);
+ * ```
+ */
 export const PLAUSIBLE_FACTOR = 1e4;
-/** The largest size of a plausible pay value. */
+/**
+ * The largest size of a plausible pay value.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "./load_table.ts";
+ * import { findImplausiblePay, PAY_CEILING } from "./implausible.ts";
+ * // Close to the median, but beyond any year's pay in any currency.
+ * const table = loadTable(`pay\n${PAY_CEILING / 2}\n${PAY_CEILING}\n${2 * PAY_CEILING}\n`);
+ * const found = findImplausiblePay(table, "pay")!;
+ * assert.deepEqual([found.count, found.lines], [1, [4]]);
+ * ```
+ */
 export const PAY_CEILING = 1e15;
 
 const SHOWN = 5;

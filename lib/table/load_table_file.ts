@@ -17,6 +17,17 @@ import type { Table } from "./types.ts";
  * The largest table {@linkcode loadTableFile} reads: 1 GiB, about ten
  * million rows of a typical pay table (a million rows of ten columns is
  * about 100 MB).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTableFile, TABLE_MAX_BYTES } from "./load_table_file.ts";
+ * // A file one byte over the bound (sparse: nothing is written) is refused unread.
+ * const path = Deno.makeTempFileSync({ suffix: ".csv" });
+ * Deno.truncateSync(path, TABLE_MAX_BYTES + 1);
+ * await assert.rejects(() => loadTableFile(path), /is larger than the 1024 MiB paygrove reads/);
+ * Deno.removeSync(path);
+ * ```
  */
 export const TABLE_MAX_BYTES = 2 ** 30;
 
@@ -24,6 +35,17 @@ export const TABLE_MAX_BYTES = 2 ** 30;
  * The largest table read whole as text ({@linkcode readTableText}: a table
  * scored against a model, `--table`, the guided flow's table): 256 MiB,
  * well within what one JavaScript string can hold (about 512 Mi characters).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { readTableText, TEXT_TABLE_MAX_BYTES } from "./load_table_file.ts";
+ * // A file one byte over the bound (sparse: nothing is written) is refused unread.
+ * const path = Deno.makeTempFileSync({ suffix: ".csv" });
+ * Deno.truncateSync(path, TEXT_TABLE_MAX_BYTES + 1);
+ * await assert.rejects(() => readTableText(path), /is larger than the 256 MiB paygrove reads/);
+ * Deno.removeSync(path);
+ * ```
  */
 export const TEXT_TABLE_MAX_BYTES = 2 ** 28;
 

@@ -8,6 +8,18 @@
  * The texts read as missing unless the user gives a list of their own:
  * R's `NA`, spreadsheet `N/A` and `#N/A`, `NaN` as pandas writes it, `null`
  * and a dash. An empty (or all-space) cell is always missing.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "./load_table.ts";
+ * import { DEFAULT_MISSING_TOKENS } from "./missing.ts";
+ * // Each default token, in a column of numbers, is a missing value, not text.
+ * const cells = [...DEFAULT_MISSING_TOKENS, "50000", "61000"];
+ * const pay = loadTable(`pay\n${cells.map((c) => `"${c}"`).join("\n")}\n`).columns[0];
+ * assert.equal(pay.type, "numeric");
+ * assert.equal(pay.missing, DEFAULT_MISSING_TOKENS.length);
+ * ```
  */
 export const DEFAULT_MISSING_TOKENS: readonly string[] = ["NA", "N/A", "#N/A", "NaN", "null", "-"];
 

@@ -56,6 +56,21 @@ const NAME_PERIODS: Record<string, PayPeriod> = {
 /**
  * Weeks and months in a year, used to put mixed periods on a yearly basis
  * (52 weeks: common practice; 12 months: exact).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "./load_table.ts";
+ * import { PERIODS_PER_YEAR } from "./money.ts";
+ * const pay = loadTable("level,pay\nL1,4000/month\nL2,1000/week\nL3,52000/year\n").columns[1];
+ * assert(pay.type === "numeric");
+ * assert.deepEqual([...pay.values], [
+ *   4000 * PERIODS_PER_YEAR.month,
+ *   1000 * PERIODS_PER_YEAR.week,
+ *   52000,
+ * ]);
+ * assert.deepEqual(pay.notes, ["annualised (per month x 12, per week x 52)"]);
+ * ```
  */
 export const PERIODS_PER_YEAR: Readonly<Record<Exclude<PayPeriod, "hour">, number>> = {
   week: 52,

@@ -12,7 +12,23 @@
 
 import type { Dataset } from "../dataset/types.ts";
 
-/** Values closer than this to their sorted neighbour share a bin. */
+/**
+ * Values closer than this to their sorted neighbour share a bin.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, FEATURE_TOLERANCE } from "./bins.ts";
+ * const bins = (values: number[]) =>
+ *   binFeatures({
+ *     rows: values.length,
+ *     features: [{ name: "x", kind: "numeric", values: Float64Array.from(values) }],
+ *     target: { kind: "regression", name: "y", values: new Float64Array(values.length) },
+ *   })[0].count;
+ * assert.equal(bins([1, 1 + FEATURE_TOLERANCE / 2, 2]), 2); // one bin for the first two
+ * assert.equal(bins([1, 1 + 2 * FEATURE_TOLERANCE, 2]), 3);
+ * ```
+ */
 export const FEATURE_TOLERANCE = 1e-7;
 
 /** One feature's bins. */

@@ -17,7 +17,31 @@ import type { Feature } from "../dataset/types.ts";
 import { applyRow, type FlatTree } from "./flat_tree.ts";
 import { collapseNodes } from "./prune.ts";
 
-/** Drawn members whose pay spans no more than this share are paid the same (0.05%). */
+/**
+ * Drawn members whose pay spans no more than this share are paid the same (0.05%).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, diverseLeaves, growTree, SAME_PAY_SHARE } from "../../mod.ts";
+ * // A leaf of three people whose pay spans `spread` (a share of the highest).
+ * const leaves = (spread: number) => {
+ *   const top = 50000;
+ *   const pay = [top * (1 - spread), top * (1 - spread / 2), top, 61000, 70000, 83000];
+ *   const dataset = {
+ *     rows: 6,
+ *     features: [
+ *       { name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 8, 9, 10) },
+ *     ],
+ *     target: { kind: "regression" as const, name: "y", values: Float64Array.from(pay) },
+ *   };
+ *   const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ *   return diverseLeaves(tree, dataset.features, new Float64Array(6).fill(1), pay).nodeCount;
+ * };
+ * assert.equal(leaves(SAME_PAY_SHARE / 2), 1); // paid the same: merged away
+ * assert.equal(leaves(2 * SAME_PAY_SHARE), 3); // kept
+ * ```
+ */
 export const SAME_PAY_SHARE = 5e-4;
 
 /**

@@ -20,6 +20,18 @@ import type { FlatTree } from "./flat_tree.ts";
  * requested at a path alpha must include that step whichever way the last
  * bits fall, and alphas of splits that reduce the risk by nothing but
  * rounding count as zero.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { SAME_ALPHA, sameAlpha } from "./prune.ts";
+ * // Relative to the larger alpha...
+ * assert.equal(sameAlpha(1, 1 + SAME_ALPHA / 2, 0), true);
+ * assert.equal(sameAlpha(1, 1 + 2 * SAME_ALPHA, 0), false);
+ * // ...plus that share of the root's risk: near zero, rounding counts as zero.
+ * assert.equal(sameAlpha(0, SAME_ALPHA / 2, 1), true);
+ * assert.equal(sameAlpha(0, 2 * SAME_ALPHA, 1), false);
+ * ```
  */
 export const SAME_ALPHA = 1e-12;
 
@@ -43,6 +55,16 @@ export function sameAlpha(a: number, b: number, rootRisk: number, tolerance = SA
  * correct implementations agree on alphas to about 1e-11 (relative) on a
  * table of 28,000 rows; a subtree requested at an alpha read from another
  * implementation's path must not depend on those last digits.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { collapsedWithin, PRUNE_TOLERANCE } from "./prune.ts";
+ * // A link whose alpha lies above the one asked for by less than PRUNE_TOLERANCE
+ * // (relative) is still collapsed: another implementation's last digits do not matter.
+ * assert.equal(collapsedWithin(0.5 * (1 + PRUNE_TOLERANCE / 2), 0.5, 0), true);
+ * assert.equal(collapsedWithin(0.5 * (1 + 2 * PRUNE_TOLERANCE), 0.5, 0), false);
+ * ```
  */
 export const PRUNE_TOLERANCE = 1e-9;
 

@@ -35,7 +35,31 @@ import { fitTable, leftOutNote } from "../render/fit_table.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import { supportReasonText } from "../render/answer_notes.ts";
 
-/** The columns batch adds, in order. */
+/**
+ * The columns batch adds, in order.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { BATCH_COLUMNS, batchCommand } from "./batch.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const dir = Deno.makeTempDirSync();
+ * await writeModelFile(`${dir}/m.json`, model);
+ * Deno.writeTextFileSync(`${dir}/people.csv`, demoCompanyCsv({ rows: 3, seed: 9 }));
+ * const terminal = recordingTerminal();
+ * await batchCommand(terminal)
+ *   .parseAsync([`${dir}/m.json`, `${dir}/people.csv`], { from: "user" });
+ * const [header, first] = terminal.stdout.join("").split("\n");
+ * const at = header.split(",").indexOf("estimate");
+ * assert.deepEqual(header.split(",").slice(at, at + BATCH_COLUMNS.length), [...BATCH_COLUMNS]);
+ * assert.equal(first.split(",")[at + 1], "ensemble"); // estimate_source
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
 export const BATCH_COLUMNS = [
   "estimate",
   "estimate_source",
@@ -46,7 +70,33 @@ export const BATCH_COLUMNS = [
   "range_high",
 ] as const;
 
-/** The columns added with `--offer`. */
+/**
+ * The columns added with `--offer`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { batchCommand, OFFER_COLUMNS } from "./batch.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const dir = Deno.makeTempDirSync();
+ * await writeModelFile(`${dir}/m.json`, model);
+ * // The people's own pay as the offer column.
+ * const people = `${dir}/people.csv`;
+ * Deno.writeTextFileSync(people, demoCompanyCsv({ rows: 3, seed: 9 }));
+ * const terminal = recordingTerminal();
+ * await batchCommand(terminal)
+ *   .parseAsync([`${dir}/m.json`, people, "--offer", "base_pay_eur"], { from: "user" });
+ * const [header, ...rows] = terminal.stdout.join("").trim().split("\n");
+ * const at = header.split(",").indexOf(OFFER_COLUMNS[0]);
+ * assert.deepEqual(header.split(",").slice(at, at + 4), [...OFFER_COLUMNS]);
+ * for (const row of rows) assert.match(row.split(",")[at + 2], /^(under|within|over)$/);
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
 export const OFFER_COLUMNS = [
   "offer_to_estimate",
   "range_position",
@@ -54,7 +104,30 @@ export const OFFER_COLUMNS = [
   "share_paid_less",
 ] as const;
 
-/** The last columns: why a row is unusual (or was refused), and the model it was scored with. */
+/**
+ * The last columns: why a row is unusual (or was refused), and the model it was scored with.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { batchCommand, TRAILING_COLUMNS } from "./batch.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const dir = Deno.makeTempDirSync();
+ * const { sha256 } = await writeModelFile(`${dir}/m.json`, model);
+ * Deno.writeTextFileSync(`${dir}/people.csv`, demoCompanyCsv({ rows: 2, seed: 9 }));
+ * const terminal = recordingTerminal();
+ * await batchCommand(terminal)
+ *   .parseAsync([`${dir}/m.json`, `${dir}/people.csv`], { from: "user" });
+ * const [header, first] = terminal.stdout.join("").split("\n");
+ * assert(header.endsWith(`,${TRAILING_COLUMNS.join(",")}`));
+ * assert(first.endsWith(`,${sha256.slice(0, 12)}`));
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
 export const TRAILING_COLUMNS = ["warnings", "model_sha256"] as const;
 
 /**
@@ -136,6 +209,28 @@ function share(x: number | null | undefined): string {
  * Builds the `batch` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { batchCommand } from "./batch.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const dir = Deno.makeTempDirSync();
+ * await writeModelFile(`${dir}/m.json`, model);
+ * Deno.writeTextFileSync(`${dir}/people.csv`, demoCompanyCsv({ rows: 3, seed: 9 }));
+ * const terminal = recordingTerminal();
+ * await batchCommand(terminal)
+ *   .parseAsync([`${dir}/m.json`, `${dir}/people.csv`, "--json"], { from: "user" });
+ * const doc = JSON.parse(terminal.stdout.join(""));
+ * assert.equal(doc.scored, 3);
+ * assert.equal(doc.rows.length, 3);
+ * assert(doc.rows.every((r: { estimate: number }) => r.estimate > 0));
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
  */
 export function batchCommand(terminal: Terminal): CommandUnknownOpts {
   // The reading options: the model's own settings are the defaults.

@@ -20,6 +20,28 @@ import type { Terminal } from "../terminal.ts";
  * Builds the `compare` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { compareCommand } from "./compare.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const path = `${Deno.makeTempDirSync()}/m.json`;
+ * await writeModelFile(path, model);
+ * const terminal = recordingTerminal();
+ * await compareCommand(terminal)
+ *   .parseAsync([path, "--set", "level=G2", "--change", "level=+1", "--json"], { from: "user" });
+ * const answer = JSON.parse(terminal.stdout.join(""));
+ * assert.deepEqual(answer.changes.map((c: { from: string; to: string }) => [c.from, c.to]), [
+ *   ["G2", "G3"],
+ * ]);
+ * assert.equal(answer.difference.estimate, answer.changed.estimate - answer.base.estimate);
+ * Deno.removeSync(path);
+ * ```
  */
 export function compareCommand(terminal: Terminal): CommandUnknownOpts {
   return withProfileFlags(

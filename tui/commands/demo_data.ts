@@ -13,6 +13,17 @@ import { MAX_DEMO_ROWS, seedOption, wholeNumber } from "../option_values.ts";
  * Builds the `demo-data` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { demoDataCommand } from "./demo_data.ts";
+ * const terminal = recordingTerminal();
+ * await demoDataCommand(terminal).parseAsync(["--rows", "5", "--seed", "7"], { from: "user" });
+ * assert.equal(terminal.stdout.join(""), demoCompanyCsv({ rows: 5, seed: 7 }));
+ * ```
  */
 export function demoDataCommand(terminal: Terminal): CommandUnknownOpts {
   return new Command("demo-data")

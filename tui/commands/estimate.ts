@@ -27,6 +27,30 @@ import type { Terminal } from "../terminal.ts";
  * Builds the `estimate` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, readModelFile, typicalProfile,
+ *   writeModelFile,
+ * } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { estimateCommand } from "./estimate.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const path = `${Deno.makeTempDirSync()}/m.json`;
+ * await writeModelFile(path, model);
+ * const terminal = recordingTerminal();
+ * await estimateCommand(terminal).parseAsync([path, "--json"], { from: "user" });
+ * const answer = JSON.parse(terminal.stdout.join(""));
+ * // The typical person, as the library answers for the model read back.
+ * const read = await readModelFile(path);
+ * assert.equal(answer.estimate, estimateProfile(openModel(read), typicalProfile(read)).estimate);
+ * assert.match(answer.start, /^the typical person/);
+ * Deno.removeSync(path);
+ * ```
  */
 export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
   return withProfileFlags(

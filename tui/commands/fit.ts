@@ -35,7 +35,26 @@ import {
   screenPayFlags,
 } from "../data_check.ts";
 
-/** The `fit --json` document. */
+/**
+ * The `fit --json` document.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { fitJson } from "./fit.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const doc = fitJson(model, "m.json", 1234) as {
+ *   rows: number; ensemble: { trees: number; oobRmse: number }; model: unknown;
+ * };
+ * assert.equal(doc.rows, 120);
+ * assert.equal(doc.ensemble.trees, 3);
+ * assert.equal(doc.ensemble.oobRmse, model.quality.ensemble!.money!.rmse);
+ * assert.deepEqual(doc.model, { path: "m.json", bytes: 1234 });
+ * ```
+ */
 export function fitJson(
   model: Model,
   out: string,
@@ -110,6 +129,26 @@ export function fitJson(
  * Builds the `fit` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, readModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { fitCommand } from "./fit.ts";
+ * const dir = Deno.makeTempDirSync();
+ * Deno.writeTextFileSync(`${dir}/pay.csv`, demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const terminal = recordingTerminal();
+ * await fitCommand(terminal).parseAsync([
+ *   `${dir}/pay.csv`, "--target", "base_pay_eur", "--trees", "3", "--folds", "3",
+ *   "--workers", "1", "--out", `${dir}/m.json`,
+ * ], { from: "user" });
+ * const model = await readModelFile(`${dir}/m.json`);
+ * assert.equal(model.ensemble!.trees.length, 3);
+ * assert(!model.features.some((f) => f.name === "gender")); // protected: left out
+ * assert.match(terminal.stdout.join(""), /^paygrove fit: .*pay\.csv -> .*m\.json/);
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
  */
 export function fitCommand(terminal: Terminal): CommandUnknownOpts {
   return withTableFlags(

@@ -33,6 +33,26 @@ import { makeStyle } from "../render/style.ts";
  * Builds the `gap` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, GAP_CAUTIONS } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { gapCommand } from "./gap.ts";
+ * const path = `${Deno.makeTempDirSync()}/pay.csv`;
+ * Deno.writeTextFileSync(path, demoCompanyCsv({ rows: 200, seed: 3 }));
+ * const terminal = recordingTerminal();
+ * await gapCommand(terminal).parseAsync([
+ *   path, "--target", "base_pay_eur", "--group", "gender", "--trees", "10", "--workers", "1",
+ *   "--json",
+ * ], { from: "user" });
+ * const report = JSON.parse(terminal.stdout.join(""));
+ * assert.equal(report.reference, "Man");
+ * assert(report.groups.includes("Woman"));
+ * assert.equal(report.cautions, GAP_CAUTIONS);
+ * Deno.removeSync(path);
+ * ```
  */
 export function gapCommand(terminal: Terminal): CommandUnknownOpts {
   return withTableFlags(

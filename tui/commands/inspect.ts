@@ -24,6 +24,25 @@ import { forTerminal, jsonText, terminalText } from "../render/safe_text.ts";
  * Builds the `inspect` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { inspectCommand } from "./inspect.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const path = `${Deno.makeTempDirSync()}/m.json`;
+ * await writeModelFile(path, model);
+ * const terminal = recordingTerminal(120);
+ * await inspectCommand(terminal).parseAsync([path], { from: "user" });
+ * const card = terminal.stdout.join("");
+ * assert.match(card, /settings: 3 trees, min leaf 5, 3 folds, one-se rule/);
+ * assert.match(card, new RegExp(`reference tree: ${model.reference.leaves} leaves`));
+ * Deno.removeSync(path);
+ * ```
  */
 export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
   return new Command("inspect")
@@ -120,7 +139,26 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
     });
 }
 
-/** What a model file holds, in one sentence. */
+/**
+ * What a model file holds, in one sentence.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { CONTENTS, inspectCommand } from "./inspect.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const path = `${Deno.makeTempDirSync()}/m.json`;
+ * await writeModelFile(path, model);
+ * const terminal = recordingTerminal();
+ * await inspectCommand(terminal).parseAsync([path, "--json"], { from: "user" });
+ * assert.equal(JSON.parse(terminal.stdout.join("")).contents, CONTENTS);
+ * Deno.removeSync(path);
+ * ```
+ */
 export const CONTENTS = "The model file holds the schema, settings, trees (splits; node means " +
   "over at least the privacy minimum of people; counts of every training row per node), out-of-bag " +
   "residuals by estimate group as means of blocks of people, accuracy, importance and level-pair " +

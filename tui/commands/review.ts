@@ -34,6 +34,25 @@ import { renderReview, reviewCsv } from "../render/review_view.ts";
  * Builds the `review` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { reviewCommand } from "./review.ts";
+ * const path = `${Deno.makeTempDirSync()}/pay.csv`;
+ * Deno.writeTextFileSync(path, demoCompanyCsv({ rows: 150, seed: 2 }));
+ * const terminal = recordingTerminal();
+ * await reviewCommand(terminal).parseAsync([
+ *   path, "--target", "base_pay_eur", "--trees", "10", "--workers", "1", "--json",
+ * ], { from: "user" });
+ * const review = JSON.parse(terminal.stdout.join(""));
+ * assert.equal(review.people.length, 150);
+ * const under = review.people.filter((p: { status: string }) => p.status === "under");
+ * assert.equal(review.overall.under, under.length);
+ * Deno.removeSync(path);
+ * ```
  */
 export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
   return withTableFlags(

@@ -17,6 +17,23 @@ import { wordedSchema } from "../option_words.ts";
  * Builds the `schema` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { schemaCommand } from "./schema.ts";
+ * const path = `${Deno.makeTempDirSync()}/pay.csv`;
+ * Deno.writeTextFileSync(path, "level,site,pay\nL1,North,50000\nL2,South,61000\nL1,South,52000\n");
+ * const terminal = recordingTerminal();
+ * await schemaCommand(terminal).parseAsync([path, "--json"], { from: "user" });
+ * const schema = JSON.parse(terminal.stdout.join(""));
+ * assert.deepEqual(
+ *   schema.columns.map((c: { name: string; type: string }) => [c.name, c.type]),
+ *   [["level", "ordinal"], ["site", "categorical"], ["pay", "numeric"]],
+ * );
+ * Deno.removeSync(path);
+ * ```
  */
 export function schemaCommand(terminal: Terminal): CommandUnknownOpts {
   return withTableFlags(

@@ -31,6 +31,25 @@ function finiteNumber(text: string): number {
  * Builds the `sweep` command.
  *
  * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { sweepCommand } from "./sweep.ts";
+ * const model = await fitModel(loadTable(demoCompanyCsv({ rows: 120, seed: 1 })), {
+ *   target: "base_pay_eur", trees: 3, folds: 3, workers: 1,
+ * });
+ * const path = `${Deno.makeTempDirSync()}/m.json`;
+ * await writeModelFile(path, model);
+ * const terminal = recordingTerminal();
+ * await sweepCommand(terminal).parseAsync([path, "--vary", "level", "--json"], { from: "user" });
+ * const answer = JSON.parse(terminal.stdout.join(""));
+ * const levels = model.features.find((f) => f.name === "level")!.levels;
+ * assert.deepEqual(answer.points.map((p: { value: string }) => p.value), levels);
+ * Deno.removeSync(path);
+ * ```
  */
 export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
   return withProfileFlags(

@@ -40,7 +40,30 @@ export function decimalChoices(example: string): { name: string; value: DecimalM
   ];
 }
 
-/** Asks what a cell that reads either way means; returns the file's decimal mark. */
+/**
+ * Asks what a cell that reads either way means; returns the file's decimal mark.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { loadTable } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { askDecimalMark } from "./decimal_step.ts";
+ * const table = loadTable("level;pay\nL1;1.500\nL2;2.250\nL1;1.750\n");
+ * assert.equal(table.source.decimal!.how, "ambiguous");
+ * const asked: string[] = [];
+ * // A flow I/O that answers the second choice (a decimal comma).
+ * const io: FlowIO = {
+ *   say: () => {}, style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (message, choices) => (asked.push(message), Promise.resolve(choices[1].value)),
+ *   tick: () => Promise.resolve([]),
+ *   ask: () => Promise.resolve(""),
+ * };
+ * assert.equal(await askDecimalMark(io, table.source.decimal!), ",");
+ * assert.deepEqual(asked, ['What is "1.500" in this file?']);
+ * ```
+ */
 export function askDecimalMark(io: FlowIO, reading: DecimalMarkReading): Promise<DecimalMark> {
   const example = reading.example ?? "";
   return io.choose(`What is "${terminalText(example)}" in this file?`, decimalChoices(example));

@@ -41,7 +41,35 @@ import { askDecimalMark } from "./decimal_step.ts";
 import { wrapped } from "./screen_room.ts";
 import { DEMO_READ, type FlowOptions } from "./guided_flow.ts";
 
-/** Asks for the data and returns a fitted (or loaded) model. */
+/**
+ * Asks for the data and returns a fitted (or loaded) model.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { chooseAndFit } from "./fit_step.ts";
+ * const path = `${Deno.makeTempDirSync()}/pay.csv`;
+ * Deno.writeTextFileSync(path, demoCompanyCsv({ rows: 120, seed: 1 }));
+ * // A CSV of one's own; every other question answered with its default.
+ * const said: string[] = [];
+ * const io: FlowIO = {
+ *   say: (text) => void said.push(text), style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (message, choices, d) =>
+ *     Promise.resolve((message === "What do you want to work with?" ? "csv" : d) as never),
+ *   tick: (_m, choices) => Promise.resolve(choices.filter((c) => c.checked).map((c) => c.value)),
+ *   ask: () => Promise.resolve(path),
+ * };
+ * const { model, source } = await chooseAndFit(io, { demoPath: "", trees: 3, workers: 1 });
+ * assert.equal(model.target.name, "base_pay_eur");
+ * assert.equal(model.ensemble!.trees.length, 3);
+ * assert.equal(source!.table.rows, 120);
+ * assert.match(said.at(-1)!, /In short: for one person, the estimate is typically off by/);
+ * Deno.removeSync(path);
+ * ```
+ */
 export async function chooseAndFit(
   io: FlowIO,
   options: FlowOptions,
@@ -181,7 +209,34 @@ export async function chooseAndFit(
   return { model, tableText, source, leftOut };
 }
 
-/** Asks for the target and the features. */
+/**
+ * Asks for the target and the features.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, loadTable } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { chooseColumns } from "./fit_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 60, seed: 1 }));
+ * // Every question answered with its default: the suggested pay column, the ticked attributes.
+ * const shown: string[] = [];
+ * const io: FlowIO = {
+ *   say: () => {}, style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (_m, choices, d) => Promise.resolve(d ?? choices[0].value),
+ *   tick: (_m, choices) => {
+ *     shown.push(...choices.map((c) => c.name));
+ *     return Promise.resolve(choices.filter((c) => c.checked).map((c) => c.value));
+ *   },
+ *   ask: () => Promise.resolve(""),
+ * };
+ * const chosen = await chooseColumns(io, table);
+ * assert.equal(chosen.target, "base_pay_eur");
+ * assert(!chosen.features.includes("gender") && chosen.allowProtected === false);
+ * assert(shown.includes("gender (protected attribute; unticked by default)"));
+ * ```
+ */
 export async function chooseColumns(
   io: FlowIO,
   table: Table,

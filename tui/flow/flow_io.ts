@@ -13,6 +13,27 @@ import type { Style } from "../render/style.ts";
 /**
  * Choices a select prompt shows at once (more scroll): it takes one line
  * for its question and one per choice shown.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { PassThrough } from "node:stream";
+ * import { makeStyle } from "../render/style.ts";
+ * import { CHOOSE_PAGE_SIZE, streamFlowIO } from "./flow_io.ts";
+ * const input = new PassThrough();
+ * const output = new PassThrough();
+ * let screen = "";
+ * output.on("data", (chunk) => (screen += chunk));
+ * const io = streamFlowIO({ input, output }, { style: makeStyle(false), width: 80, ascii: true });
+ * const choices = Array.from({ length: 12 }, (_, i) => ({ name: `choice ${i + 1}`, value: i }));
+ * const picked = io.choose("Pick one", choices);
+ * for (let i = 0; i < 200 && !screen.includes("enter select"); i++) {
+ *   await new Promise((resolve) => setTimeout(resolve, 5));
+ * }
+ * assert.equal(screen.match(/choice \d+/g)!.length, CHOOSE_PAGE_SIZE); // 12 choices, 10 in view
+ * input.write("\r");
+ * assert.equal(await picked, 0);
+ * ```
  */
 export const CHOOSE_PAGE_SIZE = 10;
 
@@ -77,6 +98,24 @@ export interface PromptStreams {
  *
  * @param clearPromptOnDone Whether answered prompts are erased (on a real
  * terminal they stay, so the screen keeps the record of choices).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { PassThrough } from "node:stream";
+ * import { makeStyle } from "../render/style.ts";
+ * import { streamFlowIO } from "./flow_io.ts";
+ * const input = new PassThrough();
+ * const output = new PassThrough();
+ * let screen = "";
+ * output.on("data", (chunk) => (screen += chunk));
+ * const io = streamFlowIO({ input, output }, { style: makeStyle(false), width: 80, ascii: true });
+ * io.say("Hello\x07"); // a control character from the data is shown, not sent
+ * const named = io.ask("Name of this scenario:", { default: "scenario 1" });
+ * input.write("\r"); // enter: the default
+ * assert.equal(await named, "scenario 1");
+ * assert(screen.startsWith("Hello\\x07\n? Name of this scenario: (scenario 1)"));
+ * ```
  */
 export function streamFlowIO(
   streams: PromptStreams,

@@ -45,6 +45,19 @@ export interface GapCandidate {
 /**
  * The protected columns of a table the gap check can compare: columns of
  * at least two named groups that the model does not use.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { gapCandidates } from "./gap_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const [gender, ...others] = gapCandidates(model, table);
+ * assert.deepEqual(others, []);
+ * assert.equal(gender.name, "gender");
+ * assert.equal(gender.groups.reduce((n, g) => n + g.people, 0), 120);
+ * ```
  */
 export function gapCandidates(model: Model, table: Table): GapCandidate[] {
   if (model.target.kind !== "regression") return [];
@@ -64,6 +77,29 @@ export function gapCandidates(model: Model, table: Table): GapCandidate[] {
 /**
  * Offers the gap check; returns its report when one was shown (for the
  * session report), else null. A problem is said, and the flow goes on.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { Choice, FlowIO } from "./flow_io.ts";
+ * import { offerGapCheck } from "./gap_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * // A flow I/O that takes each question's default: here "No" (the check itself,
+ * // 200 trees twice, is shown by paygrove gap's example with fewer trees).
+ * const offered: Choice<unknown>[][] = [];
+ * const io: FlowIO = {
+ *   say: () => {}, style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (_m, choices, d) => (offered.push(choices), Promise.resolve(d ?? choices[0].value)),
+ *   tick: () => Promise.resolve([]),
+ *   ask: () => Promise.resolve(""),
+ * };
+ * const report = await offerGapCheck(io, model, { table, path: "pay.csv" }, { currency: "EUR" });
+ * assert.equal(report, null);
+ * assert.deepEqual(offered[0].map((c) => c.name), ["Yes, by gender", "No, go on to a profile"]);
+ * ```
  */
 export async function offerGapCheck(
   io: FlowIO,

@@ -48,7 +48,20 @@ export interface FlowOptions {
   read?: ReadOverrides;
 }
 
-/** How the demo table is read: its pay is in EUR a year. */
+/**
+ * How the demo table is read: its pay is in EUR a year.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, loadTable } from "../../mod.ts";
+ * import { DEMO_READ } from "./guided_flow.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 5, seed: 1 }), DEMO_READ);
+ * const pay = table.columns.find((c) => c.name === "base_pay_eur")!;
+ * assert(pay.type === "numeric");
+ * assert.deepEqual(pay.money, { currency: "EUR", period: "year" });
+ * ```
+ */
 export const DEMO_READ: LoadTableOptions = {
   currency: "EUR",
   periods: { base_pay_eur: "year" },
@@ -63,7 +76,41 @@ export type SessionOptions = FlowOptions & {
   written: Set<string>;
 };
 
-/** Runs the flow until the person quits. */
+/**
+ * Runs the flow until the person quits.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { guidedFlow } from "./guided_flow.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const path = `${Deno.makeTempDirSync()}/m.json`;
+ * await writeModelFile(path, model);
+ * // A person who opens the saved model, takes the typical person and quits.
+ * const answers: Record<string, unknown> = {
+ *   "What do you want to work with?": "model",
+ *   "Start the profile from": "typical",
+ *   "What next?": "quit",
+ * };
+ * const said: string[] = [];
+ * const io: FlowIO = {
+ *   say: (text) => void said.push(text), style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (message) => Promise.resolve(answers[message] as never),
+ *   tick: () => Promise.resolve([]),
+ *   ask: () => Promise.resolve(path), // "Path of the model file:"
+ * };
+ * await guidedFlow(io, { demoPath: "" });
+ * const screen = said.join("\n");
+ * assert.match(screen, /Loaded .*m\.json: base_pay_eur, 120 people\./);
+ * assert.match(screen, /Estimate of base_pay_eur: €[\d,]+ \(median pay of people like this\)/);
+ * assert(said.at(-1)!.startsWith("Done."));
+ * Deno.removeSync(path);
+ * ```
+ */
 export async function guidedFlow(io: FlowIO, options: FlowOptions): Promise<void> {
   const { style } = io;
   io.say(

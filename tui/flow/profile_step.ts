@@ -39,7 +39,40 @@ export function promotionFeature(model: Model): number {
   return (named ?? ordinals[0])?.i ?? -1;
 }
 
-/** Asks how to start the profile, and builds it. */
+/**
+ * Asks how to start the profile, and builds it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, describeProfile, fitModel, loadTable, typicalProfile,
+ * } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { buildProfile } from "./profile_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * // Step through every attribute: level G5, 12 years of experience, the rest as typical.
+ * const io: FlowIO = {
+ *   say: () => {}, style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (message, choices, d) =>
+ *     Promise.resolve(
+ *       (message === "Start the profile from" ? "step" : message.startsWith("level") ? "G5" : d ??
+ *         choices[0].value) as never,
+ *     ),
+ *   tick: () => Promise.resolve([]),
+ *   ask: (message, o) =>
+ *     Promise.resolve(message.startsWith("years_experience") ? "12" : o!.default!),
+ * };
+ * const { profile } = await buildProfile(io, model, null);
+ * const typical = describeProfile(model, typicalProfile(model));
+ * const built = describeProfile(model, profile);
+ * assert.equal(built.level, "G5");
+ * assert.equal(built.years_experience, 12);
+ * assert.deepEqual([built.site, built.job_family], [typical.site, typical.job_family]);
+ * ```
+ */
 export async function buildProfile(
   io: FlowIO,
   model: Model,
@@ -82,7 +115,35 @@ export async function buildProfile(
   return { profile };
 }
 
-/** Asks which attribute to change and its new value; returns `name=value`. */
+/**
+ * Asks which attribute to change and its new value; returns `name=value`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, fitModel, loadTable, offeredLevers, typicalProfile,
+ * } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { editOne } from "./profile_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * let offered: unknown[] = [];
+ * const io: FlowIO = {
+ *   say: () => {}, style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (message, choices) => {
+ *     if (message !== "Change which attribute?") return Promise.resolve("Eastgate" as never);
+ *     offered = choices.map((c) => c.value);
+ *     return Promise.resolve(model.features.findIndex((f) => f.name === "site") as never);
+ *   },
+ *   tick: () => Promise.resolve([]),
+ *   ask: () => Promise.resolve(""),
+ * };
+ * assert.equal(await editOne(io, model, typicalProfile(model)), "site=Eastgate");
+ * assert.deepEqual(offered, offeredLevers(model));
+ * ```
+ */
 export async function editOne(io: FlowIO, model: Model, profile: Profile): Promise<string> {
   const shown = describeProfile(model, profile);
   const f = await io.choose(
@@ -95,7 +156,31 @@ export async function editOne(io: FlowIO, model: Model, profile: Profile): Promi
   return `${model.features[f].name}=${await askValue(io, model, profile, f)}`;
 }
 
-/** Asks a value with the prompt that fits the attribute; the current value is the default. */
+/**
+ * Asks a value with the prompt that fits the attribute; the current value is the default.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, typicalProfile } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { askValue } from "./profile_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * let check: ((text: string) => string | true) | undefined;
+ * const io: FlowIO = {
+ *   say: () => {}, style: makeStyle(false), width: 80, ascii: false,
+ *   choose: () => Promise.resolve("" as never),
+ *   tick: () => Promise.resolve([]),
+ *   ask: (_message, o) => ((check = o!.validate), Promise.resolve(" 7.5 ")),
+ * };
+ * const years = model.features.findIndex((f) => f.name === "years_experience");
+ * assert.equal(await askValue(io, model, typicalProfile(model), years), "7.5");
+ * assert.equal(check!("na"), true); // not known
+ * assert.match(String(check!("seven")), /^Type a number such as /);
+ * ```
+ */
 export async function askValue(
   io: FlowIO,
   model: Model,

@@ -30,8 +30,21 @@ const CAUTION = "These figures describe what the current pay structure does, not
  * {@linkcode forMarkdown}, shown as typed and never as markup.
  *
  * @example
- * ```ts ignore
- * const text = reportMarkdown(model, [{ name: "offer", answer }], []);
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { formatPay } from "../render/numbers.ts";
+ * import { reportMarkdown } from "./report.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const answer = estimateProfile(openModel(model), typicalProfile(model));
+ * const lines = reportMarkdown(model, [{ name: "<b>offer</b>", answer }]).split("\n");
+ * assert.equal(lines[0], "# paygrove report: base_pay_eur");
+ * // The typed name is shown as typed, never as HTML.
+ * const row = lines.find((l) => l.startsWith("| &lt;b&gt;offer&lt;/b&gt; |"))!;
+ * assert(row.includes(`| ${formatPay(answer.estimate, { currency: "EUR" })} |`));
  * ```
  */
 export function reportMarkdown(
@@ -92,7 +105,35 @@ export function reportMarkdown(
   return lines.join("\n");
 }
 
-/** The report as a JSON document. */
+/**
+ * The report as a JSON document.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   applyChanges, compareAnswer, demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel,
+ *   typicalProfile,
+ * } from "../../mod.ts";
+ * import { reportJson } from "./report.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const session = openModel(model);
+ * const typical = typicalProfile(model);
+ * const answer = estimateProfile(session, typical);
+ * const promotion = applyChanges(model, typical, ["level=+1"]).profile;
+ * const promoted = compareAnswer(session, typical, promotion);
+ * const doc = reportJson(model, [{ name: "typical", answer }], [promoted]) as {
+ *   scenarios: { name: string; estimate: number }[];
+ *   whatIfs: { base: number; changed: number }[];
+ * };
+ * assert.deepEqual(doc.scenarios.map((s) => [s.name, s.estimate]), [["typical", answer.estimate]]);
+ * assert.deepEqual(doc.whatIfs, [{
+ *   changes: promoted.changes, base: promoted.base.estimate, changed: promoted.changed.estimate,
+ *   difference: promoted.difference,
+ * }]);
+ * ```
+ */
 export function reportJson(
   model: Model,
   scenarios: Scenario[],

@@ -23,7 +23,37 @@ import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 import { leftOutJson, leftOutSentence } from "../data_check.ts";
 import type { SessionOptions } from "./guided_flow.ts";
 
-/** Asks where to save the model and the report, and writes them (never over a file unasked). */
+/**
+ * Asks where to save the model and the report, and writes them (never over a file unasked).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, readModelFile, typicalProfile,
+ * } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { save } from "./save_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const answer = estimateProfile(openModel(model), typicalProfile(model));
+ * const dir = Deno.makeTempDirSync();
+ * const io: FlowIO = {
+ *   say: () => {}, style: makeStyle(false), width: 80, ascii: false,
+ *   choose: () => Promise.resolve(false as never), // never asked: nothing is there yet
+ *   tick: () => Promise.resolve([]),
+ *   ask: (message) =>
+ *     Promise.resolve(message === "Save the model as:" ? `${dir}/m.json` : `${dir}/r.md`),
+ * };
+ * const options = { demoPath: "", gap: null, leftOut: null, written: new Set<string>() };
+ * await save(io, model, [{ name: "current", answer }], [], options);
+ * assert.equal((await readModelFile(`${dir}/m.json`)).rows.used, 120);
+ * assert.equal(JSON.parse(Deno.readTextFileSync(`${dir}/r.json`)).scenarios[0].name, "current");
+ * assert.deepEqual([...options.written], [`${dir}/r.md`]);
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
 export async function save(
   io: FlowIO,
   model: Model,
@@ -100,7 +130,33 @@ export function reportJsonPath(path: string): string {
   return path.replace(/\.md$/, "") + ".json";
 }
 
-/** Writes the session report (Markdown, and JSON beside it) and says where. */
+/**
+ * Writes the session report (Markdown, and JSON beside it) and says where.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { reportMarkdown } from "./report.ts";
+ * import { writeReport } from "./save_step.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const answer = estimateProfile(openModel(model), typicalProfile(model));
+ * const scenarios = [{ name: "current", answer }];
+ * const said: string[] = [];
+ * const io = { say: (text: string) => void said.push(text), style: makeStyle(false) } as FlowIO;
+ * const dir = Deno.makeTempDirSync();
+ * await writeReport(io, model, scenarios, [], `${dir}/r.md`, null, null, false);
+ * assert.equal(Deno.readTextFileSync(`${dir}/r.md`), reportMarkdown(model, scenarios));
+ * assert.deepEqual(JSON.parse(Deno.readTextFileSync(`${dir}/r.json`)).leftOutImplausible, []);
+ * assert.deepEqual(said, [`Wrote the report to ${dir}/r.md and ${dir}/r.json.`]);
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
 export async function writeReport(
   io: FlowIO,
   model: Model,

@@ -13,6 +13,36 @@ import type { Scenario } from "./report.ts";
 /**
  * The scenarios kept, side by side: the attributes that differ, then the
  * figures (the last four scenarios; a list when the table is too wide).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   applySets, demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { formatPay } from "../render/numbers.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { renderScenarios } from "./scenarios_view.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const session = openModel(model);
+ * const typical = typicalProfile(model);
+ * const senior = applySets(model, typical, ["level=G6"]).profile;
+ * const scenarios = [
+ *   { name: "typical", answer: estimateProfile(session, typical) },
+ *   { name: "senior", answer: estimateProfile(session, senior) },
+ * ];
+ * const io = { style: makeStyle(false, true), width: 80 } as FlowIO;
+ * const money = { currency: "EUR" };
+ * const lines = renderScenarios(scenarios, money, io);
+ * // Only the attribute that differs is listed, then the figures.
+ * const level = lines.find((l) => l.includes(" level "))!;
+ * assert.match(level, /G6/);
+ * assert(!lines.some((l) => l.includes(" site ")));
+ * const estimate = lines.find((l) => l.includes(" estimate "))!;
+ * assert(estimate.includes(formatPay(scenarios[1].answer.estimate, money)));
+ * ```
  */
 export function renderScenarios(scenarios: Scenario[], money: NumberStyle, io: FlowIO): string[] {
   if (scenarios.length === 0) {

@@ -16,7 +16,18 @@ import { guidedFlow } from "./guided_flow.ts";
 import { reportJsonPath } from "./save_step.ts";
 import { listenForStop } from "../stop_signals.ts";
 
-/** The committed demo table, relative to this module. */
+/**
+ * The committed demo table, relative to this module.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv } from "../../mod.ts";
+ * import { DEMO_TABLE } from "./start_flow.ts";
+ * // The committed demo table is the generator's default output (fixtures/README.md).
+ * assert.equal(Deno.readTextFileSync(DEMO_TABLE), demoCompanyCsv());
+ * ```
+ */
 export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta.url).pathname;
 
 /**
@@ -24,6 +35,22 @@ export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta
  * (the menu's Quit, or Esc at a question), 130 when they stop it with
  * Ctrl-C (as every command does, and as a shell reports a process ended by
  * SIGINT), 2 without a terminal to talk to.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { startFlow } from "./start_flow.ts";
+ * const terminal = recordingTerminal();
+ * // A report that could not be written is said before any question.
+ * await assert.rejects(startFlow(["--report", "session.txt"], terminal), /should end in \.md/);
+ * // Without a terminal to ask on, it points to the subcommands (not run on a terminal,
+ * // where it would start asking).
+ * if (!Deno.stdin.isTerminal()) {
+ *   assert.equal(await startFlow([], terminal), 2);
+ *   assert.match(terminal.stderr.join(""), /the guided flow needs a terminal/);
+ * }
+ * ```
  */
 export async function startFlow(args: string[], terminal: Terminal): Promise<number> {
   // The reading options apply to a CSV of one's own.

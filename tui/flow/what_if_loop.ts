@@ -52,7 +52,35 @@ export type Next =
   | "save"
   | "quit";
 
-/** The profile, its history, the scenarios kept, until quit. */
+/**
+ * The profile, its history, the scenarios kept, until quit.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, openModel } from "../../mod.ts";
+ * import { makeStyle } from "../render/style.ts";
+ * import type { FlowIO } from "./flow_io.ts";
+ * import { whatIfLoop } from "./what_if_loop.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * // The typical person, promoted once, then quit.
+ * const next = ["promote", "quit"];
+ * const said: string[] = [];
+ * const io: FlowIO = {
+ *   say: (text) => void said.push(text), style: makeStyle(false), width: 80, ascii: false,
+ *   choose: (message, choices) =>
+ *     Promise.resolve((message === "What next?" ? next.shift() : choices[0].value) as never),
+ *   tick: () => Promise.resolve([]),
+ *   ask: () => Promise.resolve(""),
+ * };
+ * const options = { demoPath: "", gap: null, leftOut: null, written: new Set<string>() };
+ * await whatIfLoop(io, openModel(model), null, { currency: "EUR" }, options);
+ * assert(said.some((text) => /^\nWhat-if: level G\d -> G\d\n/.test(text)));
+ * assert(said.at(-1)!.startsWith("Done."));
+ * assert.deepEqual(next, []);
+ * ```
+ */
 export async function whatIfLoop(
   io: FlowIO,
   session: ModelSession,

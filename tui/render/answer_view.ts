@@ -105,7 +105,35 @@ function meanPayLines(
   );
 }
 
-/** The estimate screen. */
+/**
+ * The estimate screen.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { formatPay } from "./numbers.ts";
+ * import { renderEstimate } from "./answer_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const answer = estimateProfile(openModel(model), typicalProfile(model));
+ * const money = { currency: "EUR" };
+ * const lines = renderEstimate(answer, { style: makeStyle(false), width: 200, money });
+ * assert.equal(
+ *   lines[0],
+ *   `Estimate of base_pay_eur (EUR, median pay of people like this): ${
+ *     formatPay(answer.estimate, money)
+ *   }`,
+ * );
+ * const { low, high } = answer.range!;
+ * const range = `${formatPay(low, money)} to ${formatPay(high, money)}`;
+ * assert(lines.some((l) => l.startsWith(`Range for comparable people (90%): ${range}`)));
+ * assert(lines.includes("Decision path of the reference tree"));
+ * ```
+ */
 export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOptions): string[] {
   const { style, money } = options;
   const pay = (x: number) => formatPay(x, money);
@@ -383,6 +411,29 @@ const NO_BORDERS = {
  * The what-if screen: base vs changed, the paired change, the path step that
  * changed. With `maxLines` (the flow's room above its menu), a screen
  * longer than that draws its table without borders, three lines fewer.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   applyChanges, compareAnswer, demoCompanyCsv, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { renderCompare } from "./answer_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const base = typicalProfile(model);
+ * const changed = applyChanges(model, base, ["level=+1"]).profile;
+ * const answer = compareAnswer(openModel(model), base, changed);
+ * const options = { style: makeStyle(false), width: 100, money: { currency: "EUR" } };
+ * const boxed = renderCompare(answer, options);
+ * const [from, to] = [answer.changes[0].from, answer.changes[0].to];
+ * assert.equal(boxed[0], `What-if: level ${from} -> ${to}`);
+ * assert(boxed.some((l) => l.startsWith("Change: +€")));
+ * // Within fewer lines than the boxed table takes, the table loses its borders.
+ * const plain = renderCompare(answer, { ...options, maxLines: boxed.length - 1 });
+ * assert.equal(plain.length, boxed.length - 3);
+ * ```
  */
 export function renderCompare(
   answer: CompareAnswer,
@@ -502,6 +553,30 @@ export interface SweepLayout {
 /**
  * The sweep screen: a line chart of the estimate and both intervals, then a
  * table (or, with `chartLines`, the table, then a chart of that many lines).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, findFeature, fitModel, loadTable, openModel, sweepAnswer, sweepValues,
+ *   typicalProfile,
+ * } from "../../mod.ts";
+ * import { formatPay } from "./numbers.ts";
+ * import { renderSweep } from "./answer_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const level = findFeature(model, "level", "vary");
+ * const answer = sweepAnswer(
+ *   openModel(model), typicalProfile(model), level, sweepValues(model, level),
+ * );
+ * const money = { currency: "EUR" };
+ * const lines = renderSweep(answer, { style: makeStyle(false), width: 80, money });
+ * assert.equal(lines[0], "Estimate as level varies (the rest held at the profile)");
+ * // The table has one row per level, with the estimate the library gives.
+ * const top = lines.find((l) => l.includes(" G7 "))!;
+ * assert(top.includes(formatPay(answer.points.at(-1)!.estimate, money)));
+ * ```
  */
 export function renderSweep(
   answer: SweepAnswer,
@@ -651,6 +726,24 @@ export interface ResultFit {
  * The guided flow's result screen: the same answer as
  * {@linkcode renderEstimate} in about 14 lines, so that it and the next
  * question fit an 80 x 24 terminal.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import {
+ *   demoCompanyCsv, estimateProfile, fitModel, loadTable, openModel, typicalProfile,
+ * } from "../../mod.ts";
+ * import { fitResult, renderResult } from "./answer_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const answer = estimateProfile(openModel(model), typicalProfile(model));
+ * const options = { style: makeStyle(false), width: 80, money: { currency: "EUR" } };
+ * const lines = renderResult(answer, options);
+ * assert.match(lines[0], /^Estimate of base_pay_eur: €[\d,]+ \(median pay of people like/);
+ * assert(lines.some((l) => l.startsWith("  one person, 90% range")));
+ * assert.deepEqual(lines, fitResult(answer, options).lines);
+ * ```
  */
 export function renderResult(answer: EstimateAnswer, options: AnswerViewOptions): string[] {
   return fitResult(answer, options).lines;
@@ -849,7 +942,18 @@ function shortProfile(
     : `the typical person with ${profileText(differs)}`;
 }
 
-/** Steps of a decision path drawn in full; a longer path shows its ends. */
+/**
+ * Steps of a decision path drawn in full; a longer path shows its ends.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { PATH_STEPS_SHOWN, shownSteps } from "./answer_view.ts";
+ * const path = Array.from({ length: PATH_STEPS_SHOWN + 1 }, (_, k) => k);
+ * assert.equal(shownSteps(path.slice(0, PATH_STEPS_SHOWN)).length, 30); // all drawn
+ * assert.deepEqual(shownSteps(path)[15], { step: null, i: 1 }); // one step left out
+ * ```
+ */
 export const PATH_STEPS_SHOWN = 30;
 
 /**

@@ -9,7 +9,20 @@ import { GAP_CAUTIONS, type Provenance, type TableProvenance } from "../../mod.t
 import { forTerminal, jsonText } from "./safe_text.ts";
 import type { Style } from "./style.ts";
 
-/** The usual cautions, wrapped to the width. */
+/**
+ * The usual cautions, wrapped to the width.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { cautionLines } from "./cautions.ts";
+ * import { makeStyle } from "./style.ts";
+ * const lines = cautionLines(makeStyle(false), 60);
+ * assert(lines[0].startsWith("These figures describe what your current pay structure does"));
+ * assert(lines.every((l) => l.length <= 60));
+ * assert.match(lines.join(" "), /Defer to local law, counsel and licensed practice/);
+ * ```
+ */
 export function cautionLines(style: Style, width: number): string[] {
   const text = "These figures describe what your current pay structure does, not what anyone " +
     "should be paid. Protected attributes are kept out of estimates unless you allowed them. " +
@@ -39,6 +52,25 @@ export function provenanceLine(p: Provenance): string {
 /**
  * An answer's screen as printed by the model commands: its lines, then the
  * cautions and the provenance line, wrapped to the terminal.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { cautionLines, withCautions } from "./cautions.ts";
+ * import { makeStyle } from "./style.ts";
+ * const provenance = {
+ *   paygrove: "0.1.0", format: 2, created: "2026-12-02T10:00:00Z",
+ *   table: { file: "pay.csv", sha256: "ab".repeat(32), rows: 10 }, seed: 1,
+ * };
+ * const text = withCautions(["Estimate: €61,000"], provenance, makeStyle(false), 200);
+ * assert.deepEqual(text.split("\n"), [
+ *   "Estimate: €61,000",
+ *   "",
+ *   ...cautionLines(makeStyle(false), 200),
+ *   "paygrove 0.1.0, model format 2, fitted 2026-12-02T10:00:00Z on pay.csv " +
+ *   "(sha256 abababababab...), seed 1",
+ * ]);
+ * ```
  */
 export function withCautions(
   lines: string[],
@@ -61,6 +93,23 @@ export function withCautions(
  * @param json The `--json` document (written with {@linkcode jsonText}).
  * @param render The text lines, drawn only when text is asked for, from
  * documents passed through {@linkcode forTerminal}.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { printAnswer } from "./cautions.ts";
+ * const provenance = {
+ *   paygrove: "0.1.0", format: 2, created: "2026-12-02T10:00:00Z",
+ *   table: { file: "pay.csv", sha256: "ab".repeat(32), rows: 10 }, seed: 1,
+ * };
+ * const json = recordingTerminal();
+ * printAnswer(json, true, provenance, { estimate: 61000 }, () => ["not drawn"]);
+ * assert.deepEqual(JSON.parse(json.stdout.join("")), { estimate: 61000 });
+ * const text = recordingTerminal();
+ * printAnswer(text, false, provenance, { estimate: 61000 }, () => ["Estimate: €61,000"]);
+ * assert.match(text.stdout.join(""), /^Estimate: €61,000\n\nThese figures describe/);
+ * ```
  */
 export function printAnswer(
   terminal: { out(text: string): void; style: Style; width: number },
@@ -98,6 +147,27 @@ export function tableProvenanceLine(p: TableProvenance): string {
  * How `gap` and `review` print: one JSON document with the pay-gap
  * cautions in it, or the rendered lines, the cautions, the provenance line
  * and any lines `after` (e.g. where a report went).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { GAP_CAUTIONS } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { printTableAnswer } from "./cautions.ts";
+ * const table = { file: "pay.csv", sha256: "ab".repeat(32), rows: 10 };
+ * const doc = { provenance: { paygrove: "0.1.0", table, seed: 1 } };
+ * const json = recordingTerminal();
+ * printTableAnswer(json, true, doc, () => []);
+ * assert.equal(JSON.parse(json.stdout.join("")).cautions, GAP_CAUTIONS);
+ * const text = recordingTerminal(1000);
+ * printTableAnswer(text, false, doc, () => ["Pay gap by gender"], ["Report written to r.md."]);
+ * assert.deepEqual(text.stdout.join("").trimEnd().split("\n"), [
+ *   "Pay gap by gender",
+ *   GAP_CAUTIONS,
+ *   "paygrove 0.1.0; pay.csv (sha256 abababababab...); seed 1",
+ *   "Report written to r.md.",
+ * ]);
+ * ```
  */
 export function printTableAnswer(
   terminal: { out(text: string): void; style: Style; width: number },
@@ -124,7 +194,27 @@ export function printTableAnswer(
 // Kept here too for the modules that import it from here.
 export { jsonNumbers } from "./safe_text.ts";
 
-/** The caution printed whenever protected attributes are allowed. */
+/**
+ * The caution printed whenever protected attributes are allowed.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { fitCommand } from "../commands/fit.ts";
+ * import { PROTECTED_CAUTION } from "./cautions.ts";
+ * const dir = Deno.makeTempDirSync();
+ * Deno.writeTextFileSync(`${dir}/pay.csv`, demoCompanyCsv({ rows: 120, seed: 1 }));
+ * const terminal = recordingTerminal();
+ * await fitCommand(terminal).parseAsync([
+ *   `${dir}/pay.csv`, "--target", "base_pay_eur", "--allow-protected", "--trees", "3",
+ *   "--folds", "3", "--workers", "1", "--out", `${dir}/m.json`, "--json",
+ * ], { from: "user" });
+ * assert(terminal.stderr.includes(`${PROTECTED_CAUTION}\n`));
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
 export const PROTECTED_CAUTION = "Caution: --allow-protected lets sex, race, age and other " +
   "protected attributes shape pay estimates. Setting pay on them risks unlawful discrimination; " +
   "use such a model only to study gaps, with counsel.";

@@ -181,6 +181,23 @@ function tableRows(report: GapReport, numbers: NumberStyle): string[][] {
 /**
  * The gap report as terminal lines (without the cautions, which the
  * command adds).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, gapCheck, loadTable } from "../../mod.ts";
+ * import { gapSentence, renderGap } from "./gap_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 3 }), { currency: "EUR" });
+ * const report = await gapCheck(table, {
+ *   target: "base_pay_eur", group: "gender", compare: ["Woman"], trees: 10, workers: 1,
+ * });
+ * const numbers = { currency: "EUR" };
+ * const lines = renderGap(report, { style: makeStyle(false), width: 1000, numbers });
+ * assert.equal(lines[0], "Pay gap by gender: Woman against Man");
+ * assert(!report.overall.suppressed);
+ * assert(lines.includes(gapSentence("Man", report.overall.gaps[0], numbers)));
+ * ```
  */
 export function renderGap(report: GapReport, view: GapView): string[] {
   const { style, width, numbers } = view;
@@ -434,6 +451,24 @@ function quartileNote(privacyMin: number): string {
  * Every text of the report (group, category and factor names, notes, the
  * file name) is written through {@linkcode markdownText}: shown as typed,
  * never as HTML, a link or a table cell break.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, GAP_CAUTIONS, gapCheck, loadTable } from "../../mod.ts";
+ * import { gapMarkdown } from "./gap_view.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 3 }), { currency: "EUR" });
+ * const report = await gapCheck(table, {
+ *   target: "base_pay_eur", group: "gender", compare: ["Woman"], trees: 10, workers: 1,
+ * });
+ * const md = gapMarkdown(report, { currency: "EUR" }, "2026-12-02T10:00:00Z").split("\n");
+ * assert.equal(md[0], "# Pay gap by gender");
+ * assert(md.includes(`> ${GAP_CAUTIONS}`));
+ * assert(!report.overall.suppressed);
+ * const { rows, referenceRows } = report.overall.gaps[0];
+ * assert(md.includes("| category | Woman/Man | raw mean | median | unexplained | flags |"));
+ * assert(md.some((l) => l.startsWith(`| Overall | ${rows}/${referenceRows} |`)));
+ * ```
  */
 export function gapMarkdown(data: GapReport, numbers: NumberStyle, created: string): string {
   const report = forMarkdown(data);

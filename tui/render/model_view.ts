@@ -61,7 +61,24 @@ export function moneyStyle(model: Model, numbers: NumberStyle): NumberStyle {
   };
 }
 
-/** The target's unit and scale in words. */
+/**
+ * The target's unit and scale in words.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { describeTarget } from "./model_view.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const ratio = model.target.center!.meanOverEstimate.toFixed(3);
+ * assert.equal(
+ *   describeTarget(model, {}),
+ *   "base_pay_eur (EUR), fitted on the log scale: estimates are the median pay of people like " +
+ *     `the profile (mean pay is ${ratio} x the estimate)`,
+ * );
+ * ```
+ */
 export function describeTarget(model: Model, numbers: NumberStyle): string {
   if (model.target.kind === "classification") {
     return `${model.target.name} (a class: ${model.target.classes!.join(", ")})`;
@@ -80,6 +97,20 @@ export function describeTarget(model: Model, numbers: NumberStyle): string {
 /**
  * The summary after fitting: rows, features, accuracy side by side,
  * importance as bars, and what the figures mean.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { renderModelSummary } from "./model_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const lines = renderModelSummary(model, { style: makeStyle(false), width: 200, numbers: {} });
+ * assert(lines.includes("Rows: 120 used, 0 left out (missing target)"));
+ * assert(lines.includes("Left out: employee_id (identifier), gender (protected attribute)"));
+ * assert(lines.some((l) => l.startsWith(`Reference tree: ${model.reference.leaves} leaves`)));
+ * ```
  */
 export function renderModelSummary(model: Model, options: ModelViewOptions): string[] {
   const { style } = options;
@@ -123,6 +154,19 @@ export function renderModelSummary(model: Model, options: ModelViewOptions): str
 /**
  * The summary in one sentence for people who do not read RMSE: how far off
  * one person's estimate typically is, and what matters most.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { formatPay } from "./numbers.ts";
+ * import { inShort } from "./model_view.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const rmse = formatPay(model.quality.ensemble!.money!.rmse, { currency: "EUR" });
+ * const sentence = inShort(model, {})!;
+ * assert(sentence.startsWith(`for one person, the estimate is typically off by ${rmse}`));
+ * ```
  */
 export function inShort(model: Model, numbers: NumberStyle): string | null {
   const best = model.quality.ensemble ?? model.quality.reference;
@@ -162,7 +206,24 @@ function pruningLine(model: Model): string {
     ensemble;
 }
 
-/** The accuracy table with one line on what it means. */
+/**
+ * The accuracy table with one line on what it means.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { formatPay } from "./numbers.ts";
+ * import { renderAccuracy } from "./model_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const lines = renderAccuracy(model, { style: makeStyle(false, true), width: 100, numbers: {} });
+ * const row = lines.find((l) => l.includes("ensemble, 3 trees"))!;
+ * assert(row.includes(formatPay(model.quality.ensemble!.money!.rmse, { currency: "EUR" })));
+ * assert(row.includes("out-of-bag"));
+ * ```
+ */
 export function renderAccuracy(model: Model, options: ModelViewOptions): string[] {
   const { style } = options;
   const q = model.quality;
@@ -337,7 +398,24 @@ function lineVerdict(c: LineComparison, currency: string): string {
   }
 }
 
-/** Importance as horizontal bars. */
+/**
+ * Importance as horizontal bars.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { renderImportance } from "./model_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const lines = renderImportance(model, { style: makeStyle(false), width: 120, numbers: {} });
+ * assert.match(lines[0], /^Importance: how much the typical error \(RMSE of log pay\) grows/);
+ * // One bar per attribute, the largest growth first.
+ * assert.equal(lines.length, 1 + model.features.length);
+ * assert(lines[1].startsWith("level "));
+ * ```
+ */
 export function renderImportance(model: Model, options: ModelViewOptions): string[] {
   const { style } = options;
   const permutation = model.importance.some((i) => !Number.isNaN(i.permutation));
@@ -370,6 +448,20 @@ export function renderImportance(model: Model, options: ModelViewOptions): strin
 /**
  * The reference tree as an indented outline: each node's condition, rows
  * and typical pay (hidden below the privacy minimum).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { renderTreeOutline } from "./model_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 120, seed: 1 }), { currency: "EUR" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 3, folds: 3, workers: 1 });
+ * const lines = renderTreeOutline(model, { style: makeStyle(false), width: 80, numbers: {} });
+ * assert.equal(lines.length, model.reference.tree.nodeCount);
+ * assert.match(lines[0], /^all: €[\d,]+ \(120 people\)$/);
+ * assert(lines.filter((l) => l.includes(" -> ")).length === model.reference.leaves);
+ * ```
  */
 export function renderTreeOutline(model: Model, options: ModelViewOptions): string[] {
   const tree = model.reference.tree;
@@ -419,7 +511,38 @@ export function renderTreeOutline(model: Model, options: ModelViewOptions): stri
   return lines;
 }
 
-/** Levels of the outline that are indented; deeper ones carry "(depth N)". */
+/**
+ * Levels of the outline that are indented; deeper ones carry "(depth N)".
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { OUTLINE_INDENT, renderTreeOutline } from "./model_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * // A hand-made chain 18 splits deep on "years" (years <= d + 0.5 goes left, to a leaf).
+ * const splits = 18;
+ * const n = 2 * splits + 1;
+ * const tree = {
+ *   width: 1, nodeCount: n, feature: new Int32Array(n).fill(-1),
+ *   threshold: new Float64Array(n).fill(NaN), left: new Int32Array(n).fill(-1),
+ *   right: new Int32Array(n).fill(-1), value: new Float64Array(n).fill(Math.log(50000)),
+ *   rows: new Int32Array(n).fill(10),
+ * };
+ * for (let d = 0; d < splits; d++) {
+ *   tree.feature[2 * d] = 0;
+ *   tree.threshold[2 * d] = d + 0.5;
+ *   [tree.left[2 * d], tree.right[2 * d]] = [2 * d + 1, 2 * d + 2];
+ * }
+ * const model = {
+ *   reference: { tree }, features: [{ name: "years", kind: "numeric" }],
+ *   settings: { privacyMin: 5 }, target: { kind: "regression", scale: "log" },
+ * } as unknown as import("../../mod.ts").Model;
+ * const lines = renderTreeOutline(model, { style: makeStyle(false), width: 80, numbers: {} });
+ * const indent = " ".repeat(2 * OUTLINE_INDENT);
+ * assert(lines.includes(`${indent}years > 15.5: 50,000 (10 people)`)); // depth 16
+ * assert(lines.includes(`${indent}(depth 17) years <= 16.5 -> 50,000 (10 people)`));
+ * ```
+ */
 export const OUTLINE_INDENT = 16;
 
 /**

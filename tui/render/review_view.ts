@@ -14,7 +14,28 @@ import { fitTable, leftOutNote } from "./fit_table.ts";
 import { csvCell } from "./safe_text.ts";
 import { reviewNoteText } from "./report_notes.ts";
 
-/** How many people under and over range the text output lists. */
+/**
+ * How many people under and over range the text output lists.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { renderReview, REVIEW_LISTED } from "./review_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * // Twelve people under their range.
+ * const people = Array.from({ length: 12 }, (_, i) => ({
+ *   id: `P${i + 1}`, line: i + 2, pay: 40000 + i, estimate: 50000, low: 45000, high: 58000,
+ *   position: -0.4 + i / 100, status: "under" as const, shortfall: 5000 - i,
+ * }));
+ * const review = {
+ *   target: "pay", coverage: 0.9, money: { currency: "EUR" }, features: ["level"],
+ *   people, overall: { suppressed: true }, categories: [], notes: [],
+ * } as unknown as import("../../mod.ts").PayReview;
+ * const lines = renderReview(review, { style: makeStyle(false), width: 80, numbers: {} });
+ * assert.equal(lines.filter((l) => /^P\d+ /.test(l)).length, REVIEW_LISTED);
+ * assert(lines.includes("... and 2 more (--out FILE lists everyone)"));
+ * ```
+ */
 export const REVIEW_LISTED = 10;
 const SHOWN_ID = 40;
 const TOO_FEW = "too few to report";

@@ -56,9 +56,11 @@ export function makeStyle(enabled: boolean, ascii = false): Style {
  * The style for a stream: on only for a terminal, and never with `NO_COLOR`.
  *
  * @example
- * ```ts ignore
+ * ```ts
+ * import assert from "node:assert/strict";
  * import { styleFor } from "./style.ts";
- * const style = styleFor(Deno.stdout);
+ * assert.equal(styleFor({ isTerminal: () => false }).bold("x"), "x");
+ * assert.equal(styleFor({ isTerminal: () => true }).enabled, !Deno.noColor);
  * ```
  */
 export function styleFor(stream: { isTerminal(): boolean }): Style {
