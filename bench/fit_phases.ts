@@ -27,4 +27,6 @@ for (const [stage, [, last]] of Object.entries(marks)) {
 }
 out.rest = (end - previous) / 1000;
 out.total = (end - loaded) / 1000;
-console.log(JSON.stringify({ file, rows: table.rows, trees: model.ensemble?.trees.length, seconds: out }));
+console.log(
+  JSON.stringify({ file, rows: table.rows, trees: model.ensemble?.trees.length, seconds: out }),
+);

@@ -4,7 +4,8 @@
 // cross-validated path. A change that makes the learner faster must leave
 // the trees and the out-of-bag figures exactly as they were; the
 // cross-validated errors may move in their last bits when sums are
-// reordered (compared within 1e-9 relative, tests/fingerprint/).
+// reordered (compared within 1e-9 relative, tests/fingerprint/). After
+// writing the fixture, run `deno fmt tests/fingerprint/`.
 import {
   bootstrapCounts,
   featureImportance,
