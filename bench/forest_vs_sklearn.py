@@ -99,4 +99,5 @@ def main():
                   f"one profile {ours['profileMs'] / theirs['profileMs']:.3f}")
 
 
-main()
+if __name__ == "__main__":
+    main()

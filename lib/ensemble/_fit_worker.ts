@@ -18,7 +18,14 @@ export type ToWorker =
 
 /** Messages from the worker. */
 export type FromWorker =
-  | { kind: "tree"; index: number; tree: FlatTree; alpha: number; oob: Float64Array }
+  | {
+    kind: "tree";
+    index: number;
+    tree: FlatTree;
+    alpha: number;
+    oob: Float64Array;
+    importance?: Float64Array;
+  }
   | { kind: "error"; message: string };
 
 // deno-lint-ignore no-explicit-any
@@ -42,7 +49,7 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
     }
     if (data === undefined) throw new Error("tree requested before data");
     const dataset = datasetOf(data);
-    const { tree, alpha, oob } = fitOneTree(
+    const { tree, alpha, oob, importance } = fitOneTree(
       dataset,
       data.bins,
       data.order,
@@ -51,6 +58,7 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       options,
     );
     const reply: FromWorker = { kind: "tree", index: message.index, tree, alpha, oob };
+    if (importance !== undefined) reply.importance = importance;
     const buffers = [
       tree.feature,
       tree.threshold,
@@ -63,6 +71,7 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       tree.weight,
       tree.impurity,
       oob,
+      ...(importance === undefined ? [] : [importance]),
     ].map((a) => a.buffer);
     scope.postMessage(reply, buffers);
   } catch (error) {

@@ -15,7 +15,7 @@ import { type CrossValidatedTree, crossValidateTree } from "../tree/cross_valida
 import type { GrowOptions } from "../tree/grow_tree.ts";
 import type { CrossValidateOptions } from "../tree/cross_validate.ts";
 import { DEFAULT_PRUNING } from "./defaults.ts";
-import type { Ensemble } from "./fit_ensemble.ts";
+import type { Ensemble, EnsembleOptions } from "./fit_ensemble.ts";
 import { fitEnsembleParallel } from "./fit_parallel.ts";
 
 /** Options of {@linkcode fitDefaultEnsemble}. */
@@ -68,6 +68,8 @@ export interface DefaultEnsembleOptions {
   onProgress?: (done: number, total: number) => void;
   /** Called as folds are done. */
   onCrossValidation?: (done: number, total: number) => void;
+  /** Measure permutation importance as the trees are fitted (see `EnsembleOptions.importance`). */
+  importance?: EnsembleOptions["importance"];
 }
 
 /** The reference tree, the alpha the trees were pruned at, and the ensemble. */
@@ -131,6 +133,7 @@ export async function fitDefaultEnsemble(
     grow: options.grow,
     workers: options.workers,
     onProgress: options.onProgress,
+    importance: options.importance,
   }, bins);
   return { reference, alpha, ensemble, folds };
 }

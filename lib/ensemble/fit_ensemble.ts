@@ -21,6 +21,7 @@ import {
   subtreeAfter,
 } from "../tree/prune.ts";
 import { bootstrapCounts, resampleStates } from "./bootstrap.ts";
+import { importanceRng, treeImportanceIncrease } from "./importance.ts";
 
 /**
  * How each tree is pruned: at one alpha for all (`"alpha"`, e.g. the one the
@@ -53,6 +54,12 @@ export interface EnsembleOptions {
   alpha?: number;
   /** Called after each tree with the number done and the total. */
   onProgress?: (done: number, total: number) => void;
+  /**
+   * Measure each tree's part of permutation importance as it is fitted
+   * (regression; see `featureImportance`), with these shuffles per feature
+   * and this seed.
+   */
+  importance?: { repeats: number; seed: number };
 }
 
 /** A fitted ensemble with its out-of-bag predictions. */
@@ -76,6 +83,11 @@ export interface Ensemble {
   oob: Float64Array;
   /** How many trees each row was out of bag for. */
   oobTrees: Int32Array;
+  /**
+   * With the `importance` option: each tree's part of permutation
+   * importance (`treeImportanceIncrease`), in tree order.
+   */
+  importance?: { repeats: number; seed: number; parts: Float64Array[] };
 }
 
 /**
@@ -108,14 +120,16 @@ export function fitEnsemble(
   const trees: FlatTree[] = [];
   const alphas = new Float64Array(count);
   const oobValues: Float64Array[] = [];
+  const parts: Float64Array[] = [];
   for (let b = 0; b < count; b++) {
     const fitted = fitOneTree(dataset, bins, order, states, b, options);
     trees.push(fitted.tree);
     alphas[b] = fitted.alpha;
     oobValues.push(fitted.oob);
+    if (fitted.importance !== undefined) parts.push(fitted.importance);
     options.onProgress?.(b + 1, count);
   }
-  return assembleEnsemble(dataset, trees, alphas, oobValues, states);
+  return assembleEnsemble(dataset, trees, alphas, oobValues, states, importanceOf(options, parts));
 }
 
 /**
@@ -191,7 +205,7 @@ export function fitOneTree(
   states: Int32Array,
   index: number,
   options: EnsembleOptions,
-): { tree: FlatTree; alpha: number; oob: Float64Array } {
+): { tree: FlatTree; alpha: number; oob: Float64Array; importance?: Float64Array } {
   const mode = options.prune ?? "alpha";
   const weights = bootstrapCounts(dataset.rows, states, index);
   const grown = growTree({ dataset, bins, weights, order }, options.grow);
@@ -214,7 +228,38 @@ export function fitOneTree(
     const leaf = applyRow(tree, dataset.features, r);
     for (let c = 0; c < width; c++) oob[r * width + c] = tree.value[leaf * width + c];
   }
-  return { tree, alpha, oob };
+  const wanted = options.importance;
+  if (wanted === undefined || dataset.target.kind !== "regression") return { tree, alpha, oob };
+  const importance = treeImportanceIncrease(
+    tree,
+    dataset,
+    weights,
+    wanted.repeats,
+    importanceRng(wanted.seed, index),
+  );
+  return { tree, alpha, oob, importance };
+}
+
+/**
+ * The importance parts of an ensemble's trees with their settings, when
+ * they were measured (all trees' parts, in tree order).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { importanceOf } from "./fit_ensemble.ts";
+ * const parts = [Float64Array.of(1), Float64Array.of(2)];
+ * assert.deepEqual(importanceOf({ importance: { repeats: 1, seed: 3 } }, parts), { repeats: 1, seed: 3, parts });
+ * assert.equal(importanceOf({}, []), undefined);
+ * ```
+ */
+export function importanceOf(
+  options: EnsembleOptions,
+  parts: Float64Array[],
+): Ensemble["importance"] {
+  const wanted = options.importance;
+  if (wanted === undefined || parts.length === 0) return undefined;
+  return { repeats: wanted.repeats, seed: wanted.seed, parts };
 }
 
 /**
@@ -250,6 +295,7 @@ export function assembleEnsemble(
   alphas: Float64Array,
   oobValues: Float64Array[],
   resamples: Int32Array,
+  importance?: Ensemble["importance"],
 ): Ensemble {
   const width = dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
   const oobSum = new Float64Array(dataset.rows * width);
@@ -268,7 +314,9 @@ export function assembleEnsemble(
       oob[r * width + c] = oobTrees[r] > 0 ? oobSum[r * width + c] / oobTrees[r] : NaN;
     }
   }
-  return { trees, resamples, alphas, width, oob, oobTrees };
+  const ensemble: Ensemble = { trees, resamples, alphas, width, oob, oobTrees };
+  if (importance !== undefined) ensemble.importance = importance;
+  return ensemble;
 }
 
 // The alpha of the tree's own path whose subtree has the lowest error on the

@@ -19,6 +19,7 @@ import {
   type Ensemble,
   type EnsembleOptions,
   fitEnsemble,
+  importanceOf,
 } from "./fit_ensemble.ts";
 
 /** Options of {@linkcode fitEnsembleParallel}. */
@@ -69,6 +70,7 @@ export async function fitEnsembleParallel(
   const trees: FlatTree[] = new Array(count);
   const alphas = new Float64Array(count);
   const oobValues: Float64Array[] = new Array(count);
+  const parts: Float64Array[] = [];
   let next = 0;
   let done = 0;
   const pool: Worker[] = [];
@@ -97,6 +99,7 @@ export async function fitEnsembleParallel(
           trees[reply.index] = reply.tree;
           alphas[reply.index] = reply.alpha;
           oobValues[reply.index] = reply.oob;
+          if (reply.importance !== undefined) parts[reply.index] = reply.importance;
           done++;
           onProgress?.(done, count);
           if (done === count) resolve();
@@ -110,5 +113,12 @@ export async function fitEnsembleParallel(
   } finally {
     for (const worker of pool) worker.terminate();
   }
-  return assembleEnsemble(dataset, trees, alphas, oobValues, states);
+  return assembleEnsemble(
+    dataset,
+    trees,
+    alphas,
+    oobValues,
+    states,
+    importanceOf(options, parts),
+  );
 }

@@ -12,8 +12,10 @@
  */
 
 import type { Dataset } from "../dataset/types.ts";
-import { makeRng, shuffle } from "../random.ts";
-import { goesLeft } from "../tree/flat_tree.ts";
+import { createHash } from "node:crypto";
+import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
+import { type Rng, shuffle } from "../random.ts";
+import { type FlatTree, goesLeft } from "../tree/flat_tree.ts";
 import { bootstrapCounts } from "./bootstrap.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 
@@ -44,8 +46,192 @@ export interface ImportanceOptions {
 }
 
 /**
+ * Each tree's own random generator for its shuffles, from the seed and the
+ * tree's number (SHA-256 keyed, as the resamples are): a tree's shuffles do
+ * not depend on which thread handles it, nor on the trees before it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { importanceRng } from "./importance.ts";
+ * const draw = (seed: number, tree: number) => importanceRng(seed, tree).next();
+ * assert.equal(draw(1, 3), draw(1, 3));
+ * assert.notEqual(draw(1, 3), draw(1, 4));
+ * assert.notEqual(draw(1, 3), draw(2, 3));
+ * ```
+ */
+export function importanceRng(seed: number, tree: number): Rng {
+  const index = new Uint8Array(8);
+  new DataView(index.buffer).setInt32(0, seed, true);
+  new DataView(index.buffer).setUint32(4, tree, true);
+  const digest = createHash("sha256").update("paygrove importance shuffles 1\u0000").update(
+    index,
+  ).digest();
+  const words: number[] = Array.from(new Int32Array(digest.buffer, digest.byteOffset, 4));
+  // xoroshiro128+ is stuck at an all-zero state (probability 2^-128).
+  if (!words.some((w) => w !== 0)) words[0] = 1;
+  return xoroshiro128plusFromState(words);
+}
+
+/**
+ * One tree's part of permutation importance: for each feature and repeat
+ * (`f * repeats + k`), the increase of the tree's mean squared error on the
+ * rows it did not draw when the feature's values are shuffled among those
+ * rows. Exactly 0 for a feature the tree never splits on, and for a tree
+ * that drew every row.
+ *
+ * @param counts How often the tree drew each row (0: out of bag).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { growTree } from "../tree/grow_tree.ts";
+ * import { importanceRng, treeImportanceIncrease } from "./importance.ts";
+ * const dataset = {
+ *   rows: 8,
+ *   features: [
+ *     { name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4, 5, 6, 7, 8) },
+ *     { name: "z", kind: "numeric" as const, values: Float64Array.of(0, 0, 0, 0, 0, 0, 0, 0) },
+ *   ],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(1, 1, 1, 1, 5, 5, 5, 5) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
+ * // The tree learned from every row; rows 0 and 7 are scored as if out of bag.
+ * const counts = Float64Array.of(0, 1, 1, 1, 1, 1, 1, 0);
+ * const part = treeImportanceIncrease(tree, dataset, counts, 2, importanceRng(1, 0));
+ * // Swapping rows 0 and 7's x makes both wrong by 4: MSE 0 -> 16; keeping them, 0.
+ * assert(part[0] === 0 || part[0] === 16);
+ * assert.deepEqual([part[2], part[3]], [0, 0]); // z is never split on
+ * ```
+ */
+export function treeImportanceIncrease(
+  tree: FlatTree,
+  dataset: Dataset,
+  counts: ArrayLike<number>,
+  repeats: number,
+  rng: Rng,
+): Float64Array {
+  const features = dataset.features.length;
+  const out = new Float64Array(features * repeats);
+  const y = dataset.target.values;
+  const columns = dataset.features.map((f) => f.values);
+  const oob: number[] = [];
+  for (let r = 0; r < dataset.rows; r++) if (counts[r] === 0) oob.push(r);
+  if (oob.length === 0) return out;
+  const used = new Uint8Array(features);
+  for (let n = 0; n < tree.nodeCount; n++) if (tree.feature[n] >= 0) used[tree.feature[n]] = 1;
+  // Each out-of-bag row's squared error and, per feature, the first node
+  // of its path that tests the feature (-1: none). A shuffled feature
+  // changes nothing above that node, so a re-walk starts there, and a row
+  // whose path never tests it keeps its error: the same sums, in the same
+  // order, as walking every row from the root.
+  const n = oob.length;
+  const baseSq = new Float64Array(n);
+  const firstNode = new Int32Array(n * features).fill(-1);
+  for (let i = 0; i < n; i++) {
+    const r = oob[i];
+    let node = 0;
+    while (tree.left[node] !== -1) {
+      const g = tree.feature[node];
+      if (firstNode[i * features + g] === -1) firstNode[i * features + g] = node;
+      node = goesLeft(tree, node, columns[g][r]) ? tree.left[node] : tree.right[node];
+    }
+    const e = y[r] - tree.value[node];
+    baseSq[i] = e * e;
+  }
+  let baseSse = 0;
+  for (let i = 0; i < n; i++) baseSse += baseSq[i];
+  const base = baseSse / n;
+  const donor = new Int32Array(n);
+  for (let f = 0; f < features; f++) {
+    for (let k = 0; k < repeats; k++) {
+      // Shuffled even when unused, so every feature's draws stay the same
+      // whichever features a tree happens to use.
+      for (let i = 0; i < n; i++) donor[i] = oob[i];
+      shuffle(donor, rng);
+      // A feature the tree never splits on changes no prediction: 0 exactly.
+      if (used[f] === 0) continue;
+      let sse = 0;
+      for (let i = 0; i < n; i++) {
+        let node = firstNode[i * features + f];
+        if (node === -1) {
+          sse += baseSq[i];
+          continue;
+        }
+        const r = oob[i];
+        const d = donor[i];
+        while (tree.left[node] !== -1) {
+          const g = tree.feature[node];
+          const x = g === f ? columns[g][d] : columns[g][r];
+          node = goesLeft(tree, node, x) ? tree.left[node] : tree.right[node];
+        }
+        const e = y[r] - tree.value[node];
+        sse += e * e;
+      }
+      out[f * repeats + k] = sse / n - base;
+    }
+  }
+  return out;
+}
+
+/**
+ * Permutation and impurity importance of every feature from the trees'
+ * parts ({@linkcode treeImportanceIncrease}), averaged in tree order so the
+ * result does not depend on which thread computed which part.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { importanceFromParts } from "./importance.ts";
+ * const dataset = {
+ *   rows: 2,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(1, 2) },
+ * };
+ * // Two trees without splits (impurity 0), parts of two repeats each.
+ * const leaf = { nodeCount: 1, left: Int32Array.of(-1) };
+ * const [x] = importanceFromParts([Float64Array.of(2, 4), Float64Array.of(4, 6)], { trees: [leaf, leaf] as never }, dataset, 2);
+ * assert.equal(x.permutation, 4); // repeat means 3 and 5
+ * assert.equal(x.permutationSd, Math.SQRT2);
+ * ```
+ */
+export function importanceFromParts(
+  parts: readonly Float64Array[],
+  ensemble: Pick<Ensemble, "trees">,
+  dataset: Dataset,
+  repeats: number,
+): FeatureImportance[] {
+  const features = dataset.features.length;
+  const trees = ensemble.trees.length;
+  const increases = Array.from({ length: features }, () => new Float64Array(repeats));
+  for (const part of parts) {
+    for (let f = 0; f < features; f++) {
+      for (let k = 0; k < repeats; k++) increases[f][k] += part[f * repeats + k] / trees;
+    }
+  }
+  const decrease = impurityDecrease(ensemble, features);
+  const total = decrease.reduce((a, b) => a + b, 0);
+  return dataset.features.map((feature, f) => {
+    const values = increases[f];
+    const mean = values.reduce((a, b) => a + b, 0) / repeats;
+    const sd = repeats > 1
+      ? Math.sqrt(values.reduce((a, v) => a + (v - mean) ** 2, 0) / (repeats - 1))
+      : 0;
+    return {
+      feature: feature.name,
+      permutation: mean,
+      permutationSd: sd,
+      impurity: total > 0 ? decrease[f] / total : 0,
+    };
+  });
+}
+
+/**
  * Permutation and impurity importance of every feature (regression
- * ensembles), in feature order.
+ * ensembles), in feature order: each tree's part with its own generator
+ * ({@linkcode importanceRng}), averaged in tree order. An ensemble fitted
+ * with the `importance` option carries its parts already.
  *
  * @example
  * ```ts
@@ -64,6 +250,11 @@ export interface ImportanceOptions {
  * const ensemble = fitEnsemble(dataset, { trees: 20, prune: "none", grow: { minLeaf: 3 } });
  * const [years_, noise_] = featureImportance(ensemble, dataset);
  * assert(years_.permutation > 10 * Math.abs(noise_.permutation));
+ * // Fitted with the parts: the same figures.
+ * const withParts = fitEnsemble(dataset, {
+ *   trees: 20, prune: "none", grow: { minLeaf: 3 }, importance: { repeats: 3, seed: 1 },
+ * });
+ * assert.deepEqual(featureImportance(withParts, dataset), featureImportance(ensemble, dataset));
  * ```
  */
 export function featureImportance(
@@ -75,63 +266,21 @@ export function featureImportance(
     throw new TypeError("featureImportance needs a regression ensemble");
   }
   const repeats = options.repeats ?? 3;
-  const rng = makeRng(options.seed ?? 1);
-  const y = dataset.target.values;
-  const features = dataset.features.length;
-  const increases = Array.from({ length: features }, () => new Float64Array(repeats));
-  const columns = dataset.features.map((f) => f.values);
-  for (let b = 0; b < ensemble.trees.length; b++) {
-    const tree = ensemble.trees[b];
-    const counts = bootstrapCounts(dataset.rows, ensemble.resamples, b);
-    const oob: number[] = [];
-    for (let r = 0; r < dataset.rows; r++) if (counts[r] === 0) oob.push(r);
-    if (oob.length === 0) continue;
-    const used = new Uint8Array(features);
-    for (let n = 0; n < tree.nodeCount; n++) if (tree.feature[n] >= 0) used[tree.feature[n]] = 1;
-    // Walks row r with feature f read from the donor row instead (no copy).
-    const errorWith = (f: number, donor: number[] | undefined) => {
-      let sse = 0;
-      for (let i = 0; i < oob.length; i++) {
-        const r = oob[i];
-        const d = donor === undefined ? -1 : donor[i];
-        let node = 0;
-        while (tree.left[node] !== -1) {
-          const g = tree.feature[node];
-          const x = g === f && d >= 0 ? columns[g][d] : columns[g][r];
-          node = goesLeft(tree, node, x) ? tree.left[node] : tree.right[node];
-        }
-        const e = y[r] - tree.value[node];
-        sse += e * e;
-      }
-      return sse / oob.length;
-    };
-    const base = errorWith(-1, undefined);
-    for (let f = 0; f < features; f++) {
-      for (let k = 0; k < repeats; k++) {
-        // Shuffled even when unused, so every feature's draws stay the same
-        // whichever features a tree happens to use.
-        const donor = shuffle(oob.slice(), rng);
-        // A feature the tree never splits on changes no prediction: 0 exactly.
-        if (used[f] === 0) continue;
-        increases[f][k] += (errorWith(f, donor) - base) / ensemble.trees.length;
-      }
-    }
+  const seed = options.seed ?? 1;
+  const fitted = ensemble.importance;
+  if (fitted !== undefined && fitted.repeats === repeats && fitted.seed === seed) {
+    return importanceFromParts(fitted.parts, ensemble, dataset, repeats);
   }
-  const decrease = impurityDecrease(ensemble, features);
-  const total = decrease.reduce((a, b) => a + b, 0);
-  return dataset.features.map((feature, f) => {
-    const values = increases[f];
-    const mean = values.reduce((a, b) => a + b, 0) / repeats;
-    const sd = repeats > 1
-      ? Math.sqrt(values.reduce((a, v) => a + (v - mean) ** 2, 0) / (repeats - 1))
-      : 0;
-    return {
-      feature: feature.name,
-      permutation: mean,
-      permutationSd: sd,
-      impurity: total > 0 ? decrease[f] / total : 0,
-    };
-  });
+  const parts = ensemble.trees.map((tree, b) =>
+    treeImportanceIncrease(
+      tree,
+      dataset,
+      bootstrapCounts(dataset.rows, ensemble.resamples, b),
+      repeats,
+      importanceRng(seed, b),
+    )
+  );
+  return importanceFromParts(parts, ensemble, dataset, repeats);
 }
 
 /**

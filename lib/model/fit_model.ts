@@ -180,6 +180,8 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       ]
       : [],
     workers: options.workers,
+    // Each tree's part of permutation importance, measured where it is fitted.
+    importance: regression ? { repeats: IMPORTANCE_REPEATS, seed } : undefined,
     onCrossValidation: (done, total) => options.onProgress?.("cross-validation", done, total),
     onProgress: (done, total) => options.onProgress?.("trees", done, total),
   });
@@ -525,6 +527,9 @@ function numericRange(values: Float64Array): FeatureSchema["range"] {
   };
 }
 
+// Shuffles per feature of permutation importance.
+const IMPORTANCE_REPEATS = 3;
+
 function importanceOf(
   dataset: Dataset,
   ensemble: Ensemble | null,
@@ -532,7 +537,7 @@ function importanceOf(
   seed: number,
 ): ImportanceFigure[] {
   if (ensemble !== null && dataset.target.kind === "regression") {
-    return featureImportance(ensemble, dataset, { repeats: 3, seed });
+    return featureImportance(ensemble, dataset, { repeats: IMPORTANCE_REPEATS, seed });
   }
   const decrease = impurityDecrease(
     { trees: ensemble?.trees ?? [reference] },

@@ -240,7 +240,16 @@ export function scoreSubtrees(
   }
   const target = dataset.target;
   const earliest: number[] = [];
-  const cached = new Float64Array(extra.losses.length);
+  // A held-out row sits in one leaf over a run of candidates and changes
+  // leaf only where the path collapses above it (at most its depth times):
+  // each run adds its loss once, as a difference at its two ends, summed
+  // up the candidates at the end (rows x depth instead of rows x
+  // candidates; the sums differ from adding candidate by candidate in the
+  // last bits only).
+  const count = scoredAt.length;
+  const dSum = new Float64Array(count + 1);
+  const dSq = new Float64Array(count + 1);
+  const dExtra = extra.losses.map(() => new Float64Array(count + 1));
   for (let r = 0; r < dataset.rows; r++) {
     if (!heldOut(r)) continue;
     const nodes = pathOfRow(foldTree, dataset.features, r);
@@ -250,27 +259,51 @@ export function scoreSubtrees(
       earliest[i] = Math.min(i > 0 ? earliest[i - 1] : never, collapsedAt[nodes[i]]);
     }
     let at = nodes.length - 1;
-    // The extra losses change only when the leaf does (a few times per row).
-    let lastLeaf = -1;
-    for (let j = 0; j < scoredAt.length; j++) {
+    for (let j = 0; j < count;) {
       while (at > 0 && earliest[at - 1] <= stepAt[j]) at--;
+      // The leaf holds until the first candidate whose step reaches the
+      // collapse above it (stepAt only grows: a binary search).
+      let end = count;
+      if (at > 0) {
+        const limit = earliest[at - 1];
+        let low = j + 1;
+        while (low < end) {
+          const mid = (low + end) >>> 1;
+          if (stepAt[mid] >= limit) end = mid;
+          else low = mid + 1;
+        }
+      }
       const leaf = nodes[at];
       let lossValue: number;
       if (target.kind === "regression") {
         const d = target.values[r] - foldTree.value[leaf];
         lossValue = d * d;
-        if (leaf !== lastLeaf) {
-          for (let e = 0; e < extra.losses.length; e++) {
-            cached[e] = extra.losses[e](target.values[r], foldTree.value[leaf]);
-          }
-          lastLeaf = leaf;
+        for (let e = 0; e < extra.losses.length; e++) {
+          const value = extra.losses[e](target.values[r], foldTree.value[leaf]);
+          dExtra[e][j] += value;
+          dExtra[e][end] -= value;
         }
-        for (let e = 0; e < extra.losses.length; e++) extra.sums[e][j] += cached[e];
       } else {
         lossValue = predictedClass(foldTree, leaf) === target.values[r] ? 0 : 1;
       }
-      sum[j] += lossValue;
-      sumSq[j] += lossValue * lossValue;
+      dSum[j] += lossValue;
+      dSum[end] -= lossValue;
+      dSq[j] += lossValue * lossValue;
+      dSq[end] -= lossValue * lossValue;
+      j = end;
+    }
+  }
+  let runSum = 0;
+  let runSq = 0;
+  const runExtra = new Float64Array(extra.losses.length);
+  for (let j = 0; j < count; j++) {
+    runSum += dSum[j];
+    runSq += dSq[j];
+    sum[j] += runSum;
+    sumSq[j] += runSq;
+    for (let e = 0; e < extra.losses.length; e++) {
+      runExtra[e] += dExtra[e][j];
+      extra.sums[e][j] += runExtra[e];
     }
   }
 }

@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { featureImportance, fitEnsemble } from "../../../mod.ts";
+import { featureImportance, fitEnsemble, fitEnsembleParallel } from "../../../mod.ts";
 import { levels, numeric, regression } from "../tree/_small.ts";
 
 // Invented: pay by grade (strong) and years (weaker); "desk" is never split
@@ -45,4 +45,32 @@ Deno.test("the same seed gives the same permutation importance", () => {
     featureImportance(ensemble, dataset, { seed: 5 }),
     featureImportance(ensemble, dataset, { seed: 5 }),
   );
+});
+
+Deno.test("importance measured in the fitting workers equals the one measured after, whatever the worker count", async () => {
+  const dataset = invented();
+  const options = {
+    trees: 12,
+    seed: 4,
+    prune: "none" as const,
+    grow: { minLeaf: 5 },
+    importance: { repeats: 3, seed: 7 },
+  };
+  const alone = fitEnsemble(dataset, options);
+  const two = await fitEnsembleParallel(dataset, { ...options, workers: 2 });
+  assert.equal(alone.importance!.parts.length, 12);
+  assert.deepEqual(two.importance!.parts, alone.importance!.parts);
+  const after = featureImportance(
+    fitEnsemble(dataset, { ...options, importance: undefined }),
+    dataset,
+    {
+      repeats: 3,
+      seed: 7,
+    },
+  );
+  assert.deepEqual(featureImportance(two, dataset, { repeats: 3, seed: 7 }), after);
+  // Other settings than the parts': measured again, not taken from them.
+  const other = featureImportance(two, dataset, { repeats: 3, seed: 8 });
+  assert.notDeepEqual(other.map((x) => x.permutation), after.map((x) => x.permutation));
+  assert(after[0].permutation > after[1].permutation, "grade matters more than years");
 });
