@@ -21,4 +21,12 @@ for (let i = 0; i < 5; i++) {
   leaves = tree.nodeCount;
 }
 times.sort((a, b) => a - b);
-console.log(JSON.stringify({ program: "paygrove", table: name, rows: dataset.rows, ms: times[2], nodes: leaves }));
+console.log(
+  JSON.stringify({
+    program: "paygrove",
+    table: name,
+    rows: dataset.rows,
+    ms: times[2],
+    nodes: leaves,
+  }),
+);
