@@ -136,6 +136,11 @@ export function quantileForestRange(
       weight.set(r, (weight.get(r) ?? 0) + share);
     }
   }
+  if (weight.size === 0) {
+    throw new RangeError(
+      "no leaf the profile reaches holds a member row: the members are not of this ensemble's table",
+    );
+  }
   const rows = [...weight.keys()].sort((a, b) => members.target[a] - members.target[b]);
   let total = 0;
   for (const r of rows) total += weight.get(r)!;

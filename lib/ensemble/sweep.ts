@@ -17,14 +17,15 @@ import type { Ensemble } from "./fit_ensemble.ts";
 /**
  * The grid of a feature: every level of an ordinal or categorical feature
  * (as codes); for a numeric one `steps` evenly spaced values from `from` to
- * `to`, by default the 5% and 95% quantiles of the data.
+ * `to`, by default the 1% and 99% quantiles of the data (as the sweep
+ * command's grid, from the model's stored range).
  *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
  * import { sweepGrid } from "./sweep.ts";
  * const years = { name: "years", kind: "numeric" as const, values: Float64Array.from({ length: 101 }, (_, i) => i) };
- * assert.deepEqual(sweepGrid(years, { steps: 3 }), [5, 50, 95]);
+ * assert.deepEqual(sweepGrid(years, { steps: 3 }), [1, 50, 99]);
  * ```
  */
 export function sweepGrid(
@@ -34,8 +35,8 @@ export function sweepGrid(
   if (feature.kind !== "numeric") return (feature.levels ?? []).map((_, i) => i);
   const known = feature.values.filter((v) => !Number.isNaN(v)).sort();
   if (known.length === 0) throw new RangeError(`"${feature.name}" has no values to sweep over`);
-  const from = options.from ?? quantile(known, 0.05);
-  const to = options.to ?? quantile(known, 0.95);
+  const from = options.from ?? quantile(known, 0.01);
+  const to = options.to ?? quantile(known, 0.99);
   const steps = options.steps ?? 20;
   if (!Number.isInteger(steps) || steps < 2) {
     throw new RangeError(`steps must be >= 2, got ${steps}`);

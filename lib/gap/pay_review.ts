@@ -18,6 +18,7 @@ import { DataError, OptionError } from "../errors.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
 import { groupedRange } from "../ensemble/grouped_range.ts";
 import { checkedPrivacyMin, outOfBagFigures, payRows } from "../model/pay_pipeline.ts";
+import { checkCoverage } from "../model/model_session.ts";
 import type { MoneyUnit, Table } from "../table/types.ts";
 import {
   categoriesOf,
@@ -175,9 +176,8 @@ export async function payReview(table: Table, options: ReviewOptions): Promise<P
   const privacyMin = checkedPrivacyMin(options.privacyMin);
   const seed = options.seed ?? 1;
   const trees = options.trees ?? 200;
-  if (!(coverage > 0 && coverage < 1)) {
-    throw new OptionError(`{coverage} must lie between 0 and 1 (0.9 = 90%), got ${coverage}`);
-  }
+  // The same bounds as every answer's ranges (the terminal's --coverage).
+  checkCoverage(coverage);
   // A column's type is the same before and after rows are kept.
   const payColumn = table.columns.find((c) => c.name === options.target);
   if (payColumn !== undefined && payColumn.type !== "numeric") {

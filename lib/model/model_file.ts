@@ -529,12 +529,23 @@ function checkParts(doc: z.infer<typeof documentShape>): void {
     }
     const levels = f.levels ?? [];
     if (levels.length === 0) throw damaged(`feature ${f.name} is ${f.kind} but has no levels`);
-    if (!Number.isNaN(f.typical) && !(Number.isInteger(f.typical) && f.typical < levels.length)) {
+    if (
+      !Number.isNaN(f.typical) &&
+      !(Number.isInteger(f.typical) && f.typical >= 0 && f.typical < levels.length)
+    ) {
       throw damaged(`feature ${f.name} has no level ${f.typical}`);
+    }
+    // Two levels of one name would make a profile's level ambiguous.
+    if (new Set(levels).size !== levels.length) {
+      throw damaged(`feature ${f.name} names a level twice`);
     }
   }
   if (doc.target.kind === "classification" && (doc.target.classes?.length ?? 0) < 2) {
     throw damaged("its class target has fewer than two classes");
+  }
+  const classes = doc.target.classes ?? [];
+  if (new Set(classes).size !== classes.length) {
+    throw damaged("its class target names a class twice");
   }
   if (doc.importance.some((i) => !byName.has(i.feature))) {
     throw damaged("its importance names a feature the model does not have");

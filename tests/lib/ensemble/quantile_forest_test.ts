@@ -63,6 +63,18 @@ Deno.test("a leaf with no rows of the given table is skipped", () => {
   // x = 5: tree B's right leaf holds row 2 alone, so every quantile is 30.
   const range = quantileForestRange(ENSEMBLE, members, [5], 0.9);
   assert.deepEqual([range.low, range.high], [30, 30]);
+  // Only rows with x <= 2: at x = 5 both trees' leaves are empty; no range
+  // is made up (it was undefined before).
+  const tiny: Dataset = {
+    ...small,
+    rows: 2,
+    features: [{ name: "x", kind: "numeric", values: Float64Array.of(1, 2) }],
+    target: { kind: "regression", name: "pay", values: Float64Array.of(10, 20) },
+  };
+  assert.throws(
+    () => quantileForestRange(ENSEMBLE, leafMembers(ENSEMBLE, tiny), [5], 0.9),
+    /no leaf the profile reaches holds a member row/,
+  );
 });
 
 Deno.test("refusals: a class target, a coverage outside (0, 1)", () => {

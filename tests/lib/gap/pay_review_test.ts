@@ -122,6 +122,11 @@ Deno.test("review refusals name what they refuse", async () => {
     payReview(table, { target: "pay", coverage: 1 }),
     (e: Error) => e instanceof OptionError && e.message.includes("1"),
   );
+  // The answers' bounds: a 30% range is refused as estimate refuses it.
+  await assert.rejects(
+    payReview(table, { target: "pay", coverage: 0.3 }),
+    (e: Error) => e instanceof OptionError && /between 0\.5 and 0\.99, got 0\.3/.test(e.message),
+  );
   const byFamily = loadTable(HAND_TABLE, { target: "family" });
   await assert.rejects(
     payReview(byFamily, { target: "family" }),

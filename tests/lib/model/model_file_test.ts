@@ -243,6 +243,19 @@ Deno.test("parts that contradict each other are refused", () => {
     forged((doc) => delete doc.features.find((f: Doc) => f.kind === "ordinal").levels),
     /feature level is ordinal but has no levels/,
   );
+  // Hand-edited levels (an outside trial's finding): a typical level below
+  // 0, and a level named twice.
+  refused(
+    forged((doc) => (doc.features.find((f: Doc) => f.kind === "ordinal").typical = -1)),
+    /feature level has no level -1/,
+  );
+  refused(
+    forged((doc) => {
+      const level = doc.features.find((f: Doc) => f.kind === "ordinal");
+      level.levels[1] = level.levels[0];
+    }),
+    /feature level names a level twice/,
+  );
   refused(
     forged((doc) => (doc.support.peers.features = ["level", "shoe_size"])),
     /its support figures name shoe_size, not a level feature of the model/,
