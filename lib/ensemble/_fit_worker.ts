@@ -9,11 +9,16 @@
 import { datasetOf, type SharedData } from "./_shared_data.ts";
 import { type EnsembleOptions, fitOneTree } from "./fit_ensemble.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
+import { type GrowOptions, growTree } from "../tree/grow_tree.ts";
 
 /** Messages to the worker. */
 export type ToWorker =
   | { kind: "data"; data: SharedData; options: EnsembleOptions; states: Int32Array }
   | { kind: "tree"; index: number }
+  // Cross-validation: each row's fold, then the trees by number (-1: the
+  // tree of every row; k: fold k's rows left out).
+  | { kind: "folds"; fold: Int32Array; grow?: GrowOptions }
+  | { kind: "foldTree"; index: number }
   | { kind: "stop" };
 
 /** Messages from the worker. */
@@ -26,6 +31,7 @@ export type FromWorker =
     oob: Float64Array;
     importance?: Float64Array;
   }
+  | { kind: "foldTree"; index: number; tree: FlatTree }
   | { kind: "error"; message: string };
 
 // deno-lint-ignore no-explicit-any
@@ -33,6 +39,23 @@ const scope = self as any;
 let data: SharedData | undefined;
 let options: EnsembleOptions = {};
 let states: Int32Array = new Int32Array(0);
+let folds: { fold: Int32Array; grow?: GrowOptions } | undefined;
+
+// A tree's arrays, to transfer rather than copy.
+function buffersOf(tree: FlatTree): ArrayBufferLike[] {
+  return [
+    tree.feature,
+    tree.threshold,
+    tree.maskOffset,
+    tree.left,
+    tree.right,
+    tree.missingLeft,
+    tree.value,
+    tree.rows,
+    tree.weight,
+    tree.impurity,
+  ].map((a) => a.buffer);
+}
 
 scope.onmessage = (event: MessageEvent<ToWorker>) => {
   const message = event.data;
@@ -47,8 +70,24 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       scope.close();
       return;
     }
+    if (message.kind === "folds") {
+      folds = { fold: message.fold, grow: message.grow };
+      return;
+    }
     if (data === undefined) throw new Error("tree requested before data");
     const dataset = datasetOf(data);
+    if (message.kind === "foldTree") {
+      if (folds === undefined) throw new Error("fold tree requested before the folds");
+      const k = message.index;
+      const weights = k < 0 ? undefined : Float64Array.from(folds.fold, (f) => (f === k ? 0 : 1));
+      const tree = growTree(
+        { dataset, bins: data.bins, weights, order: data.order },
+        folds.grow,
+      );
+      const reply: FromWorker = { kind: "foldTree", index: k, tree };
+      scope.postMessage(reply, buffersOf(tree));
+      return;
+    }
     const { tree, alpha, oob, importance } = fitOneTree(
       dataset,
       data.bins,
@@ -60,19 +99,10 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
     const reply: FromWorker = { kind: "tree", index: message.index, tree, alpha, oob };
     if (importance !== undefined) reply.importance = importance;
     const buffers = [
-      tree.feature,
-      tree.threshold,
-      tree.maskOffset,
-      tree.left,
-      tree.right,
-      tree.missingLeft,
-      tree.value,
-      tree.rows,
-      tree.weight,
-      tree.impurity,
-      oob,
-      ...(importance === undefined ? [] : [importance]),
-    ].map((a) => a.buffer);
+      ...buffersOf(tree),
+      oob.buffer,
+      ...(importance === undefined ? [] : [importance.buffer]),
+    ];
     scope.postMessage(reply, buffers);
   } catch (error) {
     const reply: FromWorker = { kind: "error", message: (error as Error).stack ?? String(error) };

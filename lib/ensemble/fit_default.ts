@@ -11,7 +11,8 @@
 
 import type { Dataset } from "../dataset/types.ts";
 import { binFeatures } from "../tree/bins.ts";
-import { type CrossValidatedTree, crossValidateTree } from "../tree/cross_validate.ts";
+import type { CrossValidatedTree } from "../tree/cross_validate.ts";
+import { crossValidateTreeParallel } from "./cross_validate_parallel.ts";
 import type { GrowOptions } from "../tree/grow_tree.ts";
 import type { CrossValidateOptions } from "../tree/cross_validate.ts";
 import { DEFAULT_PRUNING } from "./defaults.ts";
@@ -112,7 +113,8 @@ export async function fitDefaultEnsemble(
   // Each fold holds at least one row.
   const folds = Math.min(options.folds ?? 10, dataset.rows);
   const reference = (options.crossValidate ?? prune !== "none")
-    ? crossValidateTree(dataset, {
+    ? await crossValidateTreeParallel(dataset, {
+      workers: options.workers,
       folds,
       seed: options.foldSeed ?? 1,
       rule: options.rule ?? "one-se",

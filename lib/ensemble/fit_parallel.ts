@@ -12,7 +12,8 @@ import type { FlatTree } from "../tree/flat_tree.ts";
 import { canonicalRowOrder } from "../tree/grow_tree.ts";
 import { resampleStates } from "./bootstrap.ts";
 import { shareData } from "./_shared_data.ts";
-import type { FromWorker, ToWorker } from "./_fit_worker.ts";
+import type { ToWorker } from "./_fit_worker.ts";
+import { onFittingWorkers } from "./_worker_pool.ts";
 import {
   assembleEnsemble,
   checkEnsembleOptions,
@@ -71,48 +72,18 @@ export async function fitEnsembleParallel(
   const alphas = new Float64Array(count);
   const oobValues: Float64Array[] = new Array(count);
   const parts: Float64Array[] = [];
-  let next = 0;
   let done = 0;
-  const pool: Worker[] = [];
-  try {
-    await new Promise<void>((resolve, reject) => {
-      const start = (worker: Worker) => {
-        if (next >= count) return;
-        const message: ToWorker = { kind: "tree", index: next++ };
-        worker.postMessage(message);
-      };
-      for (let w = 0; w < workers; w++) {
-        const worker = new Worker(new URL("./_fit_worker.ts", import.meta.url).href, {
-          type: "module",
-        });
-        pool.push(worker);
-        worker.onerror = (event) => {
-          event.preventDefault();
-          reject(new Error(`a fitting worker failed: ${event.message}`));
-        };
-        worker.onmessage = (event: MessageEvent<FromWorker>) => {
-          const reply = event.data;
-          if (reply.kind === "error") {
-            reject(new Error(`a fitting worker failed: ${reply.message}`));
-            return;
-          }
-          trees[reply.index] = reply.tree;
-          alphas[reply.index] = reply.alpha;
-          oobValues[reply.index] = reply.oob;
-          if (reply.importance !== undefined) parts[reply.index] = reply.importance;
-          done++;
-          onProgress?.(done, count);
-          if (done === count) resolve();
-          else start(worker);
-        };
-        const init: ToWorker = { kind: "data", data, options: plain, states };
-        worker.postMessage(init);
-        start(worker);
-      }
-    });
-  } finally {
-    for (const worker of pool) worker.terminate();
-  }
+  const init: ToWorker = { kind: "data", data, options: plain, states };
+  const tasks: ToWorker[] = Array.from({ length: count }, (_, index) => ({ kind: "tree", index }));
+  await onFittingWorkers(workers, [init], tasks, (reply) => {
+    if (reply.kind !== "tree") return;
+    trees[reply.index] = reply.tree;
+    alphas[reply.index] = reply.alpha;
+    oobValues[reply.index] = reply.oob;
+    if (reply.importance !== undefined) parts[reply.index] = reply.importance;
+    done++;
+    onProgress?.(done, count);
+  });
   return assembleEnsemble(
     dataset,
     trees,

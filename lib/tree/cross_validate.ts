@@ -115,34 +115,77 @@ export function crossValidateTree(
   bins: FeatureBins[] = binFeatures(dataset),
 ): CrossValidatedTree {
   const folds = options.folds ?? 10;
-  const rule = options.rule ?? "one-se";
   if (!(folds >= 2) || folds > dataset.rows || !Number.isInteger(folds)) {
     throw new RangeError(`folds must be a whole number from 2 to the row count, got ${folds}`);
   }
   const order = canonicalRowOrder(dataset);
   const fullTree = growTree({ dataset, bins, order }, options.grow);
   options.onProgress?.(1, folds + 1);
+  const fold = assignFolds(dataset, folds, options.seed ?? 1);
+  const foldTrees: FlatTree[] = [];
+  const weights = new Float64Array(dataset.rows);
+  for (let k = 0; k < folds; k++) {
+    for (let r = 0; r < dataset.rows; r++) weights[r] = fold[r] === k ? 0 : 1;
+    foldTrees.push(growTree({ dataset, bins, weights, order }, options.grow));
+    options.onProgress?.(k + 2, folds + 1);
+  }
+  return crossValidateGrown(dataset, fullTree, foldTrees, fold, options);
+}
+
+/**
+ * The second half of {@linkcode crossValidateTree}, for trees grown
+ * elsewhere (e.g. in workers): the full tree's pruning path, each
+ * candidate scored on every fold's held-out rows with that fold's tree,
+ * and the choice by the rule.
+ *
+ * @param fullTree The tree grown on every row.
+ * @param foldTrees Fold k's tree, grown with fold k's rows left out (weight 0).
+ * @param fold Each row's fold ({@linkcode assignFolds}).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { assignFolds, binFeatures, crossValidateGrown, crossValidateTree, growTree } from "../../mod.ts";
+ * const years = Array.from({ length: 40 }, (_, i) => i % 20);
+ * const dataset = {
+ *   rows: 40,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(years, (y) => (y < 10 ? 50 : 80)) },
+ * };
+ * const bins = binFeatures(dataset);
+ * const grow = { minLeaf: 2 };
+ * const fold = assignFolds(dataset, 4, 3);
+ * const foldTrees = [0, 1, 2, 3].map((k) =>
+ *   growTree({ dataset, bins, weights: Float64Array.from(fold, (f) => (f === k ? 0 : 1)) }, grow)
+ * );
+ * const whole = crossValidateGrown(dataset, growTree({ dataset, bins }, grow), foldTrees, fold, {});
+ * const direct = crossValidateTree(dataset, { folds: 4, seed: 3, grow });
+ * assert.deepEqual(whole.candidates, direct.candidates);
+ * ```
+ */
+export function crossValidateGrown(
+  dataset: Dataset,
+  fullTree: FlatTree,
+  foldTrees: readonly FlatTree[],
+  fold: Int32Array,
+  options: Pick<CrossValidateOptions, "rule" | "extraLosses"> = {},
+): CrossValidatedTree {
+  const rule = options.rule ?? "one-se";
   const path = pruningPath(fullTree);
   // Distinct alphas: of a run of equal alphas keep the last step.
   const steps = distinctSteps(path);
   const alphas = steps.map((s) => path.alphas[s]);
   const scoredAt = alphas.map((a, j) => (j + 1 < alphas.length ? Math.sqrt(a * alphas[j + 1]) : a));
-
-  const fold = assignFolds(dataset, folds, options.seed ?? 1);
   const sum = new Float64Array(alphas.length);
   const sumSq = new Float64Array(alphas.length);
-  const weights = new Float64Array(dataset.rows);
   const extraLosses = options.extraLosses ?? [];
   const extraSums = extraLosses.map(() => new Float64Array(alphas.length));
-  for (let k = 0; k < folds; k++) {
-    for (let r = 0; r < dataset.rows; r++) weights[r] = fold[r] === k ? 0 : 1;
-    const foldTree = growTree({ dataset, bins, weights, order }, options.grow);
+  foldTrees.forEach((foldTree, k) => {
     scoreSubtrees(foldTree, dataset, (r) => fold[r] === k, scoredAt, sum, sumSq, {
       losses: extraLosses,
       sums: extraSums,
     });
-    options.onProgress?.(k + 2, folds + 1);
-  }
+  });
   const n = dataset.rows;
   const candidates: AlphaCandidate[] = alphas.map((alpha, j) => {
     const mean = sum[j] / n;

@@ -37,6 +37,7 @@ export {
   type AlphaCandidate,
   assignFolds,
   type CrossValidatedTree,
+  crossValidateGrown,
   type CrossValidateOptions,
   crossValidateTree,
   scoreSubtrees,

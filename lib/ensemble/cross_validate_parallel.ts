@@ -1,0 +1,78 @@
+/**
+ * Cross-validation of the reference tree with its trees grown on fitting
+ * workers: the tree of every row and each fold's tree are grown in
+ * parallel, then scored here ({@linkcode crossValidateGrown}), so the
+ * result is the one `crossValidateTree` gives, whatever the worker count.
+ *
+ * @module
+ */
+
+import type { Dataset } from "../dataset/types.ts";
+import { binFeatures, type FeatureBins } from "../tree/bins.ts";
+import {
+  assignFolds,
+  type CrossValidatedTree,
+  crossValidateGrown,
+  type CrossValidateOptions,
+  crossValidateTree,
+} from "../tree/cross_validate.ts";
+import type { FlatTree } from "../tree/flat_tree.ts";
+import { canonicalRowOrder } from "../tree/grow_tree.ts";
+import { shareData } from "./_shared_data.ts";
+import type { ToWorker } from "./_fit_worker.ts";
+import { onFittingWorkers } from "./_worker_pool.ts";
+
+/**
+ * {@linkcode crossValidateTree} with its trees grown on `workers` workers
+ * (1: in this thread).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { crossValidateTree, crossValidateTreeParallel } from "../../mod.ts";
+ * const years = Array.from({ length: 60 }, (_, i) => i % 20);
+ * const dataset = {
+ *   rows: 60,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(years, (y, i) => 50 + 2 * y + (i % 3)) },
+ * };
+ * const options = { folds: 4, seed: 2, grow: { minLeaf: 2 } };
+ * const parallel = await crossValidateTreeParallel(dataset, { ...options, workers: 2 });
+ * const alone = crossValidateTree(dataset, options);
+ * assert.deepEqual(parallel.candidates, alone.candidates);
+ * assert.equal(parallel.chosen, alone.chosen);
+ * ```
+ */
+export async function crossValidateTreeParallel(
+  dataset: Dataset,
+  options: CrossValidateOptions & { workers?: number } = {},
+  bins: FeatureBins[] = binFeatures(dataset),
+): Promise<CrossValidatedTree> {
+  const folds = options.folds ?? 10;
+  const workers = Math.min(folds + 1, options.workers ?? navigator.hardwareConcurrency ?? 1);
+  if (!(workers > 1) || !(folds >= 2) || folds > dataset.rows || !Number.isInteger(folds)) {
+    // One thread, or options crossValidateTree refuses in its own words.
+    return crossValidateTree(dataset, options, bins);
+  }
+  const order = canonicalRowOrder(dataset);
+  const fold = assignFolds(dataset, folds, options.seed ?? 1);
+  const opening: ToWorker[] = [
+    { kind: "data", data: shareData(dataset, bins, order), options: {}, states: new Int32Array(0) },
+    { kind: "folds", fold, grow: options.grow },
+  ];
+  // -1: the tree of every row; k: fold k's tree.
+  const tasks: ToWorker[] = Array.from({ length: folds + 1 }, (_, i) => ({
+    kind: "foldTree",
+    index: i - 1,
+  }));
+  let full: FlatTree | undefined;
+  const foldTrees: FlatTree[] = new Array(folds);
+  let done = 0;
+  await onFittingWorkers(workers, opening, tasks, (reply) => {
+    if (reply.kind !== "foldTree") return;
+    if (reply.index < 0) full = reply.tree;
+    else foldTrees[reply.index] = reply.tree;
+    options.onProgress?.(++done, folds + 1);
+  });
+  return crossValidateGrown(dataset, full!, foldTrees, fold, options);
+}
