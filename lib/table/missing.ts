@@ -43,7 +43,17 @@ export function missingTest(
 ): (text: string) => boolean {
   const set = new Set(tokens.map((t) => t.trim().toLowerCase()));
   let longest = 0;
-  for (const token of set) longest = Math.max(longest, token.length);
+  // The first characters a token can start with, in either case: most
+  // cells (numbers, names) are refused on their first character, with no
+  // lower-case copy.
+  const firsts = new Set<number>();
+  for (const token of set) {
+    longest = Math.max(longest, token.length);
+    if (token.length > 0) {
+      firsts.add(token.charCodeAt(0));
+      firsts.add(token[0].toUpperCase().charCodeAt(0));
+    }
+  }
   // Called for every cell, often more than once: most cells are longer than
   // any token or hold no space to trim, so they are decided without copying.
   return (text) => {
@@ -51,6 +61,11 @@ export function missingTest(
     const padded = text.charCodeAt(0) <= 32 || text.charCodeAt(text.length - 1) <= 32;
     const t = padded ? text.trim() : text;
     if (t.length === 0) return true;
-    return t.length <= longest && set.has(t.toLowerCase());
+    if (t.length > longest) return false;
+    // An ASCII first character lower-cases to ASCII: refused unless a token
+    // starts with it (any other character takes the full test).
+    const first = t.charCodeAt(0);
+    if (first < 128 && !firsts.has(first)) return false;
+    return set.has(t.toLowerCase());
   };
 }

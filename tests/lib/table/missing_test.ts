@@ -60,3 +60,11 @@ Deno.test("the fast path agrees with trim-and-lookup on many texts", () => {
   }
   assert.equal(checked, 15 ** 3 * 3);
 });
+
+Deno.test("a cell is missing whatever the case of its first letter, and a non-ASCII first letter gets the full test", () => {
+  const isMissing = missingTest(["NA", "kelvin", "ñ/d"]);
+  for (const cell of ["na", "Na", "NA", "nA", " NA ", "KELVIN", "\u212Aelvin", "Ñ/D", "ñ/d"]) {
+    assert.equal(isMissing(cell), true, cell);
+  }
+  for (const cell of ["5", "NB", "G3", "Nairobi", "x"]) assert.equal(isMissing(cell), false, cell);
+});
