@@ -173,6 +173,45 @@ interface Best {
   rightImpurity: number;
 }
 
+// A regression node's sums, in this order (see nodeSums).
+const SUM_WEIGHT = 0;
+const SUM_TARGET = 1;
+const SUM_SQUARES = 2;
+const SUM_LOW = 3;
+const SUM_HIGH = 4;
+const SUM_SHIFT = 5;
+const NODE_SUMS = 6;
+
+// The weight of a node's rows, their weighted target and squares about the
+// first row's target (the shift), and the lowest and highest target, adding
+// rows in index order.
+function nodeSums(
+  y: Float64Array,
+  w: Float64Array,
+  index: Int32Array,
+  start: number,
+  end: number,
+): Float64Array {
+  const shift = y[index[start]];
+  let weight = 0;
+  let sum = 0;
+  let sq = 0;
+  let low = Infinity;
+  let high = -Infinity;
+  for (let i = start; i < end; i++) {
+    const r = index[i];
+    const v = y[r];
+    const d = v - shift;
+    const wd = w[r] * d;
+    weight += w[r];
+    sum += wd;
+    sq += wd * d;
+    if (v < low) low = v;
+    if (v > high) high = v;
+  }
+  return Float64Array.of(weight, sum, sq, low, high, shift);
+}
+
 class Grower {
   private readonly data: GrowInput;
   private readonly s: Settings;
@@ -299,14 +338,17 @@ class Grower {
     // (-1); beside it, each pending node's histogram (null: fill when needed).
     const stack: number[] = [0, this.index.length, 0, -1, -1];
     const histograms: (Float64Array | null)[] = [null];
+    // Each pending node's sums, when its parent's partition took them.
+    const sums: (Float64Array | null)[] = [null];
     while (stack.length > 0) {
       let hist = histograms.pop()!;
+      const taken = sums.pop()!;
       const side = stack.pop()!;
       const parent = stack.pop()!;
       const depth = stack.pop()!;
       const end = stack.pop()!;
       const start = stack.pop()!;
-      const id = this.addNode(start, end);
+      const id = this.addNode(start, end, taken);
       if (parent >= 0) {
         if (side === 1) this.nodes.left[parent] = id;
         else this.nodes.right[parent] = id;
@@ -338,15 +380,19 @@ class Grower {
         : best.leftW >= best.rightW
         ? 1
         : 0;
-      const mid = this.partition(start, end, best, missingLeft);
+      const leftSums = this.regression ? new Float64Array(NODE_SUMS) : null;
+      const rightSums = this.regression ? new Float64Array(NODE_SUMS) : null;
+      const mid = this.partition(start, end, best, missingLeft, leftSums, rightSums);
       this.setSplit(id, best, missingLeft);
       // The smaller child's histogram is filled from its rows; the larger
       // child's is the parent's minus the smaller's.
       const [leftHist, rightHist] = this.childHistograms(hist, start, mid, end);
       stack.push(mid, end, depth + 1, id, 0);
       histograms.push(rightHist);
+      sums.push(rightSums);
       stack.push(start, mid, depth + 1, id, 1);
       histograms.push(leftHist);
+      sums.push(leftSums);
     }
     return this.finish();
   }
@@ -446,32 +492,23 @@ class Grower {
     }
   }
 
-  private addNode(start: number, end: number): number {
+  private addNode(start: number, end: number, taken: Float64Array | null): number {
     const { index, w, k } = this;
     const values = new Float64Array(k);
     let weight = 0;
     let impurity: number;
     if (this.regression) {
-      // One pass, with sums taken about the first row's target so that
-      // they do not cancel (as raw sums of y^2 would, by ~1e-13 on log
-      // pay); a node whose targets are all equal gets impurity exactly 0.
-      const y = this.y;
-      const shift = y[index[start]];
-      let sum = 0;
-      let sq = 0;
-      let low = Infinity;
-      let high = -Infinity;
-      for (let i = start; i < end; i++) {
-        const r = index[i];
-        const v = y[r];
-        const d = v - shift;
-        const wd = w[r] * d;
-        weight += w[r];
-        sum += wd;
-        sq += wd * d;
-        if (v < low) low = v;
-        if (v > high) high = v;
-      }
+      // Sums taken about the first row's target so that they do not cancel
+      // (as raw sums of y^2 would, by ~1e-13 on log pay); a node whose
+      // targets are all equal gets impurity exactly 0. A child's sums come
+      // from its parent's partition (the same rows in the same order).
+      const sums = taken ?? nodeSums(this.y, w, index, start, end);
+      weight = sums[SUM_WEIGHT];
+      const sum = sums[SUM_TARGET];
+      const sq = sums[SUM_SQUARES];
+      const low = sums[SUM_LOW];
+      const high = sums[SUM_HIGH];
+      const shift = sums[SUM_SHIFT];
       const offset = sum / weight;
       values[0] = shift + offset;
       impurity = low === high ? 0 : Math.max(0, sq / weight - offset * offset);
@@ -852,8 +889,19 @@ class Grower {
     return best;
   }
 
-  /** Stable in-place partition of [start, end): left rows first; returns the first right position. */
-  private partition(start: number, end: number, best: Best, missingLeft: number): number {
+  /**
+   * Stable in-place partition of [start, end): left rows first; returns the
+   * first right position. For regression, each child's sums are taken on
+   * the way ({@linkcode nodeSums}'s figures, added in the same order).
+   */
+  private partition(
+    start: number,
+    end: number,
+    best: Best,
+    missingLeft: number,
+    leftSums: Float64Array | null,
+    rightSums: Float64Array | null,
+  ): number {
     const { index, scratch } = this;
     const bins = this.data.bins[best.feature];
     const ids = bins.ids;
@@ -863,6 +911,24 @@ class Grower {
     if (inLeft) { for (const b of best.leftBins) inLeft[b] = 1; }
     let l = start;
     let r = 0;
+    if (leftSums === null || rightSums === null) {
+      for (let i = start; i < end; i++) {
+        const row = index[i];
+        const b = ids[row];
+        const left = b === missingBin
+          ? missingLeft === 1
+          : inLeft
+          ? inLeft[b] === 1
+          : b <= best.lastLeftBin;
+        if (left) index[l++] = row;
+        else scratch[r++] = row;
+      }
+      index.set(scratch.subarray(0, r), l);
+      return l;
+    }
+    const { y, w } = this;
+    let lShift = 0, lWeight = 0, lSum = 0, lSq = 0, lLow = Infinity, lHigh = -Infinity;
+    let rShift = 0, rWeight = 0, rSum = 0, rSq = 0, rLow = Infinity, rHigh = -Infinity;
     for (let i = start; i < end; i++) {
       const row = index[i];
       const b = ids[row];
@@ -871,10 +937,33 @@ class Grower {
         : inLeft
         ? inLeft[b] === 1
         : b <= best.lastLeftBin;
-      if (left) index[l++] = row;
-      else scratch[r++] = row;
+      const v = y[row];
+      const wr = w[row];
+      if (left) {
+        if (l === start) lShift = v;
+        index[l++] = row;
+        const d = v - lShift;
+        const wd = wr * d;
+        lWeight += wr;
+        lSum += wd;
+        lSq += wd * d;
+        if (v < lLow) lLow = v;
+        if (v > lHigh) lHigh = v;
+      } else {
+        if (r === 0) rShift = v;
+        scratch[r++] = row;
+        const d = v - rShift;
+        const wd = wr * d;
+        rWeight += wr;
+        rSum += wd;
+        rSq += wd * d;
+        if (v < rLow) rLow = v;
+        if (v > rHigh) rHigh = v;
+      }
     }
     index.set(scratch.subarray(0, r), l);
+    leftSums.set([lWeight, lSum, lSq, lLow, lHigh, lShift]);
+    rightSums.set([rWeight, rSum, rSq, rLow, rHigh, rShift]);
     return l;
   }
 
