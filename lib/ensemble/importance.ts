@@ -121,7 +121,8 @@ export function treeImportanceIncrease(
   if (oob.length === 0) return out;
   const used = new Uint8Array(features);
   for (let n = 0; n < tree.nodeCount; n++) if (tree.feature[n] >= 0) used[tree.feature[n]] = 1;
-  // Each out-of-bag row's squared error and, per feature, the first node
+  // Each out-of-bag row's squared error and, per feature (feature-major, as
+  // it is read), the first node
   // of its path that tests the feature (-1: none). A shuffled feature
   // changes nothing above that node, so a re-walk starts there, and a row
   // whose path never tests it keeps its error: the same sums, in the same
@@ -134,7 +135,7 @@ export function treeImportanceIncrease(
     let node = 0;
     while (tree.left[node] !== -1) {
       const g = tree.feature[node];
-      if (firstNode[i * features + g] === -1) firstNode[i * features + g] = node;
+      if (firstNode[g * n + i] === -1) firstNode[g * n + i] = node;
       node = goesLeft(tree, node, columns[g][r]) ? tree.left[node] : tree.right[node];
     }
     const e = y[r] - tree.value[node];
@@ -154,7 +155,7 @@ export function treeImportanceIncrease(
       if (used[f] === 0) continue;
       let sse = 0;
       for (let i = 0; i < n; i++) {
-        let node = firstNode[i * features + f];
+        let node = firstNode[f * n + i];
         if (node === -1) {
           sse += baseSq[i];
           continue;
