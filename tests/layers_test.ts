@@ -112,3 +112,21 @@ Deno.test("the library writes no command-line flag into its texts", async () => 
   const lib = await sources("lib");
   assert.deepEqual(hits(lib, /["'`][^"'`]*--[a-z][a-z-]+/), []);
 });
+
+// Tests mirror the code: every module of the library has a test file of
+// the same name under tests/lib/ (types.ts and mod.ts hold no behaviour of
+// their own: type declarations and re-exports).
+Deno.test("every library module has its test file of the same name", async () => {
+  const lib = await sources("lib");
+  const missing: string[] = [];
+  for (const { path } of lib) {
+    if (/\/(types|mod)\.ts$/.test(path)) continue;
+    const test = path.replace(/^lib\//, "tests/lib/").replace(/\.ts$/, "_test.ts");
+    try {
+      await Deno.stat(`${root}${test}`);
+    } catch {
+      missing.push(`${path} has no ${test}`);
+    }
+  }
+  assert.deepEqual(missing, []);
+});
