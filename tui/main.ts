@@ -13,7 +13,7 @@
 
 // The root program has no options of its own to type, so it uses commander's
 // plain types; subcommands use extra-typings for typed option values.
-import { errorWords } from "./option_words.ts";
+import { errorDocument, errorWords } from "./option_words.ts";
 import { Command, CommanderError } from "commander";
 import { DataError, OptionError, UnknownNameError, VERSION } from "../mod.ts";
 import { unknownNameText } from "./column_names.ts";
@@ -29,7 +29,7 @@ import { startFlow } from "./flow/start_flow.ts";
 import { demoDataCommand } from "./commands/demo_data.ts";
 import { gapCommand } from "./commands/gap.ts";
 import { reviewCommand } from "./commands/review.ts";
-import { clipLongRuns, terminalGuard } from "./render/safe_text.ts";
+import { clipLongRuns, jsonText, terminalGuard } from "./render/safe_text.ts";
 import { listenForStop } from "./stop_signals.ts";
 
 /**
@@ -157,13 +157,13 @@ export async function run(args: string[], terminal: Terminal): Promise<number> {
     await program.parseAsync(args, { from: "user" });
     return EXIT.ok;
   } catch (error) {
-    return report(error, terminal);
+    return report(error, terminal, args.includes("--json"));
   } finally {
     await stopListening();
   }
 }
 
-function report(error: unknown, terminal: Terminal): number {
+function report(error: unknown, terminal: Terminal, asJson = false): number {
   const style = terminal.errStyle;
   // The command has written its output and said which rows it refused.
   if (error instanceof SomeRowsRefused) return EXIT.rowsRefused;
@@ -178,12 +178,15 @@ function report(error: unknown, terminal: Terminal): number {
     // A name that matched nothing: worded here from what the lookup found.
     const message = error instanceof UnknownNameError ? unknownNameText(error) : errorWords(error);
     terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(message), false)}`);
+    // With --json, the error as data too, on stdout where the answer would be.
+    if (asJson) terminal.out(jsonText(errorDocument(error, message)));
     return EXIT.usage;
   }
   if (error instanceof DataError) {
     terminal.err(
       `${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(errorWords(error)), false)}`,
     );
+    if (asJson) terminal.out(jsonText(errorDocument(error, errorWords(error))));
     return EXIT.data;
   }
   terminal.err(

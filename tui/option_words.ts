@@ -112,3 +112,74 @@ export function wordedSchema(summary: SchemaSummary): SchemaSummary {
     warnings: wordedWarnings(summary.warnings),
   };
 }
+
+/** A library error as data, for `--json` (see {@linkcode errorDocument}). */
+export interface ErrorDocument {
+  error: {
+    /** `option` (exit status 2) or `data` (exit status 1). */
+    kind: "option" | "data";
+    /** The options the sentence names, as flags, in order. */
+    options: string[];
+    /** Where in a file, for a data error (file, line, column as known). */
+    location?: { file?: string; line?: number; column?: string };
+    /** For a name that matched nothing: what was asked, what exists, the nearest. */
+    unknownName?: { option: string; asked: string; known: string[]; nearest?: string };
+    /** The sentence, as the terminal says it. */
+    message: string;
+  };
+}
+
+/**
+ * A library error as one JSON document, so a script run with `--json` can
+ * act on what went wrong without reading the sentence: its kind, the
+ * options it names, where in the file, and for an unknown name the names
+ * there are.
+ *
+ * @param message The sentence as the terminal writes it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { DataError, OptionError } from "../mod.ts";
+ * import { errorDocument, errorWords } from "./option_words.ts";
+ * const option = new OptionError("{minLeaf} 2 is below the privacy minimum 5 (see {privacyMin})");
+ * assert.deepEqual(errorDocument(option, errorWords(option)).error, {
+ *   kind: "option",
+ *   options: ["--min-leaf", "--privacy-min"],
+ *   message: "--min-leaf 2 is below the privacy minimum 5 (see --privacy-min)",
+ * });
+ * const data = new DataError('pay.csv: line 12 has "n/a"', { file: "pay.csv", line: 12, column: "pay" });
+ * assert.deepEqual(errorDocument(data, data.message).error.location, { file: "pay.csv", line: 12, column: "pay" });
+ * ```
+ */
+export function errorDocument(error: OptionError | DataError, message: string): ErrorDocument {
+  const options: string[] = [];
+  // The option references outside quoted data, in order, each once.
+  error.template.split('"').forEach((part, i) => {
+    if (i % 2 === 1) return;
+    for (const m of part.matchAll(/\{(--[a-z][a-z-]*|[a-z][A-Za-z]*)\}/g)) {
+      const flag = flagOf(m[1]);
+      if (!options.includes(flag)) options.push(flag);
+    }
+  });
+  const doc: ErrorDocument["error"] = {
+    kind: error instanceof OptionError ? "option" : "data",
+    options,
+    message,
+  };
+  if (error instanceof DataError && Object.keys(error.location).length > 0) {
+    doc.location = { ...error.location };
+  }
+  const unknown = error as Partial<
+    { option: string; asked: string; known: string[]; nearest: string }
+  >;
+  if (unknown.asked !== undefined && unknown.known !== undefined && unknown.option !== undefined) {
+    doc.unknownName = {
+      option: flagOf(unknown.option),
+      asked: unknown.asked,
+      known: unknown.known,
+      ...(unknown.nearest !== undefined ? { nearest: unknown.nearest } : {}),
+    };
+  }
+  return { error: doc };
+}

@@ -239,3 +239,38 @@ Deno.test("a header that starts with two byte-order marks names its first column
   const names = JSON.parse(result.stdout).columns.map((c: { name: string }) => c.name);
   assert.deepEqual(names, ["id", "level", "pay"]);
 });
+
+Deno.test("with --json a refusal is also one JSON document on stdout: its kind, options and place", async () => {
+  const dir = await Deno.makeTempDir();
+  try {
+    await Deno.writeTextFile(`${dir}/pay.csv`, "level,pay\nG1,50000\nG2,oops\nG1,51000\n");
+    // A pay column with a word in it: a data error naming the line.
+    const out = ["--out", `${dir}/m.model`];
+    const data = await paygrove(["fit", `${dir}/pay.csv`, "--target", "pay", ...out, "--json"]);
+    assert.equal(data.code, 1, data.stderr);
+    const dataDoc = JSON.parse(data.stdout).error;
+    assert.equal(dataDoc.kind, "data");
+    assert.deepEqual(dataDoc.location, { file: `${dir}/pay.csv`, line: 3, column: "pay" });
+    assert.match(data.stderr, /^paygrove: /);
+    assert.equal(`paygrove: ${dataDoc.message}\n`, data.stderr);
+    // A value below its bound: an option error naming both options.
+    const option = await paygrove([
+      "fit",
+      "fixtures/demo_company.csv",
+      "--target",
+      "base_pay_eur",
+      "--min-leaf",
+      "2",
+      ...out,
+      "--json",
+    ]);
+    assert.equal(option.code, 2, option.stderr);
+    assert.deepEqual(JSON.parse(option.stdout).error.options, ["--min-leaf", "--privacy-min"]);
+    // Without --json, stdout stays empty.
+    const plain = await paygrove(["fit", `${dir}/pay.csv`, "--target", "pay", ...out]);
+    assert.equal(plain.code, 1);
+    assert.equal(plain.stdout, "");
+  } finally {
+    await Deno.remove(dir, { recursive: true });
+  }
+});
