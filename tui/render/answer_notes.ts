@@ -8,12 +8,7 @@
  */
 
 import type { AnswerNote, SupportReason } from "../../mod.ts";
-import { formatPay, type NumberStyle } from "./numbers.ts";
-
-/** A number as the notes write it: up to 4 significant digits. */
-function short(value: string | number): string {
-  return typeof value === "number" ? String(Number(value.toPrecision(4))) : value;
-}
+import { formatNumber, formatPay, type NumberStyle } from "./numbers.ts";
 
 /**
  * One reason a profile is unusual for the data, as a clause.
@@ -74,8 +69,8 @@ export function supportReasonText(reason: SupportReason): string {
  *   /^E0042 is one of the people .* it is €61,234$/,
  * );
  * assert.equal(
- *   answerNoteText({ kind: "sweepUnusual", feature: "years", values: [31.25678, 35] }, money),
- *   "unusual for the data (few comparable people) at years 31.26, 35; treat those estimates with care",
+ *   answerNoteText({ kind: "sweepUnusual", feature: "years", values: [10.825, 35] }, money),
+ *   "unusual for the data (few comparable people) at years 10.83, 35; treat those estimates with care",
  * );
  * ```
  */
@@ -105,8 +100,11 @@ export function answerNoteText(note: AnswerNote, money: NumberStyle): string {
       return `${note.feature} outside ${note.min} to ${note.max} (the data's range) gets the ` +
         `estimate at the nearest edge: trees cannot extrapolate`;
     case "sweepUnusual":
+      // Values written as the sweep's table writes them (2 decimals).
       return `unusual for the data (few comparable people) at ${note.feature} ` +
-        `${note.values.map(short).join(", ")}; treat those estimates with care`;
+        `${
+          note.values.map((v) => (typeof v === "number" ? formatNumber(v, money, 2) : v)).join(", ")
+        }; treat those estimates with care`;
   }
 }
 
