@@ -154,13 +154,12 @@ export interface ErrorDocument {
  */
 export function errorDocument(error: OptionError | DataError, message: string): ErrorDocument {
   const options: string[] = [];
-  // The option references outside quoted data, in order, each once.
-  error.template.split('"').forEach((part, i) => {
-    if (i % 2 === 1) return;
-    for (const m of part.matchAll(/\{(--[a-z][a-z-]*|[a-z][A-Za-z]*)\}/g)) {
-      const flag = flagOf(m[1]);
-      if (!options.includes(flag)) options.push(flag);
-    }
+  // The option references as optionText reads them (outside quoted data),
+  // in order, each once.
+  optionText(error.template, (name) => {
+    const flag = flagOf(name);
+    if (!options.includes(flag)) options.push(flag);
+    return flag;
   });
   const doc: ErrorDocument["error"] = {
     kind: error instanceof OptionError ? "option" : "data",
