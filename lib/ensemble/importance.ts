@@ -100,9 +100,9 @@ export function importanceRng(seed: number, tree: number): Rng {
  * // The tree learned from every row; rows 0 and 7 are scored as if out of bag.
  * const counts = Float64Array.of(0, 1, 1, 1, 1, 1, 1, 0);
  * const part = treeImportanceIncrease(tree, dataset, counts, 2, importanceRng(1, 0));
- * // Swapping rows 0 and 7's x makes both wrong by 4: MSE 0 -> 16; keeping them, 0.
- * assert(part[0] === 0 || part[0] === 16);
- * assert.deepEqual([part[2], part[3]], [0, 0]); // z is never split on
+ * // The first shuffle swaps rows 0 and 7's x, making both wrong by 4 (MSE
+ * // 0 -> 16); the second keeps them in place (0). z is never split on.
+ * assert.deepEqual([...part], [16, 0, 0, 0]);
  * ```
  */
 export function treeImportanceIncrease(
