@@ -3,20 +3,10 @@
 // Conventions). `deno test --doc` runs those examples; this test makes sure
 // there is one to run, read from the source.
 import assert from "node:assert/strict";
+import { sources as readSources } from "./_sources.ts";
 
-const root = new URL("../", import.meta.url).pathname;
-
-async function sources(dir: string): Promise<{ path: string; text: string }[]> {
-  const out: { path: string; text: string }[] = [];
-  for await (const entry of Deno.readDir(`${root}${dir}`)) {
-    const path = `${dir}/${entry.name}`;
-    if (entry.isDirectory) out.push(...await sources(path));
-    else if (entry.name.endsWith(".ts") && !entry.name.endsWith("_test.ts")) {
-      out.push({ path, text: await Deno.readTextFile(`${root}${path}`) });
-    }
-  }
-  return out.sort((a, b) => a.path < b.path ? -1 : 1);
-}
+const sources = (dir: string) =>
+  readSources(dir, (name) => name.endsWith(".ts") && !name.endsWith("_test.ts"));
 
 /** A value export: `export [async] function|class|const NAME` at the start of a line. */
 const EXPORT = /^export\s+(?:async\s+function\*?|function\*?|class|const)\s+([A-Za-z_$][\w$]*)/;

@@ -5,20 +5,9 @@
 // texts, and imports no later layer (lib/table -> dataset -> tree ->
 // ensemble -> linear -> model -> gap; io, errors and random from anywhere).
 import assert from "node:assert/strict";
+import { ROOT as root, sources as readSources } from "./_sources.ts";
 
-const root = new URL("../", import.meta.url).pathname;
-
-async function sources(dir: string): Promise<{ path: string; text: string }[]> {
-  const out: { path: string; text: string }[] = [];
-  for await (const entry of Deno.readDir(`${root}${dir}`)) {
-    const path = `${dir}/${entry.name}`;
-    if (entry.isDirectory) out.push(...await sources(path));
-    else if (entry.name.endsWith(".ts")) {
-      out.push({ path, text: await Deno.readTextFile(`${root}${path}`) });
-    }
-  }
-  return out;
-}
+const sources = (dir: string) => readSources(dir);
 
 /** The code of a file with comments blanked out (line numbers kept). */
 export function withoutComments(text: string): string {

@@ -525,7 +525,7 @@ export function renderTreeOutline(model: Model, options: ModelViewOptions): stri
  * const tree = {
  *   width: 1, nodeCount: n, feature: new Int32Array(n).fill(-1),
  *   threshold: new Float64Array(n).fill(NaN), left: new Int32Array(n).fill(-1),
- *   right: new Int32Array(n).fill(-1), value: new Float64Array(n).fill(Math.log(50000)),
+ *   right: new Int32Array(n).fill(-1), value: new Float64Array(n).fill(10.819778284410283), // log 50,000
  *   rows: new Int32Array(n).fill(10),
  * };
  * for (let d = 0; d < splits; d++) {
