@@ -12,6 +12,7 @@ import {
   optionText,
   type QualityWarning,
   type SchemaSummary,
+  UnknownNameError,
 } from "../mod.ts";
 
 /**
@@ -169,15 +170,12 @@ export function errorDocument(error: OptionError | DataError, message: string): 
   if (error instanceof DataError && Object.keys(error.location).length > 0) {
     doc.location = { ...error.location };
   }
-  const unknown = error as Partial<
-    { option: string; asked: string; known: string[]; nearest: string }
-  >;
-  if (unknown.asked !== undefined && unknown.known !== undefined && unknown.option !== undefined) {
+  if (error instanceof UnknownNameError) {
     doc.unknownName = {
-      option: flagOf(unknown.option),
-      asked: unknown.asked,
-      known: unknown.known,
-      ...(unknown.nearest !== undefined ? { nearest: unknown.nearest } : {}),
+      option: flagOf(error.option),
+      asked: error.asked,
+      known: error.known,
+      ...(error.nearest !== undefined ? { nearest: error.nearest } : {}),
     };
   }
   return { error: doc };

@@ -129,7 +129,14 @@ export function fitEnsemble(
     if (fitted.importance !== undefined) parts.push(fitted.importance);
     options.onProgress?.(b + 1, count);
   }
-  return assembleEnsemble(dataset, trees, alphas, oobValues, states, importanceOf(options, parts));
+  return assembleEnsemble(
+    dataset,
+    trees,
+    alphas,
+    oobValues,
+    states,
+    importanceParts(options, parts),
+  );
 }
 
 /**
@@ -247,13 +254,13 @@ export function fitOneTree(
  * @example
  * ```ts
  * import assert from "node:assert/strict";
- * import { importanceOf } from "./fit_ensemble.ts";
+ * import { importanceParts } from "./fit_ensemble.ts";
  * const parts = [Float64Array.of(1), Float64Array.of(2)];
- * assert.deepEqual(importanceOf({ importance: { repeats: 1, seed: 3 } }, parts), { repeats: 1, seed: 3, parts });
- * assert.equal(importanceOf({}, []), undefined);
+ * assert.deepEqual(importanceParts({ importance: { repeats: 1, seed: 3 } }, parts), { repeats: 1, seed: 3, parts });
+ * assert.equal(importanceParts({}, []), undefined);
  * ```
  */
-export function importanceOf(
+export function importanceParts(
   options: EnsembleOptions,
   parts: Float64Array[],
 ): Ensemble["importance"] {

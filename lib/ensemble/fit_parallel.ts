@@ -20,7 +20,7 @@ import {
   type Ensemble,
   type EnsembleOptions,
   fitEnsemble,
-  importanceOf,
+  importanceParts,
 } from "./fit_ensemble.ts";
 
 /** Options of {@linkcode fitEnsembleParallel}. */
@@ -90,6 +90,6 @@ export async function fitEnsembleParallel(
     alphas,
     oobValues,
     states,
-    importanceOf(options, parts),
+    importanceParts(options, parts),
   );
 }

@@ -926,6 +926,9 @@ class Grower {
       index.set(scratch.subarray(0, r), l);
       return l;
     }
+    // The two sides' sums are kept in locals, written out twice rather than
+    // through a helper over an array: this loop runs for every row of every
+    // split of every tree.
     const { y, w } = this;
     let lShift = 0, lWeight = 0, lSum = 0, lSq = 0, lLow = Infinity, lHigh = -Infinity;
     let rShift = 0, rWeight = 0, rSum = 0, rSq = 0, rLow = Infinity, rHigh = -Infinity;

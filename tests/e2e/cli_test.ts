@@ -266,6 +266,23 @@ Deno.test("with --json a refusal is also one JSON document on stdout: its kind, 
     ]);
     assert.equal(option.code, 2, option.stderr);
     assert.deepEqual(JSON.parse(option.stdout).error.options, ["--min-leaf", "--privacy-min"]);
+    // An attacker's column name in the refusal: in the JSON it is the exact
+    // text with its escape written as \u001b, never a raw control character.
+    await Deno.writeTextFile(`${dir}/evil.csv`, "level,\x1b[2Jpay\nG1,50000\nG2,oops\nG1,51000\n");
+    const evil = await paygrove([
+      "fit",
+      `${dir}/evil.csv`,
+      "--target",
+      "\x1b[2Jpay",
+      ...out,
+      "--json",
+    ]);
+    assert.equal(evil.code, 2, evil.stderr);
+    assert.doesNotMatch(evil.stdout, ANSI);
+    assert.match(evil.stdout, /\\u001b\[2Jpay/);
+    assert.ok(JSON.parse(evil.stdout).error.message.startsWith('only 3 rows have "\x1b[2Jpay"'));
+    // On stderr the name is shown with its escape made visible.
+    assert.doesNotMatch(evil.stderr, ANSI);
     // Without --json, stdout stays empty.
     const plain = await paygrove(["fit", `${dir}/pay.csv`, "--target", "pay", ...out]);
     assert.equal(plain.code, 1);
