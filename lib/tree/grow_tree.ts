@@ -1,36 +1,27 @@
 /**
  * Growing one classification or regression tree (Breiman et al. 1984,
- * ch. 2-4) on binned features, depth first with an explicit stack.
+ * ch. 2-4) on binned features, depth first. The learner is in four parts:
  *
- * The split search ranks a node's candidate splits with the same cheap
- * proxies as scikit-learn's criteria (sklearn/tree/_criterion.pyx), so that
- * equal data gives equal trees: for squared error `sL^2/wL + sR^2/wR`
- * (s = weighted sum of y, w = weight), for Gini `-wL*giniL - wR*giniR`.
- * Each feature's rows are gathered into per-bin sums (a histogram, or a sort
- * of the node's bin ids when the node has far fewer rows than the feature
- * has bins) and scanned in bin order.
+ * - lib/tree/grow_rows.ts: the rows of one tree, gathered once and
+ *   renumbered in canonical order;
+ * - lib/tree/criterion.ts: squared error or Gini, behind one interface;
+ * - lib/tree/histogram.ts: per-bin summaries of a node's rows;
+ * - lib/tree/splitter.ts: the best split of a node (search, categorical
+ *   ordering, missing values);
  *
- * Categorical features split by a subset of levels. For a numeric target
- * the best subset is found exactly by ordering the levels by mean response
- * and scanning that order (Fisher 1958; Breiman et al. 1984, Thm 4.5); for
- * two classes likewise by the share of the second class. For three or more
- * classes every subset is tried when the node holds at most 12 levels;
- * beyond that, levels are ordered by the share of the node's most frequent
- * class (a heuristic, not guaranteed optimal).
- *
- * Missing values: each split sends them to the side that gives the better
- * split; when the node has none, to the heavier child. Levels a categorical
- * split never saw follow the same direction.
- *
- * Ties between equally good splits go to the lowest feature index, then the
- * lowest threshold (the first found in the scan).
+ * and this module, the builder: an explicit stack of pending nodes, each
+ * node's figures, the partition of its rows, and the finished flat tree.
  *
  * @module
  */
 
 import type { Dataset } from "../dataset/types.ts";
-import { type FeatureBins, rowMajorBins } from "./bins.ts";
+import type { FeatureBins } from "./bins.ts";
+import { type Criterion, criterionFor } from "./criterion.ts";
 import type { FlatTree } from "./flat_tree.ts";
+import { gatherRows, type GrowRows } from "./grow_rows.ts";
+import { Histograms } from "./histogram.ts";
+import { type SplitChoice, Splitter } from "./splitter.ts";
 
 /** Stopping rules. */
 export interface GrowOptions {
@@ -109,10 +100,6 @@ export function canonicalRowOrder(dataset: Dataset): Int32Array {
 // A node whose impurity is at most this is pure (scikit-learn's EPSILON,
 // the double-precision machine epsilon).
 const EPSILON = 2.220446049250313e-16;
-const EXHAUSTIVE_LEVELS = 12;
-// Sort a node's bin ids rather than fill a histogram when the feature has
-// more than this many bins per row of the node.
-const SPARSE_RATIO = 8;
 
 /**
  * Grows a tree to the stopping rules.
@@ -147,8 +134,7 @@ export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree 
   if (!(minDecrease >= 0)) {
     throw new RangeError(`minImpurityDecrease must be >= 0, got ${minDecrease}`);
   }
-  const grower = new Grower(input, { minLeaf, minSplit, maxDepth, minDecrease });
-  return grower.grow();
+  return new Builder(input, { minLeaf, minSplit, maxDepth, minDecrease }).grow();
 }
 
 interface Settings {
@@ -156,21 +142,6 @@ interface Settings {
   minSplit: number;
   maxDepth: number;
   minDecrease: number;
-}
-
-interface Best {
-  proxy: number;
-  feature: number;
-  threshold: number;
-  /** Bin ids going left and right (categorical splits; levels absent from the node in neither). */
-  leftBins: number[];
-  rightBins: number[];
-  lastLeftBin: number;
-  missingLeft: number; // 1 left, 0 right, -1 decide by weight
-  leftW: number;
-  rightW: number;
-  leftImpurity: number;
-  rightImpurity: number;
 }
 
 // A regression node's sums, in this order (see nodeSums).
@@ -212,40 +183,33 @@ function nodeSums(
   return Float64Array.of(weight, sum, sq, low, high, shift);
 }
 
-class Grower {
-  private readonly data: GrowInput;
+/** A node waiting on the stack: its rows `index[start..end)` and where it hangs. */
+interface PendingNode {
+  start: number;
+  end: number;
+  depth: number;
+  /** The parent's id (-1: the root). */
+  parent: number;
+  /** Which child of the parent it is. */
+  side: "left" | "right" | "root";
+  /** Its histogram, when the parent's split handed one down (null: fill when needed). */
+  histogram: Float64Array | null;
+  /** Its regression sums, when the parent's partition took them. */
+  sums: Float64Array | null;
+}
+
+class Builder {
   private readonly s: Settings;
   private readonly regression: boolean;
-  private readonly k: number; // values per node
-  private readonly y: Float64Array;
-  private readonly cls: Int32Array;
-  private readonly w: Float64Array;
+  private readonly criterion: Criterion;
+  private readonly rows: GrowRows;
+  private readonly bins: FeatureBins[];
+  private readonly histograms: Histograms;
+  private readonly splitter: Splitter;
+  // The node's rows, as local row numbers; the partition moves right rows
+  // through the scratch array to keep both sides in order.
   private readonly index: Int32Array;
   private readonly scratch: Int32Array;
-  private readonly totalWeight: number;
-  // Histograms: one flat buffer per node for all features, `stride` numbers
-  // per bin, interleaved so that one update touches one cache line:
-  // regression [rows, w, sum w*y, sum w*y^2], classification
-  // [rows, w, w of class 0, ..., w of class K-1]. A feature's bins start at
-  // offsets[f] (its missing bin is the last).
-  private readonly stride: number;
-  private readonly offsets: Int32Array;
-  private readonly histLength: number;
-  private readonly pool: Float64Array[] = [];
-  private readonly globalBins: Uint32Array;
-  private readonly rowData: Float64Array;
-  // Compact list of the non-empty bins of the feature being scanned.
-  private cBin: Int32Array;
-  private sortKeys: Uint32Array;
-  private cN: Int32Array;
-  private cW: Float64Array;
-  private cS: Float64Array; // regression: 1 per bin; classification: K per bin
-  private cQ: Float64Array;
-  private binOrder: Int32Array;
-  private readonly leftS: Float64Array;
-  private readonly missS: Float64Array;
-  private readonly totS: Float64Array;
-  // Growing node arrays.
   private readonly nodes = {
     feature: [] as number[],
     threshold: [] as number[],
@@ -260,241 +224,120 @@ class Grower {
     impurity: [] as number[],
   };
   private readonly maskWords: Int32Array;
+  private readonly inLeft: Uint8Array;
 
   constructor(data: GrowInput, settings: Settings) {
-    this.data = data;
     this.s = settings;
     const { dataset } = data;
     const n = dataset.rows;
-    this.regression = dataset.target.kind === "regression";
-    this.k = dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
-    this.y = dataset.target.kind === "regression" ? dataset.target.values : new Float64Array(0);
-    this.cls = dataset.target.kind === "classification" ? dataset.target.values : new Int32Array(0);
-    this.w = data.weights ?? new Float64Array(n).fill(1);
-    if (this.w.length !== n) {
-      throw new RangeError(`weights has ${this.w.length} entries for ${n} rows`);
-    }
-    let kept = 0;
-    let total = 0;
-    for (let r = 0; r < n; r++) {
-      const wr = this.w[r];
-      if (!(wr >= 0) || wr === Infinity) throw new RangeError(`weight of row ${r} is ${wr}`);
-      if (wr > 0) kept++;
-      const target = dataset.target.values[r];
-      if (!Number.isFinite(target)) throw new RangeError(`target of row ${r} is ${target}`);
-    }
-    const order = data.order ?? canonicalRowOrder(dataset);
-    if (order.length !== n) throw new RangeError(`order has ${order.length} entries for ${n} rows`);
+    this.criterion = criterionFor(dataset);
+    this.regression = this.criterion.task === "regression";
+    this.rows = gatherRows(
+      dataset,
+      data.bins,
+      data.weights ?? new Float64Array(n).fill(1),
+      data.order ?? canonicalRowOrder(dataset),
+    );
+    this.bins = data.bins;
+    const kept = this.rows.count;
     this.index = new Int32Array(kept);
-    for (let j = 0, i = 0; j < n; j++) {
-      const r = order[j];
-      if (this.w[r] > 0) {
-        this.index[i++] = r;
-        total += this.w[r];
-      }
-    }
-    this.totalWeight = total;
+    for (let i = 0; i < kept; i++) this.index[i] = i;
     this.scratch = new Int32Array(kept);
-    const k = this.k;
-    const offsets = new Int32Array(data.bins.length + 1);
-    for (let f = 0; f < data.bins.length; f++) offsets[f + 1] = offsets[f] + data.bins[f].count + 1;
-    this.offsets = offsets;
-    this.stride = this.regression ? 4 : 2 + k;
-    this.histLength = offsets[data.bins.length] * this.stride;
-    this.globalBins = rowMajorBins(data.bins, n, offsets);
-    // Each row's weight, weight * y and weight * y^2 side by side.
-    this.rowData = new Float64Array(this.regression ? 3 * n : 0);
-    if (this.regression) {
-      for (let r = 0; r < n; r++) {
-        const wy = this.w[r] * this.y[r];
-        this.rowData[3 * r] = this.w[r];
-        this.rowData[3 * r + 1] = wy;
-        this.rowData[3 * r + 2] = wy * this.y[r];
-      }
-    }
-    const widest = Math.max(1, ...data.bins.map((b) => b.count + 1));
-    const compact = Math.min(widest, kept + 1);
-    this.sortKeys = new Uint32Array(kept);
-    this.cBin = new Int32Array(compact);
-    this.cN = new Int32Array(compact);
-    this.cW = new Float64Array(compact);
-    this.cS = new Float64Array(compact * k);
-    this.cQ = new Float64Array(compact);
-    this.binOrder = new Int32Array(compact);
-    this.leftS = new Float64Array(k);
-    this.missS = new Float64Array(k);
-    this.totS = new Float64Array(k);
+    this.histograms = new Histograms(this.rows, data.bins, this.criterion.stride);
+    this.splitter = new Splitter(
+      this.rows,
+      data.bins,
+      dataset.features.map((f) => f.kind),
+      this.histograms,
+      this.criterion,
+      settings.minLeaf,
+    );
     this.maskWords = Int32Array.from(
       dataset.features,
       (f) => (f.kind === "categorical" ? Math.ceil(f.levels!.length / 32) : 0),
     );
+    this.inLeft = new Uint8Array(Math.max(1, ...data.bins.map((b) => b.count)));
   }
 
   grow(): FlatTree {
     if (this.index.length === 0) {
       throw new RangeError("no rows with positive weight to grow a tree on");
     }
-    // Stack entries: start, end, depth, parent, isLeft (1) / right (0) / root
-    // (-1); beside it, each pending node's histogram (null: fill when needed).
-    const stack: number[] = [0, this.index.length, 0, -1, -1];
-    const histograms: (Float64Array | null)[] = [null];
-    // Each pending node's sums, when its parent's partition took them.
-    const sums: (Float64Array | null)[] = [null];
+    const stack: PendingNode[] = [{
+      start: 0,
+      end: this.index.length,
+      depth: 0,
+      parent: -1,
+      side: "root",
+      histogram: null,
+      sums: null,
+    }];
+    const { histograms, splitter } = this;
     while (stack.length > 0) {
-      let hist = histograms.pop()!;
-      const taken = sums.pop()!;
-      const side = stack.pop()!;
-      const parent = stack.pop()!;
-      const depth = stack.pop()!;
-      const end = stack.pop()!;
-      const start = stack.pop()!;
-      const id = this.addNode(start, end, taken);
-      if (parent >= 0) {
-        if (side === 1) this.nodes.left[parent] = id;
-        else this.nodes.right[parent] = id;
-      }
+      const node = stack.pop()!;
+      const { start, end, depth } = node;
+      let hist = node.histogram;
+      const id = this.addNode(start, end, node.sums);
+      if (node.side === "left") this.nodes.left[node.parent] = id;
+      else if (node.side === "right") this.nodes.right[node.parent] = id;
       const impurity = this.nodes.impurity[id];
       const rows = end - start;
       if (
         depth >= this.s.maxDepth || rows < this.s.minSplit || rows < 2 * this.s.minLeaf ||
         impurity <= EPSILON
       ) {
-        this.release(hist);
+        histograms.release(hist);
         continue;
       }
-      if (hist === null && this.anyDense(rows)) {
-        hist = this.acquire(rows);
-        this.fill(hist, start, end, rows);
+      if (hist === null && histograms.anyDense(rows)) {
+        hist = histograms.acquire(rows);
+        histograms.fill(hist, this.index, start, end, rows);
       }
-      const best = this.findSplit(start, end, hist);
+      const found = splitter.find(this.index, start, end, hist);
+      const best = splitter.choice;
       const weight = this.nodes.weight[id];
-      const improvement = best === undefined ? -Infinity : (weight / this.totalWeight) *
-        (impurity - (best.rightW / weight) * best.rightImpurity -
-          (best.leftW / weight) * best.leftImpurity);
-      if (best === undefined || improvement + EPSILON < this.s.minDecrease) {
-        this.release(hist);
+      const improvement = !found ? -Infinity : (weight / this.rows.totalWeight) *
+        (impurity - (best.rightWeight / weight) * best.rightImpurity -
+          (best.leftWeight / weight) * best.leftImpurity);
+      if (!found || improvement + EPSILON < this.s.minDecrease) {
+        histograms.release(hist);
         continue;
       }
-      const missingLeft = best.missingLeft >= 0
-        ? best.missingLeft
-        : best.leftW >= best.rightW
-        ? 1
-        : 0;
+      const missingLeft = best.missing === "left" ||
+        (best.missing === "heavier" && best.leftWeight >= best.rightWeight);
       const leftSums = this.regression ? new Float64Array(NODE_SUMS) : null;
       const rightSums = this.regression ? new Float64Array(NODE_SUMS) : null;
       const mid = this.partition(start, end, best, missingLeft, leftSums, rightSums);
       this.setSplit(id, best, missingLeft);
-      // The smaller child's histogram is filled from its rows; the larger
-      // child's is the parent's minus the smaller's.
-      const [leftHist, rightHist] = this.childHistograms(hist, start, mid, end);
-      stack.push(mid, end, depth + 1, id, 0);
-      histograms.push(rightHist);
-      sums.push(rightSums);
-      stack.push(start, mid, depth + 1, id, 1);
-      histograms.push(leftHist);
-      sums.push(leftSums);
+      const [leftHist, rightHist] = histograms.children(hist, this.index, start, mid, end);
+      stack.push({
+        start: mid,
+        end,
+        depth: depth + 1,
+        parent: id,
+        side: "right",
+        histogram: rightHist,
+        sums: rightSums,
+      });
+      stack.push({
+        start,
+        end: mid,
+        depth: depth + 1,
+        parent: id,
+        side: "left",
+        histogram: leftHist,
+        sums: leftSums,
+      });
     }
     return this.finish();
   }
 
-  private childHistograms(
-    parent: Float64Array | null,
-    start: number,
-    mid: number,
-    end: number,
-  ): [Float64Array | null, Float64Array | null] {
-    const leftRows = mid - start;
-    const rightRows = end - mid;
-    const largerRows = Math.max(leftRows, rightRows);
-    if (parent === null || !this.anyDense(largerRows)) {
-      this.release(parent);
-      return [null, null];
-    }
-    const leftSmaller = leftRows <= rightRows;
-    const small = this.acquire(largerRows);
-    if (leftSmaller) this.fill(small, start, mid, largerRows);
-    else this.fill(small, mid, end, largerRows);
-    this.subtract(parent, small, largerRows);
-    return leftSmaller ? [small, parent] : [parent, small];
-  }
-
-  // Whether a feature uses the histogram in a node of this many rows (else
-  // the node's bin ids are sorted).
-  private isDense(f: number, rows: number): boolean {
-    return this.data.bins[f].count <= SPARSE_RATIO * rows;
-  }
-
-  private anyDense(rows: number): boolean {
-    for (let f = 0; f < this.data.bins.length; f++) if (this.isDense(f, rows)) return true;
-    return false;
-  }
-
-  /** A histogram buffer with the ranges of features dense at `rows` zeroed. */
-  private acquire(rows: number): Float64Array {
-    const hist = this.pool.pop() ?? new Float64Array(this.histLength);
-    for (let f = 0; f < this.data.bins.length; f++) {
-      if (!this.isDense(f, rows)) continue;
-      hist.fill(0, this.offsets[f] * this.stride, this.offsets[f + 1] * this.stride);
-    }
-    return hist;
-  }
-
-  private release(hist: Float64Array | null): void {
-    if (hist !== null) this.pool.push(hist);
-  }
-
-  // One pass over the rows adds every dense feature's sums: each row's
-  // global bin ids and its weight data are read once.
-  private fill(hist: Float64Array, start: number, end: number, denseRows: number): void {
-    const features = this.data.bins.length;
-    const dense: number[] = [];
-    for (let f = 0; f < features; f++) if (this.isDense(f, denseRows)) dense.push(f);
-    const { index, globalBins, stride } = this;
-    const nd = dense.length;
-    if (this.regression) {
-      const data = this.rowData;
-      for (let i = start; i < end; i++) {
-        const r = index[i];
-        const wr = data[3 * r];
-        const wy = data[3 * r + 1];
-        const wyy = data[3 * r + 2];
-        const base = r * features;
-        for (let j = 0; j < nd; j++) {
-          const b = globalBins[base + dense[j]] * 4;
-          hist[b]++;
-          hist[b + 1] += wr;
-          hist[b + 2] += wy;
-          hist[b + 3] += wyy;
-        }
-      }
-    } else {
-      const { w, cls } = this;
-      for (let i = start; i < end; i++) {
-        const r = index[i];
-        const wr = w[r];
-        const c = 2 + cls[r];
-        const base = r * features;
-        for (let j = 0; j < nd; j++) {
-          const b = globalBins[base + dense[j]] * stride;
-          hist[b]++;
-          hist[b + 1] += wr;
-          hist[b + c] += wr;
-        }
-      }
-    }
-  }
-
-  private subtract(target: Float64Array, other: Float64Array, denseRows: number): void {
-    for (let f = 0; f < this.data.bins.length; f++) {
-      if (!this.isDense(f, denseRows)) continue;
-      const to = this.offsets[f + 1] * this.stride;
-      for (let i = this.offsets[f] * this.stride; i < to; i++) target[i] -= other[i];
-    }
-  }
-
   private addNode(start: number, end: number, taken: Float64Array | null): number {
-    const { index, w, k } = this;
-    const values = new Float64Array(k);
+    const { index } = this;
+    const { weight: w, classOf } = this.rows;
+    const k = this.criterion.width;
+    const nodes = this.nodes;
+    const id = nodes.feature.length;
     let weight = 0;
     let impurity: number;
     if (this.regression) {
@@ -502,7 +345,7 @@ class Grower {
       // (as raw sums of y^2 would, by ~1e-13 on log pay); a node whose
       // targets are all equal gets impurity exactly 0. A child's sums come
       // from its parent's partition (the same rows in the same order).
-      const sums = taken ?? nodeSums(this.y, w, index, start, end);
+      const sums = taken ?? nodeSums(this.rows.target, w, index, start, end);
       weight = sums[SUM_WEIGHT];
       const sum = sums[SUM_TARGET];
       const sq = sums[SUM_SQUARES];
@@ -510,38 +353,36 @@ class Grower {
       const high = sums[SUM_HIGH];
       const shift = sums[SUM_SHIFT];
       const offset = sum / weight;
-      values[0] = shift + offset;
+      nodes.value.push(shift + offset);
       impurity = low === high ? 0 : Math.max(0, sq / weight - offset * offset);
     } else {
+      const values = new Float64Array(k);
       for (let i = start; i < end; i++) {
         const r = index[i];
-        values[this.cls[r]] += w[r];
+        values[classOf[r]] += w[r];
         weight += w[r];
       }
       let sq = 0;
       for (let c = 0; c < k; c++) sq += values[c] * values[c];
       impurity = 1 - sq / (weight * weight);
-      for (let c = 0; c < k; c++) values[c] /= weight;
+      for (let c = 0; c < k; c++) nodes.value.push(values[c] / weight);
     }
-    const nodes = this.nodes;
-    const id = nodes.feature.length;
     nodes.feature.push(-1);
     nodes.threshold.push(NaN);
     nodes.maskOffset.push(-1);
     nodes.left.push(-1);
     nodes.right.push(-1);
     nodes.missingLeft.push(0);
-    for (let c = 0; c < k; c++) nodes.value.push(values[c]);
     nodes.rows.push(end - start);
     nodes.weight.push(weight);
     nodes.impurity.push(impurity);
     return id;
   }
 
-  private setSplit(id: number, best: Best, missingLeft: number): void {
+  private setSplit(id: number, best: SplitChoice, missingLeft: boolean): void {
     const nodes = this.nodes;
     nodes.feature[id] = best.feature;
-    nodes.missingLeft[id] = missingLeft;
+    nodes.missingLeft[id] = missingLeft ? 1 : 0;
     const words = this.maskWords[best.feature];
     if (words > 0) {
       // Two bit sets: the levels sent left, then those sent right. A level in
@@ -556,339 +397,6 @@ class Grower {
     }
   }
 
-  /** Gathers the node's rows of one feature into the compact bin list; returns its length. */
-  private collect(f: number, start: number, end: number, hist: Float64Array | null): number {
-    const bins = this.data.bins[f];
-    const ids = bins.ids;
-    const { index, w, k } = this;
-    const missingBin = bins.count;
-    const rows = end - start;
-    this.missS.fill(0);
-    let m = 0;
-    if (hist !== null && this.isDense(f, rows)) {
-      const stride = this.stride;
-      const first = this.offsets[f] * stride;
-      for (let b = 0; b < missingBin; b++) {
-        const at = first + b * stride;
-        // Counts are exact integers, also after subtraction.
-        if (hist[at] === 0) continue;
-        this.cBin[m] = b;
-        this.cN[m] = hist[at];
-        this.cW[m] = hist[at + 1];
-        if (this.regression) {
-          this.cS[m] = hist[at + 2];
-          this.cQ[m] = hist[at + 3];
-        } else {
-          for (let c = 0; c < k; c++) this.cS[m * k + c] = hist[at + 2 + c];
-          this.cQ[m] = 0;
-        }
-        m++;
-      }
-      const at = first + missingBin * stride;
-      this.missN = hist[at];
-      this.missW = hist[at + 1];
-      if (this.regression) {
-        this.missS[0] = hist[at + 2];
-        this.missQ = hist[at + 3];
-      } else {
-        for (let c = 0; c < k; c++) this.missS[c] = hist[at + 2 + c];
-        this.missQ = 0;
-      }
-      return m;
-    }
-    // Few rows, many bins: sort the node's (bin, position) keys instead.
-    // Keys fit 32 bits for all but huge nodes of many-valued features, and a
-    // reused Uint32Array sorts faster than a fresh Float64Array.
-    const keys = (missingBin + 1) * rows <= 0xffffffff
-      ? this.sortKeys.subarray(0, rows)
-      : new Float64Array(rows);
-    for (let i = 0; i < rows; i++) keys[i] = ids[index[start + i]] * rows + i;
-    keys.sort();
-    let i = 0;
-    let missN = 0;
-    let missW = 0;
-    let missQ = 0;
-    while (i < rows) {
-      const b = Math.floor(keys[i] / rows);
-      const first = b * rows;
-      const limit = first + rows;
-      let n = 0;
-      let wsum = 0;
-      let q = 0;
-      const at = m;
-      if (b !== missingBin) {
-        this.cBin[at] = b;
-        for (let c = 0; c < k; c++) this.cS[at * k + c] = 0;
-      }
-      while (i < rows && keys[i] < limit) {
-        const r = index[start + (keys[i] - first)];
-        const wr = w[r];
-        n++;
-        wsum += wr;
-        if (this.regression) {
-          const wy = wr * this.y[r];
-          if (b === missingBin) this.missS[0] += wy;
-          else this.cS[at] += wy;
-          q += wy * this.y[r];
-        } else if (b === missingBin) {
-          this.missS[this.cls[r]] += wr;
-        } else {
-          this.cS[at * k + this.cls[r]] += wr;
-        }
-        i++;
-      }
-      if (b === missingBin) {
-        missN = n;
-        missW = wsum;
-        missQ = q;
-      } else {
-        this.cN[at] = n;
-        this.cW[at] = wsum;
-        this.cQ[at] = q;
-        m++;
-      }
-    }
-    this.missN = missN;
-    this.missW = missW;
-    this.missQ = missQ;
-    return m;
-  }
-
-  private missN = 0;
-  private missW = 0;
-  private missQ = 0;
-
-  private findSplit(start: number, end: number, hist: Float64Array | null): Best | undefined {
-    let best: Best | undefined;
-    const features = this.data.dataset.features;
-    for (let f = 0; f < features.length; f++) {
-      const m = this.collect(f, start, end, hist);
-      if (m < 2 && !(m === 1 && this.missN > 0)) continue;
-      const kind = features[f].kind;
-      if (kind === "categorical" && !this.regression && this.k > 2 && m <= EXHAUSTIVE_LEVELS) {
-        best = this.exhaustive(f, m, best);
-      } else {
-        if (kind === "categorical") this.orderLevels(m);
-        else for (let i = 0; i < m; i++) this.binOrder[i] = i;
-        best = this.scan(f, m, kind === "categorical", best);
-      }
-      best = this.knownVersusMissing(f, m, kind === "categorical", best);
-    }
-    return best;
-  }
-
-  // Orders the compact bins for a categorical scan: by mean response, by
-  // the second class's share (two classes), or by the share of the node's
-  // most frequent class; ties by level code.
-  private orderLevels(m: number): void {
-    const k = this.k;
-    const key = new Float64Array(m);
-    let cls = 1;
-    if (!this.regression && k > 2) {
-      const totals = new Float64Array(k);
-      for (let i = 0; i < m; i++) for (let c = 0; c < k; c++) totals[c] += this.cS[i * k + c];
-      cls = 0;
-      for (let c = 1; c < k; c++) if (totals[c] > totals[cls]) cls = c;
-    }
-    for (let i = 0; i < m; i++) {
-      key[i] = this.regression ? this.cS[i] / this.cW[i] : this.cS[i * k + cls] / this.cW[i];
-      this.binOrder[i] = i;
-    }
-    const order = Array.from(this.binOrder.subarray(0, m));
-    order.sort((a, b) => key[a] - key[b] || this.cBin[a] - this.cBin[b]);
-    this.binOrder.set(order);
-  }
-
-  private scan(
-    f: number,
-    m: number,
-    categorical: boolean,
-    best: Best | undefined,
-  ): Best | undefined {
-    const { k, cN, cW, cS, cQ, leftS } = this;
-    const order = this.binOrder;
-    this.totals(m);
-    let leftN = 0;
-    let leftW = 0;
-    let leftQ = 0;
-    leftS.fill(0);
-    // Where this scan's best split falls; a categorical split's level lists
-    // are built once, after the scan (building them at each better split
-    // made the scan quadratic in the levels).
-    let bestAt = -1;
-    for (let i = 0; i < m - 1; i++) {
-      const e = order[i];
-      leftN += cN[e];
-      leftW += cW[e];
-      leftQ += cQ[e];
-      for (let c = 0; c < k; c++) leftS[c] += cS[e * k + c];
-      const found = this.evaluate(leftN, leftW, leftQ, best);
-      if (found !== undefined) {
-        best = found;
-        best.feature = f;
-        const lastLeft = this.cBin[order[i]];
-        best.lastLeftBin = lastLeft;
-        if (categorical) {
-          bestAt = i;
-        } else {
-          // As scikit-learn: the midpoint, computed as a/2 + b/2.
-          const bins = this.data.bins[f];
-          const a = bins.upper[lastLeft];
-          const b = bins.lower[this.cBin[order[i + 1]]];
-          let threshold = a / 2 + b / 2;
-          if (threshold === b || !Number.isFinite(threshold)) threshold = a;
-          best.threshold = threshold;
-        }
-      }
-    }
-    if (bestAt >= 0) {
-      best!.leftBins = Array.from(order.subarray(0, bestAt + 1), (j) => this.cBin[j]);
-      best!.rightBins = Array.from(order.subarray(bestAt + 1, m), (j) => this.cBin[j]);
-    }
-    return best;
-  }
-
-  // Every known value on the left, the missing ones on the right: a split on
-  // whether the value is known at all.
-  private knownVersusMissing(
-    f: number,
-    m: number,
-    categorical: boolean,
-    best: Best | undefined,
-  ): Best | undefined {
-    if (this.missN === 0) return best;
-    this.totals(m);
-    const found = this.evaluate(this.totN, this.totW, this.totQ, best, true);
-    if (found === undefined) return best;
-    found.feature = f;
-    if (categorical) {
-      found.leftBins = Array.from(this.cBin.subarray(0, m));
-      found.rightBins = [];
-    } else {
-      found.lastLeftBin = this.cBin[m - 1];
-      found.threshold = Infinity;
-    }
-    return found;
-  }
-
-  private totN = 0;
-  private totW = 0;
-  private totQ = 0;
-
-  // Sums over the compact bins (missing values not included).
-  private totals(m: number): void {
-    const { k, cN, cW, cS, cQ, totS } = this;
-    let n = 0;
-    let w = 0;
-    let q = 0;
-    totS.fill(0);
-    for (let i = 0; i < m; i++) {
-      n += cN[i];
-      w += cW[i];
-      q += cQ[i];
-      for (let c = 0; c < k; c++) totS[c] += cS[i * k + c];
-    }
-    this.totN = n;
-    this.totW = w;
-    this.totQ = q;
-  }
-
-  /**
-   * Scores the split whose left side holds the current left sums, with the
-   * node's missing values sent left, then right (left wins ties); returns a
-   * new best (without feature and threshold filled in) when one beats `best`.
-   */
-  private evaluate(
-    leftN: number,
-    leftW: number,
-    leftQ: number,
-    best: Best | undefined,
-    knownLeft = false,
-  ): Best | undefined {
-    const { k, leftS, missS, totS } = this;
-    if (knownLeft) leftS.set(totS);
-    const minLeaf = this.s.minLeaf;
-    const missN = this.missN;
-    let found: Best | undefined;
-    const sides = knownLeft ? [0] : missN > 0 ? [1, 0] : [-1];
-    for (const side of sides) {
-      const withLeft = side === 1;
-      const nl = leftN + (withLeft ? missN : 0);
-      const nr = this.totN + missN - nl;
-      if (nl < minLeaf || nr < minLeaf) continue;
-      const wl = leftW + (withLeft ? this.missW : 0);
-      const wr = this.totW + this.missW - wl;
-      let proxy: number;
-      let leftImpurity: number;
-      let rightImpurity: number;
-      if (this.regression) {
-        const sl = leftS[0] + (withLeft ? missS[0] : 0);
-        const sr = totS[0] + missS[0] - sl;
-        proxy = (sl * sl) / wl + (sr * sr) / wr;
-        if (!(best === undefined || proxy > best.proxy)) continue;
-        const ql = leftQ + (withLeft ? this.missQ : 0);
-        const qr = this.totQ + this.missQ - ql;
-        leftImpurity = ql / wl - (sl / wl) * (sl / wl);
-        rightImpurity = qr / wr - (sr / wr) * (sr / wr);
-      } else {
-        let sqL = 0;
-        let sqR = 0;
-        for (let c = 0; c < k; c++) {
-          const l = leftS[c] + (withLeft ? missS[c] : 0);
-          const r = totS[c] + missS[c] - l;
-          sqL += l * l;
-          sqR += r * r;
-        }
-        leftImpurity = 1 - sqL / (wl * wl);
-        rightImpurity = 1 - sqR / (wr * wr);
-        proxy = -wr * rightImpurity - wl * leftImpurity;
-        if (!(best === undefined || proxy > best.proxy)) continue;
-      }
-      found = best = {
-        proxy,
-        feature: -1,
-        threshold: NaN,
-        leftBins: [],
-        rightBins: [],
-        lastLeftBin: -1,
-        missingLeft: side,
-        leftW: wl,
-        rightW: wr,
-        leftImpurity,
-        rightImpurity,
-      };
-    }
-    return found;
-  }
-
-  private exhaustive(f: number, m: number, best: Best | undefined): Best | undefined {
-    const { k, cN, cW, cS, leftS } = this;
-    this.totals(m);
-    // Subsets of the first m-1 levels; the last level stays right, so each
-    // partition is tried once.
-    for (let mask = 1; mask < 1 << (m - 1); mask++) {
-      let leftN = 0;
-      let leftW = 0;
-      leftS.fill(0);
-      for (let i = 0; i < m - 1; i++) {
-        if (!((mask >>> i) & 1)) continue;
-        leftN += cN[i];
-        leftW += cW[i];
-        for (let c = 0; c < k; c++) leftS[c] += cS[i * k + c];
-      }
-      const found = this.evaluate(leftN, leftW, 0, best);
-      if (found !== undefined) {
-        best = found;
-        best.feature = f;
-        for (let i = 0; i < m; i++) {
-          if (i < m - 1 && (mask >>> i) & 1) best.leftBins.push(this.cBin[i]);
-          else best.rightBins.push(this.cBin[i]);
-        }
-      }
-    }
-    return best;
-  }
-
   /**
    * Stable in-place partition of [start, end): left rows first; returns the
    * first right position. For regression, each child's sums are taken on
@@ -897,29 +405,32 @@ class Grower {
   private partition(
     start: number,
     end: number,
-    best: Best,
-    missingLeft: number,
+    best: SplitChoice,
+    missingLeft: boolean,
     leftSums: Float64Array | null,
     rightSums: Float64Array | null,
   ): number {
     const { index, scratch } = this;
-    const bins = this.data.bins[best.feature];
-    const ids = bins.ids;
-    const missingBin = bins.count;
-    const categorical = this.maskWords[best.feature] > 0;
-    const inLeft = categorical ? new Uint8Array(bins.count) : undefined;
-    if (inLeft) { for (const b of best.leftBins) inLeft[b] = 1; }
+    const f = best.feature;
+    const { bins, features, offsets } = this.rows;
+    const offset = offsets[f];
+    const missingBin = this.bins[f].count;
+    const categorical = this.maskWords[f] > 0;
+    // A bin goes left when its flag is 1 (categorical) or it is at most the
+    // last left bin (numeric); the missing bin by the split's direction.
+    const inLeft = this.inLeft;
+    const lastLeft = categorical ? -1 : best.lastLeftBin;
+    if (categorical) {
+      inLeft.fill(0, 0, missingBin);
+      for (const b of best.leftBins) inLeft[b] = 1;
+    }
     let l = start;
     let r = 0;
     if (leftSums === null || rightSums === null) {
       for (let i = start; i < end; i++) {
         const row = index[i];
-        const b = ids[row];
-        const left = b === missingBin
-          ? missingLeft === 1
-          : inLeft
-          ? inLeft[b] === 1
-          : b <= best.lastLeftBin;
+        const b = bins[row * features + f] - offset;
+        const left = b === missingBin ? missingLeft : categorical ? inLeft[b] === 1 : b <= lastLeft;
         if (left) index[l++] = row;
         else scratch[r++] = row;
       }
@@ -929,17 +440,13 @@ class Grower {
     // The two sides' sums are kept in locals, written out twice rather than
     // through a helper over an array: this loop runs for every row of every
     // split of every tree.
-    const { y, w } = this;
+    const { target: y, weight: w } = this.rows;
     let lShift = 0, lWeight = 0, lSum = 0, lSq = 0, lLow = Infinity, lHigh = -Infinity;
     let rShift = 0, rWeight = 0, rSum = 0, rSq = 0, rLow = Infinity, rHigh = -Infinity;
     for (let i = start; i < end; i++) {
       const row = index[i];
-      const b = ids[row];
-      const left = b === missingBin
-        ? missingLeft === 1
-        : inLeft
-        ? inLeft[b] === 1
-        : b <= best.lastLeftBin;
+      const b = bins[row * features + f] - offset;
+      const left = b === missingBin ? missingLeft : categorical ? inLeft[b] === 1 : b <= lastLeft;
       const v = y[row];
       const wr = w[row];
       if (left) {
@@ -974,7 +481,7 @@ class Grower {
     const n = this.nodes;
     return {
       task: this.regression ? "regression" : "classification",
-      width: this.k,
+      width: this.criterion.width,
       nodeCount: n.feature.length,
       feature: Int32Array.from(n.feature),
       threshold: Float64Array.from(n.threshold),
