@@ -30,6 +30,7 @@ export type FromWorker =
     alpha: number;
     oob: Float64Array;
     importance?: Float64Array;
+    shared?: FlatTree;
   }
   | { kind: "foldTree"; index: number; tree: FlatTree }
   | { kind: "error"; message: string };
@@ -88,7 +89,7 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       scope.postMessage(reply, buffersOf(tree));
       return;
     }
-    const { tree, alpha, oob, importance } = fitOneTree(
+    const { tree, alpha, oob, importance, shared } = fitOneTree(
       dataset,
       data.bins,
       data.order,
@@ -98,12 +99,15 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
     );
     const reply: FromWorker = { kind: "tree", index: message.index, tree, alpha, oob };
     if (importance !== undefined) reply.importance = importance;
-    const buffers = [
+    if (shared !== undefined) reply.shared = shared;
+    // A shared copy may keep some of the tree's arrays: each buffer once.
+    const buffers = new Set([
       ...buffersOf(tree),
       oob.buffer,
       ...(importance === undefined ? [] : [importance.buffer]),
-    ];
-    scope.postMessage(reply, buffers);
+      ...(shared === undefined ? [] : buffersOf(shared)),
+    ]);
+    scope.postMessage(reply, [...buffers]);
   } catch (error) {
     const reply: FromWorker = { kind: "error", message: (error as Error).stack ?? String(error) };
     scope.postMessage(reply);

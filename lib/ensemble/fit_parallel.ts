@@ -72,6 +72,7 @@ export async function fitEnsembleParallel(
   const alphas = new Float64Array(count);
   const oobValues: Float64Array[] = new Array(count);
   const parts: Float64Array[] = [];
+  const shared: FlatTree[] = new Array(count);
   let done = 0;
   const init: ToWorker = { kind: "data", data, options: plain, states };
   const tasks: ToWorker[] = Array.from({ length: count }, (_, index) => ({ kind: "tree", index }));
@@ -81,10 +82,11 @@ export async function fitEnsembleParallel(
     alphas[reply.index] = reply.alpha;
     oobValues[reply.index] = reply.oob;
     if (reply.importance !== undefined) parts[reply.index] = reply.importance;
+    if (reply.shared !== undefined) shared[reply.index] = reply.shared;
     done++;
     onProgress?.(done, count);
   });
-  return assembleEnsemble(
+  const ensemble = assembleEnsemble(
     dataset,
     trees,
     alphas,
@@ -92,4 +94,6 @@ export async function fitEnsembleParallel(
     states,
     importanceParts(options, parts),
   );
+  if (options.share !== undefined) ensemble.shared = shared;
+  return ensemble;
 }

@@ -8,8 +8,6 @@
  * @module
  */
 
-import { diverseLeaves } from "../tree/diverse_leaves.ts";
-import { bootstrapCounts } from "../ensemble/bootstrap.ts";
 import { createHash } from "node:crypto";
 import type { Dataset } from "../dataset/types.ts";
 import { OptionError } from "../errors.ts";
@@ -21,7 +19,6 @@ import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../ensemble/pro
 import type { DeclaredType } from "../table/infer_column.ts";
 import { leafCount, treeDepth } from "../tree/flat_tree.ts";
 import { roundedFigures, shareableReference } from "./shareable_figures.ts";
-import { shareTree } from "../tree/share_tree.ts";
 import { crossValidatedLinear } from "../linear/cross_validate_linear.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
 import { checkedPrivacyMin, outOfBagFigures, payRows, PRIVACY_FLOOR } from "./pay_pipeline.ts";
@@ -162,6 +159,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   const y = dataset.target.values;
 
   const back = (v: number) => toMoney(v, scale);
+  const payInMoney = regression ? Float64Array.from(y as ArrayLike<number>, back) : null;
   const fitted = await fitDefaultEnsemble(dataset, {
     trees,
     seed,
@@ -182,6 +180,8 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     workers: options.workers,
     // Each tree's part of permutation importance, measured where it is fitted.
     importance: regression ? { repeats: IMPORTANCE_REPEATS, seed } : undefined,
+    // Each tree's shareable copy, made where it is fitted.
+    share: regression ? { money: payInMoney! } : {},
     onCrossValidation: (done, total) => options.onProgress?.("cross-validation", done, total),
     onProgress: (done, total) => options.onProgress?.("trees", done, total),
   });
@@ -289,7 +289,6 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     };
   });
   const identifier = filtered.columns.find((c) => c.type === "identifier");
-  const payInMoney = regression ? Float64Array.from(y as ArrayLike<number>, back) : null;
 
   return {
     provenance: {
@@ -347,21 +346,9 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       }))),
     },
     ensemble: ensemble === null ? null : {
-      // No leaf whose value is a drawn member's pay, then covers only.
-      trees: ensemble.trees.map((t, b) =>
-        shareTree(
-          regression
-            ? diverseLeaves(
-              t,
-              dataset.features,
-              bootstrapCounts(dataset.rows, ensemble!.resamples, b),
-              payInMoney!,
-            )
-            : t,
-          dataset.features,
-          dataset.rows,
-        )
-      ),
+      // No leaf whose value is a drawn member's pay, then covers only
+      // (shareableTree, run where each tree was fitted).
+      trees: ensemble.shared!,
       alpha: prune === "none" ? 0 : roundedFigures(minAlpha),
     },
     residuals: outOfBag?.residuals ?? null,
