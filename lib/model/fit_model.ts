@@ -15,7 +15,12 @@ import { VERSION } from "../version.ts";
 import { quantile } from "../table/quality.ts";
 import type { LoadTableOptions } from "../table/load_table.ts";
 import type { LevelColumn, Table } from "../table/types.ts";
-import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../ensemble/proxies.ts";
+import {
+  PROXY_THRESHOLD,
+  type ProxyFigure,
+  proxyFigureSets,
+  type ProxyQuestion,
+} from "../ensemble/proxies.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import { leafCount, treeDepth } from "../tree/flat_tree.ts";
 import { roundedFigures, shareableReference } from "./shareable_figures.ts";
@@ -384,9 +389,8 @@ async function possibleProxies(
     return column !== undefined && !column.protected;
   });
   const threshold = options.proxyThreshold ?? PROXY_THRESHOLD;
-  const found: ProxyFigure[] = [];
-  options.onProgress?.("proxies", 0, attributes.length);
-  for (const [a, attribute] of attributes.entries()) {
+  const questions: ProxyQuestion[] = [];
+  for (const attribute of attributes) {
     const rows: number[] = [];
     rowIndex.forEach((tableRow, r) => {
       if (attribute.codes[tableRow] >= 0) rows.push(r);
@@ -397,13 +401,21 @@ async function possibleProxies(
       ...f,
       values: Float64Array.from(rows, (r) => f.values[r]),
     }));
-    const figures = await proxyFigures(subset, codes, attribute.levels, attribute.name, {
-      seed,
-      workers: options.workers,
+    questions.push({
+      features: subset,
+      attribute: codes,
+      groups: attribute.levels,
+      attributeName: attribute.name,
     });
-    found.push(...figures.filter((f) => f.balancedAccuracy >= threshold));
-    options.onProgress?.("proxies", a + 1, attributes.length);
   }
+  options.onProgress?.("proxies", 0, questions.length);
+  // Every attribute's ensembles on one set of workers.
+  const figures = await proxyFigureSets(
+    questions,
+    { seed, workers: options.workers },
+    (done, total) => options.onProgress?.("proxies", done, total),
+  );
+  const found = figures.flat().filter((f) => f.balancedAccuracy >= threshold);
   return found.sort((x, y) => y.balancedAccuracy - x.balancedAccuracy);
 }
 

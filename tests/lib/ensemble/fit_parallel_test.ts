@@ -10,6 +10,7 @@ import {
   fitEnsembleParallel,
   shareTree,
 } from "../../../mod.ts";
+import { fitEnsemblesParallel } from "../../../lib/ensemble/fit_parallel.ts";
 import { smallLevels, smallPay } from "./_small_pay.ts";
 
 Deno.test("two workers give the same trees, alphas and out-of-bag figures as one thread", async () => {
@@ -100,4 +101,37 @@ Deno.test("a tree that fails in a worker rejects the fit with the worker's error
     (error: Error) =>
       error.message.startsWith("a fitting worker failed") && /maxDepth/.test(error.message),
   );
+});
+
+Deno.test("several ensembles on one set of workers: each as fitEnsemble gives it", async () => {
+  const pay = smallPay();
+  const levels = smallLevels();
+  const jobs = [
+    { dataset: pay, options: { trees: 5, seed: 4, prune: "oob" as const, grow: { minLeaf: 3 } } },
+    { dataset: levels, options: { trees: 3, seed: 2, prune: "none" as const } },
+    { dataset: pay, options: { trees: 2, seed: 7, prune: "alpha" as const, alpha: 0.002 } },
+  ];
+  const progress: string[] = [];
+  const ensembles = await fitEnsemblesParallel(
+    jobs.map((job, j) => ({
+      ...job,
+      options: {
+        ...job.options,
+        onProgress: (d: number, n: number) => progress.push(`${j}:${d}/${n}`),
+      },
+    })),
+    2,
+  );
+  jobs.forEach((job, j) => {
+    const alone = fitEnsemble(job.dataset, job.options);
+    assert.deepEqual(ensembles[j].trees, alone.trees, `job ${j}`);
+    assert.deepEqual(ensembles[j].oob, alone.oob);
+    assert.deepEqual(ensembles[j].alphas, alone.alphas);
+  });
+  // Each job's progress counts its own trees.
+  for (const [j, n] of [[0, 5], [1, 3], [2, 2]]) {
+    const own = progress.filter((p) => p.startsWith(`${j}:`));
+    assert.deepEqual(own, Array.from({ length: n }, (_, i) => `${j}:${i + 1}/${n}`));
+  }
+  await assert.rejects(fitEnsemblesParallel(jobs, 0), RangeError);
 });
