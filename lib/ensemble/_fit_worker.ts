@@ -1,7 +1,9 @@
 /**
  * A worker that grows the trees it is asked for. It receives the shared
  * data once, then tree indices; it answers each with the fitted tree, whose
- * arrays are transferred, not copied.
+ * arrays are transferred, not copied. Several ensembles' data may be held
+ * at once, each under its own key (0 unless given), and a tree asked for
+ * by its ensemble's key.
  *
  * @module
  */
@@ -13,8 +15,8 @@ import { type GrowOptions, growTree } from "../tree/grow_tree.ts";
 
 /** Messages to the worker. */
 export type ToWorker =
-  | { kind: "data"; data: SharedData; options: EnsembleOptions; states: Int32Array }
-  | { kind: "tree"; index: number }
+  | { kind: "data"; data: SharedData; options: EnsembleOptions; states: Int32Array; key?: number }
+  | { kind: "tree"; index: number; key?: number }
   // Cross-validation: each row's fold, then the trees by number (-1: the
   // tree of every row; k: fold k's rows left out).
   | { kind: "folds"; fold: Int32Array; grow?: GrowOptions }
@@ -26,19 +28,23 @@ export type FromWorker =
   | {
     kind: "tree";
     index: number;
+    key?: number;
     tree: FlatTree;
     alpha: number;
     oob: Float64Array;
     importance?: Float64Array;
+    shared?: FlatTree;
   }
   | { kind: "foldTree"; index: number; tree: FlatTree }
   | { kind: "error"; message: string };
 
 // deno-lint-ignore no-explicit-any
 const scope = self as any;
-let data: SharedData | undefined;
-let options: EnsembleOptions = {};
-let states: Int32Array = new Int32Array(0);
+// Each ensemble's data, options and resampling states, by key.
+const sets = new Map<
+  number,
+  { data: SharedData; options: EnsembleOptions; states: Int32Array }
+>();
 let folds: { fold: Int32Array; grow?: GrowOptions } | undefined;
 
 // A tree's arrays, to transfer rather than copy.
@@ -61,9 +67,8 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
   const message = event.data;
   try {
     if (message.kind === "data") {
-      data = message.data;
-      options = message.options;
-      states = message.states;
+      const { data, options, states } = message;
+      sets.set(message.key ?? 0, { data, options, states });
       return;
     }
     if (message.kind === "stop") {
@@ -74,7 +79,10 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       folds = { fold: message.fold, grow: message.grow };
       return;
     }
-    if (data === undefined) throw new Error("tree requested before data");
+    const key = message.kind === "tree" ? message.key ?? 0 : 0;
+    const set = sets.get(key);
+    if (set === undefined) throw new Error("tree requested before data");
+    const { data, options, states } = set;
     const dataset = datasetOf(data);
     if (message.kind === "foldTree") {
       if (folds === undefined) throw new Error("fold tree requested before the folds");
@@ -88,7 +96,7 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       scope.postMessage(reply, buffersOf(tree));
       return;
     }
-    const { tree, alpha, oob, importance } = fitOneTree(
+    const { tree, alpha, oob, importance, shared } = fitOneTree(
       dataset,
       data.bins,
       data.order,
@@ -97,13 +105,17 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       options,
     );
     const reply: FromWorker = { kind: "tree", index: message.index, tree, alpha, oob };
+    if (message.key !== undefined) reply.key = message.key;
     if (importance !== undefined) reply.importance = importance;
-    const buffers = [
+    if (shared !== undefined) reply.shared = shared;
+    // A shared copy may keep some of the tree's arrays: each buffer once.
+    const buffers = new Set([
       ...buffersOf(tree),
       oob.buffer,
       ...(importance === undefined ? [] : [importance.buffer]),
-    ];
-    scope.postMessage(reply, buffers);
+      ...(shared === undefined ? [] : buffersOf(shared)),
+    ]);
+    scope.postMessage(reply, [...buffers]);
   } catch (error) {
     const reply: FromWorker = { kind: "error", message: (error as Error).stack ?? String(error) };
     scope.postMessage(reply);

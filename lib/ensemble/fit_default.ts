@@ -71,6 +71,8 @@ export interface DefaultEnsembleOptions {
   onCrossValidation?: (done: number, total: number) => void;
   /** Measure permutation importance as the trees are fitted (see `EnsembleOptions.importance`). */
   importance?: EnsembleOptions["importance"];
+  /** Make each tree's shareable copy as it is fitted (see `EnsembleOptions.share`). */
+  share?: EnsembleOptions["share"];
 }
 
 /** The reference tree, the alpha the trees were pruned at, and the ensemble. */
@@ -136,6 +138,7 @@ export async function fitDefaultEnsemble(
     workers: options.workers,
     onProgress: options.onProgress,
     importance: options.importance,
+    share: options.share,
   }, bins);
   return { reference, alpha, ensemble, folds };
 }

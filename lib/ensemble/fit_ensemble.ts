@@ -20,6 +20,7 @@ import {
   stepAt,
   subtreeAfter,
 } from "../tree/prune.ts";
+import { shareableTree } from "../tree/share_tree.ts";
 import { bootstrapCounts, resampleStates } from "./bootstrap.ts";
 import { importanceRng, treeImportanceIncrease } from "./importance.ts";
 
@@ -60,6 +61,12 @@ export interface EnsembleOptions {
    * and this seed.
    */
   importance?: { repeats: number; seed: number };
+  /**
+   * Also make each tree's shareable copy as it is fitted (`shareableTree`),
+   * with the target in money for a regression tree's leaves (see
+   * `diverseLeaves`).
+   */
+  share?: { money?: Float64Array };
 }
 
 /** A fitted ensemble with its out-of-bag predictions. */
@@ -88,6 +95,8 @@ export interface Ensemble {
    * importance (`treeImportanceIncrease`), in tree order.
    */
   importance?: { repeats: number; seed: number; parts: Float64Array[] };
+  /** With the `share` option: each tree's shareable copy, in tree order. */
+  shared?: FlatTree[];
 }
 
 /**
@@ -121,15 +130,17 @@ export function fitEnsemble(
   const alphas = new Float64Array(count);
   const oobValues: Float64Array[] = [];
   const parts: Float64Array[] = [];
+  const shared: FlatTree[] = [];
   for (let b = 0; b < count; b++) {
     const fitted = fitOneTree(dataset, bins, order, states, b, options);
     trees.push(fitted.tree);
     alphas[b] = fitted.alpha;
     oobValues.push(fitted.oob);
     if (fitted.importance !== undefined) parts.push(fitted.importance);
+    if (fitted.shared !== undefined) shared.push(fitted.shared);
     options.onProgress?.(b + 1, count);
   }
-  return assembleEnsemble(
+  const ensemble = assembleEnsemble(
     dataset,
     trees,
     alphas,
@@ -137,6 +148,8 @@ export function fitEnsemble(
     states,
     importanceParts(options, parts),
   );
+  if (options.share !== undefined) ensemble.shared = shared;
+  return ensemble;
 }
 
 /**
@@ -212,7 +225,13 @@ export function fitOneTree(
   states: Int32Array,
   index: number,
   options: EnsembleOptions,
-): { tree: FlatTree; alpha: number; oob: Float64Array; importance?: Float64Array } {
+): {
+  tree: FlatTree;
+  alpha: number;
+  oob: Float64Array;
+  importance?: Float64Array;
+  shared?: FlatTree;
+} {
   const mode = options.prune ?? "alpha";
   const weights = bootstrapCounts(dataset.rows, states, index);
   const grown = growTree({ dataset, bins, weights, order }, options.grow);
@@ -235,8 +254,13 @@ export function fitOneTree(
     const leaf = applyRow(tree, dataset.features, r);
     for (let c = 0; c < width; c++) oob[r * width + c] = tree.value[leaf * width + c];
   }
+  const shared = options.share === undefined
+    ? undefined
+    : shareableTree(tree, dataset.features, weights, options.share.money);
   const wanted = options.importance;
-  if (wanted === undefined || dataset.target.kind !== "regression") return { tree, alpha, oob };
+  if (wanted === undefined || dataset.target.kind !== "regression") {
+    return { tree, alpha, oob, ...(shared ? { shared } : {}) };
+  }
   const importance = treeImportanceIncrease(
     tree,
     dataset,
@@ -244,7 +268,7 @@ export function fitOneTree(
     wanted.repeats,
     importanceRng(wanted.seed, index),
   );
-  return { tree, alpha, oob, importance };
+  return { tree, alpha, oob, importance, ...(shared ? { shared } : {}) };
 }
 
 /**
@@ -309,6 +333,17 @@ export function assembleEnsemble(
   const oobTrees = new Int32Array(dataset.rows);
   for (let b = 0; b < trees.length; b++) {
     const values = oobValues[b];
+    if (width === 1) {
+      // The same sums in the same order, without the inner loop (run once,
+      // mostly before the compiler has optimised it).
+      for (let r = 0; r < dataset.rows; r++) {
+        const v = values[r];
+        if (v !== v) continue;
+        oobSum[r] += v;
+        oobTrees[r]++;
+      }
+      continue;
+    }
     for (let r = 0; r < dataset.rows; r++) {
       if (Number.isNaN(values[r * width])) continue;
       for (let c = 0; c < width; c++) oobSum[r * width + c] += values[r * width + c];

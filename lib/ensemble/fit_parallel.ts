@@ -57,39 +57,108 @@ export async function fitEnsembleParallel(
   bins: FeatureBins[] = binFeatures(dataset),
 ): Promise<Ensemble> {
   checkEnsembleOptions(options);
-  const count = options.trees ?? 200;
-  const seed = options.seed ?? 1;
-  const workers = Math.min(count, options.workers ?? navigator.hardwareConcurrency ?? 1);
-  if (!Number.isInteger(workers) || workers < 1) {
-    throw new RangeError(`workers must be a whole number >= 1, got ${options.workers}`);
-  }
-  if (workers === 1) return fitEnsemble(dataset, options, bins);
-  const order = canonicalRowOrder(dataset);
-  const data = shareData(dataset, bins, order);
-  const states = resampleStates(seed, dataset.target.values, count);
-  const { onProgress, ...plain } = options;
-  const trees: FlatTree[] = new Array(count);
-  const alphas = new Float64Array(count);
-  const oobValues: Float64Array[] = new Array(count);
-  const parts: Float64Array[] = [];
-  let done = 0;
-  const init: ToWorker = { kind: "data", data, options: plain, states };
-  const tasks: ToWorker[] = Array.from({ length: count }, (_, index) => ({ kind: "tree", index }));
-  await onFittingWorkers(workers, [init], tasks, (reply) => {
-    if (reply.kind !== "tree") return;
-    trees[reply.index] = reply.tree;
-    alphas[reply.index] = reply.alpha;
-    oobValues[reply.index] = reply.oob;
-    if (reply.importance !== undefined) parts[reply.index] = reply.importance;
-    done++;
-    onProgress?.(done, count);
-  });
-  return assembleEnsemble(
-    dataset,
-    trees,
-    alphas,
-    oobValues,
-    states,
-    importanceParts(options, parts),
+  const [ensemble] = await fitEnsemblesParallel(
+    [{ dataset, options, bins }],
+    options.workers ?? navigator.hardwareConcurrency ?? 1,
   );
+  return ensemble;
+}
+
+/** One ensemble of {@linkcode fitEnsemblesParallel}. */
+export interface EnsembleJob {
+  /** Its rows. */
+  dataset: Dataset;
+  /** Its options (`onProgress` counts this ensemble's trees). */
+  options: EnsembleOptions;
+  /** Its dataset's bins (default: binned here). */
+  bins?: FeatureBins[];
+}
+
+/**
+ * Fits several ensembles with all their trees on one set of workers,
+ * started once: each ensemble is the one {@linkcode fitEnsemble} gives with
+ * its options, whatever the worker count.
+ *
+ * @param workers Number of workers; 1 fits in this thread.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble } from "./fit_ensemble.ts";
+ * import { fitEnsemblesParallel } from "./fit_parallel.ts";
+ * const years = Array.from({ length: 80 }, (_, i) => i % 40);
+ * const dataset = (slope: number) => ({
+ *   rows: 80,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(years, (y) => 40 + slope * y) },
+ * });
+ * const options = { trees: 6, seed: 4, prune: "none" as const };
+ * const [a, b] = await fitEnsemblesParallel([
+ *   { dataset: dataset(1), options },
+ *   { dataset: dataset(3), options: { ...options, trees: 3 } },
+ * ], 2);
+ * assert.deepEqual(a.oob, fitEnsemble(dataset(1), options).oob);
+ * assert.deepEqual(b.trees, fitEnsemble(dataset(3), { ...options, trees: 3 }).trees);
+ * ```
+ */
+export async function fitEnsemblesParallel(
+  jobs: readonly EnsembleJob[],
+  workers: number,
+): Promise<Ensemble[]> {
+  for (const job of jobs) checkEnsembleOptions(job.options);
+  if (!Number.isInteger(workers) || workers < 1) {
+    throw new RangeError(`workers must be a whole number >= 1, got ${workers}`);
+  }
+  const counts = jobs.map((job) => job.options.trees ?? 200);
+  const total = counts.reduce((a, b) => a + b, 0);
+  const binned = jobs.map((job) => job.bins ?? binFeatures(job.dataset));
+  if (Math.min(total, workers) === 1) {
+    return jobs.map((job, j) => fitEnsemble(job.dataset, job.options, binned[j]));
+  }
+  const opening: ToWorker[] = [];
+  const tasks: ToWorker[] = [];
+  const fits = jobs.map((job, key) => {
+    const { dataset, options } = job;
+    const count = counts[key];
+    const order = canonicalRowOrder(dataset);
+    const data = shareData(dataset, binned[key], order);
+    const states = resampleStates(options.seed ?? 1, dataset.target.values, count);
+    const { onProgress: _, ...plain } = options;
+    opening.push({ kind: "data", data, options: plain, states, key });
+    for (let index = 0; index < count; index++) tasks.push({ kind: "tree", index, key });
+    return {
+      states,
+      trees: new Array<FlatTree>(count),
+      alphas: new Float64Array(count),
+      oobValues: new Array<Float64Array>(count),
+      parts: [] as Float64Array[],
+      shared: new Array<FlatTree>(count),
+      done: 0,
+    };
+  });
+  await onFittingWorkers(Math.min(total, workers), opening, tasks, (reply) => {
+    if (reply.kind !== "tree") return;
+    const key = reply.key ?? 0;
+    const fit = fits[key];
+    fit.trees[reply.index] = reply.tree;
+    fit.alphas[reply.index] = reply.alpha;
+    fit.oobValues[reply.index] = reply.oob;
+    if (reply.importance !== undefined) fit.parts[reply.index] = reply.importance;
+    if (reply.shared !== undefined) fit.shared[reply.index] = reply.shared;
+    fit.done++;
+    jobs[key].options.onProgress?.(fit.done, counts[key]);
+  });
+  return jobs.map((job, key) => {
+    const fit = fits[key];
+    const ensemble = assembleEnsemble(
+      job.dataset,
+      fit.trees,
+      fit.alphas,
+      fit.oobValues,
+      fit.states,
+      importanceParts(job.options, fit.parts),
+    );
+    if (job.options.share !== undefined) ensemble.shared = fit.shared;
+    return ensemble;
+  });
 }

@@ -13,11 +13,8 @@
 
 import type { Dataset, Feature } from "../dataset/types.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
-import { fitEnsembleParallel } from "./fit_parallel.ts";
+import { type EnsembleJob, fitEnsemblesParallel } from "./fit_parallel.ts";
 import { oobClassificationMetrics } from "./intervals.ts";
-
-// Rows below which the single-feature ensembles are grown in this thread.
-const IN_THREAD_BELOW = 100_000;
 
 /**
  * The default balanced accuracy from which a feature is named a possible proxy.
@@ -125,33 +122,96 @@ export async function proxyFigures(
   attributeName: string,
   options: ProxyOptions = {},
 ): Promise<ProxyFigure[]> {
-  const out: ProxyFigure[] = [];
-  for (const feature of features) {
-    const dataset: Dataset = {
-      rows: attribute.length,
-      features: [feature],
-      target: {
-        kind: "classification",
-        name: attributeName,
-        classes: [...groups],
-        values: attribute,
+  const [figures] = await proxyFigureSets(
+    [{ features, attribute, groups, attributeName }],
+    options,
+  );
+  return figures;
+}
+
+/** One protected attribute of {@linkcode proxyFigureSets}, as `proxyFigures` takes it. */
+export interface ProxyQuestion {
+  /** The pay model's features, over the same rows as `attribute`. */
+  features: readonly Feature[];
+  /** The protected attribute's group code per row (no missing). */
+  attribute: Int32Array;
+  /** Its group names. */
+  groups: readonly string[];
+  /** Its name. */
+  attributeName: string;
+}
+
+/**
+ * {@linkcode proxyFigures} of several attributes at once: every feature's
+ * ensemble of every attribute grown on one set of workers, started once
+ * (the same trees as one at a time, in any thread).
+ *
+ * @param onDone Called as each attribute's figures are in, with the number
+ * done and the total.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { proxyFigures, proxyFigureSets } from "./proxies.ts";
+ * const n = 200;
+ * const group = Int32Array.from({ length: n }, (_, i) => i % 2);
+ * const site = Int32Array.from({ length: n }, (_, i) => (i >> 1) % 3);
+ * const shift = Float64Array.from(group, (g, i) => (i % 10 === 0 ? 1 - g : g));
+ * const features = [{ name: "shift", kind: "numeric" as const, values: shift }];
+ * const questions = [
+ *   { features, attribute: group, groups: ["A", "B"], attributeName: "sex" },
+ *   { features, attribute: site, groups: ["X", "Y", "Z"], attributeName: "site" },
+ * ];
+ * const done: number[] = [];
+ * const [sex, site_] = await proxyFigureSets(questions, { trees: 8, workers: 2 }, (d) => done.push(d));
+ * assert.deepEqual(sex, await proxyFigures(features, group, ["A", "B"], "sex", { trees: 8, workers: 1 }));
+ * assert(sex[0].balancedAccuracy > 0.85 && site_[0].balancedAccuracy < 0.5);
+ * assert.deepEqual(done.sort(), [1, 2]);
+ * ```
+ */
+export async function proxyFigureSets(
+  questions: readonly ProxyQuestion[],
+  options: ProxyOptions = {},
+  onDone?: (done: number, total: number) => void,
+): Promise<ProxyFigure[][]> {
+  const trees = options.trees ?? 50;
+  // Trees left per question, to tell when its figures are all in.
+  const left = questions.map((q) => q.features.length * trees);
+  let answered = 0;
+  const jobs: EnsembleJob[] = questions.flatMap((q, i) =>
+    q.features.map((feature): EnsembleJob => ({
+      dataset: {
+        rows: q.attribute.length,
+        features: [feature],
+        target: {
+          kind: "classification",
+          name: q.attributeName,
+          classes: [...q.groups],
+          values: q.attribute,
+        },
+      } satisfies Dataset,
+      options: {
+        trees,
+        seed: options.seed ?? 1,
+        prune: "none",
+        grow: { minLeaf: options.minLeaf ?? 5 },
+        onProgress: () => {
+          if (--left[i] === 0) onDone?.(++answered, questions.length);
+        },
       },
-    };
-    // Trees on one feature are quick to grow: below about 100,000 rows,
-    // starting workers for each feature costs more than it saves (the same
-    // trees either way).
-    const ensemble = await fitEnsembleParallel(dataset, {
-      trees: options.trees ?? 50,
-      seed: options.seed ?? 1,
-      prune: "none",
-      grow: { minLeaf: options.minLeaf ?? 5 },
-      workers: attribute.length < IN_THREAD_BELOW ? 1 : options.workers,
-    });
-    out.push({
+    }))
+  );
+  const ensembles = await fitEnsemblesParallel(
+    jobs,
+    options.workers ?? navigator.hardwareConcurrency ?? 1,
+  );
+  let next = 0;
+  return questions.map((q) => {
+    const out: ProxyFigure[] = q.features.map((feature) => ({
       feature: feature.name,
-      attribute: attributeName,
-      balancedAccuracy: oobBalancedAccuracy(ensemble, attribute),
-    });
-  }
-  return out.sort((a, b) => b.balancedAccuracy - a.balancedAccuracy);
+      attribute: q.attributeName,
+      balancedAccuracy: oobBalancedAccuracy(ensembles[next++], q.attribute),
+    }));
+    return out.sort((a, b) => b.balancedAccuracy - a.balancedAccuracy);
+  });
 }

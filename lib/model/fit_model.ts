@@ -8,8 +8,6 @@
  * @module
  */
 
-import { diverseLeaves } from "../tree/diverse_leaves.ts";
-import { bootstrapCounts } from "../ensemble/bootstrap.ts";
 import { createHash } from "node:crypto";
 import type { Dataset } from "../dataset/types.ts";
 import { OptionError } from "../errors.ts";
@@ -17,11 +15,15 @@ import { VERSION } from "../version.ts";
 import { quantile } from "../table/quality.ts";
 import type { LoadTableOptions } from "../table/load_table.ts";
 import type { LevelColumn, Table } from "../table/types.ts";
-import { PROXY_THRESHOLD, type ProxyFigure, proxyFigures } from "../ensemble/proxies.ts";
+import {
+  PROXY_THRESHOLD,
+  type ProxyFigure,
+  proxyFigureSets,
+  type ProxyQuestion,
+} from "../ensemble/proxies.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import { leafCount, treeDepth } from "../tree/flat_tree.ts";
 import { roundedFigures, shareableReference } from "./shareable_figures.ts";
-import { shareTree } from "../tree/share_tree.ts";
 import { crossValidatedLinear } from "../linear/cross_validate_linear.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
 import { checkedPrivacyMin, outOfBagFigures, payRows, PRIVACY_FLOOR } from "./pay_pipeline.ts";
@@ -162,6 +164,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   const y = dataset.target.values;
 
   const back = (v: number) => toMoney(v, scale);
+  const payInMoney = regression ? Float64Array.from(y as ArrayLike<number>, back) : null;
   const fitted = await fitDefaultEnsemble(dataset, {
     trees,
     seed,
@@ -182,6 +185,8 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     workers: options.workers,
     // Each tree's part of permutation importance, measured where it is fitted.
     importance: regression ? { repeats: IMPORTANCE_REPEATS, seed } : undefined,
+    // Each tree's shareable copy, made where it is fitted.
+    share: regression ? { money: payInMoney! } : {},
     onCrossValidation: (done, total) => options.onProgress?.("cross-validation", done, total),
     onProgress: (done, total) => options.onProgress?.("trees", done, total),
   });
@@ -289,7 +294,6 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
     };
   });
   const identifier = filtered.columns.find((c) => c.type === "identifier");
-  const payInMoney = regression ? Float64Array.from(y as ArrayLike<number>, back) : null;
 
   return {
     provenance: {
@@ -347,21 +351,9 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
       }))),
     },
     ensemble: ensemble === null ? null : {
-      // No leaf whose value is a drawn member's pay, then covers only.
-      trees: ensemble.trees.map((t, b) =>
-        shareTree(
-          regression
-            ? diverseLeaves(
-              t,
-              dataset.features,
-              bootstrapCounts(dataset.rows, ensemble!.resamples, b),
-              payInMoney!,
-            )
-            : t,
-          dataset.features,
-          dataset.rows,
-        )
-      ),
+      // No leaf whose value is a drawn member's pay, then covers only
+      // (shareableTree, run where each tree was fitted).
+      trees: ensemble.shared!,
       alpha: prune === "none" ? 0 : roundedFigures(minAlpha),
     },
     residuals: outOfBag?.residuals ?? null,
@@ -397,9 +389,8 @@ async function possibleProxies(
     return column !== undefined && !column.protected;
   });
   const threshold = options.proxyThreshold ?? PROXY_THRESHOLD;
-  const found: ProxyFigure[] = [];
-  options.onProgress?.("proxies", 0, attributes.length);
-  for (const [a, attribute] of attributes.entries()) {
+  const questions: ProxyQuestion[] = [];
+  for (const attribute of attributes) {
     const rows: number[] = [];
     rowIndex.forEach((tableRow, r) => {
       if (attribute.codes[tableRow] >= 0) rows.push(r);
@@ -410,13 +401,21 @@ async function possibleProxies(
       ...f,
       values: Float64Array.from(rows, (r) => f.values[r]),
     }));
-    const figures = await proxyFigures(subset, codes, attribute.levels, attribute.name, {
-      seed,
-      workers: options.workers,
+    questions.push({
+      features: subset,
+      attribute: codes,
+      groups: attribute.levels,
+      attributeName: attribute.name,
     });
-    found.push(...figures.filter((f) => f.balancedAccuracy >= threshold));
-    options.onProgress?.("proxies", a + 1, attributes.length);
   }
+  options.onProgress?.("proxies", 0, questions.length);
+  // Every attribute's ensembles on one set of workers.
+  const figures = await proxyFigureSets(
+    questions,
+    { seed, workers: options.workers },
+    (done, total) => options.onProgress?.("proxies", done, total),
+  );
+  const found = figures.flat().filter((f) => f.balancedAccuracy >= threshold);
   return found.sort((x, y) => y.balancedAccuracy - x.balancedAccuracy);
 }
 

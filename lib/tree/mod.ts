@@ -51,5 +51,5 @@ export {
 } from "./metrics.ts";
 export { describeCondition, explainPath, formatThreshold, type PathStep } from "./explain.ts";
 export { meetsCondition, mergePath, type PathCondition } from "./merge_path.ts";
-export { shareTree } from "./share_tree.ts";
-export { diverseLeaves, SAME_PAY_SHARE } from "./diverse_leaves.ts";
+export { shareableTree, shareTree, shareTreeAt } from "./share_tree.ts";
+export { diverseLeaves, diverseLeavesAt, SAME_PAY_SHARE } from "./diverse_leaves.ts";

@@ -21,7 +21,8 @@
  */
 
 import type { Feature } from "../dataset/types.ts";
-import { applyRow, type FlatTree } from "./flat_tree.ts";
+import { applyRows, type FlatTree } from "./flat_tree.ts";
+import { diverseLeavesAt } from "./diverse_leaves.ts";
 
 /**
  * The shareable copy of a tree, with cover counts from `rows` training
@@ -47,10 +48,34 @@ import { applyRow, type FlatTree } from "./flat_tree.ts";
  * ```
  */
 export function shareTree(tree: FlatTree, features: readonly Feature[], rows: number): FlatTree {
+  return shareTreeAt(tree, applyRows(tree, features, rows));
+}
+
+/**
+ * {@linkcode shareTree} from each training row's leaf, walked already.
+ *
+ * @param leaves The leaf of every training row in `tree`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { applyRows, binFeatures, growTree, shareTree, shareTreeAt } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 4,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(50, 52, 80, 84) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset), weights: Float64Array.of(3, 0, 1, 0) }, { minLeaf: 1 });
+ * const shared = shareTreeAt(tree, applyRows(tree, dataset.features, 4));
+ * assert.deepEqual([...shared.rows], [4, 2, 2]);
+ * assert.deepEqual(shared, shareTree(tree, dataset.features, 4));
+ * ```
+ */
+export function shareTreeAt(tree: FlatTree, leaves: ArrayLike<number>): FlatTree {
   const n = tree.nodeCount;
   const width = tree.width;
   const cover = new Int32Array(n);
-  for (let r = 0; r < rows; r++) cover[applyRow(tree, features, r)]++;
+  for (let r = 0; r < leaves.length; r++) cover[leaves[r]]++;
   const value = Float64Array.from(tree.value);
   // Children come after their parent, so one backward pass sums the covers
   // and the cover-weighted values of each subtree.
@@ -77,4 +102,48 @@ export function shareTree(tree: FlatTree, features: readonly Feature[], rows: nu
     weight: Float64Array.from(cover),
     impurity: new Float64Array(n).fill(NaN),
   };
+}
+
+/**
+ * The copy of a tree grown on a resample that a model file may hold: each
+ * row walked once, leaves whose drawn people are paid the same merged away
+ * (regression, with `money`; see `diverseLeaves`), then covers only
+ * ({@linkcode shareTree}). The same tree as
+ * `shareTree(diverseLeaves(tree, features, counts, money), features, rows)`.
+ *
+ * @param counts How often the resample drew each training row.
+ * @param money The target in money, row by row (regression; omitted for classes).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, diverseLeaves, growTree, shareableTree, shareTree } from "../../mod.ts";
+ * // Four people paid 50 (x 1 to 4), the others paid differently.
+ * const pay = [50, 50, 50, 50, 61, 70, 83, 90, 97, 64, 75, 99];
+ * const x = [1, 2, 3, 4, 8, 9, 10, 11, 12, 7, 13, 14];
+ * const dataset = {
+ *   rows: 12,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.from(x) }],
+ *   target: { kind: "regression" as const, name: "y", values: Float64Array.from(pay) },
+ * };
+ * const counts = Float64Array.of(1, 2, 1, 1, 0, 1, 1, 0, 2, 1, 1, 1);
+ * const tree = growTree({ dataset, bins: binFeatures(dataset), weights: counts }, { minLeaf: 3 });
+ * const merged = diverseLeaves(tree, dataset.features, counts, pay);
+ * assert.deepEqual([tree.nodeCount, merged.nodeCount], [5, 3]); // the leaf of the four went
+ * const shared = shareableTree(tree, dataset.features, counts, pay);
+ * assert.deepEqual(shared, shareTree(merged, dataset.features, 12));
+ * assert.deepEqual([...shared.rows], [12, 7, 5]);
+ * ```
+ */
+export function shareableTree(
+  tree: FlatTree,
+  features: readonly Feature[],
+  counts: ArrayLike<number>,
+  money?: ArrayLike<number>,
+): FlatTree {
+  const leaves = applyRows(tree, features, counts.length);
+  const merged = money === undefined
+    ? { tree, leaves }
+    : diverseLeavesAt(tree, leaves, counts, money);
+  return shareTreeAt(merged.tree, merged.leaves);
 }

@@ -3,7 +3,14 @@
 // every pruning mode and a class target; bad worker counts are refused and
 // a worker's failure reaches the caller.
 import assert from "node:assert/strict";
-import { fitEnsemble, fitEnsembleParallel } from "../../../mod.ts";
+import {
+  bootstrapCounts,
+  diverseLeaves,
+  fitEnsemble,
+  fitEnsembleParallel,
+  shareTree,
+} from "../../../mod.ts";
+import { fitEnsemblesParallel } from "../../../lib/ensemble/fit_parallel.ts";
 import { smallLevels, smallPay } from "./_small_pay.ts";
 
 Deno.test("two workers give the same trees, alphas and out-of-bag figures as one thread", async () => {
@@ -31,6 +38,28 @@ Deno.test("two workers give the same trees, alphas and out-of-bag figures as one
     const n = options.trees;
     assert.deepEqual(done, Array.from({ length: n }, (_, i) => (i + 1) * 100 + n));
   }
+});
+
+Deno.test("shareable copies made in workers: those of one thread, shareTree(diverseLeaves(...))", async () => {
+  const dataset = smallPay();
+  // Pay rounded to 1,000 so that some leaves hold people paid the same.
+  const money = Float64Array.from(dataset.target.values, (v) => 1000 * Math.round(v / 1000));
+  const options = { trees: 6, seed: 4, prune: "none" as const, grow: { minLeaf: 3 } };
+  const share = { money };
+  const parallel = await fitEnsembleParallel(dataset, { ...options, share, workers: 2 });
+  const serial = fitEnsemble(dataset, { ...options, share });
+  assert.deepEqual(parallel.shared, serial.shared);
+  assert.deepEqual(parallel.trees, serial.trees);
+  let merged = 0;
+  serial.trees.forEach((tree, b) => {
+    const counts = bootstrapCounts(dataset.rows, serial.resamples, b);
+    const diverse = diverseLeaves(tree, dataset.features, counts, money);
+    if (diverse.nodeCount < tree.nodeCount) merged++;
+    assert.deepEqual(serial.shared![b], shareTree(diverse, dataset.features, dataset.rows));
+  });
+  assert(merged > 0);
+  // Without the option no copies are made.
+  assert.equal(fitEnsemble(dataset, options).shared, undefined);
 });
 
 Deno.test("a class target in workers: class shares out of bag as in one thread", async () => {
@@ -72,4 +101,37 @@ Deno.test("a tree that fails in a worker rejects the fit with the worker's error
     (error: Error) =>
       error.message.startsWith("a fitting worker failed") && /maxDepth/.test(error.message),
   );
+});
+
+Deno.test("several ensembles on one set of workers: each as fitEnsemble gives it", async () => {
+  const pay = smallPay();
+  const levels = smallLevels();
+  const jobs = [
+    { dataset: pay, options: { trees: 5, seed: 4, prune: "oob" as const, grow: { minLeaf: 3 } } },
+    { dataset: levels, options: { trees: 3, seed: 2, prune: "none" as const } },
+    { dataset: pay, options: { trees: 2, seed: 7, prune: "alpha" as const, alpha: 0.002 } },
+  ];
+  const progress: string[] = [];
+  const ensembles = await fitEnsemblesParallel(
+    jobs.map((job, j) => ({
+      ...job,
+      options: {
+        ...job.options,
+        onProgress: (d: number, n: number) => progress.push(`${j}:${d}/${n}`),
+      },
+    })),
+    2,
+  );
+  jobs.forEach((job, j) => {
+    const alone = fitEnsemble(job.dataset, job.options);
+    assert.deepEqual(ensembles[j].trees, alone.trees, `job ${j}`);
+    assert.deepEqual(ensembles[j].oob, alone.oob);
+    assert.deepEqual(ensembles[j].alphas, alone.alphas);
+  });
+  // Each job's progress counts its own trees.
+  for (const [j, n] of [[0, 5], [1, 3], [2, 2]]) {
+    const own = progress.filter((p) => p.startsWith(`${j}:`));
+    assert.deepEqual(own, Array.from({ length: n }, (_, i) => `${j}:${i + 1}/${n}`));
+  }
+  await assert.rejects(fitEnsemblesParallel(jobs, 0), RangeError);
 });

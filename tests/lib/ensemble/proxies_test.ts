@@ -11,6 +11,7 @@ import {
   modelToText,
   randomInt,
 } from "../../../mod.ts";
+import { proxyFigures, proxyFigureSets } from "../../../lib/ensemble/proxies.ts";
 
 // An invented table: night shifts are mostly worked by one sex (85%), so
 // "shift" carries it; "level" is drawn independently of it.
@@ -87,4 +88,32 @@ Deno.test("a model without protected columns names no proxies", async () => {
     workers: 1,
   });
   assert.deepEqual(model.proxies, []);
+});
+
+Deno.test("proxyFigureSets on two workers: each attribute's figures as proxyFigures gives them alone", async () => {
+  const rng = makeRng(5);
+  const n = 300;
+  const sex = Int32Array.from({ length: n }, () => randomInt(rng, 0, 1));
+  const age = Int32Array.from({ length: n }, () => randomInt(rng, 0, 2));
+  const shift = Float64Array.from(sex, (s) => (randomInt(rng, 0, 9) < 8 ? s : 1 - s));
+  const years = Float64Array.from(age, (a) => 5 * a + randomInt(rng, 0, 6));
+  const features = [
+    { name: "shift", kind: "numeric" as const, values: shift },
+    { name: "years", kind: "numeric" as const, values: years },
+  ];
+  const questions = [
+    { features, attribute: sex, groups: ["F", "M"], attributeName: "sex" },
+    { features, attribute: age, groups: ["young", "middle", "old"], attributeName: "age" },
+  ];
+  const together = await proxyFigureSets(questions, { trees: 12, seed: 3, workers: 2 });
+  for (const [i, q] of questions.entries()) {
+    const alone = await proxyFigures(q.features, q.attribute, q.groups, q.attributeName, {
+      trees: 12,
+      seed: 3,
+      workers: 1,
+    });
+    assert.deepEqual(together[i], alone);
+  }
+  assert.equal(together[0][0].feature, "shift");
+  assert.equal(together[1][0].feature, "years");
 });

@@ -2,7 +2,9 @@ import assert from "node:assert/strict";
 import { binFeatures } from "../../../lib/tree/bins.ts";
 import { applyRow, predictRows } from "../../../lib/tree/flat_tree.ts";
 import { growTree } from "../../../lib/tree/grow_tree.ts";
-import { shareTree } from "../../../lib/tree/share_tree.ts";
+import { shareableTree, shareTree } from "../../../lib/tree/share_tree.ts";
+import { diverseLeaves } from "../../../lib/tree/diverse_leaves.ts";
+import { bootstrapCounts, resampleStates } from "../../../lib/ensemble/bootstrap.ts";
 import { classification, levels, numeric, regression } from "./_small.ts";
 
 // Invented pay by years and site; a resample drew some rows twice and left others out.
@@ -70,4 +72,38 @@ Deno.test("a root-only tree's value is its leaf value; a class tree's shares are
   for (let k = 0; k < sharedClass.nodeCount; k++) {
     assert.ok(Math.abs(sharedClass.value[2 * k] + sharedClass.value[2 * k + 1] - 1) < 1e-12);
   }
+});
+
+Deno.test("shareableTree walks once and gives shareTree(diverseLeaves(...)) bit for bit", () => {
+  // 400 invented people on a pay scale (grade x step paid exactly, so many
+  // leaves hold people paid the same), a site with missing values, 30 resamples.
+  const n = 400;
+  const grade = Array.from({ length: n }, (_, i) => 1 + ((i * 7) % 5));
+  const step = Array.from({ length: n }, (_, i) => (i * 3) % 4);
+  const siteOf = Array.from({ length: n }, (_, i) => (i % 13 === 0 ? NaN : (i * 5) % 3));
+  const money = grade.map((g, i) => 30000 + 8000 * g + 1500 * step[i] + (i % 9 === 0 ? i : 0));
+  const dataset = regression(
+    [numeric("grade", grade), numeric("step", step), levels("site", siteOf, 3)],
+    money.map(Math.log),
+  );
+  const states = resampleStates(2, dataset.target.values, 30);
+  let merged = 0;
+  for (let b = 0; b < 30; b++) {
+    const counts = bootstrapCounts(n, states, b);
+    const grown = growTree({ dataset, bins: binFeatures(dataset), weights: counts }, {
+      minLeaf: 5,
+    });
+    const diverse = diverseLeaves(grown, dataset.features, counts, money);
+    if (diverse.nodeCount < grown.nodeCount) merged++;
+    assert.deepEqual(
+      shareableTree(grown, dataset.features, counts, money),
+      shareTree(diverse, dataset.features, n),
+    );
+    // Without money (a class tree's way): covers only.
+    assert.deepEqual(
+      shareableTree(grown, dataset.features, counts),
+      shareTree(grown, dataset.features, n),
+    );
+  }
+  assert(merged >= 10, `only ${merged} trees had leaves merged`);
 });
