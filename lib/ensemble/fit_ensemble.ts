@@ -10,7 +10,7 @@
 import type { Dataset } from "../dataset/types.ts";
 import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import { scoreSubtrees } from "../tree/cross_validate.ts";
-import { applyRow, type FlatTree } from "../tree/flat_tree.ts";
+import { applyRow, applyRows, type FlatTree } from "../tree/flat_tree.ts";
 import { canonicalRowOrder, type GrowOptions, growTree } from "../tree/grow_tree.ts";
 import {
   distinctSteps,
@@ -248,15 +248,19 @@ export function fitOneTree(
   }
   // The tree's prediction for each row it did not draw (NaN for the others).
   const width = tree.width;
+  // A tree made fit to share needs every row's leaf: walked once, for both.
+  const leaves = options.share === undefined
+    ? null
+    : applyRows(tree, dataset.features, dataset.rows);
   const oob = new Float64Array(dataset.rows * width).fill(NaN);
   for (let r = 0; r < dataset.rows; r++) {
     if (weights[r] !== 0) continue;
-    const leaf = applyRow(tree, dataset.features, r);
+    const leaf = leaves === null ? applyRow(tree, dataset.features, r) : leaves[r];
     for (let c = 0; c < width; c++) oob[r * width + c] = tree.value[leaf * width + c];
   }
-  const shared = options.share === undefined
+  const shared = options.share === undefined || leaves === null
     ? undefined
-    : shareableTree(tree, dataset.features, weights, options.share.money);
+    : shareableTree(tree, dataset.features, weights, options.share.money, leaves);
   const wanted = options.importance;
   if (wanted === undefined || dataset.target.kind !== "regression") {
     return { tree, alpha, oob, ...(shared ? { shared } : {}) };

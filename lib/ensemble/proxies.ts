@@ -16,6 +16,13 @@ import type { Ensemble } from "./fit_ensemble.ts";
 import { type EnsembleJob, fitEnsemblesParallel } from "./fit_parallel.ts";
 import { oobClassificationMetrics } from "./intervals.ts";
 
+// Rows from which the single-feature ensembles go to the workers. Below,
+// starting and warming two workers costs more than they save: on the demo
+// table (2,000 rows) the proxies took 0.56-0.74 s in this thread and
+// 1.03-1.09 s on two workers (bench/fit_phases.ts, same run). The same
+// trees either way.
+const WORKERS_FROM_ROWS = 20_000;
+
 /**
  * The default balanced accuracy from which a feature is named a possible proxy.
  *
@@ -201,9 +208,10 @@ export async function proxyFigureSets(
       },
     }))
   );
+  const rows = questions.length === 0 ? 0 : questions[0].attribute.length;
   const ensembles = await fitEnsemblesParallel(
     jobs,
-    options.workers ?? navigator.hardwareConcurrency ?? 1,
+    rows < WORKERS_FROM_ROWS ? 1 : options.workers ?? navigator.hardwareConcurrency ?? 1,
   );
   let next = 0;
   return questions.map((q) => {

@@ -113,11 +113,14 @@ export function shareTreeAt(tree: FlatTree, leaves: ArrayLike<number>): FlatTree
  *
  * @param counts How often the resample drew each training row.
  * @param money The target in money, row by row (regression; omitted for classes).
+ * @param leaves Each training row's leaf in `tree`, when the caller has
+ *   walked them already (the fitting worker walks every row once for this
+ *   and for the out-of-bag estimates).
  *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
- * import { binFeatures, diverseLeaves, growTree, shareableTree, shareTree } from "../../mod.ts";
+ * import { applyRow, binFeatures, diverseLeaves, growTree, shareableTree, shareTree } from "../../mod.ts";
  * // Four people paid 50 (x 1 to 4), the others paid differently.
  * const pay = [50, 50, 50, 50, 61, 70, 83, 90, 97, 64, 75, 99];
  * const x = [1, 2, 3, 4, 8, 9, 10, 11, 12, 7, 13, 14];
@@ -133,6 +136,8 @@ export function shareTreeAt(tree: FlatTree, leaves: ArrayLike<number>): FlatTree
  * const shared = shareableTree(tree, dataset.features, counts, pay);
  * assert.deepEqual(shared, shareTree(merged, dataset.features, 12));
  * assert.deepEqual([...shared.rows], [12, 7, 5]);
+ * const leaves = Int32Array.from(x, (_, r) => applyRow(tree, dataset.features, r));
+ * assert.deepEqual(shareableTree(tree, dataset.features, counts, pay, leaves), shared);
  * ```
  */
 export function shareableTree(
@@ -140,8 +145,8 @@ export function shareableTree(
   features: readonly Feature[],
   counts: ArrayLike<number>,
   money?: ArrayLike<number>,
+  leaves: Int32Array = applyRows(tree, features, counts.length),
 ): FlatTree {
-  const leaves = applyRows(tree, features, counts.length);
   const merged = money === undefined
     ? { tree, leaves }
     : diverseLeavesAt(tree, leaves, counts, money);
