@@ -129,9 +129,10 @@ export class CellColumn {
     this.push(text.slice(start, end).trim());
   }
 
-  // A plain decimal whose number gives its text back (givesBack's sure
-  // cases: "-?(0|[1-9]\d*)(\.\d*[1-9])?" of at most 15 characters, not
-  // "-0" nor below 0.00001) read from its characters; false for any other
+  // A plain decimal "-?(0|[1-9]\d*)(\.\d+)?" of at most 15 characters, not
+  // "-0" nor below 0.00001 (givesBack's sure cases: its number gives its
+  // text back, or would but for trailing zeros after the point, and then
+  // the text is kept aside) read from its characters; false for any other
   // cell, which then takes push().
   #pushNumberAt(text: string, start: number, end: number): boolean {
     if (end - start > 15) return false;
@@ -163,7 +164,6 @@ export class CellColumn {
         mantissa = mantissa * 10 + (c - 48);
         fraction++;
       }
-      if (c === 48) return false; // "40.10" is written "40.1"
     }
     if (negative && mantissa === 0) return false; // "-0"
     if (this.#isMissingAt(text, start, end)) return false;
@@ -171,6 +171,11 @@ export class CellColumn {
     const r = this.#length++;
     if (r === this.#values!.length) this.#grow();
     this.#values![r] = negative ? -magnitude : magnitude;
+    // "40.10" is written "40.1": its text is kept aside, as push() keeps it.
+    if (fraction > 0 && c === 48) {
+      this.#asideRows.push(r);
+      this.#asideTexts.push(text.slice(start, end));
+    }
     return true;
   }
 
