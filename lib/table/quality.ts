@@ -83,7 +83,7 @@ function payChecks(column: NumericColumn, present: Present, table: Table): Quali
   const warnings: QualityWarning[] = [];
   if (present.values.length === 0) return warnings;
   const median = selectQuantile(present.values, 0.5);
-  const [lowLog] = logFences(present.values, present.scratch);
+  const [lowLog] = logFencesOf(present);
   const nonPositive: number[] = [];
   const slips: number[] = [];
   let slipCount = 0;
@@ -135,6 +135,13 @@ function payChecks(column: NumericColumn, present: Present, table: Table): Quali
 // its fences are set on the log scale. The logs' quantiles are those of the
 // positive values with each order statistic taken to its log (the log keeps
 // the order), as quantile() of the sorted logs gives them.
+// A pay column's fences serve both its slip check and its far-out check:
+// found once.
+function logFencesOf(present: Present): [number, number] {
+  present.logFences ??= logFences(present.values, present.scratch);
+  return present.logFences;
+}
+
 function logFences(values: Float64Array, scratch: Scratch): [number, number] {
   if (scratch.positive.length < values.length) scratch.positive = new Float64Array(values.length);
   const positive = scratch.positive;
@@ -157,7 +164,7 @@ function farOut(
   let high: number;
   const logScale = column.money !== undefined && present.min > 0;
   if (logScale) {
-    [low, high] = logFences(values, present.scratch).map(Math.exp);
+    [low, high] = logFencesOf(present).map(Math.exp);
   } else {
     const q1 = selectQuantile(values, 0.25);
     const q3 = selectQuantile(values, 0.75);
@@ -297,6 +304,7 @@ interface Present {
   values: Float64Array;
   min: number;
   scratch: Scratch;
+  logFences?: [number, number];
 }
 
 interface Scratch {
