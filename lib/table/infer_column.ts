@@ -48,6 +48,10 @@ export interface InferColumnOptions {
 // A column is "numeric but for a few values" (and refused, rather than
 // silently made categorical) when at most this share of its values fail.
 const FEW_FAILURES = 0.05;
+// The amount of every present plain number in inferPlainColumn (settleMoney
+// reads no value from it).
+const PLAIN_AMOUNT: Amount = Object.freeze({ value: NaN });
+
 // Distinct texts counted once each for a column's inference; past this many
 // (identifiers, numbers) each cell is asked as it comes.
 const DISTINCT_MAX = 65536;
@@ -200,11 +204,14 @@ export function inferPlainColumn(
   if (options.type !== "numeric" && looksLikeNumericId(name, values, present)) {
     return identifier(texts(), base, options.isMissing);
   }
-  // Plain numbers carry no currency or period: amounts only for settleMoney's count.
-  const amounts: (Amount | undefined)[] = new Array(values.length);
+  // Plain numbers carry no currency or period: amounts only for settleMoney's
+  // count, which asks of each row only whether it has an amount and its
+  // currency and period. One shared amount with none of them stands for
+  // every present row: an object per row was a million objects for pay.
+  const amounts: (Amount | undefined)[] = [];
   if (isPayName(name) || options.period !== undefined) {
     for (let r = 0; r < values.length; r++) {
-      if (!Number.isNaN(values[r])) amounts[r] = { value: values[r] };
+      amounts.push(Number.isNaN(values[r]) ? undefined : PLAIN_AMOUNT);
     }
   }
   return numeric(name, { values, amounts, failures: [], money: false }, lines, base, options);
