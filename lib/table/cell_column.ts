@@ -16,6 +16,11 @@ import { MAX_AMOUNT_CHARS, PLAIN_NUMBER } from "./amount.ts";
 // past it (identifiers) sharing saves nothing.
 const SHARED_MAX = 65536;
 
+// Exact powers of ten: a decimal of at most 15 digits is an integer below
+// 2^53 over one of these, and one division of two exact doubles is
+// correctly rounded, as Number() is (Clinger's fast path).
+const POWERS_OF_TEN = Array.from({ length: 16 }, (_, k) => 10 ** k);
+
 // A digit and a point or comma somewhere: a cell a decimal mark could change.
 const NUMBER_LIKE = /\d.*[.,]|[.,].*\d/;
 
@@ -64,6 +69,12 @@ function givesBack(text: string, value: number): boolean {
  */
 export class CellColumn {
   #isMissing: (text: string) => boolean;
+  #isMissingAt: (text: string, start: number, end: number) => boolean;
+  // The shared texts again, found by the characters of a cell not yet cut
+  // out (open addressing on a hash of them; see #pushTextAt).
+  #internHashes = new Int32Array(0);
+  #internTexts: (string | undefined)[] = [];
+  #internCount = 0;
   #values: Float64Array | null = new Float64Array(1024);
   // Rows (ascending) whose text a number does not give back, and those texts.
   #asideRows: number[] = [];
@@ -72,9 +83,153 @@ export class CellColumn {
   #shared: Map<string, string> | null = null;
   #length = 0;
 
-  /** @param isMissing Which texts mean missing. */
-  constructor(isMissing: (text: string) => boolean) {
+  /**
+   * @param isMissing Which texts mean missing.
+   * @param isMissingAt The same test on `text.slice(start, end)` (see
+   * missingTestAt), for {@linkcode CellColumn.pushAt}; by default the cell is cut out.
+   */
+  constructor(
+    isMissing: (text: string) => boolean,
+    isMissingAt?: (text: string, start: number, end: number) => boolean,
+  ) {
     this.#isMissing = isMissing;
+    this.#isMissingAt = isMissingAt ?? ((text, start, end) => isMissing(text.slice(start, end)));
+  }
+
+  /**
+   * Adds the cell `text.slice(start, end)`, trimmed: the same as
+   * {@linkcode CellColumn.push} of that text, but a plain number or a
+   * repeated text is taken where it lies, without a string of its own.
+   *
+   * @example
+   * ```ts
+   * import assert from "node:assert/strict";
+   * import { CellColumn } from "./cell_column.ts";
+   * const row = "85000,40.10, 7 ,-0";
+   * const column = new CellColumn((t) => t === "");
+   * for (const [s, e] of [[0, 5], [6, 11], [12, 15], [16, 18]]) column.pushAt(row, s, e);
+   * assert.deepEqual([...column.plain!], [85000, 40.1, 7, -0]);
+   * assert.deepEqual(column.texts(), ["85000", "40.10", "7", "-0"]);
+   * ```
+   */
+  pushAt(text: string, start: number, end: number): void {
+    // First and last characters printable ASCII: trim() would change nothing.
+    if (end > start) {
+      const first = text.charCodeAt(start);
+      const last = text.charCodeAt(end - 1);
+      if (first > 32 && first < 127 && last > 32 && last < 127) {
+        if (this.#values !== null) {
+          if (this.#pushNumberAt(text, start, end)) return;
+        } else if (this.#shared !== null) {
+          this.#pushTextAt(text, start, end);
+          return;
+        }
+      }
+    }
+    this.push(text.slice(start, end).trim());
+  }
+
+  // A plain decimal "-?(0|[1-9]\d*)(\.\d+)?" of at most 15 characters, not
+  // "-0" nor below 0.00001 (givesBack's sure cases: its number gives its
+  // text back, or would but for trailing zeros after the point, and then
+  // the text is kept aside) read from its characters; false for any other
+  // cell, which then takes push().
+  #pushNumberAt(text: string, start: number, end: number): boolean {
+    if (end - start > 15) return false;
+    let i = start;
+    const negative = text.charCodeAt(i) === 45;
+    if (negative) i++;
+    if (i === end) return false;
+    let c = text.charCodeAt(i);
+    // A leading zero only before the point ("0.5"; "007" is written "7").
+    const zero = c === 48;
+    if (zero && i + 1 < end && text.charCodeAt(i + 1) !== 46) return false;
+    let mantissa = 0;
+    const integerFrom = i;
+    while (i < end) {
+      c = text.charCodeAt(i);
+      if (c < 48 || c > 57) break;
+      mantissa = mantissa * 10 + (c - 48);
+      i++;
+    }
+    if (i === integerFrom) return false;
+    let fraction = 0;
+    if (i < end) {
+      if (c !== 46 || i + 1 === end) return false; // not a point, or "40."
+      // "0.00000..." is written with an exponent below 1e-6.
+      if (zero && text.startsWith("00000", i + 1)) return false;
+      for (i++; i < end; i++) {
+        c = text.charCodeAt(i);
+        if (c < 48 || c > 57) return false;
+        mantissa = mantissa * 10 + (c - 48);
+        fraction++;
+      }
+    }
+    if (negative && mantissa === 0) return false; // "-0"
+    if (this.#isMissingAt(text, start, end)) return false;
+    const magnitude = fraction === 0 ? mantissa : mantissa / POWERS_OF_TEN[fraction];
+    const r = this.#length++;
+    if (r === this.#values!.length) this.#grow();
+    this.#values![r] = negative ? -magnitude : magnitude;
+    // "40.10" is written "40.1": its text is kept aside, as push() keeps it.
+    if (fraction > 0 && c === 48) {
+      this.#asideRows.push(r);
+      this.#asideTexts.push(text.slice(start, end));
+    }
+    return true;
+  }
+
+  // A text column's cell, shared with the same text seen before, found by
+  // its characters; cut out only when it is new.
+  #pushTextAt(text: string, start: number, end: number): void {
+    let hash = 0x811c9dc5;
+    for (let i = start; i < end; i++) hash = Math.imul(hash ^ text.charCodeAt(i), 0x01000193);
+    const hashes = this.#internHashes;
+    const texts = this.#internTexts;
+    const mask = hashes.length - 1;
+    if (mask > 0) {
+      for (let slot = hash & mask; texts[slot] !== undefined; slot = (slot + 1) & mask) {
+        const known = texts[slot]!;
+        if (
+          hashes[slot] === hash && known.length === end - start && text.startsWith(known, start)
+        ) {
+          this.#length++;
+          this.#texts!.push(known);
+          return;
+        }
+      }
+    }
+    const cell = text.slice(start, end);
+    this.#length++;
+    this.#pushText(cell);
+    if (this.#shared !== null) this.#intern(this.#shared.get(cell)!, hash);
+  }
+
+  // Records a shared text for #pushTextAt, the table kept at most half full.
+  #intern(shared: string, hash: number): void {
+    if (2 * (this.#internCount + 1) > this.#internHashes.length) {
+      const old = this.#internTexts;
+      const oldHashes = this.#internHashes;
+      const size = Math.max(64, 2 * oldHashes.length);
+      this.#internHashes = new Int32Array(size);
+      this.#internTexts = new Array(size).fill(undefined);
+      this.#internCount = 0;
+      for (let slot = 0; slot < old.length; slot++) {
+        if (old[slot] !== undefined) this.#intern(old[slot]!, oldHashes[slot]);
+      }
+    }
+    const mask = this.#internHashes.length - 1;
+    let slot = hash & mask;
+    while (this.#internTexts[slot] !== undefined) slot = (slot + 1) & mask;
+    this.#internHashes[slot] = hash;
+    this.#internTexts[slot] = shared;
+    this.#internCount++;
+  }
+
+  #grow(): void {
+    const grown = new Float64Array(this.#values!.length * 2);
+    grown.set(this.#values!);
+    this.#values = grown;
   }
 
   /** Number of cells. */
@@ -97,12 +252,8 @@ export class CellColumn {
         this.#pushText(text);
         return;
       }
-      if (r === this.#values.length) {
-        const grown = new Float64Array(this.#values.length * 2);
-        grown.set(this.#values);
-        this.#values = grown;
-      }
-      this.#values[r] = value;
+      if (r === this.#values.length) this.#grow();
+      this.#values![r] = value;
       // Keep the text when the number does not give it back.
       if (missing ? text !== "" : !givesBack(text, value)) {
         this.#asideRows.push(r);
@@ -210,6 +361,8 @@ export class CellColumn {
     if (known !== undefined) return known;
     if (shared.size >= SHARED_MAX) {
       this.#shared = null;
+      this.#internHashes = new Int32Array(0);
+      this.#internTexts = [];
       return text;
     }
     shared.set(text, text);

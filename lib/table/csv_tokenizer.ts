@@ -21,6 +21,61 @@ const LF = 10;
 export type RecordSink = (fields: string[], line: number) => void;
 
 /**
+ * One record's fields where they lie in the text scanned: field k is
+ * `text.slice(starts[k], ends[k])`, or, where `starts[k]` is -1 (a quoted
+ * field), `quoted[k]`. The object and its arrays are reused for the next
+ * record, so a sink reads them before it returns.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { CsvTokenizer, fieldText } from "./csv_tokenizer.ts";
+ * const seen: string[][] = [];
+ * const t = CsvTokenizer.bounds(",", "t.csv", (text, fields) => {
+ *   seen.push(Array.from({ length: fields.count }, (_, k) => fieldText(text, fields, k)));
+ * });
+ * t.push('a,"b,c"\n1,2\n');
+ * t.end();
+ * assert.deepEqual(seen, [["a", "b,c"], ["1", "2"]]);
+ * ```
+ */
+export interface FieldBounds {
+  /** Number of fields. */
+  count: number;
+  /** Where each unquoted field starts in the text; -1 for a quoted field. */
+  starts: Int32Array;
+  /** Where each unquoted field ends (exclusive). */
+  ends: Int32Array;
+  /** Each quoted field's value (its doubled quotes made single). */
+  quoted: string[];
+}
+
+/**
+ * Receives each record as bounds in `text` (see {@linkcode FieldBounds})
+ * and the line it starts on: fields are cut from the text only where the
+ * sink needs them, so a reader can take numbers from a row without a
+ * string per cell.
+ */
+export type BoundsSink = (text: string, fields: FieldBounds, line: number) => void;
+
+/**
+ * The text of field `k` of a record given as bounds.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fieldText } from "./csv_tokenizer.ts";
+ * const fields = { count: 2, starts: Int32Array.of(0, -1), ends: Int32Array.of(2, 0), quoted: ["", "x"] };
+ * assert.equal(fieldText("ab,\"x\"", fields, 0), "ab");
+ * assert.equal(fieldText("ab,\"x\"", fields, 1), "x");
+ * ```
+ */
+export function fieldText(text: string, fields: FieldBounds, k: number): string {
+  const start = fields.starts[k];
+  return start < 0 ? fields.quoted[k] : text.slice(start, fields.ends[k]);
+}
+
+/**
  * Tokenizes CSV text pushed in chunks.
  *
  * @example
@@ -44,7 +99,14 @@ export class CsvTokenizer {
   #delimiter: number;
   #delimiterText: string;
   #file: string;
-  #sink: RecordSink;
+  #sink: BoundsSink;
+  // The record being scanned, as bounds; reused from record to record.
+  #fields: FieldBounds = {
+    count: 0,
+    starts: new Int32Array(16),
+    ends: new Int32Array(16),
+    quoted: [],
+  };
 
   /**
    * @param delimiter One character.
@@ -56,7 +118,50 @@ export class CsvTokenizer {
     this.#delimiter = delimiter.charCodeAt(0);
     this.#delimiterText = delimiter;
     this.#file = file;
-    this.#sink = sink;
+    this.#sink = (text, fields, line) => {
+      const record = new Array<string>(fields.count);
+      for (let k = 0; k < fields.count; k++) record[k] = fieldText(text, fields, k);
+      sink(record, line);
+    };
+  }
+
+  /**
+   * A tokenizer that gives each record as bounds in the text scanned
+   * (see {@linkcode FieldBounds}) instead of an array of strings.
+   *
+   * @example
+   * ```ts
+   * import assert from "node:assert/strict";
+   * import { CsvTokenizer } from "./csv_tokenizer.ts";
+   * const counts: number[] = [];
+   * const t = CsvTokenizer.bounds(";", "t.csv", (_, fields, line) => counts.push(fields.count, line));
+   * t.push("a;b;c\n1;2;3\n");
+   * t.end();
+   * assert.deepEqual(counts, [3, 1, 3, 2]);
+   * ```
+   */
+  static bounds(delimiter: string, file: string, sink: BoundsSink): CsvTokenizer {
+    const tokenizer = new CsvTokenizer(delimiter, file, () => {});
+    tokenizer.#sink = sink;
+    return tokenizer;
+  }
+
+  // Adds one field to the record being scanned: unquoted from start to end,
+  // or (start -1) the quoted value.
+  #add(start: number, end: number, quoted: string): void {
+    const f = this.#fields;
+    if (f.count === f.starts.length) {
+      const starts = new Int32Array(2 * f.count);
+      const ends = new Int32Array(2 * f.count);
+      starts.set(f.starts);
+      ends.set(f.ends);
+      f.starts = starts;
+      f.ends = ends;
+    }
+    f.starts[f.count] = start;
+    f.ends[f.count] = end;
+    if (start < 0) f.quoted[f.count] = quoted;
+    f.count++;
   }
 
   /** Adds text; every record complete in the text so far is passed on. */
@@ -99,7 +204,8 @@ export class CsvTokenizer {
     while (pos < n) {
       const startLine = this.#line;
       let lines = 0;
-      const fields: string[] = [];
+      const fields = this.#fields;
+      fields.count = 0;
       let i = pos;
       let complete = false;
       for (;;) {
@@ -134,7 +240,7 @@ export class CsvTokenizer {
             );
           }
           value += text.slice(from, j);
-          fields.push(value);
+          this.#add(-1, 0, value);
           i = j + 1;
           if (i >= n) {
             if (!final) return pos;
@@ -173,7 +279,7 @@ export class CsvTokenizer {
           j++;
         }
         if (j >= n && !final) return pos;
-        fields.push(text.slice(i, j));
+        this.#add(i, j, "");
         if (j >= n) {
           i = n;
           complete = true;
@@ -185,7 +291,7 @@ export class CsvTokenizer {
           // A delimiter at the very end of the text: one more, empty field.
           if (i >= n) {
             if (!final) return pos;
-            fields.push("");
+            this.#add(n, n, "");
             complete = true;
             break;
           }
@@ -200,7 +306,7 @@ export class CsvTokenizer {
       if (!complete) return pos;
       this.#line = startLine + lines;
       pos = i;
-      this.#sink(fields, startLine);
+      this.#sink(text, fields, startLine);
     }
     return pos;
   }

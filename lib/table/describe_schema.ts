@@ -76,7 +76,11 @@ export function describeSchema(table: Table): SchemaSummary {
     } else if (column.type === "numeric") {
       let min = Infinity;
       let max = -Infinity;
-      for (const v of column.values) {
+      // An indexed loop: for...of over a typed array of a million values
+      // cost a quarter of a second.
+      const values = column.values;
+      for (let r = 0; r < values.length; r++) {
+        const v = values[r];
         if (v < min) min = v;
         if (v > max) max = v;
       }

@@ -48,6 +48,13 @@ export interface InferColumnOptions {
 // A column is "numeric but for a few values" (and refused, rather than
 // silently made categorical) when at most this share of its values fail.
 const FEW_FAILURES = 0.05;
+// The amount of every present plain number in inferPlainColumn (settleMoney
+// reads no value from it).
+const PLAIN_AMOUNT: Amount = Object.freeze({ value: NaN });
+
+// Distinct texts counted once each for a column's inference; past this many
+// (identifiers, numbers) each cell is asked as it comes.
+const DISTINCT_MAX = 65536;
 const QUOTED_FAILURES = 5;
 const ID_WORDS = new Set(["id", "ids", "identifier", "uuid", "guid", "key", "no", "nr", "number"]);
 const NEARLY_UNIQUE = 0.95;
@@ -85,15 +92,45 @@ export function inferColumn(
   options: InferColumnOptions,
 ): Column {
   const { isMissing } = options;
+  // Each distinct text once, where there are few (levels): the missing test,
+  // the reading as a number and the level codes are then asked of each
+  // distinct text, not of each of a million cells.
+  const distinct = distinctTexts(cells);
   let missing = 0;
-  for (const cell of cells) if (isMissing(cell)) missing++;
+  if (distinct === undefined) {
+    for (const cell of cells) if (isMissing(cell)) missing++;
+  } else {
+    for (const [text, count] of distinct) if (isMissing(text)) missing += count;
+  }
   const base = { name, missing, protected: options.protected, notes: [] as string[] };
 
   if (options.type === "identifier") return identifier(cells, base, isMissing);
   if (options.order !== undefined || options.type === "ordinal") {
-    return levels(name, cells, lines, base, options, "ordinal");
+    return levels(name, cells, lines, base, options, "ordinal", distinct);
   }
-  if (options.type === "categorical") return levels(name, cells, lines, base, options);
+  if (options.type === "categorical") {
+    return levels(name, cells, lines, base, options, undefined, distinct);
+  }
+  // Text that is no number, tallied over the distinct texts: where the
+  // column is levels below, whatever the rows, no per-row reading is needed.
+  if (distinct !== undefined && options.type === undefined) {
+    let failures = 0;
+    const numbers = new Set<number>();
+    for (const [text, count] of distinct) {
+      if (isMissing(text)) continue;
+      const amount = parseAmount(text, options.decimal);
+      if (amount === undefined) failures += count;
+      else numbers.add(amount.value);
+    }
+    const present = cells.length - missing;
+    const failureShare = failures / Math.max(present, 1);
+    const payLike = isPayName(name) && failureShare < 0.5;
+    const numbersAfterAll = payLike ||
+      (present > 0 && failureShare <= FEW_FAILURES && numbers.size >= 5);
+    if (failures > 0 && !numbersAfterAll) {
+      return levels(name, cells, lines, base, options, undefined, distinct);
+    }
+  }
 
   const parsed = readNumbers(cells, options);
   const present = cells.length - missing;
@@ -167,11 +204,14 @@ export function inferPlainColumn(
   if (options.type !== "numeric" && looksLikeNumericId(name, values, present)) {
     return identifier(texts(), base, options.isMissing);
   }
-  // Plain numbers carry no currency or period: amounts only for settleMoney's count.
-  const amounts: (Amount | undefined)[] = new Array(values.length);
+  // Plain numbers carry no currency or period: amounts only for settleMoney's
+  // count, which asks of each row only whether it has an amount and its
+  // currency and period. One shared amount with none of them stands for
+  // every present row: an object per row was a million objects for pay.
+  const amounts: (Amount | undefined)[] = [];
   if (isPayName(name) || options.period !== undefined) {
     for (let r = 0; r < values.length; r++) {
-      if (!Number.isNaN(values[r])) amounts[r] = { value: values[r] };
+      amounts.push(Number.isNaN(values[r]) ? undefined : PLAIN_AMOUNT);
     }
   }
   return numeric(name, { values, amounts, failures: [], money: false }, lines, base, options);
@@ -327,6 +367,19 @@ function identifier(cells: readonly string[], base: Base, isMissing: (t: string)
   };
 }
 
+// Each distinct text of the cells with its count, in order of first
+// appearance; undefined past DISTINCT_MAX of them (identifiers, numbers).
+function distinctTexts(cells: readonly string[]): Map<string, number> | undefined {
+  const counts = new Map<string, number>();
+  for (const cell of cells) {
+    const count = counts.get(cell);
+    if (count !== undefined) counts.set(cell, count + 1);
+    else if (counts.size === DISTINCT_MAX) return undefined;
+    else counts.set(cell, 1);
+  }
+  return counts;
+}
+
 function levels(
   name: string,
   cells: readonly string[],
@@ -334,10 +387,16 @@ function levels(
   base: Base,
   options: InferColumnOptions,
   forced?: "ordinal",
+  distinct?: Map<string, number>,
 ): Column {
-  const counts = new Map<string, number>();
-  for (const cell of cells) {
-    if (!options.isMissing(cell)) counts.set(cell, (counts.get(cell) ?? 0) + 1);
+  // The present levels with their counts, in order of first appearance.
+  let counts = new Map<string, number>();
+  if (distinct === undefined) {
+    for (const cell of cells) {
+      if (!options.isMissing(cell)) counts.set(cell, (counts.get(cell) ?? 0) + 1);
+    }
+  } else {
+    counts = new Map([...distinct].filter(([text]) => !options.isMissing(text)));
   }
   const present = cells.length - base.missing;
   if (forced === undefined && options.type === undefined) {
@@ -371,8 +430,14 @@ function levels(
   }
   const index = new Map(order.map((level, i) => [level, i]));
   const codes = new Int32Array(cells.length);
-  for (let r = 0; r < cells.length; r++) {
-    codes[r] = options.isMissing(cells[r]) ? -1 : index.get(cells[r])!;
+  if (distinct === undefined) {
+    for (let r = 0; r < cells.length; r++) {
+      codes[r] = options.isMissing(cells[r]) ? -1 : index.get(cells[r])!;
+    }
+  } else {
+    // Every distinct text's code (missing -1), then one look-up per cell.
+    for (const text of distinct.keys()) if (options.isMissing(text)) index.set(text, -1);
+    for (let r = 0; r < cells.length; r++) codes[r] = index.get(cells[r])!;
   }
   const column: LevelColumn = { ...base, type, codes, levels: order };
   const inferred = forced === undefined && options.type === undefined &&

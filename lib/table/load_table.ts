@@ -12,7 +12,7 @@ import { matchName, unknownColumn } from "./column_named.ts";
 import { type DecimalMark, parseAmount } from "./amount.ts";
 import { type DeclaredType, inferColumn, inferPlainColumn } from "./infer_column.ts";
 import { type DecimalMarkReading, judgeDecimalMark } from "./decimal_mark.ts";
-import { DEFAULT_MISSING_TOKENS, missingTest } from "./missing.ts";
+import { DEFAULT_MISSING_TOKENS, missingTest, missingTestAt } from "./missing.ts";
 import { applyFte, isPayName } from "./money.ts";
 import { isProtectedName } from "./protected_names.ts";
 import { findQualityWarnings } from "./quality.ts";
@@ -134,6 +134,7 @@ function tableReader(options: LoadTableOptions): CsvColumnsReader {
     file: options.file ?? "input",
     delimiter: options.delimiter,
     isMissing: missingTest(options.missing ?? DEFAULT_MISSING_TOKENS),
+    isMissingAt: missingTestAt(options.missing ?? DEFAULT_MISSING_TOKENS),
   });
 }
 

@@ -9,7 +9,7 @@
 import { parse } from "csv-parse/sync";
 import { DataError, OptionError } from "../errors.ts";
 import { CellColumn } from "./cell_column.ts";
-import { CsvTokenizer } from "./csv_tokenizer.ts";
+import { CsvTokenizer, type FieldBounds, fieldText } from "./csv_tokenizer.ts";
 
 /** Options for {@linkcode readCsv}. */
 export interface ReadCsvOptions {
@@ -151,6 +151,12 @@ export interface ReadColumns {
 export interface ColumnsReaderOptions extends ReadCsvOptions {
   /** Which cell texts mean missing (kept compactly in numeric columns). */
   isMissing: (text: string) => boolean;
+  /**
+   * The same test on `text.slice(start, end)` (missingTestAt), so that a
+   * number is read from a row without cutting its cell out; by default the
+   * cell is cut out for `isMissing`.
+   */
+  isMissingAt?: (text: string, start: number, end: number) => boolean;
 }
 
 // Text held back to detect the delimiter: this many lines, or the whole input.
@@ -257,28 +263,38 @@ export class CsvColumnsReader {
     // Detect on whole lines only: a cut line would look ragged.
     const cut = final ? text.length : Math.max(text.lastIndexOf("\n"), text.lastIndexOf("\r")) + 1;
     const delimiter = this.#options.delimiter ?? detectDelimiter(text.slice(0, cut));
-    this.#tokenizer = new CsvTokenizer(
+    this.#tokenizer = CsvTokenizer.bounds(
       delimiter,
       this.#file,
-      (fields, line) => this.#record(fields, line),
+      (text, fields, line) => this.#record(text, fields, line),
     );
     this.#tokenizer.push(text);
   }
 
-  #record(record: string[], line: number): void {
-    if (record.length === 1 && record[0].trim() === "") return;
+  // One record, as bounds in `text`: each cell goes to its column where it
+  // lies (CellColumn.pushAt), cut out of the text only when needed.
+  #record(text: string, fields: FieldBounds, line: number): void {
+    const count = fields.count;
+    if (count === 1 && fieldText(text, fields, 0).trim() === "") return;
     const header = this.#header;
     if (header === undefined) {
-      this.#header = checkHeader(record.map((h) => h.trim()), this.#file, line);
-      this.#columns = this.#header.map(() => new CellColumn(this.#options.isMissing));
+      const names = Array.from({ length: count }, (_, k) => fieldText(text, fields, k).trim());
+      this.#header = checkHeader(names, this.#file, line);
+      const { isMissing, isMissingAt } = this.#options;
+      this.#columns = this.#header.map(() => new CellColumn(isMissing, isMissingAt));
       return;
     }
-    if (record.length !== header.length) {
+    if (count !== header.length) {
       this.#raggedCount++;
-      if (this.#ragged.length < RAGGED_SHOWN) this.#ragged.push({ line, fields: record.length });
+      if (this.#ragged.length < RAGGED_SHOWN) this.#ragged.push({ line, fields: count });
       return;
     }
-    for (let c = 0; c < record.length; c++) this.#columns[c].push(record[c].trim());
+    const columns = this.#columns;
+    const starts = fields.starts;
+    for (let c = 0; c < count; c++) {
+      if (starts[c] < 0) columns[c].push(fields.quoted[c].trim());
+      else columns[c].pushAt(text, starts[c], fields.ends[c]);
+    }
     this.#lines.push(line);
   }
 }

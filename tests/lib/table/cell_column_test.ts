@@ -1,7 +1,7 @@
 import assert from "node:assert/strict";
 import fc from "fast-check";
 import { CellColumn } from "../../../lib/table/cell_column.ts";
-import { missingTest } from "../../../lib/table/missing.ts";
+import { missingTest, missingTestAt } from "../../../lib/table/missing.ts";
 
 const isMissing = missingTest();
 
@@ -133,4 +133,89 @@ Deno.test("the compact column agrees with the plain model on generated columns",
     }),
     { seed: 15, numRuns: 400 },
   );
+});
+
+// pushAt must be push of the trimmed cell, whatever the cell and what lies
+// around it in the row: the same texts, the same numbers (-0 kept apart from
+// 0), the same turn to text.
+function sameAsPush(cells: readonly string[], tokens?: readonly string[]) {
+  const isMissing = missingTest(tokens);
+  const byText = new CellColumn(isMissing);
+  const byBounds = new CellColumn(isMissing, missingTestAt(tokens));
+  const row = "x," + cells.join(",") + ",y";
+  let start = 2;
+  for (const cell of cells) {
+    byText.push(cell.trim());
+    byBounds.pushAt(row, start, start + cell.length);
+    start += cell.length + 1;
+  }
+  assert.deepEqual(byBounds.texts(), byText.texts());
+  assert.deepEqual(
+    byBounds.plain && Array.from(byBounds.plain),
+    byText.plain && Array.from(byText.plain),
+  );
+  assert.equal(byBounds.length, cells.length);
+  return byBounds;
+}
+
+Deno.test("pushAt reads each cell as push reads it trimmed", () => {
+  const cells = ["85000", "40.10", "007", "-0", "+5", ".5", "-.5", "1e3", "40.", "-0.0", "0"];
+  cells.push("0.00001", "0.000009", "0.0000001", "-0.5", "123456789012345", "1234567890123456");
+  cells.push("9007199254740993", "0.1", "0.30000000000000004", " 12 ", "\u00a012\u00a0", "1e400");
+  cells.push("NA", "", " ", "-", "n/a", "0x10", "12.5.1", "1-2", "--1", "-", "3");
+  const c = sameAsPush(cells);
+  // A number read from its characters is Number() of them.
+  assert.ok(Object.is(c.texts()[3], "-0") && c.texts()[0] === "85000");
+  // Tokens of one's own that look like numbers are missing, not numbers.
+  const own = sameAsPush(["1", "999", "-1", "2.5", "0"], ["999", "-1", "0"]);
+  assert.deepEqual(Array.from(own.plain!), [1, NaN, NaN, 2.5, NaN]);
+  // A text column shares each repeated level, cut out once.
+  const levels = sameAsPush([
+    "L1",
+    "L2",
+    "x",
+    "L1",
+    " L2",
+    "L2 ",
+    "",
+    "NA",
+    "\u00e9t\u00e9",
+    "\u00e9t\u00e9",
+  ]);
+  assert.deepEqual(levels.texts(), ["L1", "L2", "x", "L1", "L2", "L2", "", "NA", "été", "été"]);
+});
+
+Deno.test("pushAt agrees with push on generated cells and rows", () => {
+  const cell = fc.oneof(
+    fc.integer({ min: -1e9, max: 1e9 }).map(String),
+    fc.double({ noNaN: true, noDefaultInfinity: true }).map(String),
+    fc.double({ min: -1e6, max: 1e6, noNaN: true }).map((x) =>
+      x.toFixed(fc.sample(fc.nat(6), 1)[0])
+    ),
+    fc.constantFrom(
+      "NA",
+      "",
+      " ",
+      "-",
+      "007",
+      "-0",
+      "+1",
+      ".5",
+      "1.",
+      "0.000001",
+      "1e-7",
+      "L1",
+      "L2",
+    ),
+    fc.stringMatching(/^ ?-?\d{1,17}(\.\d{0,17})? ?$/),
+    fc.string({ maxLength: 4 }).filter((t) => !t.includes(",")),
+  );
+  fc.assert(
+    fc.property(fc.array(cell, { maxLength: 60 }), (cells) => {
+      sameAsPush(cells);
+    }),
+    { seed: 16, numRuns: 500 },
+  );
+  // Many distinct levels: past the shared limit the texts are no longer shared, still equal.
+  sameAsPush(Array.from({ length: 70_000 }, (_, i) => `k${i % 66_000}`));
 });

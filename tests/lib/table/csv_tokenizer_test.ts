@@ -1,7 +1,7 @@
 import assert from "node:assert/strict";
 import { parse } from "csv-parse/sync";
 import { DataError } from "../../../lib/errors.ts";
-import { CsvTokenizer } from "../../../lib/table/csv_tokenizer.ts";
+import { CsvTokenizer, fieldText } from "../../../lib/table/csv_tokenizer.ts";
 
 type Out = [string[], number][];
 
@@ -118,4 +118,33 @@ Deno.test("the same fields as csv-parse on mixed texts", () => {
     const expected = parse(text, { delimiter, relax_column_count: true }) as string[][];
     assert.deepEqual(everySplit(text, delimiter).map(([fields]) => fields), expected);
   }
+});
+
+Deno.test("records given as bounds are the records given as strings, cut anywhere", () => {
+  const texts = [
+    'id,note\n1,"a, ""b""\nc"\n2,x\n',
+    "a;b\r\n1;\r\n;2\r\n\r\n3;4",
+    'x,"",y,\n"q",\n,\n',
+    'a\tb\rc\t"d\r"\r',
+  ];
+  for (
+    const [text, delimiter] of texts.map((
+      t,
+    ) => [t, t.includes(";") ? ";" : t.includes("\t") ? "\t" : ","])
+  ) {
+    const whole = tokenize([text], delimiter);
+    for (let k = 0; k <= text.length; k++) {
+      const records: Out = [];
+      const t = CsvTokenizer.bounds(delimiter, "t.csv", (buffer, fields, line) => {
+        const record = [];
+        for (let f = 0; f < fields.count; f++) record.push(fieldText(buffer, fields, f));
+        records.push([record, line]);
+      });
+      t.push(text.slice(0, k));
+      t.push(text.slice(k));
+      t.end();
+      assert.deepEqual(records, whole, `cut at ${k}`);
+    }
+  }
+  assert.deepEqual(tokenize(['x,"",y,\n'])[0], [["x", "", "y", ""], 1]);
 });

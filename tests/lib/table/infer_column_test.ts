@@ -233,3 +233,38 @@ Deno.test("inferPlainColumn: the same column from numbers, or undefined where te
   }, () => []);
   assert.deepEqual(Array.from((pay as { values: Float64Array }).values), [20000, 40000]);
 });
+
+// A text column is inferred from its distinct texts when they are few, from
+// each cell past 65,536 of them; both read as before (pinned on the code
+// that read every cell).
+Deno.test("few distinct texts and very many infer as cell by cell, codes and missing included", () => {
+  const options = {
+    file: "t.csv",
+    decimal: "." as const,
+    isMissing: missingTest(),
+    protected: false,
+  };
+  const many = Array.from({ length: 70_000 }, (_, i) => (i % 7 === 0 ? "NA" : `k${i % 66_000}`));
+  const lines = Array.from({ length: many.length }, (_, i) => i + 2);
+  const code = inferColumn("code", many, lines, options);
+  assert.deepEqual([code.type, code.missing], ["identifier", 10_000]);
+  const few = Array.from(
+    { length: 1000 },
+    (_, i) => (i % 5 === 0 ? "n/a" : i % 3 === 0 ? "12" : `L${i % 4}`),
+  );
+  const grade = inferColumn("grade", few, lines, options);
+  assert.ok(grade.type === "categorical" && grade.missing === 200);
+  assert.deepEqual(grade.levels, ["12", "L0", "L1", "L2", "L3"]);
+  assert.deepEqual([...grade.codes.slice(0, 10)], [-1, 2, 3, 0, 1, -1, 0, 4, 1, 0]);
+  // One stray text among pay, or among 99 distinct numbers, is quoted back, not made levels.
+  const pay = Array.from({ length: 100 }, (_, i) => (i === 7 ? "TBD" : `${50000 + i}`));
+  assert.throws(
+    () => inferColumn("pay", pay, lines, options),
+    /pay: line 9 has "TBD", not a number/,
+  );
+  const mostly = Array.from({ length: 100 }, (_, i) => (i === 7 ? "TBD" : `${i}`));
+  assert.throws(
+    () => inferColumn("x", mostly, lines, options),
+    /declare it with type x=categorical/,
+  );
+});

@@ -1,5 +1,11 @@
 import assert from "node:assert/strict";
-import { DataError, loadTable, type LoadTableOptions, OptionError } from "../../../mod.ts";
+import {
+  DataError,
+  loadTable,
+  loadTableChunks,
+  type LoadTableOptions,
+  OptionError,
+} from "../../../mod.ts";
 import type { Column } from "../../../lib/table/types.ts";
 
 function column(csv: string, name: string, options: LoadTableOptions = {}): Column {
@@ -456,4 +462,114 @@ Deno.test("a column declared numeric stays numeric when every cell is missing or
   assert.ok(offer.type === "numeric" && offer.values.every((v) => v === 50000));
   // Undeclared, the same columns are constant and left out of models.
   assert.equal(loadTable("id,rating,offer\na,,50000\nb,,50000\n").columns[2].type, "constant");
+});
+
+// Pinned before the reader learned to read numbers from the cells where they
+// lie (without a string per cell): each cell that is almost a number reads
+// exactly as Number() and the text reader read it, whole or in pieces.
+const ALMOST_NUMBERS = rows("big,neg0,hex,spaced,comma,pay", [
+  '1e400,-0,0x10, 12 ,"1,5",1',
+  "2,3,4,5,6,2",
+]);
+
+async function loadPieces(csv: string, size: number, options: LoadTableOptions = {}) {
+  const bytes = new TextEncoder().encode(csv);
+  async function* pieces() {
+    for (let i = 0; i < bytes.length; i += size) yield bytes.subarray(i, i + size);
+  }
+  return await loadTableChunks(pieces(), options);
+}
+
+Deno.test("cells that are almost numbers read as Number() reads them, whole or in pieces", async () => {
+  const table = loadTable(ALMOST_NUMBERS);
+  const [big, neg0, hex, spaced, comma] = table.columns;
+  // Too large for a double, hexadecimal, a comma under the point mark: text.
+  assert.deepEqual(big.type === "categorical" && big.levels, ["1e400", "2"]);
+  assert.deepEqual(hex.type === "categorical" && hex.levels, ["0x10", "4"]);
+  assert.deepEqual(comma.type === "categorical" && comma.levels, ["1,5", "6"]);
+  // "-0" is negative zero; spaces around a number are trimmed.
+  assert.ok(neg0.type === "numeric" && Object.is(neg0.values[0], -0) && neg0.values[1] === 3);
+  assert.deepEqual(spaced.type === "numeric" && [...spaced.values], [12, 5]);
+  assert.deepEqual(table.warnings.map((w) => w.kind), ["decimal-mark"]);
+  for (const size of [1, 7]) assert.deepEqual(await loadPieces(ALMOST_NUMBERS, size), table);
+});
+
+Deno.test("signs, points, exponents and long digit runs read as Number() reads them", async () => {
+  const csv = rows("x,y,z", [
+    "-0,1e3,9007199254740993",
+    "-0.0,.5,0.30000000000000004",
+    "+5,-.5,1.7976931348623157e308",
+    "007,40.,5e-324",
+    "40.10,0.0000001,1.234567890123456789",
+    '" 12 ",123456789012345678,123456789012345.6',
+    "1.5E-3,-1e-7,12345678901234.56",
+  ]);
+  const table = loadTable(csv);
+  const values = table.columns.map((c) => (c.type === "numeric" ? [...c.values] : c.type));
+  const z = [9007199254740992, 0.30000000000000004, 1.7976931348623157e308, 5e-324];
+  z.push(1.2345678901234567, 123456789012345.6, 12345678901234.56);
+  assert.deepEqual(values, [
+    [-0, -0, 5, 7, 40.1, 12, 0.0015],
+    [1000, 0.5, -0.5, 40, 1e-7, 123456789012345680, -1e-7],
+    z,
+  ]);
+  assert.ok(table.columns[0].type === "numeric" && Object.is(table.columns[0].values[1], -0));
+  for (const size of [1, 3]) assert.deepEqual(await loadPieces(csv, size), table);
+  // Infinity either way is text, wherever the first such cell comes.
+  for (const cell of ["1e400", "-1e400", "Infinity"]) {
+    const late = loadTable(rows("x", ["1", "2", cell])).columns[0];
+    assert.deepEqual(late.type === "categorical" && late.levels.includes(cell), true);
+  }
+});
+
+Deno.test("CRLF, CR, quotes, spaces, missing tokens and multi-byte text read the same in pieces", async () => {
+  const csv = 'id,name,level,x,pay\r\n1,"café ""A""",L1, NA ,"50,000"\r\n' +
+    '2,"line\r\nbreak",L2,n/a,61000\r\n3,€,L1,-,\r\n4,naïve,L3,"  7.50 ",55000\r\n';
+  const table = loadTable(csv, { target: "pay" });
+  const [id, name, level, x, pay] = table.columns;
+  // "id" names rows: its texts are kept, the excluded row's left out.
+  assert.deepEqual(id.type === "identifier" && id.values, ["1", "2", "4"]);
+  assert.deepEqual(name.type === "categorical" && name.levels.sort(), [
+    'café "A"',
+    "line\r\nbreak",
+    "naïve",
+  ]);
+  assert.deepEqual(level.type === "ordinal" && level.levels, ["L1", "L2", "L3"]);
+  // One value besides the missing tokens: a constant, said as its number.
+  assert.ok(x.type === "constant" && x.missing === 2 && x.value === "7.5");
+  assert.deepEqual(pay.type === "numeric" && [...pay.values], [50000, 61000, 55000]);
+  assert.deepEqual([...table.lines], [2, 3, 6]);
+  for (const size of [1, 2, 5]) {
+    assert.deepEqual(await loadPieces(csv, size, { target: "pay" }), table);
+  }
+  const cr = "a,pay\r1,2\r3,4\r";
+  assert.deepEqual(await loadPieces(cr, 1), loadTable(cr));
+  assert.deepEqual([...loadTable(cr).lines], [2, 3]);
+});
+
+Deno.test("a huge cell and a long run of digits are text, read the same in pieces", async () => {
+  const csv = rows("name,n,pay", [`${"x".repeat(200_000)},${"1".repeat(300)},1`, "b,2,2"]);
+  const table = loadTable(csv);
+  const [name, n] = table.columns;
+  assert.ok(name.type === "categorical" && name.levels[1] === "x".repeat(200_000));
+  assert.deepEqual(n.type === "categorical" && n.levels, ["2", "1".repeat(300)]);
+  assert.deepEqual(await loadPieces(csv, 4096), table);
+});
+
+Deno.test("bytes that are not UTF-8 are refused with their line, in pieces too", async () => {
+  const bytes = new TextEncoder().encode("name,pay\nok,1\n" + "x,2\n".repeat(20_000));
+  const bad = new Uint8Array([...bytes, 0xc3, 0x28, 0x2c, 0x33, 0x0a]);
+  async function* pieces() {
+    for (let i = 0; i < bad.length; i += 65536) yield bad.subarray(i, i + 65536);
+  }
+  const message = "input line 20003 is not valid utf-8 text; re-save the file as UTF-8, or " +
+    "name its encoding (e.g. encoding windows-1252)";
+  await assert.rejects(() => loadTableChunks(pieces()), (e: unknown) => {
+    assert.ok(e instanceof DataError && e.message === message, String(e));
+    return true;
+  });
+  assert.throws(
+    () => loadTable(bad),
+    (e: unknown) => e instanceof DataError && e.message === message,
+  );
 });

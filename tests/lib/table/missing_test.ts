@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { DEFAULT_MISSING_TOKENS, missingTest } from "../../../lib/table/missing.ts";
+import { DEFAULT_MISSING_TOKENS, missingTest, missingTestAt } from "../../../lib/table/missing.ts";
 
 Deno.test("the default tokens, in any case and with spaces around, are missing", () => {
   const isMissing = missingTest();
@@ -67,4 +67,26 @@ Deno.test("a cell is missing whatever the case of its first letter, and a non-AS
     assert.equal(isMissing(cell), true, cell);
   }
   for (const cell of ["5", "NB", "G3", "Nairobi", "x"]) assert.equal(isMissing(cell), false, cell);
+});
+
+Deno.test("missingTestAt agrees with missingTest on the cell cut out of a row", () => {
+  for (const tokens of [DEFAULT_MISSING_TOKENS, ["NA", "kelvin", "ñ/d", "0", "999", "-1"], []]) {
+    const isMissing = missingTest(tokens);
+    const isMissingAt = missingTestAt(tokens);
+    const cells = ["", " ", "\t", "na", " NULL ", "-", "-1", "-12", "0", "0.5", "999", "9999"];
+    cells.push("\u212Aelvin", "KELVIN", "Ñ/D", "N/A", "#n/a", "NaN", "nan5", "\u00a0NA\u00a0", "x");
+    let checked = 0;
+    for (const cell of cells) {
+      for (const [before, after] of [["", ""], ["12,", ",34"], ["a;b;", "\n"]]) {
+        const row = before + cell + after;
+        const at = isMissingAt(row, before.length, before.length + cell.length);
+        assert.equal(at, isMissing(cell), `${JSON.stringify(cell)} in ${JSON.stringify(row)}`);
+        checked++;
+      }
+    }
+    assert.equal(checked, cells.length * 3);
+  }
+  // Some of them are missing, some not, under the default list.
+  const isMissingAt = missingTestAt();
+  assert.deepEqual([isMissingAt("1,NA,2", 2, 4), isMissingAt("1,NA,2", 0, 1)], [true, false]);
 });

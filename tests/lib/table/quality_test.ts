@@ -1,5 +1,7 @@
 import assert from "node:assert/strict";
+import fc from "fast-check";
 import { loadTable, quantile } from "../../../mod.ts";
+import { selectQuantile } from "../../../lib/table/quality.ts";
 
 const rows = (header: string, values: string[]) => [header, ...values].join("\n") + "\n";
 const range = (n: number, f: (i: number) => string) => Array.from({ length: n }, (_, i) => f(i));
@@ -66,4 +68,49 @@ Deno.test("far-out values are flagged beyond 3 IQR of the quartiles", () => {
 Deno.test("clean data has no warnings", () => {
   const csv = rows("id,salary", range(30, (i) => `e${i},${60000 + 1000 * i}`));
   assert.deepEqual(loadTable(csv).warnings, []);
+});
+
+// Selection must give quantile() of the sorted values to the last bit: the
+// fences and medians in every warning come from it.
+Deno.test("selectQuantile is quantile of the sorted values, on repeats, zeros of both signs and sorted runs", () => {
+  const sortedQuantile = (values: Float64Array, q: number, map?: (v: number) => number) => {
+    const sorted = values.slice().sort();
+    return quantile(map ? sorted.map(map) : sorted, q);
+  };
+  fc.assert(
+    fc.property(
+      fc.array(
+        fc.oneof(
+          fc.double({ noNaN: true }),
+          fc.integer({ min: -3, max: 3 }),
+          fc.constantFrom(0, -0, 1e-300, Infinity, -Infinity),
+        ),
+        { minLength: 1, maxLength: 300 },
+      ),
+      fc.constantFrom(0, 0.25, 0.5, 0.75, 1, 0.1),
+      fc.constantFrom("shuffled", "ascending", "descending"),
+      (list, q, order) => {
+        const values = Float64Array.from(list);
+        if (order === "ascending") values.sort();
+        if (order === "descending") values.sort().reverse();
+        const expected = sortedQuantile(values, q);
+        assert.ok(Object.is(selectQuantile(values.slice(), q), expected), `${q} of ${list}`);
+        const positive = values.filter((v) => v > 0);
+        if (positive.length > 0) {
+          assert.ok(
+            Object.is(
+              selectQuantile(positive.slice(), q, Math.log),
+              sortedQuantile(positive, q, Math.log),
+            ),
+          );
+        }
+      },
+    ),
+    { seed: 21, numRuns: 600 },
+  );
+  // A million values of eleven repeats (a 0..10 count column), selection in place.
+  const counts = Float64Array.from({ length: 1_000_000 }, (_, i) => (i * 7919) % 11);
+  assert.equal(selectQuantile(counts.slice(), 0.25), 2);
+  assert.equal(selectQuantile(counts.slice(), 0.75), 8);
+  assert.throws(() => selectQuantile(new Float64Array(0), 0.5), RangeError);
 });
