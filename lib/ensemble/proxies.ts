@@ -203,7 +203,8 @@ export async function proxyFigureSets(
         prune: "none",
         grow: { minLeaf: options.minLeaf ?? 5 },
         onProgress: () => {
-          if (--left[i] === 0) onDone?.(++answered, questions.length);
+          left[i] -= 1;
+          if (left[i] === 0) onDone?.(++answered, questions.length);
         },
       },
     }))

@@ -215,13 +215,8 @@ export class Splitter {
           sum += hist[a + 2];
           squares += hist[a + 3];
         }
-        total[0] = rows;
-        total[1] = weight;
-        total[2] = sum;
-        total[3] = squares;
-        this.data = hist;
-        this.missData = hist;
-        this.missAt = first + missingBin * stride;
+        this.squaredErrorTotal(rows, weight, sum, squares);
+        this.pointAt(hist, hist, first + missingBin * stride);
         return m;
       }
       for (let b = 0; b < missingBin; b++) {
@@ -233,9 +228,7 @@ export class Splitter {
         for (let c = 0; c < stride; c++) total[c] += hist[a + c];
         m++;
       }
-      this.data = hist;
-      this.missData = hist;
-      this.missAt = first + missingBin * stride;
+      this.pointAt(hist, hist, first + missingBin * stride);
       return m;
     }
     // Few rows, many bins: sort the node's (bin, position) keys instead.
@@ -302,16 +295,25 @@ export class Splitter {
         m++;
       }
     }
-    if (regression) {
-      total[0] = tRows;
-      total[1] = tWeight;
-      total[2] = tSum;
-      total[3] = tSquares;
-    }
-    this.data = compact;
-    this.missData = missing;
-    this.missAt = 0;
+    if (regression) this.squaredErrorTotal(tRows, tWeight, tSum, tSquares);
+    this.pointAt(compact, missing, 0);
     return m;
+  }
+
+  // Where the bins' summaries and the missing values' summary are read.
+  private pointAt(data: Float64Array, missData: Float64Array, missAt: number): void {
+    this.data = data;
+    this.missData = missData;
+    this.missAt = missAt;
+  }
+
+  // The known values' total, when squared error summed it in locals.
+  private squaredErrorTotal(rows: number, weight: number, sum: number, squares: number): void {
+    const total = this.total;
+    total[0] = rows;
+    total[1] = weight;
+    total[2] = sum;
+    total[3] = squares;
   }
 
   // Orders a categorical feature's bins for the scan: by mean response, by
