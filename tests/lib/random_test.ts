@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { makeRng, randomInt, shuffle } from "../../lib/random.ts";
+import { makeRng, randomBelow, randomInt, shuffle } from "../../lib/random.ts";
 
 // xoroshiro128+ as Blackman and Vigna publish it (xoroshiro128plus.c, constants a = 24,
 // b = 16, c = 37; from memory), on 64-bit BigInt state. pure-rand keeps the state as four
@@ -110,4 +110,31 @@ Deno.test("every order of three items is equally likely", () => {
   assert.equal(counts.size, 6);
   const chi2 = [...counts.values()].reduce((s, c) => s + (c - n / 6) ** 2 / (n / 6), 0);
   assert.ok(chi2 < 20.52, `chi-square ${chi2}`);
+});
+
+Deno.test("randomBelow draws as pure-rand's uniformInt does, rejections included", () => {
+  // 3 x 2^30: a quarter of the 32-bit draws are rejected, so the rejection
+  // path runs; the generators must also end in the same state.
+  for (const seed of [1, 2, 3, -7, 2 ** 31 - 1]) {
+    const a = makeRng(seed);
+    const b = makeRng(seed);
+    for (const size of [1, 2, 3, 5, 1000, 2 ** 31 + 11, 3 * 2 ** 30, 2 ** 32]) {
+      for (let k = 0; k < 200; k++) assert.equal(randomBelow(a, size), randomInt(b, 0, size - 1));
+    }
+    assert.equal(a.next(), b.next());
+  }
+});
+
+Deno.test("a long shuffle equals one drawn through the library, and uses as many draws", () => {
+  const items = Int32Array.from({ length: 5000 }, (_, i) => i);
+  const rng = makeRng(11);
+  const mine = shuffle(items.slice(), rng);
+  const lib = makeRng(11);
+  const theirs = items.slice();
+  for (let i = theirs.length - 1; i > 0; i--) {
+    const j = randomInt(lib, 0, i);
+    [theirs[i], theirs[j]] = [theirs[j], theirs[i]];
+  }
+  assert.deepEqual(mine, theirs);
+  assert.equal(rng.next(), lib.next());
 });
