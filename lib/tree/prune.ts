@@ -356,7 +356,8 @@ class AlphaHeap {
     this.topAlpha = alpha[0];
     this.topNode = node[0];
     this.topVersion = version[0];
-    const size = --this.size;
+    this.size -= 1;
+    const size = this.size;
     // The last entry sinks from the root past smaller children.
     const lastAlpha = alpha[size];
     const lastNode = node[size];
