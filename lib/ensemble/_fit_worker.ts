@@ -3,7 +3,8 @@
  * data once, then tree indices; it answers each with the fitted tree, whose
  * arrays are transferred, not copied. Several ensembles' data may be held
  * at once, each under its own key (0 unless given), and a tree asked for
- * by its ensemble's key.
+ * by its ensemble's key. A pool that keeps the worker for several runs
+ * starts each with a reset.
  *
  * @module
  */
@@ -21,6 +22,8 @@ export type ToWorker =
   // tree of every row; k: fold k's rows left out).
   | { kind: "folds"; fold: Int32Array; grow?: GrowOptions }
   | { kind: "foldTree"; index: number }
+  // A new run: the data and folds of earlier runs are forgotten.
+  | { kind: "reset" }
   | { kind: "stop" };
 
 /** Messages from the worker. */
@@ -69,6 +72,11 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
     if (message.kind === "data") {
       const { data, options, states } = message;
       sets.set(message.key ?? 0, { data, options, states });
+      return;
+    }
+    if (message.kind === "reset") {
+      sets.clear();
+      folds = undefined;
       return;
     }
     if (message.kind === "stop") {

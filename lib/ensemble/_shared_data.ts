@@ -7,6 +7,7 @@
 
 import type { Dataset, Feature } from "../dataset/types.ts";
 import type { FeatureBins } from "../tree/bins.ts";
+import { canonicalRowOrder } from "../tree/grow_tree.ts";
 
 /** What a worker receives: plain data with shared typed arrays. */
 export interface SharedData {
@@ -99,4 +100,38 @@ export function shareData(dataset: Dataset, bins: FeatureBins[], order: Int32Arr
  */
 export function datasetOf(data: SharedData): Dataset {
   return { rows: data.rows, features: data.features, target: data.target };
+}
+
+// A dataset's shared copy, kept while the dataset lives, with the bins it
+// was made from: a fit's cross-validation and ensemble send the same data.
+const sharedCopies = new WeakMap<Dataset, { bins: FeatureBins[]; data: SharedData }>();
+
+/**
+ * The shared copy of a dataset with these bins and its canonical row
+ * order, made once per dataset and bins and kept while the dataset lives.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { canonicalRowOrder } from "../tree/grow_tree.ts";
+ * import { sharedDataOf } from "./_shared_data.ts";
+ * const dataset = {
+ *   rows: 3,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(3, 1, 2) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(30, 10, 20) },
+ * };
+ * const bins = binFeatures(dataset);
+ * const data = sharedDataOf(dataset, bins);
+ * assert.equal(sharedDataOf(dataset, bins), data);
+ * assert.notEqual(sharedDataOf(dataset, binFeatures(dataset)), data);
+ * assert.deepEqual(data.order, canonicalRowOrder(dataset));
+ * ```
+ */
+export function sharedDataOf(dataset: Dataset, bins: FeatureBins[]): SharedData {
+  const known = sharedCopies.get(dataset);
+  if (known !== undefined && known.bins === bins) return known.data;
+  const data = shareData(dataset, bins, canonicalRowOrder(dataset));
+  sharedCopies.set(dataset, { bins, data });
+  return data;
 }

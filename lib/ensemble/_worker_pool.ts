@@ -1,17 +1,120 @@
 /**
- * Work spread over fitting workers (lib/ensemble/_fit_worker.ts): each
- * worker gets the same opening messages (the shared data), then tasks one
- * at a time as it finishes the last; replies are handed over as they come.
- * Workers are stopped when all replies are in or on the first failure.
+ * Work spread over fitting workers (lib/ensemble/_fit_worker.ts). A
+ * {@linkcode FittingPool} keeps its workers from one run to the next, so a
+ * whole fit (cross-validation, the ensemble, the proxy checks) starts them
+ * once and later runs find them loaded and warm. In each run every worker
+ * gets the same opening messages (the shared data), then tasks: two at
+ * first and one more for each reply, so that a worker finds its next task
+ * waiting instead of idling for a round trip through this thread; replies
+ * are handed over as they come.
  *
  * @module
  */
 
 import type { FromWorker, ToWorker } from "./_fit_worker.ts";
 
+/** Tasks a worker holds at once: the one it works on and the next. */
+const IN_FLIGHT = 2;
+
+/** A reply that is not an error. */
+export type WorkerReply = Exclude<FromWorker, { kind: "error" }>;
+
 /**
- * Runs `tasks` on `workers` fitting workers; `take` receives every reply
- * that is not an error.
+ * Fitting workers kept for several runs, one run at a time. Workers start
+ * on the first run that needs them; a failure stops them all and closes the
+ * pool (a worker may still hold the failed run's tasks).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { FittingPool } from "./_worker_pool.ts";
+ * const pool = new FittingPool(2);
+ * assert.equal(pool.size, 2);
+ * pool.close();
+ * await assert.rejects(pool.run([], [{ kind: "stop" }], () => {}), /closed/);
+ * assert.throws(() => new FittingPool(0), /whole number >= 1/);
+ * ```
+ */
+export class FittingPool {
+  /** Most workers a run uses. */
+  readonly size: number;
+  #workers: Worker[] = [];
+  #running = false;
+  #closed = false;
+
+  constructor(size: number) {
+    if (!Number.isInteger(size) || size < 1) {
+      throw new RangeError(`workers must be a whole number >= 1, got ${size}`);
+    }
+    this.size = size;
+  }
+
+  /**
+   * Runs `tasks` on up to `size` workers; `take` receives every reply that
+   * is not an error. Each worker first forgets the data of earlier runs.
+   */
+  async run(
+    opening: readonly ToWorker[],
+    tasks: readonly ToWorker[],
+    take: (reply: WorkerReply) => void,
+  ): Promise<void> {
+    if (this.#closed) throw new Error("the fitting pool is closed");
+    if (this.#running) throw new Error("the fitting pool runs one job at a time");
+    if (tasks.length === 0) return;
+    this.#running = true;
+    try {
+      while (this.#workers.length < Math.min(this.size, tasks.length)) {
+        this.#workers.push(
+          new Worker(new URL("./_fit_worker.ts", import.meta.url).href, { type: "module" }),
+        );
+      }
+      const used = this.#workers.slice(0, Math.min(this.size, tasks.length));
+      let next = 0;
+      let done = 0;
+      await new Promise<void>((resolve, reject) => {
+        const start = (worker: Worker) => {
+          if (next < tasks.length) worker.postMessage(tasks[next++]);
+        };
+        for (const worker of used) {
+          worker.onerror = (event) => {
+            event.preventDefault();
+            reject(new Error(`a fitting worker failed: ${event.message}`));
+          };
+          worker.onmessage = (event: MessageEvent<FromWorker>) => {
+            const reply = event.data;
+            if (reply.kind === "error") {
+              reject(new Error(`a fitting worker failed: ${reply.message}`));
+              return;
+            }
+            take(reply);
+            done++;
+            if (done === tasks.length) resolve();
+            else start(worker);
+          };
+          worker.postMessage({ kind: "reset" } satisfies ToWorker);
+          for (const message of opening) worker.postMessage(message);
+          for (let k = 0; k < IN_FLIGHT; k++) start(worker);
+        }
+      });
+    } catch (error) {
+      this.close();
+      throw error;
+    } finally {
+      this.#running = false;
+    }
+  }
+
+  /** Stops the workers; later runs are refused. */
+  close(): void {
+    this.#closed = true;
+    for (const worker of this.#workers) worker.terminate();
+    this.#workers = [];
+  }
+}
+
+/**
+ * Runs `tasks` on a pool, or on `workers` workers started for this run and
+ * stopped after it; `take` receives every reply that is not an error.
  *
  * @example
  * ```ts
@@ -25,45 +128,16 @@ import type { FromWorker, ToWorker } from "./_fit_worker.ts";
  * ```
  */
 export async function onFittingWorkers(
-  workers: number,
+  workers: number | FittingPool,
   opening: readonly ToWorker[],
   tasks: readonly ToWorker[],
-  take: (reply: Exclude<FromWorker, { kind: "error" }>) => void,
+  take: (reply: WorkerReply) => void,
 ): Promise<void> {
-  let next = 0;
-  let done = 0;
-  const pool: Worker[] = [];
+  if (workers instanceof FittingPool) return await workers.run(opening, tasks, take);
+  const pool = new FittingPool(workers);
   try {
-    await new Promise<void>((resolve, reject) => {
-      if (tasks.length === 0) return resolve();
-      const start = (worker: Worker) => {
-        if (next < tasks.length) worker.postMessage(tasks[next++]);
-      };
-      for (let w = 0; w < Math.min(workers, tasks.length); w++) {
-        const worker = new Worker(new URL("./_fit_worker.ts", import.meta.url).href, {
-          type: "module",
-        });
-        pool.push(worker);
-        worker.onerror = (event) => {
-          event.preventDefault();
-          reject(new Error(`a fitting worker failed: ${event.message}`));
-        };
-        worker.onmessage = (event: MessageEvent<FromWorker>) => {
-          const reply = event.data;
-          if (reply.kind === "error") {
-            reject(new Error(`a fitting worker failed: ${reply.message}`));
-            return;
-          }
-          take(reply);
-          done++;
-          if (done === tasks.length) resolve();
-          else start(worker);
-        };
-        for (const message of opening) worker.postMessage(message);
-        start(worker);
-      }
-    });
+    await pool.run(opening, tasks, take);
   } finally {
-    for (const worker of pool) worker.terminate();
+    pool.close();
   }
 }

@@ -16,8 +16,8 @@
  */
 
 import { createHash } from "node:crypto";
-import { uniformInt } from "pure-rand/distribution/uniformInt";
 import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
+import { randomBelow } from "../random.ts";
 
 /**
  * Words of one tree's generator state.
@@ -103,7 +103,9 @@ export function bootstrapCounts(rows: number, states: Int32Array, tree: number):
   }
   const rng = xoroshiro128plusFromState(Array.from(states.subarray(at, at + STATE_WORDS)));
   const counts = new Float64Array(rows);
-  for (let i = 0; i < rows; i++) counts[uniformInt(rng, 0, rows - 1)]++;
+  // pure-rand's uniformInt(rng, 0, rows - 1), draw for draw, without its
+  // call chain (about 3% of a fit's tree work in a profile).
+  for (let i = 0; i < rows; i++) counts[randomBelow(rng, rows)]++;
   return counts;
 }
 

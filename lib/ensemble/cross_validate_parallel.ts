@@ -17,14 +17,13 @@ import {
   crossValidateTree,
 } from "../tree/cross_validate.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
-import { canonicalRowOrder } from "../tree/grow_tree.ts";
-import { shareData } from "./_shared_data.ts";
+import { sharedDataOf } from "./_shared_data.ts";
 import type { ToWorker } from "./_fit_worker.ts";
-import { onFittingWorkers } from "./_worker_pool.ts";
+import { type FittingPool, onFittingWorkers } from "./_worker_pool.ts";
 
 /**
  * {@linkcode crossValidateTree} with its trees grown on `workers` workers
- * (1: in this thread).
+ * (1: in this thread), or on a pool's.
  *
  * @example
  * ```ts
@@ -45,19 +44,20 @@ import { onFittingWorkers } from "./_worker_pool.ts";
  */
 export async function crossValidateTreeParallel(
   dataset: Dataset,
-  options: CrossValidateOptions & { workers?: number } = {},
+  options: CrossValidateOptions & { workers?: number | FittingPool } = {},
   bins: FeatureBins[] = binFeatures(dataset),
 ): Promise<CrossValidatedTree> {
   const folds = options.folds ?? 10;
-  const workers = Math.min(folds + 1, options.workers ?? navigator.hardwareConcurrency ?? 1);
+  const pool = options.workers;
+  const size = typeof pool === "object" ? pool.size : pool ?? navigator.hardwareConcurrency ?? 1;
+  const workers = Math.min(folds + 1, size);
   if (!(workers > 1) || !(folds >= 2) || folds > dataset.rows || !Number.isInteger(folds)) {
     // One thread, or options crossValidateTree refuses in its own words.
     return crossValidateTree(dataset, options, bins);
   }
-  const order = canonicalRowOrder(dataset);
   const fold = assignFolds(dataset, folds, options.seed ?? 1);
   const opening: ToWorker[] = [
-    { kind: "data", data: shareData(dataset, bins, order), options: {}, states: new Int32Array(0) },
+    { kind: "data", data: sharedDataOf(dataset, bins), options: {}, states: new Int32Array(0) },
     { kind: "folds", fold, grow: options.grow },
   ];
   // -1: the tree of every row; k: fold k's tree.
@@ -68,7 +68,7 @@ export async function crossValidateTreeParallel(
   let full: FlatTree | undefined;
   const foldTrees: FlatTree[] = new Array(folds);
   let done = 0;
-  await onFittingWorkers(workers, opening, tasks, (reply) => {
+  await onFittingWorkers(typeof pool === "object" ? pool : workers, opening, tasks, (reply) => {
     if (reply.kind !== "foldTree") return;
     if (reply.index < 0) full = reply.tree;
     else foldTrees[reply.index] = reply.tree;

@@ -18,6 +18,7 @@ import type { CrossValidateOptions } from "../tree/cross_validate.ts";
 import { DEFAULT_PRUNING } from "./defaults.ts";
 import type { Ensemble, EnsembleOptions } from "./fit_ensemble.ts";
 import { fitEnsembleParallel } from "./fit_parallel.ts";
+import type { FittingPool } from "./_worker_pool.ts";
 
 /** Options of {@linkcode fitDefaultEnsemble}. */
 export interface DefaultEnsembleOptions {
@@ -61,8 +62,11 @@ export interface DefaultEnsembleOptions {
    * @default {1}
    */
   foldSeed?: number;
-  /** Workers for the ensemble (default: one per core). */
-  workers?: number;
+  /**
+   * Workers for the cross-validation and the ensemble (default: one per
+   * core), or a pool whose workers to use for both.
+   */
+  workers?: number | FittingPool;
   /** Stopping rules of every tree. */
   grow?: GrowOptions;
   /** Called as trees are done. */

@@ -9,11 +9,10 @@
 import type { Dataset } from "../dataset/types.ts";
 import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
-import { canonicalRowOrder } from "../tree/grow_tree.ts";
 import { resampleStates } from "./bootstrap.ts";
-import { shareData } from "./_shared_data.ts";
+import { sharedDataOf } from "./_shared_data.ts";
 import type { ToWorker } from "./_fit_worker.ts";
-import { onFittingWorkers } from "./_worker_pool.ts";
+import { FittingPool, onFittingWorkers } from "./_worker_pool.ts";
 import {
   assembleEnsemble,
   checkEnsembleOptions,
@@ -26,10 +25,11 @@ import {
 /** Options of {@linkcode fitEnsembleParallel}. */
 export interface ParallelOptions extends EnsembleOptions {
   /**
-   * Number of workers; 1 fits in this thread.
+   * Number of workers (1 fits in this thread), or a pool whose workers to
+   * use.
    * @default navigator.hardwareConcurrency
    */
-  workers?: number;
+  workers?: number | FittingPool;
 }
 
 /**
@@ -79,7 +79,7 @@ export interface EnsembleJob {
  * started once: each ensemble is the one {@linkcode fitEnsemble} gives with
  * its options, whatever the worker count.
  *
- * @param workers Number of workers; 1 fits in this thread.
+ * @param workers Number of workers (1 fits in this thread), or a pool.
  *
  * @example
  * ```ts
@@ -103,16 +103,17 @@ export interface EnsembleJob {
  */
 export async function fitEnsemblesParallel(
   jobs: readonly EnsembleJob[],
-  workers: number,
+  workers: number | FittingPool,
 ): Promise<Ensemble[]> {
   for (const job of jobs) checkEnsembleOptions(job.options);
-  if (!Number.isInteger(workers) || workers < 1) {
-    throw new RangeError(`workers must be a whole number >= 1, got ${workers}`);
+  const size = workers instanceof FittingPool ? workers.size : workers;
+  if (!Number.isInteger(size) || size < 1) {
+    throw new RangeError(`workers must be a whole number >= 1, got ${size}`);
   }
   const counts = jobs.map((job) => job.options.trees ?? 200);
   const total = counts.reduce((a, b) => a + b, 0);
   const binned = jobs.map((job) => job.bins ?? binFeatures(job.dataset));
-  if (Math.min(total, workers) === 1) {
+  if (Math.min(total, size) <= 1) {
     return jobs.map((job, j) => fitEnsemble(job.dataset, job.options, binned[j]));
   }
   const opening: ToWorker[] = [];
@@ -120,8 +121,7 @@ export async function fitEnsemblesParallel(
   const fits = jobs.map((job, key) => {
     const { dataset, options } = job;
     const count = counts[key];
-    const order = canonicalRowOrder(dataset);
-    const data = shareData(dataset, binned[key], order);
+    const data = sharedDataOf(dataset, binned[key]);
     const states = resampleStates(options.seed ?? 1, dataset.target.values, count);
     const { onProgress: _, ...plain } = options;
     opening.push({ kind: "data", data, options: plain, states, key });
@@ -136,18 +136,23 @@ export async function fitEnsemblesParallel(
       done: 0,
     };
   });
-  await onFittingWorkers(Math.min(total, workers), opening, tasks, (reply) => {
-    if (reply.kind !== "tree") return;
-    const key = reply.key ?? 0;
-    const fit = fits[key];
-    fit.trees[reply.index] = reply.tree;
-    fit.alphas[reply.index] = reply.alpha;
-    fit.oobValues[reply.index] = reply.oob;
-    if (reply.importance !== undefined) fit.parts[reply.index] = reply.importance;
-    if (reply.shared !== undefined) fit.shared[reply.index] = reply.shared;
-    fit.done++;
-    jobs[key].options.onProgress?.(fit.done, counts[key]);
-  });
+  await onFittingWorkers(
+    workers instanceof FittingPool ? workers : Math.min(total, size),
+    opening,
+    tasks,
+    (reply) => {
+      if (reply.kind !== "tree") return;
+      const key = reply.key ?? 0;
+      const fit = fits[key];
+      fit.trees[reply.index] = reply.tree;
+      fit.alphas[reply.index] = reply.alpha;
+      fit.oobValues[reply.index] = reply.oob;
+      if (reply.importance !== undefined) fit.parts[reply.index] = reply.importance;
+      if (reply.shared !== undefined) fit.shared[reply.index] = reply.shared;
+      fit.done++;
+      jobs[key].options.onProgress?.(fit.done, counts[key]);
+    },
+  );
   return jobs.map((job, key) => {
     const fit = fits[key];
     const ensemble = assembleEnsemble(

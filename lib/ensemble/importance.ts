@@ -121,22 +121,47 @@ export function treeImportanceIncrease(
   if (oob.length === 0) return out;
   const used = new Uint8Array(features);
   for (let n = 0; n < tree.nodeCount; n++) if (tree.feature[n] >= 0) used[tree.feature[n]] = 1;
-  // Each out-of-bag row's squared error and, per feature (feature-major, as
-  // it is read), the first node
-  // of its path that tests the feature (-1: none). A shuffled feature
-  // changes nothing above that node, so a re-walk starts there, and a row
-  // whose path never tests it keeps its error: the same sums, in the same
-  // order, as walking every row from the root.
+  // Per out-of-bag row and feature (feature-major, as it is read): the first
+  // node of the row's path that tests the feature (-1: none), and the values
+  // of the feature that would follow the row's whole path: an interval
+  // (low, high] for thresholds, a set of level codes for categorical splits
+  // of at most 32 levels. A shuffled feature changes nothing above the first
+  // node, so a re-walk starts there; a row whose path never tests it, or
+  // whose donor's value follows the same path, keeps its error. The same
+  // sums, in the same order, as walking every row from the root.
   const n = oob.length;
   const baseSq = new Float64Array(n);
   const firstNode = new Int32Array(n * features).fill(-1);
+  const low = new Float64Array(n * features);
+  const high = new Float64Array(n * features);
+  const levelSet = new Uint32Array(n * features);
   for (let i = 0; i < n; i++) {
     const r = oob[i];
     let node = 0;
     while (tree.left[node] !== -1) {
       const g = tree.feature[node];
-      if (firstNode[g * n + i] === -1) firstNode[g * n + i] = node;
-      node = goesLeft(tree, node, columns[g][r]) ? tree.left[node] : tree.right[node];
+      const at = g * n + i;
+      const x = columns[g][r];
+      const left = goesLeft(tree, node, x);
+      if (firstNode[at] === -1) {
+        firstNode[at] = node;
+        low[at] = -Infinity;
+        high[at] = Infinity;
+        levelSet[at] = 0xffffffff;
+      }
+      const offset = tree.maskOffset[node];
+      if (offset < 0) {
+        if (left) high[at] = Math.min(high[at], tree.threshold[node]);
+        else low[at] = Math.max(low[at], tree.threshold[node]);
+      } else if (tree.maskWords[g] === 1) {
+        // Levels in neither mask follow the missing direction.
+        const unseen = ~(tree.masks[offset] | tree.masks[offset + 1]);
+        const goesWithMissing = (tree.missingLeft[node] === 1) === left;
+        levelSet[at] &= tree.masks[offset + (left ? 0 : 1)] | (goesWithMissing ? unseen : 0);
+      } else {
+        levelSet[at] = 0;
+      }
+      node = left ? tree.left[node] : tree.right[node];
     }
     const e = y[r] - tree.value[node];
     baseSq[i] = e * e;
@@ -144,28 +169,46 @@ export function treeImportanceIncrease(
   let baseSse = 0;
   for (let i = 0; i < n; i++) baseSse += baseSq[i];
   const base = baseSse / n;
-  const donor = new Int32Array(n);
+  // The shuffled feature's values in out-of-bag order: shuffling them gives
+  // row i the value of its donor (the same draws as shuffling row numbers),
+  // read in order rather than from a random row.
+  const donated = new Float64Array(n);
   for (let f = 0; f < features; f++) {
+    const column = columns[f];
+    // Categorical splits test level masks; every other split a threshold.
+    const masked = tree.maskWords[f] > 0;
     for (let k = 0; k < repeats; k++) {
       // Shuffled even when unused, so every feature's draws stay the same
       // whichever features a tree happens to use.
-      for (let i = 0; i < n; i++) donor[i] = oob[i];
-      shuffle(donor, rng);
+      for (let i = 0; i < n; i++) donated[i] = column[oob[i]];
+      shuffle(donated, rng);
       // A feature the tree never splits on changes no prediction: 0 exactly.
       if (used[f] === 0) continue;
       let sse = 0;
       for (let i = 0; i < n; i++) {
-        let node = firstNode[f * n + i];
+        const at = f * n + i;
+        let node = firstNode[at];
         if (node === -1) {
           sse += baseSq[i];
           continue;
         }
         const r = oob[i];
-        const d = donor[i];
+        const v = donated[i];
+        const x = column[r];
+        // NaN is only ever followed by NaN down the same path.
+        const same = Number.isNaN(x) ? Number.isNaN(v) : v === x || (
+          !Number.isNaN(v) &&
+          (masked ? v < 32 && ((levelSet[at] >>> v) & 1) === 1 : v > low[at] && v <= high[at])
+        );
+        if (same) {
+          sse += baseSq[i];
+          continue;
+        }
         while (tree.left[node] !== -1) {
           const g = tree.feature[node];
-          const x = g === f ? columns[g][d] : columns[g][r];
-          node = goesLeft(tree, node, x) ? tree.left[node] : tree.right[node];
+          node = goesLeft(tree, node, g === f ? v : columns[g][r])
+            ? tree.left[node]
+            : tree.right[node];
         }
         const e = y[r] - tree.value[node];
         sse += e * e;

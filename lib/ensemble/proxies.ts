@@ -14,6 +14,7 @@
 import type { Dataset, Feature } from "../dataset/types.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
 import { type EnsembleJob, fitEnsemblesParallel } from "./fit_parallel.ts";
+import { FittingPool } from "./_worker_pool.ts";
 import { oobClassificationMetrics } from "./intervals.ts";
 
 // Rows from which the single-feature ensembles go to the workers. Below,
@@ -93,8 +94,11 @@ export interface ProxyOptions {
   seed?: number;
   /** Fewest people in a leaf. @default {5} */
   minLeaf?: number;
-  /** Workers. */
-  workers?: number;
+  /**
+   * Workers, or a pool of them. Workers are started only from
+   * WORKERS_FROM_ROWS rows; a pool's, already started, are used at any size.
+   */
+  workers?: number | FittingPool;
 }
 
 /**
@@ -212,7 +216,11 @@ export async function proxyFigureSets(
   const rows = questions.length === 0 ? 0 : questions[0].attribute.length;
   const ensembles = await fitEnsemblesParallel(
     jobs,
-    rows < WORKERS_FROM_ROWS ? 1 : options.workers ?? navigator.hardwareConcurrency ?? 1,
+    options.workers instanceof FittingPool
+      ? options.workers
+      : rows < WORKERS_FROM_ROWS
+      ? 1
+      : options.workers ?? navigator.hardwareConcurrency ?? 1,
   );
   let next = 0;
   return questions.map((q) => {

@@ -8,6 +8,7 @@
  * @module
  */
 
+import { FittingPool } from "../ensemble/_worker_pool.ts";
 import { createHash } from "node:crypto";
 import type { Dataset } from "../dataset/types.ts";
 import { OptionError } from "../errors.ts";
@@ -131,6 +132,23 @@ export interface FitModelOptions {
  */
 export async function fitModel(table: Table, options: FitModelOptions): Promise<Model> {
   const started = performance.now();
+  // One set of workers for the whole fit: cross-validation, the ensemble
+  // and the proxy checks find them started and warm.
+  const count = options.workers ?? navigator.hardwareConcurrency ?? 1;
+  const pool = Number.isInteger(count) && count > 1 ? new FittingPool(count) : null;
+  try {
+    return await fitModelOn(table, options, pool ?? options.workers, started);
+  } finally {
+    pool?.close();
+  }
+}
+
+async function fitModelOn(
+  table: Table,
+  options: FitModelOptions,
+  workers: number | FittingPool | undefined,
+  started: number,
+): Promise<Model> {
   const trees = options.trees ?? 200;
   const minLeaf = options.minLeaf ?? 5;
   const requestedFolds = options.folds ?? 10;
@@ -182,7 +200,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
         (a, p) => Math.abs(a - p),
       ]
       : [],
-    workers: options.workers,
+    workers,
     // Each tree's part of permutation importance, measured where it is fitted.
     importance: regression ? { repeats: IMPORTANCE_REPEATS, seed } : undefined,
     // Each tree's shareable copy, made where it is fitted.
@@ -279,7 +297,7 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   const importance = importanceOf(dataset, ensemble, cv.tree, seed);
   options.onProgress?.("importance", 1, 1);
 
-  const proxies = await possibleProxies(filtered, rowIndex, dataset, options, seed);
+  const proxies = await possibleProxies(filtered, rowIndex, dataset, options, seed, workers);
 
   const features = dataset.features.map((f): FeatureSchema => {
     const column = filtered.columns.find((c) => c.name === f.name)!;
@@ -379,6 +397,7 @@ async function possibleProxies(
   dataset: Dataset,
   options: FitModelOptions,
   seed: number,
+  workers: number | FittingPool | undefined,
 ): Promise<ProxyFigure[]> {
   const used = new Set(dataset.features.map((f) => f.name));
   const attributes = table.columns.filter((c): c is LevelColumn =>
@@ -412,7 +431,7 @@ async function possibleProxies(
   // Every attribute's ensembles on one set of workers.
   const figures = await proxyFigureSets(
     questions,
-    { seed, workers: options.workers },
+    { seed, workers },
     (done, total) => options.onProgress?.("proxies", done, total),
   );
   const found = figures.flat().filter((f) => f.balancedAccuracy >= threshold);
