@@ -114,35 +114,85 @@ export function treeImportanceIncrease(
 ): Float64Array {
   const features = dataset.features.length;
   const out = new Float64Array(features * repeats);
-  const y = dataset.target.values;
   const columns = dataset.features.map((f) => f.values);
-  const oob: number[] = [];
-  for (let r = 0; r < dataset.rows; r++) if (counts[r] === 0) oob.push(r);
-  if (oob.length === 0) return out;
+  let n = 0;
+  for (let r = 0; r < dataset.rows; r++) if (counts[r] === 0) n++;
+  if (n === 0) return out;
+  const oob = new Int32Array(n);
+  for (let r = 0, i = 0; r < dataset.rows; r++) if (counts[r] === 0) oob[i++] = r;
   const used = new Uint8Array(features);
-  for (let n = 0; n < tree.nodeCount; n++) if (tree.feature[n] >= 0) used[tree.feature[n]] = 1;
-  // Per out-of-bag row and feature (feature-major, as it is read): the first
-  // node of the row's path that tests the feature (-1: none), and the values
-  // of the feature that would follow the row's whole path: an interval
-  // (low, high] for thresholds, a set of level codes for categorical splits
-  // of at most 32 levels. A shuffled feature changes nothing above the first
-  // node, so a re-walk starts there; a row whose path never tests it, or
-  // whose donor's value follows the same path, keeps its error. The same
-  // sums, in the same order, as walking every row from the root.
+  for (let node = 0; node < tree.nodeCount; node++) {
+    if (tree.feature[node] >= 0) used[tree.feature[node]] = 1;
+  }
+  const paths = outOfBagPaths(tree, columns, dataset.target.values, oob, features);
+  let baseSse = 0;
+  for (let i = 0; i < n; i++) baseSse += paths.sqError[i];
+  const base = baseSse / n;
+  // The shuffled feature's values in out-of-bag order: shuffling them gives
+  // row i the value of its donor (the same draws as shuffling row numbers),
+  // read in order rather than from a random row.
+  const donated = new Float64Array(n);
+  for (let f = 0; f < features; f++) {
+    for (let k = 0; k < repeats; k++) {
+      // Shuffled even when unused, so every feature's draws stay the same
+      // whichever features a tree happens to use.
+      valuesOf(columns[f], oob, donated);
+      shuffle(donated, rng);
+      // A feature the tree never splits on changes no prediction: 0 exactly.
+      if (used[f] === 0) continue;
+      out[f * repeats + k] =
+        shuffledSse(tree, columns, dataset.target.values, oob, f, donated, paths) /
+          n - base;
+    }
+  }
+  return out;
+}
+
+// The loops below are functions of their own, each called many times per
+// tree: the compiler optimises them whole and keeps them, where one long
+// function was entered and left through its inner loops (a deopt at each
+// loop's exit, every tree, in a trace).
+
+/**
+ * What permutation importance needs of each out-of-bag row's path, per
+ * feature (feature-major: feature g of row i at `g * n + i`): the first node
+ * that tests the feature (-1: none) and the values of the feature that
+ * follow the row's whole path, an interval (low, high] for thresholds and a
+ * set of level codes for categorical splits of at most 32 levels (empty
+ * above). A shuffled feature changes nothing above the first node, so a
+ * re-walk starts there; a row whose path never tests it, or whose donor's
+ * value follows the same path, keeps its error: the same sums, in the same
+ * order, as walking every row from the root.
+ */
+interface OutOfBagPaths {
+  firstNode: Int32Array;
+  low: Float64Array;
+  high: Float64Array;
+  levelSet: Uint32Array;
+  /** Each row's squared error. */
+  sqError: Float64Array;
+}
+
+function outOfBagPaths(
+  tree: FlatTree,
+  columns: Float64Array[],
+  y: ArrayLike<number>,
+  oob: Int32Array,
+  features: number,
+): OutOfBagPaths {
   const n = oob.length;
-  const baseSq = new Float64Array(n);
   const firstNode = new Int32Array(n * features).fill(-1);
   const low = new Float64Array(n * features);
   const high = new Float64Array(n * features);
   const levelSet = new Uint32Array(n * features);
+  const sqError = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const r = oob[i];
     let node = 0;
     while (tree.left[node] !== -1) {
       const g = tree.feature[node];
       const at = g * n + i;
-      const x = columns[g][r];
-      const left = goesLeft(tree, node, x);
+      const left = goesLeft(tree, node, columns[g][r]);
       if (firstNode[at] === -1) {
         firstNode[at] = node;
         low[at] = -Infinity;
@@ -164,59 +214,71 @@ export function treeImportanceIncrease(
       node = left ? tree.left[node] : tree.right[node];
     }
     const e = y[r] - tree.value[node];
-    baseSq[i] = e * e;
+    sqError[i] = e * e;
   }
-  let baseSse = 0;
-  for (let i = 0; i < n; i++) baseSse += baseSq[i];
-  const base = baseSse / n;
-  // The shuffled feature's values in out-of-bag order: shuffling them gives
-  // row i the value of its donor (the same draws as shuffling row numbers),
-  // read in order rather than from a random row.
-  const donated = new Float64Array(n);
-  for (let f = 0; f < features; f++) {
-    const column = columns[f];
-    // Categorical splits test level masks; every other split a threshold.
-    const masked = tree.maskWords[f] > 0;
-    for (let k = 0; k < repeats; k++) {
-      // Shuffled even when unused, so every feature's draws stay the same
-      // whichever features a tree happens to use.
-      for (let i = 0; i < n; i++) donated[i] = column[oob[i]];
-      shuffle(donated, rng);
-      // A feature the tree never splits on changes no prediction: 0 exactly.
-      if (used[f] === 0) continue;
-      let sse = 0;
-      for (let i = 0; i < n; i++) {
-        const at = f * n + i;
-        let node = firstNode[at];
-        if (node === -1) {
-          sse += baseSq[i];
-          continue;
-        }
-        const r = oob[i];
-        const v = donated[i];
-        const x = column[r];
-        // NaN is only ever followed by NaN down the same path.
-        const same = Number.isNaN(x) ? Number.isNaN(v) : v === x || (
-          !Number.isNaN(v) &&
-          (masked ? v < 32 && ((levelSet[at] >>> v) & 1) === 1 : v > low[at] && v <= high[at])
-        );
-        if (same) {
-          sse += baseSq[i];
-          continue;
-        }
-        while (tree.left[node] !== -1) {
-          const g = tree.feature[node];
-          node = goesLeft(tree, node, g === f ? v : columns[g][r])
-            ? tree.left[node]
-            : tree.right[node];
-        }
-        const e = y[r] - tree.value[node];
-        sse += e * e;
-      }
-      out[f * repeats + k] = sse / n - base;
+  return { firstNode, low, high, levelSet, sqError };
+}
+
+// Row i's value of a column, for each out-of-bag row i.
+function valuesOf(column: Float64Array, oob: Int32Array, into: Float64Array): void {
+  for (let i = 0; i < oob.length; i++) into[i] = column[oob[i]];
+}
+
+// The out-of-bag squared error with feature f's values replaced by `donated`.
+function shuffledSse(
+  tree: FlatTree,
+  columns: Float64Array[],
+  y: ArrayLike<number>,
+  oob: Int32Array,
+  f: number,
+  donated: Float64Array,
+  paths: OutOfBagPaths,
+): number {
+  const { firstNode, low, high, levelSet, sqError } = paths;
+  const n = oob.length;
+  const column = columns[f];
+  // Categorical splits test level masks; every other split a threshold.
+  const masked = tree.maskWords[f] > 0;
+  let sse = 0;
+  for (let i = 0; i < n; i++) {
+    const at = f * n + i;
+    const node = firstNode[at];
+    if (node === -1) {
+      sse += sqError[i];
+      continue;
     }
+    const r = oob[i];
+    const v = donated[i];
+    const x = column[r];
+    // NaN is only ever followed by NaN down the same path.
+    const same = Number.isNaN(x) ? Number.isNaN(v) : v === x || (
+      !Number.isNaN(v) &&
+      (masked ? v < 32 && ((levelSet[at] >>> v) & 1) === 1 : v > low[at] && v <= high[at])
+    );
+    if (same) {
+      sse += sqError[i];
+      continue;
+    }
+    const e = y[r] - tree.value[walkFrom(tree, node, columns, r, f, v)];
+    sse += e * e;
   }
-  return out;
+  return sse;
+}
+
+// The leaf row r reaches from `node` with feature f's value replaced by v.
+function walkFrom(
+  tree: FlatTree,
+  node: number,
+  columns: Float64Array[],
+  r: number,
+  f: number,
+  v: number,
+): number {
+  while (tree.left[node] !== -1) {
+    const g = tree.feature[node];
+    node = goesLeft(tree, node, g === f ? v : columns[g][r]) ? tree.left[node] : tree.right[node];
+  }
+  return node;
 }
 
 /**

@@ -68,11 +68,15 @@ export function crossValidatedLinear(dataset: Dataset, fold: Int32Array): Linear
     const train: number[] = [];
     for (let r = 0; r < dataset.rows; r++) if (fold[r] !== k) train.push(r);
     if (train.length === 0) continue;
-    const columns = [
-      new Float64Array(train.length).fill(1),
-      ...design.columns.map((c) => Float64Array.from(train, (r) => c[r])),
-    ];
-    const beta = qrCoefficients(pivotedQr(columns), Float64Array.from(train, (r) => y[r]));
+    // Plain loops: Float64Array.from(array, fn) took a third of a second
+    // on CPS1988 in a profile.
+    const rowsOf = (column: ArrayLike<number>) => {
+      const out = new Float64Array(train.length);
+      for (let i = 0; i < train.length; i++) out[i] = column[train[i]];
+      return out;
+    };
+    const columns = [new Float64Array(train.length).fill(1), ...design.columns.map(rowsOf)];
+    const beta = qrCoefficients(pivotedQr(columns), rowsOf(y));
     for (let j = 0; j < p; j++) if (Number.isNaN(beta[j + 1])) leftOut[j]++;
     for (let r = 0; r < dataset.rows; r++) {
       if (fold[r] !== k) continue;

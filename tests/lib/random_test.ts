@@ -1,4 +1,5 @@
 import assert from "node:assert/strict";
+import fc from "fast-check";
 import { makeRng, randomBelow, randomInt, shuffle } from "../../lib/random.ts";
 
 // xoroshiro128+ as Blackman and Vigna publish it (xoroshiro128plus.c, constants a = 24,
@@ -137,4 +138,24 @@ Deno.test("a long shuffle equals one drawn through the library, and uses as many
   }
   assert.deepEqual(mine, theirs);
   assert.equal(rng.next(), lib.next());
+});
+
+Deno.test("randomBelow's remainder by floor equals the library's at the edges of 32 bits", () => {
+  // The quotient's rounding cannot reach the next whole number: checked where
+  // it is closest, v just below a multiple of a large size, and at random.
+  const remainder = (v: number, size: number) => v - Math.floor(v / size) * size;
+  const edges = [1, 2, 3, 7, 2 ** 16 + 1, 2 ** 31 - 1, 2 ** 31, 2 ** 31 + 1, 2 ** 32 - 1, 2 ** 32];
+  for (const size of edges) {
+    for (const v of [0, 1, size - 1, size, 2 ** 32 - 1, 2 ** 32 - 2, 2 * size - 1]) {
+      if (v >= 0 && v < 2 ** 32) assert.equal(remainder(v, size), v % size, `${v} % ${size}`);
+    }
+  }
+  fc.assert(
+    fc.property(
+      fc.integer({ min: 0, max: 2 ** 32 - 1 }),
+      fc.integer({ min: 1, max: 2 ** 32 }),
+      (v, size) => remainder(v, size) === v % size,
+    ),
+    { numRuns: 20000 },
+  );
 });
