@@ -245,6 +245,8 @@ class Builder {
   private readonly inLeft: Uint8Array;
   // Sums arrays already read, for later splits (see takeSums).
   private readonly spareSums: Float64Array[] = [];
+  // A class node's weight per class, filled afresh at each node.
+  private readonly classWeights: Float64Array;
 
   constructor(data: GrowInput, settings: Settings) {
     this.s = settings;
@@ -277,6 +279,7 @@ class Builder {
       (f) => (f.kind === "categorical" ? Math.ceil(f.levels!.length / 32) : 0),
     );
     this.inLeft = new Uint8Array(Math.max(1, ...data.bins.map((b) => b.count)));
+    this.classWeights = new Float64Array(this.criterion.width);
   }
 
   grow(): FlatTree {
@@ -378,7 +381,8 @@ class Builder {
       nodes.value.push(shift + offset);
       impurity = low === high ? 0 : Math.max(0, sq / weight - offset * offset);
     } else {
-      const values = new Float64Array(k);
+      const values = this.classWeights;
+      values.fill(0);
       for (let i = start; i < end; i++) {
         const r = index[i];
         values[classOf[r]] += w[r];
