@@ -1,6 +1,7 @@
 """paygrove's speed against scikit-learn in one run: every row of the speed
 goals, paygrove and scikit-learn back to back on this machine, each timing
-repeated (3 by default) and the median taken; writes
+repeated (3 by default, the two programs alternating run by run) and the
+median taken; writes
 bench/results/speed_goals.json and bench/results/speed_goals.md.
 
 Rows (scikit-learn side: RandomForestRegressor(200, max_features=1.0,
@@ -110,24 +111,28 @@ def main():
             ("generated", generated, "pay", "generated"),
         ]
         for name, path, target, sk in tables:
-            fits = [paygrove_fit(path, target, tmp) for _ in range(n)]
+            # paygrove and scikit-learn alternate run by run, so that a slow
+            # spell of this shared machine falls on both sides alike.
+            fits, forests, ours, tree, sk_tree = [], [], [], [], []
+            for _ in range(n):
+                fits.append(paygrove_fit(path, target, tmp))
+                if sk is None:
+                    continue
+                forests.append(sklearn_forest(sk, args.rows))
+                ours.append(last_json(timed(DENO + ["bench/forest_timing.ts", sk, str(args.rows), "2"])[2]))
+                tree.append(last_json(timed(DENO + ["bench/one_tree_timing.ts", sk, str(args.rows)])[2]))
+                sk_tree.append(sklearn_tree(sk, args.rows))
             row = {
                 "fitWallSeconds": med(f["wallSeconds"] for f in fits),
                 "fitWorkSeconds": med(f["workSeconds"] for f in fits),
                 "fitPeakMiB": med(f["peakMiB"] for f in fits),
             }
             if sk is not None:
-                forests = [sklearn_forest(sk, args.rows) for _ in range(n)]
                 row["sklearnForestSeconds"] = med(f["fitSeconds"] for f in forests)
                 row["sklearnVersion"] = forests[0]["program"]
                 row["fitOverSklearnForest"] = row["fitWallSeconds"] / row["sklearnForestSeconds"]
-                ours = [last_json(timed(DENO + ["bench/forest_timing.ts", sk, str(args.rows), "2"])[2])
-                        for _ in range(n)]
                 row["ensembleSeconds"] = med(o["fitSeconds"] for o in ours)
                 row["ensembleOverSklearn"] = row["ensembleSeconds"] / row["sklearnForestSeconds"]
-                tree = [last_json(timed(DENO + ["bench/one_tree_timing.ts", sk, str(args.rows)])[2])
-                        for _ in range(n)]
-                sk_tree = [sklearn_tree(sk, args.rows) for _ in range(n)]
                 row["treeMs"] = med(t["ms"] for t in tree)
                 row["sklearnTreeMs"] = med(t["ms"] for t in sk_tree)
                 row["treeOverSklearn"] = row["treeMs"] / row["sklearnTreeMs"]
