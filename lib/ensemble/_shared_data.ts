@@ -102,36 +102,26 @@ export function datasetOf(data: SharedData): Dataset {
   return { rows: data.rows, features: data.features, target: data.target };
 }
 
-// A dataset's shared copy, kept while the dataset lives, with the bins it
-// was made from: a fit's cross-validation and ensemble send the same data.
-const sharedCopies = new WeakMap<Dataset, { bins: FeatureBins[]; data: SharedData }>();
-
 /**
  * The shared copy of a dataset with these bins and its canonical row
- * order, made once per dataset and bins and kept while the dataset lives.
+ * order: what `FittingPool.shared` (lib/ensemble/_worker_pool.ts) keeps for the runs of one pool.
  *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
  * import { binFeatures } from "../tree/bins.ts";
  * import { canonicalRowOrder } from "../tree/grow_tree.ts";
- * import { sharedDataOf } from "./_shared_data.ts";
+ * import { sharedInOrder } from "./_shared_data.ts";
  * const dataset = {
  *   rows: 3,
  *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(3, 1, 2) }],
  *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(30, 10, 20) },
  * };
- * const bins = binFeatures(dataset);
- * const data = sharedDataOf(dataset, bins);
- * assert.equal(sharedDataOf(dataset, bins), data);
- * assert.notEqual(sharedDataOf(dataset, binFeatures(dataset)), data);
+ * const data = sharedInOrder(dataset, binFeatures(dataset));
  * assert.deepEqual(data.order, canonicalRowOrder(dataset));
+ * assert(data.order.buffer instanceof SharedArrayBuffer);
  * ```
  */
-export function sharedDataOf(dataset: Dataset, bins: FeatureBins[]): SharedData {
-  const known = sharedCopies.get(dataset);
-  if (known !== undefined && known.bins === bins) return known.data;
-  const data = shareData(dataset, bins, canonicalRowOrder(dataset));
-  sharedCopies.set(dataset, { bins, data });
-  return data;
+export function sharedInOrder(dataset: Dataset, bins: FeatureBins[]): SharedData {
+  return shareData(dataset, bins, canonicalRowOrder(dataset));
 }

@@ -11,7 +11,10 @@
  * @module
  */
 
+import type { Dataset } from "../dataset/types.ts";
+import type { FeatureBins } from "../tree/bins.ts";
 import type { FromWorker, ToWorker } from "./_fit_worker.ts";
+import { type SharedData, sharedInOrder } from "./_shared_data.ts";
 
 /** Tasks a worker holds at once: the one it works on and the next. */
 const IN_FLIGHT = 2;
@@ -28,8 +31,18 @@ export type WorkerReply = Exclude<FromWorker, { kind: "error" }>;
  * ```ts
  * import assert from "node:assert/strict";
  * import { FittingPool } from "./_worker_pool.ts";
+ * import { binFeatures } from "../tree/bins.ts";
  * const pool = new FittingPool(2);
  * assert.equal(pool.size, 2);
+ * // One shared copy per dataset and bins for all of the pool's runs.
+ * const dataset = {
+ *   rows: 2,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(2, 1) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(20, 10) },
+ * };
+ * const bins = binFeatures(dataset);
+ * assert.equal(pool.shared(dataset, bins), pool.shared(dataset, bins));
+ * assert.notEqual(new FittingPool(2).shared(dataset, bins), pool.shared(dataset, bins));
  * pool.close();
  * await assert.rejects(pool.run([], [{ kind: "stop" }], () => {}), /closed/);
  * assert.throws(() => new FittingPool(0), /whole number >= 1/);
@@ -41,6 +54,10 @@ export class FittingPool {
   #workers: Worker[] = [];
   #running = false;
   #closed = false;
+  // Shared copies made for this pool's runs, by dataset and bins: a fit's
+  // cross-validation and ensemble send the same data. Kept no longer than
+  // the pool, so a dataset changed in place between fits is copied afresh.
+  #copies = new WeakMap<Dataset, { bins: FeatureBins[]; data: SharedData }>();
 
   constructor(size: number) {
     if (!Number.isInteger(size) || size < 1) {
@@ -102,6 +119,18 @@ export class FittingPool {
     } finally {
       this.#running = false;
     }
+  }
+
+  /**
+   * The shared copy of a dataset with these bins (and its canonical row
+   * order), made once for all of this pool's runs.
+   */
+  shared(dataset: Dataset, bins: FeatureBins[]): SharedData {
+    const known = this.#copies.get(dataset);
+    if (known !== undefined && known.bins === bins) return known.data;
+    const data = sharedInOrder(dataset, bins);
+    this.#copies.set(dataset, { bins, data });
+    return data;
   }
 
   /** Stops the workers; later runs are refused. */

@@ -17,7 +17,7 @@ import {
   crossValidateTree,
 } from "../tree/cross_validate.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
-import { sharedDataOf } from "./_shared_data.ts";
+import { sharedInOrder } from "./_shared_data.ts";
 import type { ToWorker } from "./_fit_worker.ts";
 import { type FittingPool, onFittingWorkers } from "./_worker_pool.ts";
 
@@ -57,7 +57,12 @@ export async function crossValidateTreeParallel(
   }
   const fold = assignFolds(dataset, folds, options.seed ?? 1);
   const opening: ToWorker[] = [
-    { kind: "data", data: sharedDataOf(dataset, bins), options: {}, states: new Int32Array(0) },
+    {
+      kind: "data",
+      data: typeof pool === "object" ? pool.shared(dataset, bins) : sharedInOrder(dataset, bins),
+      options: {},
+      states: new Int32Array(0),
+    },
     { kind: "folds", fold, grow: options.grow },
   ];
   // -1: the tree of every row; k: fold k's tree.

@@ -8,7 +8,7 @@ import {
   type Dataset,
   growTree,
 } from "../../../mod.ts";
-import { shareData, sharedDataOf } from "../../../lib/ensemble/_shared_data.ts";
+import { shareData } from "../../../lib/ensemble/_shared_data.ts";
 import { FittingPool, onFittingWorkers } from "../../../lib/ensemble/_worker_pool.ts";
 import type { ToWorker } from "../../../lib/ensemble/_fit_worker.ts";
 import { smallPay } from "./_small_pay.ts";
@@ -65,7 +65,7 @@ Deno.test("a pool's second run sees only its own data: earlier data and folds ar
         [
           {
             kind: "data",
-            data: sharedDataOf(dataset, bins),
+            data: pool.shared(dataset, bins),
             options: {},
             states: new Int32Array(0),
           },

@@ -11,6 +11,7 @@ import {
   shareTree,
 } from "../../../mod.ts";
 import { fitEnsemblesParallel } from "../../../lib/ensemble/fit_parallel.ts";
+import { FittingPool } from "../../../lib/ensemble/_worker_pool.ts";
 import { smallLevels, smallPay } from "./_small_pay.ts";
 
 Deno.test("two workers give the same trees, alphas and out-of-bag figures as one thread", async () => {
@@ -134,4 +135,30 @@ Deno.test("several ensembles on one set of workers: each as fitEnsemble gives it
     assert.deepEqual(own, Array.from({ length: n }, (_, i) => `${j}:${i + 1}/${n}`));
   }
   await assert.rejects(fitEnsemblesParallel(jobs, 0), RangeError);
+});
+
+Deno.test("a dataset changed in place between two fits on workers is read afresh, and a pool's runs agree with one thread", async () => {
+  const dataset = smallPay();
+  // Private copies of the columns, so that changing them touches no other test.
+  const mine = {
+    ...dataset,
+    target: { ...dataset.target, values: Float64Array.from(dataset.target.values) },
+  } as typeof dataset;
+  const options = { trees: 4, seed: 2, prune: "none" as const, grow: { minLeaf: 3 } };
+  await fitEnsembleParallel(mine, { ...options, workers: 2 });
+  // The same object, other pay: a copy kept from the first fit would give
+  // the first fit's trees.
+  const values = mine.target.values as Float64Array;
+  for (let r = 0; r < values.length; r++) values[r] += (r % 7) / 10;
+  const again = await fitEnsembleParallel(mine, { ...options, workers: 2 });
+  assert.deepEqual(again.trees, fitEnsemble(mine, options).trees);
+  const pool = new FittingPool(2);
+  try {
+    const first = await fitEnsembleParallel(mine, { ...options, workers: pool });
+    const second = await fitEnsembleParallel(mine, { ...options, seed: 3, workers: pool });
+    assert.deepEqual(first.trees, again.trees);
+    assert.deepEqual(second.trees, fitEnsemble(mine, { ...options, seed: 3 }).trees);
+  } finally {
+    pool.close();
+  }
 });
