@@ -142,6 +142,36 @@ export class FittingPool {
 }
 
 /**
+ * The shared copy of a dataset for a run on `workers`: the pool's, made
+ * once for all its runs, or a fresh one for workers started for one run.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "../tree/bins.ts";
+ * import { FittingPool, sharedDataFor } from "./_worker_pool.ts";
+ * const dataset = {
+ *   rows: 2,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(2, 1) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(20, 10) },
+ * };
+ * const bins = binFeatures(dataset);
+ * const pool = new FittingPool(2);
+ * assert.equal(sharedDataFor(pool, dataset, bins), sharedDataFor(pool, dataset, bins));
+ * assert.notEqual(sharedDataFor(2, dataset, bins), sharedDataFor(2, dataset, bins));
+ * ```
+ */
+export function sharedDataFor(
+  workers: number | FittingPool,
+  dataset: Dataset,
+  bins: FeatureBins[],
+): SharedData {
+  return workers instanceof FittingPool
+    ? workers.shared(dataset, bins)
+    : sharedInOrder(dataset, bins);
+}
+
+/**
  * Runs `tasks` on a pool, or on `workers` workers started for this run and
  * stopped after it; `take` receives every reply that is not an error.
  *

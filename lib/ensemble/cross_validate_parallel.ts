@@ -17,9 +17,8 @@ import {
   crossValidateTree,
 } from "../tree/cross_validate.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
-import { sharedInOrder } from "./_shared_data.ts";
 import type { ToWorker } from "./_fit_worker.ts";
-import { type FittingPool, onFittingWorkers } from "./_worker_pool.ts";
+import { FittingPool, onFittingWorkers, sharedDataFor } from "./_worker_pool.ts";
 
 /**
  * {@linkcode crossValidateTree} with its trees grown on `workers` workers
@@ -48,8 +47,11 @@ export async function crossValidateTreeParallel(
   bins: FeatureBins[] = binFeatures(dataset),
 ): Promise<CrossValidatedTree> {
   const folds = options.folds ?? 10;
-  const pool = options.workers;
-  const size = typeof pool === "object" ? pool.size : pool ?? navigator.hardwareConcurrency ?? 1;
+  const asked = options.workers;
+  const pool = asked instanceof FittingPool ? asked : null;
+  const size = asked instanceof FittingPool
+    ? asked.size
+    : asked ?? navigator.hardwareConcurrency ?? 1;
   const workers = Math.min(folds + 1, size);
   if (!(workers > 1) || !(folds >= 2) || folds > dataset.rows || !Number.isInteger(folds)) {
     // One thread, or options crossValidateTree refuses in its own words.
@@ -59,7 +61,7 @@ export async function crossValidateTreeParallel(
   const opening: ToWorker[] = [
     {
       kind: "data",
-      data: typeof pool === "object" ? pool.shared(dataset, bins) : sharedInOrder(dataset, bins),
+      data: sharedDataFor(pool ?? workers, dataset, bins),
       options: {},
       states: new Int32Array(0),
     },
@@ -73,7 +75,7 @@ export async function crossValidateTreeParallel(
   let full: FlatTree | undefined;
   const foldTrees: FlatTree[] = new Array(folds);
   let done = 0;
-  await onFittingWorkers(typeof pool === "object" ? pool : workers, opening, tasks, (reply) => {
+  await onFittingWorkers(pool ?? workers, opening, tasks, (reply) => {
     if (reply.kind !== "foldTree") return;
     if (reply.index < 0) full = reply.tree;
     else foldTrees[reply.index] = reply.tree;

@@ -10,9 +10,8 @@ import type { Dataset } from "../dataset/types.ts";
 import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import { resampleStates } from "./bootstrap.ts";
-import { sharedInOrder } from "./_shared_data.ts";
 import type { ToWorker } from "./_fit_worker.ts";
-import { FittingPool, onFittingWorkers } from "./_worker_pool.ts";
+import { FittingPool, onFittingWorkers, sharedDataFor } from "./_worker_pool.ts";
 import {
   assembleEnsemble,
   checkEnsembleOptions,
@@ -121,9 +120,7 @@ export async function fitEnsemblesParallel(
   const fits = jobs.map((job, key) => {
     const { dataset, options } = job;
     const count = counts[key];
-    const data = workers instanceof FittingPool
-      ? workers.shared(dataset, binned[key])
-      : sharedInOrder(dataset, binned[key]);
+    const data = sharedDataFor(workers, dataset, binned[key]);
     const states = resampleStates(options.seed ?? 1, dataset.target.values, count);
     const { onProgress: _, ...plain } = options;
     opening.push({ kind: "data", data, options: plain, states, key });
