@@ -47,12 +47,9 @@ export async function crossValidateTreeParallel(
   bins: FeatureBins[] = binFeatures(dataset),
 ): Promise<CrossValidatedTree> {
   const folds = options.folds ?? 10;
-  const asked = options.workers;
-  const pool = asked instanceof FittingPool ? asked : null;
-  const size = asked instanceof FittingPool
-    ? asked.size
-    : asked ?? navigator.hardwareConcurrency ?? 1;
-  const workers = Math.min(folds + 1, size);
+  // A pool, or a count (never more workers than the folds' trees are run).
+  const on = options.workers ?? navigator.hardwareConcurrency ?? 1;
+  const workers = Math.min(folds + 1, on instanceof FittingPool ? on.size : on);
   if (!(workers > 1) || !(folds >= 2) || folds > dataset.rows || !Number.isInteger(folds)) {
     // One thread, or options crossValidateTree refuses in its own words.
     return crossValidateTree(dataset, options, bins);
@@ -61,7 +58,7 @@ export async function crossValidateTreeParallel(
   const opening: ToWorker[] = [
     {
       kind: "data",
-      data: sharedDataFor(pool ?? workers, dataset, bins),
+      data: sharedDataFor(on, dataset, bins),
       options: {},
       states: new Int32Array(0),
     },
@@ -75,7 +72,7 @@ export async function crossValidateTreeParallel(
   let full: FlatTree | undefined;
   const foldTrees: FlatTree[] = new Array(folds);
   let done = 0;
-  await onFittingWorkers(pool ?? workers, opening, tasks, (reply) => {
+  await onFittingWorkers(on, opening, tasks, (reply) => {
     if (reply.kind !== "foldTree") return;
     if (reply.index < 0) full = reply.tree;
     else foldTrees[reply.index] = reply.tree;

@@ -135,23 +135,19 @@ export async function fitEnsemblesParallel(
       done: 0,
     };
   });
-  await onFittingWorkers(
-    workers instanceof FittingPool ? workers : Math.min(total, size),
-    opening,
-    tasks,
-    (reply) => {
-      if (reply.kind !== "tree") return;
-      const key = reply.key ?? 0;
-      const fit = fits[key];
-      fit.trees[reply.index] = reply.tree;
-      fit.alphas[reply.index] = reply.alpha;
-      fit.oobValues[reply.index] = reply.oob;
-      if (reply.importance !== undefined) fit.parts[reply.index] = reply.importance;
-      if (reply.shared !== undefined) fit.shared[reply.index] = reply.shared;
-      fit.done++;
-      jobs[key].options.onProgress?.(fit.done, counts[key]);
-    },
-  );
+  // A run uses no more workers than it has tasks.
+  await onFittingWorkers(workers, opening, tasks, (reply) => {
+    if (reply.kind !== "tree") return;
+    const key = reply.key ?? 0;
+    const fit = fits[key];
+    fit.trees[reply.index] = reply.tree;
+    fit.alphas[reply.index] = reply.alpha;
+    fit.oobValues[reply.index] = reply.oob;
+    if (reply.importance !== undefined) fit.parts[reply.index] = reply.importance;
+    if (reply.shared !== undefined) fit.shared[reply.index] = reply.shared;
+    fit.done++;
+    jobs[key].options.onProgress?.(fit.done, counts[key]);
+  });
   return jobs.map((job, key) => {
     const fit = fits[key];
     const ensemble = assembleEnsemble(

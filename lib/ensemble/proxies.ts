@@ -214,13 +214,11 @@ export async function proxyFigureSets(
     }))
   );
   const rows = questions.length === 0 ? 0 : questions[0].attribute.length;
+  // A pool's workers are already started, and serve at any size.
+  const onWorkers = options.workers instanceof FittingPool || rows >= WORKERS_FROM_ROWS;
   const ensembles = await fitEnsemblesParallel(
     jobs,
-    options.workers instanceof FittingPool
-      ? options.workers
-      : rows < WORKERS_FROM_ROWS
-      ? 1
-      : options.workers ?? navigator.hardwareConcurrency ?? 1,
+    onWorkers ? options.workers ?? navigator.hardwareConcurrency ?? 1 : 1,
   );
   let next = 0;
   return questions.map((q) => {

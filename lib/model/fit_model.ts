@@ -8,7 +8,6 @@
  * @module
  */
 
-import { FittingPool } from "../ensemble/_worker_pool.ts";
 import { createHash } from "node:crypto";
 import type { Dataset } from "../dataset/types.ts";
 import { OptionError } from "../errors.ts";
@@ -22,6 +21,7 @@ import {
   proxyFigureSets,
   type ProxyQuestion,
 } from "../ensemble/proxies.ts";
+import { FittingPool } from "../ensemble/_worker_pool.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import { leafCount, treeDepth } from "../tree/flat_tree.ts";
 import { roundedFigures, shareableReference } from "./shareable_figures.ts";
