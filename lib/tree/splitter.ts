@@ -107,6 +107,8 @@ export class Splitter {
   private readonly criterion: Criterion;
   private readonly minLeaf: number;
   private readonly stride: number;
+  // Two-class Gini has the same stride as squared error, so the task says.
+  private readonly squaredError: boolean;
   // The node's non-empty bins of the feature being searched: summary `i`
   // starts at `at[i]` in `data` (the histogram itself, or `compact` when
   // the bins were sorted) and is bin `binOf[i]`; the missing values'
@@ -119,6 +121,7 @@ export class Splitter {
   private readonly compact: Float64Array;
   private readonly missing: Float64Array;
   private readonly sortKeys: Uint32Array;
+  private keys: Uint32Array;
   private readonly levelKey: Float64Array;
   // The summary of the known values, of the left side being scanned, and
   // the two sides of the split being scored.
@@ -142,6 +145,7 @@ export class Splitter {
     this.minLeaf = minLeaf;
     const stride = criterion.stride;
     this.stride = stride;
+    this.squaredError = criterion.task === "regression";
     const widest = Math.max(1, ...bins.map((b) => b.count + 1));
     const compact = Math.min(widest, rows.count + 1);
     this.at = new Int32Array(compact);
@@ -149,6 +153,7 @@ export class Splitter {
     this.compact = new Float64Array(compact * stride);
     this.levelKey = new Float64Array(compact);
     this.sortKeys = new Uint32Array(rows.count);
+    this.keys = this.sortKeys;
     this.missing = new Float64Array(stride);
     this.data = this.compact;
     this.missData = this.missing;
@@ -196,7 +201,6 @@ export class Splitter {
     const { stride, at, binOf, total } = this;
     const missingBin = this.bins[f].count;
     const rows = end - start;
-    total.fill(0);
     let m = 0;
     if (hist !== null && this.histograms.isDense(f, rows)) {
       const first = this.histograms.at(f, 0);
@@ -219,6 +223,7 @@ export class Splitter {
         this.pointAt(hist, hist, first + missingBin * stride);
         return m;
       }
+      total.fill(0);
       for (let b = 0; b < missingBin; b++) {
         const a = first + b * stride;
         // Counts are exact integers, also after subtraction.
@@ -236,9 +241,7 @@ export class Splitter {
     // reused Uint32Array sorts faster than a fresh Float64Array.
     const { bins: rowBins, features, offsets, moments, weight, classOf } = this.rows;
     const offset = offsets[f];
-    const keys = (missingBin + 1) * rows <= 0xffffffff
-      ? this.sortKeys.subarray(0, rows)
-      : new Float64Array(rows);
+    const keys = (missingBin + 1) * rows <= 0xffffffff ? this.keysOf(rows) : new Float64Array(rows);
     for (let i = 0; i < rows; i++) {
       keys[i] = (rowBins[index[start + i] * features + f] - offset) * rows + i;
     }
@@ -247,6 +250,7 @@ export class Splitter {
     const missing = this.missing;
     missing.fill(0);
     const regression = moments.length > 0;
+    if (!regression) total.fill(0);
     let i = 0;
     // Each bin's summary is added up in locals and written once (a fill per
     // bin cost a fifth of this function); the known values' total is added
@@ -298,6 +302,14 @@ export class Splitter {
     if (regression) this.squaredErrorTotal(tRows, tWeight, tSum, tSquares);
     this.pointAt(compact, missing, 0);
     return m;
+  }
+
+  // The first `rows` sort keys, one view per node size: every feature of a
+  // node sorts as many keys, and a view per feature cost a twentieth of
+  // the search.
+  private keysOf(rows: number): Uint32Array {
+    if (this.keys.length !== rows) this.keys = this.sortKeys.subarray(0, rows);
+    return this.keys;
   }
 
   // Where the bins' summaries and the missing values' summary are read.
@@ -359,6 +371,10 @@ export class Splitter {
 
   // Tries every split between consecutive bins in their order.
   private scan(f: number, m: number, categorical: boolean): void {
+    if (this.squaredError && this.missData[this.missAt] === 0) {
+      this.scanSquaredError(f, m, categorical);
+      return;
+    }
     const { data, at, binOf, left, stride } = this;
     left.fill(0);
     // Where this scan's best split falls; a categorical split's level lists
@@ -375,19 +391,67 @@ export class Splitter {
       if (categorical) {
         bestAt = i;
       } else {
-        // As scikit-learn: the midpoint, computed as a/2 + b/2.
-        const bins = this.bins[f];
-        const low = bins.upper[binOf[i]];
-        const high = bins.lower[binOf[i + 1]];
-        let threshold = low / 2 + high / 2;
-        if (threshold === high || !Number.isFinite(threshold)) threshold = low;
-        choice.threshold = threshold;
+        choice.threshold = this.midpoint(f, binOf[i], binOf[i + 1]);
       }
     }
     if (bestAt >= 0) {
       this.choice.leftBins = Array.from(binOf.subarray(0, bestAt + 1));
       this.choice.rightBins = Array.from(binOf.subarray(bestAt + 1, m));
     }
+  }
+
+  // scan's loop for squared error at a node without missing values, the
+  // common case: the left side's sums in locals and each split's proxy
+  // worked out inline, so that `evaluate` (the same arithmetic in the
+  // same order, which records the split) runs only for a split that beats
+  // the best so far. Scoring every split through `evaluate` took a fifth
+  // of a 100,000-row tree's growth.
+  private scanSquaredError(f: number, m: number, categorical: boolean): void {
+    const { data, at, binOf, left, total, missData, missAt, minLeaf, choice } = this;
+    // The missing values' summary is added to the right side as in
+    // `evaluate`: a histogram's by subtraction may hold rounding left over.
+    const rightRows = total[0] + missData[missAt];
+    const rightWeight = total[1] + missData[missAt + 1];
+    const rightSum = total[2] + missData[missAt + 2];
+    let lRows = 0, lWeight = 0, lSum = 0, lSquares = 0;
+    let bestAt = -1;
+    for (let i = 0; i < m - 1; i++) {
+      const a = at[i];
+      lRows += data[a];
+      lWeight += data[a + 1];
+      lSum += data[a + 2];
+      lSquares += data[a + 3];
+      if (lRows < minLeaf || rightRows - lRows < minLeaf) continue;
+      const rSum = rightSum - lSum;
+      const proxy = (lSum * lSum) / lWeight + (rSum * rSum) / (rightWeight - lWeight);
+      if (this.found && !(proxy > choice.proxy)) continue;
+      left[0] = lRows;
+      left[1] = lWeight;
+      left[2] = lSum;
+      left[3] = lSquares;
+      if (!this.evaluate(left)) continue;
+      choice.feature = f;
+      choice.lastLeftBin = binOf[i];
+      if (categorical) {
+        bestAt = i;
+      } else {
+        choice.threshold = this.midpoint(f, binOf[i], binOf[i + 1]);
+      }
+    }
+    if (bestAt >= 0) {
+      choice.leftBins = Array.from(binOf.subarray(0, bestAt + 1));
+      choice.rightBins = Array.from(binOf.subarray(bestAt + 1, m));
+    }
+  }
+
+  // The threshold between two bins: as scikit-learn, the midpoint, computed
+  // as a/2 + b/2.
+  private midpoint(f: number, lowBin: number, highBin: number): number {
+    const bins = this.bins[f];
+    const low = bins.upper[lowBin];
+    const high = bins.lower[highBin];
+    const threshold = low / 2 + high / 2;
+    return threshold === high || !Number.isFinite(threshold) ? low : threshold;
   }
 
   // Every known value on the left, the missing ones on the right: a split on
