@@ -118,6 +118,8 @@ export {
   type WhatIf,
 } from "./lib/ensemble/read_profile.ts";
 export { type EstimateCenter, estimateCenter } from "./lib/ensemble/estimate_center.ts";
+export { ContributionReader, type Contributions } from "./lib/ensemble/contributions.ts";
+export { addContributions, ContributionSpace, coverMean } from "./lib/tree/contributions.ts";
 export {
   BAND_HIGH,
   BAND_LOW,
@@ -167,6 +169,7 @@ export * from "./lib/model/model_session.ts";
 export * from "./lib/model/estimate_answer.ts";
 export * from "./lib/model/answer_notes.ts";
 export * from "./lib/model/compare_answer.ts";
+export * from "./lib/model/contributions_answer.ts";
 export * from "./lib/model/sweep_answer.ts";
 export * from "./lib/model/batch_answer.ts";
 export * from "./lib/model/offer.ts";

@@ -17,6 +17,7 @@ import type { Model } from "./types.ts";
 import { checkCoverage, type ModelSession, resamplesOf, shiftedMoney } from "./model_session.ts";
 import { profileSupport } from "./estimate_answer.ts";
 import type { SupportReason } from "./answer_notes.ts";
+import { type ContributionsAnswer, contributionsOf } from "./contributions_answer.ts";
 
 /** One scored row of `batch`. */
 export interface BatchRow {
@@ -49,6 +50,12 @@ export interface BatchRow {
   shareBelow?: number | null;
   /** Why the row is unusual for the data, or outside it (none when it is not). */
   reasons: SupportReason[];
+  /**
+   * When asked for: each attribute's part of the estimate (for a training
+   * row, of its out-of-bag estimate, from the trees that did not draw it);
+   * null for a refused row.
+   */
+  contributions?: ContributionsAnswer | null;
 }
 
 /**
@@ -101,6 +108,7 @@ export function batchAnswer(
   rows: ModelRows,
   coverage = 0.9,
   offers: Float64Array | null = null,
+  withContributions = false,
 ): BatchRow[] {
   checkCoverage(coverage);
   const { model, reader } = session;
@@ -133,6 +141,7 @@ export function batchAnswer(
           ? { offerToEstimate: null, rangePosition: null, offerPosition: null, shareBelow: null }
           : {}),
         reasons: [],
+        ...(withContributions ? { contributions: null } : {}),
       });
       continue;
     }
@@ -177,6 +186,13 @@ export function batchAnswer(
           row.estimateSource = "out-of-bag";
         }
       }
+    }
+    if (withContributions) {
+      // A training row's parts come from the trees its estimate comes from.
+      const only = row.estimateSource === "out-of-bag"
+        ? outOfBagTrees(counts, training.get(rowKey(rows.ids[r], profile))!)
+        : undefined;
+      row.contributions = contributionsOf(model, profile, only);
     }
     if (offers !== null) {
       const offer = offers[r];
@@ -288,4 +304,13 @@ function outOfBag(
     n++;
   });
   return n > 0 ? sum / n : null;
+}
+
+// The trees that did not draw training row `row`.
+function outOfBagTrees(counts: Float64Array[], row: number): Int32Array {
+  const trees: number[] = [];
+  counts.forEach((drawn, b) => {
+    if (drawn[row] === 0) trees.push(b);
+  });
+  return Int32Array.from(trees);
 }

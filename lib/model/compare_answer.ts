@@ -11,6 +11,7 @@ import type { Profile, ProfileWarning } from "./profile.ts";
 import type { Provenance } from "./types.ts";
 import type { ModelSession } from "./model_session.ts";
 import { type EstimateAnswer, estimateProfile } from "./estimate_answer.ts";
+import { type ChangeContributions, changeContributions } from "./contributions_answer.ts";
 
 /** A what-if's answer (the compare command's JSON document). */
 export interface CompareAnswer {
@@ -39,6 +40,11 @@ export interface CompareAnswer {
    * paths agree.
    */
   pathChange: { step: number; base: string | null; changed: string | null } | null;
+  /**
+   * The change split by attribute ({@linkcode changeContributions}): the
+   * attributes changed and those whose parts move with them.
+   */
+  parts: ChangeContributions | null;
   /** Where it came from. */
   provenance: Provenance;
 }
@@ -131,5 +137,13 @@ export function compareAnswer(
       break;
     }
   }
-  return { base: a, changed: b, changes, difference, pathChange, provenance: model.provenance };
+  return {
+    base: a,
+    changed: b,
+    changes,
+    difference,
+    pathChange,
+    parts: changeContributions(model, base, changed),
+    provenance: model.provenance,
+  };
 }

@@ -19,6 +19,7 @@ import { type AnswerNote, distinctNotes, type SupportReason } from "./answer_not
 import type { Model, Provenance } from "./types.ts";
 import type { OfferAnswer } from "./offer.ts";
 import { checkCoverage, type ModelSession } from "./model_session.ts";
+import { type ContributionsAnswer, contributionsOf } from "./contributions_answer.ts";
 
 /** An interval with its coverage and how it was made. */
 export interface NamedInterval {
@@ -127,6 +128,11 @@ export interface EstimateAnswer {
   support: SupportAnswer;
   /** Each tree's estimate (money), for the chart. */
   trees: number[];
+  /**
+   * Each attribute's part of the estimate ({@linkcode contributionsOf}; null
+   * for a class model).
+   */
+  contributions: ContributionsAnswer | null;
   /** What to bear in mind about the estimate ({@linkcode AnswerNote}). */
   warnings: AnswerNote[];
   /** With an offer: where it sits ({@linkcode checkOffer}). */
@@ -253,6 +259,7 @@ export function estimateProfile(
       },
       referenceTree: tree.value[leafNode * width + best],
       center: null,
+      contributions: null,
       ...NO_INTERVALS,
       warnings,
     };
@@ -270,6 +277,7 @@ export function estimateProfile(
         meanOverEstimate: null,
         meanPay: null,
       },
+      contributions: contributionsOf(model, profile),
       ...NO_INTERVALS,
       warnings,
     };
@@ -284,6 +292,7 @@ export function estimateProfile(
     jackknifeNeedsAnalystFile: reader.jackknifeWithheld,
     referenceTree,
     center: estimateCenterOf(reader, reading.estimate),
+    contributions: contributionsOf(model, profile),
     warnings,
   };
 }

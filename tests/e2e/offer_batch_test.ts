@@ -142,6 +142,42 @@ Deno.test("batch scores the rows it can, lists the refused one and ends with sta
   assert.equal(provenance.refused, 1);
 });
 
+Deno.test("batch --contributions adds each attribute's part, which multiply to the estimate", async () => {
+  const file = `${dir}/parts.csv`;
+  await Deno.writeTextFile(
+    file,
+    [
+      HEADER.replace(",offer", ""),
+      "C-101,Sales,G3,8,0,Millbrook,,Bachelor,no",
+      "C-103,Engineering,G1,6,0,Harbourside,,Master,yes",
+    ].join("\n") + "\n",
+  );
+  const result = await paygrove(["batch", modelPath, file, "--contributions"]);
+  assert.equal(result.code, 0, result.stderr);
+  const [head, ...rows] = result.stdout.trim().split("\n");
+  const header = head.split(",");
+  const names = model.features.map((f) => f.name);
+  const from = header.indexOf("parts_from");
+  assert.deepEqual(header.slice(from, from + 1 + names.length), [
+    "parts_from",
+    ...names.map((n) => `part_${n}`),
+  ]);
+  for (const line of rows) {
+    // No quoted cells in these rows: a plain split reads them.
+    const cells = line.split(",");
+    const estimate = Number(cells[header.indexOf("estimate")]);
+    const product = names.reduce(
+      (p, _, j) => p * (1 + Number(cells[from + 1 + j])),
+      Number(cells[from]),
+    );
+    // Cells are rounded (money to cents, shares to 6 decimals).
+    assert.ok(Math.abs(product / estimate - 1) < 1e-5, `${product} vs ${estimate}`);
+  }
+  // The level's part of a G1 is below 0: a lower level than the table's average.
+  const g1 = rows[1].split(",");
+  assert.ok(Number(g1[header.indexOf("part_level")]) < 0);
+});
+
 Deno.test("batch --json lists the refused rows and the summary, with status 3", async () => {
   const file = `${dir}/candidates.csv`;
   const result = await paygrove(["batch", modelPath, file, "--offer", "offer", "--json"]);

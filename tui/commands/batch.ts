@@ -243,6 +243,11 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
     .argument("<profiles>", "CSV with the model's attribute columns")
     .option("--offer <column>", "column of offers (pay amounts) to place in the range")
     .option(
+      "--contributions",
+      "add each attribute's part of the estimate (parts_from, then part_COLUMN for each " +
+        "attribute: a percentage as a fraction on a log-pay model, money otherwise)",
+    )
+    .option(
       "--coverage <share>",
       "coverage of the intervals, from 0.5 to 0.99",
       coverageOption,
@@ -293,7 +298,13 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         }
         offers = column.values;
       }
-      const scored = batchAnswer(session, rows, flags.coverage, offers);
+      const scored = batchAnswer(
+        session,
+        rows,
+        flags.coverage,
+        offers,
+        flags.contributions === true,
+      );
       // The profiles table's data-quality warnings, on stderr (stdout may be the CSV).
       const dataWarnings = rows.table.warnings;
       if (!flags.json) {
@@ -338,7 +349,13 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
       const fingerprint = modelFingerprint(model);
       let provenanceFile: string | null = null;
       if (flags.out !== undefined) {
-        const csv = toCsv(rows.raw, scored, withOffer, fingerprint);
+        const csv = toCsv(
+          rows.raw,
+          scored,
+          withOffer,
+          fingerprint,
+          partColumns(model, flags.contributions),
+        );
         // Per-person pay: a new file is its owner's alone (0600).
         await writeFileAtomic(flags.out, csv, {
           force: flags.force ?? false,
@@ -367,7 +384,10 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
           terminal.out(line);
         }
       } else {
-        terminal.out(toCsv(rows.raw, scored, withOffer, fingerprint).replace(/\n$/, ""));
+        terminal.out(
+          toCsv(rows.raw, scored, withOffer, fingerprint, partColumns(model, flags.contributions))
+            .replace(/\n$/, ""),
+        );
       }
       // On a terminal, stderr's lines are wrapped at spaces (never inside a figure).
       const say = (text: string) => {
@@ -533,16 +553,43 @@ function inputRow(raw: { header: string[]; cells: string[][] }, r: number): Reco
   return Object.fromEntries(raw.header.map((h, c) => [h, raw.cells[c][r]]));
 }
 
+// With --contributions: the model's attributes, in its order (each row's
+// parts are listed largest first, so they are looked up by name).
+function partColumns(
+  model: { features: { name: string }[] },
+  wanted: boolean | undefined,
+): string[] {
+  return wanted === true ? model.features.map((f) => f.name) : [];
+}
+
+// One row's parts: the starting figure in money, then each attribute's part
+// as a fraction (log pay: exp(part) - 1) or in money (raw scale).
+function partCells(row: BatchRow, features: readonly string[]): string[] {
+  if (features.length === 0) return [];
+  const c = row.contributions;
+  if (c === null || c === undefined) return ["", ...features.map(() => "")];
+  const byName = new Map(c.parts.map((p) => [p.feature, p]));
+  return [
+    money(c.base),
+    ...features.map((f) => {
+      const p = byName.get(f)!;
+      return p.percent === null ? money(p.money) : share(p.percent);
+    }),
+  ];
+}
+
 function toCsv(
   raw: { header: string[]; cells: string[][] },
   scored: BatchRow[],
   withOffer: boolean,
   fingerprint: string,
+  parts: readonly string[] = [],
 ): string {
   const header = [
     ...raw.header,
     ...BATCH_COLUMNS,
     ...(withOffer ? OFFER_COLUMNS : []),
+    ...(parts.length > 0 ? ["parts_from", ...parts.map((f) => `part_${f}`)] : []),
     ...TRAILING_COLUMNS,
   ];
   const lines = [header.map(csvCell).join(",")];
@@ -564,6 +611,7 @@ function toCsv(
           share(row.shareBelow),
         ]
         : []),
+      ...partCells(row, parts),
       row.refused !== null ? `not scored: ${row.refused}` : reasonsText(row.reasons),
       fingerprint,
     ];

@@ -6,8 +6,8 @@
  * @module
  */
 
-import type { CompareAnswer, EstimateAnswer, Model } from "../../mod.ts";
-import { formatPay, formatPercent } from "../render/numbers.ts";
+import type { AttributePart, CompareAnswer, EstimateAnswer, Model } from "../../mod.ts";
+import { formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
 import { forMarkdown } from "../render/safe_text.ts";
 import { wordedNotes } from "../render/answer_notes.ts";
 import { moneyStyle } from "../render/model_view.ts";
@@ -65,8 +65,8 @@ export function reportMarkdown(
     "",
     `> ${CAUTION}`,
     "",
-    "| scenario | estimate | how sure (90%) | range for comparable people (90%) | profile |",
-    "| --- | ---: | ---: | ---: | --- |",
+    "| scenario | estimate | how sure (90%) | range for comparable people (90%) | largest parts | profile |",
+    "| --- | ---: | ---: | ---: | --- | --- |",
     ...scenarios.map((s) => {
       const a = s.answer;
       const sure = a.confidence ? `${pay(a.confidence.low)} - ${pay(a.confidence.high)}` : "-";
@@ -74,14 +74,15 @@ export function reportMarkdown(
       const profile = Object.entries(a.profile).map(([k, v]) => `${k} ${v ?? "missing"}`).join(
         ", ",
       );
-      return `| ${s.name} | ${pay(a.estimate)} | ${sure} | ${range} | ${profile} |`;
+      const parts = a.contributions ? largestParts(a.contributions.parts, money) : "-";
+      return `| ${s.name} | ${pay(a.estimate)} | ${sure} | ${range} | ${parts} | ${profile} |`;
     }),
   ];
   if (whatIfs.length > 0) {
     lines.push(
       "",
-      "| what-if | base | changed | change | how sure the change is (90%) |",
-      "| --- | ---: | ---: | ---: | ---: |",
+      "| what-if | base | changed | change | how sure the change is (90%) | largest parts of the change |",
+      "| --- | ---: | ---: | ---: | ---: | --- |",
       ...whatIfs.map((w) => {
         const d = w.difference;
         const change = `${d.estimate >= 0 ? "+" : ""}${pay(d.estimate)} (${
@@ -89,10 +90,18 @@ export function reportMarkdown(
         })`;
         const sure = d.low === null || d.high === null ? "-" : `${pay(d.low)} to ${pay(d.high)}`;
         const what = w.changes.map((c) => `${c.feature} ${c.from} -> ${c.to}`).join(", ");
+        const parts = w.parts ? largestParts(w.parts.parts, money) : "-";
         return `| ${what} | ${pay(w.base.estimate)} | ${
           pay(w.changed.estimate)
-        } | ${change} | ${sure} |`;
+        } | ${change} | ${sure} | ${parts} |`;
       }),
+    );
+  }
+  if (scenarios.some((s) => s.answer.contributions) || whatIfs.some((w) => w.parts)) {
+    lines.push(
+      "",
+      "Parts: each attribute's exact Shapley part, averaged over the trees; on log pay they are " +
+        "percentages that multiply, so the money amounts do not add up exactly.",
     );
   }
   lines.push(
@@ -103,6 +112,20 @@ export function reportMarkdown(
     "",
   );
   return lines.join("\n");
+}
+
+// The three largest parts, in a table cell: "level G5 +56.4%; site North -0.9%".
+function largestParts(parts: readonly AttributePart[], money: NumberStyle): string {
+  const shown = parts.filter((p) => p.part !== 0).slice(0, 3).map((p) => {
+    const value = p.from !== undefined && !Object.is(p.from, p.value)
+      ? `${p.from ?? "missing"} -> ${p.value ?? "missing"}`
+      : `${p.value ?? "missing"}`;
+    const size = p.percent !== null
+      ? formatPercent(p.percent, true)
+      : `${p.money >= 0 ? "+" : "-"}${formatPay(Math.abs(p.money), money, true)}`;
+    return `${p.feature} ${value} ${size}`;
+  });
+  return shown.length === 0 ? "-" : shown.join("; ");
 }
 
 /**
@@ -130,7 +153,7 @@ export function reportMarkdown(
  * assert.deepEqual(doc.scenarios.map((s) => [s.name, s.estimate]), [["typical", answer.estimate]]);
  * assert.deepEqual(doc.whatIfs, [{
  *   changes: promoted.changes, base: promoted.base.estimate, changed: promoted.changed.estimate,
- *   difference: promoted.difference,
+ *   difference: promoted.difference, parts: promoted.parts,
  * }]);
  * ```
  */
@@ -151,6 +174,7 @@ export function reportJson(
       base: w.base.estimate,
       changed: w.changed.estimate,
       difference: w.difference,
+      parts: w.parts,
     })),
     provenance: model.provenance,
   };

@@ -10,6 +10,7 @@ import Table from "cli-table3";
 import wrapAnsi from "wrap-ansi";
 import type { CompareAnswer, EstimateAnswer, OfferAnswer, SweepAnswer } from "../../mod.ts";
 import { barChart, histogram, intervalChart } from "./charts.ts";
+import { renderChangeParts, renderContributions } from "./contributions_view.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { chartSymbols } from "./glyphs.ts";
@@ -235,6 +236,12 @@ export function renderEstimate(answer: EstimateAnswer, options: AnswerViewOption
       );
     }
   }
+  if (answer.contributions) {
+    lines.push(
+      "",
+      ...renderContributions(answer.contributions, { style, width: options.width, money }),
+    );
+  }
   lines.push("", style.bold(`Decision path of the reference tree`));
   if (answer.path.length === 0) lines.push("  (the tree has one leaf: everyone)");
   const table = new Table({
@@ -439,16 +446,22 @@ export function renderCompare(
   answer: CompareAnswer,
   options: AnswerViewOptions & { maxLines?: number },
 ): string[] {
-  const boxed = compareLines(answer, options, "box");
-  return options.maxLines !== undefined && boxed.length > options.maxLines
-    ? compareLines(answer, options, "none")
-    : boxed;
+  // Within maxLines: the table loses its borders first, then the change
+  // loses its split by attribute.
+  const max = options.maxLines ?? Infinity;
+  const boxed = compareLines(answer, options, "box", true);
+  if (boxed.length <= max) return boxed;
+  const plain = compareLines(answer, options, "none", true);
+  return plain.length <= max || answer.parts === null
+    ? plain
+    : compareLines(answer, options, "none", false);
 }
 
 function compareLines(
   answer: CompareAnswer,
   options: AnswerViewOptions,
   borders: "box" | "none",
+  withParts: boolean,
 ): string[] {
   const { style, money } = options;
   // Changes of a salary (base from 100 up) in whole units, like the salaries.
@@ -514,6 +527,18 @@ function compareLines(
       )
       : []),
   );
+  if (answer.parts !== null && withParts) {
+    lines.push(
+      "",
+      ...renderChangeParts(answer.parts, {
+        style,
+        width: options.width,
+        money,
+        most: options.compact ? 3 : 6,
+        brief: options.compact,
+      }),
+    );
+  }
   const p = answer.pathChange;
   lines.push(
     "",
@@ -840,6 +865,16 @@ export function fitResult(
         `${sparkline(answer.trees, bins, style.ascii)} ${high}`,
     );
   }
+  // Each attribute's part as a bar: up to three, fewer when room is short.
+  let partsShown = answer.contributions ? 3 : 0;
+  const parts = () =>
+    partsShown === 0 ? [] : renderContributions(answer.contributions!, {
+      style,
+      width: options.width,
+      money,
+      most: partsShown,
+      brief: true,
+    });
   // The last step shows the leaf's people and pay; the header says how
   // many people share the profile's two most important levels.
   const peers = answer.support.peers;
@@ -858,15 +893,16 @@ export function fitResult(
     );
   // Lines but the path's steps.
   const fixed = () =>
-    head.length + profile.length + warnings.length + intervals.length + pathHead().length +
-    (withHead ? 1 : 0);
+    head.length + profile.length + warnings.length + intervals.length + parts().length +
+    pathHead().length + (withHead ? 1 : 0);
   const steps = shownSteps(answer.path);
   // At the least, the path shows a count of the conditions left out and its last.
   const least = Math.min(steps.length, 2);
   let cut = false;
   // Too long, in this order: the profile by what differs from the typical
   // person, on one line; the path's first conditions (below); the people
-  // sharing the profile's levels; the path's column headings; the trees' line.
+  // sharing the profile's levels; the path's column headings; the third and
+  // second parts; the trees' line; the parts.
   if (fixed() + steps.length > max && profile.length > 1) {
     profile = wrap(style.dim(`for ${shortProfile(answer.profile, options.typical)}`), "  ");
     if (profile.length > 1) profile = [`${profile[0].replace(/,[^,]*$/, "")}, ...`];
@@ -875,7 +911,10 @@ export function fitResult(
   const shorter = [
     () => (withPeers = false),
     () => (withHead = false),
+    () => (partsShown = Math.min(partsShown, 2)),
+    () => (partsShown = Math.min(partsShown, 1)),
     () => intervals.length > 0 && intervals.pop(),
+    () => (partsShown = 0),
   ];
   for (const drop of shorter) {
     if (fixed() + least <= max) break;
@@ -919,7 +958,7 @@ export function fitResult(
         ],
     );
   }
-  const lines = [...head, ...profile, ...warnings, ...intervals, ...pathHead()];
+  const lines = [...head, ...profile, ...warnings, ...intervals, ...parts(), ...pathHead()];
   if (answer.path.length > 0) {
     lines.push(...table.toString().split("\n").map((l) => `  ${l.trimEnd()}`));
   }

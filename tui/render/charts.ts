@@ -1,10 +1,52 @@
 /**
- * Small text charts: horizontal bars for importance, intervals drawn on a
- * common axis, and a histogram of the trees' estimates. Plain characters
+ * Small text charts: horizontal bars for importance, bars either side of a
+ * line for signed parts, intervals drawn on a common axis, and a histogram
+ * of the trees' estimates. Plain characters
  * only, so they survive any SSH session and copy-paste.
  *
  * @module
  */
+
+/**
+ * Bars that go left of a centre line for a negative value ("-" cells) and
+ * right of it for a positive one ("+" cells), scaled to the largest size;
+ * a value that is not 0 gets at least one cell. The sign reads from the
+ * cells as well as the side, so nothing depends on colour.
+ *
+ * @param half Cells on each side of the line.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { signedBarChart } from "./charts.ts";
+ * const lines = signedBarChart([
+ *   { label: "level G5", value: 0.2, text: "+22%" },
+ *   { label: "site", value: -0.05, text: "-5%" },
+ *   { label: "remote", value: 0, text: "0%" },
+ * ], 4);
+ * assert.deepEqual(lines, [
+ *   "level G5      |++++ +22%",
+ *   "site         -|     -5%",
+ *   "remote        |     0%",
+ * ]);
+ * ```
+ */
+export function signedBarChart(
+  items: readonly { label: string; value: number; text: string }[],
+  half: number,
+): string[] {
+  const labelWidth = Math.max(0, ...items.map((i) => i.label.length));
+  const top = Math.max(0, ...items.map((i) => Math.abs(i.value)));
+  return items.map((item) => {
+    const size = top > 0 ? Math.round((Math.abs(item.value) / top) * half) : 0;
+    const n = item.value === 0 ? 0 : Math.max(1, size);
+    const left = item.value < 0 ? "-".repeat(n) : "";
+    const right = item.value > 0 ? "+".repeat(n) : "";
+    return `${item.label.padEnd(labelWidth)}  ${left.padStart(half)}|${
+      right.padEnd(half)
+    } ${item.text}`;
+  });
+}
 
 /**
  * Horizontal bars, one per item, scaled to the largest value.

@@ -146,3 +146,38 @@ Deno.test("a class model and a coverage outside 0.5 to 0.99 are refused", () => 
   assert.throws(() => batchAnswer(openModel(classModel()), rows), OptionError);
   assert.throws(() => batchAnswer(openModel(handModel()), rows, 0.2), OptionError);
 });
+
+Deno.test("each row's parts add up to its own estimate: out-of-bag rows from their trees", () => {
+  const model = handModel();
+  const rows = readForModel(
+    model,
+    trainingCsv() + "new1,G2,5,North,\nb,G3,5,South,\n",
+    "hand.csv",
+  );
+  rows.refused = [{ row: 21, line: 23, reasons: ['site "West" is a level the model never saw'] }];
+  const out = batchAnswer(openModel(model), rows, 0.9, null, true);
+  let oob = 0;
+  for (const [i, row] of out.slice(0, 21).entries()) {
+    const c = row.contributions!;
+    // On log pay: the starting figure times each part's factor is the estimate.
+    const product = c.parts.reduce((p, part) => p * (1 + part.percent!), c.base);
+    close(product, row.estimate!, 1e-9);
+    close(c.estimate, row.estimate!, 1e-9);
+    if (row.estimateSource === "out-of-bag") {
+      oob++;
+      // From the trees that left the row out, and from them only.
+      const leftOut = [0, 1, 2].filter((b) =>
+        bootstrapCounts(20, model.analyst!.resamples, b)[i] === 0
+      );
+      assert.equal(c.trees, leftOut.length);
+    } else {
+      assert.equal(c.trees, 3);
+    }
+  }
+  assert(oob >= 10);
+  // The refused row (a level the model never saw) has no parts; without the
+  // option no row has the field.
+  assert.equal(out[21].estimateSource, "not-scored");
+  assert.equal(out[21].contributions, null);
+  assert(!("contributions" in batchAnswer(openModel(model), rows, 0.9)[0]));
+});
