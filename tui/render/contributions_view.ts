@@ -58,7 +58,7 @@ export function renderContributions(
   if (options.brief) {
     return [
       ...wrapped(
-        `${style.bold("Why this estimate:")} each attribute's part, from ${pay(answer.base)}`,
+        `${style.bold("Why this estimate:")} parts from ${pay(answer.base)}, the table's average`,
         options.width,
       ),
       ...partBars(answer.parts, options),
@@ -133,7 +133,7 @@ function partBars(parts: readonly AttributePart[], options: PartsViewOptions): s
   const top = shown.slice(0, most);
   // Labels and figures take what they need; the bars what is left, at most
   // 10 cells a side and at least 3.
-  const labels = top.map((p) => label(p, Math.max(12, Math.floor(options.width / 3))));
+  const labels = top.map((p) => label(p, Math.max(12, Math.floor(options.width * 0.4))));
   // Percentages and amounts each in their own right-aligned column.
   const percents = top.map((p) => p.percent === null ? "" : formatPercent(p.percent, true, money));
   const amounts = top.map((p) => signedPay(p.money, money));
