@@ -45,6 +45,19 @@ export interface GrowOptions {
    * @default {0}
    */
   minImpurityDecrease?: number;
+  /**
+   * Features (by index; numeric or ordinal, regression only) along which
+   * the prediction must never fall: with the others held fixed, a higher
+   * known value never gets a lower prediction. A split of such a feature's
+   * values is allowed only when the lower side's mean is at most the
+   * higher's; the midpoint of the two sides' values bounds every node below
+   * (the lower side's from above, the higher side's from below), and every
+   * node's value is its mean clipped to its bounds, its impurity the mean
+   * squared error about that value (so pruning, which reads weight x
+   * impurity, keeps the property). Missing values go where the split sends
+   * them; the order holds among known values.
+   */
+  increasing?: readonly number[];
 }
 
 /** The data a tree is grown on. */
@@ -134,7 +147,8 @@ export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree 
   if (!(minDecrease >= 0)) {
     throw new RangeError(`minImpurityDecrease must be >= 0, got ${minDecrease}`);
   }
-  return new Builder(input, { minLeaf, minSplit, maxDepth, minDecrease }).grow();
+  const increasing = increasingFlags(input.dataset, options.increasing ?? []);
+  return new Builder(input, { minLeaf, minSplit, maxDepth, minDecrease, increasing }).grow();
 }
 
 interface Settings {
@@ -142,6 +156,30 @@ interface Settings {
   minSplit: number;
   maxDepth: number;
   minDecrease: number;
+  /** 1 per feature constrained to increase; null when none is. */
+  increasing: Uint8Array | null;
+}
+
+// The constrained features as flags, after checking them.
+function increasingFlags(dataset: Dataset, features: readonly number[]): Uint8Array | null {
+  if (features.length === 0) return null;
+  if (dataset.target.kind !== "regression") {
+    throw new RangeError("increasing constrains a regression tree, not a class tree");
+  }
+  const flags = new Uint8Array(dataset.features.length);
+  for (const f of features) {
+    const feature = dataset.features[f];
+    if (!Number.isInteger(f) || feature === undefined) {
+      throw new RangeError(`increasing: no feature ${f}`);
+    }
+    if (feature.kind === "categorical") {
+      throw new RangeError(
+        `increasing: "${feature.name}" is categorical, with no order to increase along`,
+      );
+    }
+    flags[f] = 1;
+  }
+  return flags;
 }
 
 // A regression node's sums, in this order (see nodeSums).
@@ -201,6 +239,11 @@ function writeSums(
   sums[SUM_SHIFT] = shift;
 }
 
+// The mean target of a node's sums.
+function sumsMean(sums: Float64Array): number {
+  return sums[SUM_SHIFT] + sums[SUM_TARGET] / sums[SUM_WEIGHT];
+}
+
 /** A node waiting on the stack: its rows `index[start..end)` and where it hangs. */
 interface PendingNode {
   start: number;
@@ -214,6 +257,9 @@ interface PendingNode {
   histogram: Float64Array | null;
   /** Its regression sums, when the parent's partition took them. */
   sums: Float64Array | null;
+  /** Bounds of its value from constrained splits above (-Infinity, Infinity: none). */
+  floor: number;
+  ceiling: number;
 }
 
 class Builder {
@@ -273,6 +319,7 @@ class Builder {
       this.histograms,
       this.criterion,
       settings.minLeaf,
+      settings.increasing,
     );
     this.maskWords = Int32Array.from(
       dataset.features,
@@ -294,13 +341,15 @@ class Builder {
       side: "root",
       histogram: null,
       sums: null,
+      floor: -Infinity,
+      ceiling: Infinity,
     }];
     const { histograms, splitter } = this;
     while (stack.length > 0) {
       const node = stack.pop()!;
       const { start, end, depth } = node;
       let hist = node.histogram;
-      const id = this.addNode(start, end, node.sums);
+      const id = this.addNode(start, end, node.sums, node.floor, node.ceiling);
       // The sums are read; the array serves a later split.
       if (node.sums !== null) this.spareSums.push(node.sums);
       if (node.side === "left") this.nodes.left[node.parent] = id;
@@ -335,6 +384,18 @@ class Builder {
       const mid = this.partition(start, end, best, missingLeft, leftSums, rightSums);
       this.setSplit(id, best, missingLeft);
       const [leftHist, rightHist] = histograms.children(hist, this.index, start, mid, end);
+      // A constrained feature's known values split by order: the midpoint of
+      // the two sides' values bounds the lower side from above and the
+      // higher from below, for every node beneath.
+      let { floor, ceiling } = node;
+      let split = NaN;
+      if (
+        this.s.increasing !== null && this.s.increasing[best.feature] === 1 &&
+        best.threshold !== Infinity
+      ) {
+        const clip = (v: number) => Math.min(ceiling, Math.max(floor, v));
+        split = (clip(sumsMean(leftSums!)) + clip(sumsMean(rightSums!))) / 2;
+      }
       stack.push({
         start: mid,
         end,
@@ -343,7 +404,10 @@ class Builder {
         side: "right",
         histogram: rightHist,
         sums: rightSums,
+        floor: Number.isNaN(split) ? floor : split,
+        ceiling,
       });
+      if (!Number.isNaN(split)) ceiling = split;
       stack.push({
         start,
         end: mid,
@@ -352,12 +416,20 @@ class Builder {
         side: "left",
         histogram: leftHist,
         sums: leftSums,
+        floor,
+        ceiling,
       });
     }
     return this.finish();
   }
 
-  private addNode(start: number, end: number, taken: Float64Array | null): number {
+  private addNode(
+    start: number,
+    end: number,
+    taken: Float64Array | null,
+    floor: number,
+    ceiling: number,
+  ): number {
     const { index } = this;
     const { weight: w, classOf } = this.rows;
     const k = this.criterion.width;
@@ -378,8 +450,13 @@ class Builder {
       const high = sums[SUM_HIGH];
       const shift = sums[SUM_SHIFT];
       const offset = sum / weight;
-      nodes.value.push(shift + offset);
+      const mean = shift + offset;
       impurity = low === high ? 0 : Math.max(0, sq / weight - offset * offset);
+      // Bounds from constrained splits above: the value is the mean clipped
+      // to them, the impurity the mean squared error about that value.
+      const value = Math.min(ceiling, Math.max(floor, mean));
+      if (value !== mean) impurity += (mean - value) * (mean - value);
+      nodes.value.push(value);
     } else {
       const values = this.classWeights;
       values.fill(0);

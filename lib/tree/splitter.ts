@@ -17,6 +17,11 @@
  * sends them to the heavier child. A split of known against missing values
  * is tried too.
  *
+ * A feature constrained to increase (regression): a split of its known
+ * values by order is allowed only when the lower side's mean is at most the
+ * higher side's (missing values counted on their side); the builder passes
+ * bounds down so that no descendant crosses the split (lib/tree/grow_tree.ts).
+ *
  * Ties between equally good splits go to the lowest feature index, then the
  * lowest threshold (the first found in the scan).
  *
@@ -109,6 +114,10 @@ export class Splitter {
   private readonly stride: number;
   // Two-class Gini has the same stride as squared error, so the task says.
   private readonly squaredError: boolean;
+  // Per feature, 1 when the estimate must not fall as it grows (null: no
+  // feature is constrained); `monotone`, whether the feature being searched is.
+  private readonly increasing: Uint8Array | null;
+  private monotone = false;
   // The node's non-empty bins of the feature being searched: summary `i`
   // starts at `at[i]` in `data` (the histogram itself, or `compact` when
   // the bins were sorted) and is bin `binOf[i]`; the missing values'
@@ -136,6 +145,7 @@ export class Splitter {
     histograms: Histograms,
     criterion: Criterion,
     minLeaf: number,
+    increasing: Uint8Array | null = null,
   ) {
     this.rows = rows;
     this.bins = bins;
@@ -143,6 +153,7 @@ export class Splitter {
     this.histograms = histograms;
     this.criterion = criterion;
     this.minLeaf = minLeaf;
+    this.increasing = increasing;
     const stride = criterion.stride;
     this.stride = stride;
     this.squaredError = criterion.task === "regression";
@@ -172,6 +183,7 @@ export class Splitter {
     this.found = false;
     const classes = this.criterion.task === "classification" ? this.criterion.width : 0;
     for (let f = 0; f < this.kinds.length; f++) {
+      this.monotone = this.increasing !== null && this.increasing[f] === 1;
       const m = this.collect(f, index, start, end, hist);
       const missN = this.missData[this.missAt];
       if (m < 2 && !(m === 1 && missN > 0)) continue;
@@ -407,7 +419,7 @@ export class Splitter {
   // the best so far. Scoring every split through `evaluate` took a fifth
   // of a 100,000-row tree's growth.
   private scanSquaredError(f: number, m: number, categorical: boolean): void {
-    const { data, at, binOf, left, total, missData, missAt, minLeaf, choice } = this;
+    const { data, at, binOf, left, total, missData, missAt, minLeaf, choice, monotone } = this;
     // The missing values' summary is added to the right side as in
     // `evaluate`: a histogram's by subtraction may hold rounding left over.
     const rightRows = total[0] + missData[missAt];
@@ -423,6 +435,8 @@ export class Splitter {
       lSquares += data[a + 3];
       if (lRows < minLeaf || rightRows - lRows < minLeaf) continue;
       const rSum = rightSum - lSum;
+      // A constrained feature: the lower values' mean may not exceed the higher's.
+      if (monotone && lSum / lWeight > rSum / (rightWeight - lWeight)) continue;
       const proxy = (lSum * lSum) / lWeight + (rSum * rSum) / (rightWeight - lWeight);
       if (this.found && !(proxy > choice.proxy)) continue;
       left[0] = lRows;
@@ -514,6 +528,11 @@ export class Splitter {
         sides[stride + c] = total[c] + missData[missAt + c] - l;
       }
       if (sides[0] < this.minLeaf || sides[stride] < this.minLeaf) continue;
+      // Known values split by their order on a constrained feature: the
+      // left side's mean may not exceed the right side's.
+      if (
+        this.monotone && !knownLeft && sides[2] / sides[1] > sides[stride + 2] / sides[stride + 1]
+      ) continue;
       const proxy = criterion.proxy(sides, 0, stride);
       if (this.found && !(proxy > this.choice.proxy)) continue;
       this.found = true;
