@@ -69,7 +69,12 @@ export {
 } from "./lib/linear/cross_validate_linear.ts";
 export { fitEnsembleParallel, type ParallelOptions } from "./lib/ensemble/fit_parallel.ts";
 export { crossValidateTreeParallel } from "./lib/ensemble/cross_validate_parallel.ts";
-export { DEFAULT_HOW_SURE, DEFAULT_PRUNING, DEFAULT_RANGE } from "./lib/ensemble/defaults.ts";
+export {
+  DEFAULT_HOW_SURE,
+  DEFAULT_INCREASING,
+  DEFAULT_PRUNING,
+  DEFAULT_RANGE,
+} from "./lib/ensemble/defaults.ts";
 export {
   type FeatureImportance,
   featureImportance,

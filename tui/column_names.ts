@@ -76,6 +76,7 @@ export interface ColumnFlags {
   within?: string[];
   features?: string[];
   drop?: string[];
+  increasing?: string[];
   where?: Record<string, string[]>;
 }
 
@@ -126,6 +127,9 @@ export function resolveColumnFlags<F extends ColumnFlags>(
   if (flags.within !== undefined) out.within = flags.within.map((n) => one("--within", n));
   if (flags.features !== undefined) out.features = flags.features.map((n) => one("--features", n));
   if (flags.drop !== undefined) out.drop = flags.drop.map((n) => one("--drop", n));
+  if (flags.increasing !== undefined) {
+    out.increasing = flags.increasing.map((n) => one("--increasing", n));
+  }
   if (flags.where !== undefined) {
     const where: Record<string, string[]> = {};
     for (const [name, values] of Object.entries(flags.where)) {

@@ -69,7 +69,18 @@ export type AnswerNote =
   | { kind: "ownPayIncluded"; id: string; outOfBag: number }
   | { kind: "inTrainingTable"; id: string }
   | { kind: "sweepBeyondData"; feature: string; min: number; max: number }
-  | { kind: "sweepUnusual"; feature: string; values: (string | number)[] };
+  | { kind: "sweepUnusual"; feature: string; values: (string | number)[] }
+  | {
+    /**
+     * The estimate falls as an attribute rises (the others held fixed) in a
+     * model not constrained along it (fit's `increasing` would keep it from
+     * falling): `from` and `to` the values between which it falls.
+     */
+    kind: "estimateFalls";
+    feature: string;
+    from: string | number;
+    to: string | number;
+  };
 
 /**
  * The notes of a list without repeats (the same kind and figures said

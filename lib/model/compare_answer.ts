@@ -12,6 +12,8 @@ import type { Provenance } from "./types.ts";
 import type { ModelSession } from "./model_session.ts";
 import { type EstimateAnswer, estimateProfile } from "./estimate_answer.ts";
 import { type ChangeContributions, changeContributions } from "./contributions_answer.ts";
+import type { AnswerNote } from "./answer_notes.ts";
+import { fallAlong } from "./sweep_answer.ts";
 
 /** A what-if's answer (the compare command's JSON document). */
 export interface CompareAnswer {
@@ -45,6 +47,13 @@ export interface CompareAnswer {
    * attributes changed and those whose parts move with them.
    */
   parts: ChangeContributions | null;
+  /**
+   * Notes on the change itself: where every change raises an attribute
+   * with an order and the estimate falls in a model not constrained along
+   * it, an `estimateFalls` note (the base's and the changed profile's own
+   * notes are in `base.warnings` and `changed.warnings`).
+   */
+  warnings: AnswerNote[];
   /** Where it came from. */
   provenance: Provenance;
 }
@@ -137,6 +146,21 @@ export function compareAnswer(
       break;
     }
   }
+  // A promotion (or more years) that lowers the estimate: said, with the
+  // option that would prevent it, when every change is a rise in order.
+  const notes: AnswerNote[] = [];
+  const moved = model.features.map((_, i) => i).filter((i) => !Object.is(base[i], changed[i]));
+  const allRises = moved.length > 0 &&
+    moved.every((i) => model.features[i].kind !== "categorical" && changed[i] > base[i]);
+  if (allRises && b.estimate < a.estimate) {
+    for (const i of moved) {
+      const note = fallAlong(model, i, [base[i], changed[i]], [a.estimate, b.estimate]);
+      if (note !== null) {
+        notes.push(note);
+        break;
+      }
+    }
+  }
   return {
     base: a,
     changed: b,
@@ -144,6 +168,7 @@ export function compareAnswer(
     difference,
     pathChange,
     parts: changeContributions(model, base, changed),
+    warnings: notes,
     provenance: model.provenance,
   };
 }

@@ -57,6 +57,13 @@ export interface FitModelOptions {
    * @default {false}
    */
   allowProtected?: boolean;
+  /**
+   * Attributes (numeric or ordinal) along which the estimate must never
+   * fall, the others held fixed (see `GrowOptions.increasing`): every tree,
+   * the reference tree's cross-validation and the ensemble's, is grown so.
+   * @default {[]}
+   */
+  increasing?: string[];
   /** Fitting scale of a numeric target (default: log for money, else raw). */
   scale?: PayScale;
   /**
@@ -192,7 +199,7 @@ async function fitModelOn(
     prune,
     // The reference tree is cross-validated whatever the ensemble's pruning.
     crossValidate: true,
-    grow: { minLeaf },
+    grow: { minLeaf, increasing: increasingFeatures(dataset, options.increasing ?? []) },
     extraLosses: regression
       ? [
         (a, p) => (back(a) - back(p)) ** 2,
@@ -348,6 +355,7 @@ async function fitModelOn(
       privacyMin,
       where,
       allowProtected: options.allowProtected ?? false,
+      increasing: [...(options.increasing ?? [])],
     },
     rows: {
       used: dataset.rows,
@@ -387,6 +395,31 @@ async function fitModelOn(
     },
     seconds: (performance.now() - started) / 1000,
   };
+}
+
+// The constrained attributes' feature indices, each checked: a feature of
+// the model, with an order (numeric or ordinal), and a pay target.
+function increasingFeatures(dataset: Dataset, names: readonly string[]): number[] {
+  if (names.length > 0 && dataset.target.kind !== "regression") {
+    throw new OptionError(
+      `{increasing} constrains an estimate of pay; "${dataset.target.name}" is a class`,
+    );
+  }
+  return names.map((name) => {
+    const f = dataset.features.findIndex((feature) => feature.name === name);
+    if (f < 0) {
+      throw new OptionError(
+        `{increasing}: "${name}" is not among the attributes learned from ` +
+          `(${dataset.features.map((feature) => feature.name).join(", ")})`,
+      );
+    }
+    if (dataset.features[f].kind === "categorical") {
+      throw new OptionError(
+        `{increasing}: "${name}" is categorical, with no order for pay to increase along`,
+      );
+    }
+    return f;
+  });
 }
 
 // Each protected column of the table that is not a feature (groups with

@@ -221,6 +221,8 @@ const documentShape = z.object({
     privacyMin: z.number().int().min(3),
     where: z.record(z.string(), z.array(z.string())),
     allowProtected: z.boolean(),
+    // Files written before the constraint existed hold none.
+    increasing: z.array(z.string()).default([]),
   }),
   rows: z.object({ used: z.number().int().min(1), dropped: z.number().int().min(0) }),
   reference: z.object({

@@ -169,6 +169,8 @@ export function sweepAnswer(
   }
   const unusual = points.filter((p) => p.unusual).map((p) => p.value);
   if (unusual.length > 0) notes.push({ kind: "sweepUnusual", feature: f.name, values: unusual });
+  const falls = fallAlong(model, feature, grid, points.map((p) => p.estimate));
+  if (falls !== null) notes.push(falls);
   return {
     feature: f.name,
     profile: describeProfile(model, profile),
@@ -194,4 +196,52 @@ function averageEstimate(session: ModelSession, rows: ModelRows, feature: number
       : shiftedMoney(model, s / trees.length);
   }
   return sum / rows.rows;
+}
+
+/**
+ * Where an estimate first falls as an ordinal feature (a ladder of levels)
+ * rises through `grid` (estimates in the same order), as a note, when the
+ * model is not constrained along it (`settings.increasing`); null when it
+ * never falls, the feature is not a ladder, or the model keeps it from
+ * falling.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fallAlong } from "./sweep_answer.ts";
+ * const model = {
+ *   features: [{ name: "level", kind: "ordinal", levels: ["G1", "G2", "G3"] }],
+ *   settings: { increasing: [] as string[] },
+ * } as unknown as import("./types.ts").Model;
+ * assert.deepEqual(fallAlong(model, 0, [0, 1, 2], [50, 49, 60]), {
+ *   kind: "estimateFalls", feature: "level", from: "G1", to: "G2",
+ * });
+ * assert.equal(fallAlong(model, 0, [0, 1, 2], [50, 50, 60]), null);
+ * model.settings.increasing = ["level"];
+ * assert.equal(fallAlong(model, 0, [0, 1, 2], [50, 49, 60]), null);
+ * ```
+ */
+export function fallAlong(
+  model: Model,
+  feature: number,
+  grid: readonly number[],
+  estimates: readonly number[],
+): AnswerNote | null {
+  const f = model.features[feature];
+  // Only a ladder of levels: pay may rightly fall along a number (years of
+  // experience, late in a career), so a fall along one is not flagged.
+  if (f.kind !== "ordinal" || model.settings.increasing.includes(f.name)) return null;
+  const shown = (v: number) => f.levels![v];
+  for (let i = 1; i < grid.length; i++) {
+    // A fall beyond rounding: the estimates are sums over many trees.
+    if (grid[i] > grid[i - 1] && estimates[i] < estimates[i - 1] * (1 - 1e-9)) {
+      return {
+        kind: "estimateFalls",
+        feature: f.name,
+        from: shown(grid[i - 1]),
+        to: shown(grid[i]),
+      };
+    }
+  }
+  return null;
 }

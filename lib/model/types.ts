@@ -132,6 +132,8 @@ export interface ModelSettings {
   where: Record<string, string[]>;
   /** Whether protected attributes were allowed as features. */
   allowProtected: boolean;
+  /** Attributes along which the estimate never falls (empty: none constrained). */
+  increasing: string[];
 }
 
 /** Accuracy of one model on the fitting scale and in money. */

@@ -71,7 +71,7 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
       ]);
       const money = moneyStyle(model, { locale: flags.locale });
       const json = {
-        ...answer,
+        ...wordedNotes(answer, money),
         base: wordedNotes(answer.base, money),
         changed: wordedNotes(answer.changed, money),
       };

@@ -118,6 +118,7 @@ export function fitJson(
     quality: q,
     importance: model.importance,
     proxies: model.proxies ?? [],
+    increasing: model.settings.increasing,
     model: { path: out, bytes },
     analystFile: analystFile === null ? null : { path: analystFile, rebuildsPay: true },
     seconds: model.seconds,
@@ -171,6 +172,12 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       collectWhere,
     )
     .option("--allow-protected", "allow protected attributes (sex, race, age...) as features")
+    .option(
+      "--increasing <columns>",
+      "attributes along which the estimate must never fall, the others held fixed " +
+        "(numeric or ordinal, comma-separated; e.g. level)",
+      columnList,
+    )
     .option(
       "--drop-implausible",
       "leave out rows whose pay no pay table holds (more than 10,000 times from the median, " +
@@ -254,6 +261,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
           drop: flags.drop,
           where: flags.where,
           allowProtected: flags.allowProtected,
+          increasing: flags.increasing,
           scale: flags.scale,
           trees: flags.trees,
           minLeaf: flags.minLeaf,

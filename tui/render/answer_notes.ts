@@ -72,6 +72,10 @@ export function supportReasonText(reason: SupportReason): string {
  *   answerNoteText({ kind: "sweepUnusual", feature: "years", values: [10.825, 35] }, money),
  *   "unusual for the data (few comparable people) at years 10.83, 35; treat those estimates with care",
  * );
+ * assert.match(
+ *   answerNoteText({ kind: "estimateFalls", feature: "level", from: "G4", to: "G5" }, money),
+ *   /^the estimate falls as level rises from G4 to G5, .* --increasing level keeps/,
+ * );
  * ```
  */
 export function answerNoteText(note: AnswerNote, money: NumberStyle): string {
@@ -99,6 +103,12 @@ export function answerNoteText(note: AnswerNote, money: NumberStyle): string {
     case "sweepBeyondData":
       return `${note.feature} outside ${note.min} to ${note.max} (the data's range) gets the ` +
         `estimate at the nearest edge: trees cannot extrapolate`;
+    case "estimateFalls":
+      return `the estimate falls as ${note.feature} rises from ${numberOrText(note.from, money)} ` +
+        `to ${numberOrText(note.to, money)}, the rest held (often a thin or noisy part of the ` +
+        `table). ` +
+        `This model is not constrained along ${note.feature}; fitting with --increasing ` +
+        `${note.feature} keeps the estimate from falling`;
     case "sweepUnusual":
       // Values written as the sweep's table writes them (2 decimals).
       return `unusual for the data (few comparable people) at ${note.feature} ` +
@@ -106,6 +116,10 @@ export function answerNoteText(note: AnswerNote, money: NumberStyle): string {
           note.values.map((v) => (typeof v === "number" ? formatNumber(v, money, 2) : v)).join(", ")
         }; treat those estimates with care`;
   }
+}
+
+function numberOrText(v: string | number, money: NumberStyle): string {
+  return typeof v === "number" ? formatNumber(v, money, 2) : v;
 }
 
 /**

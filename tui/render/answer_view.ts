@@ -551,7 +551,7 @@ function compareLines(
   );
   const warnings = [
     ...new Set(
-      [...answer.base.warnings, ...answer.changed.warnings].map((w) =>
+      [...answer.warnings, ...answer.base.warnings, ...answer.changed.warnings].map((w) =>
         answerNoteText(w, options.money)
       ),
     ),

@@ -199,11 +199,17 @@ function pruningLine(model: Model): string {
     ? `The ensemble's ${model.ensemble.trees.length} trees are not pruned (--prune none).`
     : `The ensemble's ${model.ensemble.trees.length} trees are pruned at the minimum-CV alpha ` +
       `(${model.ensemble.alpha.toPrecision(3)}).`;
+  const increasing = model.settings.increasing;
+  const constrained = increasing.length === 0
+    ? ""
+    : ` Every tree is grown so that the estimate never falls as ${
+      increasing.join(" or ")
+    } rises, the rest held (--increasing).`;
   return `Reference tree: ${ref.leaves} leaves, depth ${ref.depth}, pruned from ${full} leaves ` +
     `at alpha ${
       ref.alpha.toPrecision(3)
     } (${model.settings.folds}-fold cross-validation, ${rule}). ` +
-    ensemble;
+    ensemble + constrained;
 }
 
 /**

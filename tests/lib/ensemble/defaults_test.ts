@@ -1,7 +1,7 @@
 // The shipped defaults are the ones the committed measurements chose
 // (written by bench/prune_mode_experiment.ts and bench/how_sure_experiment.ts).
 import assert from "node:assert/strict";
-import { DEFAULT_HOW_SURE, DEFAULT_PRUNING } from "../../../mod.ts";
+import { DEFAULT_HOW_SURE, DEFAULT_INCREASING, DEFAULT_PRUNING } from "../../../mod.ts";
 
 Deno.test("the default pruning has the lowest held-out RMSE over CPS1988 and the demo table", async () => {
   const read = async (name: string) =>
@@ -54,4 +54,29 @@ Deno.test("the default 'how sure' interval and jackknife cut-off are the ones th
     interval: DEFAULT_HOW_SURE.interval,
     jackknifeFromTreesPerRow: DEFAULT_HOW_SURE.jackknifeFromTreesPerRow,
   });
+});
+
+Deno.test("the ladder is constrained by default only where the measurements allow it", async () => {
+  const read = async (name: string) =>
+    JSON.parse(
+      await Deno.readTextFile(new URL(`../../results/increasing_${name}.json`, import.meta.url)),
+    ) as {
+      runs: { constrained: boolean; heldOutRmse: number; peopleWhoseEstimateFalls: number }[];
+    };
+  // The cost of the constraint, recomputed from the runs: mean held-out RMSE
+  // constrained over unconstrained, minus 1.
+  const cost = (doc: Awaited<ReturnType<typeof read>>) => {
+    const mean = (c: boolean) => {
+      const runs = doc.runs.filter((r) => r.constrained === c);
+      return runs.reduce((a, r) => a + r.heldOutRmse, 0) / runs.length;
+    };
+    return mean(true) / mean(false) - 1;
+  };
+  const tables = [await read("demo"), await read("cps1988")];
+  const allowed = tables.every((t) => cost(t) <= DEFAULT_INCREASING.maxCost);
+  assert.equal(DEFAULT_INCREASING.ladder, allowed);
+  // The constraint does what it claims on held-out people: no estimate falls.
+  for (const t of tables) {
+    for (const r of t.runs) if (r.constrained) assert.equal(r.peopleWhoseEstimateFalls, 0);
+  }
 });

@@ -147,6 +147,7 @@ export function handModel(): Model {
       privacyMin: 5,
       where: {},
       allowProtected: false,
+      increasing: [],
     },
     rows: { used: 20, dropped: 0 },
     reference: { tree: REFERENCE, alpha: 0.001, leaves: 3, depth: 2, pruningPath: [] },
