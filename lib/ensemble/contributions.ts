@@ -11,7 +11,12 @@
  */
 
 import { applyValues, type FlatTree } from "../tree/flat_tree.ts";
-import { addContributions, ContributionSpace, coverMean } from "../tree/contributions.ts";
+import {
+  addContributions,
+  ContributionSpace,
+  coverMean,
+  prepareTree,
+} from "../tree/contributions.ts";
 
 /** One profile's contributions. */
 export interface Contributions {
@@ -56,10 +61,14 @@ export class ContributionReader {
   readonly #bases: Float64Array;
   readonly #space = new ContributionSpace();
 
+  /** @throws {RangeError} for no tree, or a tree too deep (see `prepareTree`). */
   constructor(trees: readonly FlatTree[], features: number) {
     if (trees.length === 0) throw new RangeError("contributions need at least one tree");
     this.trees = trees;
     this.features = features;
+    // Each tree's leaf paths now, so that a tree too deep to split is
+    // refused here (RangeError) rather than at a profile.
+    for (const tree of trees) prepareTree(tree);
     this.#bases = Float64Array.from(trees, coverMean);
     this.base = this.#bases.reduce((a, b) => a + b, 0) / trees.length;
   }

@@ -146,20 +146,17 @@ export function compareAnswer(
       break;
     }
   }
-  // A promotion (or more years) that lowers the estimate: said, with the
-  // option that would prevent it, when every change is a rise in order.
+  // A promotion that lowers the estimate: said, with the option that would
+  // prevent it, when the one change is a rise along a ladder and the trees
+  // agree that it falls (the paired interval below 0). With several changes
+  // the fall cannot be put on one of them (see the change's parts).
   const notes: AnswerNote[] = [];
   const moved = model.features.map((_, i) => i).filter((i) => !Object.is(base[i], changed[i]));
-  const allRises = moved.length > 0 &&
-    moved.every((i) => model.features[i].kind !== "categorical" && changed[i] > base[i]);
-  if (allRises && b.estimate < a.estimate) {
-    for (const i of moved) {
-      const note = fallAlong(model, i, [base[i], changed[i]], [a.estimate, b.estimate]);
-      if (note !== null) {
-        notes.push(note);
-        break;
-      }
-    }
+  const agreed = difference.high !== null ? difference.high < 0 : difference.estimate < 0;
+  if (moved.length === 1 && changed[moved[0]] > base[moved[0]] && agreed) {
+    const i = moved[0];
+    const note = fallAlong(model, i, [base[i], changed[i]], [a.estimate, b.estimate]);
+    if (note !== null) notes.push(note);
   }
   return {
     base: a,

@@ -78,10 +78,18 @@ const readers = new WeakMap<Model, ContributionReader | null>();
 
 function readerOf(model: Model): ContributionReader | null {
   if (readers.has(model)) return readers.get(model)!;
-  const reader = model.target.kind !== "regression" ? null : new ContributionReader(
-    model.ensemble?.trees ?? [model.reference.tree],
-    model.features.length,
-  );
+  let reader: ContributionReader | null = null;
+  if (model.target.kind === "regression") {
+    try {
+      reader = new ContributionReader(
+        model.ensemble?.trees ?? [model.reference.tree],
+        model.features.length,
+      );
+    } catch (error) {
+      // A tree too deep to split by attribute (none a fit makes): no parts.
+      if (!(error instanceof RangeError)) throw error;
+    }
+  }
   readers.set(model, reader);
   return reader;
 }

@@ -199,7 +199,7 @@ async function fitModelOn(
     prune,
     // The reference tree is cross-validated whatever the ensemble's pruning.
     crossValidate: true,
-    grow: { minLeaf, increasing: increasingFeatures(dataset, options.increasing ?? []) },
+    grow: { minLeaf, increasing: increasingFeatures(dataset, [...new Set(options.increasing)]) },
     extraLosses: regression
       ? [
         (a, p) => (back(a) - back(p)) ** 2,
@@ -355,7 +355,7 @@ async function fitModelOn(
       privacyMin,
       where,
       allowProtected: options.allowProtected ?? false,
-      increasing: [...(options.increasing ?? [])],
+      increasing: [...new Set(options.increasing ?? [])],
     },
     rows: {
       used: dataset.rows,
@@ -364,7 +364,11 @@ async function fitModelOn(
     // Exact figures over the people are kept as a shared file may hold
     // them (shareable_figures.ts), in memory as in the file.
     reference: {
-      tree: shareableReference(cv.tree, regression ? chosen.cvRmse : 0),
+      tree: shareableReference(
+        cv.tree,
+        regression ? chosen.cvRmse : 0,
+        (options.increasing ?? []).length > 0,
+      ),
       alpha: roundedFigures(chosen.alpha),
       leaves: leafCount(cv.tree),
       depth: treeDepth(cv.tree),

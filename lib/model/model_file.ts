@@ -586,7 +586,8 @@ function checkParts(doc: z.infer<typeof documentShape>): void {
 }
 
 // Every node's children come after it and within the tree, so a walk from
-// the root only moves forward and ends; splits name real features, finite
+// the root only moves forward and ends; every node has at most one parent
+// and at least one person; splits name real features, finite
 // thresholds (Infinity splits known from missing) or level masks within the
 // mask array; values are finite.
 function checkTree(
@@ -595,10 +596,15 @@ function checkTree(
   where: string,
   bound: number,
 ): void {
+  // Each node below the root is one split's child: a node reached from two
+  // splits would make the paths from the root grow exponentially in number.
+  const parents = new Uint8Array(tree.nodeCount);
   for (let i = 0; i < tree.nodeCount; i++) {
     const l = tree.left[i];
     const r = tree.right[i];
     const f = tree.feature[i];
+    // Every node holds people: its count divides its children's shares.
+    if (!(tree.rows[i] >= 1)) throw damaged(`${where}: node ${i} holds no people`);
     for (let c = 0; c < tree.width; c++) {
       const v = tree.value[i * tree.width + c];
       if (!Number.isFinite(v)) throw damaged(`${where}: node ${i} has no finite value`);
@@ -610,6 +616,11 @@ function checkTree(
     if (!(l > i && r > i && l < tree.nodeCount && r < tree.nodeCount && l !== r)) {
       throw damaged(
         `${where}: node ${i} has children ${l} and ${r}, which are out of order or range`,
+      );
+    }
+    if (parents[l]++ > 0 || parents[r]++ > 0) {
+      throw damaged(
+        `${where}: node ${l === r ? l : parents[l] > 1 ? l : r} is a child of two splits`,
       );
     }
     if (!(f >= 0 && f < features.length)) {

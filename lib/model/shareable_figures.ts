@@ -95,13 +95,21 @@ export const FIGURE_DIGITS = 4;
  * assert.equal(kept.value[0], 67); // 67.1666...
  * assert.equal(kept.value[2], 82); // 82.333...
  * assert(Number.isNaN(kept.impurity[0]));
+ * // On one grid (a constrained tree): every node to the leaves' step of 1.
+ * assert.equal(shareableReference(tree, 0.75, true).value[0], 67);
  * ```
  */
-export function shareableReference(tree: FlatTree, rmse: number): FlatTree {
+export function shareableReference(tree: FlatTree, rmse: number, oneStep = false): FlatTree {
   const value = Float64Array.from(tree.value);
   if (tree.task === "regression" && rmse > 0) {
+    // A tree that must never fall along some attribute (fit's increasing)
+    // is rounded on one grid, the coarsest of its nodes' steps: rounding
+    // to one grid keeps the order of any two values (each node's own step
+    // could put two clipped neighbours the wrong way round).
+    let fewest = Infinity;
+    for (let k = 0; k < tree.nodeCount; k++) fewest = Math.min(fewest, Math.max(1, tree.rows[k]));
     for (let k = 0; k < tree.nodeCount; k++) {
-      const step = (MEAN_STEP_RMSE * rmse) / Math.max(1, tree.rows[k]);
+      const step = (MEAN_STEP_RMSE * rmse) / (oneStep ? fewest : Math.max(1, tree.rows[k]));
       value[k] = Math.round(value[k] / step) * step;
     }
   }

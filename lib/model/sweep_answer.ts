@@ -199,6 +199,20 @@ function averageEstimate(session: ModelSession, rows: ModelRows, feature: number
 }
 
 /**
+ * The smallest fall a sweep calls a fall: half a percent of the estimate
+ * (a smaller one, e.g. 14 of 50,430, is within what the trees' paired
+ * intervals leave open; a what-if asks its own paired interval instead).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { FALL_NOTICED } from "./sweep_answer.ts";
+ * assert.equal(FALL_NOTICED, 0.005);
+ * ```
+ */
+export const FALL_NOTICED = 0.005;
+
+/**
  * Where an estimate first falls as an ordinal feature (a ladder of levels)
  * rises through `grid` (estimates in the same order), as a note, when the
  * model is not constrained along it (`settings.increasing`); null when it
@@ -217,6 +231,8 @@ function averageEstimate(session: ModelSession, rows: ModelRows, feature: number
  *   kind: "estimateFalls", feature: "level", from: "G1", to: "G2",
  * });
  * assert.equal(fallAlong(model, 0, [0, 1, 2], [50, 50, 60]), null);
+ * // Half a percent or less is not called a fall.
+ * assert.equal(fallAlong(model, 0, [0, 1, 2], [50000, 49800, 60000]), null);
  * model.settings.increasing = ["level"];
  * assert.equal(fallAlong(model, 0, [0, 1, 2], [50, 49, 60]), null);
  * ```
@@ -233,8 +249,7 @@ export function fallAlong(
   if (f.kind !== "ordinal" || model.settings.increasing.includes(f.name)) return null;
   const shown = (v: number) => f.levels![v];
   for (let i = 1; i < grid.length; i++) {
-    // A fall beyond rounding: the estimates are sums over many trees.
-    if (grid[i] > grid[i - 1] && estimates[i] < estimates[i - 1] * (1 - 1e-9)) {
+    if (grid[i] > grid[i - 1] && estimates[i] < estimates[i - 1] * (1 - FALL_NOTICED)) {
       return {
         kind: "estimateFalls",
         feature: f.name,

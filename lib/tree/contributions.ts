@@ -61,16 +61,21 @@ import { goesLeft } from "./flat_tree.ts";
  * ```
  */
 export function coverMean(tree: FlatTree): number {
-  return meanBelow(tree, 0);
-}
-
-function meanBelow(tree: FlatTree, node: number): number {
-  const left = tree.left[node];
-  if (left === -1) return tree.value[node * tree.width];
-  const right = tree.right[node];
-  const cover = tree.rows[node];
-  return (tree.rows[left] / cover) * meanBelow(tree, left) +
-    (tree.rows[right] / cover) * meanBelow(tree, right);
+  // From the last node back: children come after their parent, so each
+  // node's children are done before it (no recursion, whatever the depth).
+  const below = new Float64Array(tree.nodeCount);
+  for (let node = tree.nodeCount - 1; node >= 0; node--) {
+    const left = tree.left[node];
+    if (left === -1) {
+      below[node] = tree.value[node * tree.width];
+      continue;
+    }
+    const right = tree.right[node];
+    const cover = tree.rows[node];
+    below[node] = (tree.rows[left] / cover) * below[left] +
+      (tree.rows[right] / cover) * below[right];
+  }
+  return below[0];
 }
 
 /** A tree's leaves as the parts need them, worked out once per tree. */
@@ -97,10 +102,66 @@ interface LeafPaths {
 
 const leafPaths = new WeakMap<FlatTree, LeafPaths>();
 
+/**
+ * The most tests a tree's leaf paths may hold in all for its parts to be
+ * worked out (a tree of 100,000 leaves at depth 50 holds 5,000,000).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { MAX_PATH_TESTS } from "./contributions.ts";
+ * assert(MAX_PATH_TESTS >= 100_000 * 50);
+ * ```
+ */
+export const MAX_PATH_TESTS = 20_000_000;
+
+/**
+ * Works out a tree's leaf paths ahead of the first profile (they are kept
+ * with the tree); throws a RangeError for a tree whose paths hold more than
+ * {@linkcode MAX_PATH_TESTS} tests.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { prepareTree } from "./contributions.ts";
+ * // A chain: each split's right child splits again, 30,000 deep.
+ * const n = 60_001;
+ * const left = Int32Array.from({ length: n }, (_, i) => (i % 2 === 0 && i + 2 < n ? i + 1 : -1));
+ * const right = Int32Array.from({ length: n }, (_, i) => (i % 2 === 0 && i + 2 < n ? i + 2 : -1));
+ * const chain = {
+ *   task: "regression" as const, width: 1, nodeCount: n, feature: Int32Array.from(left, (l) => (l < 0 ? -1 : 0)),
+ *   threshold: new Float64Array(n), maskOffset: new Int32Array(n).fill(-1), masks: new Uint32Array(0),
+ *   maskWords: Int32Array.of(0), left, right, missingLeft: new Uint8Array(n), value: new Float64Array(n),
+ *   rows: new Int32Array(n).fill(1), weight: new Float64Array(n).fill(1), impurity: new Float64Array(n),
+ * };
+ * assert.throws(() => prepareTree(chain), /beyond 20000000/);
+ * ```
+ */
+export function prepareTree(tree: FlatTree): void {
+  pathsOf(tree);
+}
+
 // Every leaf's path from the root, with each attribute's tests gathered.
 function pathsOf(tree: FlatTree): LeafPaths {
   const known = leafPaths.get(tree);
   if (known !== undefined) return known;
+  // The paths' total length bounds the work and memory: a tree as deep as a
+  // chain of its nodes (none a fit makes, one a crafted file might hold) is
+  // refused rather than walked in time quadratic in its size.
+  const depth = new Int32Array(tree.nodeCount);
+  let total = 0;
+  for (let node = 0; node < tree.nodeCount; node++) {
+    const left = tree.left[node];
+    if (left === -1) {
+      total += depth[node];
+      continue;
+    }
+    depth[left] = depth[node] + 1;
+    depth[tree.right[node]] = depth[node] + 1;
+  }
+  if (total > MAX_PATH_TESTS) {
+    throw new RangeError(`the tree's paths hold ${total} tests, beyond ${MAX_PATH_TESTS}`);
+  }
   const value: number[] = [];
   const testStart = [0];
   const testNode: number[] = [];
@@ -111,19 +172,25 @@ function pathsOf(tree: FlatTree): LeafPaths {
   const entryZero: number[] = [];
   let widest = 0;
   // The path to the node being visited: its nodes and directions.
+  // Depth first, left before right, with a stack of its own (a tree as
+  // deep as a chain of its nodes must not overflow the call stack); the
+  // path to a node is its ancestors and the direction taken at each.
   const pathNodes: number[] = [];
   const pathLeft: number[] = [];
-  const visit = (node: number): void => {
+  const stack = [{ node: 0, depth: 0, parent: -1, left: 0 }];
+  while (stack.length > 0) {
+    const { node, depth, parent, left: wentLeft } = stack.pop()!;
+    pathNodes.length = depth;
+    pathLeft.length = depth;
+    if (depth > 0) {
+      pathNodes[depth - 1] = parent;
+      pathLeft[depth - 1] = wentLeft;
+    }
     const left = tree.left[node];
     if (left !== -1) {
-      pathNodes.push(node);
-      pathLeft.push(1);
-      visit(left);
-      pathLeft[pathLeft.length - 1] = 0;
-      visit(tree.right[node]);
-      pathNodes.pop();
-      pathLeft.pop();
-      return;
+      stack.push({ node: tree.right[node], depth: depth + 1, parent: node, left: 0 });
+      stack.push({ node: left, depth: depth + 1, parent: node, left: 1 });
+      continue;
     }
     value.push(tree.value[node * tree.width]);
     const features: number[] = [];
@@ -148,8 +215,7 @@ function pathsOf(tree: FlatTree): LeafPaths {
     entryZero.push(...zero);
     entryStart.push(entryFeature.length);
     widest = Math.max(widest, features.length);
-  };
-  visit(0);
+  }
   const paths: LeafPaths = {
     value: Float64Array.from(value),
     testStart: Int32Array.from(testStart),

@@ -48,6 +48,37 @@ const CASES: [string, (doc: Doc) => void, RegExp][] = [
     /support figures name a numeric feature the model does not have/,
   ],
   [
+    // The root's first child sends its right side to the root's right
+    // child too: paths from the root would double at each such level (a
+    // hang for the parts' walk).
+    "node-with-two-parents",
+    (doc) => {
+      const t = doc.ensemble.trees.find((tree: Doc) => {
+        const l = new Int32Array(Uint8Array.from(atob(tree.left), (c) => c.charCodeAt(0)).buffer);
+        return l[0] !== -1 && l[l[0]] !== -1;
+      });
+      const decode = (b64: string) =>
+        Array.from(new Int32Array(Uint8Array.from(atob(b64), (c) => c.charCodeAt(0)).buffer));
+      const left = decode(t.left);
+      const right = decode(t.right);
+      right[left[0]] = right[0];
+      t.right = bytes(right, Int32Array);
+    },
+    /is a child of two splits/,
+  ],
+  [
+    "node-without-people",
+    (doc) => {
+      const t = doc.ensemble.trees[0];
+      const rows = Array.from(
+        new Int32Array(Uint8Array.from(atob(t.rows), (c) => c.charCodeAt(0)).buffer),
+      );
+      rows[rows.length - 1] = 0;
+      t.rows = bytes(rows, Int32Array);
+    },
+    /node \d+ holds no people/,
+  ],
+  [
     "rows-used-50-million",
     (doc) => (doc.rows.used = 50_000_000),
     /fitted on 50000000 rows with 0 left out, but its table had 300/,
@@ -112,4 +143,47 @@ Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", a
   const json = JSON.parse((await paygrove(["estimate", path, "--json"])).stdout);
   assert.equal(json.path.length, 1);
   assert.equal(json.pathSplits.length, 20_000);
+});
+
+Deno.test("an ensemble tree 20,000 levels deep: the estimate answers, without the parts", async () => {
+  const n = 40_001;
+  const f = model.features.findIndex((x) => x.kind === "numeric");
+  const left = new Array(n).fill(-1);
+  const right = new Array(n).fill(-1);
+  const feature = new Array(n).fill(-1);
+  const threshold = new Array(n).fill(NaN);
+  const rows = new Array(n).fill(1);
+  for (let k = 0; k + 2 < n; k += 2) {
+    feature[k] = f;
+    threshold[k] = -1e9 + k;
+    left[k] = k + 1;
+    right[k] = k + 2;
+  }
+  // Covers that add up: each split's right side holds the rest of the chain.
+  for (let k = n - 3; k >= 0; k -= 2) rows[k] = 1 + rows[k + 2];
+  const path = await forged("deep-ensemble-chain", (doc) => {
+    Object.assign(doc.ensemble.trees[0], {
+      nodeCount: n,
+      feature: bytes(feature, Int32Array),
+      threshold: bytes(threshold, Float64Array),
+      maskOffset: bytes(new Array(n).fill(-1), Int32Array),
+      masks: "",
+      masksLength: 0,
+      left: bytes(left, Int32Array),
+      right: bytes(right, Int32Array),
+      missingLeft: btoa("\0".repeat(n)),
+      value: bytes(new Array(n).fill(11), Float64Array),
+      rows: bytes(rows, Int32Array),
+      weight: bytes(rows, Float64Array),
+      impurity: bytes(new Array(n).fill(NaN), Float64Array),
+    });
+    doc.rows.used = 5 * n;
+    doc.provenance.table.rows = 5 * n;
+  });
+  const started = performance.now();
+  const run = await paygrove(["estimate", path, "--json"]);
+  assert.equal(run.code, 0, run.stderr.slice(0, 500));
+  // Its paths hold about 2 x 10^8 tests: refused for the parts, at once.
+  assert.equal(JSON.parse(run.stdout).contributions, null);
+  assert.ok(performance.now() - started < 60_000);
 });

@@ -58,7 +58,8 @@ export function renderContributions(
   if (options.brief) {
     return [
       ...wrapped(
-        `${style.bold("Why this estimate:")} parts from ${pay(answer.base)}, the table's average`,
+        `${style.bold("Why this estimate:")} from ${pay(answer.base)} (the table's ` +
+          `${answer.moneyPartsMultiply ? "geometric mean" : "mean"})`,
         options.width,
       ),
       ...partBars(answer.parts, options),
@@ -66,8 +67,9 @@ export function renderContributions(
   }
   const lines = wrapped(
     `${style.bold("Why this estimate:")} each attribute's part, starting from ` +
-      `${pay(answer.base)}, the table's average estimate` +
-      (answer.moneyPartsMultiply ? " (on log pay)" : ""),
+      `${pay(answer.base)}, the ${
+        answer.moneyPartsMultiply ? "geometric mean" : "mean"
+      } of the estimates over the table`,
     options.width,
   );
   lines.push(...partBars(answer.parts, options));
@@ -187,7 +189,7 @@ function restSize(part: AttributePart, money: NumberStyle): string {
 }
 
 function sumWords(multiply: boolean, trees: number, kind: "estimate" | "change"): string {
-  const over = trees === 1 ? "the reference tree" : `${trees} trees`;
+  const over = trees === 1 ? "one tree" : `${trees} trees`;
   const what = kind === "estimate" ? "the estimate" : "the change";
   if (multiply) {
     const [from, to] = kind === "estimate"

@@ -42,9 +42,15 @@ Deno.test("unconstrained: the promotion and the sweep say the estimate falls", a
   ]);
   const sweep = sweepAnswer(session, base, level, [0, 1, 2, 3]);
   assert.ok(sweep.warnings.some((w) => w.kind === "estimateFalls" && w.from === "G2"));
-  // A change that is not a rise (a demotion) is not flagged.
+  // A change that is not a rise (a demotion) is not flagged; nor a fall
+  // with two changes at once, which cannot be put on the promotion.
   const back = compareAnswer(session, promoted, base);
   assert.deepEqual(back.warnings, []);
+  const both = Float64Array.from(promoted);
+  both[model.features.findIndex((f) => f.name === "years")] += 3;
+  const twice = compareAnswer(session, base, both);
+  assert.ok(twice.changed.estimate < twice.base.estimate);
+  assert.deepEqual(twice.warnings, []);
 });
 
 Deno.test("with increasing level: the estimate never falls, and the file says so", async () => {

@@ -13,6 +13,7 @@ import {
   type FlatTree,
   growTree,
   pruningPath,
+  shareableReference,
   subtreeAfter,
 } from "../../../mod.ts";
 import { levels, numeric, regression } from "./_small.ts";
@@ -103,33 +104,45 @@ Deno.test("an ensemble of constrained trees never falls either, over bootstrap w
         trees: 8,
         prune: "none",
         grow: { minLeaf: t.minLeaf, increasing: [0] },
+        share: { money: dataset.target.values as Float64Array },
       });
       const [grade, site] = t.profile;
-      const mean = Array.from({ length: 32 }, (_, v) => {
-        const profile = [v, grade, site];
-        return ensemble.trees.reduce((s, tree) => s + tree.value[applyValues(tree, profile)], 0);
-      });
-      assertNeverFalls(mean, "ensemble along years");
+      // The grown trees and the shareable copies a model file keeps (same-pay
+      // leaves merged).
+      for (const trees of [ensemble.trees, ensemble.shared!]) {
+        const mean = Array.from({ length: 32 }, (_, v) => {
+          const profile = [v, grade, site];
+          return trees.reduce((s, tree) => s + tree.value[applyValues(tree, profile)], 0);
+        });
+        assertNeverFalls(mean, "ensemble along years");
+      }
     }),
     { numRuns: 60, seed: 31 },
   );
 });
 
 Deno.test("a value clipped to its bounds carries its error in the impurity", () => {
-  // Four people: years 1 and 2 paid 90 and 10 (a fall), years 3 and 4 paid 50.
-  const dataset = regression([numeric("years", [1, 2, 3, 4])], [90, 10, 50, 50]);
-  const tree = growTree({ dataset, bins: binFeatures(dataset) }, {
-    minLeaf: 1,
-    increasing: [0],
-  });
-  const along = sweep(tree, 0, 4, [NaN]);
-  assertNeverFalls(along, "years");
-  // Every node's risk is its rows' squared error about its value.
-  for (let n = 0; n < tree.nodeCount; n++) assert.ok(tree.impurity[n] >= 0);
-  // The unconstrained tree would give years 2 less than years 1.
+  // years 1: pay 10 (site 0) and 58 (site 1); years 2: 60 and 62. The root
+  // splits on years (means 34 and 61): the midpoint 47.5 caps everything
+  // below years 1, so its site-1 leaf (58) is held at 47.5, and its error
+  // about that value, (58 - 47.5)^2, is its impurity.
+  const dataset = regression([numeric("years", [1, 1, 2, 2]), levels("site", [0, 1, 0, 1], 2)], [
+    10,
+    58,
+    60,
+    62,
+  ]);
+  const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1, increasing: [0] });
+  assert.equal(tree.feature[0], 0);
+  const leaf = applyValues(tree, [1, 1]);
+  assert.equal(tree.value[leaf], 47.5);
+  assert.equal(tree.impurity[leaf], (58 - 47.5) ** 2);
+  // Unconstrained, the same leaf keeps its mean and no error.
   const free = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
-  const freeAlong = sweep(free, 0, 4, [NaN]);
-  assert.ok(freeAlong[2] < freeAlong[1]);
+  const own = applyValues(free, [1, 1]);
+  assert.equal(free.value[own], 58);
+  assert.equal(free.impurity[own], 0);
+  assertNeverFalls(sweep(tree, 0, 3, [NaN, 1]), "years at site 1");
 });
 
 Deno.test("constraints are refused where there is no order or no pay", () => {
@@ -171,4 +184,37 @@ Deno.test("a split whose lower side is paid more is not chosen, with or without 
     assert.notEqual(kept.threshold[0], 1.5, `with ${extra.length} missing`);
     assert.ok(kept.value[kept.left[0]] <= kept.value[kept.right[0]]);
   }
+});
+
+Deno.test("the reference tree as the model file keeps it, rounded on one grid, never falls either", () => {
+  // Rounding each node on its own grid (4 x RMSE / its people) can put two
+  // neighbours clipped to the same bound the wrong way round; one grid cannot.
+  let crossed = 0;
+  fc.assert(
+    fc.property(randomTable, fc.double({ min: 0.02, max: 0.3, noNaN: true }), (t, rmse) => {
+      const dataset = toDataset(t);
+      // Log pay, as a model of money is fitted.
+      const logged = {
+        ...dataset,
+        target: { ...dataset.target, values: dataset.target.values.map(Math.log) },
+      } as Dataset;
+      const tree = growTree({ dataset: logged, bins: binFeatures(logged) }, {
+        minLeaf: t.minLeaf,
+        increasing: [0, 1],
+      });
+      const [grade, site] = t.profile;
+      const kept = shareableReference(tree, rmse, true);
+      assertNeverFalls(sweep(kept, 0, 31, [NaN, grade, site]), "years, one grid");
+      assertNeverFalls(sweep(kept, 1, 5, [12, NaN, site]), "grade, one grid");
+      const ownGrids = shareableReference(tree, rmse);
+      const along = [
+        ...sweep(ownGrids, 0, 31, [NaN, grade, site]),
+        ...sweep(ownGrids, 1, 5, [12, NaN, site]),
+      ];
+      if (along.some((v, i) => i > 0 && i !== 32 && v < along[i - 1])) crossed++;
+    }),
+    { numRuns: 200, seed: 43 },
+  );
+  // Each node on its own grid does cross in some of these tables.
+  assert.ok(crossed > 0, `${crossed} tables crossed on their own grids`);
 });
