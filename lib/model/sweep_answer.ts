@@ -148,7 +148,8 @@ export function sweepAnswer(
   const values = Float64Array.from(profile);
   const points = grid.map((v): SweepAnswerPoint => {
     values[feature] = v;
-    const answer = estimateProfile(session, values, coverage);
+    // A sweep shows no parts: each point without them.
+    const answer = estimateProfile(session, values, coverage, [], false);
     const point: SweepAnswerPoint = {
       value: f.kind === "numeric" ? v : f.levels![v],
       estimate: answer.estimate,
