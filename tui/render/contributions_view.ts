@@ -37,8 +37,8 @@ export interface PartsViewOptions {
  * const lines = renderContributions({
  *   scale: "log", base: 50000, estimate: 60000, moneyPartsMultiply: true, trees: 200,
  *   parts: [
- *     { feature: "level", value: "G5", part: Math.log(1.25), percent: 0.25, money: 12000 },
- *     { feature: "site", value: "North", part: Math.log(0.96), percent: -0.04, money: -2500 },
+ *     { feature: "level", value: "G5", part: 0.2231, percent: 0.25, money: 12000 },
+ *     { feature: "site", value: "North", part: -0.0408, percent: -0.04, money: -2500 },
  *     { feature: "remote", value: "no", part: 0, percent: 0, money: 0 },
  *   ],
  * }, { style: makeStyle(false), width: 80, money: { currency: "EUR" } });
