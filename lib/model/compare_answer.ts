@@ -48,10 +48,11 @@ export interface CompareAnswer {
    */
   parts: ChangeContributions | null;
   /**
-   * Notes on the change itself: where every change raises an attribute
-   * with an order and the estimate falls in a model not constrained along
-   * it, an `estimateFalls` note (the base's and the changed profile's own
-   * notes are in `base.warnings` and `changed.warnings`).
+   * Notes on the change itself: where the one change raises a ladder of
+   * levels (a promotion), the trees agree the estimate falls (the paired
+   * interval below 0) and the model is not constrained along it, an
+   * `estimateFalls` note (the base's and the changed profile's own notes
+   * are in `base.warnings` and `changed.warnings`).
    */
   warnings: AnswerNote[];
   /** Where it came from. */
