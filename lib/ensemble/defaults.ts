@@ -113,7 +113,7 @@ export const DEFAULT_HOW_SURE = { interval: "percentile", jackknifeFromTreesPerR
  * any of 3 x 400 held-out people and the constraint raised held-out RMSE
  * of log pay by 3.1% (0.0681 -> 0.0701); on CPS1988, along education, the
  * unconstrained estimate fell somewhere for 73-90% of held-out people, and
- * the constraint cost 1.0% (0.5307 -> 0.5361). The rule set before the
+ * the constraint cost 1.03% (0.5307 -> 0.5361). The rule set before the
  * runs, constrain by default only where it costs at most 1% on both
  * tables, is not met on either; a what-if or sweep whose estimate falls
  * says so and names the option instead.
