@@ -613,3 +613,49 @@ Deno.test("a format-1 model file is read with the warning that it rebuilds pay",
   assert.match(run.stderr, /format 1\)\. It keeps each tree's resampling seed and the training/);
   assert.match(run.stderr, /rebuild every person's pay\. Do not share it/);
 });
+
+Deno.test("fit --increasing holds the ladder: the JSON, inspect and a sweep say so", async () => {
+  const path = `${dir}/increasing.model.json`;
+  // A name right but for its case is taken, with a note.
+  const fit = await paygrove([
+    "fit",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--trees",
+    "20",
+    "--folds",
+    "5",
+    "--increasing",
+    "Level",
+    "--out",
+    path,
+    "--json",
+  ]);
+  assert.equal(fit.code, 0, fit.stderr);
+  assert.match(fit.stderr, /--increasing "Level" is taken as the column "level"/);
+  assert.deepEqual(JSON.parse(fit.stdout).increasing, ["level"]);
+  const inspect = await paygrove(["inspect", path]);
+  assert.match(
+    inspect.stdout.replace(/\s+/g, " "),
+    /never falling as level rises \(--increasing\)/,
+  );
+  const sweep = JSON.parse((await paygrove(["sweep", path, "--vary", "level", "--json"])).stdout);
+  const estimates = sweep.points.map((p: { estimate: number }) => p.estimate);
+  for (let i = 1; i < estimates.length; i++) {
+    assert.ok(estimates[i] >= estimates[i - 1], `${estimates}`);
+  }
+  // A column with no order is refused with the reason, status 2.
+  const refused = await paygrove([
+    "fit",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--increasing",
+    "site",
+    "--out",
+    `${dir}/refused.model.json`,
+  ]);
+  assert.equal(refused.code, 2, refused.stderr);
+  assert.match(refused.stderr, /--increasing: "site" is categorical/);
+});

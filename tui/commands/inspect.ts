@@ -105,6 +105,9 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
         `${model.settings.folds} folds, ${model.settings.rule} rule, ` +
         `${model.settings.prune === "none" ? "unpruned" : "pruned at the minimum-CV alpha"}, ` +
         `seed ${model.settings.seed}, privacy minimum ${model.settings.privacyMin}` +
+        (model.settings.increasing.length > 0
+          ? `, never falling as ${model.settings.increasing.join(" or ")} rises (--increasing)`
+          : "") +
         (model.settings.allowProtected ? style.caution(", protected attributes allowed") : ""),
         `  reference tree: ${model.reference.leaves} leaves, depth ${model.reference.depth}`,
       ];
