@@ -387,29 +387,38 @@ export class Splitter {
       this.scanSquaredError(f, m, categorical);
       return;
     }
-    const { data, at, binOf, left, stride } = this;
+    const { data, at, left, stride } = this;
     left.fill(0);
-    // Where this scan's best split falls; a categorical split's level lists
-    // are built once, after the scan (building them at each better split
-    // made the scan quadratic in the levels).
+    // Where this scan's best categorical split falls (see levelLists).
     let bestAt = -1;
     for (let i = 0; i < m - 1; i++) {
       const a = at[i];
       for (let c = 0; c < stride; c++) left[c] += data[a + c];
       if (!this.evaluate(left)) continue;
-      const choice = this.choice;
-      choice.feature = f;
-      choice.lastLeftBin = binOf[i];
-      if (categorical) {
-        bestAt = i;
-      } else {
-        choice.threshold = this.midpoint(f, binOf[i], binOf[i + 1]);
-      }
+      if (this.record(f, i, categorical)) bestAt = i;
     }
-    if (bestAt >= 0) {
-      this.choice.leftBins = Array.from(binOf.subarray(0, bestAt + 1));
-      this.choice.rightBins = Array.from(binOf.subarray(bestAt + 1, m));
-    }
+    this.levelLists(bestAt, m);
+  }
+
+  // The split after bin i that evaluate just took: its feature and last
+  // left bin, and a numeric split's threshold; true for a categorical one,
+  // whose level lists wait for the scan's end (levelLists).
+  private record(f: number, i: number, categorical: boolean): boolean {
+    const { choice, binOf } = this;
+    choice.feature = f;
+    choice.lastLeftBin = binOf[i];
+    if (categorical) return true;
+    choice.threshold = this.midpoint(f, binOf[i], binOf[i + 1]);
+    return false;
+  }
+
+  // A categorical scan's best split, its bins up to `bestAt` sent left:
+  // built once, after the scan (building them at each better split made
+  // the scan quadratic in the levels).
+  private levelLists(bestAt: number, m: number): void {
+    if (bestAt < 0) return;
+    this.choice.leftBins = Array.from(this.binOf.subarray(0, bestAt + 1));
+    this.choice.rightBins = Array.from(this.binOf.subarray(bestAt + 1, m));
   }
 
   // scan's loop for squared error at a node without missing values, the
@@ -419,7 +428,7 @@ export class Splitter {
   // the best so far. Scoring every split through `evaluate` took a fifth
   // of a 100,000-row tree's growth.
   private scanSquaredError(f: number, m: number, categorical: boolean): void {
-    const { data, at, binOf, left, total, missData, missAt, minLeaf, choice, monotone } = this;
+    const { data, at, left, total, missData, missAt, minLeaf, choice, monotone } = this;
     // The missing values' summary is added to the right side as in
     // `evaluate`: a histogram's by subtraction may hold rounding left over.
     const rightRows = total[0] + missData[missAt];
@@ -444,18 +453,9 @@ export class Splitter {
       left[2] = lSum;
       left[3] = lSquares;
       if (!this.evaluate(left)) continue;
-      choice.feature = f;
-      choice.lastLeftBin = binOf[i];
-      if (categorical) {
-        bestAt = i;
-      } else {
-        choice.threshold = this.midpoint(f, binOf[i], binOf[i + 1]);
-      }
+      if (this.record(f, i, categorical)) bestAt = i;
     }
-    if (bestAt >= 0) {
-      choice.leftBins = Array.from(binOf.subarray(0, bestAt + 1));
-      choice.rightBins = Array.from(binOf.subarray(bestAt + 1, m));
-    }
+    this.levelLists(bestAt, m);
   }
 
   // The threshold between two bins: as scikit-learn, the midpoint, computed
