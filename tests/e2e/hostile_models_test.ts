@@ -97,8 +97,10 @@ Deno.test("edited model files are refused with status 1 and one sentence", async
   }
 });
 
-Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", async () => {
-  const n = 40_001;
+// A chain of n nodes (n odd): each split's right child splits again, every
+// real value goes right, down to the last leaf; the tree's fields as the
+// model file holds them, with `rows` people per node.
+function chainTree(n: number, rows: number[]): Doc {
   const f = model.features.findIndex((x) => x.kind === "numeric");
   const left = new Array(n).fill(-1);
   const right = new Array(n).fill(-1);
@@ -106,25 +108,29 @@ Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", a
   const threshold = new Array(n).fill(NaN);
   for (let k = 0; k + 2 < n; k += 2) {
     feature[k] = f;
-    threshold[k] = -1e9 + k; // every real value goes right, down the chain
+    threshold[k] = -1e9 + k;
     left[k] = k + 1;
     right[k] = k + 2;
   }
+  return {
+    nodeCount: n,
+    feature: bytes(feature, Int32Array),
+    threshold: bytes(threshold, Float64Array),
+    maskOffset: bytes(new Array(n).fill(-1), Int32Array),
+    masks: "",
+    masksLength: 0,
+    left: bytes(left, Int32Array),
+    right: bytes(right, Int32Array),
+    missingLeft: btoa("\0".repeat(n)),
+    value: bytes(new Array(n).fill(11), Float64Array),
+    rows: bytes(rows, Int32Array),
+  };
+}
+
+Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", async () => {
+  const n = 40_001;
   const path = await forged("deep-chain", (doc) => {
-    const t = doc.reference.tree;
-    Object.assign(t, {
-      nodeCount: n,
-      feature: bytes(feature, Int32Array),
-      threshold: bytes(threshold, Float64Array),
-      maskOffset: bytes(new Array(n).fill(-1), Int32Array),
-      masks: "",
-      masksLength: 0,
-      left: bytes(left, Int32Array),
-      right: bytes(right, Int32Array),
-      missingLeft: btoa("\0".repeat(n)),
-      value: bytes(new Array(n).fill(11), Float64Array),
-      rows: bytes(new Array(n).fill(5), Int32Array),
-    });
+    Object.assign(doc.reference.tree, chainTree(n, new Array(n).fill(5)));
     // As many rows as such a tree needs.
     doc.rows.used = 5 * n;
     doc.provenance.table.rows = 5 * n;
@@ -147,33 +153,11 @@ Deno.test("a tree 20,000 levels deep is answered, its path drawn by its ends", a
 
 Deno.test("an ensemble tree 20,000 levels deep: the estimate answers, without the parts", async () => {
   const n = 40_001;
-  const f = model.features.findIndex((x) => x.kind === "numeric");
-  const left = new Array(n).fill(-1);
-  const right = new Array(n).fill(-1);
-  const feature = new Array(n).fill(-1);
-  const threshold = new Array(n).fill(NaN);
-  const rows = new Array(n).fill(1);
-  for (let k = 0; k + 2 < n; k += 2) {
-    feature[k] = f;
-    threshold[k] = -1e9 + k;
-    left[k] = k + 1;
-    right[k] = k + 2;
-  }
   // Covers that add up: each split's right side holds the rest of the chain.
+  const rows = new Array(n).fill(1);
   for (let k = n - 3; k >= 0; k -= 2) rows[k] = 1 + rows[k + 2];
   const path = await forged("deep-ensemble-chain", (doc) => {
-    Object.assign(doc.ensemble.trees[0], {
-      nodeCount: n,
-      feature: bytes(feature, Int32Array),
-      threshold: bytes(threshold, Float64Array),
-      maskOffset: bytes(new Array(n).fill(-1), Int32Array),
-      masks: "",
-      masksLength: 0,
-      left: bytes(left, Int32Array),
-      right: bytes(right, Int32Array),
-      missingLeft: btoa("\0".repeat(n)),
-      value: bytes(new Array(n).fill(11), Float64Array),
-      rows: bytes(rows, Int32Array),
+    Object.assign(doc.ensemble.trees[0], chainTree(n, rows), {
       weight: bytes(rows, Float64Array),
       impurity: bytes(new Array(n).fill(NaN), Float64Array),
     });
