@@ -165,7 +165,8 @@ export function compareAnswer(
     changes,
     difference,
     pathChange,
-    parts: changeContributions(model, base, changed),
+    // The parts each estimate already holds, not worked out a second time.
+    parts: changeContributions(model, base, changed, [a.contributions, b.contributions]),
     warnings: notes,
     provenance: model.provenance,
   };

@@ -141,7 +141,8 @@ export function contributionsOf(
 /**
  * Each attribute's part of the change from profile `from` to profile `to`:
  * the difference of their parts, which adds up to the change of the
- * estimate on the fitting scale (null for a class model).
+ * estimate on the fitting scale (null for a class model). `known`: the two
+ * profiles' parts when their estimates already hold them.
  *
  * @example
  * ```ts
@@ -163,25 +164,29 @@ export function changeContributions(
   model: Model,
   from: Profile,
   to: Profile,
+  known?: [ContributionsAnswer | null, ContributionsAnswer | null],
 ): ChangeContributions | null {
-  const reader = readerOf(model);
-  if (reader === null) return null;
-  const before = reader.profile(from);
-  const after = reader.profile(to);
-  const delta = after.parts.map((p, j) => p - before.parts[j]);
-  const scale = model.target.scale === "log" ? "log" : "raw";
-  const toEstimate = inMoney(model, after.prediction);
+  // The two profiles' parts: those their estimates already worked out
+  // (compare's), else worked out here.
+  const before = known?.[0] ?? contributionsOf(model, from);
+  const after = known?.[1] ?? contributionsOf(model, to);
+  if (before === null || after === null) return null;
+  const partOf = (answer: ContributionsAnswer) =>
+    new Map(answer.parts.map((p) => [p.feature, p.part]));
+  const was = partOf(before);
+  const now = partOf(after);
+  const delta = model.features.map((f) => now.get(f.name)! - was.get(f.name)!);
   const fromValues = describeProfile(model, from);
-  const parts = partsInMoney(model, delta, toEstimate, scale, describeProfile(model, to))
+  const parts = partsInMoney(model, delta, after.estimate, after.scale, describeProfile(model, to))
     .filter((p) => p.part !== 0)
     .map((p) => ({ ...p, from: fromValues[p.feature] }));
   return {
-    scale,
-    fromEstimate: inMoney(model, before.prediction),
-    toEstimate,
+    scale: after.scale,
+    fromEstimate: before.estimate,
+    toEstimate: after.estimate,
     parts,
-    moneyPartsMultiply: scale === "log",
-    trees: reader.trees.length,
+    moneyPartsMultiply: after.moneyPartsMultiply,
+    trees: after.trees,
   };
 }
 
