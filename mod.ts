@@ -198,6 +198,7 @@ export {
   writeAnalystFile,
 } from "./lib/model/analyst_file.ts";
 export { type ReadBoundedOptions, readTextBounded } from "./lib/io/read_bounded.ts";
+export { fixAttribute } from "./lib/tree/fix_attribute.ts";
 export { type PayQuartile, payQuartiles, type RawGap, rawGaps } from "./lib/gap/raw_gaps.ts";
 export { type Suppression, suppressSmallGroups } from "./lib/gap/suppress.ts";
 export {
@@ -225,6 +226,14 @@ export {
   type GapRegression,
   type GapReport,
 } from "./lib/gap/gap_check.ts";
+export {
+  CHANCE_FLOOR,
+  decomposeGap,
+  type DecomposeInput,
+  type GapDecomposition,
+  type GapDecompositionReport,
+  PROPENSITY_MIN_LEAF,
+} from "./lib/gap/decompose_gap.ts";
 export {
   type PayReview,
   payReview,

@@ -39,6 +39,7 @@ import {
 } from "../ensemble/proxies.ts";
 import { type PayQuartile, payQuartiles, rawGaps } from "./raw_gaps.ts";
 import { type Suppression, suppressSmallGroups } from "./suppress.ts";
+import { decomposeGap, type GapDecompositionReport } from "./decompose_gap.ts";
 
 /** Options of {@linkcode gapCheck}. */
 export interface GapOptions {
@@ -76,9 +77,15 @@ export interface GapOptions {
   seed?: number;
   /** Workers. */
   workers?: number;
+  /**
+   * Split each group's raw gap by factor (lib/gap/decompose_gap.ts: two
+   * more ensembles and the contributions).
+   * @default {true}
+   */
+  decompose?: boolean;
   /** Progress of the stages. */
   onProgress?: (
-    stage: "pay model" | "group model" | "proxies",
+    stage: "pay model" | "group model" | "proxies" | "pooled model" | "group chances",
     done: number,
     total: number,
   ) => void;
@@ -226,6 +233,12 @@ export interface GapReport {
   proxyThreshold: number;
   /** How well the two ensembles did out of bag. */
   models: { trees: number; payR2Log: number; groupBalancedAccuracy: number };
+  /**
+   * Each compared group's raw gap in mean log pay split into the part each
+   * factor explains, the part none explains and the rest, overall only
+   * (null when the overall figures are withheld, or when not asked).
+   */
+  decomposition: GapDecompositionReport | null;
   /** What is withheld and how far to trust the adjusted gap, as data (the terminal words them). */
   notes: GapNote[];
   /** Where the figures came from. */
@@ -291,6 +304,12 @@ export const GAP_SOURCES = [
   "(2018), The Econometrics Journal 21(1). Robust standard errors: White (1980), Econometrica 48(4).",
   "Multiple categories: Holm (1979), Scandinavian Journal of Statistics 6(2).",
   "Bagged trees: Breiman (1996), Machine Learning 24(2).",
+  "The raw gap split by factor: Oaxaca (1973), International Economic Review 14(3); Blinder " +
+  "(1973), Journal of Human Resources 8(4); pooled with a group indicator: Neumark (1988), " +
+  "Journal of Human Resources 23(3), Fortin (2008), Journal of Human Resources 43(4), Jann " +
+  "(2008), The Stata Journal 8(4); each factor's part: Lundberg et al. (2020), Nature Machine " +
+  "Intelligence 2; the unexplained part's correction: Robins, Rotnitzky and Zhao (1994), " +
+  "Journal of the American Statistical Association 89(427).",
 ];
 
 /**
@@ -350,7 +369,23 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
   )).filter((p) => p.balancedAccuracy >= settings.proxyThreshold);
   options.onProgress?.("proxies", fit.payDataset.features.length, fit.payDataset.features.length);
   const payR2Log = oobRSquared(fit.logPay, fit.payModel.oob);
-  // 4. Notes: what is withheld, and how far to trust the adjusted gap.
+  // 4. The raw gap split by factor, over everyone only: every group shown
+  // overall has at least the privacy minimum of people.
+  const decomposition = shown.overallHidden || options.decompose === false
+    ? null
+    : await decomposeGap({
+      dataset: fit.payDataset,
+      group: options.group,
+      groups: who.allGroups,
+      groupCode: fit.groupCode,
+      trees: settings.trees,
+      minLeaf: settings.minLeaf,
+      seed: settings.seed,
+      workers: options.workers,
+      confidence: CONFIDENCE,
+      onProgress: options.onProgress,
+    });
+  // 5. Notes: what is withheld, and how far to trust the adjusted gap.
   const notes = gapNotes(who, shown, settings, payR2Log, linear, fit.payDataset.rows);
   const { seed } = settings;
   return {
@@ -391,6 +426,7 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
       payR2Log,
       groupBalancedAccuracy: oobBalancedAccuracy(fit.groupModel, fit.groupCode),
     },
+    decomposition,
     notes,
     provenance: who.leftOutCounted
       ? tableProvenance(table, seed)

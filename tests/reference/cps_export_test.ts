@@ -83,6 +83,13 @@ const RERUNS: {
     files: [["hc1_cps1988.json", "fixtures/reference/hc1_cps1988.json"]],
   },
   {
+    name: "the pooled linear gap decomposition matches a fresh fit by R's lm()",
+    script: "oaxaca_pooled.R",
+    packages: [],
+    args: (out) => [`${out}/oaxaca_pooled.json`],
+    files: [["oaxaca_pooled.json", "fixtures/reference/oaxaca_pooled.json"]],
+  },
+  {
     name: "the aliased-column tables and their lm() fits match a fresh run of R",
     script: "lm_aliased.R",
     packages: [],

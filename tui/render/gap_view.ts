@@ -8,6 +8,7 @@
  * @module
  */
 
+import { gapPartsMarkdown, renderGapParts } from "./gap_parts_view.ts";
 import wrapAnsi from "wrap-ansi";
 import {
   GAP_CAUTIONS,
@@ -340,6 +341,7 @@ export function renderGap(report: GapReport, view: GapView): string[] {
       if (aliased !== null) lines.push(...wrap(style.dim(aliased)));
       lines.push("");
     }
+    lines.push(...renderGapParts(report, view));
 
     if (report.quartiles) {
       const groups = [report.reference, ...report.groups];
@@ -535,6 +537,7 @@ export function gapMarkdown(data: GapReport, numbers: NumberStyle, created: stri
     const aliased = linearVersionSentence(report.linearAliased, report.group);
     if (aliased !== null) md.push(aliased, "");
   }
+  md.push(...gapPartsMarkdown(report, numbers));
   if (report.quartiles) {
     const groups = [report.reference, ...report.groups];
     md.push("## Pay quartiles", "");
