@@ -124,6 +124,7 @@ export {
 } from "./lib/ensemble/read_profile.ts";
 export { type EstimateCenter, estimateCenter } from "./lib/ensemble/estimate_center.ts";
 export { ContributionReader, type Contributions } from "./lib/ensemble/contributions.ts";
+export { contributionsOfMany, ON_WORKERS_FROM } from "./lib/ensemble/contributions_parallel.ts";
 export { addContributions, ContributionSpace, coverMean } from "./lib/tree/contributions.ts";
 export {
   BAND_HIGH,

@@ -4,7 +4,8 @@
  * arrays are transferred, not copied. Several ensembles' data may be held
  * at once, each under its own key (0 unless given), and a tree asked for
  * by its ensemble's key. A pool that keeps the worker for several runs
- * starts each with a reset.
+ * starts each with a reset. It also works out contributions: given a set
+ * of trees once, then blocks of profiles (lib/ensemble/contributions_parallel.ts).
  *
  * @module
  */
@@ -13,6 +14,7 @@ import { datasetOf, type SharedData } from "./_shared_data.ts";
 import { type EnsembleOptions, fitOneTree } from "./fit_ensemble.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import { type GrowOptions, growTree } from "../tree/grow_tree.ts";
+import { ContributionReader } from "./contributions.ts";
 
 /** Messages to the worker. */
 export type ToWorker =
@@ -22,6 +24,10 @@ export type ToWorker =
   // tree of every row; k: fold k's rows left out).
   | { kind: "folds"; fold: Int32Array; grow?: GrowOptions }
   | { kind: "foldTree"; index: number }
+  // Contributions: the trees once, then blocks of profiles (row-major, one
+  // value per feature), each row over every tree or the trees listed.
+  | { kind: "partsTrees"; trees: FlatTree[]; features: number }
+  | { kind: "parts"; index: number; profiles: Float64Array; only: (Int32Array | null)[] }
   // A new run: the data and folds of earlier runs are forgotten.
   | { kind: "reset" }
   | { kind: "stop" };
@@ -39,6 +45,8 @@ export type FromWorker =
     shared?: FlatTree;
   }
   | { kind: "foldTree"; index: number; tree: FlatTree }
+  // Per profile of the block: base, prediction, then one part per feature.
+  | { kind: "parts"; index: number; figures: Float64Array }
   | { kind: "error"; message: string };
 
 // deno-lint-ignore no-explicit-any
@@ -49,6 +57,7 @@ const sets = new Map<
   { data: SharedData; options: EnsembleOptions; states: Int32Array }
 >();
 let folds: { fold: Int32Array; grow?: GrowOptions } | undefined;
+let partsReader: ContributionReader | undefined;
 
 // A tree's arrays, to transfer rather than copy.
 function buffersOf(tree: FlatTree): ArrayBufferLike[] {
@@ -77,6 +86,30 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
     if (message.kind === "reset") {
       sets.clear();
       folds = undefined;
+      partsReader = undefined;
+      return;
+    }
+    if (message.kind === "partsTrees") {
+      partsReader = new ContributionReader(message.trees, message.features);
+      return;
+    }
+    if (message.kind === "parts") {
+      if (partsReader === undefined) throw new Error("profiles sent before the trees");
+      const width = partsReader.features;
+      const count = message.only.length;
+      const figures = new Float64Array(count * (width + 2));
+      for (let i = 0; i < count; i++) {
+        const profile = message.profiles.subarray(i * width, (i + 1) * width);
+        const { base, prediction, parts } = partsReader.profile(
+          profile,
+          message.only[i] ?? undefined,
+        );
+        figures[i * (width + 2)] = base;
+        figures[i * (width + 2) + 1] = prediction;
+        figures.set(parts, i * (width + 2) + 2);
+      }
+      const reply: FromWorker = { kind: "parts", index: message.index, figures };
+      scope.postMessage(reply, [figures.buffer]);
       return;
     }
     if (message.kind === "stop") {

@@ -17,7 +17,14 @@ import type { Model } from "./types.ts";
 import { checkCoverage, type ModelSession, resamplesOf, shiftedMoney } from "./model_session.ts";
 import { profileSupport } from "./estimate_answer.ts";
 import type { SupportReason } from "./answer_notes.ts";
-import { type ContributionsAnswer, contributionsOf } from "./contributions_answer.ts";
+import {
+  type ContributionsAnswer,
+  contributionsAnswer,
+  contributionsOf,
+  contributionTrees,
+} from "./contributions_answer.ts";
+import { contributionsOfMany } from "../ensemble/contributions_parallel.ts";
+import type { FittingPool } from "../ensemble/_worker_pool.ts";
 
 /** One scored row of `batch`. */
 export interface BatchRow {
@@ -110,6 +117,77 @@ export function batchAnswer(
   offers: Float64Array | null = null,
   withContributions = false,
 ): BatchRow[] {
+  return scoreRows(session, rows, coverage, offers, withContributions, null);
+}
+
+/**
+ * {@linkcode batchAnswer} with each row's contributions worked out on
+ * `workers` workers (`batch --contributions`): the same figures, to the
+ * last bit, in less time on several cores.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { batchAnswer, batchAnswerWithParts } from "./batch_answer.ts";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { openModel } from "./model_session.ts";
+ * import { readForModel } from "./model_table.ts";
+ * const csv = demoCompanyCsv({ rows: 300, seed: 4 });
+ * const model = await fitModel(loadTable(csv, { target: "base_pay_eur" }), {
+ *   target: "base_pay_eur", trees: 6, folds: 3, workers: 1,
+ * });
+ * const rows = readForModel(model, csv, "demo.csv");
+ * const here = batchAnswer(openModel(model), rows, 0.9, null, true);
+ * const there = await batchAnswerWithParts(openModel(model), rows, 2);
+ * assert.deepEqual(there, here);
+ * assert(there.some((r) => r.estimateSource === "out-of-bag" && r.contributions!.trees < 6));
+ * ```
+ */
+export async function batchAnswerWithParts(
+  session: ModelSession,
+  rows: ModelRows,
+  workers: number | FittingPool,
+  coverage = 0.9,
+  offers: Float64Array | null = null,
+): Promise<BatchRow[]> {
+  const wanted: PartsWanted[] = [];
+  const out = scoreRows(session, rows, coverage, offers, false, wanted);
+  for (const row of out) row.contributions = null;
+  const trees = contributionTrees(session.model);
+  if (trees === null) return out;
+  const raw = await contributionsOfMany(
+    trees,
+    session.model.features.length,
+    wanted.map((w) => w.profile),
+    wanted.map((w) => w.only),
+    workers,
+  );
+  wanted.forEach((w, i) => {
+    out[w.row].contributions = contributionsAnswer(
+      session.model,
+      w.profile,
+      raw[i],
+      w.only?.length,
+    );
+  });
+  return out;
+}
+
+// A row whose contributions are to be worked out elsewhere.
+interface PartsWanted {
+  row: number;
+  profile: Float64Array;
+  only: Int32Array | null;
+}
+
+function scoreRows(
+  session: ModelSession,
+  rows: ModelRows,
+  coverage: number,
+  offers: Float64Array | null,
+  withContributions: boolean,
+  partsWanted: PartsWanted[] | null,
+): BatchRow[] {
   checkCoverage(coverage);
   const { model, reader } = session;
   if (model.target.kind !== "regression") {
@@ -193,6 +271,14 @@ export function batchAnswer(
         ? outOfBagTrees(counts, training.get(rowKey(rows.ids[r], profile))!)
         : undefined;
       row.contributions = contributionsOf(model, profile, only);
+    } else if (partsWanted !== null) {
+      partsWanted.push({
+        row: r,
+        profile: Float64Array.from(profile),
+        only: row.estimateSource === "out-of-bag"
+          ? outOfBagTrees(counts, training.get(rowKey(rows.ids[r], profile))!)
+          : null,
+      });
     }
     if (offers !== null) {
       const offer = offers[r];

@@ -13,7 +13,8 @@
  * @module
  */
 
-import { ContributionReader } from "../ensemble/contributions.ts";
+import { ContributionReader, type Contributions } from "../ensemble/contributions.ts";
+import type { FlatTree } from "../tree/flat_tree.ts";
 import { describeProfile, type Profile } from "./profile.ts";
 import { toMoney } from "../ensemble/pay_scale.ts";
 import { shiftedMoney } from "./model_session.ts";
@@ -124,7 +125,53 @@ export function contributionsOf(
 ): ContributionsAnswer | null {
   const reader = readerOf(model);
   if (reader === null) return null;
-  const { base, prediction, parts } = reader.profile(profile, only);
+  return contributionsAnswer(model, profile, reader.profile(profile, only), only?.length);
+}
+
+/**
+ * The trees a model's contributions are read from (null for a class model,
+ * or trees too deep to split by attribute), for work done elsewhere
+ * (`contributionsOfMany` on the workers).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable } from "../../mod.ts";
+ * import { contributionTrees } from "./contributions_answer.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 4, folds: 3, workers: 1 });
+ * assert.equal(contributionTrees(model), model.ensemble!.trees);
+ * ```
+ */
+export function contributionTrees(model: Model): readonly FlatTree[] | null {
+  return readerOf(model)?.trees ?? null;
+}
+
+/**
+ * The answer for a profile from its contributions on the fitting scale
+ * (worked out here or on a worker): in money, named, largest first.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, typicalProfile } from "../../mod.ts";
+ * import { ContributionReader, type Contributions } from "../ensemble/contributions.ts";
+import type { FlatTree } from "../tree/flat_tree.ts";
+ * import { contributionsAnswer, contributionsOf } from "./contributions_answer.ts";
+ * const table = loadTable(demoCompanyCsv({ rows: 200, seed: 4 }), { target: "base_pay_eur" });
+ * const model = await fitModel(table, { target: "base_pay_eur", trees: 4, folds: 3, workers: 1 });
+ * const profile = typicalProfile(model);
+ * const raw = new ContributionReader(model.ensemble!.trees, model.features.length).profile(profile);
+ * assert.deepEqual(contributionsAnswer(model, profile, raw, 4), contributionsOf(model, profile));
+ * ```
+ */
+export function contributionsAnswer(
+  model: Model,
+  profile: Profile,
+  raw: Contributions,
+  trees?: number,
+): ContributionsAnswer {
+  const { base, prediction, parts } = raw;
   const scale = model.target.scale === "log" ? "log" : "raw";
   const estimate = inMoney(model, prediction);
   const values = describeProfile(model, profile);
@@ -134,7 +181,7 @@ export function contributionsOf(
     estimate,
     parts: partsInMoney(model, parts, estimate, scale, values),
     moneyPartsMultiply: scale === "log",
-    trees: only?.length ?? reader.trees.length,
+    trees: trees ?? readerOf(model)!.trees.length,
   };
 }
 

@@ -13,6 +13,7 @@ import {
   readModelFile,
   typicalProfile,
 } from "../../mod.ts";
+import { parse } from "csv-parse/sync";
 import { run } from "../../tui/main.ts";
 import { recordingTerminal } from "../../tui/terminal.ts";
 import { paygrove, ROOT } from "./_cli.ts";
@@ -222,4 +223,69 @@ Deno.test("batch with every row refused refuses the table (status 1)", async () 
   const result = await paygrove(["batch", modelPath, file, "--offer", "offer"]);
   assert.equal(result.code, 1);
   assert.match(result.stderr, /does not match the model's schema/);
+});
+
+Deno.test("batch --contributions on two workers writes the same CSV as on one", async () => {
+  // Enough rows that the parts go to the workers (ON_WORKERS_FROM).
+  const lines = (await Deno.readTextFile(demo)).trim().split("\n").slice(0, 401);
+  const file = `${dir}/four_hundred.csv`;
+  await Deno.writeTextFile(file, lines.join("\n") + "\n");
+  const one = await paygrove(["batch", modelPath, file, "--contributions", "--workers", "1"]);
+  const two = await paygrove(["batch", modelPath, file, "--contributions", "--workers", "2"]);
+  assert.equal(one.code, 0, one.stderr);
+  assert.equal(two.code, 0, two.stderr);
+  assert.equal(two.stdout, one.stdout);
+  // Every row scored, its parts filled in (the lib's own test covers
+  // training rows read by their out-of-bag trees, which need the analyst's file).
+  const [head, ...body] = parse(one.stdout) as string[][];
+  assert.equal(body.length, 400);
+  const from = head.indexOf("parts_from");
+  assert.ok(body.every((cells) => Number(cells[from]) > 0 && cells[from + 1] !== ""));
+});
+
+Deno.test("batch --contributions names each part after its column, whatever the name", async () => {
+  // Column names a spreadsheet or a terminal would act on.
+  const names = ['=HYPERLINK("http://x")', "level, grade", 'say "hi"', "\u001b[31mred"];
+  const rows = Array.from(
+    { length: 60 },
+    (_, i) =>
+      [
+        `P${i}`,
+        `G${1 + (i % 3)}`,
+        i % 2 ? "North" : "South",
+        String(i % 7),
+        `x${i % 4}`,
+        40000 + 900 * (i % 3) + 37 * i,
+      ]
+        .join(","),
+  );
+  const header = ["id", ...names.map((n) => `"${n.replaceAll('"', '""')}"`), "pay"].join(",");
+  const table = `${dir}/hostile.csv`;
+  await Deno.writeTextFile(table, [header, ...rows].join("\n") + "\n");
+  const model = `${dir}/hostile.model.json`;
+  const fit = await paygrove([
+    "fit",
+    table,
+    "--target",
+    "pay",
+    "--trees",
+    "10",
+    "--folds",
+    "3",
+    "--out",
+    model,
+  ]);
+  assert.equal(fit.code, 0, fit.stderr);
+  const result = await paygrove(["batch", model, table, "--contributions"]);
+  assert.equal(result.code, 0, result.stderr);
+  const [head] = parse(result.stdout, { to_line: 1 }) as string[][];
+  for (const name of names) {
+    const cell = head.find((h) => h.startsWith("part_") && h.includes(name.slice(1, 6)));
+    assert.ok(
+      cell !== undefined,
+      `no part column for ${JSON.stringify(name)}: ${head.join(" | ")}`,
+    );
+    // Written as data: no cell opens with a formula sign, no raw escape.
+    assert.ok(!/^[=+\-@]/.test(cell) && !cell.includes("\u001b"), cell);
+  }
 });

@@ -10,6 +10,7 @@ import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
   batchAnswer,
+  batchAnswerWithParts,
   type BatchRow,
   isTrainingTable,
   type Model,
@@ -26,7 +27,8 @@ import { wordedWarnings } from "../option_words.ts";
 import { readTableForModel } from "../profile_flags.ts";
 import { withReadFlags } from "../table_flags.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
-import { coverageOption } from "../option_values.ts";
+import { coverageOption, wholeNumber } from "../option_values.ts";
+import { cappedWorkers } from "../workers.ts";
 import { csvCell, jsonText, terminalText } from "../render/safe_text.ts";
 import { PROTECTED_CAUTION } from "../render/cautions.ts";
 import { dataWarningLines } from "../data_check.ts";
@@ -253,6 +255,11 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
       coverageOption,
       0.9,
     )
+    .option(
+      "--workers <n>",
+      "parallel workers for --contributions (default: one per core)",
+      wholeNumber(1),
+    )
     .option(...ANALYST_FILE_OPTION)
     .option("--out <file>", "write the scored CSV here instead of standard output")
     .option("--force", "replace an existing --out file")
@@ -298,13 +305,15 @@ export function batchCommand(terminal: Terminal): CommandUnknownOpts {
         }
         offers = column.values;
       }
-      const scored = batchAnswer(
-        session,
-        rows,
-        flags.coverage,
-        offers,
-        flags.contributions === true,
-      );
+      const scored = flags.contributions === true
+        ? await batchAnswerWithParts(
+          session,
+          rows,
+          cappedWorkers(flags.workers, 0, terminal.err) ?? navigator.hardwareConcurrency ?? 1,
+          flags.coverage,
+          offers,
+        )
+        : batchAnswer(session, rows, flags.coverage, offers);
       // The profiles table's data-quality warnings, on stderr (stdout may be the CSV).
       const dataWarnings = rows.table.warnings;
       if (!flags.json) {
