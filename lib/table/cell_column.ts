@@ -71,16 +71,23 @@ export class CellColumn {
   #isMissing: (text: string) => boolean;
   #isMissingAt: (text: string, start: number, end: number) => boolean;
   // The shared texts again, found by the characters of a cell not yet cut
-  // out (open addressing on a hash of them; see #pushTextAt).
+  // out (open addressing on a hash of them; see #pushTextAt): each slot's
+  // hash and shared text's number (-1: empty).
   #internHashes = new Int32Array(0);
-  #internTexts: (string | undefined)[] = [];
+  #internIds = new Int32Array(0);
   #internCount = 0;
   #values: Float64Array | null = new Float64Array(1024);
   // Rows (ascending) whose text a number does not give back, and those texts.
   #asideRows: number[] = [];
   #asideTexts: string[] = [];
   #texts: string[] | null = null;
-  #shared: Map<string, string> | null = null;
+  // The distinct texts, numbered in order of first appearance, and how many
+  // cells hold each (null past SHARED_MAX of them).
+  #shared: Map<string, number> | null = null;
+  #sharedTexts: string[] = [];
+  #sharedCounts = new Int32Array(0);
+  // Whether the counts are every cell's (not after keep()).
+  #counted = true;
   #length = 0;
 
   /**
@@ -185,16 +192,18 @@ export class CellColumn {
     let hash = 0x811c9dc5;
     for (let i = start; i < end; i++) hash = Math.imul(hash ^ text.charCodeAt(i), 0x01000193);
     const hashes = this.#internHashes;
-    const texts = this.#internTexts;
+    const ids = this.#internIds;
     const mask = hashes.length - 1;
     if (mask > 0) {
-      for (let slot = hash & mask; texts[slot] !== undefined; slot = (slot + 1) & mask) {
-        const known = texts[slot]!;
+      for (let slot = hash & mask; ids[slot] >= 0; slot = (slot + 1) & mask) {
+        const id = ids[slot];
+        const known = this.#sharedTexts[id];
         if (
           hashes[slot] === hash && known.length === end - start && text.startsWith(known, start)
         ) {
           this.#length++;
           this.#texts!.push(known);
+          this.#sharedCounts[id]++;
           return;
         }
       }
@@ -205,24 +214,24 @@ export class CellColumn {
     if (this.#shared !== null) this.#intern(this.#shared.get(cell)!, hash);
   }
 
-  // Records a shared text for #pushTextAt, the table kept at most half full.
-  #intern(shared: string, hash: number): void {
+  // Records shared text number `id` for #pushTextAt, the table kept at most half full.
+  #intern(id: number, hash: number): void {
     if (2 * (this.#internCount + 1) > this.#internHashes.length) {
-      const old = this.#internTexts;
+      const old = this.#internIds;
       const oldHashes = this.#internHashes;
       const size = Math.max(64, 2 * oldHashes.length);
       this.#internHashes = new Int32Array(size);
-      this.#internTexts = new Array(size).fill(undefined);
+      this.#internIds = new Int32Array(size).fill(-1);
       this.#internCount = 0;
       for (let slot = 0; slot < old.length; slot++) {
-        if (old[slot] !== undefined) this.#intern(old[slot]!, oldHashes[slot]);
+        if (old[slot] >= 0) this.#intern(old[slot], oldHashes[slot]);
       }
     }
     const mask = this.#internHashes.length - 1;
     let slot = hash & mask;
-    while (this.#internTexts[slot] !== undefined) slot = (slot + 1) & mask;
+    while (this.#internIds[slot] >= 0) slot = (slot + 1) & mask;
     this.#internHashes[slot] = hash;
-    this.#internTexts[slot] = shared;
+    this.#internIds[slot] = id;
     this.#internCount++;
   }
 
@@ -337,8 +346,36 @@ export class CellColumn {
     } else {
       const texts = this.#texts!;
       this.#texts = rows.map((r) => texts[r]);
+      // The counts were of the cells before.
+      this.#counted = false;
     }
     this.#length = rows.length;
+  }
+
+  /**
+   * Each distinct text of a text column with the number of cells that hold
+   * it, in order of first appearance, counted as the cells came in; null
+   * for a column of numbers, one with more than `limit` distinct texts, or
+   * after {@linkcode CellColumn.keep}.
+   *
+   * @example
+   * ```ts
+   * import assert from "node:assert/strict";
+   * import { CellColumn } from "./cell_column.ts";
+   * const column = new CellColumn((t) => t === "");
+   * const row = "L2,L1,L2,";
+   * column.push("7");
+   * for (const [s, e] of [[0, 2], [3, 5], [6, 8], [9, 9]]) column.pushAt(row, s, e);
+   * assert.deepEqual([...column.distinct(10)!], [["7", 1], ["L2", 2], ["L1", 1], ["", 1]]);
+   * assert.equal(column.distinct(2), null);
+   * column.keep([0, 1]);
+   * assert.equal(column.distinct(10), null);
+   * ```
+   */
+  distinct(limit: number): Map<string, number> | null {
+    if (this.#shared === null || !this.#counted || this.#texts === null) return null;
+    if (this.#sharedTexts.length > limit) return null;
+    return new Map(this.#sharedTexts.map((text, id) => [text, this.#sharedCounts[id]]));
   }
 
   #toText(count: number): void {
@@ -347,6 +384,8 @@ export class CellColumn {
     this.#asideRows = [];
     this.#asideTexts = [];
     this.#shared = new Map();
+    this.#sharedTexts = [];
+    this.#sharedCounts = new Int32Array(64);
     for (let r = 0; r < this.#texts.length; r++) this.#texts[r] = this.#share(this.#texts[r]);
   }
 
@@ -357,15 +396,28 @@ export class CellColumn {
   #share(text: string): string {
     const shared = this.#shared;
     if (shared === null) return text;
-    const known = shared.get(text);
-    if (known !== undefined) return known;
+    const id = shared.get(text);
+    if (id !== undefined) {
+      this.#sharedCounts[id]++;
+      return this.#sharedTexts[id];
+    }
     if (shared.size >= SHARED_MAX) {
       this.#shared = null;
+      this.#sharedTexts = [];
+      this.#sharedCounts = new Int32Array(0);
       this.#internHashes = new Int32Array(0);
-      this.#internTexts = [];
+      this.#internIds = new Int32Array(0);
       return text;
     }
-    shared.set(text, text);
+    const next = this.#sharedTexts.length;
+    if (next === this.#sharedCounts.length) {
+      const grown = new Int32Array(2 * next);
+      grown.set(this.#sharedCounts);
+      this.#sharedCounts = grown;
+    }
+    shared.set(text, next);
+    this.#sharedTexts.push(text);
+    this.#sharedCounts[next] = 1;
     return text;
   }
 }

@@ -73,6 +73,8 @@ const collator = new Intl.Collator("en", { numeric: true, sensitivity: "variant"
  * @param name Header name.
  * @param cells Trimmed cell text per row.
  * @param lines Source line of each row, for messages.
+ * @param counted Each distinct text with its count, in order of first
+ *   appearance, where the caller has them (null past `limit` of them).
  *
  * @example
  * ```ts
@@ -90,12 +92,14 @@ export function inferColumn(
   cells: readonly string[],
   lines: ArrayLike<number>,
   options: InferColumnOptions,
+  counted?: (limit: number) => Map<string, number> | null,
 ): Column {
   const { isMissing } = options;
   // Each distinct text once, where there are few (levels): the missing test,
   // the reading as a number and the level codes are then asked of each
-  // distinct text, not of each of a million cells.
-  const distinct = distinctTexts(cells);
+  // distinct text, not of each of a million cells. A reader that counted
+  // them as the cells came in (CellColumn.distinct) saves counting again.
+  const distinct = counted?.(DISTINCT_MAX) ?? distinctTexts(cells);
   let missing = 0;
   if (distinct === undefined) {
     for (const cell of cells) if (isMissing(cell)) missing++;

@@ -205,7 +205,8 @@ function buildTable(
     const typed = plain === null
       ? undefined
       : inferPlainColumn(name, plain.slice(), lines, infer, () => cells.texts());
-    return typed ?? inferColumn(name, cells.texts(), lines, infer);
+    return typed ??
+      inferColumn(name, cells.texts(), lines, infer, (limit) => cells.distinct(limit));
   });
 
   const notes = [`delimiter: ${describeDelimiter(raw.delimiter)}`];

@@ -155,6 +155,19 @@ function sameAsPush(cells: readonly string[], tokens?: readonly string[]) {
     byText.plain && Array.from(byText.plain),
   );
   assert.equal(byBounds.length, cells.length);
+  // The distinct texts counted as cells came in: those of the texts, in
+  // order of first appearance (none for numbers, none past the limit).
+  for (const c of [byText, byBounds]) {
+    const counted = c.distinct(65_536);
+    if (c.plain !== null) {
+      assert.equal(counted, null);
+      continue;
+    }
+    const expected = new Map<string, number>();
+    for (const t of c.texts()) expected.set(t, (expected.get(t) ?? 0) + 1);
+    if (expected.size > 65_536) assert.equal(counted, null);
+    else assert.deepEqual(counted && [...counted], [...expected]);
+  }
   return byBounds;
 }
 
