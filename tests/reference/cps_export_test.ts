@@ -1,5 +1,5 @@
 // Reruns the R scripts of tests/reference/ (Debian r-base-core, r-cran-aer,
-// r-cran-sandwich) into a temporary folder and requires each file they write
+// r-cran-sandwich, r-cran-iso) into a temporary folder and requires each file they write
 // to match the committed fixture: text exactly, numbers to a relative 1e-12
 // (./_compare.ts), since R on another processor may print other last
 // digits. Outside CI a script whose R packages are missing is skipped with
@@ -88,6 +88,13 @@ const RERUNS: {
     packages: [],
     args: (out) => [`${out}/oaxaca_pooled.json`],
     files: [["oaxaca_pooled.json", "fixtures/reference/oaxaca_pooled.json"]],
+  },
+  {
+    name: "the isotonic fixture matches a fresh run of R's Iso::pava",
+    script: "pava.R",
+    packages: ["Iso"],
+    args: (out) => [`${out}/pava.json`],
+    files: [["pava.json", "fixtures/reference/pava.json"]],
   },
   {
     name: "the aliased-column tables and their lm() fits match a fresh run of R",
