@@ -62,23 +62,67 @@ export function mixtureBand(
     from = Math.min(from, own.low);
     to = Math.max(to, own.high);
   }
+  const reach = (target: number) => smallestReaching(estimates, groups, coverage, target, from, to);
+  return { low: reach((1 - coverage) / 2), high: reach((1 + coverage) / 2) };
+}
+
+/**
+ * The amount (fitting scale) below which the share `share` of the mixture
+ * lies: at 0.5, the middle of the pay the model implies for the cell's
+ * people. The residual quantiles are read as for a range of `coverage`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { mixtureQuantile } from "./cell_band.ts";
+ * const groups = {
+ *   edges: Float64Array.of(Infinity),
+ *   residuals: [Float64Array.from({ length: 101 }, (_, i) => (i - 50) / 100)],
+ * };
+ * // Two people placed symmetrically: the middle is halfway between them.
+ * assert(Math.abs(mixtureQuantile([9.8, 10.2], groups, 0.5, 0.8) - 10) < 1e-9);
+ * ```
+ */
+export function mixtureQuantile(
+  estimates: ArrayLike<number>,
+  groups: ResidualGroups,
+  share: number,
+  coverage: number,
+): number {
+  if (estimates.length === 0) throw new RangeError("a band needs at least one person");
+  let from = Infinity;
+  let to = -Infinity;
+  for (let i = 0; i < estimates.length; i++) {
+    // Every residual the groups hold lies within the widest range's ends.
+    const wide = groupedRange(estimates[i], groups, 0.999999);
+    from = Math.min(from, wide.low);
+    to = Math.max(to, wide.high);
+  }
+  return smallestReaching(estimates, groups, coverage, share, from, to);
+}
+
+// The smallest amount in [from, to] whose mean share below reaches
+// `target`, by halving (the mean share never falls as the amount grows).
+function smallestReaching(
+  estimates: ArrayLike<number>,
+  groups: ResidualGroups,
+  coverage: number,
+  target: number,
+  from: number,
+  to: number,
+): number {
+  const n = estimates.length;
   const shareBelow = (value: number) => {
     let sum = 0;
     for (let i = 0; i < n; i++) sum += groupedShareBelow(estimates[i], groups, value, coverage);
     return sum / n;
   };
-  // The smallest amount whose mean share below reaches `target`; the
-  // bracket holds it, since at `from` every share is at most the low
-  // target and at `to` every share at least the high one.
-  const reach = (target: number) => {
-    let low = from;
-    let high = to;
-    for (let step = 0; step < 80 && high - low > 1e-12 * Math.max(1, Math.abs(high)); step++) {
-      const middle = (low + high) / 2;
-      if (shareBelow(middle) >= target - 1e-12) high = middle;
-      else low = middle;
-    }
-    return high;
-  };
-  return { low: reach((1 - coverage) / 2), high: reach((1 + coverage) / 2) };
+  let low = from;
+  let high = to;
+  for (let step = 0; step < 80 && high - low > 1e-12 * Math.max(1, Math.abs(high)); step++) {
+    const middle = (low + high) / 2;
+    if (shareBelow(middle) >= target - 1e-12) high = middle;
+    else low = middle;
+  }
+  return high;
 }
