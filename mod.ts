@@ -200,6 +200,24 @@ export {
 } from "./lib/model/analyst_file.ts";
 export { type ReadBoundedOptions, readTextBounded } from "./lib/io/read_bounded.ts";
 export { fixAttribute } from "./lib/tree/fix_attribute.ts";
+export { increasingFit } from "./lib/bands/isotonic.ts";
+export {
+  type Band,
+  bandOverlap,
+  compaRatio,
+  midpointProgression,
+  type OutsideBand,
+  outsideBand,
+  rangePosition,
+  rangeSpread,
+} from "./lib/bands/band_measures.ts";
+export { mixtureBand, mixtureQuantile } from "./lib/bands/cell_band.ts";
+export {
+  type BandCell,
+  type BandTable,
+  bandTable,
+  type BandTableOptions,
+} from "./lib/bands/band_table.ts";
 export { type PayQuartile, payQuartiles, type RawGap, rawGaps } from "./lib/gap/raw_gaps.ts";
 export { type Suppression, suppressSmallGroups } from "./lib/gap/suppress.ts";
 export {

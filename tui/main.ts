@@ -13,6 +13,7 @@
 
 // The root program has no options of its own to type, so it uses commander's
 // plain types; subcommands use extra-typings for typed option values.
+import { bandsCommand } from "./commands/bands.ts";
 import { errorDocument, errorWords } from "./option_words.ts";
 import { Command, CommanderError } from "commander";
 import { DataError, OptionError, UnknownNameError, VERSION } from "../mod.ts";
@@ -62,7 +63,7 @@ export const EXIT = { ok: 0, data: 1, usage: 2, rowsRefused: 3, internal: 70 } a
  * const program = buildProgram(recordingTerminal());
  * assert.deepEqual(program.commands.map((c) => c.name()), [
  *   "schema", "fit", "estimate", "compare", "sweep", "batch", "inspect", "gap", "review",
- *   "demo-data",
+ *   "bands", "demo-data",
  * ]);
  * ```
  */
@@ -87,6 +88,7 @@ export function buildProgram(terminal: Terminal): Command {
       inspectCommand,
       gapCommand,
       reviewCommand,
+      bandsCommand,
       demoDataCommand,
     ]
   ) {

@@ -42,6 +42,7 @@ import {
   midpointProgression,
   type OutsideBand,
   outsideBand,
+  rangeSpread,
 } from "./band_measures.ts";
 import { mixtureBand, mixtureQuantile } from "./cell_band.ts";
 import { increasingFit } from "./isotonic.ts";
@@ -74,6 +75,8 @@ export type BandCell =
     typicalProfile: Record<string, string | number | null>;
     /** The proposed band (money). */
     band: Band;
+    /** Its range spread, max / min - 1. */
+    spread: number;
     /** The midpoint before smoothing along the ladder. */
     rawMid: number;
     /** Who sits outside the band; the cost is null when fewer than the privacy minimum are below. */
@@ -136,7 +139,9 @@ export function bandTable(
 ): BandTable {
   const { model, reader } = session;
   if (reader === null) {
-    throw new OptionError("bands need a model with an ensemble of pay (fit without --trees 0)");
+    throw new OptionError(
+      "bands need a model with an ensemble of pay; this one has its reference tree only",
+    );
   }
   if (rows.target === null) {
     throw new OptionError(
@@ -270,6 +275,7 @@ export function bandTable(
       typicalEstimate: b.typical.estimate,
       typicalProfile: b.typical.profile,
       band,
+      spread: rangeSpread(band),
       rawMid,
       outside: {
         below: outside.below,

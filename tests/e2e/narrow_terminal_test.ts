@@ -240,3 +240,29 @@ Deno.test({
     }
   },
 });
+
+Deno.test({
+  ...ON_TERMINAL,
+  name: "bands by level at 60 and 80 columns: no line wider, each band's ends whole",
+  fn: async () => {
+    const args = ["bands", modelFile, "--table", DEMO];
+    const doc = await json(args);
+    const pay = (x: number) => formatPay(x, EUR);
+    for (const width of [60, 80]) {
+      const lines = await onNarrowTerminal(args, width);
+      fitsScreen(
+        lines,
+        width,
+        doc.cells.flatMap((c: { band: { min: number; max: number } }) => [
+          pay(c.band.min),
+          pay(c.band.max),
+        ]),
+      );
+      // What the table left out at this width is said.
+      for (const column of ["p25", "p75"]) {
+        const shown = lines.some((l) => /\bp25\b/.test(l) && /\bp75\b/.test(l));
+        assert.ok(shown || saysLeftOut(lines, column), `${column} at ${width}`);
+      }
+    }
+  },
+});

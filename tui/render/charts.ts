@@ -200,3 +200,69 @@ export function histogram(
   lines.push(`${left}${" ".repeat(gap)}${right}`);
   return lines;
 }
+
+/** One band to draw: its ends and midpoint, and a second span beside it (current pay). */
+export interface BandRow {
+  /** Label on the left. */
+  label: string;
+  /** The band's minimum, midpoint and maximum. */
+  min: number;
+  mid: number;
+  max: number;
+  /** A span drawn under the band (the current pay's quartiles), or null. */
+  inner: { low: number; middle: number; high: number } | null;
+}
+
+/**
+ * Floating bars on one axis shared by every row: each band as `[===|===]`
+ * with `|` at its midpoint, and under it, where given, the inner span as
+ * `(---o---)` with `o` at its middle. Plain characters only.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bandChart } from "./charts.ts";
+ * const lines = bandChart([
+ *   { label: "G1", min: 40, mid: 50, max: 60, inner: { low: 45, middle: 50, high: 55 } },
+ *   { label: "G2", min: 60, mid: 70, max: 80, inner: null },
+ * ], 21);
+ * assert.deepEqual(lines, [
+ *   "G1  [====|====]",
+ *   "       (-o--)",
+ *   "G2            [====|====]",
+ * ]);
+ * ```
+ */
+export function bandChart(rows: readonly BandRow[], axisWidth: number): string[] {
+  const low = Math.min(...rows.map((r) => Math.min(r.min, r.inner?.low ?? r.min)));
+  const high = Math.max(...rows.map((r) => Math.max(r.max, r.inner?.high ?? r.max)));
+  const span = high - low || 1;
+  const at = (v: number) => Math.round(((v - low) / span) * (axisWidth - 1));
+  const labelWidth = Math.max(...rows.map((r) => r.label.length));
+  const draw = (
+    from: number,
+    middle: number,
+    to: number,
+    ends: string,
+    fill: string,
+    mark: string,
+  ) => {
+    const cells = Array.from({ length: axisWidth }, () => " ");
+    const a = at(from);
+    const b = at(to);
+    for (let i = a; i <= b; i++) cells[i] = fill;
+    cells[a] = ends[0];
+    cells[b] = ends[1];
+    const m = at(middle);
+    if (m > a && m < b) cells[m] = mark;
+    return cells.join("").trimEnd();
+  };
+  return rows.flatMap((r) => [
+    `${r.label.padEnd(labelWidth)}  ${draw(r.min, r.mid, r.max, "[]", "=", "|")}`,
+    ...(r.inner === null ? [] : [
+      `${"".padEnd(labelWidth)}  ${
+        draw(r.inner.low, r.inner.middle, r.inner.high, "()", "-", "o")
+      }`,
+    ]),
+  ]);
+}

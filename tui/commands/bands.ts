@@ -1,0 +1,148 @@
+/**
+ * `paygrove bands MODEL --table TABLE [--by level]`: the pay bands to
+ * publish, per cell of the `--by` attributes, from a model and the table of
+ * current people (the model file holds no one's pay, so the table is
+ * needed for every figure of current pay).
+ *
+ * @module
+ */
+
+import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
+import { assertCanWrite, bandTable, openModel, OptionError, writeFileAtomic } from "../../mod.ts";
+import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
+import { readTableForModel } from "../profile_flags.ts";
+import { coverageOption, shareOption, wholeNumber } from "../option_values.ts";
+import { list, localeTag, withReadFlags } from "../table_flags.ts";
+import { printAnswer } from "../render/cautions.ts";
+import { moneyStyle } from "../render/model_view.ts";
+import { bandsCsv, bandsMarkdown, renderBands } from "../render/bands_view.ts";
+import { forMarkdown, forTerminal, terminalText } from "../render/safe_text.ts";
+import type { Terminal } from "../terminal.ts";
+
+/**
+ * Builds the `bands` command.
+ *
+ * @param terminal Where output goes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { demoCompanyCsv, fitModel, loadTable, writeModelFile } from "../../mod.ts";
+ * import { recordingTerminal } from "../terminal.ts";
+ * import { bandsCommand } from "./bands.ts";
+ * const csv = demoCompanyCsv({ rows: 400, seed: 2 });
+ * const model = await fitModel(loadTable(csv), { target: "base_pay_eur", trees: 10, folds: 3, workers: 1 });
+ * const dir = Deno.makeTempDirSync();
+ * await writeModelFile(`${dir}/m.json`, model);
+ * Deno.writeTextFileSync(`${dir}/people.csv`, csv);
+ * const terminal = recordingTerminal();
+ * await bandsCommand(terminal).parseAsync([`${dir}/m.json`, "--table", `${dir}/people.csv`, "--json"], { from: "user" });
+ * const doc = JSON.parse(terminal.stdout.join(""));
+ * assert.deepEqual(doc.by, ["level"]); // the ladder by default
+ * assert(doc.cells.length >= 5);
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
+export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
+  return withReadFlags(new Command("bands"))
+    .description(
+      "Pay bands to publish per level (and family, site...): current pay, the model's band " +
+        "(minimum, midpoint, maximum), spread, progression and who sits outside",
+    )
+    .argument("<model>", "model file written by paygrove fit")
+    .option("--table <file>", "the table of current people, with pay (needed)")
+    .option(
+      "--by <columns>",
+      "attributes whose combinations are the cells (default: the ladder)",
+      list,
+    )
+    .option(
+      "--coverage <share>",
+      "share of each cell's people a band is built to hold",
+      coverageOption,
+    )
+    .option(
+      "--spread <share>",
+      "a fixed range spread instead (max / min - 1, e.g. 40%)",
+      shareOption,
+    )
+    .option(
+      "--privacy-min <n>",
+      "fewest people for a cell to be shown (at least 3)",
+      wholeNumber(3),
+      5,
+    )
+    .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
+    .option(...ANALYST_FILE_OPTION)
+    .option("--out <file>", "also write the band table as CSV")
+    .option("--report <file>", "also write a Markdown report")
+    .option("--force", "replace an existing --out or --report file")
+    .option("--json", "print one JSON document on stdout instead of text")
+    .action(async (file, flags) => {
+      if (flags.table === undefined) {
+        throw new OptionError(
+          "bands needs --table FILE: the model file holds no one's pay, and current pay " +
+            "(the quartiles, who sits outside a band, the cost) comes from the table",
+        );
+      }
+      if (flags.coverage !== undefined && flags.spread !== undefined) {
+        throw new OptionError("--coverage and --spread are two ways to build a band: give one");
+      }
+      for (const [option, path] of [["--out", flags.out], ["--report", flags.report]] as const) {
+        if (path !== undefined) {
+          await assertCanWrite(path, flags.force ?? false, option, [file, flags.table]);
+        }
+      }
+      const model = await openModelFile(terminal, file, flags.analystFile);
+      const by = flags.by ?? ladderOf(model.features);
+      const rows = await readTableForModel(model, flags.table, [], flags);
+      const table = bandTable(openModel(model), rows, {
+        by,
+        coverage: flags.coverage,
+        spread: flags.spread,
+        privacyMin: flags.privacyMin,
+      });
+      const money = moneyStyle(model, { locale: flags.locale });
+      if (flags.out !== undefined) {
+        await writeFileAtomic(flags.out, bandsCsv(table), {
+          force: flags.force ?? false,
+          option: "--out",
+        });
+      }
+      if (flags.report !== undefined) {
+        await writeFileAtomic(
+          flags.report,
+          bandsMarkdown(forMarkdown(table), money, new Date().toISOString()),
+          { force: flags.force ?? false, option: "--report" },
+        );
+      }
+      printAnswer(
+        terminal,
+        flags.json === true,
+        model.provenance,
+        table,
+        () => [
+          ...renderBands(forTerminal(table), {
+            style: terminal.style,
+            width: terminal.width,
+            money,
+          }),
+          ...[flags.out, flags.report].filter((p) => p !== undefined).map((p) =>
+            `Written: ${terminalText(p!)}.`
+          ),
+        ],
+      );
+    });
+}
+
+// The ordinal ladder column (the first ordinal attribute), else a refusal
+// that asks for --by.
+function ladderOf(features: readonly { name: string; kind: string }[]): string[] {
+  const ladder = features.find((f) => f.kind === "ordinal");
+  if (ladder === undefined) {
+    throw new OptionError(
+      "bands needs --by COLUMN: the model has no level ladder (an ordinal attribute) to band by",
+    );
+  }
+  return [ladder.name];
+}

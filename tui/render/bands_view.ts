@@ -1,0 +1,295 @@
+/**
+ * The band table (lib/bands/band_table.ts) in words: a table of the cells
+ * within the width, the bands as floating bars on one axis with the current
+ * pay's quartiles under them, the measures along the ladder, and the
+ * cautions a published range needs; the same as Markdown and as CSV rows.
+ *
+ * @module
+ */
+
+import wrapAnsi from "wrap-ansi";
+import type { BandCell, BandTable } from "../../mod.ts";
+import { bandChart } from "./charts.ts";
+import { fitTable } from "./fit_table.ts";
+import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
+import { csvCell } from "./safe_text.ts";
+import type { Style } from "./style.ts";
+
+/** How to draw the band table. */
+export interface BandsView {
+  style: Style;
+  width: number;
+  money: NumberStyle;
+}
+
+type Shown = Extract<BandCell, { suppressed: false }>;
+
+/** What a cell too small to show says in place of its figures. */
+const TOO_FEW = "too few to report";
+
+/**
+ * The cautions every band output carries.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { BANDS_CAUTIONS } from "./bands_view.ts";
+ * assert.match(BANDS_CAUTIONS, /paygrove gap/);
+ * assert.match(BANDS_CAUTIONS, /good faith/);
+ * ```
+ */
+export const BANDS_CAUTIONS = "These bands are a proposal to review, learned from current pay: " +
+  "they carry any unjustified gap in it, so run the gap check first (paygrove gap). A range " +
+  "published in a job posting must be the range the employer in good faith expects to pay, and " +
+  "local law decides what a posting must say (Directive (EU) 2023/970, Art. 5, as each member " +
+  "state transposes it; US state posting laws). This is not legal advice.";
+
+function methodWords(table: BandTable, money: NumberStyle): string {
+  return table.method.kind === "coverage"
+    ? `Each band built to hold ${
+      formatPercent(table.method.coverage, false, money)
+    } of its cell's people (the pay the model implies for them)`
+    : `Each band a ${
+      formatPercent(table.method.spread, false, money)
+    } spread (max / min - 1) around the model's midpoint`;
+}
+
+/**
+ * The terminal's lines for a band table.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bandTable, demoCompanyCsv, fitModel, loadTable, openModel, readForModel } from "../../mod.ts";
+ * import { renderBands } from "./bands_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const csv = demoCompanyCsv({ rows: 600, seed: 4 });
+ * const model = await fitModel(loadTable(csv, { target: "base_pay_eur" }), {
+ *   target: "base_pay_eur", trees: 10, folds: 3, workers: 1,
+ * });
+ * const table = bandTable(openModel(model), readForModel(model, csv, "demo.csv"), { by: ["level"] });
+ * const lines = renderBands(table, { style: makeStyle(false), width: 80, money: { currency: "EUR" } });
+ * assert.match(lines[0], /^Pay bands by level/);
+ * assert(lines.every((l) => l.length <= 80));
+ * assert(lines.some((l) => l.startsWith("G1 ")));
+ * ```
+ */
+export function renderBands(table: BandTable, view: BandsView): string[] {
+  const { style, width, money } = view;
+  const wrap = (text: string) => wrapAnsi(text, width).split("\n");
+  const pay = (v: number) => formatPay(v, money);
+  const lines: string[] = [
+    ...wrap(style.bold(`Pay bands by ${table.by.join(" x ")}`)),
+    ...wrap(style.dim(
+      `${methodWords(table, money)}. Current pay: each quartile the mean of the ` +
+        `${table.privacyMin} people nearest it; cells of fewer than ${table.privacyMin} ` +
+        `people show nothing.`,
+    )),
+    "",
+  ];
+  const head = [
+    "cell",
+    "people",
+    "p25",
+    "median",
+    "p75",
+    "min",
+    "mid",
+    "max",
+    "spread",
+    "below",
+    "above",
+  ];
+  const rows = table.cells.map((c) =>
+    c.suppressed ? [c.key.join(" / "), TOO_FEW, "", "", "", "", "", "", "", "", ""] : [
+      c.key.join(" / "),
+      formatNumber(c.people, money, 0),
+      pay(c.currentPay.p25),
+      pay(c.currentPay.median),
+      pay(c.currentPay.p75),
+      pay(c.band.min),
+      pay(c.band.mid),
+      pay(c.band.max),
+      formatPercent(c.spread, false, money),
+      formatNumber(c.outside.below, money, 0),
+      formatNumber(c.outside.above, money, 0),
+    ]
+  );
+  const fitted = fitTable({
+    width,
+    head,
+    rows,
+    // Narrow: the current quartiles go first, then who is above, below, the spread.
+    drop: [2, 4, 10, 9, 8],
+    borders: "none",
+    gap: width < 90 ? 1 : 2,
+    spanning: TOO_FEW,
+    styleHead: style.bold,
+    ascii: style.ascii,
+  });
+  if (fitted.dropped.length > 0) {
+    lines.push(
+      ...wrap(style.dim(`Left out at this width: ${fitted.dropped.join(", ")} (--json has them).`)),
+    );
+  }
+  lines.push(...fitted.lines, "");
+
+  const shown = table.cells.filter((c): c is Shown => !c.suppressed);
+  if (shown.length > 0) {
+    const labelWidth = Math.max(...shown.map((c) => c.key.join(" / ").length));
+    lines.push(
+      ...wrap(style.bold("The bands on one axis: [min | mid max], current pay (p25 o median p75)")),
+      ...bandChart(
+        shown.map((c) => ({
+          label: c.key.join(" / "),
+          min: c.band.min,
+          mid: c.band.mid,
+          max: c.band.max,
+          inner: { low: c.currentPay.p25, middle: c.currentPay.median, high: c.currentPay.p75 },
+        })),
+        Math.max(20, Math.min(60, width - labelWidth - 3)),
+      ),
+      "",
+    );
+  }
+  for (const ladder of table.ladders) {
+    if (ladder.levels.length < 2) continue;
+    const steps = ladder.levels.slice(1).map((level, k) =>
+      `${ladder.levels[k]} to ${level} ${formatPercent(ladder.progression[k], true, money)} ` +
+      `(overlap ${formatPercent(ladder.overlap[k], false, money)})`
+    );
+    lines.push(
+      ...wrap(
+        `Midpoint progression${ladder.key.length ? ` (${ladder.key.join(" / ")})` : ""}: ` +
+          steps.join("; ") + ".",
+      ),
+    );
+  }
+  if (table.smoothed) {
+    lines.push(...wrap(style.warn(
+      `Some midpoints did not rise with ${table.by[0]}: they were smoothed (isotonic, weighted ` +
+        `by people, on log pay) and the band moved with them; --json has each raw midpoint.`,
+    )));
+  }
+  const withCost = shown.filter((c) => c.outside.costToMinimum !== null);
+  if (withCost.length > 0) {
+    lines.push(...wrap(
+      "Cost of bringing people below the minimum up to it: " +
+        withCost.map((c) => `${c.key.join(" / ")} ${pay(c.outside.costToMinimum!)}`).join(", ") +
+        ` (withheld where fewer than ${table.privacyMin} are below).`,
+    ));
+  }
+  lines.push("", ...wrap(style.dim(BANDS_CAUTIONS)));
+  return lines;
+}
+
+/**
+ * The band table as Markdown (for `--report`).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bandsMarkdown } from "./bands_view.ts";
+ * const table = {
+ *   by: ["level"], method: { kind: "coverage" as const, coverage: 0.8 }, privacyMin: 5,
+ *   smoothed: false, withoutPay: 0, ladders: [],
+ *   cells: [{ key: ["G1"], suppressed: true as const }],
+ * };
+ * const md = bandsMarkdown(table, {}, "2026-12-03T10:00:00Z");
+ * assert(md.includes("| G1 | too few to report |"));
+ * ```
+ */
+export function bandsMarkdown(table: BandTable, money: NumberStyle, created: string): string {
+  const pay = (v: number) => formatPay(v, money);
+  const md = [
+    `# Pay bands by ${table.by.join(" x ")}`,
+    "",
+    `Written ${created}. ${methodWords(table, money)}.`,
+    "",
+    `> ${BANDS_CAUTIONS}`,
+    "",
+    "| cell | people | current p25 | median | p75 | min | mid | max | spread | below | above |",
+    "| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
+  ];
+  for (const c of table.cells) {
+    md.push(
+      c.suppressed ? `| ${c.key.join(" / ")} | ${TOO_FEW} | | | | | | | | | |` : `| ${
+        [
+          c.key.join(" / "),
+          formatNumber(c.people, money, 0),
+          pay(c.currentPay.p25),
+          pay(c.currentPay.median),
+          pay(c.currentPay.p75),
+          pay(c.band.min),
+          pay(c.band.mid),
+          pay(c.band.max),
+          formatPercent(c.spread, false, money),
+          String(c.outside.below),
+          String(c.outside.above),
+        ].join(" | ")
+      } |`,
+    );
+  }
+  md.push("");
+  return md.join("\n");
+}
+
+/**
+ * The band table as CSV, one row per cell, every cell formula-safe.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bandsCsv } from "./bands_view.ts";
+ * const csv = bandsCsv({
+ *   by: ["level"], method: { kind: "spread" as const, spread: 0.4 }, privacyMin: 5,
+ *   smoothed: false, withoutPay: 0, ladders: [],
+ *   cells: [{ key: ["=G1"], suppressed: true as const }],
+ * });
+ * assert.equal(csv.split("\n")[1], `"'=G1",true,,,,,,,,,,,,,`); // quoted, apostrophed
+ * ```
+ */
+export function bandsCsv(table: BandTable): string {
+  const head = [
+    ...table.by,
+    "suppressed",
+    "people",
+    "current_p25",
+    "current_median",
+    "current_p75",
+    "typical_estimate",
+    "band_min",
+    "band_mid",
+    "band_max",
+    "raw_mid",
+    "spread",
+    "below_min",
+    "above_max",
+    "cost_to_min",
+  ];
+  const lines = [head.map(csvCell).join(",")];
+  const cents = (v: number) => v.toFixed(2);
+  for (const c of table.cells) {
+    const cells = c.suppressed
+      ? [...c.key, "true", ...Array(head.length - table.by.length - 1).fill("")]
+      : [
+        ...c.key,
+        "false",
+        String(c.people),
+        cents(c.currentPay.p25),
+        cents(c.currentPay.median),
+        cents(c.currentPay.p75),
+        cents(c.typicalEstimate),
+        cents(c.band.min),
+        cents(c.band.mid),
+        cents(c.band.max),
+        cents(c.rawMid),
+        c.spread.toFixed(6),
+        String(c.outside.below),
+        String(c.outside.above),
+        c.outside.costToMinimum === null ? "" : cents(c.outside.costToMinimum),
+      ];
+    lines.push(cells.map(csvCell).join(","));
+  }
+  return lines.join("\n") + "\n";
+}
