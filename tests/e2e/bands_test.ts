@@ -89,3 +89,51 @@ Deno.test("bands never writes over a file without --force", async () => {
   assert.notEqual(run.code, 0);
   assert.equal(await Deno.readTextFile(out), "keep me\n");
 });
+
+Deno.test("bands --posting: the range for one role, its comparable people, and the refusals", async () => {
+  const run = await paygrove([
+    "bands",
+    model,
+    "--posting",
+    "--set",
+    "level=G3",
+    "--set",
+    "job_family=Sales",
+    "--table",
+    demo,
+    "--json",
+  ]);
+  assert.equal(run.code, 0, run.stderr);
+  const doc = JSON.parse(run.stdout);
+  assert.equal(doc.profile.level, "G3");
+  assert.deepEqual(doc.newHire, ["years_at_company"]);
+  assert.ok(doc.low < doc.estimate && doc.estimate < doc.high);
+  assert.deepEqual(doc.comparable.named, ["level", "job_family"]);
+  assert.ok(doc.comparable.people >= 5 && doc.comparable.inside > 0);
+  const text = await paygrove(["bands", model, "--posting", "--set", "level=G3"]);
+  assert.equal(text.code, 0, text.stderr);
+  assert.match(text.stdout, /^Range to post: €[\d,]+ to €[\d,]+/);
+  assert.match(text.stdout, /needs --table/);
+  const noRole = await paygrove(["bands", model, "--posting"]);
+  assert.equal(noRole.code, 2);
+  assert.match(noRole.stderr, /--posting needs the role/);
+  // A model fitted with gender among its attributes: no posting range.
+  const protectedModel = `${dir}/with_gender.model.json`;
+  const fit = await paygrove([
+    "fit",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--allow-protected",
+    "--trees",
+    "10",
+    "--folds",
+    "3",
+    "--out",
+    protectedModel,
+  ]);
+  assert.equal(fit.code, 0, fit.stderr);
+  const refused = await paygrove(["bands", protectedModel, "--posting", "--set", "level=G3"]);
+  assert.equal(refused.code, 2);
+  assert.match(refused.stderr, /objective criteria/);
+});

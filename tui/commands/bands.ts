@@ -8,14 +8,24 @@
  */
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
-import { assertCanWrite, bandTable, openModel, OptionError, writeFileAtomic } from "../../mod.ts";
+import {
+  applySets,
+  assertCanWrite,
+  bandTable,
+  findFeature,
+  openModel,
+  OptionError,
+  postingRange,
+  typicalProfile,
+  writeFileAtomic,
+} from "../../mod.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
 import { readTableForModel } from "../profile_flags.ts";
 import { coverageOption, shareOption, wholeNumber } from "../option_values.ts";
-import { list, localeTag, withReadFlags } from "../table_flags.ts";
+import { list, localeTag, type ReadFlags, withReadFlags } from "../table_flags.ts";
 import { printAnswer } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
-import { bandsCsv, bandsMarkdown, renderBands } from "../render/bands_view.ts";
+import { bandsCsv, bandsMarkdown, renderBands, renderPosting } from "../render/bands_view.ts";
 import { forMarkdown, forTerminal, terminalText } from "../render/safe_text.ts";
 import type { Terminal } from "../terminal.ts";
 
@@ -74,11 +84,24 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
     )
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option(...ANALYST_FILE_OPTION)
+    .option("--posting", "the range to post for one role (with --set), as a new hire")
+    .option(
+      "--set <column=value>",
+      "an attribute of the role for --posting (repeatable)",
+      collectSets,
+    )
     .option("--out <file>", "also write the band table as CSV")
     .option("--report <file>", "also write a Markdown report")
     .option("--force", "replace an existing --out or --report file")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
+      if (flags.posting === true) {
+        await postingAction(terminal, file, flags);
+        return;
+      }
+      if (flags.set !== undefined) {
+        throw new OptionError("--set describes a role for --posting; add --posting");
+      }
       if (flags.table === undefined) {
         throw new OptionError(
           "bands needs --table FILE: the model file holds no one's pay, and current pay " +
@@ -145,4 +168,57 @@ function ladderOf(features: readonly { name: string; kind: string }[]): string[]
     );
   }
   return [ladder.name];
+}
+
+function collectSets(value: string, previous: string[] = []): string[] {
+  return [...previous, value];
+}
+
+// `bands --posting --set ...`: the range to post for one role.
+async function postingAction(
+  terminal: Terminal,
+  file: string,
+  flags: ReadFlags & {
+    set?: string[];
+    table?: string;
+    coverage?: number;
+    spread?: number;
+    privacyMin: number;
+    locale?: string;
+    analystFile?: string;
+    json?: true;
+    out?: string;
+    report?: string;
+  },
+): Promise<void> {
+  if (flags.set === undefined || flags.set.length === 0) {
+    throw new OptionError(
+      "--posting needs the role: --set level=G3 --set job_family=Sales (the attributes " +
+        "that define it)",
+    );
+  }
+  if (flags.spread !== undefined || flags.out !== undefined || flags.report !== undefined) {
+    throw new OptionError("--posting takes --set, --table, --coverage and --json only");
+  }
+  const model = await openModelFile(terminal, file, flags.analystFile);
+  const { profile } = applySets(model, typicalProfile(model), flags.set);
+  const named = flags.set.map((text) =>
+    model.features[findFeature(model, text.split("=")[0], "--set")].name
+  );
+  const rows = flags.table === undefined
+    ? null
+    : await readTableForModel(model, flags.table, [], flags);
+  const posting = postingRange(openModel(model), profile, named, rows, {
+    coverage: flags.coverage,
+    privacyMin: flags.privacyMin,
+  });
+  const money = moneyStyle(model, { locale: flags.locale });
+  printAnswer(
+    terminal,
+    flags.json === true,
+    model.provenance,
+    posting,
+    () =>
+      renderPosting(forTerminal(posting), { style: terminal.style, width: terminal.width, money }),
+  );
 }

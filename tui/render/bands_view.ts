@@ -8,7 +8,7 @@
  */
 
 import wrapAnsi from "wrap-ansi";
-import type { BandCell, BandTable } from "../../mod.ts";
+import type { BandCell, BandTable, PostingRange } from "../../mod.ts";
 import { bandChart } from "./charts.ts";
 import { fitTable } from "./fit_table.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
@@ -292,4 +292,69 @@ export function bandsCsv(table: BandTable): string {
     lines.push(cells.map(csvCell).join(","));
   }
   return lines.join("\n") + "\n";
+}
+
+/**
+ * The terminal's lines for the range to post for one role.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { renderPosting } from "./bands_view.ts";
+ * import { makeStyle } from "./style.ts";
+ * const lines = renderPosting({
+ *   profile: { level: "G3", job_family: "Sales", years_at_company: 0 },
+ *   newHire: ["years_at_company"], estimate: 56000, low: 49000, high: 64000, coverage: 0.8,
+ *   criteria: ["level", "job_family", "years_at_company"],
+ *   comparable: { named: ["level", "job_family"], people: 60, inside: 0.78 },
+ * }, { style: makeStyle(false), width: 80, money: { currency: "EUR" } });
+ * assert.equal(lines[0], "Range to post: €49,000 to €64,000");
+ * assert(lines.some((l) => l.includes("78.0%") && l.includes("60")));
+ * ```
+ */
+export function renderPosting(posting: PostingRange, view: BandsView): string[] {
+  const { style, width, money } = view;
+  const wrap = (text: string) => wrapAnsi(text, width).split("\n");
+  const pay = (v: number) => formatPay(v, money);
+  const role = Object.entries(posting.profile)
+    .map(([name, value]) => `${name} ${value ?? "missing"}`).join(", ");
+  const lines = [
+    style.bold(`Range to post: ${pay(posting.low)} to ${pay(posting.high)}`),
+    ...wrap(
+      `Centred on the estimate ${pay(posting.estimate)}; built to hold ${
+        formatPercent(posting.coverage, false, money)
+      } of the pay of people like this role.`,
+    ),
+    ...wrap(style.dim(
+      `The role as a new hire: ${role}` +
+        (posting.newHire.length > 0
+          ? ` (${posting.newHire.join(", ")} at its entry value, the lowest in the model's table).`
+          : "."),
+    )),
+  ];
+  const c = posting.comparable;
+  if (c === null) {
+    lines.push(...wrap(style.dim(
+      "How many current people it rests on, and what share of them it holds, needs --table: " +
+        "the model file holds no one's pay.",
+    )));
+  } else if (c.people === null) {
+    lines.push(...wrap(
+      `Fewer current people than the privacy minimum share ${c.named.join(" and ")} with this ` +
+        "role: no figure of them is shown.",
+    ));
+  } else {
+    lines.push(...wrap(
+      `${formatNumber(c.people, money, 0)} current people share ${c.named.join(" and ")} with ` +
+        `this role; ${formatPercent(c.inside!, false, money)} of them are paid within the range.`,
+    ));
+  }
+  lines.push(
+    ...wrap(
+      `Objective criteria it rests on: ${posting.criteria.join(", ")} (no protected attribute).`,
+    ),
+    "",
+    ...wrap(style.dim(BANDS_CAUTIONS)),
+  );
+  return lines;
 }
