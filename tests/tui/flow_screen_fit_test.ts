@@ -87,7 +87,7 @@ for (const columns of [80, 60]) {
     // What the result left out, on asking: the whole profile and path.
     const menu = driver.inView().join("\n");
     assert.match(menu, /Show the whole profile and decision path/);
-    driver.type(...Array(7).fill(KEY.down), KEY.enter);
+    driver.type(...Array(8).fill(KEY.down), KEY.enter); // below "Pay ranges"
     await driver.when("What next? Show the whole profile and decision path");
     await driver.when("What next?");
     const screen = driver.screen();
@@ -138,3 +138,34 @@ Deno.test("the driver's terminal: cursor moves, erased lines and wrapping as a t
   assert.deepEqual(lines, ["xy", "cd", "1234", "56"]);
   assert.deepEqual(overflowed, ["1234"]);
 });
+
+for (const columns of [80, 60]) {
+  Deno.test(`${columns} x 24: pay ranges, the range to post and the band table, in view`, async () => {
+    const driver = flowDriver(90000, false, { columns, rows: 24 });
+    const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+    await eightFitted(driver);
+    driver.type(KEY.enter); // A typical person
+    await menuUnderEstimate(driver, "pay");
+    // "Pay ranges" sits where "Show the whole profile" sat before it.
+    driver.type(...Array(7).fill(KEY.down), KEY.enter);
+    await driver.when("? Which?");
+    driver.type(KEY.enter); // the range to post
+    await driver.when("What next?");
+    // The range's own line stays in view above the menu.
+    inView(driver, /^Range to post: [\d,.]+ to [\d,.]+$/);
+    inView(driver, /current people share grade and department/);
+    inView(driver, "? What next?");
+    driver.type(...Array(7).fill(KEY.down), KEY.enter);
+    await driver.when("? Which?");
+    driver.type(KEY.down, KEY.enter); // the band table
+    await driver.when("When you have read it:");
+    inView(driver, "Pay bands by grade");
+    inView(driver, /^cell +people/);
+    inView(driver, /^Midpoint progression/);
+    assert.deepEqual(driver.inView().filter((l) => l.length > columns), []);
+    driver.type(KEY.enter);
+    await driver.when("What next?");
+    driver.type(KEY.up, KEY.enter); // Quit
+    await done;
+  });
+}

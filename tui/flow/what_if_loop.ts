@@ -1,7 +1,7 @@
 /**
  * The what-if loop: the result for the current profile, then the menu
- * (change, promote, sweep, keep, compare scenarios, undo, offer, start
- * over, save, quit) until the person quits.
+ * (change, promote, sweep, keep, compare scenarios, undo, offer, pay
+ * ranges, start over, save, quit) until the person quits.
  *
  * @module
  */
@@ -10,18 +10,22 @@ import { errorWords } from "../option_words.ts";
 import {
   applyChanges,
   applySets,
+  bandTable,
   checkOffer,
   type CompareAnswer,
   compareAnswer,
   DataError,
   describeProfile,
   estimateProfile,
+  type ModelRows,
   type ModelSession,
   offeredLevers,
   OptionError,
   outOfBagEstimate,
   parseOffer,
+  postingRange,
   type Profile,
+  readForModel,
   sweepAnswer,
   sweepValues,
   typicalProfile,
@@ -35,6 +39,7 @@ import type { Scenario } from "./report.ts";
 import { screenRows, wrapped } from "./screen_room.ts";
 import { buildProfile, editOne, promotionFeature } from "./profile_step.ts";
 import { renderScenarios } from "./scenarios_view.ts";
+import { renderBands, renderPosting } from "../render/bands_view.ts";
 import { save, writeReport } from "./save_step.ts";
 import type { SessionOptions } from "./guided_flow.ts";
 
@@ -44,6 +49,7 @@ export type Next =
   | "whole"
   | "promote"
   | "offer"
+  | "ranges"
   | "sweep"
   | "keep"
   | "list"
@@ -98,6 +104,8 @@ export async function whatIfLoop(
   const whatIfs: CompareAnswer[] = [];
   let answer = estimateProfile(session, profile, 0.9);
   const ladder = promotionFeature(model);
+  // The table read for the model once, when pay ranges first ask for it.
+  let rows: ModelRows | null = null;
   const typical = describeProfile(model, typicalProfile(model));
   // The menu under every screen of the loop; `whole` when the result was
   // shortened to fit the screen above it.
@@ -118,6 +126,9 @@ export async function whatIfLoop(
     // After undo, so that the choices above keep their places.
     ...(model.target.kind === "regression"
       ? [{ name: "Check an offer against this profile", value: "offer" as const }]
+      : []),
+    ...(session.reader !== null && !model.features.some((f) => f.protected)
+      ? [{ name: "Pay ranges: the range to post, the bands", value: "ranges" as const }]
       : []),
     ...(whole
       ? [{ name: "Show the whole profile and decision path", value: "whole" as const }]
@@ -263,6 +274,36 @@ export async function whatIfLoop(
       const sweep = sweepAnswer(session, profile, f, sweepValues(model, f, { steps: 12 }), 0.9);
       // The table first, then the chart, sized to stay in view with the menu.
       io.say(["", ...renderSweep(forTerminal(sweep), { ...view, chartLines: room() })].join("\n"));
+    } else if (next === "ranges") {
+      const by = ladder >= 0 ? model.features[ladder].name : null;
+      const which = await io.choose("Which?", [
+        { name: "The range to post for this role, as a new hire", value: "posting" as const },
+        ...(tableText !== null && by !== null
+          ? [{ name: `The pay bands by ${by}, from the table`, value: "bands" as const }]
+          : []),
+      ]);
+      rows ??= tableText === null ? null : readForModel(model, tableText, "the table");
+      if (which === "posting") {
+        // Comparable people: those at the role's level and, where the model
+        // has one, in its first attribute of categories (a job family).
+        const family = model.features.find((f, j) => f.kind === "categorical" && j !== ladder);
+        const named = [by, family?.name].filter((n): n is string => n !== undefined && n !== null);
+        const posting = postingRange(session, profile, named, rows, { coverage: 0.8 });
+        io.say(["", ...renderPosting(forTerminal(posting), { ...view, brief: true })].join("\n"));
+      } else {
+        const table = bandTable(session, rows!, { by: [by!] });
+        io.say(
+          ["", ...renderBands(forTerminal(table), { ...view, chart: false, brief: true })]
+            .join("\n"),
+        );
+        // The table is taller than what the menu leaves in view: one step back instead.
+        await io.choose(
+          "When you have read it:",
+          [{ name: "Back to the menu", value: 0 }],
+          undefined,
+          true,
+        );
+      }
     } else if (next === "whole") {
       io.say(["", ...fitResult(forTerminal(answer), result).lines].join("\n"));
     } else if (next === "keep") {

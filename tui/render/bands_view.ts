@@ -20,7 +20,29 @@ export interface BandsView {
   style: Style;
   width: number;
   money: NumberStyle;
+  /** Draw the bands as floating bars. @default {true} */
+  chart?: boolean;
+  /**
+   * The guided flow's short form, to stay in view above its menu: the
+   * cautions in one sentence, no cost line, no role line.
+   * @default {false}
+   */
+  brief?: boolean;
 }
+
+/**
+ * The cautions in one sentence, for the guided flow's screens.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { BANDS_CAUTIONS_SHORT } from "./bands_view.ts";
+ * assert.match(BANDS_CAUTIONS_SHORT, /gap check first/);
+ * ```
+ */
+export const BANDS_CAUTIONS_SHORT = "A proposal to review, learned from current pay: run the gap " +
+  "check first; a posted range must be what the employer in good faith expects to pay, and " +
+  "local law decides what a posting must say.";
 
 type Shown = Extract<BandCell, { suppressed: false }>;
 
@@ -81,9 +103,9 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
   const lines: string[] = [
     ...wrap(style.bold(`Pay bands by ${table.by.join(" x ")}`)),
     ...wrap(style.dim(
-      `${methodWords(table, money)}. Current pay: each quartile the mean of the ` +
-        `${table.privacyMin} people nearest it; cells of fewer than ${table.privacyMin} ` +
-        `people show nothing.`,
+      `${methodWords(table, money)}.` + (view.brief === true ? "" : ` Current pay: each ` +
+        `quartile the mean of the ${table.privacyMin} people nearest it; cells of fewer than ` +
+        `${table.privacyMin} people show nothing.`),
     )),
     "",
   ];
@@ -129,13 +151,16 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
   });
   if (fitted.dropped.length > 0) {
     lines.push(
-      ...wrap(style.dim(`Left out at this width: ${fitted.dropped.join(", ")} (--json has them).`)),
+      ...wrap(style.dim(
+        `Left out at this width: ${fitted.dropped.join(", ")}` +
+          (view.brief === true ? "." : " (--json has them)."),
+      )),
     );
   }
   lines.push(...fitted.lines, "");
 
   const shown = table.cells.filter((c): c is Shown => !c.suppressed);
-  if (shown.length > 0) {
+  if (shown.length > 0 && view.chart !== false) {
     const labelWidth = Math.max(...shown.map((c) => c.key.join(" / ").length));
     lines.push(
       ...wrap(style.bold("The bands on one axis: [min | mid max], current pay (p25 o median p75)")),
@@ -172,14 +197,17 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
     )));
   }
   const withCost = shown.filter((c) => c.outside.costToMinimum !== null);
-  if (withCost.length > 0) {
+  if (withCost.length > 0 && view.brief !== true) {
     lines.push(...wrap(
       "Cost of bringing people below the minimum up to it: " +
         withCost.map((c) => `${c.key.join(" / ")} ${pay(c.outside.costToMinimum!)}`).join(", ") +
         ` (withheld where fewer than ${table.privacyMin} are below).`,
     ));
   }
-  lines.push("", ...wrap(style.dim(BANDS_CAUTIONS)));
+  lines.push(
+    ...(view.brief === true ? [] : [""]),
+    ...wrap(style.dim(view.brief === true ? BANDS_CAUTIONS_SHORT : BANDS_CAUTIONS)),
+  );
   return lines;
 }
 
@@ -325,12 +353,12 @@ export function renderPosting(posting: PostingRange, view: BandsView): string[] 
         formatPercent(posting.coverage, false, money)
       } of the pay of people like this role.`,
     ),
-    ...wrap(style.dim(
+    ...(view.brief === true ? [] : wrap(style.dim(
       `The role as a new hire: ${role}` +
         (posting.newHire.length > 0
           ? ` (${posting.newHire.join(", ")} at its entry value, the lowest in the model's table).`
           : "."),
-    )),
+    ))),
   ];
   const c = posting.comparable;
   if (c === null) {
@@ -351,10 +379,14 @@ export function renderPosting(posting: PostingRange, view: BandsView): string[] 
   }
   lines.push(
     ...wrap(
-      `Objective criteria it rests on: ${posting.criteria.join(", ")} (no protected attribute).`,
+      view.brief === true
+        ? `It rests on the model's ${posting.criteria.length} attributes, none protected.`
+        : `Objective criteria it rests on: ${
+          posting.criteria.join(", ")
+        } (no protected attribute).`,
     ),
-    "",
-    ...wrap(style.dim(BANDS_CAUTIONS)),
+    ...(view.brief === true ? [] : [""]),
+    ...wrap(style.dim(view.brief === true ? BANDS_CAUTIONS_SHORT : BANDS_CAUTIONS)),
   );
   return lines;
 }
