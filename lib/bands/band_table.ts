@@ -46,6 +46,7 @@ import {
 } from "./band_measures.ts";
 import { mixtureBand, mixtureQuantile } from "./cell_band.ts";
 import { increasingFit } from "./isotonic.ts";
+import { isTenureName } from "./posting_range.ts";
 
 /** Options of {@linkcode bandTable}. */
 export interface BandTableOptions {
@@ -57,6 +58,12 @@ export interface BandTableOptions {
   spread?: number;
   /** Fewest people a cell needs to show figures. @default {5} */
   privacyMin?: number;
+  /**
+   * The typical profile as a new hire: attributes that measure time with
+   * the employer (`isTenureName`) at their lowest value in the model's table.
+   * @default {false}
+   */
+  newHire?: boolean;
 }
 
 /** One cell of the band table. */
@@ -93,6 +100,8 @@ export interface BandTable {
   privacyMin: number;
   /** Cells in ladder order within each combination of the other `by` attributes. */
   cells: BandCell[];
+  /** Whether each cell's typical profile is a new hire's. */
+  newHire: boolean;
   /** Whether any midpoint was moved to make midpoints rise with the ladder. */
   smoothed: boolean;
   /**
@@ -215,7 +224,7 @@ export function bandTable(
     const ends = options.spread === undefined
       ? mixtureBand(centres, reader.groups, coverage)
       : null;
-    const typical = typicalOf(session, rows, rowsOfCell, byIndex);
+    const typical = typicalOf(session, rows, rowsOfCell, byIndex, options.newHire ?? false);
     return { centres, mid, ends, typical };
   });
 
@@ -301,6 +310,7 @@ export function bandTable(
       ? { kind: "coverage", coverage }
       : { kind: "spread", spread: options.spread },
     privacyMin,
+    newHire: options.newHire ?? false,
     cells,
     smoothed,
     ladders,
@@ -329,6 +339,7 @@ function typicalOf(
   rows: ModelRows,
   rowsOfCell: number[],
   byIndex: number[],
+  newHire: boolean,
 ): { estimate: number; profile: Record<string, string | number | null> } {
   const { model, reader } = session;
   const profile = new Float64Array(model.features.length);
@@ -350,6 +361,12 @@ function typicalOf(
         }
         value = best;
       }
+    }
+    if (
+      newHire && feature.kind === "numeric" && feature.range !== undefined &&
+      isTenureName(feature.name)
+    ) {
+      value = feature.range.min;
     }
     profile[j] = value;
     described[feature.name] = Number.isNaN(value)

@@ -84,6 +84,7 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
     )
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option(...ANALYST_FILE_OPTION)
+    .option("--new-hire", "each cell's typical profile as a new hire (tenure at its entry value)")
     .option("--posting", "the range to post for one role (with --set), as a new hire")
     .option(
       "--set <column=value>",
@@ -124,6 +125,7 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
         coverage: flags.coverage,
         spread: flags.spread,
         privacyMin: flags.privacyMin,
+        newHire: flags.newHire === true,
       });
       const money = moneyStyle(model, { locale: flags.locale });
       if (flags.out !== undefined) {

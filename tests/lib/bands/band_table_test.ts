@@ -183,3 +183,22 @@ Deno.test("bands refuse what they cannot do: a numeric attribute as cells, no pa
   );
   assert.throws(() => bandTable(openModel(model), rows, { by: ["levl"] }), /did you mean "level"/);
 });
+
+Deno.test("--new-hire: each cell's typical profile has tenure at its entry value, and only the typical estimate moves", () => {
+  const plain = bandTable(openModel(model), rows, { by: ["level"] });
+  const hire = bandTable(openModel(model), rows, { by: ["level"], newHire: true });
+  assert.equal(hire.newHire, true);
+  const entry = model.features.find((f) => f.name === "years_at_company")!.range!.min;
+  const a = shown(plain.cells);
+  const b = shown(hire.cells);
+  for (let i = 0; i < a.length; i++) {
+    assert.equal(b[i].typicalProfile.years_at_company, entry);
+    assert.deepEqual(b[i].band, a[i].band);
+    assert.deepEqual(b[i].currentPay, a[i].currentPay);
+  }
+  // Where the trees split on tenure, some typical estimate moves; where
+  // none does, none can.
+  const tenure = model.features.findIndex((f) => f.name === "years_at_company");
+  const used = model.ensemble!.trees.some((t) => t.feature.includes(tenure));
+  assert.equal(b.some((c, i) => c.typicalEstimate !== a[i].typicalEstimate), used);
+});
