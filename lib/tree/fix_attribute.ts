@@ -13,7 +13,7 @@
  * @module
  */
 
-import { type FlatTree, goesLeft } from "./flat_tree.ts";
+import { copyNodes, type FlatTree, goesLeft } from "./flat_tree.ts";
 
 /**
  * The tree as it predicts with feature `feature` held at `value` (a number,
@@ -66,7 +66,6 @@ export function fixAttribute(tree: FlatTree, feature: number, value: number): Fl
 // The copy with the kept nodes in `order` (a preorder), children found again
 // by passing through held splits.
 function rebuilt(tree: FlatTree, feature: number, value: number, order: number[]): FlatTree {
-  const count = order.length;
   const newId = new Map<number, number>();
   order.forEach((node, i) => newId.set(node, i));
   const through = (node: number) => {
@@ -75,36 +74,12 @@ function rebuilt(tree: FlatTree, feature: number, value: number, order: number[]
     }
     return newId.get(node)!;
   };
-  const width = tree.width;
-  const out: FlatTree = {
-    task: tree.task,
-    width,
-    nodeCount: count,
-    feature: new Int32Array(count),
-    threshold: new Float64Array(count),
-    maskOffset: new Int32Array(count),
-    masks: tree.masks,
-    maskWords: tree.maskWords,
-    left: new Int32Array(count),
-    right: new Int32Array(count),
-    missingLeft: new Uint8Array(count),
-    value: new Float64Array(count * width),
-    rows: new Int32Array(count),
-    weight: new Float64Array(count),
-    impurity: new Float64Array(count),
-  };
-  order.forEach((node, j) => {
-    const leaf = tree.left[node] === -1;
-    out.feature[j] = tree.feature[node];
-    out.threshold[j] = tree.threshold[node];
-    out.maskOffset[j] = tree.maskOffset[node];
-    out.left[j] = leaf ? -1 : through(tree.left[node]);
-    out.right[j] = leaf ? -1 : through(tree.right[node]);
-    out.missingLeft[j] = tree.missingLeft[node];
-    for (let c = 0; c < width; c++) out.value[j * width + c] = tree.value[node * width + c];
-    out.rows[j] = tree.rows[node];
-    out.weight[j] = tree.weight[node];
-    out.impurity[j] = tree.impurity[node];
-  });
-  return out;
+  return copyNodes(
+    tree,
+    order,
+    (j) =>
+      tree.left[order[j]] === -1
+        ? null
+        : [through(tree.left[order[j]]), through(tree.right[order[j]])],
+  );
 }

@@ -335,3 +335,68 @@ export function pathOfRow(tree: FlatTree, features: readonly Feature[], row: num
   }
   return path;
 }
+
+/**
+ * A new tree whose node j is a copy of `tree`'s node `nodes[j]` (its split,
+ * value, counts and impurity), with the children `children(j)` gives as new
+ * ids, or made a leaf where it gives null. The callers keep children after
+ * their parent (`nodes` in id order or in preorder). Pruning and holding an
+ * attribute at a value build their trees through it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures, copyNodes, growTree } from "../../mod.ts";
+ * const dataset = {
+ *   rows: 6,
+ *   features: [{ name: "x", kind: "numeric" as const, values: new Float64Array([1, 2, 3, 8, 9, 10]) }],
+ *   target: { kind: "regression" as const, name: "y", values: new Float64Array([1, 1, 1, 5, 5, 5]) },
+ * };
+ * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 3 });
+ * // The root alone, made a leaf: the mean of every row.
+ * const stump = copyNodes(tree, [0], () => null);
+ * assert.deepEqual([stump.nodeCount, stump.value[0], stump.feature[0], stump.left[0]], [1, 3, -1, -1]);
+ * // Every node with its own children: the same tree.
+ * assert.deepEqual(copyNodes(tree, [0, 1, 2], (j) => (j === 0 ? [1, 2] : null)), tree);
+ * ```
+ */
+export function copyNodes(
+  tree: FlatTree,
+  nodes: ArrayLike<number>,
+  children: (j: number) => readonly [number, number] | null,
+): FlatTree {
+  const count = nodes.length;
+  const width = tree.width;
+  const out: FlatTree = {
+    task: tree.task,
+    width,
+    nodeCount: count,
+    feature: new Int32Array(count),
+    threshold: new Float64Array(count),
+    maskOffset: new Int32Array(count),
+    masks: tree.masks,
+    maskWords: tree.maskWords,
+    left: new Int32Array(count),
+    right: new Int32Array(count),
+    missingLeft: new Uint8Array(count),
+    value: new Float64Array(count * width),
+    rows: new Int32Array(count),
+    weight: new Float64Array(count),
+    impurity: new Float64Array(count),
+  };
+  for (let j = 0; j < count; j++) {
+    const i = nodes[j];
+    const kids = children(j);
+    out.feature[j] = kids === null ? -1 : tree.feature[i];
+    out.threshold[j] = kids === null ? NaN : tree.threshold[i];
+    out.maskOffset[j] = kids === null ? -1 : tree.maskOffset[i];
+    out.left[j] = kids === null ? -1 : kids[0];
+    out.right[j] = kids === null ? -1 : kids[1];
+    out.missingLeft[j] = kids === null ? 0 : tree.missingLeft[i];
+    for (let c = 0; c < width; c++) out.value[j * width + c] = tree.value[i * width + c];
+    out.rows[j] = tree.rows[i];
+    out.weight[j] = tree.weight[i];
+    out.impurity[j] = tree.impurity[i];
+  }
+  return out;
+}

@@ -10,6 +10,7 @@ export {
   applyRow,
   applyRows,
   applyValues,
+  copyNodes,
   type FlatTree,
   goesLeft,
   leafCount,

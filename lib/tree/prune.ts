@@ -11,7 +11,7 @@
  * @module
  */
 
-import type { FlatTree } from "./flat_tree.ts";
+import { copyNodes, type FlatTree } from "./flat_tree.ts";
 
 /**
  * Alphas closer than this, relative to the larger alpha, plus this much of
@@ -407,42 +407,19 @@ function collapse(tree: FlatTree, collapsed: ArrayLike<number>): FlatTree {
     keep[tree.right[i]] = 1;
   }
   const newId = new Int32Array(n).fill(-1);
-  let count = 0;
-  for (let i = 0; i < n; i++) if (keep[i]) newId[i] = count++;
-  const width = tree.width;
-  const out: FlatTree = {
-    task: tree.task,
-    width,
-    nodeCount: count,
-    feature: new Int32Array(count),
-    threshold: new Float64Array(count),
-    maskOffset: new Int32Array(count),
-    masks: tree.masks,
-    maskWords: tree.maskWords,
-    left: new Int32Array(count),
-    right: new Int32Array(count),
-    missingLeft: new Uint8Array(count),
-    value: new Float64Array(count * width),
-    rows: new Int32Array(count),
-    weight: new Float64Array(count),
-    impurity: new Float64Array(count),
-  };
+  const kept: number[] = [];
   for (let i = 0; i < n; i++) {
-    const j = newId[i];
-    if (j < 0) continue;
-    const leaf = isCollapsed[i] === 1 || tree.left[i] === -1;
-    out.feature[j] = leaf ? -1 : tree.feature[i];
-    out.threshold[j] = leaf ? NaN : tree.threshold[i];
-    out.maskOffset[j] = leaf ? -1 : tree.maskOffset[i];
-    out.left[j] = leaf ? -1 : newId[tree.left[i]];
-    out.right[j] = leaf ? -1 : newId[tree.right[i]];
-    out.missingLeft[j] = leaf ? 0 : tree.missingLeft[i];
-    for (let c = 0; c < width; c++) out.value[j * width + c] = tree.value[i * width + c];
-    out.rows[j] = tree.rows[i];
-    out.weight[j] = tree.weight[i];
-    out.impurity[j] = tree.impurity[i];
+    if (keep[i]) {
+      newId[i] = kept.length;
+      kept.push(i);
+    }
   }
-  return out;
+  return copyNodes(tree, kept, (j) => {
+    const i = kept[j];
+    return isCollapsed[i] === 1 || tree.left[i] === -1
+      ? null
+      : [newId[tree.left[i]], newId[tree.right[i]]];
+  });
 }
 
 /**

@@ -49,6 +49,26 @@ type Shown = Extract<BandCell, { suppressed: false }>;
 /** What a cell too small to show says in place of its figures. */
 const TOO_FEW = "too few to report";
 
+// One cell's row of the table, in the columns of the text and the report:
+// cell, people, current p25, median, p75, band min, mid, max, spread, below, above.
+function cellFigures(c: BandCell, money: NumberStyle): string[] {
+  if (c.suppressed) return [c.key.join(" / "), TOO_FEW, "", "", "", "", "", "", "", "", ""];
+  const pay = (v: number) => formatPay(v, money);
+  return [
+    c.key.join(" / "),
+    formatNumber(c.people, money, 0),
+    pay(c.currentPay.p25),
+    pay(c.currentPay.median),
+    pay(c.currentPay.p75),
+    pay(c.band.min),
+    pay(c.band.mid),
+    pay(c.band.max),
+    formatPercent(c.spread, false, money),
+    formatNumber(c.outside.below, money, 0),
+    formatNumber(c.outside.above, money, 0),
+  ];
+}
+
 /**
  * The cautions every band output carries.
  *
@@ -122,21 +142,7 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
     "below",
     "above",
   ];
-  const rows = table.cells.map((c) =>
-    c.suppressed ? [c.key.join(" / "), TOO_FEW, "", "", "", "", "", "", "", "", ""] : [
-      c.key.join(" / "),
-      formatNumber(c.people, money, 0),
-      pay(c.currentPay.p25),
-      pay(c.currentPay.median),
-      pay(c.currentPay.p75),
-      pay(c.band.min),
-      pay(c.band.mid),
-      pay(c.band.max),
-      formatPercent(c.spread, false, money),
-      formatNumber(c.outside.below, money, 0),
-      formatNumber(c.outside.above, money, 0),
-    ]
-  );
+  const rows = table.cells.map((c) => cellFigures(c, money));
   const fitted = fitTable({
     width,
     head,
@@ -220,7 +226,7 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
  * import { bandsMarkdown } from "./bands_view.ts";
  * const table = {
  *   by: ["level"], method: { kind: "coverage" as const, coverage: 0.8 }, privacyMin: 5,
- *   smoothed: false, withoutPay: 0, ladders: [],
+ *   newHire: false, smoothed: false, withoutPay: 0, ladders: [],
  *   cells: [{ key: ["G1"], suppressed: true as const }],
  * };
  * const md = bandsMarkdown(table, {}, "2026-12-03T10:00:00Z");
@@ -228,7 +234,6 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
  * ```
  */
 export function bandsMarkdown(table: BandTable, money: NumberStyle, created: string): string {
-  const pay = (v: number) => formatPay(v, money);
   const md = [
     `# Pay bands by ${table.by.join(" x ")}`,
     "",
@@ -239,25 +244,7 @@ export function bandsMarkdown(table: BandTable, money: NumberStyle, created: str
     "| cell | people | current p25 | median | p75 | min | mid | max | spread | below | above |",
     "| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
   ];
-  for (const c of table.cells) {
-    md.push(
-      c.suppressed ? `| ${c.key.join(" / ")} | ${TOO_FEW} | | | | | | | | | |` : `| ${
-        [
-          c.key.join(" / "),
-          formatNumber(c.people, money, 0),
-          pay(c.currentPay.p25),
-          pay(c.currentPay.median),
-          pay(c.currentPay.p75),
-          pay(c.band.min),
-          pay(c.band.mid),
-          pay(c.band.max),
-          formatPercent(c.spread, false, money),
-          String(c.outside.below),
-          String(c.outside.above),
-        ].join(" | ")
-      } |`,
-    );
-  }
+  for (const c of table.cells) md.push(`| ${cellFigures(c, money).join(" | ")} |`);
   md.push("");
   return md.join("\n");
 }
@@ -271,7 +258,7 @@ export function bandsMarkdown(table: BandTable, money: NumberStyle, created: str
  * import { bandsCsv } from "./bands_view.ts";
  * const csv = bandsCsv({
  *   by: ["level"], method: { kind: "spread" as const, spread: 0.4 }, privacyMin: 5,
- *   smoothed: false, withoutPay: 0, ladders: [],
+ *   newHire: false, smoothed: false, withoutPay: 0, ladders: [],
  *   cells: [{ key: ["=G1"], suppressed: true as const }],
  * });
  * assert.equal(csv.split("\n")[1], `"'=G1",true,,,,,,,,,,,,,`); // quoted, apostrophed
