@@ -29,11 +29,12 @@
  */
 
 import { OptionError } from "../errors.ts";
-import { treeEstimates } from "../ensemble/intervals.ts";
+import { mean, treeEstimates } from "../ensemble/intervals.ts";
 import { toMoney } from "../ensemble/pay_scale.ts";
 import { suppressSmallGroups } from "../gap/suppress.ts";
 import { checkedPrivacyMin } from "../model/pay_pipeline.ts";
-import { findFeature } from "../model/profile.ts";
+import { describeProfile, findFeature } from "../model/profile.ts";
+import { typicalValue } from "../model/fit_model.ts";
 import type { ModelRows } from "../model/model_table.ts";
 import { type ModelSession, shiftedMoney } from "../model/model_session.ts";
 import {
@@ -211,10 +212,7 @@ export function bandTable(
   const profile = new Float64Array(model.features.length);
   const centreOf = (r: number) => {
     for (let j = 0; j < profile.length; j++) profile[j] = rows.features[j][r];
-    const fitted = treeEstimates(reader.ensemble, profile);
-    let sum = 0;
-    for (const v of fitted) sum += v;
-    return sum / fitted.length;
+    return mean(treeEstimates(reader.ensemble, profile));
   };
 
   const built = members.map((rowsOfCell, c) => {
@@ -224,7 +222,7 @@ export function bandTable(
     const ends = options.spread === undefined
       ? mixtureBand(centres, reader.groups, coverage)
       : null;
-    const typical = typicalOf(session, rows, rowsOfCell, byIndex, options.newHire ?? false);
+    const typical = typicalOf(session, rows, rowsOfCell, options.newHire ?? false);
     return { centres, mid, ends, typical };
   });
 
@@ -331,52 +329,26 @@ function nearestMean(sorted: Float64Array, p: number, k: number): number {
   return sum / take;
 }
 
-// The cell's typical profile: the `by` values, each numeric attribute's
-// median among its people, each other attribute's most common level; and
-// the model's estimate for it (money, as `estimate` gives it).
+// The cell's typical profile: each attribute's typical value among its
+// people (the median number or most common level, as a model's own typical
+// profile), the `by` values thereby the cell's own; and the model's estimate
+// for it (money, as `estimate` gives it).
 function typicalOf(
   session: ModelSession,
   rows: ModelRows,
   rowsOfCell: number[],
-  byIndex: number[],
   newHire: boolean,
 ): { estimate: number; profile: Record<string, string | number | null> } {
   const { model, reader } = session;
-  const profile = new Float64Array(model.features.length);
-  const described: Record<string, string | number | null> = {};
-  model.features.forEach((feature, j) => {
-    const values = rowsOfCell.map((r) => rows.features[j][r]).filter((v) => !Number.isNaN(v));
-    let value = NaN;
-    if (values.length > 0) {
-      if (feature.kind === "numeric" && !byIndex.includes(j)) {
-        values.sort((a, b) => a - b);
-        const m = values.length >> 1;
-        value = values.length % 2 ? values[m] : (values[m - 1] + values[m]) / 2;
-      } else {
-        const counts = new Map<number, number>();
-        for (const v of values) counts.set(v, (counts.get(v) ?? 0) + 1);
-        let best = values[0];
-        for (const [v, count] of counts) {
-          if (count > counts.get(best)! || (count === counts.get(best)! && v < best)) best = v;
-        }
-        value = best;
-      }
-    }
+  const profile = Float64Array.from(model.features, (feature, j) => {
     if (
       newHire && feature.kind === "numeric" && feature.range !== undefined &&
       isTenureName(feature.name)
-    ) {
-      value = feature.range.min;
-    }
-    profile[j] = value;
-    described[feature.name] = Number.isNaN(value)
-      ? null
-      : feature.levels !== undefined
-      ? feature.levels[value]
-      : value;
+    ) return feature.range.min;
+    return typicalValue(Float64Array.from(rowsOfCell, (r) => rows.features[j][r]), feature.kind);
   });
-  const fitted = treeEstimates(reader!.ensemble, profile);
-  let sum = 0;
-  for (const v of fitted) sum += v;
-  return { estimate: shiftedMoney(model, sum / fitted.length), profile: described };
+  return {
+    estimate: shiftedMoney(model, mean(treeEstimates(reader!.ensemble, profile))),
+    profile: describeProfile(model, profile),
+  };
 }

@@ -44,7 +44,7 @@ import type { Dataset, Feature } from "../dataset/types.ts";
 import { fitDefaultEnsemble } from "../ensemble/fit_default.ts";
 import type { Ensemble } from "../ensemble/fit_ensemble.ts";
 import { ContributionReader } from "../ensemble/contributions.ts";
-import { inBagCounts } from "../ensemble/intervals.ts";
+import { inBagCounts, mean } from "../ensemble/intervals.ts";
 import normalQuantile from "@stdlib/stats-base-dists-normal-quantile";
 import { makeRng, randomBelow, type Rng, shuffle } from "../random.ts";
 import { applyValues, type FlatTree } from "../tree/flat_tree.ts";
@@ -317,7 +317,7 @@ function decomposeOne(
   one: OneGroup,
 ): GapDecomposition {
   const { y, groupCode, code, chances, width } = one;
-  const mean = (trees: FlatTree[], x: Float64Array, only: Int32Array) => {
+  const overTrees = (trees: FlatTree[], x: Float64Array, only: Int32Array) => {
     let sum = 0;
     for (let i = 0; i < only.length; i++) {
       const tree = trees[only[i]];
@@ -344,8 +344,8 @@ function decomposeOne(
     for (const r of rowsOf[side]) {
       reading.profile(r, x);
       const only = reading.oob[r];
-      const atReference = mean(asReference.trees, x, only);
-      const atGroup = mean(asGroup.trees, x, only);
+      const atReference = overTrees(asReference.trees, x, only);
+      const atGroup = overTrees(asGroup.trees, x, only);
       const fit = side === 0 ? atReference : atGroup;
       const s = sums[side];
       s.y += y[r];
@@ -364,7 +364,7 @@ function decomposeOne(
   const [nR, nG] = [rowsOf[0].length, rowsOf[1].length];
   const rawLog = sums[0].y / nR - sums[1].y / nG;
   const plugIn = (sums[0].diff + sums[1].diff) / total;
-  const value = meanOf(score);
+  const value = mean(score);
   let spread = 0;
   for (const s of score) spread += (s - value) ** 2;
   const se = Math.sqrt(spread / (total - 1) / total);
@@ -439,10 +439,4 @@ function someOf(trees: Int32Array, count: number, rng: Rng): Int32Array {
     copy[j] = t;
   }
   return copy.subarray(0, count);
-}
-
-function meanOf(values: ArrayLike<number>): number {
-  let sum = 0;
-  for (let i = 0; i < values.length; i++) sum += values[i];
-  return sum / values.length;
 }
