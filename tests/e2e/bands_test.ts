@@ -137,3 +137,30 @@ Deno.test("bands --posting: the range for one role, its comparable people, and t
   assert.equal(refused.code, 2);
   assert.match(refused.stderr, /objective criteria/);
 });
+
+Deno.test("bands on a table that does not fit the model: said in one message, no stack trace", async () => {
+  const lines = (await Deno.readTextFile(demo)).trim().split("\n");
+  const header = lines[0].split(",");
+  // A level the model never saw.
+  const levelAt = header.indexOf("level");
+  const odd = lines.slice(0, 30).map((line, i) => {
+    if (i !== 29) return line;
+    const cells = line.split(",");
+    cells[levelAt] = "G9";
+    return cells.join(",");
+  });
+  await Deno.writeTextFile(`${dir}/odd.csv`, odd.join("\n") + "\n");
+  const unseen = await paygrove(["bands", model, "--table", `${dir}/odd.csv`]);
+  assert.notEqual(unseen.code, 0);
+  assert.match(unseen.stderr, /"G9" the model never saw/);
+  // No pay column: the quartiles and who sits outside need current pay.
+  const payAt = header.indexOf("base_pay_eur");
+  const noPay = lines.slice(0, 30).map((line) =>
+    line.split(",").filter((_, c) => c !== payAt).join(",")
+  );
+  await Deno.writeTextFile(`${dir}/no_pay.csv`, noPay.join("\n") + "\n");
+  const withoutPay = await paygrove(["bands", model, "--table", `${dir}/no_pay.csv`]);
+  assert.equal(withoutPay.code, 2);
+  assert.match(withoutPay.stderr, /bands need current pay/);
+  for (const run of [unseen, withoutPay]) assert.doesNotMatch(run.stderr, /\bat .*\.ts:\d+/);
+});
