@@ -219,6 +219,7 @@ export {
   type BandTableOptions,
 } from "./lib/bands/band_table.ts";
 export { isTenureName, type PostingRange, postingRange } from "./lib/bands/posting_range.ts";
+export { type BandPosition, bandPositions } from "./lib/bands/band_positions.ts";
 export { type PayQuartile, payQuartiles, type RawGap, rawGaps } from "./lib/gap/raw_gaps.ts";
 export { type Suppression, suppressSmallGroups } from "./lib/gap/suppress.ts";
 export {

@@ -164,3 +164,150 @@ Deno.test("bands on a table that does not fit the model: said in one message, no
   assert.match(withoutPay.stderr, /bands need current pay/);
   for (const run of [unseen, withoutPay]) assert.doesNotMatch(run.stderr, /\bat .*\.ts:\d+/);
 });
+
+Deno.test("bands TABLE --target fits first: the same bands as fit, then bands on the model", async () => {
+  const alone = await paygrove([
+    "bands",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--currency",
+    "EUR",
+    "--trees",
+    "30",
+    "--workers",
+    "1",
+    "--json",
+  ]);
+  assert.equal(alone.code, 0, alone.stderr);
+  // The same default fit, by `fit`, then bands on its model file.
+  const defaults = `${dir}/defaults.model.json`;
+  const fit = await paygrove([
+    "fit",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--currency",
+    "EUR",
+    "--trees",
+    "30",
+    "--workers",
+    "1",
+    "--out",
+    defaults,
+  ]);
+  assert.equal(fit.code, 0, fit.stderr);
+  const two = await paygrove(["bands", defaults, "--table", demo, "--json"]);
+  assert.equal(two.code, 0, two.stderr);
+  const a = JSON.parse(alone.stdout);
+  const b = JSON.parse(two.stdout);
+  assert.equal(a.cells.length, b.cells.length);
+  a.cells.forEach((cell: { suppressed: boolean; band?: { mid: number } }, i: number) => {
+    assert.equal(cell.suppressed, b.cells[i].suppressed);
+    if (!cell.suppressed) {
+      assert(Math.abs(cell.band!.mid / b.cells[i].band.mid - 1) < 1e-9, `cell ${i}`);
+    }
+  });
+  // --target and --table together are two tables: refused before fitting.
+  const both = await paygrove(["bands", demo, "--target", "base_pay_eur", "--table", demo]);
+  assert.equal(both.code, 2);
+  assert.match(both.stderr, /give one/);
+  // The posting view from a table alone, refused before a fit when the role is missing.
+  const noRole = await paygrove(["bands", demo, "--target", "base_pay_eur", "--posting"]);
+  assert.equal(noRole.code, 2);
+  assert.match(noRole.stderr, /--posting needs the role/);
+});
+
+Deno.test("bands --people: everyone's place in the band, owner-only, never in the shared outputs", async () => {
+  const people = `${dir}/people.csv`;
+  const out = `${dir}/shared_bands.csv`;
+  const run = await paygrove([
+    "bands",
+    model,
+    "--table",
+    demo,
+    "--by",
+    "level,site",
+    "--people",
+    people,
+    "--out",
+    out,
+    "--json",
+  ]);
+  assert.equal(run.code, 0, run.stderr);
+  if (Deno.build.os !== "windows") {
+    assert.equal((await Deno.stat(people)).mode! & 0o777, 0o600);
+  }
+  const doc = JSON.parse(run.stdout);
+  const rows = parse(await Deno.readTextFile(people), { columns: true }) as Record<
+    string,
+    string
+  >[];
+  const table = parse(await Deno.readTextFile(demo), { columns: true }) as Record<
+    string,
+    string
+  >[];
+  assert.equal(rows.length, table.length);
+  // Row by row: the person's own pay and cell, compa-ratio and position from
+  // the band of their cell in the JSON, by hand.
+  for (let i = 0; i < rows.length; i++) {
+    const row = rows[i];
+    assert.equal(row.employee_id, table[i].employee_id);
+    assert.equal(Number(row.pay), Number(table[i].base_pay_eur));
+    const cell = doc.cells.find((c: { key: string[] }) =>
+      c.key[0] === row.level && c.key[1] === row.site
+    );
+    if (cell.suppressed) {
+      assert.equal(row.compa_ratio, "");
+      continue;
+    }
+    const pay = Number(row.pay);
+    assert(Math.abs(Number(row.compa_ratio) - pay / cell.band.mid) < 1e-6);
+    assert(
+      Math.abs(
+        Number(row.range_position) - (pay - cell.band.min) / (cell.band.max - cell.band.min),
+      ) < 1e-6,
+    );
+  }
+  // Nothing per person reaches what is shared: no compa-ratio or position
+  // column, and no one's pay as a figure, in the JSON or the band table.
+  for (const shared of [run.stdout, await Deno.readTextFile(out)]) {
+    assert.doesNotMatch(shared, /compa_ratio|range_position|FH1\d{4}/);
+  }
+  // The per-person file is never written over, nor onto the table or the model.
+  for (const target of [people, demo, model]) {
+    const again = await paygrove(["bands", model, "--table", demo, "--people", target]);
+    assert.equal(again.code, 2, target);
+  }
+});
+
+Deno.test("bands on CPS1985 and CPS1988 (no ladder: --by region), from the table alone", async () => {
+  for (const [file, by] of [["cps1985.csv", "region"], ["cps1988.csv", "region"]]) {
+    const run = await paygrove([
+      "bands",
+      `${ROOT}fixtures/${file}`,
+      "--target",
+      "wage",
+      "--by",
+      by,
+      "--trees",
+      "20",
+      "--json",
+    ]);
+    assert.equal(run.code, 0, run.stderr);
+    const doc = JSON.parse(run.stdout);
+    const shown = doc.cells.filter((c: { suppressed: boolean }) => !c.suppressed);
+    assert(shown.length >= 2, file);
+    for (const c of shown) {
+      assert(c.band.min < c.band.mid && c.band.mid < c.band.max, file);
+      // The band is built to hold 80% of the cell's people: inside it are
+      // between half and all of them (the held-out measure is in bench/).
+      const inside = 1 - (c.outside.below + c.outside.above) / c.people;
+      assert(inside > 0.5 && inside <= 1, `${file} ${c.key}: ${inside}`);
+    }
+    // No ladder: without --by, bands says what to give.
+    const noBy = await paygrove(["bands", `${ROOT}fixtures/${file}`, "--target", "wage"]);
+    assert.equal(noBy.code, 2);
+    assert.match(noBy.stderr, /--by/);
+  }
+});

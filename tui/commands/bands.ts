@@ -8,24 +8,52 @@
  */
 
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
+import wrapAnsi from "wrap-ansi";
 import {
   applySets,
   assertCanWrite,
+  bandPositions,
   bandTable,
   findFeature,
+  fitModel,
+  type Model,
   openModel,
   OptionError,
   postingRange,
+  sameFile,
   typicalProfile,
   writeFileAtomic,
 } from "../../mod.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
 import { readTableForModel } from "../profile_flags.ts";
-import { coverageOption, shareOption, wholeNumber } from "../option_values.ts";
-import { list, localeTag, type ReadFlags, withReadFlags } from "../table_flags.ts";
+import {
+  coverageOption,
+  MAX_TREES,
+  seedOption,
+  shareOption,
+  wholeNumber,
+} from "../option_values.ts";
+import {
+  list,
+  loadOptions,
+  localeTag,
+  type ReadFlags,
+  readTable,
+  withReadFlags,
+} from "../table_flags.ts";
+import { resolveColumnFlags } from "../column_names.ts";
+import { progressBar } from "../progress.ts";
+import { screenPayFlags } from "../data_check.ts";
+import { cappedWorkers } from "../workers.ts";
 import { printAnswer } from "../render/cautions.ts";
 import { moneyStyle } from "../render/model_view.ts";
-import { bandsCsv, bandsMarkdown, renderBands, renderPosting } from "../render/bands_view.ts";
+import {
+  bandPositionsCsv,
+  bandsCsv,
+  bandsMarkdown,
+  renderBands,
+  renderPosting,
+} from "../render/bands_view.ts";
 import { forMarkdown, forTerminal, terminalText } from "../render/safe_text.ts";
 import type { Terminal } from "../terminal.ts";
 
@@ -59,8 +87,22 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
       "Pay bands to publish per level (and family, site...): current pay, the model's band " +
         "(minimum, midpoint, maximum), spread, progression and who sits outside",
     )
-    .argument("<model>", "model file written by paygrove fit")
-    .option("--table <file>", "the table of current people, with pay (needed)")
+    .argument(
+      "<model>",
+      "model file written by paygrove fit; or, with --target, the pay table to fit first",
+    )
+    .option("--table <file>", "the table of current people, with pay (needed with a model file)")
+    .option(
+      "--target <column>",
+      "the argument is a pay table: fit a model on it first (default settings), with this pay column",
+    )
+    .option("--trees <n>", "trees when fitting first", wholeNumber(10, MAX_TREES), 200)
+    .option("--seed <s>", "seed of resamples when fitting first", seedOption, 1)
+    .option(
+      "--workers <n>",
+      "parallel workers when fitting first (default: one per core)",
+      wholeNumber(1),
+    )
     .option(
       "--by <columns>",
       "attributes whose combinations are the cells (default: the ladder)",
@@ -92,34 +134,62 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
       collectSets,
     )
     .option("--out <file>", "also write the band table as CSV")
+    .option(
+      "--people <file>",
+      "also write the analyst's per-person CSV (pay, compa-ratio, range position): " +
+        "everyone's pay, readable by you alone; never share it",
+    )
     .option("--report <file>", "also write a Markdown report")
     .option("--force", "replace an existing --out or --report file")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
       if (flags.posting === true) {
-        await postingAction(terminal, file, flags);
+        checkPostingFlags(flags);
+        const model = flags.target === undefined
+          ? await openModelFile(terminal, file, flags.analystFile)
+          : await fitFirst(terminal, file, { ...flags, target: flags.target });
+        await postingAction(terminal, model, {
+          ...flags,
+          set: flags.set!,
+          table: flags.table ?? (flags.target === undefined ? undefined : file),
+        });
         return;
       }
       if (flags.set !== undefined) {
         throw new OptionError("--set describes a role for --posting; add --posting");
       }
-      if (flags.table === undefined) {
+      if (flags.target !== undefined && flags.table !== undefined) {
+        throw new OptionError(
+          "--target fits on the table given first; --table goes with a model file: give one",
+        );
+      }
+      if (flags.target === undefined && flags.table === undefined) {
         throw new OptionError(
           "bands needs --table FILE: the model file holds no one's pay, and current pay " +
-            "(the quartiles, who sits outside a band, the cost) comes from the table",
+            "(the quartiles, who sits outside a band, the cost) comes from the table " +
+            "(or give the pay table itself with --target COLUMN to fit first)",
         );
       }
       if (flags.coverage !== undefined && flags.spread !== undefined) {
         throw new OptionError("--coverage and --spread are two ways to build a band: give one");
       }
-      for (const [option, path] of [["--out", flags.out], ["--report", flags.report]] as const) {
+      const tablePath = flags.table ?? file;
+      const outputs = [
+        ["--out", flags.out],
+        ["--report", flags.report],
+        ["--people", flags.people],
+      ] as const;
+      for (const [option, path] of outputs) {
         if (path !== undefined) {
-          await assertCanWrite(path, flags.force ?? false, option, [file, flags.table]);
+          await assertCanWrite(path, flags.force ?? false, option, [file, tablePath]);
         }
       }
-      const model = await openModelFile(terminal, file, flags.analystFile);
+      await assertApart(outputs);
+      const model = flags.target === undefined
+        ? await openModelFile(terminal, file, flags.analystFile)
+        : await fitFirst(terminal, file, { ...flags, target: flags.target });
       const by = flags.by ?? ladderOf(model.features);
-      const rows = await readTableForModel(model, flags.table, [], flags);
+      const rows = await readTableForModel(model, tablePath, [], flags);
       const table = bandTable(openModel(model), rows, {
         by,
         coverage: flags.coverage,
@@ -133,6 +203,13 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
           force: flags.force ?? false,
           option: "--out",
         });
+      }
+      if (flags.people !== undefined) {
+        await writeFileAtomic(
+          flags.people,
+          bandPositionsCsv(table.by, bandPositions(model, rows, table), rows.idColumn),
+          { force: flags.force ?? false, option: "--people", private: true },
+        );
       }
       if (flags.report !== undefined) {
         await writeFileAtomic(
@@ -155,9 +232,55 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
           ...[flags.out, flags.report].filter((p) => p !== undefined).map((p) =>
             `Written: ${terminalText(p!)}.`
           ),
+          ...(flags.people === undefined ? [] : wrapAnsi(
+            terminal.style.warn(
+              `Written: ${terminalText(flags.people)}, one row per person with their pay ` +
+                `(readable by you alone): keep it with the pay table, never share it.`,
+            ),
+            terminal.width,
+          ).split("\n")),
         ],
       );
     });
+}
+
+// No two outputs may be one file (the second would replace the first, or
+// the shared band table would take the per-person file's place).
+async function assertApart(outputs: readonly (readonly [string, string | undefined])[]) {
+  const given = outputs.filter((o): o is readonly [string, string] => o[1] !== undefined);
+  for (let i = 0; i < given.length; i++) {
+    for (let j = i + 1; j < given.length; j++) {
+      if (await sameFile(given[i][1], given[j][1])) {
+        throw new OptionError(`${given[j][0]}: ${given[j][1]} is the ${given[i][0]} file`);
+      }
+    }
+  }
+}
+
+// `bands TABLE --target COLUMN`: a model fitted on the table first, with
+// the default settings, as `fit` would (the same screening of pay).
+async function fitFirst(
+  terminal: Terminal,
+  file: string,
+  flags: ReadFlags & { target: string; trees: number; seed: number; workers?: number },
+): Promise<Model> {
+  const options = loadOptions(flags, file);
+  const progress = progressBar(terminal);
+  const read = await readTable(file, options, progress);
+  Object.assign(flags, resolveColumnFlags(read, flags, terminal));
+  const { table } = screenPayFlags(read, [{ column: flags.target, moneyOnly: true }], false);
+  try {
+    return await fitModel(table, {
+      target: flags.target,
+      trees: flags.trees,
+      seed: flags.seed,
+      workers: cappedWorkers(flags.workers, flags.trees, terminal.err),
+      loadOptions: options,
+      onProgress: (stage, done, total) => progress.update(stage, done, total),
+    });
+  } finally {
+    progress.finish();
+  }
 }
 
 // The ordinal ladder column (the first ordinal attribute), else a refusal
@@ -176,12 +299,43 @@ function collectSets(value: string, previous: string[] = []): string[] {
   return [...previous, value];
 }
 
+// What `--posting` needs and takes, checked before any fitting.
+function checkPostingFlags(
+  flags: {
+    set?: string[];
+    target?: string;
+    table?: string;
+    spread?: number;
+    out?: string;
+    report?: string;
+    people?: string;
+  },
+): void {
+  if (flags.set === undefined || flags.set.length === 0) {
+    throw new OptionError(
+      "--posting needs the role: --set level=G3 --set job_family=Sales (the attributes " +
+        "that define it)",
+    );
+  }
+  if (
+    flags.spread !== undefined || flags.out !== undefined || flags.report !== undefined ||
+    flags.people !== undefined
+  ) {
+    throw new OptionError("--posting takes --set, --table, --coverage and --json only");
+  }
+  if (flags.target !== undefined && flags.table !== undefined) {
+    throw new OptionError(
+      "--target fits on the table given first; --table goes with a model file: give one",
+    );
+  }
+}
+
 // `bands --posting --set ...`: the range to post for one role.
 async function postingAction(
   terminal: Terminal,
-  file: string,
+  model: Model,
   flags: ReadFlags & {
-    set?: string[];
+    set: string[];
     table?: string;
     coverage?: number;
     spread?: number;
@@ -193,16 +347,6 @@ async function postingAction(
     report?: string;
   },
 ): Promise<void> {
-  if (flags.set === undefined || flags.set.length === 0) {
-    throw new OptionError(
-      "--posting needs the role: --set level=G3 --set job_family=Sales (the attributes " +
-        "that define it)",
-    );
-  }
-  if (flags.spread !== undefined || flags.out !== undefined || flags.report !== undefined) {
-    throw new OptionError("--posting takes --set, --table, --coverage and --json only");
-  }
-  const model = await openModelFile(terminal, file, flags.analystFile);
   const { profile } = applySets(model, typicalProfile(model), flags.set);
   const named = flags.set.map((text) =>
     model.features[findFeature(model, text.split("=")[0], "--set")].name

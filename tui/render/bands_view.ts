@@ -8,7 +8,7 @@
  */
 
 import wrapAnsi from "wrap-ansi";
-import type { BandCell, BandTable, PostingRange } from "../../mod.ts";
+import type { BandCell, BandPosition, BandTable, PostingRange } from "../../mod.ts";
 import { bandChart } from "./charts.ts";
 import { fitTable } from "./fit_table.ts";
 import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
@@ -376,4 +376,66 @@ export function renderPosting(posting: PostingRange, view: BandsView): string[] 
     ...wrap(style.dim(view.brief === true ? BANDS_CAUTIONS_SHORT : BANDS_CAUTIONS)),
   );
   return lines;
+}
+
+/**
+ * The analyst's per-person file as CSV: each person's cell, pay, band,
+ * compa-ratio, range position and place (one person's pay in several
+ * forms: for the analyst alone, written readable by its owner only). Every
+ * cell formula-safe; people of a hidden cell have no band.
+ *
+ * @param idColumn The identifier column's name; without one, each row is
+ * named by its line in the file (`line`, the header being line 1).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bandPositionsCsv } from "./bands_view.ts";
+ * const band = { min: 40000, mid: 50000, max: 60000 };
+ * const csv = bandPositionsCsv(["level"], [
+ *   { row: 0, id: "E1", key: ["G2"], pay: 45000, band, compaRatio: 0.9, rangePosition: 0.25, place: "inside" },
+ *   { row: 1, id: "+E2", key: ["G9"], pay: 70000, band: null, compaRatio: null, rangePosition: null, place: null },
+ * ], "employee_id");
+ * const lines = csv.trim().split("\n");
+ * assert.equal(lines[0], "employee_id,level,pay,band_min,band_mid,band_max,compa_ratio,range_position,place");
+ * assert.equal(lines[1], "E1,G2,45000.00,40000.00,50000.00,60000.00,0.900000,0.250000,inside");
+ * assert.equal(lines[2], `"'+E2",G9,70000.00,,,,,,`);
+ * assert.equal(bandPositionsCsv(["level"], [], undefined).split(",")[0], "line");
+ * ```
+ */
+export function bandPositionsCsv(
+  by: readonly string[],
+  people: readonly BandPosition[],
+  idColumn: string | undefined,
+): string {
+  const head = [
+    idColumn ?? "line",
+    ...by,
+    "pay",
+    "band_min",
+    "band_mid",
+    "band_max",
+    "compa_ratio",
+    "range_position",
+    "place",
+  ];
+  const lines = [head.map(csvCell).join(",")];
+  const cents = (v: number) => v.toFixed(2);
+  for (const p of people) {
+    const b = p.band;
+    lines.push(
+      [
+        idColumn === undefined ? String(p.row + 2) : p.id,
+        ...p.key,
+        cents(p.pay),
+        b === null ? "" : cents(b.min),
+        b === null ? "" : cents(b.mid),
+        b === null ? "" : cents(b.max),
+        p.compaRatio === null ? "" : p.compaRatio.toFixed(6),
+        p.rangePosition === null ? "" : p.rangePosition.toFixed(6),
+        p.place ?? "",
+      ].map(csvCell).join(","),
+    );
+  }
+  return lines.join("\n") + "\n";
 }
