@@ -36,7 +36,8 @@ export interface BandPosition {
 
 /**
  * Every person with pay in the table, in table order, placed in the band of
- * their cell of `table` (built by `bandTable` from the same rows).
+ * their cell of `table` (built by `bandTable` from the same rows); rows the
+ * model cannot score (`rows.refused`) are left out, as the table leaves them.
  *
  * @example
  * ```ts
@@ -63,8 +64,9 @@ export function bandPositions(model: Model, rows: ModelRows, table: BandTable): 
   const pay = rows.target;
   if (pay === null) return [];
   const out: BandPosition[] = [];
+  const refused = new Set((rows.refused ?? []).map((x) => x.row));
   for (let r = 0; r < rows.rows; r++) {
-    if (!(pay[r] > 0)) continue;
+    if (!(pay[r] > 0) || refused.has(r)) continue;
     const codes = byIndex.map((j) => rows.features[j][r]);
     if (codes.some(Number.isNaN)) continue;
     const key = codes.map((code, i) => model.features[byIndex[i]].levels![code]);

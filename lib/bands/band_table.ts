@@ -112,6 +112,11 @@ export interface BandTable {
   ladders: { key: string[]; levels: string[]; progression: number[]; overlap: number[] }[];
   /** Rows of the table without pay, left out. */
   withoutPay: number;
+  /**
+   * Rows left out because the model cannot score them (a level it never
+   * saw), and the first of them; none when every row could be read.
+   */
+  notScored: { rows: number; first: { line: number; reasons: string[] } | null };
 }
 
 /**
@@ -183,7 +188,9 @@ export function bandTable(
   // in the sort so a ladder's levels sit together.
   const cellOf = new Map<string, number[]>();
   let withoutPay = 0;
+  const refused = new Set((rows.refused ?? []).map((x) => x.row));
   for (let r = 0; r < rows.rows; r++) {
+    if (refused.has(r)) continue;
     if (!(pay[r] > 0) || byIndex.some((j) => Number.isNaN(rows.features[j][r]))) {
       withoutPay++;
       continue;
@@ -313,6 +320,12 @@ export function bandTable(
     smoothed,
     ladders,
     withoutPay,
+    notScored: {
+      rows: refused.size,
+      first: rows.refused?.[0] === undefined
+        ? null
+        : { line: rows.refused[0].line, reasons: rows.refused[0].reasons },
+    },
   };
 }
 

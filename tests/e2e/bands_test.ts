@@ -150,9 +150,34 @@ Deno.test("bands on a table that does not fit the model: said in one message, no
     return cells.join(",");
   });
   await Deno.writeTextFile(`${dir}/odd.csv`, odd.join("\n") + "\n");
+  // The other rows are banded; the screen and the JSON say one was left out.
   const unseen = await paygrove(["bands", model, "--table", `${dir}/odd.csv`]);
-  assert.notEqual(unseen.code, 0);
-  assert.match(unseen.stderr, /"G9" the model never saw/);
+  assert.equal(unseen.code, 0, unseen.stderr);
+  assert.match(unseen.stdout.replace(/\s+/g, " "), /1 row left out: the model cannot score/);
+  assert.match(unseen.stdout.replace(/\s+/g, " "), /line 30: .*"G9"/);
+  const unseenJson = await paygrove(["bands", model, "--table", `${dir}/odd.csv`, "--json"]);
+  const doc = JSON.parse(unseenJson.stdout);
+  assert.equal(doc.notScored.rows, 1);
+  assert.equal(doc.notScored.first.line, 30);
+  const counted = doc.cells.reduce(
+    (n: number, c: { people?: number }) => n + (c.people ?? 0),
+    0,
+  );
+  assert(counted <= 28, `${counted} people banded of the 28 the model can score`);
+  assert(!doc.cells.some((c: { key: string[] }) => c.key.includes("G9")));
+  // Every row at a level the model never saw: the whole table is refused.
+  const allOdd = [
+    lines[0],
+    ...lines.slice(1, 8).map((line) => {
+      const cells = line.split(",");
+      cells[levelAt] = "G9";
+      return cells.join(",");
+    }),
+  ];
+  await Deno.writeTextFile(`${dir}/all_odd.csv`, allOdd.join("\n") + "\n");
+  const allUnseen = await paygrove(["bands", model, "--table", `${dir}/all_odd.csv`]);
+  assert.equal(allUnseen.code, 1);
+  assert.match(allUnseen.stderr, /"G9" the model never saw/);
   // No pay column: the quartiles and who sits outside need current pay.
   const payAt = header.indexOf("base_pay_eur");
   const noPay = lines.slice(0, 30).map((line) =>
@@ -162,7 +187,7 @@ Deno.test("bands on a table that does not fit the model: said in one message, no
   const withoutPay = await paygrove(["bands", model, "--table", `${dir}/no_pay.csv`]);
   assert.equal(withoutPay.code, 2);
   assert.match(withoutPay.stderr, /bands need current pay/);
-  for (const run of [unseen, withoutPay]) assert.doesNotMatch(run.stderr, /\bat .*\.ts:\d+/);
+  for (const run of [allUnseen, withoutPay]) assert.doesNotMatch(run.stderr, /\bat .*\.ts:\d+/);
 });
 
 Deno.test("bands TABLE --target fits first: the same bands as fit, then bands on the model", async () => {

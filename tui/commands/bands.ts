@@ -17,9 +17,11 @@ import {
   findFeature,
   fitModel,
   type Model,
+  type ModelRows,
   openModel,
   OptionError,
   postingRange,
+  RowsRefusedError,
   sameFile,
   typicalProfile,
   writeFileAtomic,
@@ -189,7 +191,9 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
         ? await openModelFile(terminal, file, flags.analystFile)
         : await fitFirst(terminal, file, { ...flags, target: flags.target });
       const by = flags.by ?? ladderOf(model.features);
-      const rows = await readTableForModel(model, tablePath, [], flags);
+      // A level the model never saw in some rows: the others are banded, and
+      // the screen says how many were left out (all refused: the refusal).
+      const rows = await readTableForModel(model, tablePath, [], flags).catch(bandTheOthers);
       const table = bandTable(openModel(model), rows, {
         by,
         coverage: flags.coverage,
@@ -242,6 +246,14 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
         ],
       );
     });
+}
+
+function bandTheOthers(error: unknown): ModelRows {
+  if (
+    error instanceof RowsRefusedError && error.rows.refused !== undefined &&
+    error.rows.refused.length < error.rows.rows
+  ) return error.rows;
+  throw error;
 }
 
 // No two outputs may be one file (the second would replace the first, or

@@ -164,6 +164,8 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
     );
   }
   lines.push(...fitted.lines, "");
+  const leftOut = leftOutWords(table);
+  if (leftOut.length > 0) lines.push(...leftOut.flatMap((text) => wrap(style.warn(text))), "");
 
   const shown = table.cells.filter((c): c is Shown => !c.suppressed);
   if (shown.length > 0 && view.chart !== false) {
@@ -226,7 +228,7 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
  * import { bandsMarkdown } from "./bands_view.ts";
  * const table = {
  *   by: ["level"], method: { kind: "coverage" as const, coverage: 0.8 }, privacyMin: 5,
- *   newHire: false, smoothed: false, withoutPay: 0, ladders: [],
+ *   newHire: false, smoothed: false, withoutPay: 0, ladders: [], notScored: { rows: 0, first: null },
  *   cells: [{ key: ["G1"], suppressed: true as const }],
  * };
  * const md = bandsMarkdown(table, {}, "2026-12-03T10:00:00Z");
@@ -246,6 +248,8 @@ export function bandsMarkdown(table: BandTable, money: NumberStyle, created: str
   ];
   for (const c of table.cells) md.push(`| ${cellFigures(c, money).join(" | ")} |`);
   md.push("");
+  const left = leftOutWords(table);
+  if (left.length > 0) md.push(...left, "");
   return md.join("\n");
 }
 
@@ -258,7 +262,7 @@ export function bandsMarkdown(table: BandTable, money: NumberStyle, created: str
  * import { bandsCsv } from "./bands_view.ts";
  * const csv = bandsCsv({
  *   by: ["level"], method: { kind: "spread" as const, spread: 0.4 }, privacyMin: 5,
- *   newHire: false, smoothed: false, withoutPay: 0, ladders: [],
+ *   newHire: false, smoothed: false, withoutPay: 0, ladders: [], notScored: { rows: 0, first: null },
  *   cells: [{ key: ["=G1"], suppressed: true as const }],
  * });
  * assert.equal(csv.split("\n")[1], `"'=G1",true,,,,,,,,,,,,,`); // quoted, apostrophed
@@ -438,4 +442,38 @@ export function bandPositionsCsv(
     );
   }
   return lines.join("\n") + "\n";
+}
+
+/**
+ * The rows of the table a band table leaves out, in words: those without
+ * pay and those the model cannot score (a level it never saw).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { leftOutWords } from "./bands_view.ts";
+ * const words = leftOutWords({
+ *   withoutPay: 2,
+ *   notScored: { rows: 3, first: { line: 31, reasons: ['level "G9" the model never saw'] } },
+ * });
+ * assert.equal(words.length, 2);
+ * assert.match(words[1], /3 rows left out: the model cannot score them \(first, line 31: level "G9"/);
+ * assert.deepEqual(leftOutWords({ withoutPay: 0, notScored: { rows: 0, first: null } }), []);
+ * ```
+ */
+export function leftOutWords(table: Pick<BandTable, "withoutPay" | "notScored">): string[] {
+  const out: string[] = [];
+  const rows = (n: number) => `${formatNumber(n, {}, 0)} ${n === 1 ? "row" : "rows"}`;
+  if (table.withoutPay > 0) {
+    out.push(`${rows(table.withoutPay)} without pay (or a --by value) left out.`);
+  }
+  const { rows: count, first } = table.notScored;
+  if (count > 0 && first !== null) {
+    out.push(
+      `${rows(count)} left out: the model cannot score ${count === 1 ? "it" : "them"} ` +
+        `(${count === 1 ? "" : "first, "}line ${first.line}: ` +
+        `${first.reasons.join("; ")}). The bands rest on the other rows.`,
+    );
+  }
+  return out;
 }
