@@ -47,7 +47,9 @@ import { resolveColumnFlags } from "../column_names.ts";
 import { progressBar } from "../progress.ts";
 import { screenPayFlags } from "../data_check.ts";
 import { cappedWorkers } from "../workers.ts";
-import { printAnswer } from "../render/cautions.ts";
+import { ANSWER_CAUTIONS, printAnswer, provenanceLine } from "../render/cautions.ts";
+import { bandsHtml } from "../render/html/bands_html.ts";
+import { isHtmlPath } from "../render/html/page.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import {
   bandPositionsCsv,
@@ -141,7 +143,7 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
       "also write the analyst's per-person CSV (pay, compa-ratio, range position): " +
         "everyone's pay, readable by you alone; never share it",
     )
-    .option("--report <file>", "also write a Markdown report")
+    .option("--report <file>", "also write a report: HTML for a .html name, else Markdown")
     .option("--force", "replace an existing --out or --report file")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
@@ -216,9 +218,12 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
         );
       }
       if (flags.report !== undefined) {
+        const created = new Date().toISOString();
         await writeFileAtomic(
           flags.report,
-          bandsMarkdown(forMarkdown(table), money, new Date().toISOString()),
+          isHtmlPath(flags.report)
+            ? bandsHtml(table, money, created, [provenanceLine(model.provenance)], ANSWER_CAUTIONS)
+            : bandsMarkdown(forMarkdown(table), money, created),
           { force: flags.force ?? false, option: "--report" },
         );
       }

@@ -49,9 +49,21 @@ type Shown = Extract<BandCell, { suppressed: false }>;
 /** What a cell too small to show says in place of its figures. */
 const TOO_FEW = "too few to report";
 
-// One cell's row of the table, in the columns of the text and the report:
-// cell, people, current p25, median, p75, band min, mid, max, spread, below, above.
-function cellFigures(c: BandCell, money: NumberStyle): string[] {
+/**
+ * One cell's row of the table, in the columns of the text and the reports:
+ * cell, people, current p25, median, p75, band min, mid, max, spread,
+ * below, above; a hidden cell says "too few to report" and nothing else.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bandCellTexts } from "./bands_view.ts";
+ * assert.deepEqual(bandCellTexts({ key: ["G1", "Sales"], suppressed: true }, {}).slice(0, 3), [
+ *   "G1 / Sales", "too few to report", "",
+ * ]);
+ * ```
+ */
+export function bandCellTexts(c: BandCell, money: NumberStyle): string[] {
   if (c.suppressed) return [c.key.join(" / "), TOO_FEW, "", "", "", "", "", "", "", "", ""];
   const pay = (v: number) => formatPay(v, money);
   return [
@@ -86,7 +98,18 @@ export const BANDS_CAUTIONS = "These bands are a proposal to review, learned fro
   "local law decides what a posting must say (Directive (EU) 2023/970, Art. 5, as each member " +
   "state transposes it; US state posting laws). This is not legal advice.";
 
-function methodWords(table: BandTable, money: NumberStyle): string {
+/**
+ * How the bands were built, in one sentence without its full stop.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { bandMethodWords } from "./bands_view.ts";
+ * const table = { method: { kind: "spread" as const, spread: 0.4 } };
+ * assert.match(bandMethodWords(table as never, {}), /^Each band a 40(\.0)?% spread/);
+ * ```
+ */
+export function bandMethodWords(table: BandTable, money: NumberStyle): string {
   return table.method.kind === "coverage"
     ? `Each band built to hold ${
       formatPercent(table.method.coverage, false, money)
@@ -123,7 +146,7 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
   const lines: string[] = [
     ...wrap(style.bold(`Pay bands by ${table.by.join(" x ")}`)),
     ...wrap(style.dim(
-      `${methodWords(table, money)}.` + (view.brief === true ? "" : ` Current pay: each ` +
+      `${bandMethodWords(table, money)}.` + (view.brief === true ? "" : ` Current pay: each ` +
         `quartile the mean of the ${table.privacyMin} people nearest it; cells of fewer than ` +
         `${table.privacyMin} people show nothing.`),
     )),
@@ -142,7 +165,7 @@ export function renderBands(table: BandTable, view: BandsView): string[] {
     "below",
     "above",
   ];
-  const rows = table.cells.map((c) => cellFigures(c, money));
+  const rows = table.cells.map((c) => bandCellTexts(c, money));
   const fitted = fitTable({
     width,
     head,
@@ -239,14 +262,14 @@ export function bandsMarkdown(table: BandTable, money: NumberStyle, created: str
   const md = [
     `# Pay bands by ${table.by.join(" x ")}`,
     "",
-    `Written ${created}. ${methodWords(table, money)}.`,
+    `Written ${created}. ${bandMethodWords(table, money)}.`,
     "",
     `> ${BANDS_CAUTIONS}`,
     "",
     "| cell | people | current p25 | median | p75 | min | mid | max | spread | below | above |",
     "| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
   ];
-  for (const c of table.cells) md.push(`| ${cellFigures(c, money).join(" | ")} |`);
+  for (const c of table.cells) md.push(`| ${bandCellTexts(c, money).join(" | ")} |`);
   md.push("");
   const left = leftOutWords(table);
   if (left.length > 0) md.push(...left, "");

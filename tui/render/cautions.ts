@@ -24,11 +24,24 @@ import type { Style } from "./style.ts";
  * ```
  */
 export function cautionLines(style: Style, width: number): string[] {
-  const text = "These figures describe what your current pay structure does, not what anyone " +
-    "should be paid. Protected attributes are kept out of estimates unless you allowed them. " +
-    "Defer to local law, counsel and licensed practice before acting on any figure.";
-  return wrapAnsi(style.dim(text), width).split("\n");
+  return wrapAnsi(style.dim(ANSWER_CAUTIONS), width).split("\n");
 }
+
+/**
+ * The usual cautions of every pay answer, in one paragraph (the terminal
+ * wraps it; a report shows it as it is).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { ANSWER_CAUTIONS } from "./cautions.ts";
+ * assert.match(ANSWER_CAUTIONS, /not what anyone should be paid/);
+ * ```
+ */
+export const ANSWER_CAUTIONS =
+  "These figures describe what your current pay structure does, not what anyone " +
+  "should be paid. Protected attributes are kept out of estimates unless you allowed them. " +
+  "Defer to local law, counsel and licensed practice before acting on any figure.";
 
 /**
  * One line naming where a result came from.

@@ -32,8 +32,8 @@ Deno.test("compa-ratio and range position by hand; places add up to the table's 
     }
     assert.equal(inCell.length, cell.people);
     let below = 0, above = 0, cost = 0;
+    const { min, mid, max }: { min: number; mid: number; max: number } = cell.band;
     for (const p of inCell) {
-      const { min, mid, max } = cell.band;
       // 1,000 paid at a midpoint of 1,250 is a compa-ratio of 0.8, and so on.
       assert(Math.abs(p.compaRatio! - p.pay / mid) < 1e-12);
       assert(Math.abs(p.rangePosition! - (p.pay - min) / (max - min)) < 1e-12);
