@@ -17,8 +17,12 @@ const dir = await Deno.makeTempDir({ prefix: "paygrove-browser-" });
 const demo = `${ROOT}fixtures/demo_company.csv`;
 const model = `${dir}/demo.model.json`;
 
+// Fitted once, by whichever test needs it first.
+let fitted = false;
 async function fitDemo(): Promise<void> {
-  const fitted = await paygrove([
+  if (fitted) return;
+  fitted = true;
+  const run = await paygrove([
     "fit",
     demo,
     "--target",
@@ -32,7 +36,7 @@ async function fitDemo(): Promise<void> {
     "--out",
     model,
   ]);
-  assert.equal(fitted.code, 0, fitted.stderr);
+  assert.equal(run.code, 0, run.stderr);
 }
 
 // The report's charts alone, each at a known place: the page's head (its
@@ -134,5 +138,50 @@ Deno.test({
     assert.equal(run.code, 0, run.stderr);
     const ink = await checkInBrowser(report, 4);
     assert.equal(ink.length, 1);
+  },
+});
+
+Deno.test({
+  name: "every other report kind in Chromium: fit, estimate, compare, sweep, gap",
+  ignore,
+  async fn() {
+    await fitDemo();
+    const profile = ["--set", "level=G4", "--set", "job_family=Sales"];
+    const runs: [string, string[], number][] = [
+      ["fit", [
+        "fit",
+        demo,
+        "--target",
+        "base_pay_eur",
+        "--trees",
+        "20",
+        "--folds",
+        "3",
+        "--out",
+        `${dir}/f.model.json`,
+      ], 3],
+      ["estimate", ["estimate", model, ...profile, "--offer", "70k"], 4],
+      ["compare", ["compare", model, ...profile, "--change", "level=+1"], 3],
+      ["sweep", ["sweep", model, ...profile, "--vary", "years_experience"], 3],
+      ["gap", [
+        "gap",
+        demo,
+        "--target",
+        "base_pay_eur",
+        "--group",
+        "gender",
+        "--within",
+        "level",
+        "--trees",
+        "20",
+      ], 6],
+    ];
+    for (const [kind, args, maxPages] of runs) {
+      const report = `${dir}/${kind}.html`;
+      const run = await paygrove([...args, "--report", report]);
+      assert.equal(run.code, 0, `${kind}: ${run.stderr}`);
+      const ink = await checkInBrowser(report, maxPages);
+      assert(ink.length >= 1, kind);
+    }
   },
 });

@@ -252,3 +252,241 @@ Deno.test("bands --report .html: the people of hidden cells leave no trace in th
   }
   assert.equal(pages[0], pages[1]);
 });
+
+// Every data-value of a page, in document order.
+// deno-lint-ignore no-explicit-any
+const valuesOf = (node: any): number[] =>
+  [...node.querySelectorAll("[data-value]")].map((el) => Number(el.getAttribute("data-value")));
+
+// The table of a page whose caption starts with `caption`.
+// deno-lint-ignore no-explicit-any
+function tableCaptioned(page: any, caption: string): any {
+  const table = [...page.querySelectorAll("table")].find((t) =>
+    t.querySelector("caption")?.textContent.startsWith(caption)
+  );
+  assert(table !== undefined, `a table captioned "${caption}"`);
+  return table;
+}
+
+Deno.test("estimate, compare and sweep --report .html: their figures are the JSON's", async () => {
+  const profile = ["--set", "level=G4", "--set", "job_family=Sales"];
+  const est = await paygrove([
+    "estimate",
+    model,
+    ...profile,
+    "--offer",
+    "70k",
+    "--report",
+    `${dir}/estimate.html`,
+    "--json",
+  ]);
+  assert.equal(est.code, 0, est.stderr);
+  const e = JSON.parse(est.stdout);
+  const ePage = dom(await Deno.readTextFile(`${dir}/estimate.html`));
+  assert.deepEqual(outsideReferences(await Deno.readTextFile(`${dir}/estimate.html`)), []);
+  assert.deepEqual(valuesOf(tableCaptioned(ePage, "The estimate and its intervals")), [
+    e.estimate,
+    e.confidence.low,
+    e.confidence.high,
+    e.range.low,
+    e.range.high,
+  ]);
+  assert.deepEqual(
+    valuesOf(tableCaptioned(ePage, "Each attribute's part")),
+    e.contributions.parts.flatMap((p: { percent: number; money: number }) => [p.percent, p.money]),
+  );
+  assert.deepEqual(
+    valuesOf(tableCaptioned(ePage, "Where the offer sits")),
+    [
+      e.offer.offerToEstimate,
+      e.offer.rangePosition,
+      e.offer.shareBelow,
+      e.offer.reach.estimate.offer,
+    ],
+  );
+  assert.deepEqual(
+    valuesOf(tableCaptioned(ePage, "Each condition")),
+    e.path.flatMap((p: { rows: number; value: number }) => [p.rows, p.value]),
+  );
+  // The histogram's counts are the trees.
+  const counts = valuesOf(tableCaptioned(ePage, "Trees per span")).filter((_, i) => i % 3 === 2);
+  assert.equal(counts.reduce((a, b) => a + b, 0), e.trees.length);
+
+  const cmp = await paygrove([
+    "compare",
+    model,
+    ...profile,
+    "--change",
+    "level=+1",
+    "--report",
+    `${dir}/compare.html`,
+    "--json",
+  ]);
+  assert.equal(cmp.code, 0, cmp.stderr);
+  const c = JSON.parse(cmp.stdout);
+  const cPage = dom(await Deno.readTextFile(`${dir}/compare.html`));
+  const d = c.difference;
+  assert.deepEqual(valuesOf(tableCaptioned(cPage, "The base, the changed profile")), [
+    c.base.estimate,
+    c.base.confidence.low,
+    c.base.confidence.high,
+    c.base.range.low,
+    c.base.range.high,
+    c.changed.estimate,
+    c.changed.confidence.low,
+    c.changed.confidence.high,
+    c.changed.range.low,
+    c.changed.range.high,
+    d.estimate,
+    d.low,
+    d.high,
+    d.relative.estimate,
+    d.relative.low,
+    d.relative.high,
+  ]);
+
+  const sw = await paygrove([
+    "sweep",
+    model,
+    ...profile,
+    "--vary",
+    "level",
+    "--report",
+    `${dir}/sweep.html`,
+    "--json",
+  ]);
+  assert.equal(sw.code, 0, sw.stderr);
+  const s = JSON.parse(sw.stdout);
+  const sPage = dom(await Deno.readTextFile(`${dir}/sweep.html`));
+  assert.deepEqual(
+    valuesOf(tableCaptioned(sPage, "The estimate at each level")),
+    s.points.flatMap((
+      p: {
+        estimate: number;
+        confidence: { low: number; high: number };
+        range: { low: number; high: number };
+      },
+    ) => [
+      p.estimate,
+      p.confidence.low,
+      p.confidence.high,
+      p.range.low,
+      p.range.high,
+    ]),
+  );
+  // A report name that is not HTML is refused before any work.
+  const md = await paygrove(["estimate", model, "--report", `${dir}/e.md`]);
+  assert.equal(md.code, 2);
+  assert.match(md.stderr, /name the file \.html/);
+});
+
+Deno.test("fit and gap --report .html: their figures are the JSON's", async () => {
+  const fitRun = await paygrove([
+    "fit",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--trees",
+    "20",
+    "--folds",
+    "3",
+    "--out",
+    `${dir}/f.model.json`,
+    "--report",
+    `${dir}/fit.html`,
+    "--json",
+  ]);
+  assert.equal(fitRun.code, 0, fitRun.stderr);
+  const f = JSON.parse(fitRun.stdout);
+  const fHtml = await Deno.readTextFile(`${dir}/fit.html`);
+  assert.deepEqual(outsideReferences(fHtml), []);
+  const fPage = dom(fHtml);
+  const q = f.quality;
+  assert.deepEqual(valuesOf(tableCaptioned(fPage, "Accuracy on rows")), [
+    ...[q.constant, q.linear, q.reference, q.ensemble].flatMap((a) => [
+      a.money.rmse,
+      a.money.mae,
+      a.money.r2,
+    ]),
+  ]);
+  const importance = valuesOf(tableCaptioned(fPage, "Importance of each attribute"));
+  const sorted = [...f.importance].sort((a, b) => b.permutation - a.permutation);
+  assert.deepEqual(
+    importance,
+    sorted.flatMap((i: { permutation: number; permutationSd: number; impurity: number }) => [
+      i.permutation,
+      i.permutationSd,
+      i.impurity,
+    ]),
+  );
+  // The report is not the model file, in any spelling.
+  const same = await paygrove([
+    "fit",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--out",
+    `${dir}/same.html`,
+    "--report",
+    `${dir}/./same.html`,
+  ]);
+  assert.equal(same.code, 2);
+
+  const gapRun = await paygrove([
+    "gap",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--group",
+    "gender",
+    "--within",
+    "level",
+    "--trees",
+    "20",
+    "--report",
+    `${dir}/gap.html`,
+    "--json",
+  ]);
+  assert.equal(gapRun.code, 0, gapRun.stderr);
+  const g = JSON.parse(gapRun.stdout);
+  const gHtml = await Deno.readTextFile(`${dir}/gap.html`);
+  assert.deepEqual(outsideReferences(gHtml), []);
+  const gPage = dom(gHtml);
+  const figures = (
+    x: {
+      rows: number;
+      rawMean: number;
+      rawMedian: number;
+      adjusted: number;
+      low: number;
+      high: number;
+    },
+  ) => [
+    x.rows,
+    x.rawMean,
+    x.rawMedian,
+    x.adjusted,
+    x.low,
+    x.high,
+  ];
+  assert.deepEqual(
+    valuesOf(tableCaptioned(gPage, "Gaps against Man, everyone")),
+    g.overall.gaps.flatMap(figures),
+  );
+  assert.deepEqual(
+    valuesOf(tableCaptioned(gPage, "Gaps against Man per category")),
+    g.categories.filter((c: { suppressed: boolean }) => !c.suppressed).flatMap((c: { gaps: [] }) =>
+      c.gaps.flatMap(figures)
+    ),
+  );
+  // A category too small to report shows its name and nothing else.
+  const hidden = g.categories.filter((c: { suppressed: boolean }) => c.suppressed);
+  assert(hidden.length > 0);
+  const rows = [...tableCaptioned(gPage, "Gaps against Man per category").querySelectorAll("tr")];
+  for (const c of hidden) {
+    const row = rows.find((r) => r.querySelector("td")?.textContent === c.name);
+    assert.equal(row.querySelectorAll("td").length, 2);
+    assert.equal(row.querySelectorAll("[data-value]").length, 0);
+  }
+  assert.match(gHtml, /not proof of discrimination/);
+});

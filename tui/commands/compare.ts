@@ -12,7 +12,9 @@ import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderCompare } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
 import { wordedNotes } from "../render/answer_notes.ts";
-import { forTerminal } from "../render/safe_text.ts";
+import { forTerminal, terminalText } from "../render/safe_text.ts";
+import { compareSections } from "../render/html/compare_html.ts";
+import { checkHtmlReport, withHtmlReport, writeHtmlReport } from "../report_file.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
 
@@ -44,14 +46,14 @@ import type { Terminal } from "../terminal.ts";
  * ```
  */
 export function compareCommand(terminal: Terminal): CommandUnknownOpts {
-  return withProfileFlags(
+  return withHtmlReport(withProfileFlags(
     new Command("compare")
       .description(
         "Compare a profile before and after a change (level=+1 is a promotion): the change in " +
           "pay with its interval, and where the decision path changes",
       )
       .argument("<model>", "model file written by paygrove fit"),
-  )
+  ))
     .option(
       "--change <column=value>",
       "the change to make; +N or -N moves an ordinal N steps, adds to a number (repeatable)",
@@ -60,6 +62,9 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
     .action(async (file, flags) => {
       if (flags.change === undefined || flags.change.length === 0) {
         throw new OptionError("compare needs at least one --change COLUMN=VALUE");
+      }
+      if (flags.report !== undefined) {
+        await checkHtmlReport(flags.report, flags.force ?? false, [file, flags.table ?? file]);
       }
       const model = await openModelFile(terminal, file, flags.analystFile);
       const session = openModel(model);
@@ -75,17 +80,34 @@ export function compareCommand(terminal: Terminal): CommandUnknownOpts {
         base: wordedNotes(answer.base, money),
         changed: wordedNotes(answer.changed, money),
       };
+      if (flags.report !== undefined) {
+        await writeHtmlReport(flags.report, flags.force ?? false, model.provenance, {
+          title: "What a change does to estimated pay",
+          question:
+            "What does this change (a promotion, a move, more years) do to the expected pay " +
+            "of this profile?",
+          sections: compareSections(
+            answer,
+            [...json.warnings, ...json.base.warnings, ...json.changed.warnings],
+            money,
+          ),
+        });
+      }
       printAnswer(
         terminal,
         flags.json === true,
         model.provenance,
         json,
-        () =>
-          renderCompare(forTerminal(answer), {
+        () => [
+          ...renderCompare(forTerminal(answer), {
             style: terminal.style,
             width: terminal.width,
             money,
           }),
+          ...(flags.report === undefined
+            ? []
+            : [`Report written to ${terminalText(flags.report)}.`]),
+        ],
       );
     });
 }

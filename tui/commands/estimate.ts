@@ -19,6 +19,8 @@ import { wordedNotes } from "../render/answer_notes.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { renderEstimate } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { estimateSections } from "../render/html/estimate_html.ts";
+import { checkHtmlReport, withHtmlReport, writeHtmlReport } from "../report_file.ts";
 import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import type { Terminal } from "../terminal.ts";
@@ -53,7 +55,7 @@ import type { Terminal } from "../terminal.ts";
  * ```
  */
 export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
-  return withProfileFlags(
+  return withHtmlReport(withProfileFlags(
     new Command("estimate")
       .description(
         "Estimate pay for one profile: how sure the estimate is, the range for comparable " +
@@ -64,7 +66,10 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
         "--offer <amount>",
         "an offer to place in the range, read like the table's amounts (61000, 61k, €61,000)",
       ),
-  ).action(async (file, flags) => {
+  )).action(async (file, flags) => {
+    if (flags.report !== undefined) {
+      await checkHtmlReport(flags.report, flags.force ?? false, [file, flags.table ?? file]);
+    }
     const model = await openModelFile(terminal, file, flags.analystFile);
     const session = openModel(model);
     // A bad offer is said before any table is read.
@@ -80,6 +85,13 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
     }
     const money = moneyStyle(model, { locale: flags.locale });
     const json = { start, ...wordedNotes(answer, money) };
+    if (flags.report !== undefined) {
+      await writeHtmlReport(flags.report, flags.force ?? false, model.provenance, {
+        title: "Estimated pay for one profile",
+        question: "What would our pay structure pay a person like this?",
+        sections: estimateSections(answer, { warnings: json.warnings, start }, money),
+      });
+    }
     printAnswer(terminal, flags.json === true, model.provenance, json, () => [
       ...renderEstimate(forTerminal(answer), {
         style: terminal.style,
@@ -88,6 +100,7 @@ export function estimateCommand(terminal: Terminal): CommandUnknownOpts {
       }),
       ...wrapAnsi(terminal.style.dim(`Started from ${terminalText(start)}.`), terminal.width)
         .split("\n"),
+      ...(flags.report === undefined ? [] : [`Report written to ${terminalText(flags.report)}.`]),
     ]);
   });
 }

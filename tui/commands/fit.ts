@@ -18,7 +18,9 @@ import {
   writeModelFile,
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
-import { renderModelSummary } from "../render/model_view.ts";
+import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
+import { fitSections } from "../render/html/fit_html.ts";
+import { checkHtmlReport, writeHtmlReport } from "../report_file.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
 import { wordedWarnings } from "../option_words.ts";
@@ -218,7 +220,11 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       "also write the analyst's file (out-of-bag estimates of training rows, the jackknife); " +
         "with a staff list it rebuilds everyone's pay: keep it private",
     )
-    .option("--force", "replace an existing model file")
+    .option(
+      "--report <file>",
+      "also write a report to open in any browser (HTML; name it .html)",
+    )
+    .option("--force", "replace an existing model file (and report)")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
       if (flags.target === undefined) {
@@ -227,6 +233,12 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         );
       }
       await assertCanWrite(flags.out, flags.force ?? false, "--out", [file]);
+      if (flags.report !== undefined) {
+        if (await sameFile(flags.report, flags.out)) {
+          throw new OptionError(`--report: ${flags.report} is the --out file`);
+        }
+        await checkHtmlReport(flags.report, flags.force ?? false, [file]);
+      }
       if (flags.analystFile !== undefined) {
         // Never the model file under another spelling (./m.json), nor the table.
         if (await sameFile(flags.analystFile, flags.out)) {
@@ -284,6 +296,20 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         await writeAnalystFile(flags.analystFile, model, sha256, {
           force: flags.force ?? false,
           option: "--analyst-file",
+        });
+      }
+      if (flags.report !== undefined) {
+        await writeHtmlReport(flags.report, flags.force ?? false, model.provenance, {
+          title: `A pay model of ${model.target.name}`,
+          question: "What does our pay structure pay for, and how accurately can it be estimated?",
+          sections: fitSections(
+            model,
+            [
+              ...leftOut.map((l) => `${l.count} rows left out for implausible ${l.column}.`),
+              ...wordedWarnings(table.warnings).map((w) => w.message),
+            ],
+            moneyStyle(model, { locale: flags.locale }),
+          ),
         });
       }
       const folds = { requested: flags.folds, used: model.settings.folds };

@@ -10,6 +10,7 @@ import { resolveColumnFlags } from "../column_names.ts";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
+  GAP_CAUTIONS,
   gapCheck,
   type GapReport,
   OptionError,
@@ -28,6 +29,9 @@ import { collectWhere } from "../option_values.ts";
 import { MAX_TREES, seedOption, shareOption, wholeNumber } from "../option_values.ts";
 import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 import { makeStyle } from "../render/style.ts";
+import { tableProvenanceLine } from "../render/cautions.ts";
+import { gapSections } from "../render/html/gap_html.ts";
+import { htmlPage, isHtmlPath, paragraph } from "../render/html/page.ts";
 
 /**
  * Builds the `gap` command.
@@ -112,7 +116,7 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--trees <n>", "trees in each ensemble", wholeNumber(10, MAX_TREES), 200)
     .option("--seed <s>", "seed of resamples", seedOption, 1)
     .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
-    .option("--report <file>", "also write a Markdown report")
+    .option("--report <file>", "also write a report: HTML for a .html name, else Markdown")
     .option("--force", "replace an existing report")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
@@ -175,8 +179,23 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
         const said = dataCheckLines(table, leftOut, file, plain).filter((l) => l !== "");
         await writeFileAtomic(
           flags.report,
-          gapMarkdown(report, numbers, new Date().toISOString()) +
-            (said.length > 0 ? `\n## Data\n\n${said.join("\n")}\n` : ""),
+          isHtmlPath(flags.report)
+            ? htmlPage({
+              title: `Pay gaps by ${report.group}`,
+              question: `Is there a gap in ${report.target} between ${report.group} groups that ` +
+                `the other factors do not explain?`,
+              created: new Date().toISOString(),
+              provenance: [tableProvenanceLine(report.provenance)],
+              cautions: [GAP_CAUTIONS],
+              sections: [
+                ...gapSections(report, gapJson(report).notes, numbers),
+                ...(said.length > 0
+                  ? [{ title: "Data", body: said.map((l) => paragraph(l)).join("\n") }]
+                  : []),
+              ],
+            })
+            : gapMarkdown(report, numbers, new Date().toISOString()) +
+              (said.length > 0 ? `\n## Data\n\n${said.join("\n")}\n` : ""),
           { force: flags.force ?? false, option: "--report" },
         );
       }

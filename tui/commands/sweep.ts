@@ -14,6 +14,9 @@ import { findFeature, openModel, OptionError, sweepAnswer, sweepValues } from ".
 import { profileFromFlags, readTableForModel, withProfileFlags } from "../profile_flags.ts";
 import { renderSweep } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
+import { terminalText } from "../render/safe_text.ts";
+import { sweepSections } from "../render/html/sweep_html.ts";
+import { checkHtmlReport, withHtmlReport, writeHtmlReport } from "../report_file.ts";
 import { wordedNotes } from "../render/answer_notes.ts";
 import { forTerminal } from "../render/safe_text.ts";
 import { moneyStyle } from "../render/model_view.ts";
@@ -52,20 +55,23 @@ function finiteNumber(text: string): number {
  * ```
  */
 export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
-  return withProfileFlags(
+  return withHtmlReport(withProfileFlags(
     new Command("sweep")
       .description(
         "Walk one attribute over a range (or every level) with the rest of the profile fixed, " +
           "and chart the estimate with both intervals",
       )
       .argument("<model>", "model file written by paygrove fit"),
-  )
+  ))
     .requiredOption("--vary <column>", "the attribute to vary")
     .option("--from <a>", "first value of a numeric attribute (default: 1% quantile)", finiteNumber)
     .option("--to <b>", "last value of a numeric attribute (default: 99% quantile)", finiteNumber)
     .option("--steps <n>", "points of a numeric attribute", wholeNumber(2, 1000), 20)
     .option("--average", "also average the estimate over the rows of --table (partial dependence)")
     .action(async (file, flags) => {
+      if (flags.report !== undefined) {
+        await checkHtmlReport(flags.report, flags.force ?? false, [file, flags.table ?? file]);
+      }
       const model = await openModelFile(terminal, file, flags.analystFile);
       const session = openModel(model);
       const feature = findFeature(model, flags.vary, "--vary");
@@ -103,17 +109,31 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
         warnings,
       );
       const money = moneyStyle(model, { locale: flags.locale });
+      const json = wordedNotes(answer, money);
+      if (flags.report !== undefined) {
+        await writeHtmlReport(flags.report, flags.force ?? false, model.provenance, {
+          title: `Estimated pay as ${model.features[feature].name} varies`,
+          question: `What does ${
+            model.features[feature].name
+          } do to the estimated pay of this profile?`,
+          sections: sweepSections(answer, json.warnings, money),
+        });
+      }
       printAnswer(
         terminal,
         flags.json === true,
         model.provenance,
-        wordedNotes(answer, money),
-        () =>
-          renderSweep(forTerminal(answer), {
+        json,
+        () => [
+          ...renderSweep(forTerminal(answer), {
             style: terminal.style,
             width: terminal.width,
             money,
           }),
+          ...(flags.report === undefined
+            ? []
+            : [`Report written to ${terminalText(flags.report)}.`]),
+        ],
       );
     });
 }

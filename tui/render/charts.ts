@@ -181,13 +181,7 @@ export function histogram(
   format: (x: number) => string,
 ): string[] {
   if (values.length === 0) return [];
-  const low = Math.min(...values);
-  const high = Math.max(...values);
-  const counts = new Array(bins).fill(0);
-  for (const v of values) {
-    const k = high > low ? Math.min(bins - 1, Math.floor(((v - low) / (high - low)) * bins)) : 0;
-    counts[k]++;
-  }
+  const { low, high, counts } = histogramCounts(values, bins);
   const top = Math.max(...counts);
   const lines: string[] = [];
   for (let level = height; level >= 1; level--) {
@@ -199,6 +193,35 @@ export function histogram(
   const gap = Math.max(1, bins + 2 - left.length - right.length);
   lines.push(`${left}${" ".repeat(gap)}${right}`);
   return lines;
+}
+
+/**
+ * Values counted into `bins` equal columns from the lowest to the highest,
+ * for a drawn histogram (the terminal's or a report's).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { histogramCounts } from "./charts.ts";
+ * assert.deepEqual(histogramCounts([1, 2, 2, 3, 3, 3], 3), { low: 1, high: 3, counts: [1, 2, 3] });
+ * ```
+ */
+export function histogramCounts(
+  values: readonly number[],
+  bins: number,
+): { low: number; high: number; counts: number[] } {
+  let low = Infinity;
+  let high = -Infinity;
+  for (const v of values) {
+    if (v < low) low = v;
+    if (v > high) high = v;
+  }
+  const counts = new Array(bins).fill(0);
+  for (const v of values) {
+    const k = high > low ? Math.min(bins - 1, Math.floor(((v - low) / (high - low)) * bins)) : 0;
+    counts[k]++;
+  }
+  return { low, high, counts };
 }
 
 /** One band to draw: its ends and midpoint, and a second span beside it (current pay). */

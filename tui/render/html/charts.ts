@@ -68,6 +68,7 @@ const baseOptions = (height: number, marginLeft: number) => ({
   height,
   marginLeft,
   marginRight: 24,
+  marginBottom: 46,
   style: { fontSize: "12px", background: "#fff", color: "#1a1a1a" },
 });
 
@@ -97,11 +98,11 @@ export function barsChart(input: {
   format: (v: number) => string;
   caption: string;
 }): Chart {
-  const height = 48 + 26 * input.items.length;
+  const height = 60 + 26 * input.items.length;
   const labels = input.items.map((i) => i.label);
   const svg = Plot.plot({
     ...baseOptions(height, labelMargin(labels)),
-    x: { label: input.axis, grid: true, tickFormat: input.format, ticks: 5 },
+    x: { label: input.axis, labelAnchor: "center", grid: true, tickFormat: input.format, ticks: 5 },
     y: { label: null, domain: labels },
     marks: [
       Plot.barX(input.items, { x: "value", y: "label", fill: INK.blue }),
@@ -138,7 +139,7 @@ export interface IntervalRow {
  *   axis: "pay", format: String, caption: "Estimate", zero: false,
  * });
  * assert.match(chart.html, /data-chart="intervals"/);
- * assert.equal(chart.height, 48 + 2 * 34);
+ * assert.equal(chart.height, 60 + 2 * 34);
  * ```
  */
 export function intervalsChart(input: {
@@ -148,13 +149,13 @@ export function intervalsChart(input: {
   caption: string;
   zero?: boolean;
 }): Chart {
-  const height = 48 + 34 * input.rows.length;
+  const height = 60 + 34 * input.rows.length;
   const labels = input.rows.map((r) => r.label);
   const plain = input.rows.filter((r) => !r.flagged);
   const flagged = input.rows.filter((r) => r.flagged);
   const svg = Plot.plot({
     ...baseOptions(height, labelMargin(labels)),
-    x: { label: input.axis, grid: true, tickFormat: input.format, ticks: 5 },
+    x: { label: input.axis, labelAnchor: "center", grid: true, tickFormat: input.format, ticks: 5 },
     y: { label: null, domain: labels },
     marks: [
       ...(input.zero ? [Plot.ruleX([0], { stroke: "#555", strokeDasharray: "4,3" })] : []),
@@ -210,11 +211,11 @@ export function bandsChart(input: {
   format: (v: number) => string;
   caption: string;
 }): Chart {
-  const height = 56 + 30 * input.bands.length;
+  const height = 66 + 30 * input.bands.length;
   const labels = input.bands.map((b) => b.label);
   const svg = Plot.plot({
     ...baseOptions(height, labelMargin(labels)),
-    x: { label: "pay", grid: true, tickFormat: input.format, ticks: 5 },
+    x: { label: "pay", labelAnchor: "center", grid: true, tickFormat: input.format, ticks: 5 },
     y: { label: null, domain: labels, padding: 0.35 },
     marks: [
       Plot.barX(input.bands, {
@@ -268,7 +269,7 @@ export function histogramChart(input: {
   const height = 220;
   const svg = Plot.plot({
     ...baseOptions(height, 48),
-    x: { label: input.axis, tickFormat: input.format, ticks: 5 },
+    x: { label: input.axis, labelAnchor: "center", tickFormat: input.format, ticks: 5 },
     y: { label: "trees", grid: true },
     marks: [
       Plot.rectY(input.bins, { x1: "low", x2: "high", y: "count", fill: INK.blue, inset: 0.5 }),
@@ -317,6 +318,7 @@ export function sweepChart(input: {
     ...baseOptions(height, 72),
     x: {
       label: input.axis,
+      labelAnchor: "center",
       ...(labels === undefined
         ? {}
         : { ticks: labels.map((_, i) => i), tickFormat: (i: number) => labels[i] ?? "" }),
