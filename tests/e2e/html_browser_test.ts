@@ -185,3 +185,44 @@ Deno.test({
     }
   },
 });
+
+Deno.test({
+  name: "the guided flow's session report in Chromium: scenarios side by side and a what-if",
+  ignore,
+  async fn() {
+    const {
+      applyChanges,
+      compareAnswer,
+      estimateProfile,
+      openModel,
+      readModelFile,
+      typicalProfile,
+    } = await import("../../mod.ts");
+    const { writeReport } = await import("../../tui/flow/save_step.ts");
+    const { makeStyle } = await import("../../tui/render/style.ts");
+    await fitDemo();
+    const read = await readModelFile(model);
+    const session = openModel(read);
+    const typical = typicalProfile(read);
+    const promoted = applyChanges(read, typical, ["level=+1"]).profile;
+    const scenarios = [
+      { name: "typical", answer: estimateProfile(session, typical) },
+      { name: "promoted", answer: estimateProfile(session, promoted) },
+    ];
+    const report = `${dir}/session.html`;
+    const io = { say: () => {}, style: makeStyle(false) } as never;
+    await writeReport(
+      io,
+      read,
+      scenarios,
+      [compareAnswer(session, typical, promoted)],
+      report,
+      null,
+      null,
+      false,
+    );
+    const ink = await checkInBrowser(report, 12);
+    // The scenarios on one axis, then each scenario's and the what-if's charts.
+    assert(ink.length >= 5, `${ink.length} charts`);
+  },
+});

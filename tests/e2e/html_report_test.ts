@@ -490,3 +490,57 @@ Deno.test("fit and gap --report .html: their figures are the JSON's", async () =
   }
   assert.match(gHtml, /not proof of discrimination/);
 });
+
+Deno.test("review --report .html: counts and costs only, no one's name or pay, small costs withheld", async () => {
+  const run = await paygrove([
+    "review",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--within",
+    "level,site",
+    "--trees",
+    "20",
+    "--report",
+    `${dir}/review.html`,
+    "--json",
+  ]);
+  assert.equal(run.code, 0, run.stderr);
+  const r = JSON.parse(run.stdout);
+  const html = await Deno.readTextFile(`${dir}/review.html`);
+  assert.deepEqual(outsideReferences(html), []);
+  // The attack: find anyone in the page, by identifier or by pay.
+  const values = new Set(valuesOf(dom(html)));
+  for (const p of r.people) {
+    assert(!html.includes(p.id), `${p.id} named in the report`);
+    assert(!values.has(p.pay), `${p.id}'s pay in the report`);
+  }
+  // Everyone's counts as the JSON has them.
+  const o = r.overall;
+  assert.deepEqual(valuesOf(tableCaptioned(dom(html), "Everyone")), [
+    o.people,
+    o.under,
+    o.over,
+    o.cost,
+  ]);
+  // A category with fewer than the privacy minimum under shows no cost.
+  const rows = [
+    ...tableCaptioned(dom(html), "Under and over the range per category").querySelectorAll(
+      "tbody tr",
+    ),
+  ];
+  let withheld = 0;
+  for (const c of r.categories) {
+    const row = rows.find((x) => x.querySelector("td").textContent === c.name);
+    if (c.suppressed) {
+      assert.equal(row.querySelectorAll("[data-value]").length, 0);
+      continue;
+    }
+    const cells = valuesOf(row);
+    if (c.under < r.privacyMin) {
+      assert.deepEqual(cells, [c.people, c.under, c.over]);
+      withheld++;
+    } else assert.deepEqual(cells, [c.people, c.under, c.over, c.cost]);
+  }
+  assert(withheld > 0, "some category has fewer than the minimum under");
+});

@@ -70,5 +70,5 @@ Deno.test("the guided flow's --report replaces nothing without --force, and is M
   assert.equal(await Deno.readTextFile(`${dir}/victim.json`), "keep me too");
   const named = await paygrove(["--report", `${dir}/model`]);
   assert.equal(named.code, 2);
-  assert.match(named.stderr, /should end in \.md/);
+  assert.match(named.stderr, /should end in \.html .* or \.md/);
 });

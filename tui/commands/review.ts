@@ -11,11 +11,17 @@ import { resolveColumnFlags } from "../column_names.ts";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
 import {
   assertCanWrite,
+  GAP_CAUTIONS,
   OptionError,
   type PayReview,
   payReview,
+  sameFile,
   writeFileAtomic,
 } from "../../mod.ts";
+import { tableProvenanceLine } from "../render/cautions.ts";
+import { reviewSections } from "../render/html/review_html.ts";
+import { htmlPage } from "../render/html/page.ts";
+import { checkHtmlReport } from "../report_file.ts";
 import { progressBar } from "../progress.ts";
 import { printTableAnswer } from "../render/cautions.ts";
 import { reviewJson } from "../render/report_notes.ts";
@@ -102,7 +108,11 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--seed <s>", "seed of resamples", seedOption, 1)
     .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
     .option("--out <file>", "write every person as CSV")
-    .option("--force", "replace an existing --out file")
+    .option(
+      "--report <file>",
+      "also write a report to send on (HTML; name it .html): counts and costs, no one's pay",
+    )
+    .option("--force", "replace an existing --out or --report file")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
       if (flags.target === undefined) {
@@ -112,6 +122,12 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
       }
       if (flags.out !== undefined) {
         await assertCanWrite(flags.out, flags.force ?? false, "--out", [file]);
+      }
+      if (flags.report !== undefined) {
+        if (flags.out !== undefined && await sameFile(flags.report, flags.out)) {
+          throw new OptionError(`--report: ${flags.report} is the --out file`);
+        }
+        await checkHtmlReport(flags.report, flags.force ?? false, [file]);
       }
       const options = loadOptions(flags, file);
       const progress = progressBar(terminal);
@@ -153,6 +169,21 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
         });
       }
       const numbers = { locale: flags.locale, currency: review.money?.currency };
+      if (flags.report !== undefined) {
+        await writeFileAtomic(
+          flags.report,
+          htmlPage({
+            title: `Pay review of ${review.target}`,
+            question: "Who is paid outside the range comparable people earn, and what would " +
+              "bringing pay up to it cost?",
+            created: new Date().toISOString(),
+            provenance: [tableProvenanceLine(review.provenance)],
+            cautions: [GAP_CAUTIONS],
+            sections: reviewSections(review, reviewJson(review).notes, numbers),
+          }),
+          { force: flags.force ?? false, option: "--report" },
+        );
+      }
       const check = { style: terminal.style, width: terminal.width };
       // Everything the screen says about the data is in the JSON too.
       const doc = {
@@ -168,6 +199,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
           ...dataCheckLines(table, leftOut, file, check),
           ...renderReview(forTerminal(review), { ...check, numbers }),
           ...(flags.out ? [`Everyone written to ${terminalText(flags.out)}.`, ""] : []),
+          ...(flags.report ? [`Report written to ${terminalText(flags.report)}.`, ""] : []),
         ],
       );
     });

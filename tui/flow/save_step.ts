@@ -18,6 +18,9 @@ import { jsonText, terminalText } from "../render/safe_text.ts";
 import { gapJson } from "../render/report_notes.ts";
 import { gapMarkdown } from "../render/gap_view.ts";
 import { moneyStyle } from "../render/model_view.ts";
+import { ANSWER_CAUTIONS, provenanceLine } from "../render/cautions.ts";
+import { htmlPage, isHtmlPath, paragraph } from "../render/html/page.ts";
+import { sessionSections } from "../render/html/session_html.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 import { leftOutJson, leftOutSentence } from "../data_check.ts";
@@ -88,11 +91,17 @@ export async function save(
     options.written.add(options.report);
     return;
   }
-  const report = await io.ask("Save a report of the scenarios as (Markdown; a .json beside it):", {
-    default: "paygrove-report.md",
-    validate: (text) =>
-      text.trim().endsWith(".md") ? true : "A report's name ends in .md (the .json goes beside it)",
-  });
+  const report = await io.ask(
+    "Save a report of the scenarios as (.html opens in any browser, .md is Markdown; a .json " +
+      "goes beside it):",
+    {
+      default: "paygrove-report.html",
+      validate: (text) =>
+        isReportPath(text.trim())
+          ? true
+          : "A report's name ends in .html or .md (the .json goes beside it)",
+    },
+  );
   // Neither the report nor the .json beside it replaces a file unasked.
   const taken = [report.trim(), reportJsonPath(report.trim())].filter((p) => existsSync(p));
   let replace = false;
@@ -124,10 +133,26 @@ export async function save(
  * import assert from "node:assert/strict";
  * import { reportJsonPath } from "./save_step.ts";
  * assert.equal(reportJsonPath("out/session.md"), "out/session.json");
+ * assert.equal(reportJsonPath("out/session.html"), "out/session.json");
  * ```
  */
 export function reportJsonPath(path: string): string {
-  return path.replace(/\.md$/, "") + ".json";
+  return path.replace(/\.(?:md|html?)$/i, "") + ".json";
+}
+
+/**
+ * Whether a session report's name says its format: .html (or .htm) for a
+ * page to open in any browser, .md for Markdown.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { isReportPath } from "./save_step.ts";
+ * assert(isReportPath("r.html") && isReportPath("r.md") && !isReportPath("r.txt"));
+ * ```
+ */
+export function isReportPath(path: string): boolean {
+  return /\.md$/.test(path) || isHtmlPath(path);
 }
 
 /**
@@ -170,9 +195,25 @@ export async function writeReport(
   const jsonPath = reportJsonPath(path);
   // The gap check, when one was run in the session, follows the scenarios.
   // Rows left out for implausible pay are said right after the scenarios.
-  const markdown = reportMarkdown(model, scenarios, whatIfs) +
-    (leftOut ? `${leftOutSentence(leftOut, ", as you chose")}\n` : "") +
-    (gap ? "\n" + gapMarkdown(gap, moneyStyle(model, {}), new Date().toISOString()) : "");
+  const money = moneyStyle(model, {});
+  const markdown = isHtmlPath(path)
+    ? htmlPage({
+      title: "What-if session",
+      question: "What would our pay structure pay the people of these scenarios, and what do " +
+        "the changes asked about do to it?",
+      created: new Date().toISOString(),
+      provenance: [provenanceLine(model.provenance)],
+      cautions: [ANSWER_CAUTIONS],
+      sections: [
+        ...sessionSections(scenarios, whatIfs, gap, money),
+        ...(leftOut
+          ? [{ title: "Data", body: paragraph(leftOutSentence(leftOut, ", as you chose")) }]
+          : []),
+      ],
+    })
+    : reportMarkdown(model, scenarios, whatIfs) +
+      (leftOut ? `${leftOutSentence(leftOut, ", as you chose")}\n` : "") +
+      (gap ? "\n" + gapMarkdown(gap, money, new Date().toISOString()) : "");
   const json = {
     ...reportJson(model, scenarios, whatIfs),
     leftOutImplausible: leftOutJson(leftOut ? [leftOut] : []),

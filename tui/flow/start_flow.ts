@@ -13,7 +13,7 @@ import { localeTag, readOverrides, withReadFlags } from "../table_flags.ts";
 import { MAX_TREES, wholeNumber } from "../option_values.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow } from "./guided_flow.ts";
-import { reportJsonPath } from "./save_step.ts";
+import { isReportPath, reportJsonPath } from "./save_step.ts";
 import { listenForStop } from "../stop_signals.ts";
 
 /**
@@ -43,7 +43,7 @@ export const DEMO_TABLE = new URL("../../fixtures/demo_company.csv", import.meta
  * import { startFlow } from "./start_flow.ts";
  * const terminal = recordingTerminal();
  * // A report that could not be written is said before any question.
- * await assert.rejects(startFlow(["--report", "session.txt"], terminal), /should end in \.md/);
+ * await assert.rejects(startFlow(["--report", "session.txt"], terminal), /should end in \.html .* or \.md/);
  * // Without a terminal to ask on, it points to the subcommands (not run on a terminal,
  * // where it would start asking).
  * if (!Deno.stdin.isTerminal()) {
@@ -58,7 +58,8 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     .option("--ascii", "plain ASCII only: no box drawing or arrows")
     .option(
       "--report <file>",
-      "write the session's scenarios to FILE (Markdown) and a .json beside it",
+      "write the session's scenarios to FILE (.html for any browser, .md for Markdown) and a " +
+        ".json beside it",
     )
     .option("--locale <tag>", "locale for numbers and money, e.g. de-DE", localeTag)
     .option("--force", "replace an existing --report file and its .json")
@@ -74,10 +75,10 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     .opts();
   // A report that could not be written is said now, not after the session.
   if (options.report !== undefined) {
-    if (!options.report.endsWith(".md")) {
+    if (!isReportPath(options.report)) {
       throw new OptionError(
-        `--report: ${options.report} should end in .md (the report is Markdown, and its .json ` +
-          `goes beside it)`,
+        `--report: ${options.report} should end in .html (a page for any browser) or .md ` +
+          `(Markdown); its .json goes beside it`,
       );
     }
     for (const path of [options.report, reportJsonPath(options.report)]) {
