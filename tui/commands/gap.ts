@@ -30,7 +30,6 @@ import { MAX_TREES, seedOption, shareOption, wholeNumber } from "../option_value
 import { assertFiniteFigures, dataCheckLines, leftOutJson, screenPayFlags } from "../data_check.ts";
 import { makeStyle } from "../render/style.ts";
 import { tableProvenanceLine } from "../render/cautions.ts";
-import { gapSections } from "../render/html/gap_html.ts";
 import { htmlPage, isHtmlPath, paragraph } from "../render/html/page.ts";
 
 /**
@@ -188,7 +187,12 @@ export function gapCommand(terminal: Terminal): CommandUnknownOpts {
               provenance: [tableProvenanceLine(report.provenance)],
               cautions: [GAP_CAUTIONS],
               sections: [
-                ...gapSections(report, gapJson(report).notes, numbers),
+                // Loaded for a report only: the chart library adds 0.14 s to every start-up.
+                ...(await import("../render/html/gap_html.ts")).gapSections(
+                  report,
+                  gapJson(report).notes,
+                  numbers,
+                ),
                 ...(said.length > 0
                   ? [{ title: "Data", body: said.map((l) => paragraph(l)).join("\n") }]
                   : []),

@@ -15,7 +15,6 @@ import { profileFromFlags, readTableForModel, withProfileFlags } from "../profil
 import { renderSweep } from "../render/answer_view.ts";
 import { printAnswer } from "../render/cautions.ts";
 import { terminalText } from "../render/safe_text.ts";
-import { sweepSections } from "../render/html/sweep_html.ts";
 import { checkHtmlReport, withHtmlReport, writeHtmlReport } from "../report_file.ts";
 import { wordedNotes } from "../render/answer_notes.ts";
 import { forTerminal } from "../render/safe_text.ts";
@@ -116,7 +115,12 @@ export function sweepCommand(terminal: Terminal): CommandUnknownOpts {
           question: `What does ${
             model.features[feature].name
           } do to the estimated pay of this profile?`,
-          sections: sweepSections(answer, json.warnings, money),
+          // Loaded for a report only: the chart library adds 0.14 s to every start-up.
+          sections: (await import("../render/html/sweep_html.ts")).sweepSections(
+            answer,
+            json.warnings,
+            money,
+          ),
         });
       }
       printAnswer(

@@ -20,7 +20,6 @@ import { gapMarkdown } from "../render/gap_view.ts";
 import { moneyStyle } from "../render/model_view.ts";
 import { ANSWER_CAUTIONS, provenanceLine } from "../render/cautions.ts";
 import { htmlPage, isHtmlPath, paragraph } from "../render/html/page.ts";
-import { sessionSections } from "../render/html/session_html.ts";
 import type { FlowIO } from "./flow_io.ts";
 import { reportJson, reportMarkdown, type Scenario } from "./report.ts";
 import { leftOutJson, leftOutSentence } from "../data_check.ts";
@@ -205,7 +204,13 @@ export async function writeReport(
       provenance: [provenanceLine(model.provenance)],
       cautions: [ANSWER_CAUTIONS],
       sections: [
-        ...sessionSections(scenarios, whatIfs, gap, money),
+        // Loaded for a report only: the chart library adds 0.14 s to every start-up.
+        ...(await import("../render/html/session_html.ts")).sessionSections(
+          scenarios,
+          whatIfs,
+          gap,
+          money,
+        ),
         ...(leftOut
           ? [{ title: "Data", body: paragraph(leftOutSentence(leftOut, ", as you chose")) }]
           : []),
