@@ -91,8 +91,7 @@ export async function save(
     return;
   }
   const report = await io.ask(
-    "Save a report of the scenarios as (.html opens in any browser, .md is Markdown; a .json " +
-      "goes beside it):",
+    "Save a report of the scenarios as (.html or .md; a .json beside it):",
     {
       default: "paygrove-report.html",
       validate: (text) =>
