@@ -3,8 +3,10 @@
 // alternately (medians of 5), and the file's size; and, in this process,
 // the time to build each page once the modules are loaded. Usage:
 //   deno run -A bench/html_reports.ts [runs]
-// (writes bench/results/html_reports.md)
+//   deno run -A bench/html_reports.ts [runs] [kinds, comma-separated]
+// (writes bench/results/html_reports.md, or with kinds prints their rows only)
 const runs = Number(Deno.args[0] ?? 5);
+const only = Deno.args[1]?.split(",");
 const root = new URL("../", import.meta.url).pathname;
 const dir = await Deno.makeTempDir({ prefix: "paygrove-html-bench-" });
 const demo = `${root}fixtures/demo_company.csv`;
@@ -56,6 +58,7 @@ const lines = [
   "| --- | ---: | ---: | ---: | ---: |",
 ];
 for (const [kind, args] of kinds) {
+  if (only !== undefined && !only.includes(kind)) continue;
   const without: number[] = [];
   const withReport: number[] = [];
   const report = `${dir}/${kind}.html`;
@@ -78,5 +81,9 @@ lines.push(
     "(a few tens of milliseconds either way); most of it is loading the chart library, which " +
     "only a run with a report does.",
 );
-await Deno.writeTextFile(`${root}bench/results/html_reports.md`, lines.join("\n") + "\n");
+if (only === undefined) {
+  const path = `${root}bench/results/html_reports.md`;
+  await Deno.writeTextFile(path, lines.join("\n") + "\n");
+  await new Deno.Command("deno", { args: ["fmt", "-q", path] }).output();
+}
 await Deno.remove(dir, { recursive: true });
