@@ -8,6 +8,7 @@
 import { existsSync } from "node:fs";
 import {
   type CompareAnswer,
+  GAP_CAUTIONS,
   type GapReport,
   type ImplausiblePay,
   type Model,
@@ -91,7 +92,7 @@ export async function save(
     return;
   }
   const report = await io.ask(
-    "Save a report of the scenarios as (.html or .md; a .json beside it):",
+    "Save a report of the scenarios as (.html or .md):",
     {
       default: "paygrove-report.html",
       validate: (text) =>
@@ -201,7 +202,7 @@ export async function writeReport(
         "the changes asked about do to it?",
       created: new Date().toISOString(),
       provenance: [provenanceLine(model.provenance)],
-      cautions: [ANSWER_CAUTIONS],
+      cautions: [ANSWER_CAUTIONS, ...(gap ? [GAP_CAUTIONS] : [])],
       sections: [
         // Loaded for a report only: the chart library adds 0.14 s to every start-up.
         ...(await import("../render/html/session_html.ts")).sessionSections(

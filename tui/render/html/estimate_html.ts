@@ -46,6 +46,7 @@ export function estimateSections(
   money: NumberStyle,
 ): HtmlSection[] {
   const pay = (v: number) => formatPay(v, money);
+  const whole = (share: number) => `${formatNumber(100 * share, money, 0)}%`;
   const sections: HtmlSection[] = [];
   const profile = figureTable(
     `The profile (started from ${words.start})`,
@@ -94,7 +95,7 @@ export function estimateSections(
   const sure = sureOfWhat(answer);
   if (answer.confidence !== null) {
     const c = answer.confidence;
-    const label = `${sure}, ${formatPercent(c.coverage, false, money)} sure`;
+    const label = `${sure}, ${whole(c.coverage)} sure`;
     intervalRows.push({ label, low: c.low, high: c.high, mid: answer.estimate });
     rows.push([{ text: label }, { text: "" }, { text: pay(c.low), value: c.low }, {
       text: pay(c.high),
@@ -103,7 +104,7 @@ export function estimateSections(
   }
   if (answer.range !== null) {
     const r = answer.range;
-    const label = `one person, ${formatPercent(r.coverage, false, money)} range`;
+    const label = `one person, ${whole(r.coverage)} range`;
     intervalRows.push({ label, low: r.low, high: r.high, mid: answer.estimate });
     rows.push([{ text: label }, { text: "" }, { text: pay(r.low), value: r.low }, {
       text: pay(r.high),
