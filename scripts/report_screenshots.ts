@@ -37,4 +37,34 @@ for (const [kind, args] of kinds) {
   const size = (await Deno.stat(report)).size;
   console.log(`${kind}: ${(size / 1024).toFixed(0)} KB, ${pdfPages(pdf.output)} pages printed`);
 }
+// The guided flow's saved session: two scenarios and a promotion.
+{
+  const { applyChanges, compareAnswer, estimateProfile, openModel, readModelFile, typicalProfile } =
+    await import("../mod.ts");
+  const { writeReport } = await import("../tui/flow/save_step.ts");
+  const { makeStyle } = await import("../tui/render/style.ts");
+  const read = await readModelFile(model);
+  const session = openModel(read);
+  const typical = typicalProfile(read);
+  const promoted = applyChanges(read, typical, ["level=+1"]).profile;
+  const report = `${dir}/session.html`;
+  await writeReport(
+    { say: () => {}, style: makeStyle(false) } as never,
+    read,
+    [
+      { name: "typical", answer: estimateProfile(session, typical) },
+      { name: "promoted", answer: estimateProfile(session, promoted) },
+    ],
+    [compareAnswer(session, typical, promoted)],
+    report,
+    null,
+    null,
+    false,
+  );
+  const shot = await openInChromium(chromium, report, "screenshot", "760,1300");
+  await Deno.writeFile(`${ROOT}docs/reports/session.png`, shot.output);
+  const pdf = await openInChromium(chromium, report, "pdf");
+  const size = (await Deno.stat(report)).size;
+  console.log(`session: ${(size / 1024).toFixed(0)} KB, ${pdfPages(pdf.output)} pages printed`);
+}
 await Deno.remove(dir, { recursive: true });

@@ -199,6 +199,25 @@ Deno.test("bands --report .html: hostile site names appear as text, never as mar
   // Shown as the text it is.
   const text = dom(html).body.textContent;
   assert(text.includes("<script>alert(1)</script>"), "the name is shown as text");
+  // The same names as the groups of a gap check, in its charts and tables.
+  const gapReport = `${dir}/hostile_gap.html`;
+  const gap = await paygrove([
+    "gap",
+    path,
+    "--target",
+    "base_pay_eur",
+    "--group",
+    "site",
+    "--trees",
+    "10",
+    "--report",
+    gapReport,
+  ]);
+  assert.equal(gap.code, 0, gap.stderr);
+  const gapHtml = await Deno.readTextFile(gapReport);
+  assert.deepEqual(outsideReferences(gapHtml), []);
+  assert.doesNotMatch(gapHtml, /<img|<svg onload|<script/i);
+  assert(dom(gapHtml).body.textContent.includes("<svg onload=alert(3)>"));
 });
 
 Deno.test("bands --report .html: the people of hidden cells leave no trace in the page", async () => {
