@@ -220,6 +220,7 @@ export {
 } from "./lib/bands/band_table.ts";
 export { isTenureName, type PostingRange, postingRange } from "./lib/bands/posting_range.ts";
 export { type BandPosition, bandPositions } from "./lib/bands/band_positions.ts";
+export { type Lever, levers, moveLever } from "./lib/model/levers.ts";
 export { type PayQuartile, payQuartiles, type RawGap, rawGaps } from "./lib/gap/raw_gaps.ts";
 export { type Suppression, suppressSmallGroups } from "./lib/gap/suppress.ts";
 export {
