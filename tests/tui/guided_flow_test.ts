@@ -410,3 +410,24 @@ Deno.test("check an offer on the profile: the range with the offer marked, and i
   assert.match(screen, /\n {2}offer +[ <^>]+ +€61,000\n/);
   assert.ok(screen.includes(`To reach the estimate: ${pay(answer.estimate)}`));
 });
+
+Deno.test("the explore screen from the flow: several moves with the arrow keys, a kept scenario, back to the menu", async () => {
+  const driver = flowDriver(60000);
+  const done = guidedFlow(driver.io, { demoPath: DEMO, trees: TREES, workers: 1 });
+  await demoFitted(driver);
+  await driver.when("Start the profile from", KEY.enter);
+  await driver.when("What next?", KEY.enter); // Change one attribute
+  // The last choice of the list: every attribute, with the arrow keys.
+  await driver.when("Several, with the arrow keys (explore)", KEY.up, KEY.enter);
+  await driver.when("Explore base_pay_eur");
+  // Down to level, right: a promotion; keep it; leave with q.
+  await driver.when("> job_family", "\x1b[B", "\x1b[C");
+  await driver.when(/> level\s+G\d \*/, "k");
+  await driver.when("Kept as scenario 1.", "q");
+  await driver.when("Kept 1 (1 kept in all).");
+  // The flow goes on from the explored profile: its result, then the menu.
+  await driver.when("What next?", KEY.up, KEY.enter); // Quit
+  await done;
+  const raw = driver.raw();
+  assert(raw.lastIndexOf("\x1b[?1049l") > raw.lastIndexOf("\x1b[?1049h"), "the screen restored");
+});

@@ -388,6 +388,8 @@ export function exploreSession(
     emitKeypressEvents(io.input);
     if (raw) io.input.setRawMode!(true);
     io.input.on("keypress", onKey);
+    // A prompt before (the guided flow's) leaves its input paused.
+    io.input.resume();
     io.output.write("\x1b[?1049h\x1b[?25l");
     draw(true);
   });

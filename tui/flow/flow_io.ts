@@ -9,6 +9,9 @@
 import { checkbox, input, select } from "@inquirer/prompts";
 import { terminalGuard, terminalText } from "../render/safe_text.ts";
 import type { Style } from "../render/style.ts";
+import type { ModelSession, Profile } from "../../mod.ts";
+import type { NumberStyle } from "../render/numbers.ts";
+import { type ExploreIO, type ExploreResult, exploreSession } from "../explore/explore_loop.ts";
 
 /**
  * Choices a select prompt shows at once (more scroll): it takes one line
@@ -71,6 +74,11 @@ export interface FlowIO {
   choose<T>(message: string, choices: Choice<T>[], defaultValue?: T, brief?: boolean): Promise<T>;
   /** Asks to tick some of `choices`. */
   tick<T>(message: string, choices: (Choice<T> & { checked: boolean })[]): Promise<T[]>;
+  /**
+   * Runs the explore screen on the flow's own streams (absent where the
+   * flow has no terminal streams to hand it).
+   */
+  explore?(session: ModelSession, start: Profile, money: NumberStyle): Promise<ExploreResult>;
   /** Asks for a line of text, checked by `validate` (a message, or true). */
   ask(
     message: string,
@@ -180,6 +188,20 @@ export function streamFlowIO(
     rows: options.rows,
     ascii: options.ascii,
     progress: options.progress,
+    explore: (session, start, money) =>
+      exploreSession(
+        {
+          input: streams.input as ExploreIO["input"],
+          output: streams.output,
+          width: options.width,
+          height: options.rows ?? 24,
+          style: options.style,
+          money,
+          ascii: options.ascii,
+        },
+        session,
+        start,
+      ),
     choose: (message, choices, defaultValue, brief) =>
       withEsc((context) =>
         select({

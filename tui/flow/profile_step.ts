@@ -116,7 +116,8 @@ export async function buildProfile(
 }
 
 /**
- * Asks which attribute to change and its new value; returns `name=value`.
+ * Asks which attribute to change and its new value; returns `name=value`, or
+ * null when the person chose the arrow-key screen instead (`offerExplore`).
  *
  * @example
  * ```ts
@@ -144,17 +145,39 @@ export async function buildProfile(
  * assert.deepEqual(offered, offeredLevers(model));
  * ```
  */
-export async function editOne(io: FlowIO, model: Model, profile: Profile): Promise<string> {
+export async function editOne(
+  io: FlowIO,
+  model: Model,
+  profile: Profile,
+  offerExplore = false,
+): Promise<string | null> {
   const shown = describeProfile(model, profile);
   const f = await io.choose(
     "Change which attribute?",
-    offeredLevers(model).map((i) => ({
-      name: `${model.features[i].name} (now ${shown[model.features[i].name] ?? "missing"})`,
-      value: i,
-    })),
+    [
+      ...offeredLevers(model).map((i) => ({
+        name: `${model.features[i].name} (now ${shown[model.features[i].name] ?? "missing"})`,
+        value: i,
+      })),
+      ...(offerExplore ? [{ name: EXPLORE_CHOICE, value: -1 }] : []),
+    ],
   );
+  if (f === -1) return null;
   return `${model.features[f].name}=${await askValue(io, model, profile, f)}`;
 }
+
+/**
+ * The last choice of "Change which attribute?" where the flow can run the
+ * explore screen: every attribute at once, with the arrow keys.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { EXPLORE_CHOICE } from "./profile_step.ts";
+ * assert.match(EXPLORE_CHOICE, /arrow keys/);
+ * ```
+ */
+export const EXPLORE_CHOICE = "Several, with the arrow keys (explore)";
 
 /**
  * Asks a value with the prompt that fits the attribute; the current value is the default.

@@ -120,9 +120,11 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
     // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and
     // stop. Ctrl-C (ExitPromptError) is an interruption, Esc a way to leave.
     const name = (error as Error).name;
-    if (name === "ExitPromptError" || name === "AbortPromptError") {
+    if (
+      name === "ExitPromptError" || name === "AbortPromptError" || name === "ExploreInterrupted"
+    ) {
       io.say("\nStopped. Nothing more was written.");
-      return name === "ExitPromptError" ? 130 : 0;
+      return name === "AbortPromptError" ? 0 : 130;
     }
     throw error;
   } finally {

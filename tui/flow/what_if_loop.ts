@@ -35,6 +35,7 @@ import { forTerminal, terminalGuard, terminalText } from "../render/safe_text.ts
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
 import wrapAnsi from "wrap-ansi";
 import type { FlowIO } from "./flow_io.ts";
+import { ExploreInterrupted } from "../commands/explore.ts";
 import type { Scenario } from "./report.ts";
 import { screenRows, wrapped } from "./screen_room.ts";
 import { buildProfile, editOne, promotionFeature } from "./profile_step.ts";
@@ -48,6 +49,7 @@ export type Next =
   | "change"
   | "whole"
   | "promote"
+  | "explore"
   | "offer"
   | "ranges"
   | "sweep"
@@ -227,6 +229,7 @@ export async function whatIfLoop(
   );
 
   async function act(next: Next): Promise<void> {
+    const canExplore = io.explore !== undefined && model.target.kind === "regression";
     if (next === "change" || next === "promote") {
       let changed: Profile;
       if (next === "promote") {
@@ -242,7 +245,10 @@ export async function whatIfLoop(
         }
         changed = applyChanges(model, profile, [`${f.name}=+1`]).profile;
       } else {
-        changed = applySets(model, profile, [await editOne(io, model, profile)]).profile;
+        // The list of attributes ends with the arrow-key screen, for moving several.
+        const edit = await editOne(io, model, profile, canExplore);
+        if (edit === null) return await act("explore");
+        changed = applySets(model, profile, [edit]).profile;
       }
       const what = compareAnswer(session, profile, changed, 0.9);
       const shown = renderCompare(forTerminal(what), { ...view, compact: true, maxLines: room() });
@@ -312,6 +318,21 @@ export async function whatIfLoop(
       });
       scenarios.push({ name, answer });
       io.say(io.style.dim(`Kept "${terminalText(name)}" (${scenarios.length} kept).`));
+    } else if (next === "explore") {
+      const explored = await io.explore!(session, profile, money);
+      for (const kept of explored.kept) {
+        scenarios.push({ name: kept.name, answer: estimateProfile(session, kept.profile, 0.9) });
+      }
+      if (explored.status === 130) throw new ExploreInterrupted();
+      if (!explored.profile.every((v, i) => Object.is(v, profile[i]))) {
+        history.push(profile);
+        profile = explored.profile;
+        answer = estimateProfile(session, profile, 0.9);
+      }
+      if (explored.kept.length > 0) {
+        io.say(io.style.dim(`Kept ${explored.kept.length} (${scenarios.length} kept in all).`));
+      }
+      showResult();
     } else if (next === "list") {
       io.say(renderScenarios(forTerminal(scenarios), money, io).join("\n"));
     } else if (next === "undo") {
