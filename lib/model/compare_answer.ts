@@ -90,6 +90,8 @@ export interface CompareAnswer {
  * // The shift cancels in the ratio: relative change b / a - 1.
  * assert(Math.abs(answer.difference.relative.estimate - (b / a - 1)) < 1e-9);
  * assert.equal(answer.difference.coverage, 0.9);
+ * // With the base's answer given, the same comparison without working it out again.
+ * assert.deepEqual(compareAnswer(openModel(model), base, changed, 0.9, [], answer.base), answer);
  * ```
  */
 export function compareAnswer(
@@ -98,6 +100,7 @@ export function compareAnswer(
   changed: Profile,
   coverage = 0.9,
   warnings: ProfileWarning[] = [],
+  baseAnswer?: EstimateAnswer,
 ): CompareAnswer {
   const { model, reader } = session;
   if (model.target.kind !== "regression") {
@@ -105,7 +108,9 @@ export function compareAnswer(
       `compare needs a model of pay (a numeric target); "${model.target.name}" is a class`,
     );
   }
-  const a = estimateProfile(session, base, coverage, warnings);
+  // A caller comparing many profiles with one base (the explore screen)
+  // passes the base's answer, made with the same coverage and warnings.
+  const a = baseAnswer ?? estimateProfile(session, base, coverage, warnings);
   const b = estimateProfile(session, changed, coverage, warnings);
   const changes = model.features
     .map((f, i) => ({ f, i }))

@@ -182,6 +182,8 @@ export function exploreSession(
     lastMove: null,
   };
   let answer: CompareAnswer = compareAnswer(session, start, state.profile, coverage);
+  // The start's answer never changes: each key works out the moved profile's only.
+  const startAnswer = answer.base;
   let previous: string[] = [];
 
   const frame = (): string[] => {
@@ -223,7 +225,7 @@ export function exploreSession(
 
   const answerFor = (profile: Profile): void => {
     const before = answer.changed.path;
-    answer = compareAnswer(session, start, profile, coverage);
+    answer = compareAnswer(session, start, profile, coverage, [], startAnswer);
     const after = answer.changed.path;
     state.lastMove = null;
     for (let s = 0; s < Math.max(before.length, after.length); s++) {

@@ -177,9 +177,9 @@ export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] 
   }
   if (frame.lastMove !== null) {
     right.push(
-      `Path step ${frame.lastMove.step}: ${frame.lastMove.from ?? "-"} -> ${
-        frame.lastMove.to ?? "-"
-      }`,
+      `Path step ${frame.lastMove.step} now ${frame.lastMove.to ?? "ends"} (was ${
+        frame.lastMove.from ?? "none"
+      })`,
     );
   }
   for (const warning of a.changed.warnings.slice(0, 1)) {
