@@ -7,7 +7,7 @@
 // width is the block's own: 80 columns where its old output fits 80, else
 // 100. A block whose old output ended in "..." keeps as many lines before it;
 // one that left out the closing cautions and provenance leaves them out.
-// Screens of the guided flow are captured in tmux by hand and left alone.
+// Screens of the guided flow and of explore are captured in tmux by hand and left alone.
 //
 // Run: deno run -A scripts/readme_examples.ts [--check]
 // With --check it only reports the blocks whose output would change.
@@ -78,6 +78,11 @@ const out: string[] = [];
 let changed = 0;
 for (let i = 0; i < lines.length; i++) {
   const line = lines[i];
+  // The explore screen needs a terminal: captured in tmux by hand, as the flow's are.
+  if (/^\$ (deno task )?paygrove explore /.test(line)) {
+    out.push(line);
+    continue;
+  }
   if (!/^\$ (deno task )?paygrove /.test(line)) {
     out.push(line);
     const shell = /^\$ (.*)$/.exec(line);
