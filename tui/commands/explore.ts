@@ -9,7 +9,7 @@
 
 import process from "node:process";
 import { Command, type CommandUnknownOpts } from "@commander-js/extra-typings";
-import { compareAnswer, openModel, OptionError } from "../../mod.ts";
+import { compareAnswer, estimateProfile, openModel, OptionError } from "../../mod.ts";
 import { openModelFile } from "../open_model.ts";
 import { profileFromFlags, withProfileFlags } from "../profile_flags.ts";
 import { moneyStyle } from "../render/model_view.ts";
@@ -68,11 +68,6 @@ export function exploreCommand(terminal: Terminal): CommandUnknownOpts {
       );
     }
     const model = await openModelFile(terminal, file, flags.analystFile);
-    if (model.target.kind !== "regression") {
-      throw new OptionError(
-        `explore needs a model of pay; "${model.target.name}" is a class (use estimate)`,
-      );
-    }
     const session = openModel(model);
     const { profile, start } = await profileFromFlags(model, flags, terminal);
     const money = moneyStyle(model, { locale: flags.locale });
@@ -99,6 +94,12 @@ export function exploreCommand(terminal: Terminal): CommandUnknownOpts {
     // What was found, on the normal screen: where it ended, and what was kept.
     const pay = (v: number) => formatPay(v, money);
     const said = (name: string, p: Float64Array) => {
+      if (model.target.kind !== "regression") {
+        const c = estimateProfile(session, p, flags.coverage).classes!;
+        return `${name}: likeliest ${c.predicted} (${
+          formatPercent(c.shares[c.predicted], false, money)
+        })`;
+      }
       const a = compareAnswer(session, profile, p, flags.coverage);
       const changes = a.changes.map((c) => `${c.feature} ${c.from} -> ${c.to}`).join(", ");
       return `${name}: ${pay(a.changed.estimate)} (${

@@ -22,6 +22,7 @@ import {
   checkOffer,
   compareAnswer,
   describeProfile,
+  estimateProfile,
   type Lever,
   levers,
   type ModelSession,
@@ -38,7 +39,7 @@ import type { CompareAnswer } from "../../mod.ts";
 import { formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
 import type { Style } from "../render/style.ts";
 import { terminalText } from "../render/safe_text.ts";
-import { type ExploreFrame, renderExplore } from "./explore_view.ts";
+import { type ClassAnswers, type ExploreFrame, renderExplore } from "./explore_view.ts";
 
 /** The streams and terminal facts of an explore session. */
 export interface ExploreIO {
@@ -168,7 +169,9 @@ export function exploreSession(
   const { model } = session;
   const all: Lever[] = levers(model);
   const typical = typicalProfile(model);
-  const axis = exploreAxis(session, start);
+  const regression = model.target.kind === "regression";
+  // A class's shares run from 0 to 1; pay has its own axis.
+  const axis = regression ? exploreAxis(session, start) : { low: 0, high: 1 };
   let width = io.width;
   let height = io.height;
   const state: State = {
@@ -181,9 +184,14 @@ export function exploreSession(
     kept: [],
     lastMove: null,
   };
-  let answer: CompareAnswer = compareAnswer(session, start, state.profile, coverage);
   // The start's answer never changes: each key works out the moved profile's only.
-  const startAnswer = answer.base;
+  const startAnswer = estimateProfile(session, start, coverage);
+  const answerOf = (profile: Profile): CompareAnswer | ClassAnswers =>
+    regression
+      ? compareAnswer(session, start, profile, coverage, [], startAnswer)
+      : { kind: "classes", start: startAnswer, now: estimateProfile(session, profile, coverage) };
+  let answer = answerOf(state.profile);
+  const pathOf = (a: CompareAnswer | ClassAnswers) => ("kind" in a ? a.now : a.changed).path;
   let previous: string[] = [];
 
   const frame = (): string[] => {
@@ -224,9 +232,9 @@ export function exploreSession(
   };
 
   const answerFor = (profile: Profile): void => {
-    const before = answer.changed.path;
-    answer = compareAnswer(session, start, profile, coverage, [], startAnswer);
-    const after = answer.changed.path;
+    const before = pathOf(answer);
+    answer = answerOf(profile);
+    const after = pathOf(answer);
     state.lastMove = null;
     for (let s = 0; s < Math.max(before.length, after.length); s++) {
       if (before[s]?.condition !== after[s]?.condition) {
@@ -255,6 +263,8 @@ export function exploreSession(
         profile[lever.index] = valueOf(model.features[lever.index], typed.text.trim(), "value");
         moveTo(profile);
         state.message = null;
+      } else if ("kind" in answer) {
+        state.message = `An offer is pay; "${model.target.name}" is a class.`;
       } else {
         const offer = checkOffer(
           session,

@@ -9,7 +9,7 @@
  * @module
  */
 
-import type { CompareAnswer } from "../../mod.ts";
+import type { CompareAnswer, EstimateAnswer } from "../../mod.ts";
 import { answerNoteText } from "../render/answer_notes.ts";
 import { formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
 import type { Style } from "../render/style.ts";
@@ -22,8 +22,11 @@ export interface ExploreFrame {
   levers: { name: string; value: string; moved: boolean }[];
   /** The selected lever. */
   selected: number;
-  /** The start against the current profile (`compareAnswer`). */
-  answer: CompareAnswer;
+  /**
+   * The start against the current profile: `compareAnswer` for pay; for a
+   * model of a class, both profiles' answers (shares instead of pay).
+   */
+  answer: CompareAnswer | ClassAnswers;
   /** The money axis, fixed while exploring. */
   axis: { low: number; high: number };
   /** The step of the reference tree's path the last move changed, or null. */
@@ -32,6 +35,13 @@ export interface ExploreFrame {
   message: string | null;
   /** Show the keys instead of the answer. */
   help: boolean;
+}
+
+/** A class model's answers for the start and the current profile. */
+export interface ClassAnswers {
+  kind: "classes";
+  start: EstimateAnswer;
+  now: EstimateAnswer;
 }
 
 /** How to draw a frame. */
@@ -157,17 +167,28 @@ export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] 
     );
     return i === frame.selected ? style.bold(text) : text;
   });
-  const d = a.difference;
-  const percent = `${Math.round(100 * d.coverage)}%`;
-  const right: string[] = [
-    `Estimate ${pay(a.changed.estimate)}`,
-    `Start    ${pay(a.base.estimate)}`,
-    `Change   ${signed(d.estimate)} (${formatPercent(d.relative.estimate, true, money)})`,
-    ...(d.low === null || d.high === null
-      ? []
-      : [`  ${percent} sure ${signed(d.low)} to ${signed(d.high)}`]),
-  ];
-  const peers = a.changed.support.peers;
+  const now = "kind" in a ? a.now : a.changed;
+  const share = (v: number) => formatPercent(v, false, money);
+  const right: string[] = [];
+  if ("kind" in a) {
+    const was = a.start.classes!.predicted;
+    right.push(
+      `Likeliest ${now.classes!.predicted} (${share(now.classes!.shares[now.classes!.predicted])})`,
+      `Start     ${was} (${share(a.start.classes!.shares[was])})`,
+      `${was}: ${share(a.start.classes!.shares[was])} -> ${share(now.classes!.shares[was] ?? 0)}`,
+    );
+  } else {
+    const d = a.difference;
+    right.push(
+      `Estimate ${pay(a.changed.estimate)}`,
+      `Start    ${pay(a.base.estimate)}`,
+      `Change   ${signed(d.estimate)} (${formatPercent(d.relative.estimate, true, money)})`,
+      ...(d.low === null || d.high === null
+        ? []
+        : [`  ${Math.round(100 * d.coverage)}% sure ${signed(d.low)} to ${signed(d.high)}`]),
+    );
+  }
+  const peers = now.support.peers;
   if (peers !== null) {
     right.push(
       `${peers.rows} people share ${
@@ -182,7 +203,7 @@ export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] 
       })`,
     );
   }
-  for (const warning of a.changed.warnings.slice(0, 1)) {
+  for (const warning of now.warnings.slice(0, 1)) {
     right.push(style.warn(fit(`! ${answerNoteText(warning, money)}`, rightWidth)));
   }
   const rows = Math.max(left.length, right.length);
@@ -196,9 +217,28 @@ export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] 
     lines.push(`${l} ${r}`.trimEnd());
   }
   lines.push("");
-  // The intervals on the fixed axis.
   const label = 16;
   const barWidth = Math.max(10, width - label - 1);
+  if ("kind" in a) {
+    // Each class's share with its interval, on 0% to 100%.
+    const c = now.classes!;
+    const room = height - lines.length - 3;
+    for (const [name, value] of Object.entries(c.shares).slice(0, Math.max(0, room - 1))) {
+      const interval = c.intervals?.[name] ?? { low: value, high: value };
+      lines.push(
+        `${fit(name, label)} ${
+          axisBar(interval.low, value, interval.high, { low: 0, high: 1 }, barWidth)
+        }`
+          .trimEnd(),
+      );
+    }
+    lines.push(
+      `${" ".repeat(label + 1)}0%${" ".repeat(Math.max(1, barWidth - 6))}100%`.slice(0, width),
+    );
+    return closing(lines, frame, look);
+  }
+  // The intervals on the fixed axis.
+  const percent = `${Math.round(100 * a.difference.coverage)}%`;
   const c = a.changed;
   if (c.confidence !== null) {
     lines.push(
@@ -239,6 +279,12 @@ export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] 
       );
     }
   }
+  return closing(lines, frame, look);
+}
+
+// The message line and the keys line, at the foot of the screen.
+function closing(lines: string[], frame: ExploreFrame, look: ExploreLook): string[] {
+  const { width, height, style } = look;
   while (lines.length < height - 2) lines.push("");
   lines.length = Math.min(lines.length, height - 2);
   lines.push(fit(frame.message ?? "", width).trimEnd());

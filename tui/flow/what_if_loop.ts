@@ -229,7 +229,7 @@ export async function whatIfLoop(
   );
 
   async function act(next: Next): Promise<void> {
-    const canExplore = io.explore !== undefined && model.target.kind === "regression";
+    const canExplore = io.explore !== undefined;
     if (next === "change" || next === "promote") {
       let changed: Profile;
       if (next === "promote") {

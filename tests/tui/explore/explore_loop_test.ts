@@ -10,6 +10,7 @@ import xterm from "@xterm/headless";
 import {
   applyChanges,
   compareAnswer,
+  estimateProfile,
   fitModel,
   loadTable,
   openModel,
@@ -218,4 +219,52 @@ Deno.test("the screen's promotion equals paygrove compare --json for the same st
   await s.press("q");
   await s.done;
   await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("a model of a class: shares instead of pay, each class's share on 0% to 100%", async () => {
+  const classModel = await fitModel(loadTable(await Deno.readTextFile(demo)), {
+    target: "remote",
+    trees: 20,
+    folds: 3,
+    workers: 1,
+  });
+  const classSession = openModel(classModel);
+  const begin = typicalProfile(classModel);
+  const term = new xterm.Terminal({ cols: 80, rows: 24, allowProposedApi: true });
+  const input = new PassThrough();
+  const output = new PassThrough();
+  const pending: Promise<void>[] = [];
+  output.on("data", (chunk) => pending.push(new Promise((r) => term.write(String(chunk), r))));
+  const done = exploreSession(
+    { input, output, width: 80, height: 24, style: makeStyle(false), money: {}, ascii: true },
+    classSession,
+    begin,
+  );
+  const press = async (key: string) => {
+    input.write(key);
+    await new Promise((r) => setTimeout(r, 40));
+    await Promise.all(pending);
+  };
+  const screen = () =>
+    Array.from({ length: 24 }, (_, i) => term.buffer.active.getLine(i)!.translateToString(true));
+  await press(KEY.down);
+  await press(KEY.right);
+  const moved = applyChanges(classModel, begin, ["level=+1"]).profile;
+  const c = estimateProfile(classSession, moved).classes!;
+  const shown = screen();
+  const likeliest = shown.find((l) => l.includes("Likeliest "))!;
+  assert(
+    likeliest.includes(`Likeliest ${c.predicted} (${(100 * c.shares[c.predicted]).toFixed(1)}%)`),
+    likeliest,
+  );
+  // One bar per class, under them the 0% to 100% axis.
+  for (const name of Object.keys(c.shares)) {
+    assert(shown.some((l) => l.startsWith(name) && /\[.*\]/.test(l)), name);
+  }
+  assert(shown.some((l) => /^\s+0%\s+100%$/.test(l)));
+  // An offer is pay: said, not a crash.
+  for (const key of ["o", "5", "\r"]) await press(key);
+  assert(screen().some((l) => l.includes("An offer is pay")));
+  await press("q");
+  assert.equal((await done).status, 0);
 });
