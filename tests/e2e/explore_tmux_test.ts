@@ -1,6 +1,7 @@
 // `paygrove explore` in a real pseudo-terminal (tmux, 80 x 24): a
 // promotion, a site change and an undo, read off the screen; q leaves the
-// alternate screen with the summary on the normal one, Ctrl-C with 130.
+// alternate screen with the summary on the normal one, Ctrl-C with 130,
+// SIGTERM with 143, the screen given back each time.
 import assert from "node:assert/strict";
 import { paygrove, ROOT, taskArgs } from "./_cli.ts";
 
@@ -8,12 +9,35 @@ const HAS_TMUX = await new Deno.Command("tmux", { args: ["-V"], stdout: "null", 
   .output().then((o) => o.success, () => false);
 const IN_CI = Deno.env.get("CI") === "true";
 
+// Each run on a server of its own (-L): a new session never meets a server
+// that is still shutting down after the last one's session ended.
+let socket = "";
 async function tmux(...args: string[]): Promise<string> {
-  const out = await new Deno.Command("tmux", { args, stdout: "piped", stderr: "piped" }).output();
+  const out = await new Deno.Command("tmux", {
+    args: ["-L", socket, ...args],
+    stdout: "piped",
+    stderr: "piped",
+  }).output();
   if (!out.success) {
     throw new Error(`tmux ${args.join(" ")}: ${new TextDecoder().decode(out.stderr)}`);
   }
   return new TextDecoder().decode(out.stdout);
+}
+
+// Sends SIGTERM to the Deno process running `explore MODEL` (found in /proc).
+async function terminate(model: string): Promise<void> {
+  for await (const entry of Deno.readDir("/proc")) {
+    if (!/^\d+$/.test(entry.name)) continue;
+    let command = "";
+    try {
+      command = (await Deno.readTextFile(`/proc/${entry.name}/cmdline`)).split("\0").join(" ");
+    } catch {
+      continue;
+    }
+    if (command.includes(" explore ") && command.includes(model) && !command.startsWith("sh")) {
+      Deno.kill(Number(entry.name), "SIGTERM");
+    }
+  }
 }
 
 Deno.test({
@@ -37,6 +61,7 @@ Deno.test({
     assert.equal(fit.code, 0, fit.stderr);
     const run = async (keys: string[][]): Promise<{ screens: string[]; end: string }> => {
       const session = `paygrove-ex-${crypto.randomUUID().slice(0, 8)}`;
+      socket = session;
       const command = [
         Deno.execPath(),
         ...taskArgs("paygrove"),
@@ -73,14 +98,17 @@ Deno.test({
         const screens = [await when((s) => s.includes("Estimate "))];
         for (const step of keys) {
           const before = await screen();
-          for (const key of step) await tmux("send-keys", "-t", session, key);
+          for (const key of step) {
+            if (key === "SIGTERM") await terminate(model);
+            else await tmux("send-keys", "-t", session, key);
+          }
           screens.push(await when((s) => s !== before));
           await new Promise((resolve) => setTimeout(resolve, 300));
           screens[screens.length - 1] = await screen();
         }
         return { screens, end: await when((s) => /status=\d+/.test(s)) };
       } finally {
-        await tmux("kill-session", "-t", session).catch(() => {});
+        await tmux("kill-server").catch(() => {});
       }
     };
     const walk = await run([["Down", "Right"], ["Down", "Down", "Down", "Right"], ["u"], ["q"]]);
@@ -101,6 +129,10 @@ Deno.test({
     assert.doesNotMatch(walk.end, /> job_family/, "the alternate screen is gone");
     const stopped = await run([["Down", "Right"], ["C-c"]]);
     assert.match(stopped.end, /status=130/);
+    // SIGTERM from outside: the screen is given back on the way out.
+    const killed = await run([["Down", "Right"], ["SIGTERM"]]);
+    assert.match(killed.end, /status=143/);
+    assert.doesNotMatch(killed.end, /arrows: choose, move/, "the explore screen is gone");
     await Deno.remove(dir, { recursive: true });
   },
 });

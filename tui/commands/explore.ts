@@ -72,6 +72,17 @@ export function exploreCommand(terminal: Terminal): CommandUnknownOpts {
     const { profile, start } = await profileFromFlags(model, flags, terminal);
     const money = moneyStyle(model, { locale: flags.locale });
     const size = () => Deno.consoleSize();
+    // SIGTERM or SIGHUP while exploring: the stop handler exits the process;
+    // on the way out the screen and the cursor are given back.
+    const restore = () => {
+      try {
+        Deno.stdin.setRaw(false);
+        Deno.stdout.writeSync(new TextEncoder().encode("\x1b[?25h\x1b[?1049l"));
+      } catch {
+        // The terminal has gone.
+      }
+    };
+    globalThis.addEventListener("unload", restore);
     const result = await exploreSession(
       {
         input: process.stdin,
@@ -90,7 +101,7 @@ export function exploreCommand(terminal: Terminal): CommandUnknownOpts {
       session,
       profile,
       flags.coverage,
-    );
+    ).finally(() => globalThis.removeEventListener("unload", restore));
     // What was found, on the normal screen: where it ended, and what was kept.
     const pay = (v: number) => formatPay(v, money);
     const said = (name: string, p: Float64Array) => {
