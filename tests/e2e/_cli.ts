@@ -61,6 +61,30 @@ export async function paygrove(
 /** The project root, with a trailing slash. */
 export const ROOT = root;
 
+/**
+ * Fits the demo company's model (EUR, 30 trees, 3 folds: quick, and the
+ * same model each time) to `out`, with any further `fit` options; throws
+ * what fit said if it fails.
+ */
+export async function fitDemoModel(out: string, ...more: string[]): Promise<void> {
+  const run = await paygrove([
+    "fit",
+    `${root}fixtures/demo_company.csv`,
+    "--target",
+    "base_pay_eur",
+    "--currency",
+    "EUR",
+    "--trees",
+    "30",
+    "--folds",
+    "3",
+    "--out",
+    out,
+    ...more,
+  ]);
+  if (run.code !== 0) throw new Error(run.stderr);
+}
+
 /** Whether util-linux's `script` is here to give a command a pseudo-terminal. */
 export const HAS_SCRIPT = await new Deno.Command("script", {
   args: ["--version"],

@@ -2,26 +2,12 @@
 // csv-parse), the Markdown report, and the refusals with their exit status.
 import assert from "node:assert/strict";
 import { parse } from "csv-parse/sync";
-import { paygrove, ROOT } from "./_cli.ts";
+import { fitDemoModel, paygrove, ROOT } from "./_cli.ts";
 
 const dir = await Deno.makeTempDir({ prefix: "paygrove-bands-" });
 const demo = `${ROOT}fixtures/demo_company.csv`;
 const model = `${dir}/demo.model.json`;
-const fitted = await paygrove([
-  "fit",
-  demo,
-  "--target",
-  "base_pay_eur",
-  "--currency",
-  "EUR",
-  "--trees",
-  "30",
-  "--folds",
-  "3",
-  "--out",
-  model,
-]);
-if (fitted.code !== 0) throw new Error(fitted.stderr);
+await fitDemoModel(model);
 
 Deno.test("bands --json, --out and --report say the same bands", async () => {
   const out = `${dir}/bands.csv`;

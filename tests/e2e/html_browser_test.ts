@@ -6,7 +6,7 @@
 // note; in CI (CI=true) that fails, so a missing install cannot pass.
 import assert from "node:assert/strict";
 import { chromiumPath, inkInBoxes, openInChromium, pdfPages } from "./_browser.ts";
-import { paygrove, ROOT } from "./_cli.ts";
+import { fitDemoModel, paygrove, ROOT } from "./_cli.ts";
 
 const chromium = await chromiumPath();
 const inCi = Deno.env.get("CI") === "true";
@@ -22,21 +22,7 @@ let fitted = false;
 async function fitDemo(): Promise<void> {
   if (fitted) return;
   fitted = true;
-  const run = await paygrove([
-    "fit",
-    demo,
-    "--target",
-    "base_pay_eur",
-    "--currency",
-    "EUR",
-    "--trees",
-    "30",
-    "--folds",
-    "3",
-    "--out",
-    model,
-  ]);
-  assert.equal(run.code, 0, run.stderr);
+  await fitDemoModel(model);
 }
 
 // The report's charts alone, each at a known place: the page's head (its

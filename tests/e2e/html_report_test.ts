@@ -5,26 +5,12 @@
 // Chromium.)
 import assert from "node:assert/strict";
 import { parseHTML } from "linkedom";
-import { paygrove, ROOT } from "./_cli.ts";
+import { fitDemoModel, paygrove, ROOT } from "./_cli.ts";
 
 const dir = await Deno.makeTempDir({ prefix: "paygrove-html-" });
 const demo = `${ROOT}fixtures/demo_company.csv`;
 const model = `${dir}/demo.model.json`;
-const fitted = await paygrove([
-  "fit",
-  demo,
-  "--target",
-  "base_pay_eur",
-  "--currency",
-  "EUR",
-  "--trees",
-  "30",
-  "--folds",
-  "3",
-  "--out",
-  model,
-]);
-if (fitted.code !== 0) throw new Error(fitted.stderr);
+await fitDemoModel(model);
 
 // The page's DOM (linkedom's types are not Deno's DOM types).
 // deno-lint-ignore no-explicit-any
