@@ -63,7 +63,7 @@ export const EXIT = { ok: 0, data: 1, usage: 2, rowsRefused: 3, internal: 70 } a
  * import { buildProgram } from "./main.ts";
  * const program = buildProgram(recordingTerminal());
  * assert.deepEqual(program.commands.map((c) => c.name()), [
- *   "schema", "fit", "estimate", "compare", "sweep", "batch", "inspect", "gap", "review",
+ *   "schema", "fit", "estimate", "compare", "explore", "sweep", "batch", "inspect", "gap", "review",
  *   "bands", "demo-data",
  * ]);
  * ```
