@@ -38,7 +38,7 @@ import {
 import type { CompareAnswer } from "../../mod.ts";
 import { formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
 import type { Style } from "../render/style.ts";
-import { terminalText } from "../render/safe_text.ts";
+import { forTerminal, terminalText } from "../render/safe_text.ts";
 import { type ClassAnswers, type ExploreFrame, renderExplore } from "./explore_view.ts";
 
 /** The streams and terminal facts of an explore session. */
@@ -197,17 +197,19 @@ export function exploreSession(
   const frame = (): string[] => {
     const startWords = describeProfile(model, start);
     const words = describeProfile(model, state.profile);
+    // Names, levels and conditions come from the table: shown with their
+    // control characters made visible, as on every screen.
     return renderExplore({
-      target: model.target.name,
+      target: terminalText(model.target.name),
       levers: all.map((l) => ({
-        name: l.name,
+        name: terminalText(l.name),
         value: terminalText(String(words[l.name] ?? "missing")),
         moved: words[l.name] !== startWords[l.name],
       })),
       selected: state.selected,
-      answer,
+      answer: forTerminal(answer),
       axis,
-      lastMove: state.lastMove,
+      lastMove: state.lastMove === null ? null : forTerminal(state.lastMove),
       message: state.typing !== null
         ? `${state.typing.kind === "offer" ? "Offer" : `${all[state.selected].name} =`} ` +
           `${terminalText(state.typing.text)}_  (Enter to apply, Esc to cancel)`

@@ -268,3 +268,38 @@ Deno.test("a model of a class: shares instead of pay, each class's share on 0% t
   await press("q");
   assert.equal((await done).status, 0);
 });
+
+Deno.test("hostile names and levels reach the explore screen as visible text, never as control", async () => {
+  const { hostileCsv, RAW_CONTROL, rawControl } = await import("../../e2e/_hostile.ts");
+  const hostile = await fitModel(loadTable(await hostileCsv(400)), {
+    target: "base_pay_eur",
+    trees: 10,
+    folds: 3,
+    workers: 1,
+  });
+  const input = new PassThrough();
+  const output = new PassThrough();
+  let bytes = "";
+  output.on("data", (chunk) => (bytes += chunk));
+  const done = exploreSession(
+    { input, output, width: 80, height: 24, style: makeStyle(false), money: {}, ascii: true },
+    openModel(hostile),
+    typicalProfile(hostile),
+  );
+  // Walk every attribute, moving each both ways, so each level's name is drawn.
+  for (let i = 0; i < hostile.features.length; i++) {
+    for (const key of [KEY.right, KEY.right, KEY.left, KEY.down]) {
+      input.write(key);
+      await new Promise((r) => setTimeout(r, 5));
+    }
+  }
+  input.write("q");
+  await done;
+  // What is left once the screen's own sequences are taken out must hold no control.
+  const own = /\x1b\[(?:\d+;1H|K|J|H|2J|\?25[lh]|\?1049[lh])/g;
+  const left = bytes.replace(own, "");
+  assert.equal(rawControl(left), null, "a raw control character reached the screen");
+  assert(!RAW_CONTROL.test(left));
+  // And the names are there, made visible.
+  assert(left.includes("years\\x1b[8m_exp"), "the escaped column name is shown");
+});
