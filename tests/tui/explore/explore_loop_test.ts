@@ -296,6 +296,7 @@ Deno.test("hostile names and levels reach the explore screen as visible text, ne
   input.write("q");
   await done;
   // What is left once the screen's own sequences are taken out must hold no control.
+  // deno-lint-ignore no-control-regex
   const own = /\x1b\[(?:\d+;1H|K|J|H|2J|\?25[lh]|\?1049[lh])/g;
   const left = bytes.replace(own, "");
   assert.equal(rawControl(left), null, "a raw control character reached the screen");
