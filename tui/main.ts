@@ -30,9 +30,9 @@ import { startFlow } from "./flow/start_flow.ts";
 import { demoDataCommand } from "./commands/demo_data.ts";
 import { gapCommand } from "./commands/gap.ts";
 import { reviewCommand } from "./commands/review.ts";
-import { exploreCommand, ExploreInterrupted } from "./commands/explore.ts";
+import { exploreCommand } from "./commands/explore.ts";
 import { clipLongRuns, jsonText, terminalGuard } from "./render/safe_text.ts";
-import { listenForStop } from "./stop_signals.ts";
+import { KeyInterrupt, listenForStop } from "./stop_signals.ts";
 
 /**
  * Exit statuses of the `paygrove` command.
@@ -172,7 +172,7 @@ function report(error: unknown, terminal: Terminal, asJson = false): number {
   // The command has written its output and said which rows it refused.
   if (error instanceof SomeRowsRefused) return EXIT.rowsRefused;
   // Ctrl-C on the explore screen: the screen is restored, and the status is a SIGINT's.
-  if (error instanceof ExploreInterrupted) return 130;
+  if (error instanceof KeyInterrupt) return error.status;
   if (error instanceof CommanderError) {
     // Commander has already printed its message (and help where asked).
     return error.exitCode === 0 ? EXIT.ok : EXIT.usage;

@@ -8,7 +8,7 @@
  */
 
 import type { Command } from "@commander-js/extra-typings";
-import { assertCanWrite, OptionError, type Provenance, writeFileAtomic } from "../mod.ts";
+import { assertCanWrite, OptionError, type Provenance, sameFile, writeFileAtomic } from "../mod.ts";
 import { ANSWER_CAUTIONS, provenanceLine } from "./render/cautions.ts";
 import { htmlPage, type HtmlSection, isHtmlPath } from "./render/html/page.ts";
 
@@ -102,4 +102,36 @@ export async function writeHtmlReport(
     sections: page.sections,
   });
   await writeFileAtomic(path, html, { force, option: "--report" });
+}
+
+/**
+ * Refuses two outputs that are one file under any spelling (the second
+ * would replace the first, or a shared file take a private one's place);
+ * outputs not given are skipped.
+ *
+ * @throws {OptionError} naming the later option and the earlier one.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { assertApart } from "./report_file.ts";
+ * const dir = Deno.makeTempDirSync();
+ * await assertApart([["--out", `${dir}/a.csv`], ["--report", undefined], ["--people", `${dir}/b.csv`]]);
+ * await assert.rejects(
+ *   () => assertApart([["--out", `${dir}/a.csv`], ["--report", `${dir}/./a.csv`]]),
+ *   /--report: .* is the --out file/,
+ * );
+ * ```
+ */
+export async function assertApart(
+  outputs: readonly (readonly [string, string | undefined])[],
+): Promise<void> {
+  const given = outputs.filter((o): o is readonly [string, string] => o[1] !== undefined);
+  for (let i = 0; i < given.length; i++) {
+    for (let j = i + 1; j < given.length; j++) {
+      if (await sameFile(given[i][1], given[j][1])) {
+        throw new OptionError(`${given[j][0]}: ${given[j][1]} is the ${given[i][0]} file`);
+      }
+    }
+  }
 }

@@ -98,3 +98,25 @@ export function listenForStop(
     for (const [signal, handler] of added) Deno.removeSignalListener(signal, handler);
   };
 }
+
+/**
+ * Ctrl-C read as a key (a screen in raw mode, where the terminal sends no
+ * SIGINT): thrown up to the command's end, which ends with status 130 as
+ * SIGINT would.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { KeyInterrupt, STOP_SIGNALS } from "./stop_signals.ts";
+ * assert.equal(new KeyInterrupt().status, 128 + STOP_SIGNALS[0].number);
+ * ```
+ */
+export class KeyInterrupt extends Error {
+  /** The exit status, as for SIGINT. */
+  readonly status = 128 + STOP_SIGNALS[0].number;
+
+  constructor() {
+    super("stopped with Ctrl-C");
+    this.name = "KeyInterrupt";
+  }
+}

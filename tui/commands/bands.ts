@@ -22,11 +22,11 @@ import {
   OptionError,
   postingRange,
   RowsRefusedError,
-  sameFile,
   typicalProfile,
   writeFileAtomic,
 } from "../../mod.ts";
 import { ANALYST_FILE_OPTION, openModelFile } from "../open_model.ts";
+import { assertApart } from "../report_file.ts";
 import { readTableForModel } from "../profile_flags.ts";
 import {
   coverageOption,
@@ -146,11 +146,19 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--force", "replace an existing --out or --report file")
     .option("--json", "print one JSON document on stdout instead of text")
     .action(async (file, flags) => {
+      if (flags.target !== undefined && flags.table !== undefined) {
+        throw new OptionError(
+          "--target fits on the table given first; --table goes with a model file: give one",
+        );
+      }
+      // The model file given, or one fitted on the table given (--target).
+      const modelOf = () =>
+        flags.target === undefined
+          ? openModelFile(terminal, file, flags.analystFile)
+          : fitFirst(terminal, file, { ...flags, target: flags.target });
       if (flags.posting === true) {
         checkPostingFlags(flags);
-        const model = flags.target === undefined
-          ? await openModelFile(terminal, file, flags.analystFile)
-          : await fitFirst(terminal, file, { ...flags, target: flags.target });
+        const model = await modelOf();
         await postingAction(terminal, model, {
           ...flags,
           set: flags.set!,
@@ -160,11 +168,6 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
       }
       if (flags.set !== undefined) {
         throw new OptionError("--set describes a role for --posting; add --posting");
-      }
-      if (flags.target !== undefined && flags.table !== undefined) {
-        throw new OptionError(
-          "--target fits on the table given first; --table goes with a model file: give one",
-        );
       }
       if (flags.target === undefined && flags.table === undefined) {
         throw new OptionError(
@@ -188,9 +191,7 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
         }
       }
       await assertApart(outputs);
-      const model = flags.target === undefined
-        ? await openModelFile(terminal, file, flags.analystFile)
-        : await fitFirst(terminal, file, { ...flags, target: flags.target });
+      const model = await modelOf();
       const by = flags.by ?? ladderOf(model.features);
       // A level the model never saw in some rows: the others are banded, and
       // the screen says how many were left out (all refused: the refusal).
@@ -263,19 +264,6 @@ function bandTheOthers(error: unknown): ModelRows {
   throw error;
 }
 
-// No two outputs may be one file (the second would replace the first, or
-// the shared band table would take the per-person file's place).
-async function assertApart(outputs: readonly (readonly [string, string | undefined])[]) {
-  const given = outputs.filter((o): o is readonly [string, string] => o[1] !== undefined);
-  for (let i = 0; i < given.length; i++) {
-    for (let j = i + 1; j < given.length; j++) {
-      if (await sameFile(given[i][1], given[j][1])) {
-        throw new OptionError(`${given[j][0]}: ${given[j][1]} is the ${given[i][0]} file`);
-      }
-    }
-  }
-}
-
 // `bands TABLE --target COLUMN`: a model fitted on the table first, with
 // the default settings, as `fit` would (the same screening of pay).
 async function fitFirst(
@@ -322,8 +310,6 @@ function collectSets(value: string, previous: string[] = []): string[] {
 function checkPostingFlags(
   flags: {
     set?: string[];
-    target?: string;
-    table?: string;
     spread?: number;
     out?: string;
     report?: string;
@@ -341,11 +327,6 @@ function checkPostingFlags(
     flags.people !== undefined
   ) {
     throw new OptionError("--posting takes --set, --table, --coverage and --json only");
-  }
-  if (flags.target !== undefined && flags.table !== undefined) {
-    throw new OptionError(
-      "--target fits on the table given first; --table goes with a model file: give one",
-    );
   }
 }
 

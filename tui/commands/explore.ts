@@ -17,24 +17,7 @@ import { formatPay, formatPercent } from "../render/numbers.ts";
 import { terminalText } from "../render/safe_text.ts";
 import type { Terminal } from "../terminal.ts";
 import { exploreSession } from "../explore/explore_loop.ts";
-
-/**
- * Ctrl-C on the explore screen: the command ends with status 130, as any
- * interrupted command does.
- *
- * @example
- * ```ts
- * import assert from "node:assert/strict";
- * import { ExploreInterrupted } from "./explore.ts";
- * assert.equal(new ExploreInterrupted().name, "ExploreInterrupted");
- * ```
- */
-export class ExploreInterrupted extends Error {
-  constructor() {
-    super("stopped with Ctrl-C");
-    this.name = "ExploreInterrupted";
-  }
-}
+import { KeyInterrupt } from "../stop_signals.ts";
 
 /**
  * Builds the `explore` command.
@@ -120,6 +103,6 @@ export function exploreCommand(terminal: Terminal): CommandUnknownOpts {
     terminal.out(`Explored from ${terminalText(start)}.`);
     terminal.out(terminalText(said("Ended at", result.profile)));
     for (const k of result.kept) terminal.out(terminalText(said(`Kept ${k.name}`, k.profile)));
-    if (result.status === 130) throw new ExploreInterrupted();
+    if (result.status === 130) throw new KeyInterrupt();
   });
 }

@@ -19,7 +19,7 @@ import {
 } from "../../mod.ts";
 import { progressBar } from "../progress.ts";
 import { moneyStyle, renderModelSummary } from "../render/model_view.ts";
-import { checkHtmlReport, writeHtmlReport } from "../report_file.ts";
+import { assertApart, checkHtmlReport, writeHtmlReport } from "../report_file.ts";
 import { formatNumber } from "../render/numbers.ts";
 import type { Terminal } from "../terminal.ts";
 import { wordedWarnings } from "../option_words.ts";
@@ -233,9 +233,7 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
       }
       await assertCanWrite(flags.out, flags.force ?? false, "--out", [file]);
       if (flags.report !== undefined) {
-        if (await sameFile(flags.report, flags.out)) {
-          throw new OptionError(`--report: ${flags.report} is the --out file`);
-        }
+        await assertApart([["--out", flags.out], ["--report", flags.report]]);
         await checkHtmlReport(flags.report, flags.force ?? false, [file]);
       }
       if (flags.analystFile !== undefined) {

@@ -15,12 +15,11 @@ import {
   OptionError,
   type PayReview,
   payReview,
-  sameFile,
   writeFileAtomic,
 } from "../../mod.ts";
 import { tableProvenanceLine } from "../render/cautions.ts";
 import { htmlPage } from "../render/html/page.ts";
-import { checkHtmlReport } from "../report_file.ts";
+import { assertApart, checkHtmlReport } from "../report_file.ts";
 import { progressBar } from "../progress.ts";
 import { printTableAnswer } from "../render/cautions.ts";
 import { reviewJson } from "../render/report_notes.ts";
@@ -123,9 +122,7 @@ export function reviewCommand(terminal: Terminal): CommandUnknownOpts {
         await assertCanWrite(flags.out, flags.force ?? false, "--out", [file]);
       }
       if (flags.report !== undefined) {
-        if (flags.out !== undefined && await sameFile(flags.report, flags.out)) {
-          throw new OptionError(`--report: ${flags.report} is the --out file`);
-        }
+        await assertApart([["--out", flags.out], ["--report", flags.report]]);
         await checkHtmlReport(flags.report, flags.force ?? false, [file]);
       }
       const options = loadOptions(flags, file);

@@ -114,8 +114,8 @@ export function exploreAxis(session: ModelSession, start: Profile): { low: numbe
     const pad = (high - low) / 20;
     return { low: Math.max(0, low - pad), high: high + pad };
   }
-  const answer = compareAnswer(session, start, start);
-  const r = answer.base.range ?? { low: answer.base.estimate, high: answer.base.estimate };
+  const answer = estimateProfile(session, start);
+  const r = answer.range ?? { low: answer.estimate, high: answer.estimate };
   return { low: r.low / 1.5, high: r.high * 1.5 };
 }
 
@@ -194,8 +194,8 @@ export function exploreSession(
   const pathOf = (a: CompareAnswer | ClassAnswers) => ("kind" in a ? a.now : a.changed).path;
   let previous: string[] = [];
 
+  const startWords = describeProfile(model, start);
   const frame = (): string[] => {
-    const startWords = describeProfile(model, start);
     const words = describeProfile(model, state.profile);
     // Names, levels and conditions come from the table: shown with their
     // control characters made visible, as on every screen.

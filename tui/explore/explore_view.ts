@@ -11,7 +11,13 @@
 
 import type { CompareAnswer, EstimateAnswer } from "../../mod.ts";
 import { answerNoteText } from "../render/answer_notes.ts";
-import { formatPay, formatPercent, type NumberStyle } from "../render/numbers.ts";
+import {
+  formatLevel,
+  formatPay,
+  formatPercent,
+  formatSignedPay,
+  type NumberStyle,
+} from "../render/numbers.ts";
 import type { Style } from "../render/style.ts";
 
 /** What one frame shows. */
@@ -141,7 +147,7 @@ export function axisBar(
 export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] {
   const { width, height, style, money } = look;
   const pay = (v: number) => formatPay(v, money);
-  const signed = (v: number) => `${v >= 0 ? "+" : "-"}${pay(Math.abs(v))}`;
+  const signed = (v: number) => formatSignedPay(v, money);
   const a = frame.answer;
   const lines: string[] = [];
   lines.push(style.bold(fit(`Explore ${frame.target}: what moves the estimate`, width)));
@@ -185,7 +191,7 @@ export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] 
       `Change   ${signed(d.estimate)} (${formatPercent(d.relative.estimate, true, money)})`,
       ...(d.low === null || d.high === null
         ? []
-        : [`  ${Math.round(100 * d.coverage)}% sure ${signed(d.low)} to ${signed(d.high)}`]),
+        : [`  ${formatLevel(d.coverage, money)} sure ${signed(d.low)} to ${signed(d.high)}`]),
     );
   }
   const peers = now.support.peers;
@@ -238,7 +244,7 @@ export function renderExplore(frame: ExploreFrame, look: ExploreLook): string[] 
     return closing(lines, frame, look);
   }
   // The intervals on the fixed axis.
-  const percent = `${Math.round(100 * a.difference.coverage)}%`;
+  const percent = formatLevel(a.difference.coverage, money);
   const c = a.changed;
   if (c.confidence !== null) {
     lines.push(

@@ -14,7 +14,7 @@ import { MAX_TREES, wholeNumber } from "../option_values.ts";
 import { streamFlowIO } from "./flow_io.ts";
 import { guidedFlow } from "./guided_flow.ts";
 import { isReportPath, reportJsonPath } from "./save_step.ts";
-import { listenForStop } from "../stop_signals.ts";
+import { KeyInterrupt, listenForStop } from "../stop_signals.ts";
 
 /**
  * The committed demo table, relative to this module.
@@ -117,11 +117,12 @@ export async function startFlow(args: string[], terminal: Terminal): Promise<num
       read: readOverrides(options),
     });
   } catch (error) {
-    // Ctrl-C or Esc at a prompt: the prompt restores the terminal; say so and
-    // stop. Ctrl-C (ExitPromptError) is an interruption, Esc a way to leave.
+    // Ctrl-C or Esc at a prompt, or Ctrl-C on the explore screen: each
+    // restores the terminal; say so and stop. Ctrl-C (ExitPromptError,
+    // KeyInterrupt) is an interruption, Esc a way to leave.
     const name = (error as Error).name;
     if (
-      name === "ExitPromptError" || name === "AbortPromptError" || name === "ExploreInterrupted"
+      name === "ExitPromptError" || name === "AbortPromptError" || error instanceof KeyInterrupt
     ) {
       io.say("\nStopped. Nothing more was written.");
       return name === "AbortPromptError" ? 0 : 130;

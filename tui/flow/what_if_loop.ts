@@ -35,7 +35,7 @@ import { forTerminal, terminalGuard, terminalText } from "../render/safe_text.ts
 import { formatPay, type NumberStyle } from "../render/numbers.ts";
 import wrapAnsi from "wrap-ansi";
 import type { FlowIO } from "./flow_io.ts";
-import { ExploreInterrupted } from "../commands/explore.ts";
+import { KeyInterrupt } from "../stop_signals.ts";
 import type { Scenario } from "./report.ts";
 import { screenRows, wrapped } from "./screen_room.ts";
 import { buildProfile, editOne, promotionFeature } from "./profile_step.ts";
@@ -323,7 +323,7 @@ export async function whatIfLoop(
       for (const kept of explored.kept) {
         scenarios.push({ name: kept.name, answer: estimateProfile(session, kept.profile, 0.9) });
       }
-      if (explored.status === 130) throw new ExploreInterrupted();
+      if (explored.status === 130) throw new KeyInterrupt();
       if (!explored.profile.every((v, i) => Object.is(v, profile[i]))) {
         history.push(profile);
         profile = explored.profile;

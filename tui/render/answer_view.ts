@@ -11,7 +11,13 @@ import wrapAnsi from "wrap-ansi";
 import type { CompareAnswer, EstimateAnswer, OfferAnswer, SweepAnswer } from "../../mod.ts";
 import { barChart, histogram, intervalChart } from "./charts.ts";
 import { renderChangeParts, renderContributions } from "./contributions_view.ts";
-import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
+import {
+  formatNumber,
+  formatPay,
+  formatPercent,
+  formatSignedPay,
+  type NumberStyle,
+} from "./numbers.ts";
 import type { Style } from "./style.ts";
 import { chartSymbols } from "./glyphs.ts";
 import { answerNoteText } from "./answer_notes.ts";
@@ -506,10 +512,14 @@ function compareLines(
   // When most trees see no change at all, the interval is one value and the
   // average may lie outside it: say what the trees say instead.
   const interval = d.low !== null && d.high !== null && d.low === d.high
-    ? ` (in ${pct} of the trees the change is ${signed(d.low, pay)}; the average comes from the ` +
+    ? ` (in ${pct} of the trees the change is ${
+      formatSignedPay(d.low, money, whole)
+    }; the average comes from the ` +
       `few trees that see one)`
     : d.low !== null && d.high !== null
-    ? ` (${pct}: ${signed(d.low, pay)} to ${signed(d.high, pay)}; ` +
+    ? ` (${pct}: ${formatSignedPay(d.low, money, whole)} to ${
+      formatSignedPay(d.high, money, whole)
+    }; ` +
       `${formatPercent(d.relative.low!, true)} to ${formatPercent(d.relative.high!, true)})`
     : " (no interval: the model has no ensemble)";
   lines.push(
@@ -559,10 +569,6 @@ function compareLines(
   for (const w of warnings) lines.push(...wrap(style.warn(`! ${w}`)));
   // Under the flow's menu, blank lines cost the screen room.
   return options.compact ? lines.filter((l) => l !== "") : lines;
-}
-
-function signed(x: number, pay: (x: number) => string): string {
-  return `${x >= 0 ? "+" : "-"}${pay(Math.abs(x))}`;
 }
 
 /** How the flow lays a sweep out under its menu. */

@@ -9,7 +9,13 @@
 import wrapAnsi from "wrap-ansi";
 import type { AttributePart, ChangeContributions, ContributionsAnswer } from "../../mod.ts";
 import { signedBarChart } from "./charts.ts";
-import { formatNumber, formatPay, formatPercent, type NumberStyle } from "./numbers.ts";
+import {
+  formatNumber,
+  formatPay,
+  formatPercent,
+  formatSignedPay,
+  type NumberStyle,
+} from "./numbers.ts";
 import type { Style } from "./style.ts";
 
 /** How the parts are laid out. */
@@ -138,7 +144,7 @@ function partBars(parts: readonly AttributePart[], options: PartsViewOptions): s
   const labels = top.map((p) => label(p, Math.max(12, Math.floor(options.width * 0.4))));
   // Percentages and amounts each in their own right-aligned column.
   const percents = top.map((p) => p.percent === null ? "" : formatPercent(p.percent, true, money));
-  const amounts = top.map((p) => signedPay(p.money, money));
+  const amounts = top.map((p) => formatSignedPay(p.money, money, true));
   const percentWidth = Math.max(...percents.map((t) => t.length));
   const amountWidth = Math.max(...amounts.map((t) => t.length));
   const texts = top.map((_, i) =>
@@ -175,10 +181,6 @@ function label(part: AttributePart, width: number): string {
     ? `${part.feature} ${value(part.value)} (same)`
     : `${part.feature} ${value(part.from)} -> ${value(part.value)}`;
   return text.length <= width ? text : `${text.slice(0, width - 3)}...`;
-}
-
-function signedPay(x: number, money: NumberStyle): string {
-  return `${x >= 0 ? "+" : "-"}${formatPay(Math.abs(x), money, true)}`;
 }
 
 // The size of the largest part left out, as a bound the reader can use.

@@ -132,3 +132,33 @@ export function formatPercent(share: number, signed = false, style: NumberStyle 
     signDisplay: signed ? "exceptZero" : "auto",
   }).format(share);
 }
+
+/**
+ * A change in money with its sign always shown: `+€1,200`, `-€300`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { formatSignedPay } from "./numbers.ts";
+ * assert.equal(formatSignedPay(1200, { currency: "EUR" }), "+€1,200");
+ * assert.equal(formatSignedPay(-300.4, { currency: "EUR" }, true), "-€300");
+ * ```
+ */
+export function formatSignedPay(value: number, style: NumberStyle, wholeUnits = false): string {
+  return `${value >= 0 ? "+" : "-"}${formatPay(Math.abs(value), style, wholeUnits)}`;
+}
+
+/**
+ * A coverage or confidence level as a whole percentage: `90%`, `95%`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { formatLevel } from "./numbers.ts";
+ * assert.equal(formatLevel(0.9), "90%");
+ * assert.equal(formatLevel(0.95, { locale: "de-DE" }), "95%");
+ * ```
+ */
+export function formatLevel(share: number, style: NumberStyle = {}): string {
+  return `${formatNumber(100 * share, style, 0)}%`;
+}

@@ -9,7 +9,13 @@
 
 import type { CompareAnswer } from "../../../mod.ts";
 import { sureOfWhat } from "../answer_view.ts";
-import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../numbers.ts";
+import {
+  formatLevel,
+  formatPay,
+  formatPercent,
+  formatSignedPay,
+  type NumberStyle,
+} from "../numbers.ts";
 import { barsChart, type IntervalRow, intervalsChart } from "./charts.ts";
 import { figureTable, type HtmlCell, type HtmlSection, paragraph } from "./page.ts";
 
@@ -39,8 +45,8 @@ export function compareSections(
   money: NumberStyle,
 ): HtmlSection[] {
   const pay = (v: number) => formatPay(v, money);
-  const signedPay = (v: number) => `${v >= 0 ? "+" : "-"}${pay(Math.abs(v))}`;
-  const percent = (share: number) => `${formatNumber(100 * share, money, 0)}%`;
+  const signedPay = (v: number) => formatSignedPay(v, money);
+  const percent = (share: number) => formatLevel(share, money);
   const what = answer.changes.map((c) =>
     `${c.feature} ${c.from ?? "missing"} to ${c.to ?? "missing"}`
   )

@@ -10,7 +10,13 @@
 import type { EstimateAnswer } from "../../../mod.ts";
 import { sureOfWhat } from "../answer_view.ts";
 import { histogramCounts } from "../charts.ts";
-import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../numbers.ts";
+import {
+  formatLevel,
+  formatNumber,
+  formatPay,
+  formatPercent,
+  type NumberStyle,
+} from "../numbers.ts";
 import { barsChart, histogramChart, intervalsChart } from "./charts.ts";
 import { figureTable, type HtmlCell, type HtmlSection, paragraph } from "./page.ts";
 
@@ -46,7 +52,7 @@ export function estimateSections(
   money: NumberStyle,
 ): HtmlSection[] {
   const pay = (v: number) => formatPay(v, money);
-  const whole = (share: number) => `${formatNumber(100 * share, money, 0)}%`;
+  const whole = (share: number) => formatLevel(share, money);
   const sections: HtmlSection[] = [];
   const profile = figureTable(
     `The profile (started from ${words.start})`,

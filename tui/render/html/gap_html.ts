@@ -9,7 +9,7 @@
  */
 
 import type { GapFigure, GapReport } from "../../../mod.ts";
-import { formatNumber, formatPercent, type NumberStyle } from "../numbers.ts";
+import { formatLevel, formatNumber, formatPercent, type NumberStyle } from "../numbers.ts";
 import { barsChart, type IntervalRow, intervalsChart } from "./charts.ts";
 import { figureTable, type HtmlCell, type HtmlSection, paragraph } from "./page.ts";
 
@@ -41,7 +41,7 @@ export function gapSections(
   const figure = (
     v: number | null,
   ): HtmlCell => (v === null ? { text: "" } : { text: pct(v), value: v });
-  const level = `${formatNumber(100 * report.confidence, numbers, 0)}%`;
+  const level = formatLevel(report.confidence, numbers);
   const sections: HtmlSection[] = [];
   const explain = paragraph(
     `A gap is how much less a group is paid than ${report.reference} (${report.referenceReason}), ` +

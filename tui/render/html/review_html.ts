@@ -11,7 +11,7 @@
  */
 
 import type { PayReview } from "../../../mod.ts";
-import { formatNumber, formatPay, type NumberStyle } from "../numbers.ts";
+import { formatLevel, formatNumber, formatPay, type NumberStyle } from "../numbers.ts";
 import { barsChart } from "./charts.ts";
 import { figureTable, type HtmlCell, type HtmlSection, paragraph } from "./page.ts";
 
@@ -39,7 +39,7 @@ export function reviewSections(
 ): HtmlSection[] {
   const pay = (v: number) => formatPay(v, numbers);
   const count = (v: number): HtmlCell => ({ text: formatNumber(v, numbers, 0), value: v });
-  const percent = `${formatNumber(100 * review.coverage, numbers, 0)}%`;
+  const percent = formatLevel(review.coverage, numbers);
   const sections: HtmlSection[] = [];
   const intro = [
     paragraph(
@@ -97,7 +97,7 @@ export function reviewSections(
             ]
           ),
           axis: "share of the category's people",
-          format: (v) => `${formatNumber(100 * v, numbers, 0)}%`,
+          format: (v) => formatLevel(v, numbers),
           caption: `The share of each category's people paid under and over their range; about ` +
             `${
               formatNumber((100 * (1 - review.coverage)) / 2, numbers, 1)

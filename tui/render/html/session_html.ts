@@ -9,7 +9,7 @@
 import type { CompareAnswer, EstimateAnswer, GapReport } from "../../../mod.ts";
 import { answerNoteText } from "../answer_notes.ts";
 import { sureOfWhat } from "../answer_view.ts";
-import { formatNumber, formatPay, type NumberStyle } from "../numbers.ts";
+import { formatLevel, formatPay, type NumberStyle } from "../numbers.ts";
 import { gapNoteText } from "../report_notes.ts";
 import { intervalsChart } from "./charts.ts";
 import { compareSections } from "./compare_html.ts";
@@ -61,7 +61,7 @@ export function sessionSections(
     ]);
     const drawn = scenarios.filter((s) => s.answer.range !== null);
     const coverage = scenarios[0].answer.range?.coverage ?? 0.9;
-    const percent = `${formatNumber(100 * coverage, money, 0)}%`;
+    const percent = formatLevel(coverage, money);
     sections.push({
       title: "The scenarios side by side",
       body: [

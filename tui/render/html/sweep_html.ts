@@ -6,7 +6,7 @@
  */
 
 import type { SweepAnswer } from "../../../mod.ts";
-import { formatNumber, formatPay, type NumberStyle } from "../numbers.ts";
+import { formatLevel, formatNumber, formatPay, type NumberStyle } from "../numbers.ts";
 import { sweepChart } from "./charts.ts";
 import { figureTable, type HtmlCell, type HtmlSection, paragraph } from "./page.ts";
 
@@ -35,7 +35,7 @@ export function sweepSections(
   money: NumberStyle,
 ): HtmlSection[] {
   const pay = (v: number) => formatPay(v, money);
-  const percent = `${formatNumber(100 * answer.coverage, money, 0)}%`;
+  const percent = formatLevel(answer.coverage, money);
   const levels = answer.points.some((p) => typeof p.value === "string");
   const drawn = answer.points.filter((p) => p.confidence !== null && p.range !== null);
   const chart = drawn.length < 2 ? "" : sweepChart({
