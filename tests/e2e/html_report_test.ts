@@ -549,3 +549,33 @@ Deno.test("review --report .html: counts and costs only, no one's name or pay, s
   }
   assert(withheld > 0, "some category has fewer than the minimum under");
 });
+
+Deno.test("one file cannot be two outputs: review --report onto --out, bands --people onto --out", async () => {
+  const shared = `${dir}/one.csv`;
+  const review = await paygrove([
+    "review",
+    demo,
+    "--target",
+    "base_pay_eur",
+    "--out",
+    shared,
+    "--report",
+    `${dir}/./one.csv`,
+  ]);
+  assert.equal(review.code, 2);
+  assert.match(review.stderr, /--report: .* is the --out file/);
+  const bands = await paygrove([
+    "bands",
+    model,
+    "--table",
+    demo,
+    "--out",
+    shared,
+    "--people",
+    shared,
+  ]);
+  assert.equal(bands.code, 2);
+  assert.match(bands.stderr, /--people: .* is the --out file/);
+  // Refused before anything was written.
+  await assert.rejects(() => Deno.stat(shared), Deno.errors.NotFound);
+});

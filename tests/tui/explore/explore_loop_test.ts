@@ -165,6 +165,12 @@ Deno.test("a typed value, a refusal, an offer, the keys; a redraw writes only wh
   await s.press(KEY.up, "\r", "G", "9", "\r");
   screen = s.screen();
   assert(screen.some((l) => /G9/.test(l) && /level/.test(l)), screen.join("\n"));
+  // An offer that is no amount is said on the screen, not a crash.
+  await s.press("o", "a", "b", "c", "\r");
+  assert(
+    s.screen().some((l) => /abc/.test(l) && !l.startsWith("Offer abc_")),
+    s.screen().join("\n"),
+  );
   await s.press("o", "7", "0", "0", "0", "0", "\r");
   assert(s.screen().some((l) => l.startsWith("Offer 70,000: ")));
   await s.press("?");
