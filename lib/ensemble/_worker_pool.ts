@@ -1,7 +1,7 @@
 /**
  * Work spread over fitting workers (lib/ensemble/_fit_worker.ts). A
  * {@linkcode FittingPool} keeps its workers from one run to the next, so a
- * whole fit (cross-validation, the ensemble, the proxy checks) starts them
+ * whole fit (cross-validation, then the ensemble) starts them
  * once and later runs find them loaded and warm. In each run every worker
  * gets the same opening messages (the shared data), then tasks: two at
  * first and one more for each reply, so that a worker finds its next task

@@ -244,7 +244,7 @@ export function oobRegressionMetrics(
  * ```
  */
 export function oobClassificationMetrics(
-  ensemble: Ensemble,
+  ensemble: Pick<Ensemble, "oob" | "oobTrees" | "width">,
   classes: ArrayLike<number>,
 ): ClassificationMetrics & { rows: number } {
   const width = ensemble.width;

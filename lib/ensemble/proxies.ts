@@ -11,18 +11,13 @@
  * @module
  */
 
-import type { Dataset, Feature } from "../dataset/types.ts";
+import type { Feature } from "../dataset/types.ts";
+import { binFeatures } from "../tree/bins.ts";
+import { applyRow, applyValues } from "../tree/flat_tree.ts";
+import { growOneFeatureTree } from "../tree/grow_one_feature.ts";
+import { bootstrapCounts, resampleStates } from "./bootstrap.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
-import { type EnsembleJob, fitEnsemblesParallel } from "./fit_parallel.ts";
-import { FittingPool } from "./_worker_pool.ts";
 import { oobClassificationMetrics } from "./intervals.ts";
-
-// Rows from which the single-feature ensembles go to the workers. Below,
-// starting and warming two workers costs more than they save: on the demo
-// table (2,000 rows) the proxies took 0.56-0.74 s in this thread and
-// 1.03-1.09 s on two workers (bench/fit_phases.ts, same run). The same
-// trees either way.
-const WORKERS_FROM_ROWS = 20_000;
 
 /**
  * The default balanced accuracy from which a feature is named a possible proxy.
@@ -68,7 +63,10 @@ export const PROXY_THRESHOLD = 0.65;
  * assert(oobBalancedAccuracy(ensemble, values) === 1);
  * ```
  */
-export function oobBalancedAccuracy(ensemble: Ensemble, classes: ArrayLike<number>): number {
+export function oobBalancedAccuracy(
+  ensemble: Pick<Ensemble, "oob" | "oobTrees" | "width">,
+  classes: ArrayLike<number>,
+): number {
   const metrics = oobClassificationMetrics(ensemble, classes);
   const present = metrics.confusion.flatMap((row, c) =>
     row.reduce((a, b) => a + b, 0) > 0 ? [metrics.recall[c]] : []
@@ -94,11 +92,6 @@ export interface ProxyOptions {
   seed?: number;
   /** Fewest people in a leaf. @default {5} */
   minLeaf?: number;
-  /**
-   * Workers, or a pool of them. Workers are started only from
-   * WORKERS_FROM_ROWS rows; a pool's, already started, are used at any size.
-   */
-  workers?: number | FittingPool;
 }
 
 /**
@@ -120,20 +113,20 @@ export interface ProxyOptions {
  * const floor = Float64Array.from({ length: n }, (_, i) => Math.floor(i / 2) % 7);
  * const figures = await proxyFigures(
  *   [{ name: "shift", kind: "numeric", values: shift }, { name: "floor", kind: "numeric", values: floor }],
- *   group, ["A", "B"], "sex", { trees: 20, workers: 1 },
+ *   group, ["A", "B"], "sex", { trees: 20 },
  * );
  * assert(figures[0].feature === "shift" && figures[0].balancedAccuracy > 0.85);
  * assert(figures[1].balancedAccuracy < 0.6);
  * ```
  */
-export async function proxyFigures(
+export function proxyFigures(
   features: readonly Feature[],
   attribute: Int32Array,
   groups: readonly string[],
   attributeName: string,
   options: ProxyOptions = {},
-): Promise<ProxyFigure[]> {
-  const [figures] = await proxyFigureSets(
+): ProxyFigure[] {
+  const [figures] = proxyFigureSets(
     [{ features, attribute, groups, attributeName }],
     options,
   );
@@ -153,9 +146,13 @@ export interface ProxyQuestion {
 }
 
 /**
- * {@linkcode proxyFigures} of several attributes at once: every feature's
- * ensemble of every attribute grown on one set of workers, started once
- * (the same trees as one at a time, in any thread).
+ * {@linkcode proxyFigures} of several attributes at once.
+ *
+ * Each feature's ensemble is the one `fitEnsemble` fits on the one-feature
+ * dataset with `prune: "none"` (the same resamples, trees and out-of-bag
+ * votes), grown from the feature's bins (lib/tree/grow_one_feature.ts):
+ * on CPS1988 the check took 0.7 s on two workers that way and takes a few
+ * hundredths of a second here, in this thread.
  *
  * @param onDone Called as each attribute's figures are in, with the number
  * done and the total.
@@ -174,59 +171,118 @@ export interface ProxyQuestion {
  *   { features, attribute: site, groups: ["X", "Y", "Z"], attributeName: "site" },
  * ];
  * const done: number[] = [];
- * const [sex, site_] = await proxyFigureSets(questions, { trees: 8, workers: 2 }, (d) => done.push(d));
- * assert.deepEqual(sex, await proxyFigures(features, group, ["A", "B"], "sex", { trees: 8, workers: 1 }));
+ * const [sex, site_] = proxyFigureSets(questions, { trees: 8 }, (d) => done.push(d));
+ * assert.deepEqual(sex, proxyFigures(features, group, ["A", "B"], "sex", { trees: 8 }));
  * assert(sex[0].balancedAccuracy > 0.85 && site_[0].balancedAccuracy < 0.5);
- * assert.deepEqual(done.sort(), [1, 2]);
+ * assert.deepEqual(done, [1, 2]);
  * ```
  */
-export async function proxyFigureSets(
+export function proxyFigureSets(
   questions: readonly ProxyQuestion[],
   options: ProxyOptions = {},
   onDone?: (done: number, total: number) => void,
-): Promise<ProxyFigure[][]> {
+): ProxyFigure[][] {
   const trees = options.trees ?? 50;
-  // Trees left per question, to tell when its figures are all in.
-  const left = questions.map((q) => q.features.length * trees);
-  let answered = 0;
-  const jobs: EnsembleJob[] = questions.flatMap((q, i) =>
-    q.features.map((feature): EnsembleJob => ({
-      dataset: {
-        rows: q.attribute.length,
-        features: [feature],
-        target: {
-          kind: "classification",
-          name: q.attributeName,
-          classes: [...q.groups],
-          values: q.attribute,
-        },
-      } satisfies Dataset,
-      options: {
-        trees,
-        seed: options.seed ?? 1,
-        prune: "none",
-        grow: { minLeaf: options.minLeaf ?? 5 },
-        onProgress: () => {
-          left[i] -= 1;
-          if (left[i] === 0) onDone?.(++answered, questions.length);
-        },
-      },
-    }))
-  );
-  const rows = questions.length === 0 ? 0 : questions[0].attribute.length;
-  // A pool's workers are already started, and serve at any size.
-  const onWorkers = options.workers instanceof FittingPool || rows >= WORKERS_FROM_ROWS;
-  const ensembles = await fitEnsemblesParallel(
-    jobs,
-    onWorkers ? options.workers ?? navigator.hardwareConcurrency ?? 1 : 1,
-  );
-  let next = 0;
-  return questions.map((q) => {
-    const out: ProxyFigure[] = q.features.map((feature) => ({
+  const seed = options.seed ?? 1;
+  const minLeaf = options.minLeaf ?? 5;
+  return questions.map((q, i) => {
+    const votes = oneFeatureOutOfBag(
+      q.features,
+      q.attribute,
+      q.groups.length,
+      trees,
+      seed,
+      minLeaf,
+    );
+    const out: ProxyFigure[] = q.features.map((feature, f) => ({
       feature: feature.name,
       attribute: q.attributeName,
-      balancedAccuracy: oobBalancedAccuracy(ensembles[next++], q.attribute),
+      balancedAccuracy: oobBalancedAccuracy(votes[f], q.attribute),
     }));
+    onDone?.(i + 1, questions.length);
     return out.sort((a, b) => b.balancedAccuracy - a.balancedAccuracy);
+  });
+}
+
+/**
+ * The out-of-bag class shares of the unpruned bagged ensemble on each
+ * feature alone: for each, `fitEnsemble`'s `oob` and `oobTrees` on that
+ * one-feature dataset (the same resampling states, the same trees, each
+ * tree's votes added in tree order), with each tree grown from the
+ * feature's bins. The resamples depend on the seed and the classes only,
+ * so each tree's is drawn once for all the features.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { fitEnsemble } from "./fit_ensemble.ts";
+ * import { oneFeatureOutOfBag } from "./proxies.ts";
+ * const values = Float64Array.from({ length: 80 }, (_, i) => (i * 7) % 11);
+ * const groups = Int32Array.from(values, (v, i) => (v > 4 ? 1 : 0) ^ (i % 9 === 0 ? 1 : 0));
+ * const feature = { name: "x", kind: "numeric" as const, values };
+ * const dataset = { rows: 80, features: [feature], target: { kind: "classification" as const, name: "g", classes: ["a", "b"], values: groups } };
+ * const ensemble = fitEnsemble(dataset, { trees: 6, seed: 2, prune: "none", grow: { minLeaf: 3 } });
+ * const [votes] = oneFeatureOutOfBag([feature], groups, 2, 6, 2, 3);
+ * assert.deepEqual(votes.oob, ensemble.oob);
+ * assert.deepEqual(votes.oobTrees, ensemble.oobTrees);
+ * ```
+ */
+export function oneFeatureOutOfBag(
+  features: readonly Feature[],
+  classOf: Int32Array,
+  classes: number,
+  trees: number,
+  seed: number,
+  minLeaf: number,
+): Pick<Ensemble, "oob" | "oobTrees" | "width">[] {
+  const rows = classOf.length;
+  const votes = features.map((feature) => ({
+    feature: [feature],
+    bins: binFeatures({
+      rows,
+      features: [feature],
+      target: { kind: "classification", name: "", classes: [], values: classOf },
+    })[0],
+    sums: new Float64Array(rows * classes),
+    oobTrees: new Int32Array(rows),
+  }));
+  const states = resampleStates(seed, classOf, trees);
+  // Each bin's leaf when all its values share one (-1: walk its rows).
+  const leafOfBin = new Int32Array(Math.max(0, ...votes.map((v) => v.bins.count)) + 1);
+  const missing = [NaN];
+  for (let b = 0; b < trees; b++) {
+    const weights = bootstrapCounts(rows, states, b);
+    for (const { feature, bins, sums, oobTrees } of votes) {
+      const tree = growOneFeatureTree(
+        { feature: feature[0], bins, classes, classOf, weights },
+        { minLeaf },
+      );
+      // On one feature a leaf holds an interval of values (or a set of
+      // levels): a bin whose lowest and highest values land in one leaf
+      // has all its values there.
+      for (let k = 0; k < bins.count; k++) {
+        const low = applyValues(tree, [bins.lower[k]]);
+        leafOfBin[k] = low === applyValues(tree, [bins.upper[k]]) ? low : -1;
+      }
+      leafOfBin[bins.count] = applyValues(tree, missing);
+      const value = tree.value;
+      const ids = bins.ids;
+      for (let r = 0; r < rows; r++) {
+        if (weights[r] !== 0) continue;
+        let leaf = leafOfBin[ids[r]];
+        if (leaf < 0) leaf = applyRow(tree, feature, r);
+        for (let c = 0; c < classes; c++) sums[r * classes + c] += value[leaf * classes + c];
+        oobTrees[r]++;
+      }
+    }
+  }
+  return votes.map(({ sums, oobTrees }) => {
+    const oob = new Float64Array(rows * classes);
+    for (let r = 0; r < rows; r++) {
+      for (let c = 0; c < classes; c++) {
+        oob[r * classes + c] = oobTrees[r] > 0 ? sums[r * classes + c] / oobTrees[r] : NaN;
+      }
+    }
+    return { oob, oobTrees, width: classes };
   });
 }

@@ -360,13 +360,13 @@ export async function gapCheck(table: Table, options: GapOptions): Promise<GapRe
     : linearGaps(fit.payDataset, fit.logPay, options.group, fit.groupCode, who.groups, CONFIDENCE);
   const linear = linearFit?.gaps ?? null;
   options.onProgress?.("proxies", 0, fit.payDataset.features.length);
-  const proxies = (await proxyFigures(
+  const proxies = proxyFigures(
     fit.payDataset.features,
     fit.groupCode,
     who.allGroups,
     options.group,
-    { seed: settings.seed, minLeaf: settings.minLeaf, workers: options.workers },
-  )).filter((p) => p.balancedAccuracy >= settings.proxyThreshold);
+    { seed: settings.seed, minLeaf: settings.minLeaf },
+  ).filter((p) => p.balancedAccuracy >= settings.proxyThreshold);
   options.onProgress?.("proxies", fit.payDataset.features.length, fit.payDataset.features.length);
   const payR2Log = oobRSquared(fit.logPay, fit.payModel.oob);
   // 4. The raw gap split by factor, over everyone only: every group shown

@@ -139,8 +139,8 @@ export interface FitModelOptions {
  */
 export async function fitModel(table: Table, options: FitModelOptions): Promise<Model> {
   const started = performance.now();
-  // One set of workers for the whole fit: cross-validation, the ensemble
-  // and the proxy checks find them started and warm.
+  // One set of workers for the whole fit: cross-validation and the
+  // ensemble find them started and warm.
   const count = options.workers ?? navigator.hardwareConcurrency ?? 1;
   const pool = Number.isInteger(count) && count > 1 ? new FittingPool(count) : null;
   try {
@@ -304,7 +304,7 @@ async function fitModelOn(
   const importance = importanceOf(dataset, ensemble, cv.tree, seed);
   options.onProgress?.("importance", 1, 1);
 
-  const proxies = await possibleProxies(filtered, rowIndex, dataset, options, seed, workers);
+  const proxies = possibleProxies(filtered, rowIndex, dataset, options, seed);
 
   const features = dataset.features.map((f): FeatureSchema => {
     const column = filtered.columns.find((c) => c.name === f.name)!;
@@ -428,14 +428,13 @@ function increasingFeatures(dataset: Dataset, names: readonly string[]): number[
 
 // Each protected column of the table that is not a feature (groups with
 // names, at least two of them): which features alone predict it.
-async function possibleProxies(
+function possibleProxies(
   table: Table,
   rowIndex: Int32Array,
   dataset: Dataset,
   options: FitModelOptions,
   seed: number,
-  workers: number | FittingPool | undefined,
-): Promise<ProxyFigure[]> {
+): ProxyFigure[] {
   const used = new Set(dataset.features.map((f) => f.name));
   const attributes = table.columns.filter((c): c is LevelColumn =>
     c.protected && !used.has(c.name) && (c.type === "categorical" || c.type === "ordinal")
@@ -465,10 +464,9 @@ async function possibleProxies(
     });
   }
   options.onProgress?.("proxies", 0, questions.length);
-  // Every attribute's ensembles on one set of workers.
-  const figures = await proxyFigureSets(
+  const figures = proxyFigureSets(
     questions,
-    { seed, workers },
+    { seed },
     (done, total) => options.onProgress?.("proxies", done, total),
   );
   const found = figures.flat().filter((f) => f.balancedAccuracy >= threshold);

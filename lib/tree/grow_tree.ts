@@ -22,6 +22,7 @@ import type { FlatTree } from "./flat_tree.ts";
 import { gatherRows, type GrowRows } from "./grow_rows.ts";
 import { Histograms } from "./histogram.ts";
 import { type SplitChoice, Splitter } from "./splitter.ts";
+import { maskWordsOf, TreeNodes } from "./tree_nodes.ts";
 
 /** Stopping rules. */
 export interface GrowOptions {
@@ -110,9 +111,20 @@ export function canonicalRowOrder(dataset: Dataset): Int32Array {
   return Int32Array.from(order);
 }
 
-// A node whose impurity is at most this is pure (scikit-learn's EPSILON,
-// the double-precision machine epsilon).
-const EPSILON = 2.220446049250313e-16;
+/**
+ * A node whose impurity is at most this is pure, and a split must improve
+ * on the minimum decrease by more than it (scikit-learn's EPSILON, the
+ * double-precision machine epsilon).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { PURE_IMPURITY } from "./grow_tree.ts";
+ * assert.equal(PURE_IMPURITY, Number.EPSILON);
+ * ```
+ */
+export const PURE_IMPURITY = 2.220446049250313e-16;
+const EPSILON = PURE_IMPURITY;
 
 /**
  * Grows a tree to the stopping rules.
@@ -132,6 +144,33 @@ const EPSILON = 2.220446049250313e-16;
  * ```
  */
 export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree {
+  const limits = growLimits(options);
+  const increasing = increasingFlags(input.dataset, options.increasing ?? []);
+  return new Builder(input, { ...limits, increasing }).grow();
+}
+
+/** The stopping rules of {@linkcode GrowOptions} with their defaults, checked. */
+export interface GrowLimits {
+  minLeaf: number;
+  minSplit: number;
+  maxDepth: number;
+  minDecrease: number;
+}
+
+/**
+ * Stopping rules with their defaults, after checking them.
+ *
+ * @throws {RangeError} for a rule out of its range.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { growLimits } from "./grow_tree.ts";
+ * assert.deepEqual(growLimits({ minLeaf: 3 }), { minLeaf: 3, minSplit: 6, maxDepth: Infinity, minDecrease: 0 });
+ * assert.throws(() => growLimits({ minLeaf: 0 }), RangeError);
+ * ```
+ */
+export function growLimits(options: GrowOptions): GrowLimits {
   const minLeaf = options.minLeaf ?? 5;
   const minSplit = options.minSplit ?? 2 * minLeaf;
   const maxDepth = options.maxDepth ?? Infinity;
@@ -147,15 +186,10 @@ export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree 
   if (!(minDecrease >= 0)) {
     throw new RangeError(`minImpurityDecrease must be >= 0, got ${minDecrease}`);
   }
-  const increasing = increasingFlags(input.dataset, options.increasing ?? []);
-  return new Builder(input, { minLeaf, minSplit, maxDepth, minDecrease, increasing }).grow();
+  return { minLeaf, minSplit, maxDepth, minDecrease };
 }
 
-interface Settings {
-  minLeaf: number;
-  minSplit: number;
-  maxDepth: number;
-  minDecrease: number;
+interface Settings extends GrowLimits {
   /** 1 per feature constrained to increase; null when none is. */
   increasing: Uint8Array | null;
 }
@@ -274,25 +308,15 @@ class Builder {
   // through the scratch array to keep both sides in order.
   private readonly index: Int32Array;
   private readonly scratch: Int32Array;
-  private readonly nodes = {
-    feature: [] as number[],
-    threshold: [] as number[],
-    maskOffset: [] as number[],
-    masks: [] as number[],
-    left: [] as number[],
-    right: [] as number[],
-    missingLeft: [] as number[],
-    value: [] as number[],
-    rows: [] as number[],
-    weight: [] as number[],
-    impurity: [] as number[],
-  };
+  private readonly nodes: TreeNodes;
   private readonly maskWords: Int32Array;
   private readonly inLeft: Uint8Array;
   // Sums arrays already read, for later splits (see takeSums).
   private readonly spareSums: Float64Array[] = [];
-  // A class node's weight per class, filled afresh at each node.
+  // A class node's weight per class, filled afresh at each node, and a
+  // node's values (its mean, or its share of each class).
   private readonly classWeights: Float64Array;
+  private readonly nodeValues: Float64Array;
 
   constructor(data: GrowInput, settings: Settings) {
     this.s = settings;
@@ -321,12 +345,11 @@ class Builder {
       settings.minLeaf,
       settings.increasing,
     );
-    this.maskWords = Int32Array.from(
-      dataset.features,
-      (f) => (f.kind === "categorical" ? Math.ceil(f.levels!.length / 32) : 0),
-    );
+    this.maskWords = maskWordsOf(dataset.features);
+    this.nodes = new TreeNodes(this.criterion.task, this.criterion.width, this.maskWords);
     this.inLeft = new Uint8Array(Math.max(1, ...data.bins.map((b) => b.count)));
     this.classWeights = new Float64Array(this.criterion.width);
+    this.nodeValues = new Float64Array(this.criterion.width);
   }
 
   grow(): FlatTree {
@@ -352,9 +375,8 @@ class Builder {
       const id = this.addNode(start, end, node.sums, node.floor, node.ceiling);
       // The sums are read; the array serves a later split.
       if (node.sums !== null) this.spareSums.push(node.sums);
-      if (node.side === "left") this.nodes.left[node.parent] = id;
-      else if (node.side === "right") this.nodes.right[node.parent] = id;
-      const impurity = this.nodes.impurity[id];
+      if (node.side !== "root") this.nodes.attach(node.parent, node.side, id);
+      const impurity = this.nodes.impurityOf(id);
       const rows = end - start;
       if (
         depth >= this.s.maxDepth || rows < this.s.minSplit || rows < 2 * this.s.minLeaf ||
@@ -369,7 +391,7 @@ class Builder {
       }
       const found = splitter.find(this.index, start, end, hist);
       const best = splitter.choice;
-      const weight = this.nodes.weight[id];
+      const weight = this.nodes.weightOf(id);
       const improvement = !found ? -Infinity : (weight / this.rows.totalWeight) *
         (impurity - (best.rightWeight / weight) * best.rightImpurity -
           (best.leftWeight / weight) * best.leftImpurity);
@@ -382,7 +404,7 @@ class Builder {
       const leftSums = this.regression ? this.takeSums() : null;
       const rightSums = this.regression ? this.takeSums() : null;
       const mid = this.partition(start, end, best, missingLeft, leftSums, rightSums);
-      this.setSplit(id, best, missingLeft);
+      this.nodes.split(id, best, missingLeft);
       const [leftHist, rightHist] = histograms.children(hist, this.index, start, mid, end);
       // A constrained feature's known values split by order: the midpoint of
       // the two sides' values bounds the lower side from above and the
@@ -420,7 +442,7 @@ class Builder {
         ceiling,
       });
     }
-    return this.finish();
+    return this.nodes.finish();
   }
 
   private addNode(
@@ -433,8 +455,7 @@ class Builder {
     const { index } = this;
     const { weight: w, classOf } = this.rows;
     const k = this.criterion.width;
-    const nodes = this.nodes;
-    const id = nodes.feature.length;
+    const nodeValues = this.nodeValues;
     let weight = 0;
     let impurity: number;
     if (this.regression) {
@@ -456,7 +477,7 @@ class Builder {
       // to them, the impurity the mean squared error about that value.
       const value = Math.min(ceiling, Math.max(floor, mean));
       if (value !== mean) impurity += (mean - value) * (mean - value);
-      nodes.value.push(value);
+      nodeValues[0] = value;
     } else {
       const values = this.classWeights;
       values.fill(0);
@@ -468,36 +489,9 @@ class Builder {
       let sq = 0;
       for (let c = 0; c < k; c++) sq += values[c] * values[c];
       impurity = 1 - sq / (weight * weight);
-      for (let c = 0; c < k; c++) nodes.value.push(values[c] / weight);
+      for (let c = 0; c < k; c++) nodeValues[c] = values[c] / weight;
     }
-    nodes.feature.push(-1);
-    nodes.threshold.push(NaN);
-    nodes.maskOffset.push(-1);
-    nodes.left.push(-1);
-    nodes.right.push(-1);
-    nodes.missingLeft.push(0);
-    nodes.rows.push(end - start);
-    nodes.weight.push(weight);
-    nodes.impurity.push(impurity);
-    return id;
-  }
-
-  private setSplit(id: number, best: SplitChoice, missingLeft: boolean): void {
-    const nodes = this.nodes;
-    nodes.feature[id] = best.feature;
-    nodes.missingLeft[id] = missingLeft ? 1 : 0;
-    const words = this.maskWords[best.feature];
-    if (words > 0) {
-      // Two bit sets: the levels sent left, then those sent right. A level in
-      // neither was absent from the node and follows the missing direction.
-      nodes.maskOffset[id] = nodes.masks.length;
-      const mask = new Array<number>(2 * words).fill(0);
-      for (const bin of best.leftBins) mask[bin >>> 5] |= 1 << (bin & 31);
-      for (const bin of best.rightBins) mask[words + (bin >>> 5)] |= 1 << (bin & 31);
-      for (const word of mask) nodes.masks.push(word >>> 0);
-    } else {
-      nodes.threshold[id] = best.threshold;
-    }
+    return this.nodes.add(nodeValues, end - start, weight, impurity);
   }
 
   /**
@@ -584,26 +578,5 @@ class Builder {
   // arrays allocated per split took 12% of a CPS1988 tree's growth.
   private takeSums(): Float64Array {
     return this.spareSums.pop() ?? new Float64Array(NODE_SUMS);
-  }
-
-  private finish(): FlatTree {
-    const n = this.nodes;
-    return {
-      task: this.regression ? "regression" : "classification",
-      width: this.criterion.width,
-      nodeCount: n.feature.length,
-      feature: new Int32Array(n.feature),
-      threshold: new Float64Array(n.threshold),
-      maskOffset: new Int32Array(n.maskOffset),
-      masks: new Uint32Array(n.masks),
-      maskWords: this.maskWords,
-      left: new Int32Array(n.left),
-      right: new Int32Array(n.right),
-      missingLeft: new Uint8Array(n.missingLeft),
-      value: new Float64Array(n.value),
-      rows: new Int32Array(n.rows),
-      weight: new Float64Array(n.weight),
-      impurity: new Float64Array(n.impurity),
-    };
   }
 }

@@ -181,22 +181,55 @@ export class Splitter {
    */
   find(index: Int32Array, start: number, end: number, hist: Float64Array | null): boolean {
     this.found = false;
-    const classes = this.criterion.task === "classification" ? this.criterion.width : 0;
     for (let f = 0; f < this.kinds.length; f++) {
       this.monotone = this.increasing !== null && this.increasing[f] === 1;
-      const m = this.collect(f, index, start, end, hist);
-      const missN = this.missData[this.missAt];
-      if (m < 2 && !(m === 1 && missN > 0)) continue;
-      const categorical = this.kinds[f] === "categorical";
-      if (categorical && classes > 2 && m <= EXHAUSTIVE_LEVELS) {
-        this.exhaustive(f, m);
-      } else {
-        if (categorical) this.orderLevels(m, classes);
-        this.scan(f, m, categorical);
-      }
-      if (missN > 0) this.knownVersusMissing(f, m, categorical);
+      this.search(f, this.collect(f, index, start, end, hist));
     }
     return this.found;
+  }
+
+  /**
+   * Searches feature `f` alone from summaries already made: `m` known bins
+   * `binIds` (ascending, each non-empty) whose summaries lie one after the
+   * other in `summaries`, and the missing values' summary (zeros: none).
+   * The same search as `find` over a node with these bins; a builder that
+   * keeps bins rather than rows calls it (lib/tree/grow_one_feature.ts).
+   */
+  findInSummaries(
+    f: number,
+    binIds: Int32Array,
+    summaries: Float64Array,
+    m: number,
+    missing: Float64Array,
+  ): boolean {
+    this.found = false;
+    this.monotone = this.increasing !== null && this.increasing[f] === 1;
+    const { at, binOf, total, stride } = this;
+    total.fill(0);
+    for (let i = 0; i < m; i++) {
+      at[i] = i * stride;
+      binOf[i] = binIds[i];
+      for (let c = 0; c < stride; c++) total[c] += summaries[i * stride + c];
+    }
+    this.pointAt(summaries, missing, 0);
+    this.search(f, m);
+    return this.found;
+  }
+
+  // The search of feature f over the m bins `collect` (or findInSummaries)
+  // pointed at.
+  private search(f: number, m: number): void {
+    const missN = this.missData[this.missAt];
+    if (m < 2 && !(m === 1 && missN > 0)) return;
+    const classes = this.criterion.task === "classification" ? this.criterion.width : 0;
+    const categorical = this.kinds[f] === "categorical";
+    if (categorical && classes > 2 && m <= EXHAUSTIVE_LEVELS) {
+      this.exhaustive(f, m);
+    } else {
+      if (categorical) this.orderLevels(m, classes);
+      this.scan(f, m, categorical);
+    }
+    if (missN > 0) this.knownVersusMissing(f, m, categorical);
   }
 
   /**

@@ -6,12 +6,20 @@ import {
   fitEnsemble,
   fitModel,
   loadTable,
+  loadTableFile,
+  makeDataset,
   makeRng,
   modelFromText,
   modelToText,
   randomInt,
 } from "../../../mod.ts";
-import { proxyFigures, proxyFigureSets } from "../../../lib/ensemble/proxies.ts";
+import fc from "fast-check";
+import type { Dataset, Feature } from "../../../lib/dataset/types.ts";
+import {
+  oneFeatureOutOfBag,
+  proxyFigures,
+  proxyFigureSets,
+} from "../../../lib/ensemble/proxies.ts";
 
 // An invented table: night shifts are mostly worked by one sex (85%), so
 // "shift" carries it; "level" is drawn independently of it.
@@ -90,7 +98,7 @@ Deno.test("a model without protected columns names no proxies", async () => {
   assert.deepEqual(model.proxies, []);
 });
 
-Deno.test("proxyFigureSets on two workers: each attribute's figures as proxyFigures gives them alone", async () => {
+Deno.test("proxyFigureSets: each attribute's figures as proxyFigures gives them alone", () => {
   const rng = makeRng(5);
   const n = 300;
   const sex = Int32Array.from({ length: n }, () => randomInt(rng, 0, 1));
@@ -105,15 +113,89 @@ Deno.test("proxyFigureSets on two workers: each attribute's figures as proxyFigu
     { features, attribute: sex, groups: ["F", "M"], attributeName: "sex" },
     { features, attribute: age, groups: ["young", "middle", "old"], attributeName: "age" },
   ];
-  const together = await proxyFigureSets(questions, { trees: 12, seed: 3, workers: 2 });
+  const together = proxyFigureSets(questions, { trees: 12, seed: 3 });
   for (const [i, q] of questions.entries()) {
-    const alone = await proxyFigures(q.features, q.attribute, q.groups, q.attributeName, {
+    const alone = proxyFigures(q.features, q.attribute, q.groups, q.attributeName, {
       trees: 12,
       seed: 3,
-      workers: 1,
     });
     assert.deepEqual(together[i], alone);
   }
   assert.equal(together[0][0].feature, "shift");
   assert.equal(together[1][0].feature, "years");
+});
+
+// The bins-grown ensemble against fitEnsemble's own: the out-of-bag shares
+// of every row, bit for bit, and so every balanced accuracy.
+function assertSameVotes(feature: Feature, groups: Int32Array, classes: number, trees: number) {
+  const dataset: Dataset = {
+    rows: groups.length,
+    features: [feature],
+    target: {
+      kind: "classification",
+      name: "g",
+      classes: Array.from({ length: classes }, (_, i) => `g${i}`),
+      values: groups,
+    },
+  };
+  const expected = fitEnsemble(dataset, { trees, seed: 1, prune: "none", grow: { minLeaf: 5 } });
+  const [actual] = oneFeatureOutOfBag([feature], groups, classes, trees, 1, 5);
+  assert.deepEqual(actual.oobTrees, expected.oobTrees, feature.name);
+  assert.deepEqual(actual.oob, expected.oob, feature.name);
+}
+
+Deno.test("one-feature ensembles from bins: fitEnsemble's out-of-bag votes on random tables", () => {
+  fc.assert(
+    fc.property(
+      fc.integer({ min: 20, max: 200 }),
+      fc.integer({ min: 2, max: 4 }),
+      fc.constantFrom<Feature["kind"]>("numeric", "categorical", "ordinal"),
+      fc.integer({ min: 1, max: 20 }),
+      fc.integer(),
+      (rows, classes, kind, levels, seed) => {
+        const rng = makeRng(seed);
+        const codes = Float64Array.from(
+          { length: rows },
+          () => (randomInt(rng, 0, 9) === 0 ? NaN : randomInt(rng, 0, levels - 1)),
+        );
+        // The group follows the value more often than not.
+        const groups = Int32Array.from(
+          codes,
+          (v) =>
+            randomInt(rng, 0, 2) === 0 || Number.isNaN(v)
+              ? randomInt(rng, 0, classes - 1)
+              : v % classes,
+        );
+        const names = Array.from({ length: levels }, (_, i) => `L${i}`);
+        const values = kind === "numeric" ? codes.map((v) => v * 1.7 + 0.3) : codes;
+        const feature: Feature = kind === "numeric"
+          ? { name: "x", kind, values }
+          : { name: "x", kind, levels: names, values };
+        assertSameVotes(feature, groups, classes, 7);
+      },
+    ),
+    { numRuns: 150, seed: 4122026 },
+  );
+});
+
+Deno.test("one-feature ensembles from bins: fitEnsemble's votes on the demo and on CPS1988 (AER)", async () => {
+  // The two tables whose proxy checks the JSON baseline and the README show;
+  // the default 50 trees, every feature against the protected column.
+  for (
+    const [file, target, attribute] of [
+      ["fixtures/demo_company.csv", "base_pay_eur", "gender"],
+      ["fixtures/cps1988.csv", "wage", "ethnicity"],
+    ]
+  ) {
+    const table = await loadTableFile(file, { target });
+    const column = table.columns.find((c) => c.name === attribute)!;
+    assert(column.type === "categorical");
+    const groups = Int32Array.from(column.codes);
+    assert(groups.every((g) => g >= 0));
+    const { dataset } = makeDataset(table, { target });
+    assert(dataset.rows === groups.length && dataset.features.length >= 5);
+    for (const feature of dataset.features) {
+      assertSameVotes(feature, groups, column.levels.length, 50);
+    }
+  }
 });
