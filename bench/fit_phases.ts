@@ -1,6 +1,6 @@
 // Where the whole default fit's time goes: seconds per stage of fitModel
 // (cross-validation of the reference tree, the ensemble's trees, permutation
-// importance, proxies, the rest) on one table. Usage:
+// importance, proxies, the rest) on one table (WORKERS=N to ask for N workers). Usage:
 //   deno run -A bench/fit_phases.ts fixtures/cps1988.csv wage
 import { fitModel, loadTableFile } from "../mod.ts";
 
@@ -11,7 +11,8 @@ const loaded = performance.now();
 const marks: Record<string, [number, number]> = {};
 const model = await fitModel(table, {
   target,
-  workers: 2,
+  // WORKERS=N asks for N; unset, the library's default (defaultWorkers).
+  workers: Deno.env.get("WORKERS") ? Number(Deno.env.get("WORKERS")) : undefined,
   onProgress: (stage) => {
     const now = performance.now();
     marks[stage] ??= [now, now];

@@ -80,11 +80,7 @@ export class FittingPool {
     if (tasks.length === 0) return;
     this.#running = true;
     try {
-      while (this.#workers.length < Math.min(this.size, tasks.length)) {
-        this.#workers.push(
-          new Worker(new URL("./_fit_worker.ts", import.meta.url).href, { type: "module" }),
-        );
-      }
+      this.#startWorkers(Math.min(this.size, tasks.length));
       const used = this.#workers.slice(0, Math.min(this.size, tasks.length));
       let next = 0;
       let done = 0;
@@ -118,6 +114,24 @@ export class FittingPool {
       throw error;
     } finally {
       this.#running = false;
+    }
+  }
+
+  /**
+   * Starts every worker now, so that each loads its code while this thread
+   * works on something else (a fit's cross-validation, on a small table)
+   * and the first run finds them ready.
+   */
+  start(): void {
+    if (this.#closed) throw new Error("the fitting pool is closed");
+    this.#startWorkers(this.size);
+  }
+
+  #startWorkers(count: number): void {
+    while (this.#workers.length < count) {
+      this.#workers.push(
+        new Worker(new URL("./_fit_worker.ts", import.meta.url).href, { type: "module" }),
+      );
     }
   }
 

@@ -131,3 +131,44 @@ export const DEFAULT_HOW_SURE = { interval: "percentile", jackknifeFromTreesPerR
  * ```
  */
 export const DEFAULT_INCREASING = { ladder: false, maxCost: 0.01 } as const;
+
+/**
+ * Rows times trees from which a fit uses the machine's cores by default;
+ * below, one thread. Starting two workers and warming their compiled code
+ * costs more than they save on a small table. The whole default fit (200
+ * trees) on one thread against two workers: the demo table (2,000 rows)
+ * 0.78 against 1.00 s; the first 5,000 rows of CPS1988 0.94 against 1.06
+ * s; its first 10,000 rows 1.82 against 1.63 s; all 28,155 4.92 against
+ * 3.60 s. Source: bench/results/workers_by_rows.json (2 cores).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { defaultWorkers, WORKERS_FROM_ROW_TREES } from "./defaults.ts";
+ * assert.equal(WORKERS_FROM_ROW_TREES, 2_000_000);
+ * assert.equal(defaultWorkers(2_000, 200, 2), 1);
+ * assert.equal(defaultWorkers(28_155, 200, 2), 2);
+ * assert.equal(defaultWorkers(28_155, 200, 1), 1);
+ * ```
+ */
+export const WORKERS_FROM_ROW_TREES = 2_000_000;
+
+/**
+ * The workers a fit uses when none are asked for: one per core from
+ * {@linkcode WORKERS_FROM_ROW_TREES}, else 1 (this thread).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { defaultWorkers } from "./defaults.ts";
+ * assert.equal(defaultWorkers(10_000, 200, 4), 4);
+ * assert.equal(defaultWorkers(9_999, 200, 4), 1);
+ * ```
+ */
+export function defaultWorkers(
+  rows: number,
+  trees: number,
+  cores: number = navigator.hardwareConcurrency ?? 1,
+): number {
+  return rows * trees >= WORKERS_FROM_ROW_TREES ? Math.max(1, cores) : 1;
+}

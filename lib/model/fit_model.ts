@@ -22,6 +22,7 @@ import {
   type ProxyQuestion,
 } from "../ensemble/proxies.ts";
 import { FittingPool } from "../ensemble/_worker_pool.ts";
+import { defaultWorkers } from "../ensemble/defaults.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import { leafCount, treeDepth } from "../tree/flat_tree.ts";
 import { roundedFigures, shareableReference } from "./shareable_figures.ts";
@@ -96,7 +97,7 @@ export interface FitModelOptions {
    * @default {1}
    */
   seed?: number;
-  /** Workers (default: one per core). */
+  /** Workers (default: defaultWorkers, one per core from two million rows x trees). */
   workers?: number;
   /**
    * Smallest group whose mean is shown (at least 3).
@@ -141,10 +142,12 @@ export async function fitModel(table: Table, options: FitModelOptions): Promise<
   const started = performance.now();
   // One set of workers for the whole fit: cross-validation and the
   // ensemble find them started and warm.
-  const count = options.workers ?? navigator.hardwareConcurrency ?? 1;
+  // Unless asked, a small table is fitted in this thread (defaultWorkers).
+  const count = options.workers ?? defaultWorkers(table.rows, options.trees ?? 200);
   const pool = Number.isInteger(count) && count > 1 ? new FittingPool(count) : null;
+  pool?.start();
   try {
-    return await fitModelOn(table, options, pool ?? options.workers, started);
+    return await fitModelOn(table, options, pool ?? count, started);
   } finally {
     pool?.close();
   }

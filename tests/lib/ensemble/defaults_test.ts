@@ -2,6 +2,7 @@
 // (written by bench/prune_mode_experiment.ts and bench/how_sure_experiment.ts).
 import assert from "node:assert/strict";
 import { DEFAULT_HOW_SURE, DEFAULT_INCREASING, DEFAULT_PRUNING } from "../../../mod.ts";
+import { WORKERS_FROM_ROW_TREES } from "../../../lib/ensemble/defaults.ts";
 
 Deno.test("the default pruning has the lowest held-out RMSE over CPS1988 and the demo table", async () => {
   const read = async (name: string) =>
@@ -79,4 +80,28 @@ Deno.test("the ladder is constrained by default only where the measurements allo
   for (const t of tables) {
     for (const r of t.runs) if (r.constrained) assert.equal(r.peopleWhoseEstimateFalls, 0);
   }
+});
+
+Deno.test("WORKERS_FROM_ROW_TREES: workers from where two were no slower than one thread (bench/results/workers_by_rows.json)", async () => {
+  const doc = JSON.parse(
+    await Deno.readTextFile(
+      new URL("../../../bench/results/workers_by_rows.json", import.meta.url),
+    ),
+  ) as { trees: number; results: { rows: number; oneThread: number; twoWorkers: number }[] };
+  assert.equal(doc.trees, 200);
+  for (const r of doc.results) {
+    const ratio = r.twoWorkers / r.oneThread;
+    if (r.rows * doc.trees >= WORKERS_FROM_ROW_TREES) {
+      // Workers by default: at most level with one thread (timing noise 5%).
+      assert(ratio <= 1.05, `${r.rows} rows: two workers ${ratio.toFixed(2)} x one thread`);
+    } else {
+      assert(
+        ratio > 1,
+        `${r.rows} rows: one thread by default, but workers took ${ratio.toFixed(2)} x`,
+      );
+    }
+  }
+  // Both sides of the line are measured.
+  assert(doc.results.some((r) => r.rows * doc.trees < WORKERS_FROM_ROW_TREES));
+  assert(doc.results.some((r) => r.rows * doc.trees >= WORKERS_FROM_ROW_TREES));
 });
