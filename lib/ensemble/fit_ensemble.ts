@@ -128,14 +128,14 @@ export function fitEnsemble(
   const states = resampleStates(seed, dataset.target.values, count);
   const trees: FlatTree[] = [];
   const alphas = new Float64Array(count);
-  const oobValues: Float64Array[] = [];
+  const outOfBag = new OutOfBagSums(dataset.rows, widthOf(dataset));
   const parts: Float64Array[] = [];
   const shared: FlatTree[] = [];
   for (let b = 0; b < count; b++) {
     const fitted = fitOneTree(dataset, bins, order, states, b, options);
     trees.push(fitted.tree);
     alphas[b] = fitted.alpha;
-    oobValues.push(fitted.oob);
+    outOfBag.add(b, fitted.oob);
     if (fitted.importance !== undefined) parts.push(fitted.importance);
     if (fitted.shared !== undefined) shared.push(fitted.shared);
     options.onProgress?.(b + 1, count);
@@ -144,7 +144,7 @@ export function fitEnsemble(
     dataset,
     trees,
     alphas,
-    oobValues,
+    outOfBag,
     states,
     importanceParts(options, parts),
   );
@@ -298,28 +298,106 @@ export function importanceParts(
 }
 
 /**
- * Puts fitted trees together with their out-of-bag predictions, summed in
- * tree order so the result does not depend on which thread grew which tree.
+ * The trees' out-of-bag predictions summed as they come, in tree order (so
+ * the sums do not depend on which thread grew which tree): a tree that
+ * comes before those ahead of it waits until they are in. Only the waiting
+ * trees' predictions are held, not every tree's; on a million rows that
+ * is 8 MB a tree.
  *
- * @param oobValues Per tree, its prediction for each row it did not draw
- * (`width` values per row; NaN for rows it drew), from `fitOneTree`.
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { OutOfBagSums } from "./fit_ensemble.ts";
+ * const sums = new OutOfBagSums(4, 1);
+ * // Tree 1 comes first and waits for tree 0; no tree left out row 3.
+ * sums.add(1, Float64Array.of(6, NaN, 8, NaN));
+ * assert.equal(sums.waiting, 1);
+ * sums.add(0, Float64Array.of(NaN, 2, 4, NaN));
+ * assert.equal(sums.waiting, 0);
+ * const { oob, oobTrees } = sums.finish(2);
+ * assert.deepEqual([...oob], [6, 2, 6, NaN]); // row 2: (4 + 8) / 2
+ * assert.deepEqual([...oobTrees], [1, 1, 2, 0]);
+ * assert.throws(() => new OutOfBagSums(4, 1).finish(1), /0 of 1 trees/);
+ * ```
+ */
+export class OutOfBagSums {
+  readonly #width: number;
+  readonly #sums: Float64Array;
+  readonly #trees: Int32Array;
+  readonly #held = new Map<number, Float64Array>();
+  #next = 0;
+
+  /** @param width Values per row: 1 (regression) or the number of classes. */
+  constructor(rows: number, width: number) {
+    this.#width = width;
+    this.#sums = new Float64Array(rows * width);
+    this.#trees = new Int32Array(rows);
+  }
+
+  /** Trees in and waiting for one before them. */
+  get waiting(): number {
+    return this.#held.size;
+  }
+
+  /**
+   * Adds tree `tree`'s prediction for each row it did not draw (`width`
+   * values per row; NaN for rows it drew), from `fitOneTree`.
+   */
+  add(tree: number, values: Float64Array): void {
+    if (tree < this.#next || this.#held.has(tree)) {
+      throw new RangeError(`tree ${tree}'s out-of-bag predictions were already added`);
+    }
+    this.#held.set(tree, values);
+    for (
+      let next = this.#held.get(this.#next);
+      next !== undefined;
+      next = this.#held.get(this.#next)
+    ) {
+      this.#held.delete(this.#next);
+      addOutOfBag(next, this.#width, this.#sums, this.#trees);
+      this.#next++;
+    }
+  }
+
+  /** The mean per row over the trees that left it out (NaN: none did), once all `count` are in. */
+  finish(count: number): { oob: Float64Array; oobTrees: Int32Array } {
+    if (this.#next !== count) {
+      throw new RangeError(`${this.#next} of ${count} trees' out-of-bag predictions are in`);
+    }
+    const width = this.#width;
+    const oobTrees = this.#trees;
+    const oob = new Float64Array(this.#sums.length);
+    for (let r = 0; r < oobTrees.length; r++) {
+      for (let c = 0; c < width; c++) {
+        oob[r * width + c] = oobTrees[r] > 0 ? this.#sums[r * width + c] / oobTrees[r] : NaN;
+      }
+    }
+    return { oob, oobTrees };
+  }
+}
+
+/**
+ * Puts fitted trees together with their out-of-bag predictions.
+ *
+ * @param outOfBag Every tree's out-of-bag predictions, added.
  *
  * @example
  * ```ts
  * import assert from "node:assert/strict";
  * import { binFeatures } from "../tree/bins.ts";
  * import { growTree } from "../tree/grow_tree.ts";
- * import { assembleEnsemble } from "./fit_ensemble.ts";
+ * import { assembleEnsemble, OutOfBagSums } from "./fit_ensemble.ts";
  * const dataset = {
  *   rows: 4,
  *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4) }],
  *   target: { kind: "regression" as const, name: "pay", values: Float64Array.of(2, 2, 6, 8) },
  * };
  * const tree = growTree({ dataset, bins: binFeatures(dataset) });
- * // Tree 0 left out rows 1 and 2, tree 1 rows 0 and 2; no tree left out row 3.
- * const oobValues = [Float64Array.of(NaN, 2, 4, NaN), Float64Array.of(6, NaN, 8, NaN)];
- * const ensemble = assembleEnsemble(dataset, [tree, tree], new Float64Array(2), oobValues, new Int32Array(8));
- * assert.deepEqual([...ensemble.oob], [6, 2, 6, NaN]); // row 2: (4 + 8) / 2
+ * const outOfBag = new OutOfBagSums(4, 1);
+ * outOfBag.add(0, Float64Array.of(NaN, 2, 4, NaN));
+ * outOfBag.add(1, Float64Array.of(6, NaN, 8, NaN));
+ * const ensemble = assembleEnsemble(dataset, [tree, tree], new Float64Array(2), outOfBag, new Int32Array(8));
+ * assert.deepEqual([...ensemble.oob], [6, 2, 6, NaN]);
  * assert.deepEqual([...ensemble.oobTrees], [1, 1, 2, 0]);
  * assert.equal(ensemble.width, 1);
  * ```
@@ -328,23 +406,30 @@ export function assembleEnsemble(
   dataset: Dataset,
   trees: FlatTree[],
   alphas: Float64Array,
-  oobValues: Float64Array[],
+  outOfBag: OutOfBagSums,
   resamples: Int32Array,
   importance?: Ensemble["importance"],
 ): Ensemble {
-  const width = dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
-  const oobSum = new Float64Array(dataset.rows * width);
-  const oobTrees = new Int32Array(dataset.rows);
-  for (let b = 0; b < trees.length; b++) addOutOfBag(oobValues[b], width, oobSum, oobTrees);
-  const oob = new Float64Array(dataset.rows * width);
-  for (let r = 0; r < dataset.rows; r++) {
-    for (let c = 0; c < width; c++) {
-      oob[r * width + c] = oobTrees[r] > 0 ? oobSum[r * width + c] / oobTrees[r] : NaN;
-    }
-  }
+  const width = widthOf(dataset);
+  const { oob, oobTrees } = outOfBag.finish(trees.length);
   const ensemble: Ensemble = { trees, resamples, alphas, width, oob, oobTrees };
   if (importance !== undefined) ensemble.importance = importance;
   return ensemble;
+}
+
+/**
+ * Values per prediction of a dataset's trees: 1 (regression) or the number of classes.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { widthOf } from "./fit_ensemble.ts";
+ * const target = { kind: "classification" as const, name: "g", classes: ["a", "b", "c"], values: new Int32Array(0) };
+ * assert.equal(widthOf({ rows: 0, features: [], target }), 3);
+ * ```
+ */
+export function widthOf(dataset: Dataset): number {
+  return dataset.target.kind === "regression" ? 1 : dataset.target.classes.length;
 }
 
 // Adds one tree's out-of-bag predictions (NaN: rows it drew) to the sums.

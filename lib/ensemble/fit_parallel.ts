@@ -19,6 +19,8 @@ import {
   type EnsembleOptions,
   fitEnsemble,
   importanceParts,
+  OutOfBagSums,
+  widthOf,
 } from "./fit_ensemble.ts";
 
 /** Options of {@linkcode fitEnsembleParallel}. */
@@ -129,7 +131,7 @@ export async function fitEnsemblesParallel(
       states,
       trees: new Array<FlatTree>(count),
       alphas: new Float64Array(count),
-      oobValues: new Array<Float64Array>(count),
+      outOfBag: new OutOfBagSums(dataset.rows, widthOf(dataset)),
       parts: [] as Float64Array[],
       shared: new Array<FlatTree>(count),
       done: 0,
@@ -142,7 +144,7 @@ export async function fitEnsemblesParallel(
     const fit = fits[key];
     fit.trees[reply.index] = reply.tree;
     fit.alphas[reply.index] = reply.alpha;
-    fit.oobValues[reply.index] = reply.oob;
+    fit.outOfBag.add(reply.index, reply.oob);
     if (reply.importance !== undefined) fit.parts[reply.index] = reply.importance;
     if (reply.shared !== undefined) fit.shared[reply.index] = reply.shared;
     fit.done++;
@@ -154,7 +156,7 @@ export async function fitEnsemblesParallel(
       job.dataset,
       fit.trees,
       fit.alphas,
-      fit.oobValues,
+      fit.outOfBag,
       fit.states,
       importanceParts(job.options, fit.parts),
     );
