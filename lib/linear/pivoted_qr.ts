@@ -52,9 +52,13 @@ export interface PivotedQr {
 }
 
 /**
- * Decomposes the matrix whose columns are given (copied, never changed).
+ * Decomposes the matrix whose columns are given (copied, never changed,
+ * unless `inPlace`).
  *
  * @param tol Relative norm below which a column counts as aliased.
+ * @param inPlace Decompose Float64Array columns in place (they then hold
+ * the decomposition): a caller that builds the columns for this alone
+ * saves a copy of each.
  * @throws {RangeError} when the columns differ in length.
  *
  * @example Aliased columns move to the end
@@ -73,12 +77,13 @@ export interface PivotedQr {
 export function pivotedQr(
   columns: readonly ArrayLike<number>[],
   tol: number = LM_TOLERANCE,
+  inPlace = false,
 ): PivotedQr {
   const p = columns.length;
   const n = p === 0 ? 0 : columns[0].length;
   const x = columns.map((c) => {
     if (c.length !== n) throw new RangeError(`columns differ in length: ${c.length} and ${n}`);
-    return Float64Array.from(c);
+    return inPlace && c instanceof Float64Array ? c : Float64Array.from(c);
   });
   const pivot = Int32Array.from({ length: p }, (_, j) => j);
   // Current norms of the columns below the rows reduced so far, and the

@@ -124,3 +124,23 @@ Deno.test("a combination of earlier columns inserted anywhere is left out and ch
     { numRuns: 200 },
   );
 });
+
+Deno.test("pivotedQr in place: the same decomposition, held in the columns given", () => {
+  const make = () => [
+    Float64Array.of(1, 1, 1, 1, 1),
+    Float64Array.of(2, 4, 4, 5, 7),
+    Float64Array.of(4, 8, 8, 10, 14), // twice the second: aliased
+    Float64Array.of(0.5, -1, 3, 2, 0),
+  ];
+  const copied = pivotedQr(make());
+  const columns = make();
+  const inPlace = pivotedQr(columns, 1e-7, true);
+  assert.deepEqual(inPlace, copied);
+  assert.equal(inPlace.rank, 3);
+  // The decomposition's columns are the arrays given, reordered by the pivot.
+  for (const c of inPlace.columns) assert(columns.some((given) => given === c));
+  // Without inPlace the columns given are left as they were.
+  const untouched = make();
+  pivotedQr(untouched);
+  assert.deepEqual(untouched, make());
+});
