@@ -103,7 +103,7 @@ export function bandsCommand(terminal: Terminal): CommandUnknownOpts {
     .option("--seed <s>", "seed of resamples when fitting first", seedOption, 1)
     .option(
       "--workers <n>",
-      "parallel workers when fitting first (default: one per core)",
+      "parallel workers when fitting first (default as in fit)",
       wholeNumber(1),
     )
     .option(

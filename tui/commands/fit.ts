@@ -206,7 +206,11 @@ export function fitCommand(terminal: Terminal): CommandUnknownOpts {
         .choices(["none"] as const),
     )
     .option("--seed <s>", "seed of folds, resamples and shuffles", seedOption, 1)
-    .option("--workers <n>", "parallel workers (default: one per core)", wholeNumber(1))
+    .option(
+      "--workers <n>",
+      "parallel workers (default: one per core from 10,000 rows at 200 trees, else 1)",
+      wholeNumber(1),
+    )
     .option(
       "--privacy-min <n>",
       "smallest group whose mean pay is ever shown (at least 3)",
