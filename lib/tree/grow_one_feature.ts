@@ -24,7 +24,13 @@ import type { FeatureBins } from "./bins.ts";
 import { Gini } from "./criterion.ts";
 import type { FlatTree } from "./flat_tree.ts";
 import type { GrowRows } from "./grow_rows.ts";
-import { growLimits, type GrowOptions, PURE_IMPURITY } from "./grow_tree.ts";
+import {
+  decreasesEnough,
+  growLimits,
+  type GrowOptions,
+  isLeaf,
+  missingGoesLeft,
+} from "./grow_tree.ts";
 import { Histograms } from "./histogram.ts";
 import { Splitter } from "./splitter.ts";
 import { maskWordsOf, TreeNodes } from "./tree_nodes.ts";
@@ -199,20 +205,13 @@ class OneFeatureBuilder {
       const { id, rows } = this.addNode(start, end);
       if (side !== "root") nodes.attach(parent, side, id);
       const impurity = nodes.impurityOf(id);
-      if (
-        depth >= limits.maxDepth || rows < limits.minSplit || rows < 2 * limits.minLeaf ||
-        impurity <= PURE_IMPURITY
-      ) continue;
+      if (isLeaf(limits, depth, rows, impurity)) continue;
       const m = this.collect(start, end);
       const found = splitter.findInSummaries(0, this.knownBins, this.knownSums, m, this.missing);
       const best = splitter.choice;
       const weight = nodes.weightOf(id);
-      const improvement = !found ? -Infinity : (weight / this.totalWeight) *
-        (impurity - (best.rightWeight / weight) * best.rightImpurity -
-          (best.leftWeight / weight) * best.leftImpurity);
-      if (!found || improvement + PURE_IMPURITY < limits.minDecrease) continue;
-      const missingLeft = best.missing === "left" ||
-        (best.missing === "heavier" && best.leftWeight >= best.rightWeight);
+      if (!found || !decreasesEnough(best, weight, impurity, this.totalWeight, limits)) continue;
+      const missingLeft = missingGoesLeft(best);
       const mid = this.partition(start, end, best.lastLeftBin, best.leftBins, missingLeft);
       nodes.split(id, best, missingLeft);
       stack.push({ start: mid, end, depth: depth + 1, parent: id, side: "right" });

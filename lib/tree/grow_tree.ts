@@ -112,6 +112,74 @@ export function canonicalRowOrder(dataset: Dataset): Int32Array {
 }
 
 /**
+ * Whether a node stays a leaf without a search: too deep, too few rows to
+ * split or to leave `minLeaf` on both sides, or pure. Both builders stop
+ * by it (lib/tree/grow_one_feature.ts).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { growLimits, isLeaf } from "./grow_tree.ts";
+ * const limits = growLimits({ minLeaf: 3 });
+ * assert.equal(isLeaf(limits, 0, 5, 0.4), true); // fewer than 2 x 3 rows
+ * assert.equal(isLeaf(limits, 0, 6, 0.4), false);
+ * assert.equal(isLeaf(limits, 0, 6, 0), true); // pure
+ * ```
+ */
+export function isLeaf(limits: GrowLimits, depth: number, rows: number, impurity: number): boolean {
+  return depth >= limits.maxDepth || rows < limits.minSplit || rows < 2 * limits.minLeaf ||
+    impurity <= PURE_IMPURITY;
+}
+
+/**
+ * Whether a found split decreases the weighted impurity by at least the
+ * minimum: its share of the tree's weight times the node's impurity less
+ * the children's, weighted (up to PURE_IMPURITY).
+ *
+ * @param weight The node's weight; `totalWeight` the tree's.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { decreasesEnough } from "./grow_tree.ts";
+ * const split = { leftWeight: 2, rightWeight: 2, leftImpurity: 0, rightImpurity: 0 };
+ * assert.equal(decreasesEnough(split, 4, 0.5, 8, { minDecrease: 0.25 }), true); // 4/8 x 0.5
+ * assert.equal(decreasesEnough(split, 4, 0.5, 8, { minDecrease: 0.3 }), false);
+ * ```
+ */
+export function decreasesEnough(
+  split: Pick<SplitChoice, "leftWeight" | "rightWeight" | "leftImpurity" | "rightImpurity">,
+  weight: number,
+  impurity: number,
+  totalWeight: number,
+  limits: Pick<GrowLimits, "minDecrease">,
+): boolean {
+  const improvement = (weight / totalWeight) *
+    (impurity - (split.rightWeight / weight) * split.rightImpurity -
+      (split.leftWeight / weight) * split.leftImpurity);
+  return !(improvement + PURE_IMPURITY < limits.minDecrease);
+}
+
+/**
+ * Whether a split sends missing values left: its own choice, or, when the
+ * node had none, the heavier child (the left one on a tie).
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { missingGoesLeft } from "./grow_tree.ts";
+ * assert.equal(missingGoesLeft({ missing: "heavier", leftWeight: 3, rightWeight: 3 }), true);
+ * assert.equal(missingGoesLeft({ missing: "right", leftWeight: 9, rightWeight: 3 }), false);
+ * ```
+ */
+export function missingGoesLeft(
+  split: Pick<SplitChoice, "missing" | "leftWeight" | "rightWeight">,
+): boolean {
+  return split.missing === "left" ||
+    (split.missing === "heavier" && split.leftWeight >= split.rightWeight);
+}
+
+/**
  * A node whose impurity is at most this is pure, and a split must improve
  * on the minimum decrease by more than it (scikit-learn's EPSILON, the
  * double-precision machine epsilon).
@@ -124,7 +192,6 @@ export function canonicalRowOrder(dataset: Dataset): Int32Array {
  * ```
  */
 export const PURE_IMPURITY = 2.220446049250313e-16;
-const EPSILON = PURE_IMPURITY;
 
 /**
  * Grows a tree to the stopping rules.
@@ -378,10 +445,7 @@ class Builder {
       if (node.side !== "root") this.nodes.attach(node.parent, node.side, id);
       const impurity = this.nodes.impurityOf(id);
       const rows = end - start;
-      if (
-        depth >= this.s.maxDepth || rows < this.s.minSplit || rows < 2 * this.s.minLeaf ||
-        impurity <= EPSILON
-      ) {
+      if (isLeaf(this.s, depth, rows, impurity)) {
         histograms.release(hist);
         continue;
       }
@@ -392,15 +456,11 @@ class Builder {
       const found = splitter.find(this.index, start, end, hist);
       const best = splitter.choice;
       const weight = this.nodes.weightOf(id);
-      const improvement = !found ? -Infinity : (weight / this.rows.totalWeight) *
-        (impurity - (best.rightWeight / weight) * best.rightImpurity -
-          (best.leftWeight / weight) * best.leftImpurity);
-      if (!found || improvement + EPSILON < this.s.minDecrease) {
+      if (!found || !decreasesEnough(best, weight, impurity, this.rows.totalWeight, this.s)) {
         histograms.release(hist);
         continue;
       }
-      const missingLeft = best.missing === "left" ||
-        (best.missing === "heavier" && best.leftWeight >= best.rightWeight);
+      const missingLeft = missingGoesLeft(best);
       const leftSums = this.regression ? this.takeSums() : null;
       const rightSums = this.regression ? this.takeSums() : null;
       const mid = this.partition(start, end, best, missingLeft, leftSums, rightSums);
