@@ -33,7 +33,7 @@ import {
 } from "./grow_tree.ts";
 import { Histograms } from "./histogram.ts";
 import { Splitter } from "./splitter.ts";
-import { maskWordsOf, TreeNodes } from "./tree_nodes.ts";
+import { maskWordsOf, type PendingNode, TreeNodes } from "./tree_nodes.ts";
 
 /** The data of {@linkcode growOneFeatureTree}. */
 export interface OneFeatureInput {
@@ -103,15 +103,6 @@ export function growOneFeatureTree(input: OneFeatureInput, options: GrowOptions 
     totalWeight += w;
   }
   return new OneFeatureBuilder(input, sums, totalWeight, limits).grow();
-}
-
-/** A node waiting on the stack: its bins `index[start..end)` and where it hangs. */
-interface PendingNode {
-  start: number;
-  end: number;
-  depth: number;
-  parent: number;
-  side: "left" | "right" | "root";
 }
 
 // The builder of growTree (lib/tree/grow_tree.ts) with bins in place of

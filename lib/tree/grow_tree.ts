@@ -22,7 +22,7 @@ import type { FlatTree } from "./flat_tree.ts";
 import { gatherRows, type GrowRows } from "./grow_rows.ts";
 import { Histograms } from "./histogram.ts";
 import { type SplitChoice, Splitter } from "./splitter.ts";
-import { maskWordsOf, TreeNodes } from "./tree_nodes.ts";
+import { maskWordsOf, type PendingNode, TreeNodes } from "./tree_nodes.ts";
 
 /** Stopping rules. */
 export interface GrowOptions {
@@ -345,15 +345,8 @@ function sumsMean(sums: Float64Array): number {
   return sums[SUM_SHIFT] + sums[SUM_TARGET] / sums[SUM_WEIGHT];
 }
 
-/** A node waiting on the stack: its rows `index[start..end)` and where it hangs. */
-interface PendingNode {
-  start: number;
-  end: number;
-  depth: number;
-  /** The parent's id (-1: the root). */
-  parent: number;
-  /** Which child of the parent it is. */
-  side: "left" | "right" | "root";
+/** A node waiting on the stack, with what its parent handed down. */
+interface PendingRows extends PendingNode {
   /** Its histogram, when the parent's split handed one down (null: fill when needed). */
   histogram: Float64Array | null;
   /** Its regression sums, when the parent's partition took them. */
@@ -423,7 +416,7 @@ class Builder {
     if (this.index.length === 0) {
       throw new RangeError("no rows with positive weight to grow a tree on");
     }
-    const stack: PendingNode[] = [{
+    const stack: PendingRows[] = [{
       start: 0,
       end: this.index.length,
       depth: 0,

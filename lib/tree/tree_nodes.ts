@@ -12,6 +12,27 @@ import type { FlatTree } from "./flat_tree.ts";
 import type { SplitChoice } from "./splitter.ts";
 
 /**
+ * A node waiting on a builder's stack: its entries `[start, end)` of the
+ * builder's list (rows, or a feature's bins) and where it hangs.
+ *
+ * @example
+ * ```ts
+ * import type { PendingNode } from "./tree_nodes.ts";
+ * const root: PendingNode = { start: 0, end: 10, depth: 0, parent: -1, side: "root" };
+ * if (root.side !== "root" || root.parent !== -1) throw new Error("the root hangs nowhere");
+ * ```
+ */
+export interface PendingNode {
+  start: number;
+  end: number;
+  depth: number;
+  /** The parent's id (-1: the root). */
+  parent: number;
+  /** Which child of the parent it is. */
+  side: "left" | "right" | "root";
+}
+
+/**
  * Words of a categorical feature's level mask (0 for other features).
  *
  * @example
