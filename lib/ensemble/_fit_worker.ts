@@ -5,7 +5,8 @@
  * at once, each under its own key (0 unless given), and a tree asked for
  * by its ensemble's key. A pool that keeps the worker for several runs
  * starts each with a reset. It also works out contributions: given a set
- * of trees once, then blocks of profiles (lib/ensemble/contributions_parallel.ts).
+ * of trees once, then blocks of profiles (lib/ensemble/contributions_parallel.ts);
+ * and, sent aside between runs, a part of the proxy check (proxies_parallel.ts).
  *
  * @module
  */
@@ -15,6 +16,12 @@ import { type EnsembleOptions, fitOneTree } from "./fit_ensemble.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import { type GrowOptions, growTree } from "../tree/grow_tree.ts";
 import { ContributionReader } from "./contributions.ts";
+import {
+  type ProxyFigure,
+  proxyFigureSets,
+  type ProxyOptions,
+  type ProxyQuestion,
+} from "./proxies.ts";
 
 /** Messages to the worker. */
 export type ToWorker =
@@ -28,6 +35,8 @@ export type ToWorker =
   // value per feature), each row over every tree or the trees listed.
   | { kind: "partsTrees"; trees: FlatTree[]; features: number }
   | { kind: "parts"; index: number; profiles: Float64Array; only: (Int32Array | null)[] }
+  // The proxy check of some features, with its own data (a task aside).
+  | { kind: "proxies"; questions: ProxyQuestion[]; options: ProxyOptions }
   // A new run: the data and folds of earlier runs are forgotten.
   | { kind: "reset" }
   | { kind: "stop" };
@@ -47,6 +56,7 @@ export type FromWorker =
   | { kind: "foldTree"; index: number; tree: FlatTree }
   // Per profile of the block: base, prediction, then one part per feature.
   | { kind: "parts"; index: number; figures: Float64Array }
+  | { kind: "proxies"; figures: ProxyFigure[][] }
   | { kind: "error"; message: string };
 
 // deno-lint-ignore no-explicit-any
@@ -110,6 +120,14 @@ scope.onmessage = (event: MessageEvent<ToWorker>) => {
       }
       const reply: FromWorker = { kind: "parts", index: message.index, figures };
       scope.postMessage(reply, [figures.buffer]);
+      return;
+    }
+    if (message.kind === "proxies") {
+      const reply: FromWorker = {
+        kind: "proxies",
+        figures: proxyFigureSets(message.questions, message.options),
+      };
+      scope.postMessage(reply);
       return;
     }
     if (message.kind === "stop") {

@@ -22,6 +22,12 @@ const IN_FLIGHT = 2;
 /** A reply that is not an error. */
 export type WorkerReply = Exclude<FromWorker, { kind: "error" }>;
 
+// A task sent aside, waiting for its reply.
+interface AsideTask {
+  resolve: (reply: WorkerReply) => void;
+  reject: (error: Error) => void;
+}
+
 /**
  * Fitting workers kept for several runs, one run at a time. Workers start
  * on the first run that needs them; a failure stops them all and closes the
@@ -52,6 +58,12 @@ export class FittingPool {
   /** Most workers a run uses. */
   readonly size: number;
   #workers: Worker[] = [];
+  // Per worker, the tasks aside it has not yet answered, oldest first: its
+  // replies come in the order of its messages, so these come first.
+  #asides: AsideTask[][] = [];
+  // The running run's handlers (null between runs).
+  #onReply: ((worker: Worker, reply: WorkerReply) => void) | null = null;
+  #onFailure: ((error: Error) => void) | null = null;
   #running = false;
   #closed = false;
   // Shared copies made for this pool's runs, by dataset and bins: a fit's
@@ -88,22 +100,14 @@ export class FittingPool {
         const start = (worker: Worker) => {
           if (next < tasks.length) worker.postMessage(tasks[next++]);
         };
+        this.#onFailure = reject;
+        this.#onReply = (worker, reply) => {
+          take(reply);
+          done++;
+          if (done === tasks.length) resolve();
+          else start(worker);
+        };
         for (const worker of used) {
-          worker.onerror = (event) => {
-            event.preventDefault();
-            reject(new Error(`a fitting worker failed: ${event.message}`));
-          };
-          worker.onmessage = (event: MessageEvent<FromWorker>) => {
-            const reply = event.data;
-            if (reply.kind === "error") {
-              reject(new Error(`a fitting worker failed: ${reply.message}`));
-              return;
-            }
-            take(reply);
-            done++;
-            if (done === tasks.length) resolve();
-            else start(worker);
-          };
           worker.postMessage({ kind: "reset" } satisfies ToWorker);
           for (const message of opening) worker.postMessage(message);
           for (let k = 0; k < IN_FLIGHT; k++) start(worker);
@@ -114,7 +118,32 @@ export class FittingPool {
       throw error;
     } finally {
       this.#running = false;
+      this.#onReply = null;
+      this.#onFailure = null;
     }
+  }
+
+  /**
+   * Sends one task that brings its own data to worker `index` between runs,
+   * and returns its reply. A run started later queues behind it on that
+   * worker (a worker takes its messages in order), so the task uses time a
+   * worker would otherwise wait through, such as this thread scoring the
+   * cross-validation's trees. A failure stops the pool as in a run.
+   */
+  aside(index: number, task: ToWorker): Promise<WorkerReply> {
+    if (this.#closed) return Promise.reject(new Error("the fitting pool is closed"));
+    if (this.#running) {
+      // Its reply could not be told apart from the run's.
+      return Promise.reject(new Error("a task aside is sent between runs only"));
+    }
+    if (!(Number.isInteger(index) && index >= 0 && index < this.size)) {
+      return Promise.reject(new RangeError(`no worker ${index} in a pool of ${this.size}`));
+    }
+    this.#startWorkers(index + 1);
+    return new Promise<WorkerReply>((resolve, reject) => {
+      this.#asides[index].push({ resolve, reject });
+      this.#workers[index].postMessage(task);
+    });
   }
 
   /**
@@ -129,10 +158,34 @@ export class FittingPool {
 
   #startWorkers(count: number): void {
     while (this.#workers.length < count) {
-      this.#workers.push(
-        new Worker(new URL("./_fit_worker.ts", import.meta.url).href, { type: "module" }),
-      );
+      const worker = new Worker(new URL("./_fit_worker.ts", import.meta.url).href, {
+        type: "module",
+      });
+      const asides: AsideTask[] = [];
+      this.#workers.push(worker);
+      this.#asides.push(asides);
+      worker.onerror = (event) => {
+        event.preventDefault();
+        this.#fail(new Error(`a fitting worker failed: ${event.message}`));
+      };
+      worker.onmessage = (event: MessageEvent<FromWorker>) => {
+        const reply = event.data;
+        if (reply.kind === "error") {
+          this.#fail(new Error(`a fitting worker failed: ${reply.message}`));
+          return;
+        }
+        const aside = asides.shift();
+        if (aside !== undefined) aside.resolve(reply);
+        else this.#onReply?.(worker, reply);
+      };
     }
+  }
+
+  // A worker's failure ends the run and every task aside; the pool closes.
+  #fail(error: Error): void {
+    for (const aside of this.#asides.flat()) aside.reject(error);
+    this.#onFailure?.(error);
+    this.close();
   }
 
   /**
@@ -152,6 +205,10 @@ export class FittingPool {
     this.#closed = true;
     for (const worker of this.#workers) worker.terminate();
     this.#workers = [];
+    // A task aside still waiting gets no reply now.
+    const waiting = this.#asides.flat();
+    this.#asides = [];
+    for (const aside of waiting) aside.reject(new Error("the fitting pool was closed"));
   }
 }
 

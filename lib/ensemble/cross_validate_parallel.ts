@@ -22,7 +22,9 @@ import { FittingPool, onFittingWorkers, sharedDataFor } from "./_worker_pool.ts"
 
 /**
  * {@linkcode crossValidateTree} with its trees grown on `workers` workers
- * (1: in this thread), or on a pool's.
+ * (1: in this thread), or on a pool's. `onTreesGrown` is called when the
+ * workers' trees are back, before this thread scores them (never when the
+ * trees are grown in this thread): the moment the workers fall idle.
  *
  * @example
  * ```ts
@@ -43,7 +45,10 @@ import { FittingPool, onFittingWorkers, sharedDataFor } from "./_worker_pool.ts"
  */
 export async function crossValidateTreeParallel(
   dataset: Dataset,
-  options: CrossValidateOptions & { workers?: number | FittingPool } = {},
+  options: CrossValidateOptions & {
+    workers?: number | FittingPool;
+    onTreesGrown?: () => void;
+  } = {},
   bins: FeatureBins[] = binFeatures(dataset),
 ): Promise<CrossValidatedTree> {
   const folds = options.folds ?? 10;
@@ -78,5 +83,6 @@ export async function crossValidateTreeParallel(
     else foldTrees[reply.index] = reply.tree;
     options.onProgress?.(++done, folds + 1);
   });
+  options.onTreesGrown?.();
   return crossValidateGrown(dataset, full!, foldTrees, fold, options);
 }

@@ -73,6 +73,12 @@ export interface DefaultEnsembleOptions {
   onProgress?: (done: number, total: number) => void;
   /** Called as folds are done. */
   onCrossValidation?: (done: number, total: number) => void;
+  /**
+   * Called when the cross-validation's trees are back from the workers,
+   * before this thread scores them (see crossValidateTreeParallel): work
+   * sent aside to the pool then fills the workers' wait.
+   */
+  onCrossValidationGrown?: () => void;
   /** Measure permutation importance as the trees are fitted (see `EnsembleOptions.importance`). */
   importance?: EnsembleOptions["importance"];
   /** Make each tree's shareable copy as it is fitted (see `EnsembleOptions.share`). */
@@ -127,6 +133,7 @@ export async function fitDefaultEnsemble(
       grow: options.grow,
       extraLosses: options.extraLosses,
       onProgress: options.onCrossValidation,
+      onTreesGrown: options.onCrossValidationGrown,
     }, bins)
     : null;
   // The alpha of the lowest cross-validated error (DEFAULT_PRUNING.alphaRule).

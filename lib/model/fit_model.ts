@@ -22,6 +22,7 @@ import {
   type ProxyQuestion,
 } from "../ensemble/proxies.ts";
 import { FittingPool } from "../ensemble/_worker_pool.ts";
+import { proxyFigureSetsAside } from "../ensemble/proxies_parallel.ts";
 import { defaultWorkers } from "../ensemble/defaults.ts";
 import type { DeclaredType } from "../table/infer_column.ts";
 import { leafCount, treeDepth } from "../tree/flat_tree.ts";
@@ -193,6 +194,18 @@ async function fitModelOn(
 
   const back = (v: number) => toMoney(v, scale);
   const payInMoney = regression ? Float64Array.from(y as ArrayLike<number>, back) : null;
+  // The proxy check needs neither the tree nor the ensemble: with workers,
+  // it is sent aside to them when the cross-validation's trees are back,
+  // while this thread scores those trees; else it runs here after the fit.
+  const questions = proxyQuestions(filtered, rowIndex, dataset);
+  let proxiesAside: Promise<ProxyFigure[][]> | null = null;
+  const sendProxiesAside = workers instanceof FittingPool && questions.length > 0
+    ? () => {
+      proxiesAside = proxyFigureSetsAside(workers, questions, { seed });
+      // Awaited after the fit; a fit that fails first reports its own error.
+      proxiesAside.catch(() => {});
+    }
+    : undefined;
   const fitted = await fitDefaultEnsemble(dataset, {
     trees,
     seed,
@@ -216,6 +229,7 @@ async function fitModelOn(
     // Each tree's shareable copy, made where it is fitted.
     share: regression ? { money: payInMoney! } : {},
     onCrossValidation: (done, total) => options.onProgress?.("cross-validation", done, total),
+    onCrossValidationGrown: sendProxiesAside,
     onProgress: (done, total) => options.onProgress?.("trees", done, total),
   });
   const cv = fitted.reference!;
@@ -307,7 +321,7 @@ async function fitModelOn(
   const importance = importanceOf(dataset, ensemble, cv.tree, seed);
   options.onProgress?.("importance", 1, 1);
 
-  const proxies = possibleProxies(filtered, rowIndex, dataset, options, seed);
+  const proxies = await possibleProxies(questions, proxiesAside, options, seed);
 
   const features = dataset.features.map((f): FeatureSchema => {
     const column = filtered.columns.find((c) => c.name === f.name)!;
@@ -431,13 +445,10 @@ function increasingFeatures(dataset: Dataset, names: readonly string[]): number[
 
 // Each protected column of the table that is not a feature (groups with
 // names, at least two of them): which features alone predict it.
-function possibleProxies(
-  table: Table,
-  rowIndex: Int32Array,
-  dataset: Dataset,
-  options: FitModelOptions,
-  seed: number,
-): ProxyFigure[] {
+// Each protected attribute not used as a feature (categorical or ordinal,
+// two groups or more among the rows) with the features that may proxy it,
+// over the rows where the attribute is known.
+function proxyQuestions(table: Table, rowIndex: Int32Array, dataset: Dataset): ProxyQuestion[] {
   const used = new Set(dataset.features.map((f) => f.name));
   const attributes = table.columns.filter((c): c is LevelColumn =>
     c.protected && !used.has(c.name) && (c.type === "categorical" || c.type === "ordinal")
@@ -446,7 +457,6 @@ function possibleProxies(
     const column = table.columns.find((c) => c.name === f.name);
     return column !== undefined && !column.protected;
   });
-  const threshold = options.proxyThreshold ?? PROXY_THRESHOLD;
   const questions: ProxyQuestion[] = [];
   for (const attribute of attributes) {
     const rows: number[] = [];
@@ -466,12 +476,25 @@ function possibleProxies(
       attributeName: attribute.name,
     });
   }
+  return questions;
+}
+
+// The features named possible proxies: from the workers' check when it was
+// sent aside, else checked here.
+async function possibleProxies(
+  questions: ProxyQuestion[],
+  aside: Promise<ProxyFigure[][]> | null,
+  options: FitModelOptions,
+  seed: number,
+): Promise<ProxyFigure[]> {
+  const threshold = options.proxyThreshold ?? PROXY_THRESHOLD;
   options.onProgress?.("proxies", 0, questions.length);
-  const figures = proxyFigureSets(
+  const figures = aside !== null ? await aside : proxyFigureSets(
     questions,
     { seed },
     (done, total) => options.onProgress?.("proxies", done, total),
   );
+  if (aside !== null) options.onProgress?.("proxies", questions.length, questions.length);
   const found = figures.flat().filter((f) => f.balancedAccuracy >= threshold);
   return found.sort((x, y) => y.balancedAccuracy - x.balancedAccuracy);
 }
