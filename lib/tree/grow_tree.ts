@@ -351,6 +351,8 @@ interface PendingRows extends PendingNode {
   histogram: Float64Array | null;
   /** Its regression sums, when the parent's partition took them. */
   sums: Float64Array | null;
+  /** The features whose bin order of its rows the parent's split handed down (a mask). */
+  ordered: number;
   /** Bounds of its value from constrained splits above (-Infinity, Infinity: none). */
   floor: number;
   ceiling: number;
@@ -424,6 +426,7 @@ class Builder {
       side: "root",
       histogram: null,
       sums: null,
+      ordered: 0,
       floor: -Infinity,
       ceiling: Infinity,
     }];
@@ -446,7 +449,7 @@ class Builder {
         hist = histograms.acquire(rows);
         histograms.fill(hist, this.index, start, end, rows);
       }
-      const found = splitter.find(this.index, start, end, hist);
+      const found = splitter.find(this.index, start, end, hist, node.ordered);
       const best = splitter.choice;
       const weight = this.nodes.weightOf(id);
       if (!found || !decreasesEnough(best, weight, impurity, this.rows.totalWeight, this.s)) {
@@ -458,6 +461,9 @@ class Builder {
       const rightSums = this.regression ? this.takeSums() : null;
       const mid = this.partition(start, end, best, missingLeft, leftSums, rightSums);
       this.nodes.split(id, best, missingLeft);
+      // The rows' bin orders the search made or was given go down with them.
+      const ordered = splitter.ordered;
+      if (ordered !== 0) splitter.orders.split(ordered, this.index, start, mid, end);
       const [leftHist, rightHist] = histograms.children(hist, this.index, start, mid, end);
       // A constrained feature's known values split by order: the midpoint of
       // the two sides' values bounds the lower side from above and the
@@ -479,6 +485,7 @@ class Builder {
         side: "right",
         histogram: rightHist,
         sums: rightSums,
+        ordered,
         floor: Number.isNaN(split) ? floor : split,
         ceiling,
       });
@@ -491,6 +498,7 @@ class Builder {
         side: "left",
         histogram: leftHist,
         sums: leftSums,
+        ordered,
         floor,
         ceiling,
       });

@@ -33,6 +33,7 @@ import type { FeatureBins } from "./bins.ts";
 import type { Criterion } from "./criterion.ts";
 import type { GrowRows } from "./grow_rows.ts";
 import type { Histograms } from "./histogram.ts";
+import { BinOrders, KEPT_FEATURES } from "./bin_orders.ts";
 
 /** Where a split sends missing values: a side, or the heavier child (the node had none). */
 export type MissingGoes = "left" | "right" | "heavier";
@@ -131,6 +132,10 @@ export class Splitter {
   private readonly missing: Float64Array;
   private readonly sortKeys: Uint32Array;
   private keys: Uint32Array;
+  /** Per feature, the node's rows in bin order, for the builder to hand down. */
+  readonly orders: BinOrders;
+  /** The features whose order of the last `find`'s rows `orders` holds (a mask). */
+  ordered = 0;
   private readonly levelKey: Float64Array;
   // The summary of the known values, of the left side being scanned, and
   // the two sides of the split being scored.
@@ -164,6 +169,7 @@ export class Splitter {
     this.compact = new Float64Array(compact * stride);
     this.levelKey = new Float64Array(compact);
     this.sortKeys = new Uint32Array(rows.count);
+    this.orders = new BinOrders(rows.count, bins.length);
     this.keys = this.sortKeys;
     this.missing = new Float64Array(stride);
     this.data = this.compact;
@@ -177,10 +183,18 @@ export class Splitter {
    * Searches every feature for the best split of the rows
    * `index[start..end)` (`hist`: their histogram, or null when no feature
    * is dense at their size); false when no split leaves `minLeaf` rows on
-   * both sides.
+   * both sides. `ordered`: the features whose bin order of these rows is
+   * already in `orders` (a mask); `ordered` afterwards adds those sorted.
    */
-  find(index: Int32Array, start: number, end: number, hist: Float64Array | null): boolean {
+  find(
+    index: Int32Array,
+    start: number,
+    end: number,
+    hist: Float64Array | null,
+    ordered = 0,
+  ): boolean {
     this.found = false;
+    this.ordered = ordered;
     for (let f = 0; f < this.kinds.length; f++) {
       this.monotone = this.increasing !== null && this.increasing[f] === 1;
       this.search(f, this.collect(f, index, start, end, hist));
@@ -281,36 +295,44 @@ export class Splitter {
       this.pointAt(hist, hist, first + missingBin * stride);
       return m;
     }
-    // Few rows, many bins: sort the node's (bin, position) keys instead.
-    // Keys fit 32 bits for all but huge nodes of many-valued features, and a
-    // reused Uint32Array sorts faster than a fresh Float64Array.
+    // Few rows, many bins: go through the node's rows in bin order instead
+    // (bin_orders.ts), handed down by the split above or sorted here by
+    // (bin, position) keys. Keys fit 32 bits for all but huge nodes of
+    // many-valued features, and a reused Uint32Array sorts faster than a
+    // fresh Float64Array.
     const { bins: rowBins, features, offsets, moments, weight, classOf } = this.rows;
     const offset = offsets[f];
-    const keys = (missingBin + 1) * rows <= 0xffffffff ? this.keysOf(rows) : new Float64Array(rows);
-    for (let i = 0; i < rows; i++) {
-      keys[i] = (rowBins[index[start + i] * features + f] - offset) * rows + i;
+    const order = this.orders.order(f);
+    if (f >= KEPT_FEATURES || ((this.ordered >>> f) & 1) === 0) {
+      const keys = (missingBin + 1) * rows <= 0xffffffff
+        ? this.keysOf(rows)
+        : new Float64Array(rows);
+      for (let i = 0; i < rows; i++) {
+        keys[i] = (rowBins[index[start + i] * features + f] - offset) * rows + i;
+      }
+      keys.sort();
+      for (let i = 0; i < rows; i++) order[start + i] = index[start + (keys[i] % rows)];
+      if (f < KEPT_FEATURES) this.ordered |= 1 << f;
     }
-    keys.sort();
     const compact = this.compact;
     const missing = this.missing;
     missing.fill(0);
     const regression = moments.length > 0;
     if (!regression) total.fill(0);
-    let i = 0;
+    let i = start;
     // Each bin's summary is added up in locals and written once (a fill per
     // bin cost a fifth of this function); the known values' total is added
     // bin by bin in the same order.
     let tRows = 0, tWeight = 0, tSum = 0, tSquares = 0;
-    while (i < rows) {
-      const b = Math.floor(keys[i] / rows);
-      const first = b * rows;
-      const limit = first + rows;
+    while (i < end) {
+      const b = rowBins[order[i] * features + f] - offset;
       const a = b === missingBin ? 0 : m * stride;
       const into = b === missingBin ? missing : compact;
       if (regression) {
         let n = 0, w = 0, sum = 0, squares = 0;
-        while (i < rows && keys[i] < limit) {
-          const r = index[start + (keys[i] - first)];
+        while (i < end) {
+          const r = order[i];
+          if (rowBins[r * features + f] - offset !== b) break;
           n++;
           w += moments[3 * r];
           sum += moments[3 * r + 1];
@@ -329,8 +351,9 @@ export class Splitter {
         }
       } else {
         for (let c = 0; c < stride; c++) into[a + c] = 0;
-        while (i < rows && keys[i] < limit) {
-          const r = index[start + (keys[i] - first)];
+        while (i < end) {
+          const r = order[i];
+          if (rowBins[r * features + f] - offset !== b) break;
           into[a]++;
           into[a + 1] += weight[r];
           into[a + 2 + classOf[r]] += weight[r];
