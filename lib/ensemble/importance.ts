@@ -132,7 +132,12 @@ export function treeImportanceIncrease(
   // row i the value of its donor (the same draws as shuffling row numbers),
   // read in order rather than from a random row.
   const donated = new Float64Array(n);
+  // Each row's last re-walk for the feature: the donor value and its
+  // squared error. Another repeat that gives the row the same value (a
+  // two-level feature always does) reads it instead of walking again.
+  const walked: WalkCache = { value: new Float64Array(n), sqError: new Float64Array(n) };
   for (let f = 0; f < features; f++) {
+    if (used[f] === 1) walked.value.fill(NaN);
     for (let k = 0; k < repeats; k++) {
       // Shuffled even when unused, so every feature's draws stay the same
       // whichever features a tree happens to use.
@@ -141,7 +146,7 @@ export function treeImportanceIncrease(
       // A feature the tree never splits on changes no prediction: 0 exactly.
       if (used[f] === 0) continue;
       out[f * repeats + k] =
-        shuffledSse(tree, columns, dataset.target.values, oob, f, donated, paths) /
+        shuffledSse(tree, columns, dataset.target.values, oob, f, donated, paths, walked) /
           n - base;
     }
   }
@@ -233,8 +238,10 @@ function shuffledSse(
   f: number,
   donated: Float64Array,
   paths: OutOfBagPaths,
+  walked: WalkCache,
 ): number {
   const { firstNode, low, high, levelSet, sqError } = paths;
+  const { value: walkedValue, sqError: walkedError } = walked;
   const n = oob.length;
   const column = columns[f];
   // Categorical splits test level masks; every other split a threshold.
@@ -259,10 +266,24 @@ function shuffledSse(
       sse += sqError[i];
       continue;
     }
+    // A NaN donor is never equal to the value kept: walked each time.
+    if (walkedValue[i] === v) {
+      sse += walkedError[i];
+      continue;
+    }
     const e = y[r] - tree.value[walkFrom(tree, node, columns, r, f, v)];
+    walkedValue[i] = v;
+    walkedError[i] = e * e;
     sse += e * e;
   }
   return sse;
+}
+
+// Per out-of-bag row, the donor value of its last re-walk (NaN: none) and
+// the squared error it gave.
+interface WalkCache {
+  value: Float64Array;
+  sqError: Float64Array;
 }
 
 // The leaf row r reaches from `node` with feature f's value replaced by v.

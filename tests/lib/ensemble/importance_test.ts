@@ -120,7 +120,7 @@ function walkedFromRoot(
   return out;
 }
 
-Deno.test("a tree's importance part equals walking every shuffled row from the root (missing values, masks of one and of two words)", () => {
+Deno.test("a tree's importance part equals walking every shuffled row from the root (missing values, masks of one and of two words, re-walks reused)", () => {
   fc.assert(
     fc.property(fc.integer({ min: 0, max: 2 ** 31 - 1 }), (seed) => {
       const rng = makeRng(seed);
@@ -131,21 +131,25 @@ Deno.test("a tree's importance part equals walking every shuffled row from the r
       const grade = Array.from({ length: rows }, () => gap(draw(6)));
       const site = Array.from({ length: rows }, () => gap(draw(7)));
       const team = Array.from({ length: rows }, () => gap(draw(40)));
+      // Two levels: a row's donor, when it differs, is always the same value,
+      // so later repeats reuse the first re-walk.
+      const shift = Array.from({ length: rows }, () => gap(draw(2)));
       const pay = years.map((v, i) =>
         1000 * (Number.isNaN(v) ? 3 : v) + 4000 * (grade[i] || 0) + 900 * ((site[i] || 0) % 3) +
-        50 * ((team[i] || 0) % 11) + draw(500)
+        50 * ((team[i] || 0) % 11) + 3000 * (shift[i] || 0) + draw(500)
       );
       const dataset = regression([
         numeric("years", years),
         levels("grade", grade, 6, "ordinal"),
         levels("site", site, 7),
         levels("team", team, 40),
+        levels("shift", shift, 2),
       ], pay);
       const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 + draw(4) });
       const counts = Float64Array.from({ length: rows }, () => draw(3));
       const stream = draw(1000);
-      const fast = treeImportanceIncrease(tree, dataset, counts, 2, importanceRng(stream, 0));
-      const plain = walkedFromRoot(tree, dataset, counts, 2, importanceRng(stream, 0));
+      const fast = treeImportanceIncrease(tree, dataset, counts, 3, importanceRng(stream, 0));
+      const plain = walkedFromRoot(tree, dataset, counts, 3, importanceRng(stream, 0));
       // The same squared errors summed in the same order: equal to the bit.
       assert.deepEqual([...fast], [...plain]);
     }),
