@@ -47,18 +47,23 @@ export const ANALYST_FILE_WARNING = "With a staff list (the table's rows without
   "file rebuilds every person's pay in the model's table to the cent. Keep it where the pay " +
   "table is kept; never share it. The model file it goes with is safe to share without it.";
 
-const shape = z.object({
-  kind: z.literal(MARKER),
-  format: z.literal(FORMAT),
-  warning: z.string(),
-  model: z.object({
-    sha256: z.string().regex(/^[0-9a-f]{64}$/),
-    trees: z.number().int().min(0),
-    rows: z.number().int().min(1),
-  }),
-  resamples: z.string(),
-  rowKeys: z.string().nullable(),
-});
+// Declared on the first read, as the model file's schemas are (a schema
+// costs start-up time where it is declared).
+let shape: ReturnType<typeof declareShape> | undefined;
+function declareShape() {
+  return z.object({
+    kind: z.literal(MARKER),
+    format: z.literal(FORMAT),
+    warning: z.string(),
+    model: z.object({
+      sha256: z.string().regex(/^[0-9a-f]{64}$/),
+      trees: z.number().int().min(0),
+      rows: z.number().int().min(1),
+    }),
+    resamples: z.string(),
+    rowKeys: z.string().nullable(),
+  });
+}
 
 /**
  * The analyst's file as text, for the model file whose bytes have SHA-256
@@ -140,7 +145,7 @@ export function analystFromText(text: string, file: string, model: Model): Analy
   }
   const rest = withoutChecksum(raw);
   if (rest === null) throw damaged("its checksum does not match its contents");
-  const parsed = shape.safeParse(rest);
+  const parsed = (shape ??= declareShape()).safeParse(rest);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     throw damaged(`${issue.path.join(".") || "the document"}: ${issue.message}`);

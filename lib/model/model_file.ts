@@ -113,171 +113,182 @@ function encodeTree(tree: FlatTree) {
   };
 }
 
-const treeShape = z.object({
-  task: z.enum(["regression", "classification"]),
-  width: z.number().int().min(1),
-  nodeCount: z.number().int().min(1),
-  maskWords: z.array(z.number().int().min(0)),
-  feature: z.string(),
-  threshold: z.string(),
-  maskOffset: z.string(),
-  masks: z.string(),
-  masksLength: z.number().int().min(0),
-  left: z.string(),
-  right: z.string(),
-  missingLeft: z.string(),
-  value: z.string(),
-  rows: z.string(),
-  weight: z.string().optional(),
-  impurity: z.string().optional(),
-});
+// The file's schemas, declared on the first read: zod builds a schema's
+// objects as it is declared, which took a sixth of every command's start-up
+// (0.06 s), and most commands never read a model file.
+function declareShapes() {
+  const treeShape = z.object({
+    task: z.enum(["regression", "classification"]),
+    width: z.number().int().min(1),
+    nodeCount: z.number().int().min(1),
+    maskWords: z.array(z.number().int().min(0)),
+    feature: z.string(),
+    threshold: z.string(),
+    maskOffset: z.string(),
+    masks: z.string(),
+    masksLength: z.number().int().min(0),
+    left: z.string(),
+    right: z.string(),
+    missingLeft: z.string(),
+    value: z.string(),
+    rows: z.string(),
+    weight: z.string().optional(),
+    impurity: z.string().optional(),
+  });
 
-const finite = z.number().refine(Number.isFinite, "must be a finite number");
-const maybeNumber = z.union([z.number(), z.null()]).transform((v) => (v === null ? NaN : v));
-const metrics = z.object({ rmse: maybeNumber, mae: maybeNumber, r2: maybeNumber });
-// Keys in the order fitModel writes them, so a reloaded model saves to the
-// same text.
-const accuracy = z.object({
-  measuredBy: z.enum(["cross-validation", "out-of-bag", "in-sample"]),
-  money: metrics.optional(),
-  rmseSe: maybeNumber.optional(),
-  log: metrics.optional(),
-  accuracy: maybeNumber.optional(),
-  classes: z.object({
-    precision: z.array(maybeNumber),
-    recall: z.array(maybeNumber),
-    confusion: z.array(z.array(z.number())),
-  }).optional(),
-  aliased: z.array(z.object({
-    term: z.discriminatedUnion("kind", [
-      z.object({ feature: z.string(), kind: z.literal("value") }),
-      z.object({ feature: z.string(), kind: z.literal("missing") }),
-      z.object({ feature: z.string(), kind: z.literal("level"), level: z.string().nullable() }),
-    ]),
-    folds: z.number().int().min(1),
-  })).optional(),
-});
-const moneyUnit = z.object({
-  // An ISO 4217 code: anything else makes the number formatter throw.
-  currency: z.string().regex(/^[A-Z]{3}$/, "must be a currency code such as EUR").optional(),
-  period: z.enum(["hour", "week", "month", "year"]).optional(),
-});
-
-const documentShape = z.object({
-  kind: z.literal(MARKER),
-  format: z.number().int(),
-  provenance: z.object({
-    paygrove: z.string(),
-    format: z.number().int(),
-    created: z.string(),
-    table: z.object({ file: z.string(), sha256: z.string(), rows: z.number().int() }),
-    seed: z.number(),
-  }),
-  target: z.object({
-    name: z.string(),
-    kind: z.enum(["regression", "classification"]),
-    classes: z.array(z.string()).optional(),
-    money: moneyUnit.optional(),
-    scale: z.enum(["log", "raw"]),
-    center: z.object({
-      shift: z.number().min(-10).max(10),
-      duan: z.number().positive().max(1e6),
-      meanOverEstimate: z.number().positive().max(1e6),
-      rows: z.number().int().min(0),
+  const finite = z.number().refine(Number.isFinite, "must be a finite number");
+  const maybeNumber = z.union([z.number(), z.null()]).transform((v) => (v === null ? NaN : v));
+  const metrics = z.object({ rmse: maybeNumber, mae: maybeNumber, r2: maybeNumber });
+  // Keys in the order fitModel writes them, so a reloaded model saves to the
+  // same text.
+  const accuracy = z.object({
+    measuredBy: z.enum(["cross-validation", "out-of-bag", "in-sample"]),
+    money: metrics.optional(),
+    rmseSe: maybeNumber.optional(),
+    log: metrics.optional(),
+    accuracy: maybeNumber.optional(),
+    classes: z.object({
+      precision: z.array(maybeNumber),
+      recall: z.array(maybeNumber),
+      confusion: z.array(z.array(z.number())),
     }).optional(),
-  }),
-  features: z.array(z.object({
-    name: z.string(),
-    kind: z.enum(["numeric", "ordinal", "categorical"]),
-    levels: z.array(z.string()).optional(),
-    typical: maybeNumber,
-    range: z.object({ min: maybeNumber, max: maybeNumber, p01: maybeNumber, p99: maybeNumber })
-      .optional(),
-    missing: z.number().int().min(0),
-    protected: z.boolean(),
-  })).min(1),
-  dropped: z.array(z.object({ name: z.string(), reason: z.string() })),
-  read: z.object({
-    delimiter: z.string().optional(),
-    decimal: z.enum([".", ","]),
-    encoding: z.string(),
-    missing: z.array(z.string()).optional(),
-    types: z.record(z.string(), z.enum(["numeric", "categorical", "ordinal", "identifier"])),
-    orders: z.record(z.string(), z.array(z.string())),
-    currency: z.string().optional(),
-    hoursPerYear: z.number().optional(),
-    fte: z.string().optional(),
-    periods: z.record(z.string(), z.enum(["hour", "week", "month", "year"])).optional(),
-    protected: z.array(z.string()).optional(),
-    identifier: z.string().optional(),
-  }),
-  settings: z.object({
-    trees: z.number().int().min(0),
-    minLeaf: z.number().int().min(1),
-    folds: z.number().int().min(2),
-    rule: z.enum(["one-se", "min"]),
-    prune: z.enum(["alpha-min", "none"]),
-    seed: z.number(),
-    privacyMin: z.number().int().min(3),
-    where: z.record(z.string(), z.array(z.string())),
-    allowProtected: z.boolean(),
-    // Files written before the constraint existed hold none.
-    increasing: z.array(z.string()).default([]),
-  }),
-  rows: z.object({ used: z.number().int().min(1), dropped: z.number().int().min(0) }),
-  reference: z.object({
-    tree: treeShape,
-    alpha: finite,
-    leaves: z.number().int().min(1),
-    depth: z.number().int().min(0),
-    pruningPath: z.array(z.object({
+    aliased: z.array(z.object({
+      term: z.discriminatedUnion("kind", [
+        z.object({ feature: z.string(), kind: z.literal("value") }),
+        z.object({ feature: z.string(), kind: z.literal("missing") }),
+        z.object({ feature: z.string(), kind: z.literal("level"), level: z.string().nullable() }),
+      ]),
+      folds: z.number().int().min(1),
+    })).optional(),
+  });
+  const moneyUnit = z.object({
+    // An ISO 4217 code: anything else makes the number formatter throw.
+    currency: z.string().regex(/^[A-Z]{3}$/, "must be a currency code such as EUR").optional(),
+    period: z.enum(["hour", "week", "month", "year"]).optional(),
+  });
+
+  const documentShape = z.object({
+    kind: z.literal(MARKER),
+    format: z.number().int(),
+    provenance: z.object({
+      paygrove: z.string(),
+      format: z.number().int(),
+      created: z.string(),
+      table: z.object({ file: z.string(), sha256: z.string(), rows: z.number().int() }),
+      seed: z.number(),
+    }),
+    target: z.object({
+      name: z.string(),
+      kind: z.enum(["regression", "classification"]),
+      classes: z.array(z.string()).optional(),
+      money: moneyUnit.optional(),
+      scale: z.enum(["log", "raw"]),
+      center: z.object({
+        shift: z.number().min(-10).max(10),
+        duan: z.number().positive().max(1e6),
+        meanOverEstimate: z.number().positive().max(1e6),
+        rows: z.number().int().min(0),
+      }).optional(),
+    }),
+    features: z.array(z.object({
+      name: z.string(),
+      kind: z.enum(["numeric", "ordinal", "categorical"]),
+      levels: z.array(z.string()).optional(),
+      typical: maybeNumber,
+      range: z.object({ min: maybeNumber, max: maybeNumber, p01: maybeNumber, p99: maybeNumber })
+        .optional(),
+      missing: z.number().int().min(0),
+      protected: z.boolean(),
+    })).min(1),
+    dropped: z.array(z.object({ name: z.string(), reason: z.string() })),
+    read: z.object({
+      delimiter: z.string().optional(),
+      decimal: z.enum([".", ","]),
+      encoding: z.string(),
+      missing: z.array(z.string()).optional(),
+      types: z.record(z.string(), z.enum(["numeric", "categorical", "ordinal", "identifier"])),
+      orders: z.record(z.string(), z.array(z.string())),
+      currency: z.string().optional(),
+      hoursPerYear: z.number().optional(),
+      fte: z.string().optional(),
+      periods: z.record(z.string(), z.enum(["hour", "week", "month", "year"])).optional(),
+      protected: z.array(z.string()).optional(),
+      identifier: z.string().optional(),
+    }),
+    settings: z.object({
+      trees: z.number().int().min(0),
+      minLeaf: z.number().int().min(1),
+      folds: z.number().int().min(2),
+      rule: z.enum(["one-se", "min"]),
+      prune: z.enum(["alpha-min", "none"]),
+      seed: z.number(),
+      privacyMin: z.number().int().min(3),
+      where: z.record(z.string(), z.array(z.string())),
+      allowProtected: z.boolean(),
+      // Files written before the constraint existed hold none.
+      increasing: z.array(z.string()).default([]),
+    }),
+    rows: z.object({ used: z.number().int().min(1), dropped: z.number().int().min(0) }),
+    reference: z.object({
+      tree: treeShape,
       alpha: finite,
-      leaves: z.number().int(),
-      risk: finite,
-      cvError: finite,
-      cvSe: finite,
-    })),
-  }),
-  ensemble: z.object({
-    trees: z.array(treeShape),
-    // Format 1 only: each tree's resampling seed.
-    seeds: z.string().optional(),
-    alpha: finite,
-  }).nullable(),
-  residuals: z.object({ edges: z.array(maybeNumber), quantiles: z.array(z.string()) }).nullable(),
-  quality: z.object({
-    constantInSample: accuracy,
-    constant: accuracy,
-    linear: accuracy.nullable(),
-    reference: accuracy,
-    ensemble: accuracy.nullable(),
-  }),
-  importance: z.array(z.object({
-    feature: z.string(),
-    permutation: maybeNumber,
-    permutationSd: maybeNumber,
-    impurity: maybeNumber,
-  })),
-  proxies: z.array(z.object({
-    feature: z.string(),
-    attribute: z.string(),
-    balancedAccuracy: z.number().min(0).max(1),
-  })).optional(),
-  support: z.object({
-    peers: z.object({
-      features: z.tuple([z.string(), z.string()]),
-      counts: z.record(z.string(), z.number().int()),
+      leaves: z.number().int().min(1),
+      depth: z.number().int().min(0),
+      pruningPath: z.array(z.object({
+        alpha: finite,
+        leaves: z.number().int(),
+        risk: finite,
+        cvError: finite,
+        cvSe: finite,
+      })),
+    }),
+    ensemble: z.object({
+      trees: z.array(treeShape),
+      // Format 1 only: each tree's resampling seed.
+      seeds: z.string().optional(),
+      alpha: finite,
     }).nullable(),
-    levelRanges: z.array(z.object({
+    residuals: z.object({ edges: z.array(maybeNumber), quantiles: z.array(z.string()) }).nullable(),
+    quality: z.object({
+      constantInSample: accuracy,
+      constant: accuracy,
+      linear: accuracy.nullable(),
+      reference: accuracy,
+      ensemble: accuracy.nullable(),
+    }),
+    importance: z.array(z.object({
       feature: z.string(),
-      level: z.string(),
-      ranges: z.array(z.object({ feature: z.string(), p01: finite, p99: finite })),
+      permutation: maybeNumber,
+      permutationSd: maybeNumber,
+      impurity: maybeNumber,
     })),
-  }),
-  // Format 1 only: the training rows' keys.
-  rowKeys: z.string().nullable().optional(),
-  seconds: z.number(),
-});
+    proxies: z.array(z.object({
+      feature: z.string(),
+      attribute: z.string(),
+      balancedAccuracy: z.number().min(0).max(1),
+    })).optional(),
+    support: z.object({
+      peers: z.object({
+        features: z.tuple([z.string(), z.string()]),
+        counts: z.record(z.string(), z.number().int()),
+      }).nullable(),
+      levelRanges: z.array(z.object({
+        feature: z.string(),
+        level: z.string(),
+        ranges: z.array(z.object({ feature: z.string(), p01: finite, p99: finite })),
+      })),
+    }),
+    // Format 1 only: the training rows' keys.
+    rowKeys: z.string().nullable().optional(),
+    seconds: z.number(),
+  });
+  return { treeShape, documentShape };
+}
+
+let shapes: ReturnType<typeof declareShapes> | undefined;
+const fileShapes = () => shapes ??= declareShapes();
+type TreeShape = z.infer<ReturnType<typeof declareShapes>["treeShape"]>;
+type DocumentShape = z.infer<ReturnType<typeof declareShapes>["documentShape"]>;
 
 /** Steps of a residual group's quantile grid (201 points: 0, 0.005, ..., 1). */
 const GRID = 201;
@@ -387,7 +398,7 @@ export function modelFromText(text: string, file: string): Model {
   }
   const rest = withoutChecksum(raw);
   if (rest === null) throw damaged("its checksum does not match its contents");
-  const parsed = documentShape.safeParse(rest);
+  const parsed = fileShapes().documentShape.safeParse(rest);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     throw damaged(`${issue.path.join(".") || "the document"}: ${issue.message}`);
@@ -406,7 +417,7 @@ export function modelFromText(text: string, file: string): Model {
   // edited file (and would make every walk slow).
   const leavesAtMost = Math.max(1, Math.floor(doc.rows.used / doc.settings.minLeaf));
   const nodesAtMost = 2 * leavesAtMost - 1;
-  const decodeTree = (shape: z.infer<typeof treeShape>, where: string): FlatTree => {
+  const decodeTree = (shape: TreeShape, where: string): FlatTree => {
     const n = shape.nodeCount;
     if (shape.width !== width) {
       throw damaged(`${where} has width ${shape.width}, expected ${width}`);
@@ -516,7 +527,7 @@ export function modelFromText(text: string, file: string): Model {
 // and a typical level among them, a classification target its classes,
 // importance and support figures name the model's own features and levels,
 // and the row counts add up to the table's.
-function checkParts(doc: z.infer<typeof documentShape>): void {
+function checkParts(doc: DocumentShape): void {
   const byName = new Map(doc.features.map((f) => [f.name, f]));
   if (byName.size !== doc.features.length) throw damaged("two features have the same name");
   for (const f of doc.features) {
