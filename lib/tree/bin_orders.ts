@@ -66,8 +66,9 @@ export class BinOrders {
     const leftStamp = this.#leftStamp ??= new Int32Array(this.#rows);
     const scratch = this.#scratch ??= new Int32Array(this.#rows);
     for (let i = start; i < mid; i++) leftStamp[index[i]] = stamp;
-    for (let f = 0; f < KEPT_FEATURES; f++) {
-      if (((mask >>> f) & 1) === 0) continue;
+    // Each feature of the mask, lowest bit first.
+    for (let rest = mask; rest !== 0; rest &= rest - 1) {
+      const f = 31 - Math.clz32(rest & -rest);
       partitionOrder(this.#orders[f]!, leftStamp, stamp, scratch, start, end);
     }
   }
