@@ -113,7 +113,32 @@ function binNumeric(values: Float64Array): FeatureBins {
   return { ids, count, lower: Float64Array.from(lower), upper: Float64Array.from(upper) };
 }
 
-const rowMajorCache = new WeakMap<FeatureBins[], Uint32Array>();
+const rowMajorCache = new WeakMap<FeatureBins[], BinIds>();
+
+/**
+ * Global bin ids of rows, in the narrowest array that holds them: a table
+ * of few bins in all (most pay tables: levels, sites, years) reads a byte
+ * per cell in the builder's loops instead of four.
+ */
+export type BinIds = Uint8Array | Uint16Array | Uint32Array;
+
+/**
+ * An array of `length` bin ids below `binCount`, as narrow as they allow.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binIdsFor } from "./bins.ts";
+ * assert(binIdsFor(256, 3) instanceof Uint8Array);
+ * assert(binIdsFor(257, 3) instanceof Uint16Array);
+ * assert(binIdsFor(70_000, 3) instanceof Uint32Array);
+ * ```
+ */
+export function binIdsFor(binCount: number, length: number): BinIds {
+  if (binCount <= 0x100) return new Uint8Array(length);
+  if (binCount <= 0x10000) return new Uint16Array(length);
+  return new Uint32Array(length);
+}
 
 /**
  * Every row's bins for all features side by side (`rows x features`), each
@@ -144,11 +169,13 @@ export function rowMajorBins(
   bins: FeatureBins[],
   rows: number,
   offsets: Int32Array,
-): Uint32Array {
+): BinIds {
   const cached = rowMajorCache.get(bins);
   if (cached !== undefined && cached.length === rows * bins.length) return cached;
   const features = bins.length;
-  const out = new Uint32Array(rows * features);
+  // The last feature's last slot (its missing bin) is the largest id.
+  const binCount = features === 0 ? 0 : offsets[features - 1] + bins[features - 1].count + 1;
+  const out = binIdsFor(binCount, rows * features);
   for (let f = 0; f < features; f++) {
     const ids = bins[f].ids;
     const offset = offsets[f];

@@ -10,7 +10,7 @@
  */
 
 import type { Dataset } from "../dataset/types.ts";
-import { type FeatureBins, rowMajorBins } from "./bins.ts";
+import { type BinIds, binIdsFor, type FeatureBins, rowMajorBins } from "./bins.ts";
 
 /** A tree's rows, renumbered: local row i is the i-th kept row in canonical order. */
 export interface GrowRows {
@@ -28,7 +28,7 @@ export interface GrowRows {
    * Global bin ids, row-major: local row i's feature f at `i * features + f`
    * is `offsets[f]` plus its bin (the missing bin is each feature's last).
    */
-  bins: Uint32Array;
+  bins: BinIds;
   /** First global bin of each feature (features + 1 entries). */
   offsets: Int32Array;
   /** Numeric target: each local row's w, w*y and w*y^2 side by side (else empty). */
@@ -88,7 +88,7 @@ export function gatherRows(
   const weight = new Float64Array(kept);
   const target = new Float64Array(regression ? kept : 0);
   const classOf = new Int32Array(regression ? 0 : kept);
-  const local = new Uint32Array(kept * features);
+  const local = binIdsFor(offsets[features], kept * features);
   let totalWeight = 0;
   for (let j = 0, i = 0; j < n; j++) {
     const r = order[j];

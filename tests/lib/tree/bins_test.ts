@@ -1,5 +1,6 @@
 import assert from "node:assert/strict";
 import { binFeatures, FEATURE_TOLERANCE, rowMajorBins } from "../../../lib/tree/bins.ts";
+import { gatherRows } from "../../../lib/tree/grow_rows.ts";
 import { levels, numeric, regression } from "./_small.ts";
 
 Deno.test("numeric values are ranked among their distinct values; missing is the last bin", () => {
@@ -78,4 +79,37 @@ Deno.test("rowMajorBins lays out each row's bins side by side, shifted by offset
   assert.equal(rowMajorBins(bins, 3, offsets), flat);
   // Another set of bins is laid out anew.
   assert.notEqual(rowMajorBins(binFeatures(data), 3, offsets), flat);
+});
+
+Deno.test("row-major bin ids take the narrowest array that holds the largest id, values unchanged", () => {
+  // Two features: 40 levels (41 slots with missing) and a numeric one of n
+  // distinct values (n + 1 slots): ids up to 41 + n.
+  for (
+    const [n, kind] of [[214, Uint8Array], [215, Uint16Array], [65_494, Uint16Array], [
+      65_495,
+      Uint32Array,
+    ]] as const
+  ) {
+    const rows = n + 1;
+    const values = Array.from({ length: rows }, (_, r) => (r < n ? r : NaN));
+    const site = Array.from({ length: rows }, (_, r) => r % 40);
+    const data = regression(
+      [levels("site", site, 40), numeric("x", values)],
+      new Array(rows).fill(1),
+    );
+    const bins = binFeatures(data);
+    const offsets = Int32Array.of(0, 41, 41 + n + 1);
+    const flat = rowMajorBins(bins, rows, offsets);
+    assert.ok(flat instanceof kind, `${n} values: ${flat.constructor.name}`);
+    // The last row's x is missing: the largest id, n slots after x's first.
+    assert.equal(flat[2 * rows - 1], 41 + n);
+    const local = gatherRows(
+      data,
+      bins,
+      new Float64Array(rows).fill(1),
+      Int32Array.from({ length: rows }, (_, r) => r),
+    );
+    assert.ok(local.bins instanceof kind);
+    assert.deepEqual(Array.from(local.bins), Array.from(flat));
+  }
 });
