@@ -12,7 +12,9 @@ codes, as bench/forest_vs_sklearn.py):
   after start-up it reports) on the demo table, CPS1988 and the generated
   100,000-row table, against scikit-learn's bare forest fit;
 - the ensemble alone (200 unpruned trees, min leaf 5, 2 workers);
-- one fully grown tree, warm;
+- one fully grown tree, warm (median of 5 fits: paygrove's after 10
+  unmeasured ones, once the runtime has compiled the builder, scikit-learn's
+  after 2);
 - `paygrove schema` on a generated 1,000,000-row CSV: wall time and peak
   memory (the kernel's own peak resident set of the process, from wait4).
 The generated tables are invented (bench/generated_table.ts).
