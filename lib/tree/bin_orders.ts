@@ -15,7 +15,19 @@
  * @module
  */
 
-/** Features whose order can be handed down (one bit each in a 32-bit mask). */
+/**
+ * Features whose order can be handed down (one bit each in a 32-bit mask);
+ * a feature beyond them is sorted afresh at every node that needs it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { KEPT_FEATURES } from "./bin_orders.ts";
+ * // The highest feature kept still has its own bit, below the sign bit.
+ * assert.equal((1 << (KEPT_FEATURES - 1)) >>> (KEPT_FEATURES - 1), 1);
+ * assert.equal(KEPT_FEATURES, 31);
+ * ```
+ */
 export const KEPT_FEATURES = 31;
 
 /**
