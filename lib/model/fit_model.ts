@@ -443,8 +443,6 @@ function increasingFeatures(dataset: Dataset, names: readonly string[]): number[
   });
 }
 
-// Each protected column of the table that is not a feature (groups with
-// names, at least two of them): which features alone predict it.
 // Each protected attribute not used as a feature (categorical or ordinal,
 // two groups or more among the rows) with the features that may proxy it,
 // over the rows where the attribute is known.
