@@ -6,6 +6,7 @@ import { fitModel, loadTable, makeRng, randomInt } from "../../../mod.ts";
 import { FittingPool } from "../../../lib/ensemble/_worker_pool.ts";
 import { proxyFigureSets, type ProxyQuestion } from "../../../lib/ensemble/proxies.ts";
 import { proxyFigureSetsAside } from "../../../lib/ensemble/proxies_parallel.ts";
+import { shiftTable } from "./_shift_table.ts";
 
 // Invented questions: two attributes, five features of every kind, one of
 // them a near copy of each attribute and one with missing values; two
@@ -72,24 +73,6 @@ Deno.test("proxies aside: a pool larger than the features, and no questions", as
     pool.close();
   }
 });
-
-// An invented table: night shifts mostly worked by one sex, so "shift"
-// carries it.
-function shiftTable(): string {
-  const rng = makeRng(11);
-  const lines = ["id,sex,shift,level,pay"];
-  for (let i = 0; i < 400; i++) {
-    const sex = randomInt(rng, 0, 1) === 0 ? "F" : "M";
-    const shift = randomInt(rng, 0, 99) < 85
-      ? (sex === "M" ? "night" : "day")
-      : (randomInt(rng, 0, 1) ? "night" : "day");
-    const level = randomInt(rng, 1, 3);
-    const pay = 40000 + 10000 * level + (shift === "night" ? 3000 : 0) +
-      randomInt(rng, -2000, 2000);
-    lines.push(`E${i},${sex},${shift},L${level},${pay}`);
-  }
-  return lines.join("\n") + "\n";
-}
 
 Deno.test("a fit on two workers (proxies aside) names the proxies a fit in this thread names", async () => {
   const table = loadTable(shiftTable(), { target: "pay", file: "shift.csv" });
