@@ -183,9 +183,8 @@ export class FittingPool {
 
   // A worker's failure ends the run and every task aside; the pool closes.
   #fail(error: Error): void {
-    for (const aside of this.#asides.flat()) aside.reject(error);
     this.#onFailure?.(error);
-    this.close();
+    this.#shutDown(error);
   }
 
   /**
@@ -202,13 +201,18 @@ export class FittingPool {
 
   /** Stops the workers; later runs are refused. */
   close(): void {
+    this.#shutDown(new Error("the fitting pool was closed"));
+  }
+
+  // Stops the workers; a task aside still waiting gets `error`, as no reply
+  // will come.
+  #shutDown(error: Error): void {
     this.#closed = true;
     for (const worker of this.#workers) worker.terminate();
     this.#workers = [];
-    // A task aside still waiting gets no reply now.
     const waiting = this.#asides.flat();
     this.#asides = [];
-    for (const aside of waiting) aside.reject(new Error("the fitting pool was closed"));
+    for (const aside of waiting) aside.reject(error);
   }
 }
 

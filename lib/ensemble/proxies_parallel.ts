@@ -49,27 +49,25 @@ export async function proxyFigureSetsAside(
   questions: readonly ProxyQuestion[],
   options: ProxyOptions = {},
 ): Promise<ProxyFigure[][]> {
-  // Worker p checks features p, p + size, ... of every question.
-  const parts = Array.from({ length: pool.size }, (_, p) =>
-    questions.flatMap((q, index) => {
-      const features = q.features.filter((_, f) => f % pool.size === p);
+  // Worker p checks features p, p + size, ... of every question (a worker
+  // with none of them gets nothing).
+  const parts = Array.from({ length: pool.size }, (_, worker) => ({
+    worker,
+    asked: questions.flatMap((q, index) => {
+      const features = q.features.filter((_, f) => f % pool.size === worker);
       return features.length === 0 ? [] : [{ index, question: { ...q, features } }];
-    }));
-  const sent = parts.filter((part) => part.length > 0);
+    }),
+  })).filter((part) => part.asked.length > 0);
   const replies = await Promise.all(
-    sent.map((part) =>
-      pool.aside(parts.indexOf(part), {
-        kind: "proxies",
-        questions: part.map((p) => p.question),
-        options,
-      })
+    parts.map(({ worker, asked }) =>
+      pool.aside(worker, { kind: "proxies", questions: asked.map((a) => a.question), options })
     ),
   );
   const byName = questions.map(() => new Map<string, ProxyFigure>());
   replies.forEach((reply, k) => {
     if (reply.kind !== "proxies") throw new Error(`a proxy check answered "${reply.kind}"`);
     reply.figures.forEach((figures, j) => {
-      for (const figure of figures) byName[sent[k][j].index].set(figure.feature, figure);
+      for (const figure of figures) byName[parts[k].asked[j].index].set(figure.feature, figure);
     });
   });
   // proxyFigureSets' order: features in order, then a stable sort.

@@ -50,6 +50,7 @@ export const ANALYST_FILE_WARNING = "With a staff list (the table's rows without
 // Declared on the first read, as the model file's schemas are (a schema
 // costs start-up time where it is declared).
 let shape: ReturnType<typeof declareShape> | undefined;
+const fileShape = () => shape ??= declareShape();
 function declareShape() {
   return z.object({
     kind: z.literal(MARKER),
@@ -145,7 +146,7 @@ export function analystFromText(text: string, file: string, model: Model): Analy
   }
   const rest = withoutChecksum(raw);
   if (rest === null) throw damaged("its checksum does not match its contents");
-  const parsed = (shape ??= declareShape()).safeParse(rest);
+  const parsed = fileShape().safeParse(rest);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     throw damaged(`${issue.path.join(".") || "the document"}: ${issue.message}`);

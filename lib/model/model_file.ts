@@ -114,8 +114,8 @@ function encodeTree(tree: FlatTree) {
 }
 
 // The file's schemas, declared on the first read: zod builds a schema's
-// objects as it is declared, which took a sixth of every command's start-up
-// (0.06 s), and most commands never read a model file.
+// objects as it is declared, which took 0.03 s of every command's start-up
+// (with the analyst file's), and most commands never read a model file.
 function declareShapes() {
   const treeShape = z.object({
     task: z.enum(["regression", "classification"]),

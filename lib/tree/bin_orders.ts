@@ -44,7 +44,7 @@ export const KEPT_FEATURES = 31;
  * orders.order(1).set([4, 0, 2, 5, 1, 3]);
  * // A split sends rows 0, 1 and 3 left: the builder's index puts them first.
  * const index = Int32Array.of(0, 1, 3, 2, 4, 5);
- * orders.split(1 << 1, index, 0, 3, 6);
+ * orders.split(1 << 1, index, new Int32Array(6), 0, 3, 6);
  * // Each side keeps the bin order: left 0, 1, 3; right 4, 2, 5.
  * assert.deepEqual([...orders.order(1)], [0, 1, 3, 4, 2, 5]);
  * ```
@@ -56,7 +56,6 @@ export class BinOrders {
   // Made on the first split, as most tables' trees never need an order.
   #leftStamp: Int32Array | null = null;
   #stamp = 0;
-  #scratch: Int32Array | null = null;
 
   constructor(rows: number, features: number) {
     this.#rows = rows;
@@ -71,12 +70,19 @@ export class BinOrders {
   /**
    * Hands the orders of the features in `mask` down a split of the rows
    * `[start, end)`: its left rows are `index[start..mid)`, and each order
-   * is stably partitioned into the left rows then the right.
+   * is stably partitioned into the left rows then the right, the right ones
+   * passing through `scratch` (the builder's own, free between its splits).
    */
-  split(mask: number, index: Int32Array, start: number, mid: number, end: number): void {
+  split(
+    mask: number,
+    index: Int32Array,
+    scratch: Int32Array,
+    start: number,
+    mid: number,
+    end: number,
+  ): void {
     const stamp = ++this.#stamp;
     const leftStamp = this.#leftStamp ??= new Int32Array(this.#rows);
-    const scratch = this.#scratch ??= new Int32Array(this.#rows);
     for (let i = start; i < mid; i++) leftStamp[index[i]] = stamp;
     // Each feature of the mask, lowest bit first.
     for (let rest = mask; rest !== 0; rest &= rest - 1) {

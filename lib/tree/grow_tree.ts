@@ -463,7 +463,9 @@ class Builder {
       this.nodes.split(id, best, missingLeft);
       // The rows' bin orders the search made or was given go down with them.
       const ordered = splitter.ordered;
-      if (ordered !== 0) splitter.orders.split(ordered, this.index, start, mid, end);
+      if (ordered !== 0) {
+        splitter.orders.split(ordered, this.index, this.scratch, start, mid, end);
+      }
       const [leftHist, rightHist] = histograms.children(hist, this.index, start, mid, end);
       // A constrained feature's known values split by order: the midpoint of
       // the two sides' values bounds the lower side from above and the

@@ -50,7 +50,7 @@ Deno.test("BinOrders.split: each order's left rows, then its right rows, each in
         ]);
         const mid = start + nodeRows.filter((r) => left[r]).length;
         const mask = (1 << same.length) - 1;
-        binOrders.split(mask, index, start, mid, rows);
+        binOrders.split(mask, index, new Int32Array(rows), start, mid, rows);
         same.forEach((o, f) => {
           const tail = o.slice(start);
           assert.deepEqual(
