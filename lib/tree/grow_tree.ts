@@ -294,13 +294,14 @@ const NODE_SUMS = 6;
 
 // The weight of a node's rows, their weighted target and squares about the
 // first row's target (the shift), and the lowest and highest target, adding
-// rows in index order.
+// rows in index order, written into `into` (a node of at least one row).
 function nodeSums(
   y: Float64Array,
   w: Float64Array,
   index: Int32Array,
   start: number,
   end: number,
+  into: Float64Array = new Float64Array(NODE_SUMS),
 ): Float64Array {
   const shift = y[index[start]];
   let weight = 0;
@@ -319,7 +320,8 @@ function nodeSums(
     if (v < low) low = v;
     if (v > high) high = v;
   }
-  return Float64Array.of(weight, sum, sq, low, high, shift);
+  writeSums(into, weight, sum, sq, low, high, shift);
+  return into;
 }
 
 // Writes a node's sums in nodeSums' order.
@@ -409,7 +411,8 @@ class Builder {
     );
     this.maskWords = maskWordsOf(dataset.features);
     this.nodes = new TreeNodes(this.criterion.task, this.criterion.width, this.maskWords);
-    this.inLeft = new Uint8Array(Math.max(1, ...data.bins.map((b) => b.count)));
+    // One flag per bin and one for the missing bin.
+    this.inLeft = new Uint8Array(Math.max(1, ...data.bins.map((b) => b.count)) + 1);
     this.classWeights = new Float64Array(this.criterion.width);
     this.nodeValues = new Float64Array(this.criterion.width);
   }
@@ -584,56 +587,34 @@ class Builder {
       inLeft.fill(0, 0, missingBin);
       for (const b of best.leftBins) inLeft[b] = 1;
     }
+    // Without a branch per row (its side is a coin toss to the processor):
+    // each row is written to both sides and only its own side's count moves.
+    // Left is 1 or 0: a bin at most the last left one (numeric; the missing
+    // bin lies past every other), the flag of its level (categorical), and
+    // the missing bin by the split's direction.
+    const missingInt = missingLeft ? 1 : 0;
+    if (categorical) inLeft[missingBin] = missingInt;
     let l = start;
     let r = 0;
-    if (leftSums === null || rightSums === null) {
-      for (let i = start; i < end; i++) {
-        const row = index[i];
-        const b = bins[row * features + f] - offset;
-        const left = b === missingBin ? missingLeft : categorical ? inLeft[b] === 1 : b <= lastLeft;
-        if (left) index[l++] = row;
-        else scratch[r++] = row;
-      }
-      index.set(scratch.subarray(0, r), l);
-      return l;
-    }
-    // The two sides' sums are kept in locals, written out twice rather than
-    // through a helper over an array: this loop runs for every row of every
-    // split of every tree.
-    const { target: y, weight: w } = this.rows;
-    let lShift = 0, lWeight = 0, lSum = 0, lSq = 0, lLow = Infinity, lHigh = -Infinity;
-    let rShift = 0, rWeight = 0, rSum = 0, rSq = 0, rLow = Infinity, rHigh = -Infinity;
     for (let i = start; i < end; i++) {
       const row = index[i];
       const b = bins[row * features + f] - offset;
-      const left = b === missingBin ? missingLeft : categorical ? inLeft[b] === 1 : b <= lastLeft;
-      const v = y[row];
-      const wr = w[row];
-      if (left) {
-        if (l === start) lShift = v;
-        index[l++] = row;
-        const d = v - lShift;
-        const wd = wr * d;
-        lWeight += wr;
-        lSum += wd;
-        lSq += wd * d;
-        if (v < lLow) lLow = v;
-        if (v > lHigh) lHigh = v;
-      } else {
-        if (r === 0) rShift = v;
-        scratch[r++] = row;
-        const d = v - rShift;
-        const wd = wr * d;
-        rWeight += wr;
-        rSum += wd;
-        rSq += wd * d;
-        if (v < rLow) rLow = v;
-        if (v > rHigh) rHigh = v;
-      }
+      const left = categorical
+        ? inLeft[b]
+        : (((lastLeft - b) >> 31) + 1) | ((((b ^ missingBin) - 1) >>> 31) & missingInt);
+      index[l] = row;
+      scratch[r] = row;
+      l += left;
+      r += 1 - left;
     }
     index.set(scratch.subarray(0, r), l);
-    writeSums(leftSums, lWeight, lSum, lSq, lLow, lHigh, lShift);
-    writeSums(rightSums, rWeight, rSum, rSq, rLow, rHigh, rShift);
+    if (leftSums === null || rightSums === null) return l;
+    // Each side's sums over its rows in the order they were sent there: the
+    // same additions, in the same order, as adding them during the pass.
+    // (Both sides hold rows: a split leaves neither empty.)
+    const { target: y, weight: w } = this.rows;
+    nodeSums(y, w, index, start, l, leftSums);
+    nodeSums(y, w, index, l, end, rightSums);
     return l;
   }
 
