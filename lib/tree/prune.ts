@@ -268,20 +268,20 @@ function weakestLinks(tree: FlatTree, limit: number): PruningPath {
   const leafCounts = [leaves[0]];
   const nodes = [-1];
   // Candidates in a heap keyed by (alpha, node id): the lowest id wins among
-  // equal alphas, as in a scan in id order. An entry is stale when its node
-  // has been collapsed or its alpha has changed since (version).
-  const version = new Int32Array(n);
-  const heap = new AlphaHeap();
+  // equal alphas, as in a scan in id order. A node has one entry, whose
+  // alpha moves when a collapse below it changes the node's risk and
+  // leaves; a node collapsed with an ancestor is passed over when it comes
+  // up (its entry can no longer change: only ancestors of a collapse do).
+  const heap = new AlphaHeap(n);
   const alphaOf = (i: number) => (rNode[i] - rBranch[i]) / (leaves[i] - 1);
-  for (let i = 0; i < n; i++) if (candidate[i]) heap.push(alphaOf(i), i, 0);
+  for (let i = 0; i < n; i++) if (candidate[i]) heap.set(i, alphaOf(i));
   const stack: number[] = [];
   while (candidate[0] === 1) {
     let weakest = -1;
     let effective = Infinity;
     while (heap.size > 0) {
-      heap.pop();
-      const i = heap.topNode;
-      if (candidate[i] === 1 && version[i] === heap.topVersion) {
+      const i = heap.pop();
+      if (candidate[i] === 1) {
         weakest = i;
         effective = heap.topAlpha;
         break;
@@ -303,7 +303,7 @@ function weakestLinks(tree: FlatTree, limit: number): PruningPath {
     for (let a = parent[weakest]; a !== -1; a = parent[a]) {
       leaves[a] -= prunedLeaves;
       rBranch[a] += rise;
-      heap.push(alphaOf(a), a, ++version[a]);
+      heap.set(a, alphaOf(a));
     }
     alphas.push(effective);
     risks.push(rBranch[0]);
@@ -318,78 +318,95 @@ function weakestLinks(tree: FlatTree, limit: number): PruningPath {
   };
 }
 
-// A binary min-heap of (alpha, node, version), ordered by alpha, then node,
-// in typed arrays that double as they fill: no tuple per entry and none per
-// pop (the heap's swaps and comparisons were about 8% of a bagged tree's
-// fitting work in a profile).
+// A binary min-heap of nodes ordered by (alpha, node), with each node's
+// place in it, so a node's alpha changes in place. An earlier heap took a
+// new entry for every change and passed over the stale ones: on a bagged
+// tree it held ten times as many entries as nodes, and its pops were 4% of
+// a whole fit's profile.
 class AlphaHeap {
-  private alpha = new Float64Array(64);
-  private node = new Int32Array(64);
-  private version = new Int32Array(64);
+  // The heap: node ids; the key of node i is alpha[i], then i.
+  private readonly heap: Int32Array;
+  private readonly place: Int32Array;
+  private readonly alpha: Float64Array;
   size = 0;
-  /** The entry `pop` took out last. */
+  /** The alpha of the node `pop` took out last. */
   topAlpha = 0;
-  topNode = 0;
-  topVersion = 0;
 
-  push(alpha: number, node: number, version: number): void {
-    if (this.size === this.alpha.length) this.grow();
-    let i = this.size++;
-    // Parents larger than the new entry move down into the hole.
-    while (i > 0) {
-      const up = (i - 1) >> 1;
-      const a = this.alpha[up];
-      if (!(alpha < a || (alpha === a && node < this.node[up]))) break;
-      this.alpha[i] = a;
-      this.node[i] = this.node[up];
-      this.version[i] = this.version[up];
-      i = up;
-    }
-    this.alpha[i] = alpha;
-    this.node[i] = node;
-    this.version[i] = version;
+  constructor(nodes: number) {
+    this.heap = new Int32Array(nodes);
+    this.place = new Int32Array(nodes).fill(-1);
+    this.alpha = new Float64Array(nodes);
   }
 
-  /** Takes out the smallest entry into topAlpha, topNode and topVersion. */
-  pop(): void {
-    const { alpha, node, version } = this;
-    this.topAlpha = alpha[0];
-    this.topNode = node[0];
-    this.topVersion = version[0];
-    this.size -= 1;
+  /** Puts node `i` in the heap at `alpha`, or moves it there. */
+  set(i: number, alpha: number): void {
+    const at = this.place[i];
+    this.alpha[i] = alpha;
+    if (at < 0) {
+      this.place[i] = this.size;
+      this.heap[this.size] = i;
+      this.up(this.size++);
+    } else {
+      this.up(at);
+      this.down(this.place[i]);
+    }
+  }
+
+  /** Takes out the node of the smallest key (its alpha in topAlpha). */
+  pop(): number {
+    const { heap, place } = this;
+    const top = heap[0];
+    this.topAlpha = this.alpha[top];
+    place[top] = -1;
+    const last = heap[--this.size];
+    if (this.size > 0) {
+      heap[0] = last;
+      place[last] = 0;
+      this.down(0);
+    }
+    return top;
+  }
+
+  // Whether node a's key is below node b's.
+  private before(a: number, b: number): boolean {
+    const { alpha } = this;
+    return alpha[a] < alpha[b] || (alpha[a] === alpha[b] && a < b);
+  }
+
+  // The entry at `at` rises past larger parents.
+  private up(at: number): void {
+    const { heap, place } = this;
+    const i = heap[at];
+    while (at > 0) {
+      const parent = (at - 1) >> 1;
+      const p = heap[parent];
+      if (!this.before(i, p)) break;
+      heap[at] = p;
+      place[p] = at;
+      at = parent;
+    }
+    heap[at] = i;
+    place[i] = at;
+  }
+
+  // The entry at `at` sinks past smaller children.
+  private down(at: number): void {
+    const { heap, place } = this;
     const size = this.size;
-    // The last entry sinks from the root past smaller children.
-    const lastAlpha = alpha[size];
-    const lastNode = node[size];
-    const lastVersion = version[size];
-    let i = 0;
+    const i = heap[at];
     for (;;) {
-      const l = 2 * i + 1;
+      const l = 2 * at + 1;
       if (l >= size) break;
       const r = l + 1;
-      let m = l;
-      if (r < size && (alpha[r] < alpha[l] || (alpha[r] === alpha[l] && node[r] < node[l]))) m = r;
-      if (!(alpha[m] < lastAlpha || (alpha[m] === lastAlpha && node[m] < lastNode))) break;
-      alpha[i] = alpha[m];
-      node[i] = node[m];
-      version[i] = version[m];
-      i = m;
+      const m = r < size && this.before(heap[r], heap[l]) ? r : l;
+      const c = heap[m];
+      if (!this.before(c, i)) break;
+      heap[at] = c;
+      place[c] = at;
+      at = m;
     }
-    alpha[i] = lastAlpha;
-    node[i] = lastNode;
-    version[i] = lastVersion;
-  }
-
-  private grow(): void {
-    const alpha = new Float64Array(2 * this.alpha.length);
-    alpha.set(this.alpha);
-    const node = new Int32Array(2 * this.node.length);
-    node.set(this.node);
-    const version = new Int32Array(2 * this.version.length);
-    version.set(this.version);
-    this.alpha = alpha;
-    this.node = node;
-    this.version = version;
+    heap[at] = i;
+    place[i] = at;
   }
 }
 

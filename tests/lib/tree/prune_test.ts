@@ -1,4 +1,5 @@
 import assert from "node:assert/strict";
+import fc from "fast-check";
 import { binFeatures } from "../../../lib/tree/bins.ts";
 import { type FlatTree, leafCount, predictRows } from "../../../lib/tree/flat_tree.ts";
 import { growTree } from "../../../lib/tree/grow_tree.ts";
@@ -69,6 +70,80 @@ Deno.test("the pruning path is the weakest-link sequence of a plain recursion", 
   const mean = y.reduce((a, b) => a + b, 0) / n;
   const variance = y.reduce((a, b) => a + (b - mean) ** 2, 0) / n;
   assert.ok(Math.abs(path.risks[path.risks.length - 1] - variance) < 1e-9);
+});
+
+// The weakest link found by a scan of every candidate in id order at each
+// step, with the same running risks and leaf counts as pruningPath keeps:
+// its heap must give this sequence bit for bit, ties to the lowest id.
+function scannedPath(t: FlatTree): { alphas: number[]; nodes: number[] } {
+  const n = t.nodeCount;
+  const parent = new Int32Array(n).fill(-1);
+  for (let i = 0; i < n; i++) {
+    if (t.left[i] !== -1) [parent[t.left[i]], parent[t.right[i]]] = [i, i];
+  }
+  const rNode = Array.from({ length: n }, (_, i) => (t.weight[i] * t.impurity[i]) / t.weight[0]);
+  const rBranch = new Float64Array(n);
+  const leaves = new Int32Array(n);
+  for (let i = n - 1; i >= 0; i--) {
+    const leaf = t.left[i] === -1;
+    rBranch[i] = leaf ? rNode[i] : rBranch[t.left[i]] + rBranch[t.right[i]];
+    leaves[i] = leaf ? 1 : leaves[t.left[i]] + leaves[t.right[i]];
+  }
+  const live = Array.from({ length: n }, (_, i) => t.left[i] !== -1);
+  const alphas = [0];
+  const nodes = [-1];
+  while (live[0]) {
+    let weakest = -1;
+    let effective = Infinity;
+    for (let i = 0; i < n; i++) {
+      if (!live[i]) continue;
+      const g = (rNode[i] - rBranch[i]) / (leaves[i] - 1);
+      if (g < effective) [weakest, effective] = [i, g];
+    }
+    const below = [weakest];
+    while (below.length > 0) {
+      const i = below.pop()!;
+      live[i] = false;
+      if (t.left[i] !== -1) below.push(t.left[i], t.right[i]);
+    }
+    const pruned = leaves[weakest] - 1;
+    const rise = rNode[weakest] - rBranch[weakest];
+    leaves[weakest] = 1;
+    rBranch[weakest] = rNode[weakest];
+    for (let a = parent[weakest]; a !== -1; a = parent[a]) {
+      leaves[a] -= pruned;
+      rBranch[a] += rise;
+    }
+    alphas.push(effective);
+    nodes.push(weakest);
+  }
+  return { alphas, nodes };
+}
+
+Deno.test("the pruning path's heap gives a scan's weakest links bit for bit, ties included", () => {
+  // Invented tables of small whole-number pay: many links tie exactly.
+  const table = fc.integer({ min: 20, max: 160 }).chain((rows) =>
+    fc.record({
+      x: fc.array(fc.integer({ min: 0, max: 40 }), { minLength: rows, maxLength: rows }),
+      s: fc.array(fc.integer({ min: 0, max: 4 }), { minLength: rows, maxLength: rows }),
+      y: fc.array(fc.integer({ min: 1, max: 6 }), { minLength: rows, maxLength: rows }),
+      minLeaf: fc.integer({ min: 1, max: 3 }),
+    })
+  );
+  let ties = 0;
+  fc.assert(
+    fc.property(table, ({ x, s, y, minLeaf }) => {
+      const d = regression([numeric("x", x), levels("s", s, 5)], y);
+      const t = growTree({ dataset: d, bins: binFeatures(d) }, { minLeaf });
+      const path = pruningPath(t);
+      const scan = scannedPath(t);
+      assert.deepEqual([...path.nodes], scan.nodes);
+      assert.deepEqual([...path.alphas], scan.alphas);
+      ties += scan.alphas.filter((g, i) => i > 0 && scan.alphas.indexOf(g) !== i).length;
+    }),
+    { numRuns: 150, seed: 7 },
+  );
+  assert.ok(ties > 100, `links tied ${ties} times`);
 });
 
 Deno.test("pruneTree at an alpha is the path's subtree at that alpha", () => {
