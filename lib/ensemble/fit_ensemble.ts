@@ -10,8 +10,8 @@
 import type { Dataset } from "../dataset/types.ts";
 import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import { scoreSubtrees } from "../tree/cross_validate.ts";
-import { applyRow, applyRows, type FlatTree } from "../tree/flat_tree.ts";
-import { canonicalRowOrder, type GrowOptions, growTree } from "../tree/grow_tree.ts";
+import { applyRow, type FlatTree } from "../tree/flat_tree.ts";
+import { canonicalRowOrder, type GrowOptions, growTreeLeaves } from "../tree/grow_tree.ts";
 import {
   distinctSteps,
   pruneTree,
@@ -19,6 +19,7 @@ import {
   pruningPath,
   stepAt,
   subtreeAfter,
+  subtreeNodeOf,
 } from "../tree/prune.ts";
 import { shareableTree } from "../tree/share_tree.ts";
 import { bootstrapCounts, resampleStates } from "./bootstrap.ts";
@@ -234,7 +235,7 @@ export function fitOneTree(
 } {
   const mode = options.prune ?? "alpha";
   const weights = bootstrapCounts(dataset.rows, states, index);
-  const grown = growTree({ dataset, bins, weights, order }, options.grow);
+  const { tree: grown, leafOf } = growTreeLeaves({ dataset, bins, weights, order }, options.grow);
   let alpha = mode === "alpha" ? options.alpha! : 0;
   let tree = grown;
   if (mode === "oob") {
@@ -246,33 +247,46 @@ export function fitOneTree(
   } else if (alpha > 0) {
     tree = pruneTree(grown, alpha);
   }
-  // The tree's prediction for each row it did not draw (NaN for the others).
-  const width = tree.width;
-  // A tree made fit to share needs every row's leaf: walked once, for both.
-  const leaves = options.share === undefined
-    ? null
-    : applyRows(tree, dataset.features, dataset.rows);
-  const oob = new Float64Array(dataset.rows * width).fill(NaN);
-  for (let r = 0; r < dataset.rows; r++) {
-    if (weights[r] !== 0) continue;
-    const leaf = leaves === null ? applyRow(tree, dataset.features, r) : leaves[r];
-    for (let c = 0; c < width; c++) oob[r * width + c] = tree.value[leaf * width + c];
+  // Every row's leaf: a drawn row's from the partition that grew the tree
+  // (the grown leaf's place in the pruned tree), the others walked down it,
+  // once, by the importance measure's walk when there is one.
+  const leaves = leafOf;
+  if (tree !== grown) {
+    const nodeOf = subtreeNodeOf(grown, tree);
+    for (let r = 0; r < dataset.rows; r++) if (leaves[r] !== -1) leaves[r] = nodeOf[leaves[r]];
   }
-  const shared = options.share === undefined || leaves === null
-    ? undefined
-    : shareableTree(tree, dataset.features, weights, options.share.money, leaves);
-  const wanted = options.importance;
-  if (wanted === undefined || dataset.target.kind !== "regression") {
-    return { tree, alpha, oob, ...(shared ? { shared } : {}) };
-  }
-  const importance = treeImportanceIncrease(
+  const wanted = dataset.target.kind === "regression" ? options.importance : undefined;
+  const importance = wanted === undefined ? undefined : treeImportanceIncrease(
     tree,
     dataset,
     weights,
     wanted.repeats,
     importanceRng(wanted.seed, index),
+    leaves,
   );
-  return { tree, alpha, oob, importance, ...(shared ? { shared } : {}) };
+  if (importance === undefined) {
+    for (let r = 0; r < dataset.rows; r++) {
+      if (weights[r] === 0) leaves[r] = applyRow(tree, dataset.features, r);
+    }
+  }
+  // The tree's prediction for each row it did not draw (NaN for the others).
+  const width = tree.width;
+  const oob = new Float64Array(dataset.rows * width).fill(NaN);
+  for (let r = 0; r < dataset.rows; r++) {
+    if (weights[r] !== 0) continue;
+    const leaf = leaves[r];
+    for (let c = 0; c < width; c++) oob[r * width + c] = tree.value[leaf * width + c];
+  }
+  const shared = options.share === undefined
+    ? undefined
+    : shareableTree(tree, dataset.features, weights, options.share.money, leaves);
+  return {
+    tree,
+    alpha,
+    oob,
+    ...(importance ? { importance } : {}),
+    ...(shared ? { shared } : {}),
+  };
 }
 
 /**

@@ -81,6 +81,9 @@ export function importanceRng(seed: number, tree: number): Rng {
  * that drew every row.
  *
  * @param counts How often the tree drew each row (0: out of bag).
+ * @param leaves When given, each out-of-bag row's leaf is written at its
+ *   row (the walk that scores the rows finds it; a bagged tree's fit needs
+ *   it too, and need not walk them again).
  *
  * @example
  * ```ts
@@ -99,10 +102,14 @@ export function importanceRng(seed: number, tree: number): Rng {
  * const tree = growTree({ dataset, bins: binFeatures(dataset) }, { minLeaf: 1 });
  * // The tree learned from every row; rows 0 and 7 are scored as if out of bag.
  * const counts = Float64Array.of(0, 1, 1, 1, 1, 1, 1, 0);
- * const part = treeImportanceIncrease(tree, dataset, counts, 2, importanceRng(1, 0));
+ * const leaves = new Int32Array(8).fill(-1);
+ * const part = treeImportanceIncrease(tree, dataset, counts, 2, importanceRng(1, 0), leaves);
  * // The first shuffle swaps rows 0 and 7's x, making both wrong by 4 (MSE
  * // 0 -> 16); the second keeps them in place (0). z is never split on.
  * assert.deepEqual([...part], [16, 0, 0, 0]);
+ * // The out-of-bag rows' leaves, found on the way; the others untouched.
+ * assert.deepEqual([0, 7].map((r) => tree.value[leaves[r]]), [1, 5]);
+ * assert.equal(leaves[3], -1);
  * ```
  */
 export function treeImportanceIncrease(
@@ -111,6 +118,7 @@ export function treeImportanceIncrease(
   counts: ArrayLike<number>,
   repeats: number,
   rng: Rng,
+  leaves: Int32Array | null = null,
 ): Float64Array {
   const features = dataset.features.length;
   const out = new Float64Array(features * repeats);
@@ -124,7 +132,7 @@ export function treeImportanceIncrease(
   for (let node = 0; node < tree.nodeCount; node++) {
     if (tree.feature[node] >= 0) used[tree.feature[node]] = 1;
   }
-  const paths = outOfBagPaths(tree, columns, dataset.target.values, oob, features);
+  const paths = outOfBagPaths(tree, columns, dataset.target.values, oob, features, leaves);
   let baseSse = 0;
   for (let i = 0; i < n; i++) baseSse += paths.sqError[i];
   const base = baseSse / n;
@@ -184,6 +192,7 @@ function outOfBagPaths(
   y: ArrayLike<number>,
   oob: Int32Array,
   features: number,
+  leaves: Int32Array | null,
 ): OutOfBagPaths {
   const n = oob.length;
   const firstNode = new Int32Array(n * features).fill(-1);
@@ -220,6 +229,7 @@ function outOfBagPaths(
     }
     const e = y[r] - tree.value[node];
     sqError[i] = e * e;
+    if (leaves !== null) leaves[r] = node;
   }
   return { firstNode, low, high, levelSet, sqError };
 }

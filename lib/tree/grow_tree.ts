@@ -216,6 +216,48 @@ export function growTree(input: GrowInput, options: GrowOptions = {}): FlatTree 
   return new Builder(input, { ...limits, increasing }).grow();
 }
 
+/** A grown tree and the leaf each row it was grown on ended in. */
+export interface GrownLeaves {
+  /** The tree, as {@linkcode growTree} grows it. */
+  tree: FlatTree;
+  /**
+   * Per row of the dataset, the leaf the partition put it in; -1 for a row
+   * of weight 0, which the tree never saw. The leaf a walk of the row's
+   * values reaches: a split's threshold and level masks send each side's
+   * bins where the partition sent them.
+   */
+  leafOf: Int32Array;
+}
+
+/**
+ * Grows a tree as {@linkcode growTree} does and keeps the leaf of each row
+ * it was grown on: a bagged tree's drawn rows then need no walk down it.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "./bins.ts";
+ * import { applyRow } from "./flat_tree.ts";
+ * import { growTreeLeaves } from "./grow_tree.ts";
+ * const dataset = {
+ *   rows: 5,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(1, 2, 3, 4, 5) }],
+ *   target: { kind: "regression" as const, name: "y", values: Float64Array.of(10, 10, 20, 20, 30) },
+ * };
+ * const weights = Float64Array.of(1, 2, 0, 1, 1);
+ * const { tree, leafOf } = growTreeLeaves({ dataset, bins: binFeatures(dataset), weights }, { minLeaf: 1 });
+ * assert.equal(leafOf[2], -1); // not drawn
+ * for (const r of [0, 1, 3, 4]) assert.equal(leafOf[r], applyRow(tree, dataset.features, r));
+ * ```
+ */
+export function growTreeLeaves(input: GrowInput, options: GrowOptions = {}): GrownLeaves {
+  const limits = growLimits(options);
+  const increasing = increasingFlags(input.dataset, options.increasing ?? []);
+  const builder = new Builder(input, { ...limits, increasing });
+  const tree = builder.grow();
+  return { tree, leafOf: builder.leafOfRows() };
+}
+
 /** The stopping rules of {@linkcode GrowOptions} with their defaults, checked. */
 export interface GrowLimits {
   minLeaf: number;
@@ -381,6 +423,12 @@ class Builder {
   // node's values (its mean, or its share of each class).
   private readonly classWeights: Float64Array;
   private readonly nodeValues: Float64Array;
+  // The rows as gathered (their canonical order, their weights), and the
+  // leaf of the row at each place of the index, set as leaves are finished
+  // (a finished node's rows keep their places).
+  private readonly order: Int32Array;
+  private readonly weights: Float64Array;
+  private readonly leafAt: Int32Array;
 
   constructor(data: GrowInput, settings: Settings) {
     this.s = settings;
@@ -388,14 +436,12 @@ class Builder {
     const n = dataset.rows;
     this.criterion = criterionFor(dataset);
     this.regression = this.criterion.task === "regression";
-    this.rows = gatherRows(
-      dataset,
-      data.bins,
-      data.weights ?? new Float64Array(n).fill(1),
-      data.order ?? canonicalRowOrder(dataset),
-    );
+    this.order = data.order ?? canonicalRowOrder(dataset);
+    this.weights = data.weights ?? new Float64Array(n).fill(1);
+    this.rows = gatherRows(dataset, data.bins, this.weights, this.order);
     this.bins = data.bins;
     const kept = this.rows.count;
+    this.leafAt = new Int32Array(kept);
     this.index = new Int32Array(kept);
     for (let i = 0; i < kept; i++) this.index[i] = i;
     this.scratch = new Int32Array(kept);
@@ -446,6 +492,7 @@ class Builder {
       const rows = end - start;
       if (isLeaf(this.s, depth, rows, impurity)) {
         histograms.release(hist);
+        this.leafAt.fill(id, start, end);
         continue;
       }
       if (hist === null && histograms.anyDense(rows)) {
@@ -457,6 +504,7 @@ class Builder {
       const weight = this.nodes.weightOf(id);
       if (!found || !decreasesEnough(best, weight, impurity, this.rows.totalWeight, this.s)) {
         histograms.release(hist);
+        this.leafAt.fill(id, start, end);
         continue;
       }
       const missingLeft = missingGoesLeft(best);
@@ -509,6 +557,18 @@ class Builder {
       });
     }
     return this.nodes.finish();
+  }
+
+  /** After `grow`, each dataset row's leaf; -1 for a row of weight 0. */
+  leafOfRows(): Int32Array {
+    const { order, weights, index, leafAt } = this;
+    const n = order.length;
+    // Local row i is the i-th row of positive weight in canonical order.
+    const original = new Int32Array(index.length);
+    for (let j = 0, i = 0; j < n; j++) if (weights[order[j]] > 0) original[i++] = order[j];
+    const leafOf = new Int32Array(n).fill(-1);
+    for (let p = 0; p < index.length; p++) leafOf[original[index[p]]] = leafAt[p];
+    return leafOf;
   }
 
   private addNode(

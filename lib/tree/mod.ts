@@ -20,7 +20,14 @@ export {
   splitLevels,
   treeDepth,
 } from "./flat_tree.ts";
-export { canonicalRowOrder, type GrowInput, type GrowOptions, growTree } from "./grow_tree.ts";
+export {
+  canonicalRowOrder,
+  type GrowInput,
+  type GrownLeaves,
+  type GrowOptions,
+  growTree,
+  growTreeLeaves,
+} from "./grow_tree.ts";
 export {
   collapsedWithin,
   collapseNodes,
@@ -33,6 +40,7 @@ export {
   sameAlpha,
   stepAt,
   subtreeAfter,
+  subtreeNodeOf,
 } from "./prune.ts";
 export {
   type AlphaCandidate,

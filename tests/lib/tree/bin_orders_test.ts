@@ -6,11 +6,11 @@
 // stable partition, checked against a filter.
 import assert from "node:assert/strict";
 import fc from "fast-check";
-import type { Dataset, Feature } from "../../../lib/dataset/types.ts";
 import { binFeatures } from "../../../lib/tree/bins.ts";
 import { growTree } from "../../../lib/tree/grow_tree.ts";
 import { Splitter } from "../../../lib/tree/splitter.ts";
 import { BinOrders, KEPT_FEATURES } from "../../../lib/tree/bin_orders.ts";
+import { tables } from "./_random_tables.ts";
 
 Deno.test("BinOrders.split: each order's left rows, then its right rows, each in order", () => {
   fc.assert(
@@ -63,87 +63,6 @@ Deno.test("BinOrders.split: each order's left rows, then its right rows, each in
     { numRuns: 300, seed: 12 },
   );
   assert.equal(KEPT_FEATURES, 31);
-});
-
-interface Table {
-  dataset: Dataset;
-  weights: Float64Array;
-  minLeaf: number;
-  maxDepth: number;
-}
-
-// Invented tables: numeric features of many distinct values (ties and
-// missing values among them), a categorical one of up to 300 levels, an
-// ordinal one; pay or a class; whole bootstrap-like weights with zeros.
-const tables: fc.Arbitrary<Table> = fc.record({
-  rows: fc.integer({ min: 20, max: 400 }),
-  features: fc.integer({ min: 1, max: 4 }),
-  levels: fc.integer({ min: 2, max: 300 }),
-  classes: fc.constantFrom(0, 0, 2, 3),
-  minLeaf: fc.integer({ min: 1, max: 5 }),
-  maxDepth: fc.constantFrom(Infinity, Infinity, 4),
-  seed: fc.integer({ min: 1, max: 2 ** 30 }),
-}).map((c) => {
-  let state = c.seed;
-  const next = () => {
-    state = (state * 1103515245 + 12345) % 2147483648;
-    return state / 2147483648;
-  };
-  const features: Feature[] = [];
-  for (let f = 0; f < c.features; f++) {
-    features.push({
-      name: `x${f}`,
-      kind: "numeric",
-      values: Float64Array.from(
-        { length: c.rows },
-        () => (next() < 0.05 ? NaN : Math.floor(next() * c.rows * (f + 1))),
-      ),
-    });
-  }
-  const levels = Array.from({ length: c.levels }, (_, i) => `L${i}`);
-  features.push({
-    name: "site",
-    kind: "categorical",
-    levels,
-    values: Float64Array.from(
-      { length: c.rows },
-      () => (next() < 0.03 ? NaN : Math.floor(next() * c.levels)),
-    ),
-  });
-  features.push({
-    name: "grade",
-    kind: "ordinal",
-    levels: levels.slice(0, Math.min(40, c.levels)),
-    values: Float64Array.from(
-      { length: c.rows },
-      () => Math.floor(next() * Math.min(40, c.levels)),
-    ),
-  });
-  const pay = Float64Array.from(
-    { length: c.rows },
-    (_, r) =>
-      10 + (Number.isNaN(features[0].values[r]) ? 0 : features[0].values[r] / c.rows) +
-      ((features.at(-2)!.values[r] || 0) % 7) / 10 + next(),
-  );
-  const target: Dataset["target"] = c.classes === 0
-    ? { kind: "regression", name: "pay", values: pay }
-    : {
-      kind: "classification",
-      name: "band",
-      classes: Array.from({ length: c.classes }, (_, k) => `b${k}`),
-      values: Int32Array.from(
-        pay,
-        (v) => Math.min(c.classes - 1, Math.floor((v - 10) * c.classes / 3)),
-      ),
-    };
-  const weights = Float64Array.from({ length: c.rows }, () => Math.floor(next() * 3));
-  weights[0] = 1;
-  return {
-    dataset: { rows: c.rows, features, target },
-    weights,
-    minLeaf: c.minLeaf,
-    maxDepth: c.maxDepth,
-  };
 });
 
 Deno.test("trees grown with bin orders handed down are those of sorting every node afresh", () => {

@@ -1,9 +1,11 @@
 import assert from "node:assert/strict";
+import fc from "fast-check";
 import { makeRng, shuffle } from "../../../lib/random.ts";
 import { binFeatures } from "../../../lib/tree/bins.ts";
 import { applyRow, leafCount, predictRows, treeDepth } from "../../../lib/tree/flat_tree.ts";
-import { canonicalRowOrder, growTree } from "../../../lib/tree/grow_tree.ts";
+import { canonicalRowOrder, growTree, growTreeLeaves } from "../../../lib/tree/grow_tree.ts";
 import { classification, levels, numeric, regression } from "./_small.ts";
+import { tables } from "./_random_tables.ts";
 
 const grow = (d: ReturnType<typeof regression>, options = {}, weights?: Float64Array) =>
   growTree({ dataset: d, bins: binFeatures(d), weights }, options);
@@ -137,4 +139,31 @@ Deno.test("canonicalRowOrder: by target, then by features (missing last), then p
   const missingLast = regression([numeric("x", [NaN, 2, 1])], [1, 1, 1]);
   assert.deepEqual(Array.from(canonicalRowOrder(missingLast)), [2, 1, 0]);
   assert.deepEqual(Array.from(canonicalRowOrder(regression([], []))), []);
+});
+
+Deno.test("growTreeLeaves: each drawn row's leaf is where a walk of its values ends", () => {
+  let drawn = 0;
+  let multiWord = 0;
+  fc.assert(
+    fc.property(tables, fc.boolean(), ({ dataset, weights, minLeaf, maxDepth }, bounded) => {
+      const bins = binFeatures(dataset);
+      // A bound along the first numeric feature moves values, never rows.
+      const increasing = bounded && dataset.target.kind === "regression" ? [0] : [];
+      const options = { minLeaf, maxDepth, increasing };
+      const { tree, leafOf } = growTreeLeaves({ dataset, bins, weights }, options);
+      assert.deepEqual(tree, growTree({ dataset, bins, weights }, options));
+      for (let r = 0; r < dataset.rows; r++) {
+        if (weights[r] === 0) assert.equal(leafOf[r], -1);
+        else {
+          assert.equal(leafOf[r], applyRow(tree, dataset.features, r), `row ${r}`);
+          drawn++;
+        }
+      }
+      if (tree.maskWords.some((w) => w > 1) && tree.maskOffset.some((o) => o >= 0)) multiWord++;
+    }),
+    { numRuns: 200, seed: 21 },
+  );
+  assert(drawn > 20000, `${drawn} rows checked`);
+  // Categorical splits of more than 32 levels were among them.
+  assert(multiWord > 20, `${multiWord} trees split a feature of many levels`);
 });

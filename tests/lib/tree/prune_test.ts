@@ -1,8 +1,8 @@
 import assert from "node:assert/strict";
 import fc from "fast-check";
 import { binFeatures } from "../../../lib/tree/bins.ts";
-import { type FlatTree, leafCount, predictRows } from "../../../lib/tree/flat_tree.ts";
-import { growTree } from "../../../lib/tree/grow_tree.ts";
+import { applyRow, type FlatTree, leafCount, predictRows } from "../../../lib/tree/flat_tree.ts";
+import { growTree, growTreeLeaves } from "../../../lib/tree/grow_tree.ts";
 import {
   collapsedWithin,
   collapseNodes,
@@ -14,7 +14,9 @@ import {
   sameAlpha,
   stepAt,
   subtreeAfter,
+  subtreeNodeOf,
 } from "../../../lib/tree/prune.ts";
+import { tables } from "./_random_tables.ts";
 import { levels, numeric, regression } from "./_small.ts";
 
 // Invented: 30 rows, irregular pay so that no two links tie.
@@ -226,4 +228,30 @@ Deno.test("collapseNodes makes leaves of the nodes given and renumbers the rest"
   );
   assert.ok(last > 3);
   assert.equal(collapseNodes(tree, []).nodeCount, tree.nodeCount);
+});
+
+Deno.test("subtreeNodeOf: a row's leaf in the tree gives its leaf in any subtree", () => {
+  let between = 0;
+  fc.assert(
+    fc.property(tables, fc.integer({ min: 1, max: 2 ** 30 }), (table, pick) => {
+      const { dataset, weights, minLeaf, maxDepth } = table;
+      const bins = binFeatures(dataset);
+      const { tree, leafOf } = growTreeLeaves({ dataset, bins, weights }, { minLeaf, maxDepth });
+      // Some internal nodes made leaves: a subtree of the tree (a pruned one
+      // is one of these), nested collapses included.
+      const collapsed = [...Array(tree.nodeCount).keys()]
+        .filter((i) => tree.left[i] !== -1 && ((i + 1) * pick) % 7 === 0);
+      const subtree = collapseNodes(tree, collapsed);
+      const nodeOf = subtreeNodeOf(tree, subtree);
+      for (let r = 0; r < dataset.rows; r++) {
+        const leaf = leafOf[r] === -1 ? applyRow(tree, dataset.features, r) : leafOf[r];
+        assert.equal(nodeOf[leaf], applyRow(subtree, dataset.features, r), `row ${r}`);
+      }
+      // The tree itself maps onto itself.
+      assert.deepEqual([...subtreeNodeOf(tree, tree)], [...Array(tree.nodeCount).keys()]);
+      if (subtree.nodeCount > 1 && subtree.nodeCount < tree.nodeCount) between++;
+    }),
+    { numRuns: 150, seed: 5 },
+  );
+  assert(between > 75, `${between} subtrees strictly between the tree and its root`);
 });
