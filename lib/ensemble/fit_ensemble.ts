@@ -11,7 +11,12 @@ import type { Dataset } from "../dataset/types.ts";
 import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import { scoreSubtrees } from "../tree/cross_validate.ts";
 import { applyRow, type FlatTree } from "../tree/flat_tree.ts";
-import { canonicalRowOrder, type GrowOptions, growTreeLeaves } from "../tree/grow_tree.ts";
+import {
+  canonicalRowOrder,
+  type GrowOptions,
+  growTree,
+  growTreeLeaves,
+} from "../tree/grow_tree.ts";
 import {
   distinctSteps,
   pruneTree,
@@ -235,7 +240,11 @@ export function fitOneTree(
 } {
   const mode = options.prune ?? "alpha";
   const weights = bootstrapCounts(dataset.rows, states, index);
-  const { tree: grown, leafOf } = growTreeLeaves({ dataset, bins, weights, order }, options.grow);
+  // The drawn rows' leaves are kept when a shareable copy needs every row's.
+  const input = { dataset, bins, weights, order };
+  const { tree: grown, leafOf } = options.share === undefined
+    ? { tree: growTree(input, options.grow), leafOf: null }
+    : growTreeLeaves(input, options.grow);
   let alpha = mode === "alpha" ? options.alpha! : 0;
   let tree = grown;
   if (mode === "oob") {
@@ -247,11 +256,12 @@ export function fitOneTree(
   } else if (alpha > 0) {
     tree = pruneTree(grown, alpha);
   }
-  // Every row's leaf: a drawn row's from the partition that grew the tree
-  // (the grown leaf's place in the pruned tree), the others walked down it,
-  // once, by the importance measure's walk when there is one.
-  const leaves = leafOf;
-  if (tree !== grown) {
+  // The undrawn rows' leaves, walked down the tree once (by the importance
+  // measure's walk when there is one); with a shareable copy, the drawn
+  // rows' too, from the partition that grew the tree (the grown leaf's
+  // place in the pruned tree).
+  const leaves = leafOf ?? new Int32Array(dataset.rows);
+  if (leafOf !== null && tree !== grown) {
     const nodeOf = subtreeNodeOf(grown, tree);
     for (let r = 0; r < dataset.rows; r++) if (leaves[r] !== -1) leaves[r] = nodeOf[leaves[r]];
   }

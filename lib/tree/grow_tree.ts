@@ -253,7 +253,7 @@ export interface GrownLeaves {
 export function growTreeLeaves(input: GrowInput, options: GrowOptions = {}): GrownLeaves {
   const limits = growLimits(options);
   const increasing = increasingFlags(input.dataset, options.increasing ?? []);
-  const builder = new Builder(input, { ...limits, increasing });
+  const builder = new Builder(input, { ...limits, increasing }, true);
   const tree = builder.grow();
   return { tree, leafOf: builder.leafOfRows() };
 }
@@ -428,9 +428,10 @@ class Builder {
   // (a finished node's rows keep their places).
   private readonly order: Int32Array;
   private readonly weights: Float64Array;
-  private readonly leafAt: Int32Array;
+  private readonly leafAt: Int32Array | null;
 
-  constructor(data: GrowInput, settings: Settings) {
+  /** @param keepLeaves Whether to note each row's leaf (see leafOfRows). */
+  constructor(data: GrowInput, settings: Settings, keepLeaves = false) {
     this.s = settings;
     const { dataset } = data;
     const n = dataset.rows;
@@ -441,7 +442,7 @@ class Builder {
     this.rows = gatherRows(dataset, data.bins, this.weights, this.order);
     this.bins = data.bins;
     const kept = this.rows.count;
-    this.leafAt = new Int32Array(kept);
+    this.leafAt = keepLeaves ? new Int32Array(kept) : null;
     this.index = new Int32Array(kept);
     for (let i = 0; i < kept; i++) this.index[i] = i;
     this.scratch = new Int32Array(kept);
@@ -492,7 +493,7 @@ class Builder {
       const rows = end - start;
       if (isLeaf(this.s, depth, rows, impurity)) {
         histograms.release(hist);
-        this.leafAt.fill(id, start, end);
+        this.leafAt?.fill(id, start, end);
         continue;
       }
       if (hist === null && histograms.anyDense(rows)) {
@@ -504,7 +505,7 @@ class Builder {
       const weight = this.nodes.weightOf(id);
       if (!found || !decreasesEnough(best, weight, impurity, this.rows.totalWeight, this.s)) {
         histograms.release(hist);
-        this.leafAt.fill(id, start, end);
+        this.leafAt?.fill(id, start, end);
         continue;
       }
       const missingLeft = missingGoesLeft(best);
@@ -561,7 +562,8 @@ class Builder {
 
   /** After `grow`, each dataset row's leaf; -1 for a row of weight 0. */
   leafOfRows(): Int32Array {
-    const { order, weights, index, leafAt } = this;
+    const { order, weights, index } = this;
+    const leafAt = this.leafAt!;
     const n = order.length;
     // Local row i is the i-th row of positive weight in canonical order.
     const original = new Int32Array(index.length);
