@@ -38,8 +38,75 @@ export interface GrowRows {
 }
 
 /**
+ * Arrays kept from one tree to the next for {@linkcode gatherRows} to fill,
+ * grown when a tree needs more: a bagged tree's rows on CPS1988 are 0.8 MB,
+ * which new arrays for every tree left to the system to zero and the
+ * collector to free. A tree's rows are then views of them, good until the
+ * next tree is gathered into the same buffers.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { binFeatures } from "./bins.ts";
+ * import { gatherRows, RowBuffers } from "./grow_rows.ts";
+ * const dataset = {
+ *   rows: 3,
+ *   features: [{ name: "x", kind: "numeric" as const, values: Float64Array.of(7, 5, 6) }],
+ *   target: { kind: "regression" as const, name: "y", values: Float64Array.of(30, 10, 20) },
+ * };
+ * const bins = binFeatures(dataset);
+ * const buffers = new RowBuffers();
+ * const order = Int32Array.of(1, 2, 0);
+ * const first = gatherRows(dataset, bins, Float64Array.of(1, 1, 1), order, buffers);
+ * assert.deepEqual([...first.target], [10, 20, 30]);
+ * const second = gatherRows(dataset, bins, Float64Array.of(0, 2, 1), order, buffers);
+ * assert.deepEqual([...second.target], [10, 20]);
+ * // The same memory: the first tree's rows are gone.
+ * assert.equal(second.target.buffer, first.target.buffer);
+ * assert.deepEqual(second, gatherRows(dataset, bins, Float64Array.of(0, 2, 1), order));
+ * ```
+ */
+export class RowBuffers {
+  weight = new Float64Array(0);
+  target = new Float64Array(0);
+  classOf = new Int32Array(0);
+  moments = new Float64Array(0);
+  bins: BinIds = new Uint8Array(0);
+
+  /** The arrays for `kept` rows of `features` features over `binCount` bins. */
+  take(
+    kept: number,
+    features: number,
+    binCount: number,
+    regression: boolean,
+  ): Pick<GrowRows, "weight" | "target" | "classOf" | "moments" | "bins"> {
+    // Room to spare when grown: the next tree may draw a few more rows.
+    const room = (need: number) => Math.ceil(need * 1.1);
+    const rows = regression ? kept : 0;
+    const classes = regression ? 0 : kept;
+    if (this.weight.length < kept) this.weight = new Float64Array(room(kept));
+    if (this.target.length < rows) this.target = new Float64Array(room(rows));
+    if (this.classOf.length < classes) this.classOf = new Int32Array(room(classes));
+    if (this.moments.length < 3 * rows) this.moments = new Float64Array(room(3 * rows));
+    const cells = kept * features;
+    const kind = binIdsFor(binCount, 0).constructor;
+    if (this.bins.length < cells || this.bins.constructor !== kind) {
+      this.bins = binIdsFor(binCount, Math.ceil(cells * 1.1));
+    }
+    return {
+      weight: this.weight.subarray(0, kept),
+      target: this.target.subarray(0, rows),
+      classOf: this.classOf.subarray(0, classes),
+      moments: this.moments.subarray(0, 3 * rows),
+      bins: this.bins.subarray(0, cells),
+    };
+  }
+}
+
+/**
  * Gathers the rows of positive weight in `order` (the dataset's
- * canonical row order), after checking every weight and target.
+ * canonical row order), after checking every weight and target; into
+ * `buffers` when given (see {@linkcode RowBuffers}), else new arrays.
  *
  * @example
  * ```ts
@@ -65,6 +132,7 @@ export function gatherRows(
   bins: FeatureBins[],
   weights: Float64Array,
   order: Int32Array,
+  buffers: RowBuffers = new RowBuffers(),
 ): GrowRows {
   const n = dataset.rows;
   if (weights.length !== n) {
@@ -85,10 +153,12 @@ export function gatherRows(
   // The whole table's row-major bins are built once per bins (and cached).
   const all = rowMajorBins(bins, n, offsets);
   const regression = dataset.target.kind === "regression";
-  const weight = new Float64Array(kept);
-  const target = new Float64Array(regression ? kept : 0);
-  const classOf = new Int32Array(regression ? 0 : kept);
-  const local = binIdsFor(offsets[features], kept * features);
+  const { weight, target, classOf, moments, bins: local } = buffers.take(
+    kept,
+    features,
+    offsets[features],
+    regression,
+  );
   let totalWeight = 0;
   for (let j = 0, i = 0; j < n; j++) {
     const r = order[j];
@@ -103,7 +173,6 @@ export function gatherRows(
     }
     i++;
   }
-  const moments = new Float64Array(regression ? 3 * kept : 0);
   for (let i = 0; regression && i < kept; i++) {
     const wy = weight[i] * target[i];
     moments[3 * i] = weight[i];

@@ -19,7 +19,7 @@ import type { Dataset } from "../dataset/types.ts";
 import type { FeatureBins } from "./bins.ts";
 import { type Criterion, criterionFor } from "./criterion.ts";
 import type { FlatTree } from "./flat_tree.ts";
-import { gatherRows, type GrowRows } from "./grow_rows.ts";
+import { gatherRows, type GrowRows, RowBuffers } from "./grow_rows.ts";
 import { Histograms } from "./histogram.ts";
 import { type SplitChoice, Splitter } from "./splitter.ts";
 import { maskWordsOf, type PendingNode, TreeNodes } from "./tree_nodes.ts";
@@ -402,6 +402,10 @@ interface PendingRows extends PendingNode {
   ceiling: number;
 }
 
+// The rows of the tree being grown, in arrays this thread keeps from tree to
+// tree (a builder grows one tree and is done before the next starts).
+const threadRows = new RowBuffers();
+
 class Builder {
   private readonly s: Settings;
   private readonly regression: boolean;
@@ -439,7 +443,7 @@ class Builder {
     this.regression = this.criterion.task === "regression";
     this.order = data.order ?? canonicalRowOrder(dataset);
     this.weights = data.weights ?? new Float64Array(n).fill(1);
-    this.rows = gatherRows(dataset, data.bins, this.weights, this.order);
+    this.rows = gatherRows(dataset, data.bins, this.weights, this.order, threadRows);
     this.bins = data.bins;
     const kept = this.rows.count;
     this.leafAt = keepLeaves ? new Int32Array(kept) : null;

@@ -1,8 +1,10 @@
 import assert from "node:assert/strict";
+import fc from "fast-check";
 import { binFeatures } from "../../../lib/tree/bins.ts";
 import { canonicalRowOrder } from "../../../lib/tree/grow_tree.ts";
-import { gatherRows } from "../../../lib/tree/grow_rows.ts";
+import { gatherRows, RowBuffers } from "../../../lib/tree/grow_rows.ts";
 import { classification, levels, numeric, regression } from "./_small.ts";
+import { tables } from "./_random_tables.ts";
 
 Deno.test("rows of weight 0 are left out; the rest follow the canonical order with their bins", () => {
   const d = regression(
@@ -54,4 +56,23 @@ Deno.test("bad weights, targets and orders are refused with the row named", () =
     () => gatherRows(bad, bins, Float64Array.of(1, 1), order),
     /target of row 1 is NaN/,
   );
+});
+
+Deno.test("gathering into kept buffers gives the rows new arrays give, table after table", () => {
+  const buffers = new RowBuffers();
+  let grown = 0;
+  let previous = buffers.weight;
+  fc.assert(
+    fc.property(tables, ({ dataset, weights }) => {
+      const bins = binFeatures(dataset);
+      const order = canonicalRowOrder(dataset);
+      const kept = gatherRows(dataset, bins, weights, order, buffers);
+      assert.deepEqual(kept, gatherRows(dataset, bins, weights, order));
+      if (buffers.weight !== previous) grown++;
+      previous = buffers.weight;
+    }),
+    { numRuns: 120, seed: 3 },
+  );
+  // Most tables fit in the buffers an earlier one left; some need more.
+  assert(grown > 1 && grown < 60, `buffers grown ${grown} times`);
 });
