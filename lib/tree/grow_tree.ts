@@ -405,6 +405,9 @@ interface PendingRows extends PendingNode {
 // The rows of the tree being grown, in arrays this thread keeps from tree to
 // tree (a builder grows one tree and is done before the next starts).
 const threadRows = new RowBuffers();
+// Likewise its index (the rows in node order) and the partition's scratch.
+let threadIndex = new Int32Array(0);
+let threadScratch = new Int32Array(0);
 
 class Builder {
   private readonly s: Settings;
@@ -447,9 +450,13 @@ class Builder {
     this.bins = data.bins;
     const kept = this.rows.count;
     this.leafAt = keepLeaves ? new Int32Array(kept) : null;
-    this.index = new Int32Array(kept);
+    if (threadIndex.length < kept) {
+      threadIndex = new Int32Array(Math.ceil(kept * 1.1));
+      threadScratch = new Int32Array(threadIndex.length);
+    }
+    this.index = threadIndex.subarray(0, kept);
     for (let i = 0; i < kept; i++) this.index[i] = i;
-    this.scratch = new Int32Array(kept);
+    this.scratch = threadScratch.subarray(0, kept);
     this.histograms = new Histograms(this.rows, data.bins, this.criterion.stride);
     this.splitter = new Splitter(
       this.rows,
