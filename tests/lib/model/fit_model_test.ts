@@ -6,6 +6,7 @@ import assert from "node:assert/strict";
 import {
   crossValidatedLinearPredictions,
   crossValidateTree,
+  demoCompanyCsv,
   fitEnsembleParallel,
   fitModel,
   loadTable,
@@ -175,4 +176,24 @@ Deno.test("a class target's constant baseline is the majority class of the other
   const constant = fitted.quality.constant as { accuracy: number };
   assert.ok(sameTo4(constant.accuracy, right / y.length), `${constant.accuracy}`);
   assert.equal(constant.accuracy.toFixed(3), "0.292");
+});
+
+// The learner keeps working arrays from tree to tree in each thread
+// (grow_rows.ts, importance.ts, fit_ensemble.ts): two fits in one thread
+// at once, their awaits interleaved, must give the models each gives alone.
+Deno.test("two fits at once in one thread give the models each gives alone", async () => {
+  const now = () => "2026-01-01T00:00:00.000Z";
+  const small = loadTable(demoCompanyCsv({ rows: 400, seed: 9 }), { target: "base_pay_eur" });
+  const options = { target: "base_pay_eur", trees: 12, folds: 4, workers: 1, now };
+  const strip = (m: Awaited<ReturnType<typeof fitModel>>) => ({ ...m, seconds: 0 });
+  const alone = [
+    strip(await fitModel(table, options)),
+    strip(await fitModel(small, { ...options, seed: 3 })),
+  ];
+  const together = await Promise.all([
+    fitModel(table, options),
+    fitModel(small, { ...options, seed: 3 }),
+  ]);
+  assert.deepEqual(together.map(strip), alone);
+  assert.notDeepEqual(alone[0].ensemble, alone[1].ensemble);
 });
