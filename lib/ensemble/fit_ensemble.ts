@@ -8,6 +8,7 @@
  */
 
 import type { Dataset } from "../dataset/types.ts";
+import { KeptArray } from "../kept_array.ts";
 import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import { scoreSubtrees } from "../tree/cross_validate.ts";
 import { applyRow, type FlatTree } from "../tree/flat_tree.ts";
@@ -188,7 +189,7 @@ export function checkEnsembleOptions(options: EnsembleOptions): void {
 
 // Each tree's bootstrap counts, in one array per thread reused from tree to
 // tree (225 KB a tree on CPS1988).
-let threadCounts = new Float64Array(0);
+const threadCounts = new KeptArray((n) => new Float64Array(n));
 
 /**
  * Grows and prunes tree `index`, whose resample comes from its generator
@@ -244,8 +245,7 @@ export function fitOneTree(
 } {
   const mode = options.prune ?? "alpha";
   // Read while the tree is fitted, never kept: the thread's one array.
-  if (threadCounts.length !== dataset.rows) threadCounts = new Float64Array(dataset.rows);
-  const weights = bootstrapCounts(dataset.rows, states, index, threadCounts);
+  const weights = bootstrapCounts(dataset.rows, states, index, threadCounts.view(dataset.rows));
   // The drawn rows' leaves are kept when a shareable copy needs every row's.
   const input = { dataset, bins, weights, order };
   const { tree: grown, leafOf } = options.share === undefined

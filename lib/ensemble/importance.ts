@@ -14,6 +14,7 @@
 import type { Dataset } from "../dataset/types.ts";
 import { createHash } from "node:crypto";
 import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
+import { KeptArray } from "../kept_array.ts";
 import { type Rng, shuffle } from "../random.ts";
 import { type FlatTree, goesLeft } from "../tree/flat_tree.ts";
 import { bootstrapCounts } from "./bootstrap.ts";
@@ -163,8 +164,7 @@ export function treeImportanceIncrease(
 }
 
 // One tree's working arrays, kept from tree to tree (a thread measures one
-// tree at a time): on CPS1988 they are 1.5 MB a tree, which a new set per
-// tree had the system zero and the collector free 200 times a fit.
+// tree at a time): on CPS1988 they are 1.5 MB a tree.
 interface Scratch {
   oob: Int32Array;
   donated: Float64Array;
@@ -176,42 +176,32 @@ interface Scratch {
   high: Float64Array;
   levelSet: Uint32Array;
 }
-let kept: { rows: number; cells: number; arrays: Scratch } | null = null;
+const doubles = () => new KeptArray((n) => new Float64Array(n));
+const kept = {
+  oob: new KeptArray((n) => new Int32Array(n)),
+  donated: doubles(),
+  walkedValue: doubles(),
+  walkedError: doubles(),
+  sqError: doubles(),
+  firstNode: new KeptArray((n) => new Int32Array(n)),
+  low: doubles(),
+  high: doubles(),
+  levelSet: new KeptArray((n) => new Uint32Array(n)),
+};
 
-// Views of `n` rows (and `n * features` cells) over the kept arrays, grown
-// when too small.
+// The working arrays of `n` out-of-bag rows (and `n * features` cells).
 function scratchFor(n: number, features: number): Scratch {
   const cells = n * features;
-  if (kept === null || kept.rows < n || kept.cells < cells) {
-    const rows = Math.max(n, kept?.rows ?? 0);
-    const size = Math.max(cells, kept?.cells ?? 0);
-    kept = {
-      rows,
-      cells: size,
-      arrays: {
-        oob: new Int32Array(rows),
-        donated: new Float64Array(rows),
-        walkedValue: new Float64Array(rows),
-        walkedError: new Float64Array(rows),
-        sqError: new Float64Array(rows),
-        firstNode: new Int32Array(size),
-        low: new Float64Array(size),
-        high: new Float64Array(size),
-        levelSet: new Uint32Array(size),
-      },
-    };
-  }
-  const a = kept.arrays;
   return {
-    oob: a.oob.subarray(0, n),
-    donated: a.donated.subarray(0, n),
-    walkedValue: a.walkedValue.subarray(0, n),
-    walkedError: a.walkedError.subarray(0, n),
-    sqError: a.sqError.subarray(0, n),
-    firstNode: a.firstNode.subarray(0, cells),
-    low: a.low.subarray(0, cells),
-    high: a.high.subarray(0, cells),
-    levelSet: a.levelSet.subarray(0, cells),
+    oob: kept.oob.view(n),
+    donated: kept.donated.view(n),
+    walkedValue: kept.walkedValue.view(n),
+    walkedError: kept.walkedError.view(n),
+    sqError: kept.sqError.view(n),
+    firstNode: kept.firstNode.view(cells),
+    low: kept.low.view(cells),
+    high: kept.high.view(cells),
+    levelSet: kept.levelSet.view(cells),
   };
 }
 

@@ -16,6 +16,7 @@
  */
 
 import type { Dataset } from "../dataset/types.ts";
+import { KeptArray } from "../kept_array.ts";
 import type { FeatureBins } from "./bins.ts";
 import { type Criterion, criterionFor } from "./criterion.ts";
 import type { FlatTree } from "./flat_tree.ts";
@@ -406,8 +407,8 @@ interface PendingRows extends PendingNode {
 // tree (a builder grows one tree and is done before the next starts).
 const threadRows = new RowBuffers();
 // Likewise its index (the rows in node order) and the partition's scratch.
-let threadIndex = new Int32Array(0);
-let threadScratch = new Int32Array(0);
+const threadIndex = new KeptArray((n) => new Int32Array(n));
+const threadScratch = new KeptArray((n) => new Int32Array(n));
 
 class Builder {
   private readonly s: Settings;
@@ -450,13 +451,9 @@ class Builder {
     this.bins = data.bins;
     const kept = this.rows.count;
     this.leafAt = keepLeaves ? new Int32Array(kept) : null;
-    if (threadIndex.length < kept) {
-      threadIndex = new Int32Array(Math.ceil(kept * 1.1));
-      threadScratch = new Int32Array(threadIndex.length);
-    }
-    this.index = threadIndex.subarray(0, kept);
+    this.index = threadIndex.view(kept);
     for (let i = 0; i < kept; i++) this.index[i] = i;
-    this.scratch = threadScratch.subarray(0, kept);
+    this.scratch = threadScratch.view(kept);
     this.histograms = new Histograms(this.rows, data.bins, this.criterion.stride);
     this.splitter = new Splitter(
       this.rows,
