@@ -15,7 +15,7 @@ import type { Dataset } from "../dataset/types.ts";
 import { createHash } from "node:crypto";
 import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
 import { KeptArray } from "../kept_array.ts";
-import { type Rng, shuffle } from "../random.ts";
+import { type Rng, shuffleDoubles } from "../random.ts";
 import { type FlatTree, goesLeft } from "../tree/flat_tree.ts";
 import { bootstrapCounts } from "./bootstrap.ts";
 import type { Ensemble } from "./fit_ensemble.ts";
@@ -152,7 +152,7 @@ export function treeImportanceIncrease(
       // Shuffled even when unused, so every feature's draws stay the same
       // whichever features a tree happens to use.
       valuesOf(columns[f], oob, donated);
-      shuffle(donated, rng);
+      shuffleDoubles(donated, rng);
       // A feature the tree never splits on changes no prediction: 0 exactly.
       if (used[f] === 0) continue;
       out[f * repeats + k] =

@@ -1,6 +1,6 @@
 import assert from "node:assert/strict";
 import fc from "fast-check";
-import { makeRng, randomBelow, randomInt, shuffle } from "../../lib/random.ts";
+import { makeRng, randomBelow, randomInt, shuffle, shuffleDoubles } from "../../lib/random.ts";
 
 // xoroshiro128+ as Blackman and Vigna publish it (xoroshiro128plus.c, constants a = 24,
 // b = 16, c = 37; from memory), on 64-bit BigInt state. pure-rand keeps the state as four
@@ -157,5 +157,25 @@ Deno.test("randomBelow's remainder by floor equals the library's at the edges of
       (v, size) => remainder(v, size) === v % size,
     ),
     { numRuns: 20000 },
+  );
+});
+
+Deno.test("shuffleDoubles draws as shuffle does: the same order, the same draws used", () => {
+  fc.assert(
+    fc.property(
+      fc.array(fc.double(), { maxLength: 300 }),
+      fc.integer({ min: -(2 ** 31), max: 2 ** 31 - 1 }),
+      (values, seed) => {
+        const a = makeRng(seed);
+        const b = makeRng(seed);
+        const doubles = Float64Array.from(values);
+        const plain = Array.from(doubles);
+        assert.equal(shuffleDoubles(doubles, a), doubles, "in place");
+        shuffle(plain, b);
+        assert.deepEqual(Array.from(doubles), plain);
+        assert.equal(a.next(), b.next());
+      },
+    ),
+    { numRuns: 300 },
   );
 });
