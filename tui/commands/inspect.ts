@@ -14,7 +14,7 @@ import {
   renderImportance,
   renderTreeOutline,
 } from "../render/model_view.ts";
-import { formatNumber } from "../render/numbers.ts";
+import { formatLeaves, formatNumber } from "../render/numbers.ts";
 import { localeTag } from "../table_flags.ts";
 import type { Terminal } from "../terminal.ts";
 import { provenanceLine } from "../render/cautions.ts";
@@ -109,7 +109,7 @@ export function inspectCommand(terminal: Terminal): CommandUnknownOpts {
           ? `, never falling as ${model.settings.increasing.join(" or ")} rises (--increasing)`
           : "") +
         (model.settings.allowProtected ? style.caution(", protected attributes allowed") : ""),
-        `  reference tree: ${model.reference.leaves} leaves, depth ${model.reference.depth}`,
+        `  reference tree: ${formatLeaves(model.reference.leaves)}, depth ${model.reference.depth}`,
       ];
       const lines = [
         style.bold(`Model ${terminalText(file)}`),

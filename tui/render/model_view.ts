@@ -20,6 +20,7 @@ import type { Accuracy, Model } from "../../mod.ts";
 import { barChart } from "./charts.ts";
 import {
   describeUnit,
+  formatLeaves,
   formatNumber,
   formatPay,
   formatPercent,
@@ -205,7 +206,9 @@ function pruningLine(model: Model): string {
     : ` Every tree is grown so that the estimate never falls as ${
       increasing.join(" or ")
     } rises, the rest held (--increasing).`;
-  return `Reference tree: ${ref.leaves} leaves, depth ${ref.depth}, pruned from ${full} leaves ` +
+  return `Reference tree: ${formatLeaves(ref.leaves)}, depth ${ref.depth}, pruned from ${
+    formatLeaves(full)
+  } ` +
     `at alpha ${
       ref.alpha.toPrecision(3)
     } (${model.settings.folds}-fold cross-validation, ${rule}). ` +
@@ -236,7 +239,7 @@ export function renderAccuracy(model: Model, options: ModelViewOptions): string[
   const rows: [string, Accuracy | null][] = [
     ["constant", q.constant],
     ["straight line", q.linear],
-    [`tree, ${model.reference.leaves} leaves`, q.reference],
+    [`tree, ${formatLeaves(model.reference.leaves)}`, q.reference],
     [model.ensemble ? `ensemble, ${model.ensemble.trees.length} trees` : "ensemble", q.ensemble],
   ];
   const by = (a: Accuracy) =>

@@ -162,3 +162,18 @@ export function formatSignedPay(value: number, style: NumberStyle, wholeUnits = 
 export function formatLevel(share: number, style: NumberStyle = {}): string {
   return `${formatNumber(100 * share, style, 0)}%`;
 }
+
+/**
+ * A tree's size in words: `1 leaf`, `44 leaves`.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { formatLeaves } from "./numbers.ts";
+ * assert.equal(formatLeaves(1), "1 leaf");
+ * assert.equal(formatLeaves(44), "44 leaves");
+ * ```
+ */
+export function formatLeaves(count: number): string {
+  return `${count} ${count === 1 ? "leaf" : "leaves"}`;
+}

@@ -8,7 +8,13 @@
  */
 
 import type { Accuracy, Model } from "../../../mod.ts";
-import { formatNumber, formatPay, formatPercent, type NumberStyle } from "../numbers.ts";
+import {
+  formatLeaves,
+  formatNumber,
+  formatPay,
+  formatPercent,
+  type NumberStyle,
+} from "../numbers.ts";
 import { barsChart } from "./charts.ts";
 import { figureTable, type HtmlCell, type HtmlSection, paragraph } from "./page.ts";
 
@@ -56,7 +62,9 @@ export function fitSections(model: Model, notes: string[], money: NumberStyle): 
       )]),
       ...notes.map((n) => paragraph(n, "warning")),
       paragraph(
-        `One reference tree (${model.reference.leaves} leaves, chosen by ${model.settings.folds}-fold ` +
+        `One reference tree (${
+          formatLeaves(model.reference.leaves)
+        }, chosen by ${model.settings.folds}-fold ` +
           `cross-validation of cost-complexity pruning) explains estimates` +
           (model.ensemble === null
             ? "."
