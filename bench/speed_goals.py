@@ -191,4 +191,5 @@ def main():
     print("\n".join(lines))
 
 
-main()
+if __name__ == "__main__":
+    main()
