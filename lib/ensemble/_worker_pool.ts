@@ -102,10 +102,12 @@ export class FittingPool {
         };
         this.#onFailure = reject;
         this.#onReply = (worker, reply) => {
+          // The worker's next task goes first: it works on while this
+          // thread handles the reply (cross-validation scores a fold tree).
+          start(worker);
           take(reply);
           done++;
           if (done === tasks.length) resolve();
-          else start(worker);
         };
         for (const worker of used) {
           worker.postMessage({ kind: "reset" } satisfies ToWorker);

@@ -1,7 +1,7 @@
 /**
  * Cross-validation of the reference tree with its trees grown on fitting
  * workers: the tree of every row and each fold's tree are grown in
- * parallel, then scored here ({@linkcode crossValidateGrown}), so the
+ * parallel and scored here as they come back (`FoldScores`), so the
  * result is the one `crossValidateTree` gives, whatever the worker count.
  *
  * @module
@@ -12,9 +12,9 @@ import { binFeatures, type FeatureBins } from "../tree/bins.ts";
 import {
   assignFolds,
   type CrossValidatedTree,
-  crossValidateGrown,
   type CrossValidateOptions,
   crossValidateTree,
+  FoldScores,
 } from "../tree/cross_validate.ts";
 import type { FlatTree } from "../tree/flat_tree.ts";
 import type { ToWorker } from "./_fit_worker.ts";
@@ -23,8 +23,9 @@ import { FittingPool, onFittingWorkers, sharedDataFor } from "./_worker_pool.ts"
 /**
  * {@linkcode crossValidateTree} with its trees grown on `workers` workers
  * (1: in this thread), or on a pool's. `onTreesGrown` is called when the
- * workers' trees are back, before this thread scores them (never when the
- * trees are grown in this thread): the moment the workers fall idle.
+ * workers' trees are back, before this thread scores the last of them
+ * (never when the trees are grown in this thread): the moment the workers
+ * fall idle.
  *
  * @example
  * ```ts
@@ -74,15 +75,27 @@ export async function crossValidateTreeParallel(
     kind: "foldTree",
     index: i - 1,
   }));
-  let full: FlatTree | undefined;
-  const foldTrees: FlatTree[] = new Array(folds);
+  // Each fold tree is scored as soon as it and the full tree are back,
+  // while the workers grow the others; the last tree back is scored after
+  // `onTreesGrown`, when work sent aside keeps the workers busy. (FoldScores
+  // adds the folds in fold order, so the arrival order changes no number.)
+  let full: FlatTree | null = null;
+  let scores: FoldScores | null = null;
+  const waiting: { index: number; tree: FlatTree }[] = [];
   let done = 0;
   await onFittingWorkers(on, opening, tasks, (reply) => {
     if (reply.kind !== "foldTree") return;
     if (reply.index < 0) full = reply.tree;
-    else foldTrees[reply.index] = reply.tree;
-    options.onProgress?.(++done, folds + 1);
+    else waiting.push({ index: reply.index, tree: reply.tree });
+    done++;
+    if (full !== null && done < folds + 1) {
+      scores ??= new FoldScores(dataset, full, fold, folds, options);
+      for (const w of waiting.splice(0)) scores.add(w.index, w.tree);
+    }
+    options.onProgress?.(done, folds + 1);
   });
   options.onTreesGrown?.();
-  return crossValidateGrown(dataset, full!, foldTrees, fold, options);
+  scores ??= new FoldScores(dataset, full!, fold, folds, options);
+  for (const w of waiting) scores.add(w.index, w.tree);
+  return scores.result();
 }

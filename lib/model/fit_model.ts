@@ -196,7 +196,8 @@ async function fitModelOn(
   const payInMoney = regression ? Float64Array.from(y as ArrayLike<number>, back) : null;
   // The proxy check needs neither the tree nor the ensemble: with workers,
   // it is sent aside to them when the cross-validation's trees are back,
-  // while this thread scores those trees; else it runs here after the fit.
+  // while this thread scores the last of those trees; else it runs here
+  // after the fit.
   const questions = proxyQuestions(filtered, rowIndex, dataset);
   let proxiesAside: Promise<ProxyFigure[][]> | null = null;
   const sendProxiesAside = workers instanceof FittingPool && questions.length > 0

@@ -170,54 +170,162 @@ export function crossValidateGrown(
   fold: Int32Array,
   options: Pick<CrossValidateOptions, "rule" | "extraLosses"> = {},
 ): CrossValidatedTree {
-  const rule = options.rule ?? "one-se";
-  const path = pruningPath(fullTree);
-  // Distinct alphas: of a run of equal alphas keep the last step.
-  const steps = distinctSteps(path);
-  const alphas = steps.map((s) => path.alphas[s]);
-  const scoredAt = alphas.map((a, j) => (j + 1 < alphas.length ? Math.sqrt(a * alphas[j + 1]) : a));
-  const sum = new Float64Array(alphas.length);
-  const sumSq = new Float64Array(alphas.length);
-  const extraLosses = options.extraLosses ?? [];
-  const extraSums = extraLosses.map(() => new Float64Array(alphas.length));
-  foldTrees.forEach((foldTree, k) => {
-    scoreSubtrees(foldTree, dataset, (r) => fold[r] === k, scoredAt, sum, sumSq, {
-      losses: extraLosses,
-      sums: extraSums,
-    });
-  });
-  const n = dataset.rows;
-  const candidates: AlphaCandidate[] = alphas.map((alpha, j) => {
-    const mean = sum[j] / n;
-    const variance = n > 1 ? Math.max(0, (sumSq[j] - n * mean * mean) / (n - 1)) : 0;
-    return {
-      alpha,
-      scoredAt: scoredAt[j],
-      leaves: path.leaves[steps[j]],
-      risk: path.risks[steps[j]],
-      cvError: mean,
-      cvSe: Math.sqrt(variance / n),
-      cvRmse: Math.sqrt(mean),
-      cvRmseSe: mean > 0 ? Math.sqrt(variance / n) / (2 * Math.sqrt(mean)) : 0,
-      cvExtra: extraSums.map((s) => s[j] / n),
-    };
-  });
-  let best = 0;
-  for (let j = 1; j < candidates.length; j++) {
-    if (candidates[j].cvError < candidates[best].cvError) best = j;
+  const scores = new FoldScores(dataset, fullTree, fold, foldTrees.length, options);
+  foldTrees.forEach((foldTree, k) => scores.add(k, foldTree));
+  return scores.result();
+}
+
+/**
+ * {@linkcode crossValidateGrown} one fold tree at a time, in any order: a
+ * fold tree can be scored as soon as it is grown (while workers grow the
+ * others). Each fold's sums are kept apart and added in fold order at the
+ * end, so the result is the same number for number whatever the order.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { assignFolds, binFeatures, crossValidateGrown, growTree } from "../../mod.ts";
+ * import { FoldScores } from "./cross_validate.ts";
+ * const years = Array.from({ length: 40 }, (_, i) => i % 20);
+ * const dataset = {
+ *   rows: 40,
+ *   features: [{ name: "years", kind: "numeric" as const, values: Float64Array.from(years) }],
+ *   target: { kind: "regression" as const, name: "pay", values: Float64Array.from(years, (y, i) => 50 + 3 * y + (i % 4)) },
+ * };
+ * const bins = binFeatures(dataset);
+ * const fold = assignFolds(dataset, 4, 3);
+ * const trees = [0, 1, 2, 3].map((k) =>
+ *   growTree({ dataset, bins, weights: Float64Array.from(fold, (f) => (f === k ? 0 : 1)) }, { minLeaf: 2 })
+ * );
+ * const full = growTree({ dataset, bins }, { minLeaf: 2 });
+ * const scores = new FoldScores(dataset, full, fold, 4);
+ * for (const k of [2, 0, 3, 1]) scores.add(k, trees[k]);
+ * assert.deepEqual(scores.result().candidates, crossValidateGrown(dataset, full, trees, fold).candidates);
+ * assert.throws(() => new FoldScores(dataset, full, fold, 4).result(), /fold 0 is not scored/);
+ * ```
+ */
+export class FoldScores {
+  readonly #dataset: Dataset;
+  readonly #fullTree: FlatTree;
+  readonly #fold: Int32Array;
+  readonly #rule: "one-se" | "min";
+  readonly #extraLosses: readonly ((actual: number, predicted: number) => number)[];
+  readonly #path: ReturnType<typeof pruningPath>;
+  readonly #steps: number[];
+  readonly #alphas: number[];
+  readonly #scoredAt: number[];
+  // Per fold: its sums, squares and extra losses at each candidate (null
+  // until the fold is scored).
+  readonly #parts: ({ sum: Float64Array; sumSq: Float64Array; extra: Float64Array[] } | null)[];
+
+  /**
+   * @param fullTree The tree grown on every row.
+   * @param fold Each row's fold ({@linkcode assignFolds}).
+   * @param folds How many folds there are.
+   */
+  constructor(
+    dataset: Dataset,
+    fullTree: FlatTree,
+    fold: Int32Array,
+    folds: number,
+    options: Pick<CrossValidateOptions, "rule" | "extraLosses"> = {},
+  ) {
+    this.#dataset = dataset;
+    this.#fullTree = fullTree;
+    this.#fold = fold;
+    this.#rule = options.rule ?? "one-se";
+    this.#extraLosses = options.extraLosses ?? [];
+    this.#path = pruningPath(fullTree);
+    // Distinct alphas: of a run of equal alphas keep the last step.
+    this.#steps = distinctSteps(this.#path);
+    this.#alphas = this.#steps.map((s) => this.#path.alphas[s]);
+    const alphas = this.#alphas;
+    this.#scoredAt = alphas.map((
+      a,
+      j,
+    ) => (j + 1 < alphas.length ? Math.sqrt(a * alphas[j + 1]) : a));
+    this.#parts = Array.from({ length: folds }, () => null);
   }
-  let chosen = best;
-  if (rule === "one-se") {
-    const limit = candidates[best].cvError + candidates[best].cvSe;
-    for (let j = candidates.length - 1; j > best; j--) {
-      if (candidates[j].cvError <= limit) {
-        chosen = j;
-        break;
+
+  /** Scores fold `k`'s tree, grown with fold k's rows left out (weight 0), on those rows. */
+  add(k: number, foldTree: FlatTree): void {
+    if (!(Number.isInteger(k) && k >= 0 && k < this.#parts.length)) {
+      throw new RangeError(`no fold ${k} of ${this.#parts.length}`);
+    }
+    const count = this.#alphas.length;
+    const part = {
+      sum: new Float64Array(count),
+      sumSq: new Float64Array(count),
+      extra: this.#extraLosses.map(() => new Float64Array(count)),
+    };
+    const fold = this.#fold;
+    scoreSubtrees(
+      foldTree,
+      this.#dataset,
+      (r) => fold[r] === k,
+      this.#scoredAt,
+      part.sum,
+      part.sumSq,
+      {
+        losses: this.#extraLosses,
+        sums: part.extra,
+      },
+    );
+    this.#parts[k] = part;
+  }
+
+  /** The candidates and the choice, once every fold is scored. */
+  result(): CrossValidatedTree {
+    const alphas = this.#alphas;
+    const steps = this.#steps;
+    const path = this.#path;
+    const sum = new Float64Array(alphas.length);
+    const sumSq = new Float64Array(alphas.length);
+    const extraSums = this.#extraLosses.map(() => new Float64Array(alphas.length));
+    // Fold by fold, as crossValidateGrown adds them.
+    this.#parts.forEach((part, k) => {
+      if (part === null) throw new Error(`fold ${k} is not scored`);
+      for (let j = 0; j < alphas.length; j++) {
+        sum[j] += part.sum[j];
+        sumSq[j] += part.sumSq[j];
+      }
+      part.extra.forEach((values, e) => {
+        for (let j = 0; j < alphas.length; j++) extraSums[e][j] += values[j];
+      });
+    });
+    const n = this.#dataset.rows;
+    const candidates: AlphaCandidate[] = alphas.map((alpha, j) => {
+      const mean = sum[j] / n;
+      const variance = n > 1 ? Math.max(0, (sumSq[j] - n * mean * mean) / (n - 1)) : 0;
+      return {
+        alpha,
+        scoredAt: this.#scoredAt[j],
+        leaves: path.leaves[steps[j]],
+        risk: path.risks[steps[j]],
+        cvError: mean,
+        cvSe: Math.sqrt(variance / n),
+        cvRmse: Math.sqrt(mean),
+        cvRmseSe: mean > 0 ? Math.sqrt(variance / n) / (2 * Math.sqrt(mean)) : 0,
+        cvExtra: extraSums.map((s) => s[j] / n),
+      };
+    });
+    let best = 0;
+    for (let j = 1; j < candidates.length; j++) {
+      if (candidates[j].cvError < candidates[best].cvError) best = j;
+    }
+    let chosen = best;
+    if (this.#rule === "one-se") {
+      const limit = candidates[best].cvError + candidates[best].cvSe;
+      for (let j = candidates.length - 1; j > best; j--) {
+        if (candidates[j].cvError <= limit) {
+          chosen = j;
+          break;
+        }
       }
     }
+    const tree = subtreeAfter(this.#fullTree, path, steps[chosen]);
+    return { fullTree: this.#fullTree, candidates, chosen, best, tree, fold: this.#fold };
   }
-  const tree = subtreeAfter(fullTree, path, steps[chosen]);
-  return { fullTree, candidates, chosen, best, tree, fold };
 }
 
 /**

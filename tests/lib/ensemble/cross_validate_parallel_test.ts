@@ -8,15 +8,33 @@ import { smallPay } from "./_small_pay.ts";
 const DATASET = smallPay();
 
 Deno.test("trees grown on workers give the one-thread cross-validation exactly", async () => {
-  const options = { folds: 5, seed: 4, grow: { minLeaf: 3 }, rule: "min" as const };
+  // Extra losses too: each fold's sums are kept apart and added in fold
+  // order, whatever order the workers' trees come back in.
+  const options = {
+    folds: 5,
+    seed: 4,
+    grow: { minLeaf: 3 },
+    rule: "min" as const,
+    extraLosses: [
+      (a: number, p: number) => Math.abs(a - p),
+      (a: number, p: number) => (a - p) ** 4,
+    ],
+  };
   const alone = crossValidateTree(DATASET, options);
   for (const workers of [2, 3]) {
     const progress: [number, number][] = [];
+    let grownAt = -1;
     const parallel = await crossValidateTreeParallel(DATASET, {
       ...options,
       workers,
       onProgress: (done, total) => progress.push([done, total]),
+      onTreesGrown: () => {
+        assert.equal(grownAt, -1, "called once");
+        grownAt = progress.length;
+      },
     });
+    // When every tree is back.
+    assert.equal(grownAt, 6);
     assert.deepEqual(parallel.candidates, alone.candidates);
     assert.equal(parallel.chosen, alone.chosen);
     assert.equal(parallel.best, alone.best);

@@ -1,6 +1,12 @@
 import assert from "node:assert/strict";
 import { binFeatures } from "../../../lib/tree/bins.ts";
-import { assignFolds, crossValidateTree, scoreSubtrees } from "../../../lib/tree/cross_validate.ts";
+import {
+  assignFolds,
+  crossValidateGrown,
+  crossValidateTree,
+  FoldScores,
+  scoreSubtrees,
+} from "../../../lib/tree/cross_validate.ts";
 import { leafCount, predictedClass, predictRows } from "../../../lib/tree/flat_tree.ts";
 import { growTree } from "../../../lib/tree/grow_tree.ts";
 import { pruneTree } from "../../../lib/tree/prune.ts";
@@ -167,4 +173,47 @@ Deno.test("scoreSubtrees adds nothing when no row is held out", () => {
   const sumSq = new Float64Array(2);
   scoreSubtrees(t, data, () => false, [0, 1], sum, sumSq);
   assert.deepEqual(Array.from(sum), [0, 0]);
+});
+
+Deno.test("fold trees scored in any order give the same candidates, number for number", () => {
+  // Invented: fractional pay, so that adding the folds in another order
+  // would move the sums' last bits (a reversed addition is caught).
+  const rows = 300;
+  const tenure = Array.from({ length: rows }, (_, i) => (i * 13) % 37);
+  const office = Array.from({ length: rows }, (_, i) => (i * 7) % 4);
+  const wage = tenure.map((t, i) => 41.3 + 1.7 * t + 4.1 * office[i] + 7.3 * Math.sin(i * 1.3));
+  const table = regression([numeric("tenure", tenure), levels("office", office, 4)], wage);
+  const bins = binFeatures(table);
+  const folds = 10;
+  const fold = assignFolds(table, folds, 3);
+  const foldTrees = Array.from(
+    { length: folds },
+    (_, k) =>
+      growTree(
+        { dataset: table, bins, weights: Float64Array.from(fold, (f) => (f === k ? 0 : 1)) },
+        grow,
+      ),
+  );
+  const full = growTree({ dataset: table, bins }, grow);
+  const options = { extraLosses: [(a: number, p: number) => Math.abs(a - p) ** 1.5] };
+  const inOrder = crossValidateGrown(table, full, foldTrees, fold, options);
+  const reversed = Array.from({ length: folds }, (_, k) => folds - 1 - k);
+  const shuffled = [3, 7, 0, 9, 5, 1, 8, 2, 6, 4];
+  for (const order of [reversed, shuffled]) {
+    const scores = new FoldScores(table, full, fold, folds, options);
+    for (const k of order) scores.add(k, foldTrees[k]);
+    const result = scores.result();
+    assert.deepEqual(result.candidates, inOrder.candidates);
+    assert.equal(result.chosen, inOrder.chosen);
+    assert.deepEqual(result.tree, inOrder.tree);
+  }
+  // The same as the one-call cross-validation on those folds.
+  assert.deepEqual(
+    inOrder.candidates,
+    crossValidateTree(table, { folds, seed: 3, grow, ...options }).candidates,
+  );
+  const partial = new FoldScores(table, full, fold, folds);
+  for (const k of shuffled.slice(1)) partial.add(k, foldTrees[k]);
+  assert.throws(() => partial.result(), /fold 3 is not scored/);
+  assert.throws(() => partial.add(folds, foldTrees[0]), /no fold 10 of 10/);
 });
