@@ -32,6 +32,7 @@ import { reviewCommand } from "./commands/review.ts";
 import { exploreCommand } from "./commands/explore.ts";
 import { clipLongRuns, jsonText, terminalGuard } from "./render/safe_text.ts";
 import { KeyInterrupt, listenForStop } from "./stop_signals.ts";
+import wrapAnsi from "wrap-ansi";
 
 /**
  * Exit statuses of the `paygrove` command.
@@ -185,14 +186,22 @@ function report(error: unknown, terminal: Terminal, asJson = false): number {
   if (error instanceof OptionError) {
     // A name that matched nothing: worded here from what the lookup found.
     const message = error instanceof UnknownNameError ? unknownNameText(error) : errorWords(error);
-    terminal.err(`${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(message), false)}`);
+    terminal.err(
+      errorLines(
+        `${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(message), false)}`,
+        terminal,
+      ),
+    );
     // With --json, the error as data too, on stdout where the answer would be.
     if (asJson) terminal.out(jsonText(errorDocument(error, message)));
     return EXIT.usage;
   }
   if (error instanceof DataError) {
     terminal.err(
-      `${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(errorWords(error)), false)}`,
+      errorLines(
+        `${style.bold("paygrove:")} ${terminalGuard(clipLongRuns(errorWords(error)), false)}`,
+        terminal,
+      ),
     );
     if (asJson) terminal.out(jsonText(errorDocument(error, errorWords(error))));
     return EXIT.data;
@@ -202,6 +211,13 @@ function report(error: unknown, terminal: Terminal, asJson = false): number {
       `with the command you ran)\n${error instanceof Error ? error.stack : String(error)}`,
   );
   return EXIT.internal;
+}
+
+// A message for a person at a terminal, wrapped at spaces to its width (a
+// long path or figure stays whole); for a pipe or a file, as it is, one
+// line per item for scripts to read.
+function errorLines(text: string, terminal: Terminal): string {
+  return terminal.errIsTerminal === true ? wrapAnsi(text, terminal.width) : text;
 }
 
 if (import.meta.main) {
