@@ -75,8 +75,9 @@ export interface DefaultEnsembleOptions {
   onCrossValidation?: (done: number, total: number) => void;
   /**
    * Called when the cross-validation's trees are back from the workers,
-   * before this thread scores the last of them (see crossValidateTreeParallel): work
-   * sent aside to the pool then fills the workers' wait.
+   * before this thread scores the last of them (see
+   * crossValidateTreeParallel): work sent aside to the pool then fills the
+   * workers' wait.
    */
   onCrossValidationGrown?: () => void;
   /** Measure permutation importance as the trees are fitted (see `EnsembleOptions.importance`). */

@@ -3,9 +3,10 @@
  * between two runs: each worker gets a share of every question's features.
  * A whole fit sends it when the cross-validation's trees are back, and the
  * workers then check proxies while this thread scores the last of those
- * trees and starts the ensemble, time in which they would otherwise wait. The figures are proxyFigureSets' own: a
- * feature's votes do not depend on which other features are checked with it
- * (each tree's resample is drawn from the seed and the attribute alone).
+ * trees and starts the ensemble, time in which they would otherwise wait.
+ * The figures are proxyFigureSets' own: a feature's votes do not depend on
+ * which other features are checked with it (each tree's resample is drawn
+ * from the seed and the attribute alone).
  *
  * @module
  */
