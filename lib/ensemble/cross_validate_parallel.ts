@@ -79,23 +79,22 @@ export async function crossValidateTreeParallel(
   // while the workers grow the others; the last tree back is scored after
   // `onTreesGrown`, when work sent aside keeps the workers busy. (FoldScores
   // adds the folds in fold order, so the arrival order changes no number.)
-  let full: FlatTree | null = null;
   let scores: FoldScores | null = null;
   const waiting: { index: number; tree: FlatTree }[] = [];
+  // The fold trees waiting, once the full tree is here to score them by.
+  const scoreWaiting = () => {
+    for (const w of waiting.splice(0)) scores!.add(w.index, w.tree);
+  };
   let done = 0;
   await onFittingWorkers(on, opening, tasks, (reply) => {
     if (reply.kind !== "foldTree") return;
-    if (reply.index < 0) full = reply.tree;
+    if (reply.index < 0) scores = new FoldScores(dataset, reply.tree, fold, folds, options);
     else waiting.push({ index: reply.index, tree: reply.tree });
     done++;
-    if (full !== null && done < folds + 1) {
-      scores ??= new FoldScores(dataset, full, fold, folds, options);
-      for (const w of waiting.splice(0)) scores.add(w.index, w.tree);
-    }
+    if (scores !== null && done < folds + 1) scoreWaiting();
     options.onProgress?.(done, folds + 1);
   });
   options.onTreesGrown?.();
-  scores ??= new FoldScores(dataset, full!, fold, folds, options);
-  for (const w of waiting) scores.add(w.index, w.tree);
-  return scores.result();
+  scoreWaiting();
+  return (scores as FoldScores | null)!.result();
 }

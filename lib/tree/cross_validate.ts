@@ -239,11 +239,10 @@ export class FoldScores {
     // Distinct alphas: of a run of equal alphas keep the last step.
     this.#steps = distinctSteps(this.#path);
     this.#alphas = this.#steps.map((s) => this.#path.alphas[s]);
+    // Each candidate is scored at the geometric mean of its alpha interval.
     const alphas = this.#alphas;
-    this.#scoredAt = alphas.map((
-      a,
-      j,
-    ) => (j + 1 < alphas.length ? Math.sqrt(a * alphas[j + 1]) : a));
+    const last = alphas.length - 1;
+    this.#scoredAt = alphas.map((a, j) => (j < last ? Math.sqrt(a * alphas[j + 1]) : a));
     this.#parts = Array.from({ length: folds }, () => null);
   }
 
