@@ -7,6 +7,7 @@
  */
 
 import { checkbox, input, select } from "@inquirer/prompts";
+import wrapAnsi from "wrap-ansi";
 import { terminalGuard, terminalText } from "../render/safe_text.ts";
 import type { Style } from "../render/style.ts";
 import type { ModelSession, Profile } from "../../mod.ts";
@@ -178,8 +179,14 @@ export function streamFlowIO(
     }));
   return {
     // The last check on the screen: only paygrove's own styles get through.
+    // Lines longer than the screen are wrapped at spaces here, the one
+    // place every sentence passes (a long warning broke "10,000" in two at
+    // 80 columns); shorter lines, indents and tables are left as they are.
     say: (text) => {
-      const safe = terminalGuard(text, options.style.enabled);
+      const safe = wrapAnsi(terminalGuard(text, options.style.enabled), options.width, {
+        trim: false,
+        hard: false,
+      }).replace(/ +\n/g, "\n");
       streams.output.write(safe.endsWith("\n") ? safe : `${safe}\n`);
     },
     // Every screen of the flow draws with the glyphs --ascii chose.
